@@ -1,0 +1,14 @@
+// Jest runs in native ESM mode (NODE_OPTIONS=--experimental-vm-modules): @nestjs/* 12 is ESM-only.
+export default {
+  testEnvironment: 'node',
+  extensionsToTreatAsEsm: ['.ts'],
+  roots: ['<rootDir>/src', '<rootDir>/test'],
+  testMatch: ['**/*.spec.ts', '**/*.e2e-spec.ts'],
+  moduleNameMapper: {
+    '^@kilocycle/common/(.*)$': '<rootDir>/../common/src/$1/index.ts',
+    '^(\\.{1,2}/.*)\\.js$': '$1',
+  },
+  transform: { '^.+\\.ts$': ['ts-jest', { useESM: true, tsconfig: '<rootDir>/tsconfig.spec.json' }] },
+  testTimeout: 60000,
+  maxWorkers: 1,
+};

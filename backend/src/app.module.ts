@@ -1,0 +1,26 @@
+import { Module } from '@nestjs/common';
+import { TypeOrmModule } from '@nestjs/typeorm';
+import { AuditModule } from './audit/audit.module.js';
+import { AuthModule } from './auth/auth.module.js';
+import { APP_CONFIG, type AppConfig } from './config/app-config.js';
+import { ConfigModule } from './config/config.module.js';
+import { typeormOptions } from './database/typeorm-options.js';
+import { HealthModule } from './health/health.module.js';
+import { OrganizationsModule } from './organizations/organizations.module.js';
+import { UsersModule } from './users/users.module.js';
+
+@Module({
+  imports: [
+    ConfigModule,
+    TypeOrmModule.forRootAsync({
+      inject: [APP_CONFIG],
+      useFactory: (config: AppConfig) => ({ ...typeormOptions(config), autoLoadEntities: true, retryAttempts: 3, retryDelay: 1000 }),
+    }),
+    AuditModule,
+    AuthModule,
+    HealthModule,
+    OrganizationsModule,
+    UsersModule,
+  ],
+})
+export class AppModule {}

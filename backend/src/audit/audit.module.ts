@@ -1,0 +1,12 @@
+import { Global, Module } from '@nestjs/common';
+import { TypeOrmModule } from '@nestjs/typeorm';
+import { AuditEvent } from './audit-event.entity.js';
+import { AuditService } from './audit.service.js';
+
+@Global()
+@Module({
+  imports: [TypeOrmModule.forFeature([AuditEvent])],
+  providers: [AuditService],
+  exports: [AuditService],
+})
+export class AuditModule {}

@@ -1,0 +1,34 @@
+import { Body, Controller, Get, HttpCode, Ip, Post } from '@nestjs/common';
+import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
+import type { LoginResponse, SessionUser } from '@kilocycle/common/types';
+import type { AuthUser } from './auth-user.js';
+import { AuthService } from './auth.service.js';
+import { CurrentUser, Public } from './decorators.js';
+import { LoginDto } from './dto/login.dto.js';
+
+@ApiTags('auth')
+@Controller('auth')
+export class AuthController {
+  constructor(private readonly auth: AuthService) {}
+
+  @Public()
+  @Post('login')
+  @HttpCode(200)
+  login(@Body() body: LoginDto, @Ip() address: string): Promise<LoginResponse> {
+    return this.auth.login(body.email, body.password, address);
+  }
+
+  @ApiBearerAuth()
+  @Get('me')
+  me(@CurrentUser() user: AuthUser): SessionUser {
+    const { jti: _jti, exp: _exp, ...session } = user;
+    return session;
+  }
+
+  @ApiBearerAuth()
+  @Post('logout')
+  @HttpCode(204)
+  async logout(@CurrentUser() user: AuthUser): Promise<void> {
+    await this.auth.logout(user);
+  }
+}

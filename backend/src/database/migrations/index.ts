@@ -1,0 +1,4 @@
+import { CreateAccounts1764633600000 } from './1764633600000-CreateAccounts.js';
+
+/** Every migration, oldest first. Listed as classes so jest (ESM) and the build load the same code. */
+export const MIGRATIONS = [CreateAccounts1764633600000];

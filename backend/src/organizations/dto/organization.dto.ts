@@ -1,0 +1,53 @@
+import { Transform } from 'class-transformer';
+import { IsBoolean, IsEmail, IsIn, IsOptional, IsString, MaxLength, MinLength, ValidateIf } from 'class-validator';
+import {
+  ORGANIZATION_KINDS,
+  type CreateOrganizationRequest,
+  type OrganizationKind,
+  type UpdateOrganizationRequest,
+} from '@kilocycle/common/types';
+import { ListQueryDto } from '../../shared/list-query.dto.js';
+
+export class CreateOrganizationDto implements CreateOrganizationRequest {
+  @IsString()
+  @Transform(({ value }) => (typeof value === 'string' ? value.trim() : value))
+  @MinLength(1, { message: 'name must not be empty' })
+  @MaxLength(200)
+  name: string;
+
+  @IsIn(ORGANIZATION_KINDS, { message: `kind must be one of: ${ORGANIZATION_KINDS.join(', ')}` })
+  kind: OrganizationKind;
+
+  @IsOptional()
+  @ValidateIf((_o, v) => v !== null)
+  @IsEmail({}, { message: 'contactEmail must be an e-mail address' })
+  contactEmail?: string | null;
+}
+
+export class UpdateOrganizationDto implements UpdateOrganizationRequest {
+  @IsOptional()
+  @IsString()
+  @MinLength(1)
+  @MaxLength(200)
+  name?: string;
+
+  @IsOptional()
+  @ValidateIf((_o, v) => v !== null)
+  @IsEmail({}, { message: 'contactEmail must be an e-mail address' })
+  contactEmail?: string | null;
+
+  @IsOptional()
+  @IsBoolean()
+  active?: boolean;
+}
+
+export class ListOrganizationsQueryDto extends ListQueryDto {
+  @IsOptional()
+  @IsIn(ORGANIZATION_KINDS)
+  kind?: OrganizationKind;
+
+  @IsOptional()
+  @Transform(({ value }) => (value === 'true' ? true : value === 'false' ? false : value))
+  @IsBoolean()
+  active?: boolean;
+}

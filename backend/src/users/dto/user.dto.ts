@@ -1,0 +1,74 @@
+import { Transform, Type } from 'class-transformer';
+import { IsBoolean, IsEmail, IsIn, IsInt, IsOptional, IsString, MaxLength, Min, MinLength } from 'class-validator';
+import {
+  MIN_PASSWORD_LENGTH,
+  ROLES,
+  type CreateUserRequest,
+  type Role,
+  type UpdateUserRequest,
+} from '@kilocycle/common/types';
+import { ListQueryDto } from '../../shared/list-query.dto.js';
+
+const passwordMessage = `password must be at least ${MIN_PASSWORD_LENGTH} characters`;
+
+export class CreateUserDto implements CreateUserRequest {
+  @IsEmail({}, { message: 'email must be an e-mail address' })
+  @MaxLength(254)
+  @Transform(({ value }) => (typeof value === 'string' ? value.trim().toLowerCase() : value))
+  email: string;
+
+  @IsString()
+  @MinLength(1)
+  @MaxLength(200)
+  name: string;
+
+  @IsIn(ROLES, { message: `role must be one of: ${ROLES.join(', ')}` })
+  role: Role;
+
+  @IsInt()
+  @Min(1)
+  organizationId: number;
+
+  @IsString()
+  @MinLength(MIN_PASSWORD_LENGTH, { message: passwordMessage })
+  @MaxLength(200)
+  password: string;
+}
+
+export class UpdateUserDto implements UpdateUserRequest {
+  @IsOptional()
+  @IsString()
+  @MinLength(1)
+  @MaxLength(200)
+  name?: string;
+
+  @IsOptional()
+  @IsIn(ROLES, { message: `role must be one of: ${ROLES.join(', ')}` })
+  role?: Role;
+
+  @IsOptional()
+  @IsBoolean()
+  active?: boolean;
+
+  @IsOptional()
+  @IsString()
+  @MinLength(MIN_PASSWORD_LENGTH, { message: passwordMessage })
+  @MaxLength(200)
+  password?: string;
+}
+
+export class ListUsersQueryDto extends ListQueryDto {
+  @IsOptional()
+  @IsIn(ROLES)
+  role?: Role;
+
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt()
+  organizationId?: number;
+
+  @IsOptional()
+  @Transform(({ value }) => (value === 'true' ? true : value === 'false' ? false : value))
+  @IsBoolean()
+  active?: boolean;
+}

@@ -1,0 +1,113 @@
+import { BadRequestException, ConflictException, Inject, Injectable, NotFoundException } from '@nestjs/common';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import bcrypt from 'bcryptjs';
+import type { DataSource, Repository } from 'typeorm';
+import type { ListResponse, User as UserView } from '@kilocycle/common/types';
+import { AuditService } from '../audit/audit.service.js';
+import { organizationScope, type AuthUser } from '../auth/auth-user.js';
+import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { Organization } from '../organizations/organization.entity.js';
+import { likePattern, paginate } from '../shared/paginate.js';
+import type { CreateUserDto, ListUsersQueryDto, UpdateUserDto } from './dto/user.dto.js';
+import { User } from './user.entity.js';
+
+export function toUserView(user: User): UserView {
+  return {
+    id: user.id,
+    email: user.email,
+    name: user.name,
+    role: user.role,
+    organizationId: user.organizationId,
+    organizationName: user.organization?.name ?? '',
+    active: user.active,
+    createdAt: user.createdAt.toISOString(),
+  };
+}
+
+const SORTABLE = { id: 'u.id', email: 'u.email', name: 'u.name', role: 'u.role', createdAt: 'u.createdAt', organizationName: 'o.name' };
+
+@Injectable()
+export class UsersService {
+  constructor(
+    @InjectRepository(User) private readonly users: Repository<User>,
+    @InjectDataSource() private readonly dataSource: DataSource,
+    private readonly audit: AuditService,
+    @Inject(APP_CONFIG) private readonly config: AppConfig,
+  ) {}
+
+  async list(actor: AuthUser, query: ListUsersQueryDto): Promise<ListResponse<UserView>> {
+    const qb = this.users.createQueryBuilder('u').innerJoinAndSelect('u.organization', 'o');
+    const scope = organizationScope(actor);
+    if (scope !== null) qb.andWhere('u.organizationId = :scope', { scope });
+    if (query.organizationId !== undefined) qb.andWhere('u.organizationId = :org', { org: query.organizationId });
+    if (query.role) qb.andWhere('u.role = :role', { role: query.role });
+    if (query.active !== undefined) qb.andWhere('u.active = :active', { active: query.active });
+    if (query.q) qb.andWhere('(u.email LIKE :q OR u.name LIKE :q)', { q: likePattern(query.q) });
+    return paginate(qb, query, SORTABLE, 'name', toUserView);
+  }
+
+  async get(actor: AuthUser, id: number): Promise<UserView> {
+    const user = await this.users.findOne({ where: { id }, relations: { organization: true } });
+    const scope = organizationScope(actor);
+    // A client asking for another organisation's user is told it does not exist.
+    if (!user || (scope !== null && user.organizationId !== scope)) throw new NotFoundException(`User ${id} not found`);
+    return toUserView(user);
+  }
+
+  async create(actor: AuthUser, body: CreateUserDto): Promise<UserView> {
+    const id = await this.dataSource.transaction(async (manager) => {
+      const organization = await manager.findOneBy(Organization, { id: body.organizationId });
+      if (!organization) throw new BadRequestException(`organizationId ${body.organizationId} does not exist`);
+      if (body.role === 'client' && organization.kind !== 'customer') {
+        throw new BadRequestException('a client must belong to a customer organisation');
+      }
+      if (body.role !== 'client' && organization.kind !== 'lab') {
+        throw new BadRequestException(`a ${body.role} must belong to the lab organisation`);
+      }
+      if (await manager.existsBy(User, { email: body.email })) {
+        throw new ConflictException(`A user with e-mail ${body.email} already exists`);
+      }
+      const passwordHash = await bcrypt.hash(body.password, this.config.bcryptCost);
+      const result = await manager.insert(User, {
+        email: body.email,
+        name: body.name,
+        role: body.role,
+        organizationId: body.organizationId,
+        passwordHash,
+      });
+      const newId = result.identifiers[0].id as number;
+      await this.audit.record(
+        { actorId: actor.id, entity: 'user', entityId: newId, action: 'create', changes: { email: body.email, role: body.role, organizationId: body.organizationId } },
+        manager,
+      );
+      return newId;
+    });
+    return this.get(actor, id);
+  }
+
+  async update(actor: AuthUser, id: number, body: UpdateUserDto): Promise<UserView> {
+    await this.dataSource.transaction(async (manager) => {
+      const user = await manager.findOneBy(User, { id });
+      if (!user) throw new NotFoundException(`User ${id} not found`);
+      if (id === actor.id && (body.active === false || (body.role && body.role !== actor.role))) {
+        throw new BadRequestException('you cannot deactivate yourself or change your own role');
+      }
+      const changes: Record<string, unknown> = {};
+      const patch: Partial<User> = {};
+      for (const key of ['name', 'role', 'active'] as const) {
+        if (body[key] !== undefined && body[key] !== user[key]) {
+          changes[key] = { from: user[key], to: body[key] };
+          Object.assign(patch, { [key]: body[key] });
+        }
+      }
+      if (body.password) {
+        patch.passwordHash = await bcrypt.hash(body.password, this.config.bcryptCost);
+        changes.password = 'changed';
+      }
+      if (Object.keys(patch).length === 0) return;
+      await manager.update(User, { id }, patch);
+      await this.audit.record({ actorId: actor.id, entity: 'user', entityId: id, action: 'update', changes }, manager);
+    });
+    return this.get(actor, id);
+  }
+}

@@ -1,0 +1,19 @@
+export const ROLES = ['admin', 'lead', 'technician', 'engineer', 'client'] as const;
+export type Role = (typeof ROLES)[number];
+
+/** Roles that belong to the lab itself (everyone but a customer's client). */
+export const LAB_ROLES: readonly Role[] = ['admin', 'lead', 'technician', 'engineer'];
+
+export const MIN_PASSWORD_LENGTH = 12;
+
+export type LoginRequest = { email: string; password: string };
+
+export type SessionUser = {
+  id: number;
+  email: string;
+  name: string;
+  role: Role;
+  organizationId: number;
+};
+
+export type LoginResponse = { accessToken: string; user: SessionUser };

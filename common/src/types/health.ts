@@ -1,0 +1,1 @@
+export type HealthResponse = { status: 'ok' | 'degraded'; database: 'up' | 'down'; version: string };

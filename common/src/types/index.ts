@@ -1,0 +1,5 @@
+export * from './auth.js';
+export * from './health.js';
+export * from './list.js';
+export * from './organizations.js';
+export * from './users.js';
