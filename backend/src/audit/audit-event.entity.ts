@@ -10,7 +10,7 @@ export class AuditEvent {
   @Column({ name: 'actor_id', type: 'int', nullable: true })
   actorId: number | null;
 
-  @CreateDateColumn({ type: 'datetime', precision: 3 })
+  @CreateDateColumn({ type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
   at: Date;
 
   @Column({ type: 'varchar', length: 40 })

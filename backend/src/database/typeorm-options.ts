@@ -5,7 +5,7 @@ import { MIGRATIONS } from './migrations/index.js';
 /** Connection options shared by Nest, the CLI data source and the tests. `synchronize` is always off. */
 export function typeormOptions(config: AppConfig): DataSourceOptions {
   return {
-    type: 'mysql',
+    type: 'mariadb',
     host: config.db.host,
     port: config.db.port,
     username: config.db.user,

@@ -17,15 +17,20 @@ export class HealthController {
   @Public()
   @Get()
   async check(@Res({ passthrough: true }) res: Response): Promise<HealthResponse> {
+    let timer: NodeJS.Timeout | undefined;
     try {
       await Promise.race([
         this.dataSource.query('SELECT 1'),
-        new Promise((_, reject) => setTimeout(() => reject(new Error('database did not answer in 3 s')), 3000)),
+        new Promise((_, reject) => {
+          timer = setTimeout(() => reject(new Error('database did not answer in 3 s')), 3000);
+        }),
       ]);
       return { status: 'ok', database: 'up', version: APP_VERSION };
     } catch {
       res.status(HttpStatus.SERVICE_UNAVAILABLE);
       return { status: 'degraded', database: 'down', version: APP_VERSION };
+    } finally {
+      clearTimeout(timer);
     }
   }
 }
