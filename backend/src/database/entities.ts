@@ -1,10 +1,21 @@
 import { AuditEvent } from '../audit/audit-event.entity.js';
 import { RevokedToken } from '../auth/revoked-token.entity.js';
+import { Bench } from '../benches/bench.entity.js';
+import { InstrumentRange } from '../instruments/instrument-range.entity.js';
+import { Instrument } from '../instruments/instrument.entity.js';
+import { Job } from '../jobs/job.entity.js';
 import { Organization } from '../organizations/organization.entity.js';
+import { ReadingExclusion } from '../readings/reading-exclusion.entity.js';
+import { Reading } from '../readings/reading.entity.js';
+import { Run } from '../runs/run.entity.js';
+import { Standard } from '../standards/standard.entity.js';
 import { User } from '../users/user.entity.js';
 
 /**
  * Every entity, for the stand-alone data source (CLI, seed, benchmarks). Nest modules register their
  * own with forFeature and autoLoadEntities; this list exists only for code that runs outside Nest.
  */
-export const ENTITIES = [Organization, User, AuditEvent, RevokedToken];
+export const ENTITIES = [
+  Organization, User, AuditEvent, RevokedToken,
+  Instrument, InstrumentRange, Standard, Bench, Job, Run, Reading, ReadingExclusion,
+];

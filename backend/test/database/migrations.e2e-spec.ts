@@ -26,7 +26,7 @@ describe('migrations (e2e, MariaDB)', () => {
       const ran = await ds.runMigrations({ transaction: 'each' });
       expect(ran.map((m) => m.name)).toEqual(MIGRATIONS.map((m) => new m().name));
       const tables = (await ds.query('SHOW TABLES')).map((r: Record<string, string>) => Object.values(r)[0]).sort();
-      for (const table of ['organizations', 'users', 'audit_events', 'revoked_tokens']) expect(tables).toContain(table);
+      for (const table of ['organizations', 'users', 'audit_events', 'revoked_tokens', 'instruments', 'readings']) expect(tables).toContain(table);
       // The schema the migrations built is the one the entities describe (what migration:generate compares).
       const pending = await ds.driver.createSchemaBuilder().log();
       expect(pending.upQueries.map((q) => q.query)).toEqual([]);

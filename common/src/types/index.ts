@@ -1,5 +1,6 @@
 export * from './auth.js';
 export * from './health.js';
+export * from './lab.js';
 export * from './list.js';
 export * from './organizations.js';
 export * from './users.js';

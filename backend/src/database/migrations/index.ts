@@ -1,4 +1,5 @@
 import { CreateAccounts1764633600000 } from './1764633600000-CreateAccounts.js';
+import { CreateLabRecords1764637200000 } from './1764637200000-CreateLabRecords.js';
 
 /** Every migration, oldest first. Listed as classes so jest (ESM) and the build load the same code. */
-export const MIGRATIONS = [CreateAccounts1764633600000];
+export const MIGRATIONS = [CreateAccounts1764633600000, CreateLabRecords1764637200000];

@@ -1,0 +1,43 @@
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import type { ReadingSource } from '@kilocycle/common/types';
+import { Run } from '../runs/run.entity.js';
+
+/**
+ * One reading. Rows are never updated or deleted (a database trigger refuses it); a wrong reading is
+ * excluded by a row in reading_exclusions. The hot write path is ReadingsWriter's multi-row INSERT IGNORE.
+ */
+@Entity('readings')
+@Index('UQ_readings_run_seq', ['runId', 'seq'], { unique: true })
+export class Reading {
+  @PrimaryGeneratedColumn({ type: 'bigint' })
+  id: string;
+
+  @Column({ name: 'run_id', type: 'int' })
+  runId: number;
+
+  @ManyToOne(() => Run, { onDelete: 'RESTRICT' })
+  @JoinColumn({ name: 'run_id', foreignKeyConstraintName: 'FK_readings_run' })
+  run: Relation<Run>;
+
+  @Column({ type: 'int' })
+  seq: number;
+
+  /** Seconds since the run started. */
+  @Column({ name: 't_s', type: 'double' })
+  t: number;
+
+  @Column({ type: 'double', nullable: true })
+  dial: number | null;
+
+  @Column({ name: 'frequency_hz', type: 'double' })
+  frequency: number;
+
+  @Column({ type: 'double', nullable: true })
+  aux: number | null;
+
+  @Column({ type: 'varchar', length: 8 })
+  source: ReadingSource;
+
+  @Column({ name: 'received_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  receivedAt: Date;
+}

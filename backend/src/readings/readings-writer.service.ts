@@ -1,0 +1,195 @@
+import { Injectable } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import { Subject } from 'rxjs';
+import type { DataSource } from 'typeorm';
+import {
+  CALIBRATION_RUN_KINDS,
+  type IngestAck,
+  type JobStatus,
+  type Reading as ReadingView,
+  type ReadingInput,
+  type ReadingSource,
+  type RunKind,
+  type RunStatus,
+} from '@kilocycle/common/types';
+import { parseFrequency, parseNumber } from '@kilocycle/common/units';
+
+export const MAX_BATCH = 1000;
+/** Frequencies above this are refused as implausible for the equipment a lab of this kind measures. */
+export const MAX_FREQUENCY_HZ = 1e11;
+/** A reading's time since the run started may be at most 31 days. */
+export const MAX_T_SECONDS = 31 * 86400;
+const DIAL_MARGIN = 0.1;
+
+/** What the write path needs to know about a run; loaded in one query. */
+export type RunWriteContext = {
+  runId: number;
+  kind: RunKind;
+  status: RunStatus;
+  jobStatus: JobStatus;
+  benchId: number | null;
+  organizationId: number;
+  dialMin: number;
+  dialMax: number;
+  startedAt: Date;
+};
+
+export type StoredBatch = { runId: number; readings: ReadingView[] };
+export type AppendResult = IngestAck & { stored: ReadingView[] };
+
+type Row = { seq: number | null; t: number; dial: number | null; frequency: number; aux: number | null };
+
+/** Why a run takes no readings now, or null when it does. */
+export function refusalReason(ctx: RunWriteContext): string | null {
+  if (ctx.status !== 'open') return `run ${ctx.runId} is closed`;
+  if (ctx.jobStatus === 'approved' || ctx.jobStatus === 'issued') return `run ${ctx.runId} belongs to a job that is ${ctx.jobStatus}`;
+  if (ctx.jobStatus === 'in_review') return `run ${ctx.runId} belongs to a job that is in review`;
+  return null;
+}
+
+/**
+ * The one write path for readings: the bench page, CSV import and the bridge all come through here.
+ * Each reading is validated on its own; the valid ones are stored with one multi-row INSERT IGNORE,
+ * so a (run, seq) pair is stored exactly once however often it is sent.
+ */
+@Injectable()
+export class ReadingsWriter {
+  /** Every batch that stored at least one reading; the live gateway pushes these to browsers. */
+  readonly stored$ = new Subject<StoredBatch>();
+
+  constructor(@InjectDataSource() private readonly dataSource: DataSource) {}
+
+  async loadContext(runId: number): Promise<RunWriteContext | null> {
+    const [row] = await this.dataSource.query(
+      `SELECT r.id, r.kind, r.status, r.bench_id, r.started_at, j.status AS job_status, j.organization_id,
+              g.dial_min, g.dial_max
+         FROM runs r JOIN jobs j ON j.id = r.job_id JOIN instrument_ranges g ON g.id = r.range_id
+        WHERE r.id = ?`,
+      [runId],
+    );
+    if (!row) return null;
+    return {
+      runId: row.id,
+      kind: row.kind,
+      status: row.status,
+      jobStatus: row.job_status,
+      benchId: row.bench_id,
+      organizationId: row.organization_id,
+      dialMin: Number(row.dial_min),
+      dialMax: Number(row.dial_max),
+      startedAt: new Date(row.started_at),
+    };
+  }
+
+  /** Checks every reading; returns the rows to store and the refused ones, each with its reason. */
+  validate(ctx: RunWriteContext, inputs: readonly ReadingInput[], now = Date.now()): { rows: Row[]; rejected: IngestAck['rejected'] } {
+    const rows: Row[] = [];
+    const rejected: IngestAck['rejected'] = [];
+    const needsDial = CALIBRATION_RUN_KINDS.includes(ctx.kind);
+    const span = ctx.dialMax - ctx.dialMin;
+    const dialLow = ctx.dialMin - DIAL_MARGIN * span;
+    const dialHigh = ctx.dialMax + DIAL_MARGIN * span;
+    inputs.forEach((input, index) => {
+      const rawSeq = (input as { seq?: unknown } | null)?.seq;
+      const seq = Number.isInteger(rawSeq) ? (rawSeq as number) : null;
+      const refuse = (field: string, reason: string) => rejected.push({ seq, index, field, reason });
+      if (input === null || typeof input !== 'object') return refuse('reading', 'each reading must be an object');
+      if (rawSeq !== undefined && (seq === null || seq < 1 || seq > 2_147_483_647)) {
+        return refuse('seq', 'seq must be a whole number from 1 to 2147483647');
+      }
+      let frequency: number;
+      try {
+        if (typeof input.frequency !== 'number' && typeof input.frequency !== 'string') throw new Error('frequency is required (a number in Hz or text such as "1.735 MHz")');
+        frequency = parseFrequency(input.frequency, 'Hz');
+      } catch (error) {
+        return refuse('frequency', error instanceof Error ? error.message : String(error));
+      }
+      if (frequency > MAX_FREQUENCY_HZ) return refuse('frequency', `frequency ${frequency} Hz is above the ${MAX_FREQUENCY_HZ} Hz limit`);
+      let dial: number | null = null;
+      if (input.dial !== undefined && input.dial !== null && input.dial !== '') {
+        try {
+          dial = parseNumber(input.dial);
+        } catch (error) {
+          return refuse('dial', error instanceof Error ? error.message : String(error));
+        }
+        if (dial < dialLow || dial > dialHigh) {
+          return refuse('dial', `dial ${dial} is outside the range's dial span ${ctx.dialMin} to ${ctx.dialMax} by more than 10 %`);
+        }
+      } else if (needsDial) {
+        return refuse('dial', `a dial setting is required in an ${ctx.kind} run`);
+      }
+      let t: number;
+      if (input.t === undefined || input.t === null) {
+        t = Math.max(0, (now - ctx.startedAt.getTime()) / 1000);
+      } else if (typeof input.t !== 'number' || !Number.isFinite(input.t) || input.t < 0 || input.t > MAX_T_SECONDS) {
+        return refuse('t', `t must be seconds since the run started, from 0 to ${MAX_T_SECONDS}`);
+      } else {
+        t = input.t;
+      }
+      let aux: number | null = null;
+      if (input.aux !== undefined && input.aux !== null) {
+        if (typeof input.aux !== 'number' || !Number.isFinite(input.aux)) return refuse('aux', 'aux must be a finite number');
+        aux = input.aux;
+      }
+      rows.push({ seq, t, dial, frequency, aux });
+    });
+    return { rows, rejected };
+  }
+
+  /**
+   * Validates and stores a batch. Readings without a seq (typed at the bench) are numbered after the
+   * run's last one under a lock on the run row; readings with a seq (the bridge) need no lock.
+   */
+  async append(ctx: RunWriteContext, inputs: readonly ReadingInput[], source: ReadingSource): Promise<AppendResult> {
+    const { rows, rejected } = this.validate(ctx, inputs);
+    if (rows.length === 0) {
+      return { accepted: 0, duplicates: 0, rejected, lastSeq: await this.lastSeq(ctx.runId), stored: [] };
+    }
+    const needsNumbers = rows.some((r) => r.seq === null);
+    const stored = await this.dataSource.transaction(async (manager) => {
+      if (needsNumbers) {
+        await manager.query('SELECT id FROM runs WHERE id = ? FOR UPDATE', [ctx.runId]);
+        const [{ last }] = await manager.query('SELECT COALESCE(MAX(seq), 0) AS last FROM readings WHERE run_id = ?', [ctx.runId]);
+        let next = Number(last);
+        for (const row of rows) if (row.seq === null) row.seq = ++next;
+      }
+      const values = rows.map((r) => [ctx.runId, r.seq, r.t, r.dial, r.frequency, r.aux, source]);
+      const result = await manager.query(
+        'INSERT IGNORE INTO readings (run_id, seq, t_s, dial, frequency_hz, aux, source) VALUES ?',
+        [values],
+      );
+      const inserted = Number(result.affectedRows ?? 0);
+      if (inserted === 0) return [] as ReadingView[];
+      // Rows this statement inserted have ids from insertId on; older duplicates have smaller ids.
+      const fetched = await manager.query(
+        `SELECT id, seq, t_s, dial, frequency_hz, aux, source, received_at FROM readings
+          WHERE run_id = ? AND id >= ? ORDER BY seq LIMIT ?`,
+        [ctx.runId, result.insertId, rows.length],
+      );
+      return (fetched as Array<Record<string, unknown>>).map((row) => toReadingView(row));
+    });
+    const lastSeq = await this.lastSeq(ctx.runId);
+    if (stored.length > 0) this.stored$.next({ runId: ctx.runId, readings: stored });
+    return { accepted: stored.length, duplicates: rows.length - stored.length, rejected, lastSeq, stored };
+  }
+
+  async lastSeq(runId: number): Promise<number> {
+    const [{ last }] = await this.dataSource.query('SELECT COALESCE(MAX(seq), 0) AS last FROM readings WHERE run_id = ?', [runId]);
+    return Number(last);
+  }
+}
+
+export function toReadingView(row: Record<string, unknown>, exclusion?: { reason: string } | null): ReadingView {
+  return {
+    id: Number(row.id),
+    seq: Number(row.seq),
+    t: Number(row.t_s),
+    dial: row.dial === null ? null : Number(row.dial),
+    frequency: Number(row.frequency_hz),
+    aux: row.aux === null || row.aux === undefined ? null : Number(row.aux),
+    source: row.source as ReadingSource,
+    receivedAt: new Date(row.received_at as string).toISOString(),
+    excluded: Boolean(exclusion ?? row.excluded_reason),
+    excludedReason: exclusion?.reason ?? (row.excluded_reason as string | null) ?? null,
+  };
+}
