@@ -1,0 +1,32 @@
+import { describe, expect, it } from 'vitest';
+import { ROLES } from '@kilocycle/common/types';
+import { NAV_ITEMS, navItemsFor, rolesFor } from '../navigation';
+
+const labels = (role: Parameters<typeof navItemsFor>[0]) => navItemsFor(role).map((item) => item.label);
+
+describe('navigation', () => {
+  it('shows an administrator the overview and both admin pages', () => {
+    expect(labels('admin')).toEqual(['Overview', 'Users', 'Organisations']);
+  });
+
+  it('shows a client only the overview', () => {
+    expect(labels('client')).toEqual(['Overview']);
+    expect(labels('client')).not.toContain('Users');
+    expect(labels('client')).not.toContain('Organisations');
+  });
+
+  it.each(['lead', 'technician', 'engineer'] as const)('keeps the admin pages from a %s', (role) => {
+    expect(labels(role)).toEqual(['Overview']);
+  });
+
+  it('gives every role the overview and every entry a unique path', () => {
+    for (const role of ROLES) expect(labels(role)).toContain('Overview');
+    const pathsSeen = NAV_ITEMS.map((item) => item.path);
+    expect(new Set(pathsSeen).size).toBe(pathsSeen.length);
+  });
+
+  it('gives the router the same roles as the navigation entry', () => {
+    expect(rolesFor('/admin/users')).toEqual(['admin']);
+    expect(() => rolesFor('/nowhere')).toThrow('No navigation entry for /nowhere');
+  });
+});

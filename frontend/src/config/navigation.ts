@@ -1,0 +1,31 @@
+import BusinessOutlined from '@mui/icons-material/BusinessOutlined';
+import PeopleOutlined from '@mui/icons-material/PeopleOutlined';
+import SpaceDashboardOutlined from '@mui/icons-material/SpaceDashboardOutlined';
+import type SvgIcon from '@mui/material/SvgIcon';
+import { ROLES, type Role } from '@kilocycle/common/types';
+import { paths } from './paths';
+
+export type NavItem = {
+  label: string;
+  path: string;
+  icon: typeof SvgIcon;
+  roles: readonly Role[];
+};
+
+// The single list of pages in the side navigation. The router guards each page with the same roles.
+export const NAV_ITEMS: readonly NavItem[] = [
+  { label: 'Overview', path: paths.home, icon: SpaceDashboardOutlined, roles: ROLES },
+  { label: 'Users', path: paths.adminUsers, icon: PeopleOutlined, roles: ['admin'] },
+  { label: 'Organisations', path: paths.adminOrganisations, icon: BusinessOutlined, roles: ['admin'] },
+];
+
+export function navItemsFor(role: Role, items: readonly NavItem[] = NAV_ITEMS): NavItem[] {
+  return items.filter((item) => item.roles.includes(role));
+}
+
+/** The roles allowed on a navigation entry's page; throws for a path that has no entry. */
+export function rolesFor(path: string, items: readonly NavItem[] = NAV_ITEMS): readonly Role[] {
+  const item = items.find((entry) => entry.path === path);
+  if (!item) throw new Error(`No navigation entry for ${path}`);
+  return item.roles;
+}
