@@ -4,6 +4,7 @@ import type { Role } from '@kilocycle/common/types';
 import type { AppConfig } from '../config/app-config.js';
 import { Organization } from '../organizations/organization.entity.js';
 import { User } from '../users/user.entity.js';
+import { DEMO_EXTENSIONS } from './demo-extensions.js';
 
 export const DEMO_PASSWORD = 'kilocycle-demo';
 export const DEMO_LAB = 'Quarry Lane Frequency Lab';
@@ -28,9 +29,7 @@ export type DemoContext = {
   userIds: Record<string, number>;
 };
 
-/** Later modules add their demo records here (instruments, jobs, runs…), each given the context above. */
 export type DemoExtension = (context: DemoContext) => Promise<void>;
-export const DEMO_EXTENSIONS: DemoExtension[] = [];
 
 /**
  * Loads the invented demo scenario once. Running it again changes nothing: it returns false when the

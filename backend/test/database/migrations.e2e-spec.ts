@@ -5,7 +5,7 @@ import { MIGRATIONS } from '../../src/database/migrations/index.js';
 import { typeormOptions } from '../../src/database/typeorm-options.js';
 
 describe('migrations (e2e, MariaDB)', () => {
-  const name = 'kilocycle_migrations_check';
+  const name = `${loadConfig().db.name}_migrations`;
   let admin: DataSource;
   beforeAll(async () => {
     admin = new DataSource({ ...typeormOptions(loadConfig()), entities: [] });
