@@ -1,0 +1,60 @@
+// Kilocycle's metrology core: pure functions, no I/O, no clock.
+export { MetrologyError, type MetrologyErrorCode } from './metrology-error.js';
+export type { FrequencyUnit } from '../units/frequency-unit.js';
+
+// Calibration error per range (§5.1)
+export { fitLine, type LineFit } from './fit-line.js';
+export { dialToNominal, TABLE_EXTRAPOLATION_FRACTION, type DialLaw } from './dial-law.js';
+export { toleranceHz, type Tolerance } from './tolerance.js';
+export {
+  analyseCalibration,
+  OUTLIER_STUDENTISED_LIMIT,
+  type CalibrationAnalysis,
+  type CalibrationFit,
+  type CalibrationPoint,
+  type CalibrationReading,
+  type TrackingSummary,
+} from './analyse-calibration.js';
+export { dialForFrequency } from './dial-for-frequency.js';
+
+// Alignment and padding (§5.2)
+export { alignLC, frequencyWithPadder, paddingForShift, type AlignLCInput, type AlignLCResult } from './align-lc.js';
+
+// Warm-up drift (§5.3)
+export { evaluateWarmup, fitWarmup, WARMUP_MAX_FIT_POINTS, type WarmupFit } from './fit-warmup.js';
+export { driftRateWindows, type DriftWindow } from './drift-rate-windows.js';
+export { settlingTime, type SettlingCriterion } from './settling-time.js';
+export { warmupSummary, type WarmupSummary } from './warmup-summary.js';
+
+// Stability (§5.4)
+export { fractionalFrequency } from './fractional-frequency.js';
+export { octaves, overlappingAdev, phaseFromFrequency, type StabilityOptions, type StabilityPoint } from './overlapping-adev.js';
+export { modifiedAdev } from './modified-adev.js';
+export { adevEdf, chiSquaredInterval, type NoiseType } from './stability-confidence.js';
+export { detectGaps, type GapReport } from './detect-gaps.js';
+
+// Comparison (§5.5)
+export { summariseSample, welchDifference, welchFromSamples, type SampleSummary, type WelchDifference } from './welch-difference.js';
+export { describeDifference } from './describe-difference.js';
+export { supplySensitivity } from './supply-sensitivity.js';
+export { keyingShift, type KeyingShift } from './keying-shift.js';
+
+// Uncertainty and decision (§5.6)
+export { COVERAGE_95_45, coverageFactor } from './coverage-factor.js';
+export {
+  combineUncertainty,
+  DISTRIBUTION_DIVISORS,
+  welchSatterthwaite,
+  type CombinedUncertainty,
+  type UncertaintyComponent,
+} from './combine-uncertainty.js';
+export { roundResultToUncertainty, roundUncertainty } from './round-uncertainty.js';
+export { frequencyBudget, type FrequencyBudgetInput } from './frequency-budget.js';
+export { decide, TUR_FLAG_BELOW, type Decision, type DecisionResult, type DecisionRule } from './decide.js';
+
+// Band planner (§5.7)
+export { AMATEUR_BANDS_REGION2, bandsForRegion, US_60M_CHANNELS_HZ, type AmateurBand, type ItuRegion } from './amateur-bands.js';
+export { dialForOutput, planBands, type BandPlanRow } from './plan-bands.js';
+
+// Charts
+export { downsampleLttb } from './downsample-lttb.js';
