@@ -2,13 +2,25 @@ import { useCallback, useMemo } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { MAX_PAGE_SIZE } from '@kilocycle/common/types';
 
-type ListDefaults = { pageSize: number; sort?: string };
+type ListDefaults = {
+  pageSize: number;
+  sort?: string;
+  /** Fields the API can sort by; a `sort` naming any other field is ignored. */
+  sortFields?: readonly string[];
+};
 
 type ListChange<F extends string> = Partial<Record<'page' | 'pageSize' | 'sort' | 'q' | F, string | number | undefined>>;
 
 function positiveInt(raw: string | null, fallback: number, max = Number.MAX_SAFE_INTEGER) {
   const n = raw === null ? NaN : Number(raw);
   return Number.isInteger(n) && n >= 1 ? Math.min(n, max) : fallback;
+}
+
+function allowedSort(raw: string | null, { sort: fallback = '', sortFields }: ListDefaults) {
+  if (raw === null) return fallback;
+  if (raw === '') return '';
+  const field = raw.startsWith('-') ? raw.slice(1) : raw;
+  return !sortFields || sortFields.includes(field) ? raw : fallback;
 }
 
 /**
@@ -24,12 +36,12 @@ export function useListSearchParams<F extends string = never>(defaults: ListDefa
     return {
       page: positiveInt(params.get('page'), 1),
       pageSize: positiveInt(params.get('pageSize'), defaults.pageSize, MAX_PAGE_SIZE),
-      sort: params.get('sort') ?? defaults.sort ?? '',
+      sort: allowedSort(params.get('sort'), defaults),
       q: params.get('q') ?? '',
       filters,
     };
     // filterKeys is a constant list per page.
-  }, [params, defaults.pageSize, defaults.sort]);
+  }, [params, defaults.pageSize, defaults.sort, defaults.sortFields]);
 
   const update = useCallback(
     (changes: ListChange<F>) => {

@@ -51,8 +51,8 @@ function MainNavigation({ onNavigate }: { onNavigate?: () => void }) {
 function UserBadge() {
   const user = useCurrentUser();
   return (
-    <Box sx={{ textAlign: 'right', lineHeight: 1.2, display: { xs: 'none', sm: 'block' } }} data-testid="current-user">
-      <Typography variant="body2" sx={{ fontWeight: 500 }}>
+    <Box sx={{ textAlign: 'right', lineHeight: 1.2, minWidth: 0 }}>
+      <Typography variant="body2" noWrap sx={{ fontWeight: 500, maxWidth: { xs: 120, sm: 240 } }}>
         {user.name}
       </Typography>
       <Typography variant="caption" sx={{ opacity: 0.8 }}>

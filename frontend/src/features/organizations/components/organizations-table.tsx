@@ -21,6 +21,7 @@ import { useUpdateOrganization } from '../api/update-organization';
 const KIND_LABELS: Record<OrganizationKind, string> = { lab: 'Lab', customer: 'Customer' };
 
 const FILTER_KEYS = ['kind', 'active'] as const;
+const SORT_FIELDS = ['name', 'kind', 'createdAt'];
 const KIND_OPTIONS = ORGANIZATION_KINDS.map((kind) => ({ value: kind, label: KIND_LABELS[kind] }));
 const STATUS_OPTIONS = [
   { value: 'true', label: 'Active' },
@@ -33,7 +34,7 @@ function isKind(value: string): value is OrganizationKind {
 
 export function OrganizationsTable() {
   const me = useCurrentUser();
-  const list = useListSearchParams({ pageSize: 25, sort: 'name' }, FILTER_KEYS);
+  const list = useListSearchParams({ pageSize: 25, sort: 'name', sortFields: SORT_FIELDS }, FILTER_KEYS);
   const { kind, active } = list.filters;
 
   const query: OrganizationsQuery = {

@@ -19,6 +19,8 @@ import { useUsers, type UsersQuery } from '../api/get-users';
 import { useUpdateUser } from '../api/update-user';
 
 const FILTER_KEYS = ['role', 'organizationId', 'active'] as const;
+// The fields the API sorts by; anything else typed into the address bar falls back to the default.
+const SORT_FIELDS = ['name', 'email', 'role', 'organizationName', 'createdAt'];
 const ROLE_OPTIONS = ROLES.map((role) => ({ value: role, label: ROLE_LABELS[role] }));
 const STATUS_OPTIONS = [
   { value: 'true', label: 'Active' },
@@ -33,7 +35,7 @@ type UsersTableProps = { organizations: readonly Organization[] };
 
 export function UsersTable({ organizations }: UsersTableProps) {
   const me = useCurrentUser();
-  const list = useListSearchParams({ pageSize: 25, sort: 'name' }, FILTER_KEYS);
+  const list = useListSearchParams({ pageSize: 25, sort: 'name', sortFields: SORT_FIELDS }, FILTER_KEYS);
   const { role, organizationId, active } = list.filters;
 
   const query: UsersQuery = {
@@ -58,32 +60,32 @@ export function UsersTable({ organizations }: UsersTableProps) {
 
   const columns = useMemo<GridColDef<User>[]>(
     () => [
-      { field: 'name', headerName: 'Name', flex: 1, minWidth: 160 },
-      { field: 'email', headerName: 'E-mail', flex: 1.2, minWidth: 200 },
+      { field: 'name', headerName: 'Name', flex: 1, minWidth: 140 },
+      { field: 'email', headerName: 'E-mail', flex: 1.2, minWidth: 180 },
       {
         field: 'role',
         headerName: 'Role',
-        width: 150,
+        width: 130,
         valueFormatter: (value: Role) => ROLE_LABELS[value] ?? value,
       },
-      { field: 'organizationName', headerName: 'Organisation', flex: 1, minWidth: 180, sortable: false },
+      { field: 'organizationName', headerName: 'Organisation', flex: 1, minWidth: 160 },
       {
         field: 'active',
         headerName: 'Status',
-        width: 120,
+        width: 110,
         sortable: false,
         renderCell: ({ row }) => <ActiveChip active={row.active} />,
       },
       {
         field: 'createdAt',
         headerName: 'Created',
-        width: 120,
+        width: 110,
         renderCell: ({ row }) => <Num>{formatDate(row.createdAt)}</Num>,
       },
       {
         field: 'actions',
         headerName: '',
-        width: 130,
+        width: 110,
         sortable: false,
         filterable: false,
         disableColumnMenu: true,
