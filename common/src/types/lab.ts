@@ -1,6 +1,16 @@
+import type { AlignLCResult } from '../math/align-lc.js';
+import type { CalibrationFit, CalibrationPoint, TrackingSummary } from '../math/analyse-calibration.js';
+import type { GapReport } from '../math/detect-gaps.js';
 import type { DialLaw } from '../math/dial-law.js';
+import type { DriftWindow } from '../math/drift-rate-windows.js';
+import type { WarmupFit } from '../math/fit-warmup.js';
+import type { KeyingShift } from '../math/keying-shift.js';
+import type { StabilityPoint } from '../math/overlapping-adev.js';
+import type { BandPlanRow } from '../math/plan-bands.js';
 import type { Tolerance } from '../math/tolerance.js';
+import type { WarmupSummary } from '../math/warmup-summary.js';
 import type { FrequencyUnit } from '../units/frequency-unit.js';
+import type { ListQuery } from './list.js';
 
 export type { DialLaw, Tolerance, FrequencyUnit };
 
@@ -112,6 +122,9 @@ export type Job = {
   notes: string | null;
   createdAt: string;
   updatedAt: string;
+  runCount: number;
+  /** The lead's comment when the job was last returned for rework (null unless status is returned). */
+  returnComment: string | null;
 };
 export type CreateJobRequest = {
   instrumentId: number;
@@ -134,12 +147,16 @@ export type Run = {
   id: number;
   jobId: number;
   jobNumber: string;
+  jobStatus: JobStatus;
+  organizationId: number;
   instrumentId: number;
+  instrumentLabel: string;
   rangeId: number;
   rangeLabel: string;
   kind: RunKind;
   status: RunStatus;
   benchId: number | null;
+  benchName: string | null;
   standardId: number | null;
   standardName: string | null;
   standardOverrideReason: string | null;
@@ -149,8 +166,12 @@ export type Run = {
   startedAt: string;
   endedAt: string | null;
   createdById: number;
+  createdByName: string;
   readingCount: number;
+  excludedCount: number;
   lastSeq: number;
+  /** Why the run takes no readings now (closed, job in review…), null when it does. */
+  refusal: string | null;
 };
 export type CreateRunRequest = {
   rangeId: number;
@@ -206,4 +227,146 @@ export type AuditEventView = {
   entityId: string;
   action: string;
   changes: Record<string, unknown> | null;
+};
+
+// ---- List filters (query parameters on top of ListQuery) ----
+
+export type ListInstrumentsQuery = ListQuery & {
+  organizationId?: number;
+  /** Next due date on or before this date (YYYY-MM-DD). */
+  dueBefore?: string;
+  /** Next due date already past. */
+  overdue?: boolean;
+};
+export type ListStandardsQuery = ListQuery & { kind?: StandardKind; active?: boolean; overdue?: boolean; dueBefore?: string };
+export type ListJobsQuery = ListQuery & {
+  organizationId?: number;
+  instrumentId?: number;
+  technicianId?: number;
+  /** One status, or several separated by commas ("in_progress,returned"). */
+  status?: string;
+};
+export type ListRunsQuery = ListQuery & {
+  organizationId?: number;
+  instrumentId?: number;
+  jobId?: number;
+  rangeId?: number;
+  benchId?: number;
+  kind?: RunKind;
+  status?: RunStatus;
+};
+/** Readings of one run; sort on seq (default), t, dial or frequency. */
+export type ListReadingsQuery = Omit<ListQuery, 'q'> & { excluded?: boolean };
+export type ListAuditQuery = ListQuery & { entity?: string; entityId?: string };
+
+// ---- Analysis of a run (GET /api/runs/:id/analysis) ----
+
+/** Query parameters of the analysis; each applies to the run kinds named. */
+export type RunAnalysisQuery = {
+  /** calibration: low-end tuning capacitance (pF), to give the alignment move in pF. */
+  tuningCapLowPf?: number;
+  /** warmup: settled when within this many Hz of f∞ (default 5). */
+  withinHz?: number;
+  /** warmup: settled when drifting slower than this (Hz/min, default 1). */
+  rateHzPerMin?: number;
+  /** warmup: length of the drift-rate windows, s (default 600). */
+  windowSeconds?: number;
+  /** warmup: add a linear term c·t to the model (default false). */
+  linear?: boolean;
+  /** stability: reference frequency for y = (f − f_ref)/f_ref (default the mean of the readings). */
+  referenceHz?: number;
+};
+
+/** Counts every analysis carries: what it was computed from. */
+export type AnalysisBasis = {
+  runId: number;
+  runKind: RunKind;
+  readingCount: number;
+  excludedCount: number;
+  /** Readings the computation used (included ones). */
+  usedCount: number;
+};
+
+/** A time series for a chart, LTTB-downsampled on the server to at most MAX_SERIES_POINTS points. */
+export type AnalysisSeries = { t: number[]; frequency: number[] };
+export const MAX_SERIES_POINTS = 2000;
+
+export type AlignmentEnd = { dial: number; target: number; measured: number };
+export type RunAlignment = AlignLCResult & { low: AlignmentEnd; high: AlignmentEnd; mid: AlignmentEnd | null };
+
+export type CalibrationRunAnalysis = AnalysisBasis & {
+  analysis: 'calibration';
+  range: Pick<InstrumentRange, 'id' | 'label' | 'dialUnit' | 'dialMin' | 'dialMax' | 'freqMinHz' | 'freqMaxHz' | 'tolerance'>;
+  points: CalibrationPoint[];
+  fit: CalibrationFit | null;
+  tracking: { bestFit: TrackingSummary; endPoint: TrackingSummary } | null;
+  corrections: Array<{ dial: number; nominal: number; measured: number; correctionHz: number }>;
+  /** Settings whose studentised residual exceeds the limit (flagged, never removed). */
+  outliers: Array<{ dial: number; studentised: number }>;
+  /** The LC alignment from the two range ends; null (with alignmentNote) when the run does not cover both ends. */
+  alignment: RunAlignment | null;
+  alignmentNote: string | null;
+};
+
+export type WarmupRunAnalysis = AnalysisBasis & {
+  analysis: 'warmup';
+  fit: WarmupFit;
+  summary: WarmupSummary;
+  settling: { withinHz: number; withinSeconds: number | null; rateHzPerMin: number; rateSeconds: number | null };
+  drift: { windowSeconds: number; windows: DriftWindow[] };
+  /** Readings (downsampled) and the fitted curve at the same times. */
+  series: AnalysisSeries & { fitted: number[] };
+};
+
+export type StabilityRunAnalysis = AnalysisBasis & {
+  analysis: 'stability';
+  /** Basic interval τ0 (s): the median spacing of the readings. */
+  tau0: number;
+  referenceHz: number;
+  adev: StabilityPoint[];
+  mdev: StabilityPoint[];
+  gaps: GapReport;
+  series: AnalysisSeries;
+};
+
+export type SupplySensitivityRunAnalysis = AnalysisBasis & {
+  analysis: 'supply_sensitivity';
+  sensitivity: { hzPerVolt: number; seHzPerVolt: number; n: number };
+  series: AnalysisSeries;
+};
+
+export type KeyingRunAnalysis = AnalysisBasis & {
+  analysis: 'keying';
+  shift: KeyingShift;
+  series: AnalysisSeries;
+};
+
+export type RunAnalysis =
+  | CalibrationRunAnalysis
+  | WarmupRunAnalysis
+  | StabilityRunAnalysis
+  | SupplySensitivityRunAnalysis
+  | KeyingRunAnalysis;
+
+// ---- Band planner (GET /api/instruments/:id/band-plan?region=2&wantedHz=…) ----
+
+export type BandPlanQuery = { region?: 1 | 2 | 3; wantedHz?: number };
+export type BandPlanSetting = {
+  rangeId: number;
+  rangeLabel: string;
+  multiplier: number;
+  /** wantedHz / multiplier: what the range itself must produce. */
+  fundamentalHz: number;
+  /** Dial setting from the dial law alone. */
+  nominalDial: number;
+  /** Dial setting from the latest calibration run's measured points, null when there is none covering it. */
+  correctedDial: number | null;
+  correctionRunId: number | null;
+};
+export type BandPlanResponse = {
+  instrumentId: number;
+  region: 1 | 2 | 3;
+  rows: Array<BandPlanRow & { rangeId: number }>;
+  /** Present when wantedHz was given: every range × multiplier that reaches it. */
+  wanted: { outputHz: number; settings: BandPlanSetting[] } | null;
 };
