@@ -1,2 +1,95 @@
+import type { DialUnit, IngestAck, Reading, ReadingInput, RunKind } from '../types/lab.js';
+
 /** Socket.io namespaces and event names shared by the server, the bridge and the browser. */
 export const NAMESPACES = { ingest: '/ingest', live: '/live' } as const;
+
+/** The most readings one `readings` batch may carry; a larger batch is refused whole. */
+export const MAX_INGEST_BATCH = 1000;
+
+/**
+ * Events on `/ingest` (benches). The bridge connects with `auth: {token}` (the bench token); a wrong
+ * or revoked token ends in `connect_error` whose message says why and whose `data` is a
+ * {@link ConnectRefusal}. `attach` and `readings` are emitted with an acknowledgement callback; the
+ * server answers through it and, when it refuses, also emits `refused`.
+ */
+export const INGEST_EVENTS = {
+  /** bench → server: {@link AttachRequest}; ack {@link AttachReply}. */
+  attach: 'attach',
+  /** bench → server: {@link IngestBatch}; ack {@link IngestBatchReply} after the batch is committed. */
+  readings: 'readings',
+  /** server → bench: {@link RefusedEvent}, whenever an attach or a batch is refused whole. */
+  refused: 'refused',
+} as const;
+
+/**
+ * Events on `/live` (browsers). The page connects with `auth: {token}` (the session's JWT), then
+ * emits `join` for each run it shows; stored readings arrive as `readings` events.
+ */
+export const LIVE_EVENTS = {
+  /** browser → server: {@link JoinRequest}; ack {@link JoinReply}. */
+  join: 'join',
+  /** browser → server: {@link JoinRequest}; ack {@link LeaveReply}. */
+  leave: 'leave',
+  /** server → browser: {@link LiveReadingsEvent}, after each commit that stored readings in the run. */
+  readings: 'readings',
+} as const;
+
+/** The socket.io room a run's live readings go to. */
+export function runRoom(runId: number): string {
+  return `run:${runId}`;
+}
+
+/** Why the server refused something; the bridge stops on the permanent ones and retries `server_error`. */
+export type IngestErrorCode =
+  | 'bad_request'
+  | 'batch_too_large'
+  | 'not_attached'
+  | 'run_not_found'
+  | 'not_assigned'
+  | 'run_closed'
+  | 'job_locked'
+  | 'forbidden'
+  | 'server_error';
+
+/** The answer to a refused request: nothing was written. */
+export type Refusal = { ok: false; code: IngestErrorCode; error: string };
+
+/** `connect_error` data when a handshake is refused. */
+export type ConnectRefusal = { code: 'no_token' | 'bad_token' | 'bench_inactive' | 'bad_session' };
+
+export type AttachRequest = { runId: number };
+
+/** What a bench needs to know about the run it attached to. */
+export type AttachAck = {
+  ok: true;
+  runId: number;
+  /** The run's highest stored sequence number (0 when empty): a new bridge numbers after it. */
+  lastSeq: number;
+  kind: RunKind;
+  /** When the run started (ISO 8601); a reading's `t` is seconds since then. */
+  startedAt: string;
+  benchId: number;
+  benchName: string;
+  range: { label: string; dialUnit: DialUnit; dialMin: number; dialMax: number; freqMinHz: number; freqMaxHz: number };
+};
+export type AttachReply = AttachAck | Refusal;
+
+/** One batch: at most {@link MAX_INGEST_BATCH} readings, each with its own `seq`. */
+export type IngestBatch = { runId: number; readings: ReadingInput[] };
+
+/**
+ * The acknowledgement of a stored batch: accepted, duplicates (already stored under that seq),
+ * and every refused reading with its reason. `duplicateSeqs` lists the seqs that were duplicates.
+ */
+export type IngestBatchAck = IngestAck & { ok: true; runId: number; duplicateSeqs: number[] };
+export type IngestBatchReply = IngestBatchAck | Refusal;
+
+export type RefusedEvent = { request: 'attach' | 'readings'; runId: number | null; code: IngestErrorCode; reason: string };
+
+export type JoinRequest = { runId: number };
+export type JoinAck = { ok: true; runId: number; lastSeq: number };
+export type JoinReply = JoinAck | Refusal;
+export type LeaveReply = { ok: true; runId: number } | Refusal;
+
+/** Readings just stored in a run (in seq order), as the bench page and the study pages show them. */
+export type LiveReadingsEvent = { runId: number; readings: Reading[] };
