@@ -53,9 +53,11 @@ export type AlignLCResult = {
  *
  * @param input measured and target frequencies at both ends (Hz), optional pF and mid point
  * @returns relative L change, parallel C change (fraction and pF), predicted mid tracking error
+ * With both ends in order (high above low, measured and target) a solution always exists and
+ * keeps every capacitance positive; it may still be impractically large, so look at the sizes.
+ *
  * @throws {MetrologyError} 'bad_frequency' (a frequency ≤ 0 or not finite, or the ends in the
- *   wrong order), 'no_convergence' (the two ends cannot both be reached by L and parallel C,
- *   e.g. a required capacitance below zero)
+ *   wrong order), 'no_convergence' (a degenerate case lost to rounding: no usable solution)
  * @example alignLC({ lowMeasured: 1.735e6, lowTarget: 1.75e6, highMeasured: 1.99e6, highTarget: 2.0e6 });
  */
 export function alignLC(input: AlignLCInput): AlignLCResult {
