@@ -27,8 +27,17 @@ export type StabilityOptions = {
   maxM?: number;
 };
 
-/** Octave averaging factors 1, 2, 4, … up to a limit. */
+/**
+ * Octave averaging factors 1, 2, 4, … up to and including a limit (SP 1065 §5.2 "octave" τ
+ * spacing).
+ *
+ * @param limit largest factor allowed (values below 1 give an empty list)
+ * @returns the powers of two up to limit
+ * @throws {MetrologyError} 'bad_argument' for NaN
+ * @example octaves(10); // => [1, 2, 4, 8]
+ */
 export function octaves(limit: number): number[] {
+  if (Number.isNaN(limit)) throw new MetrologyError('bad_argument', 'octaves requires a limit that is a number');
   const out: number[] = [];
   for (let m = 1; m <= limit; m *= 2) out.push(m);
   return out;
@@ -36,11 +45,19 @@ export function octaves(limit: number): number[] {
 
 /**
  * Builds phase (time deviation, in units of τ0) from frequency data with the mean
- * frequency removed: x[0] = 0, x[i+1] = x[i] + (y[i] − ȳ). Removing the mean changes no
- * Allan-type deviation (the second difference cancels any frequency offset) and keeps
- * the running sum small, so precision holds on 10⁶ points.
+ * frequency removed: x[0] = 0, x[i+1] = x[i] + (y[i] − ȳ) (SP 1065 §1.2, x as the running
+ * sum of y·τ0). Removing the mean changes no Allan-type deviation (the second difference
+ * cancels any frequency offset) and keeps the running sum small, so precision holds on
+ * 10⁶ points.
+ *
+ * @param y frequency data (at least 1 value, finite)
+ * @returns N = y.length + 1 phase points, in units of τ0 × y's unit
+ * @throws {MetrologyError} 'too_few_points' (empty), 'not_finite'
+ * @example phaseFromFrequency([1, 3]); // => Float64Array [0, -1, 0]
  */
 export function phaseFromFrequency(y: ArrayLike<number>): Float64Array {
+  if (y.length === 0) throw new MetrologyError('too_few_points', 'phaseFromFrequency requires at least 1 data point');
+  assertFiniteArray('phaseFromFrequency', 'y', y);
   let sum = 0;
   for (let i = 0; i < y.length; i++) sum += y[i]!;
   const mean = sum / y.length;
