@@ -1,4 +1,5 @@
 export * from './auth.js';
+export * from './certificates.js';
 export * from './health.js';
 export * from './lab.js';
 export * from './list.js';

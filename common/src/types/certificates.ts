@@ -1,0 +1,450 @@
+import type { CalibrationFit, TrackingSummary } from '../math/analyse-calibration.js';
+import type { Decision, DecisionRule } from '../math/decide.js';
+import type { DialUnit, JobStatus, RunKind, Tolerance } from './lab.js';
+import type { ListQuery } from './list.js';
+
+export type { Decision, DecisionRule };
+export const DECISION_RULES: readonly DecisionRule[] = ['simple', 'guarded_binary', 'guarded'];
+
+// ---- Procedures and budgets ----
+
+export const COMPONENT_DISTRIBUTIONS = ['normal', 'rectangular', 'triangular', 'u_shaped'] as const;
+export type ComponentDistribution = (typeof COMPONENT_DISTRIBUTIONS)[number];
+
+/**
+ * An extra budget line a procedure (or a run) adds to the standard six: e.g. "coupling and cabling".
+ * value is a half-width (rectangular, triangular, U-shaped) or, for normal, a quoted expanded U with
+ * its k as divisor (divisor 1: value is already a standard uncertainty); in Hz, or ppm of the nominal.
+ */
+export type ExtraComponent = {
+  name: string;
+  distribution: ComponentDistribution;
+  value: number;
+  unit: 'Hz' | 'ppm';
+  /** Only for normal: the coverage factor the value is quoted at (default 1). */
+  divisor?: number;
+  /** Degrees of freedom, null or absent = infinite. */
+  dof?: number | null;
+};
+
+/** The budget figures a procedure sets as defaults; a run may override each one. */
+export type BudgetDefaults = {
+  /** Half a dial division (the reading resolution) as a percentage of the range's dial span. */
+  dialHalfDivisionPercentOfSpan: number;
+  /** Drift allowance during the measurement: ± ppm of the nominal (rectangular half-width) … */
+  driftPpm: number;
+  /** … plus ± Hz. */
+  driftHz: number;
+  extraComponents: ExtraComponent[];
+};
+
+export type Procedure = BudgetDefaults & {
+  id: number;
+  name: string;
+  /** Method text printed on the certificate (identification of the method, ISO/IEC 17025 7.8.2.1 f). */
+  method: string;
+  decisionRule: DecisionRule;
+  /** The procedure a job uses when none is chosen. Exactly one procedure is the default. */
+  isDefault: boolean;
+  active: boolean;
+  updatedAt: string;
+};
+export type CreateProcedureRequest = Omit<Procedure, 'id' | 'active' | 'updatedAt' | 'isDefault'> & { isDefault?: boolean };
+export type UpdateProcedureRequest = Partial<CreateProcedureRequest> & { active?: boolean };
+export type ListProceduresQuery = ListQuery & { active?: boolean };
+
+/** Per-run overrides; null (or absent) keeps the procedure's figure or the standard's. */
+export type RunBudgetOverrides = {
+  /** Half a dial division in the dial's own unit (kHz, MHz or divisions). */
+  dialHalfDivision: number | null;
+  driftPpm: number | null;
+  driftHz: number | null;
+  /** ± one count at the gate time actually used, Hz (replaces the standard's resolution). */
+  counterResolutionHz: number | null;
+  /** Replaces the procedure's extra components when not null. */
+  extraComponents: ExtraComponent[] | null;
+  note: string | null;
+};
+export type RunBudget = RunBudgetOverrides & {
+  runId: number;
+  /** The figures that apply after the overrides (what the results are computed from). */
+  effective: {
+    procedureId: number;
+    procedureName: string;
+    dialHalfDivision: number;
+    driftPpm: number;
+    driftHz: number;
+    counterResolutionHz: number | null;
+    extraComponents: ExtraComponent[];
+  };
+  updatedAt: string | null;
+  updatedByName: string | null;
+  /** False once the job is signed: PUT then answers 409. */
+  editable: boolean;
+};
+export type UpdateRunBudgetRequest = Partial<RunBudgetOverrides>;
+export type SetJobProcedureRequest = { procedureId: number };
+
+// ---- Results (GET /api/jobs/:id/results) ----
+
+export type BudgetLine = {
+  name: string;
+  kind: 'A' | 'B';
+  distribution: ComponentDistribution;
+  /** Half-width (or quoted U, or standard uncertainty with divisor 1), in `unit`. */
+  value: number;
+  unit: string;
+  divisor: number;
+  /** Sensitivity coefficient, Hz per `unit`. */
+  sensitivity: number;
+  /** value / divisor, in `unit`. */
+  standardUncertainty: number;
+  /** |sensitivity| × standard uncertainty, Hz. */
+  contributionHz: number;
+  /** null = infinite. */
+  dof: number | null;
+};
+
+export type PointBudget = {
+  lines: BudgetLine[];
+  /** Combined standard uncertainty u_c, Hz. */
+  ucHz: number;
+  /** Welch–Satterthwaite ν_eff; null = infinite. */
+  nuEff: number | null;
+  k: number;
+  /** Expanded uncertainty, two significant digits, Hz. */
+  U: number;
+  Uunrounded: number;
+  coverage: number;
+  notes: string[];
+};
+
+/** One setting as measured in one run (as found or as left). */
+export type MeasuredPoint = {
+  runId: number;
+  /** Mean of the included readings, Hz. */
+  measured: number;
+  n: number;
+  sd: number | null;
+  errorHz: number;
+  errorPpm: number;
+  /** Error rounded to the last digit of U (GUM 7.2.6) and the decimals to print it with. */
+  errorRounded: number;
+  decimals: number;
+  outlier: boolean;
+  studentised: number | null;
+  budget: PointBudget | null;
+  decision: Decision | null;
+  /** Tolerance / U. */
+  tur: number | null;
+  turFlag: boolean;
+  guardBandHz: number | null;
+  acceptanceLimitHz: number | null;
+  /** Why there is no budget or decision (no standard, a bad figure…), else null. */
+  problem: string | null;
+};
+
+export type PointResult = {
+  dial: number;
+  nominal: number;
+  toleranceHz: number;
+  asFound: MeasuredPoint | null;
+  asLeft: MeasuredPoint | null;
+};
+
+export type RunFitSummary = {
+  runId: number;
+  fit: CalibrationFit | null;
+  tracking: { bestFit: TrackingSummary; endPoint: TrackingSummary } | null;
+};
+
+export type StandardReference = {
+  id: number;
+  name: string;
+  makeModel: string;
+  serial: string;
+  certificateNumber: string;
+  dueDate: string;
+  timebaseAccuracyPpm: number;
+  resolutionHz: number;
+  calibrationUPpm: number;
+  calibrationK: number;
+};
+
+export type RangeResult = {
+  rangeId: number;
+  position: number;
+  label: string;
+  dialUnit: DialUnit;
+  dialMin: number;
+  dialMax: number;
+  freqMinHz: number;
+  freqMaxHz: number;
+  tolerance: Tolerance;
+  asFoundRunId: number | null;
+  asLeftRunId: number | null;
+  asFoundFit: RunFitSummary | null;
+  asLeftFit: RunFitSummary | null;
+  points: PointResult[];
+  /** Worst decision of the final (as-left, else as-found) points; null when none could be decided. */
+  decision: Decision | null;
+  problems: string[];
+};
+
+export const REVIEW_FLAG_KINDS = [
+  'outlier',
+  'excluded_reading',
+  'standard_override',
+  'standard_overdue',
+  'tur_low',
+  'no_standard',
+  'no_calibration_run',
+  'no_as_left',
+  'extra_run',
+  'point_not_conforming',
+  'computation',
+  'self_captured',
+] as const;
+export type ReviewFlagKind = (typeof REVIEW_FLAG_KINDS)[number];
+
+/** Something the lead should look at; 'blocker' flags stop signing. */
+export type ReviewFlag = {
+  kind: ReviewFlagKind;
+  severity: 'info' | 'warning' | 'blocker';
+  message: string;
+  runId?: number;
+  rangeId?: number;
+  dial?: number;
+  readingId?: number;
+};
+
+export type JobResults = {
+  jobId: number;
+  jobNumber: string;
+  jobStatus: JobStatus;
+  procedure: Pick<Procedure, 'id' | 'name' | 'method' | 'decisionRule'>;
+  decisionRule: DecisionRule;
+  /** The rule in words, as printed on the certificate. */
+  decisionRuleText: string;
+  ranges: RangeResult[];
+  standards: StandardReference[];
+  /** Worst decision over every range's final points; null when nothing could be decided. */
+  decision: Decision | null;
+  flags: ReviewFlag[];
+};
+
+// ---- Review (GET /api/reviews/:jobId) and sign-off ----
+
+export const REVIEW_ACTIONS = ['submit', 'return', 'sign', 'sign_refused', 'amend', 'withdraw'] as const;
+export type ReviewAction = (typeof REVIEW_ACTIONS)[number];
+
+export type ReviewEvent = {
+  id: number;
+  action: ReviewAction;
+  actorId: number | null;
+  actorName: string | null;
+  comment: string | null;
+  at: string;
+};
+
+export type ReviewRun = {
+  id: number;
+  kind: RunKind;
+  rangeId: number;
+  rangeLabel: string;
+  status: string;
+  standardId: number | null;
+  standardName: string | null;
+  standardDueDate: string | null;
+  standardOverrideReason: string | null;
+  createdById: number;
+  createdByName: string;
+  startedAt: string;
+  endedAt: string | null;
+  readingCount: number;
+  excludedCount: number;
+  /** True when this run is the one the results use for its range and kind. */
+  used: boolean;
+};
+
+export type ExcludedReading = {
+  readingId: number;
+  runId: number;
+  seq: number;
+  dial: number | null;
+  frequency: number;
+  reason: string;
+  excludedById: number;
+  excludedByName: string | null;
+  excludedAt: string;
+};
+
+export type JobReview = {
+  job: {
+    id: number;
+    number: string;
+    status: JobStatus;
+    organizationId: number;
+    organizationName: string;
+    instrumentId: number;
+    instrumentLabel: string;
+    receivedDate: string;
+    conditionReceived: string | null;
+    technicianId: number | null;
+    technicianName: string | null;
+    ambientTempC: number | null;
+    humidityPct: number | null;
+  };
+  results: JobResults;
+  runs: ReviewRun[];
+  excludedReadings: ExcludedReading[];
+  flags: ReviewFlag[];
+  history: ReviewEvent[];
+  /** The pending amendment, when the job was reopened from an issued certificate. */
+  amendment: { certificateNumber: string; revision: number; replacesRevision: number; reason: string } | null;
+  /** Whether the signed-in user may sign now, and if not, why. */
+  canSign: boolean;
+  signBlockers: string[];
+};
+
+export const SIGNING_MEANING = 'reviewed and approved for issue';
+export type SubmitJobRequest = { comment?: string };
+export type ReturnJobRequest = { comment: string };
+/** meaning must be SIGNING_MEANING (the words the signatory agrees to). */
+export type SignJobRequest = { password: string; meaning: string };
+
+// ---- Certificates ----
+
+export const CERTIFICATE_STATUSES = ['draft', 'issued', 'superseded', 'withdrawn'] as const;
+export type CertificateStatus = (typeof CERTIFICATE_STATUSES)[number];
+
+export type Certificate = {
+  id: number;
+  number: string;
+  revision: number;
+  status: CertificateStatus;
+  jobId: number;
+  jobNumber: string;
+  organizationId: number;
+  organizationName: string;
+  instrumentId: number;
+  instrumentLabel: string;
+  signedById: number | null;
+  signedByName: string | null;
+  signedAt: string | null;
+  signingMeaning: string | null;
+  issuedAt: string | null;
+  sha256: string | null;
+  /** Download path (GET, signed in, scoped): /api/certificates/:id/pdf. Null for a draft. */
+  pdfUrl: string | null;
+  /** The public verification page. */
+  verifyUrl: string;
+  replacesRevision: number | null;
+  amendmentReason: string | null;
+  withdrawnReason: string | null;
+  withdrawnAt: string | null;
+  supersededAt: string | null;
+  /** Overall decision printed on the certificate. */
+  decision: Decision | null;
+};
+
+/** GET /api/certificates/:id adds the results exactly as printed (stored at signing, never recomputed). */
+export type CertificateDetail = Certificate & { results: JobResults | null; revisions: Array<Pick<Certificate, 'id' | 'revision' | 'status' | 'issuedAt'>> };
+
+export type ListCertificatesQuery = ListQuery & {
+  organizationId?: number;
+  instrumentId?: number;
+  jobId?: number;
+  /** One status or several separated by commas. */
+  status?: string;
+};
+
+/**
+ * rework (default true): the job goes back to in_progress for the technician, then through review and
+ * signing again; false: the job goes straight to in_review so the lead can re-sign at once (e.g. after
+ * correcting the customer's details). Either way the next signing issues revision N+1.
+ */
+export type AmendCertificateRequest = { reason: string; rework?: boolean };
+export type WithdrawCertificateRequest = { reason: string };
+
+// ---- Public verification (no sign-in) ----
+
+export type PublicCertificate = {
+  number: string;
+  revision: number;
+  status: CertificateStatus;
+  /** Make, model and serial. */
+  instrument: string;
+  customer: string;
+  issuedAt: string | null;
+  sha256: string | null;
+  /** Every revision of the number, newest first (no measurement data). */
+  revisions: Array<{ revision: number; status: CertificateStatus; issuedAt: string | null; sha256: string | null }>;
+  /** True while an amendment of this number is being prepared. */
+  amendmentPending: boolean;
+};
+
+export type CertificateCheckResult = {
+  match: boolean;
+  revision?: number;
+  status?: CertificateStatus;
+  /** SHA-256 of the uploaded file. */
+  sha256: string;
+  /** The server's Ed25519 signature of the stored hash verified. */
+  signatureValid?: boolean;
+};
+
+export type CertificateSigningKey = { algorithm: 'Ed25519'; keyId: string; publicKeyPem: string };
+
+// ---- Settings (admin) ----
+
+export type CertificateSettings = {
+  /** A lead may sign a job whose runs they captured themselves. */
+  allowSelfSign: boolean;
+  /** Certificate numbers: PREFIX-YYYY-NNNN. */
+  certificatePrefix: string;
+  labAddress: string;
+  /** Where the work is done, printed on the certificate. */
+  calibrationPlace: string;
+  /** Days before the due date the recall reminder goes out. */
+  recallNoticeDays: number;
+};
+export type UpdateCertificateSettingsRequest = Partial<CertificateSettings>;
+
+// ---- Mail (admin outbox: what the mail server the app talks to captured) ----
+
+export type MailAttachmentView = { filename: string | null; contentType: string; size: number };
+
+export type MailMessageSummary = {
+  id: number;
+  /** certificate_issued, job_returned, recall_reminder or other (from the X-Kilocycle-Kind header). */
+  kind: string;
+  from: string;
+  to: string[];
+  subject: string;
+  size: number;
+  attachmentCount: number;
+  receivedAt: string;
+};
+export type MailMessageView = MailMessageSummary & {
+  messageId: string | null;
+  text: string | null;
+  html: string | null;
+  attachments: MailAttachmentView[];
+  headers: Array<{ name: string; value: string }>;
+};
+export type ListMailQuery = ListQuery & { kind?: string };
+
+// ---- Recall ----
+
+export type RecallNotice = {
+  id: number;
+  instrumentId: number;
+  instrumentLabel: string;
+  organizationId: number;
+  organizationName: string;
+  dueDate: string;
+  recipients: string[];
+  sentAt: string;
+};
+export type RecallRunResult = { checked: number; sent: number; skipped: number; notices: RecallNotice[] };
