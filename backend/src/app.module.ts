@@ -2,10 +2,13 @@ import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { AuditModule } from './audit/audit.module.js';
 import { AuthModule } from './auth/auth.module.js';
+import { BenchesModule } from './benches/benches.module.js';
 import { APP_CONFIG, type AppConfig } from './config/app-config.js';
 import { ConfigModule } from './config/config.module.js';
 import { typeormOptions } from './database/typeorm-options.js';
 import { HealthModule } from './health/health.module.js';
+import { IngestModule } from './ingest/ingest.module.js';
+import { LiveModule } from './live/live.module.js';
 import { OrganizationsModule } from './organizations/organizations.module.js';
 import { UsersModule } from './users/users.module.js';
 
@@ -18,7 +21,10 @@ import { UsersModule } from './users/users.module.js';
     }),
     AuditModule,
     AuthModule,
+    BenchesModule,
     HealthModule,
+    IngestModule,
+    LiveModule,
     OrganizationsModule,
     UsersModule,
   ],

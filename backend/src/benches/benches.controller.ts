@@ -1,0 +1,52 @@
+import { Body, Controller, Delete, Get, HttpCode, Param, ParseIntPipe, Patch, Post, Query } from '@nestjs/common';
+import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
+import type { Bench as BenchView, BenchTokenResponse, ListResponse } from '@kilocycle/common/types';
+import type { AuthUser } from '../auth/auth-user.js';
+import { CurrentUser, Roles } from '../auth/decorators.js';
+import { BenchesService } from './benches.service.js';
+import { CreateBenchDto, ListBenchesQueryDto, UpdateBenchDto } from './dto/bench.dto.js';
+
+@ApiTags('benches')
+@ApiBearerAuth()
+@Controller('benches')
+export class BenchesController {
+  constructor(private readonly benches: BenchesService) {}
+
+  @Roles('admin', 'lead', 'technician', 'engineer')
+  @Get()
+  list(@Query() query: ListBenchesQueryDto): Promise<ListResponse<BenchView>> {
+    return this.benches.list(query);
+  }
+
+  @Roles('admin', 'lead', 'technician', 'engineer')
+  @Get(':id')
+  get(@Param('id', ParseIntPipe) id: number): Promise<BenchView> {
+    return this.benches.get(id);
+  }
+
+  @Roles('admin')
+  @Post()
+  create(@CurrentUser() user: AuthUser, @Body() body: CreateBenchDto): Promise<BenchView> {
+    return this.benches.create(user, body);
+  }
+
+  @Roles('admin')
+  @Patch(':id')
+  update(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Body() body: UpdateBenchDto): Promise<BenchView> {
+    return this.benches.update(user, id, body);
+  }
+
+  /** Issues a fresh bridge token; the answer is the only time it is shown. */
+  @Roles('admin')
+  @Post(':id/token')
+  issueToken(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number): Promise<BenchTokenResponse> {
+    return this.benches.issueToken(user, id);
+  }
+
+  @Roles('admin')
+  @Delete(':id/token')
+  @HttpCode(200)
+  revokeToken(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number): Promise<BenchView> {
+    return this.benches.revokeToken(user, id);
+  }
+}

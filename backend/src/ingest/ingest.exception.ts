@@ -1,0 +1,44 @@
+import type { IngestErrorCode, Refusal } from '@kilocycle/common/events';
+
+/** A refused socket request; the gateways turn it into a {@link Refusal} acknowledgement. */
+export class IngestException extends Error {
+  constructor(
+    readonly code: IngestErrorCode,
+    message: string,
+  ) {
+    super(message);
+    this.name = 'IngestException';
+  }
+}
+
+/** Any error as the refusal a client receives; unexpected errors become `server_error` (try again). */
+export function toRefusal(error: unknown): Refusal {
+  if (error instanceof IngestException) return { ok: false, code: error.code, error: error.message };
+  const detail = error instanceof Error ? error.message : String(error);
+  return { ok: false, code: 'server_error', error: `the server could not handle this just now (${detail}); nothing was stored, send it again` };
+}
+
+/** Reads a socket payload: an object, or the same object as JSON text (some bench scripts send strings). */
+export function payloadObject(payload: unknown, example: string): Record<string, unknown> {
+  let value = payload;
+  if (typeof value === 'string') {
+    try {
+      value = JSON.parse(value) as unknown;
+    } catch (error) {
+      throw new IngestException('bad_request', `the payload is not valid JSON (${error instanceof Error ? error.message : String(error)}); send ${example}`);
+    }
+  }
+  if (value === null || typeof value !== 'object' || Array.isArray(value)) {
+    throw new IngestException('bad_request', `the payload must be an object: ${example}`);
+  }
+  return value as Record<string, unknown>;
+}
+
+/** A run id from a payload, or a bad_request naming the field. */
+export function runIdOf(body: Record<string, unknown>): number {
+  const runId = body.runId;
+  if (typeof runId !== 'number' || !Number.isInteger(runId) || runId < 1 || runId > 2_147_483_647) {
+    throw new IngestException('bad_request', 'runId must be a whole number (the id of a run)');
+  }
+  return runId;
+}

@@ -1,0 +1,11 @@
+import { Module } from '@nestjs/common';
+import { AuthModule } from '../auth/auth.module.js';
+import { IngestModule } from '../ingest/ingest.module.js';
+import { LiveGateway } from './live.gateway.js';
+import { LiveService } from './live.service.js';
+
+@Module({
+  imports: [AuthModule, IngestModule],
+  providers: [LiveService, LiveGateway],
+})
+export class LiveModule {}
