@@ -60,7 +60,11 @@ export function phaseFromFrequency(y: ArrayLike<number>): Float64Array {
   assertFiniteArray('phaseFromFrequency', 'y', y);
   let sum = 0;
   for (let i = 0; i < y.length; i++) sum += y[i]!;
-  const mean = sum / y.length;
+  let mean = sum / y.length;
+  // Second pass corrects the rounding of the first sum (a constant input then gives exactly 0).
+  let correction = 0;
+  for (let i = 0; i < y.length; i++) correction += y[i]! - mean;
+  mean += correction / y.length;
   const x = new Float64Array(y.length + 1);
   for (let i = 0; i < y.length; i++) x[i + 1] = x[i]! + (y[i]! - mean);
   return x;
