@@ -222,11 +222,14 @@ export function fitWarmup(t: ArrayLike<number>, f: ArrayLike<number>, opts: { li
  * @param fit a result of {@link fitWarmup} (or any object with those fields)
  * @param t seconds since power-on
  * @returns frequency, Hz
- * @throws {MetrologyError} 'not_finite' for a non-finite t
+ * @throws {MetrologyError} 'not_finite' for a non-finite t, 'bad_argument' for τ ≤ 0 or non-finite f∞, A
  * @example evaluateWarmup({ fInf: 7e6, amplitude: -100, tau: 600, linear: null }, 600); // => 6999963.2…
  */
 export function evaluateWarmup(fit: Pick<WarmupFit, 'fInf' | 'amplitude' | 'tau' | 'linear'>, t: number): number {
   if (!Number.isFinite(t)) throw new MetrologyError('not_finite', `evaluateWarmup requires a finite time (got ${t})`);
+  if (!(fit.tau > 0) || !Number.isFinite(fit.fInf) || !Number.isFinite(fit.amplitude)) {
+    throw new MetrologyError('bad_argument', 'evaluateWarmup requires a fit with finite f∞ and A and a time constant greater than zero');
+  }
   return fit.fInf + fit.amplitude * Math.exp(-t / fit.tau) + (fit.linear ?? 0) * t;
 }
 

@@ -93,6 +93,14 @@ describe('fitWarmup()', () => {
   });
 });
 
+describe('evaluateWarmup()', () => {
+  test('the model at t (closed form) and bad fits refused', () => {
+    expectRelative(evaluateWarmup({ fInf: 7e6, amplitude: -100, tau: 600, linear: 0.01 }, 600), 7e6 - 100 / Math.E + 6, 1e-15, 'f(τ)');
+    expect(errorCode(() => evaluateWarmup({ fInf: 7e6, amplitude: -100, tau: 0, linear: null }, 1))).toBe('bad_argument');
+    expect(errorCode(() => evaluateWarmup({ fInf: 7e6, amplitude: -100, tau: 600, linear: null }, Number.NaN))).toBe('not_finite');
+  });
+});
+
 describe('settlingTime()', () => {
   const model = { fInf: 7e6, amplitude: -100, tau: 600, linear: null };
   test('within N Hz: t = τ·ln(|A|/N) (closed form)', () => {
