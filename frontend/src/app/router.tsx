@@ -31,7 +31,7 @@ function standalone(Page: LazyExoticComponent<ComponentType>) {
   );
 }
 
-export const routes: RouteObject[] = [
+const routes: RouteObject[] = [
   { path: paths.signIn, element: standalone(SignInRoute), errorElement: <RouteError /> },
   {
     path: paths.home,
