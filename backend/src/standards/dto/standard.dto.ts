@@ -1,0 +1,114 @@
+import { IsBoolean, IsIn, IsNumber, IsOptional, IsString, Max, MaxLength, Min, MinLength } from 'class-validator';
+import {
+  STANDARD_KINDS,
+  type CreateStandardRequest,
+  type ListStandardsQuery,
+  type StandardKind,
+  type UpdateStandardRequest,
+} from '@kilocycle/common/types';
+import { IsDateOnly, QueryBoolean, Trim } from '../../shared/dto-helpers.js';
+import { ListQueryDto } from '../../shared/list-query.dto.js';
+
+const kindMessage = `kind must be one of: ${STANDARD_KINDS.join(', ')}`;
+
+export class CreateStandardDto implements CreateStandardRequest {
+  @IsString()
+  @Trim()
+  @MinLength(1, { message: 'name must not be empty' })
+  @MaxLength(120)
+  name: string;
+
+  @IsIn(STANDARD_KINDS, { message: kindMessage })
+  kind: StandardKind;
+
+  @IsString()
+  @Trim()
+  @MinLength(1, { message: 'makeModel must not be empty' })
+  @MaxLength(160)
+  makeModel: string;
+
+  @IsString()
+  @Trim()
+  @MinLength(1, { message: 'serial must not be empty' })
+  @MaxLength(120)
+  serial: string;
+
+  @IsString()
+  @Trim()
+  @MinLength(1, { message: 'certificateNumber must not be empty' })
+  @MaxLength(120)
+  certificateNumber: string;
+
+  @IsDateOnly('dueDate')
+  dueDate: string;
+
+  @IsNumber({ allowNaN: false, allowInfinity: false }, { message: 'timebaseAccuracyPpm must be a number' })
+  @Min(0)
+  @Max(1000)
+  timebaseAccuracyPpm: number;
+
+  @IsNumber({ allowNaN: false, allowInfinity: false }, { message: 'resolutionHz must be a number' })
+  @Min(1e-12, { message: 'resolutionHz must be greater than zero' })
+  @Max(1e6)
+  resolutionHz: number;
+
+  @IsNumber({ allowNaN: false, allowInfinity: false }, { message: 'calibrationUPpm must be a number' })
+  @Min(0)
+  @Max(1000)
+  calibrationUPpm: number;
+
+  @IsNumber({ allowNaN: false, allowInfinity: false }, { message: 'calibrationK must be a number' })
+  @Min(1)
+  @Max(10)
+  calibrationK: number;
+}
+
+export class UpdateStandardDto implements UpdateStandardRequest {
+  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'name must not be empty' }) @MaxLength(120)
+  name?: string;
+
+  @IsOptional() @IsIn(STANDARD_KINDS, { message: kindMessage })
+  kind?: StandardKind;
+
+  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'makeModel must not be empty' }) @MaxLength(160)
+  makeModel?: string;
+
+  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'serial must not be empty' }) @MaxLength(120)
+  serial?: string;
+
+  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'certificateNumber must not be empty' }) @MaxLength(120)
+  certificateNumber?: string;
+
+  @IsOptional() @IsDateOnly('dueDate')
+  dueDate?: string;
+
+  @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) @Max(1000)
+  timebaseAccuracyPpm?: number;
+
+  @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(1e-12, { message: 'resolutionHz must be greater than zero' }) @Max(1e6)
+  resolutionHz?: number;
+
+  @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) @Max(1000)
+  calibrationUPpm?: number;
+
+  @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(1) @Max(10)
+  calibrationK?: number;
+
+  @IsOptional() @IsBoolean()
+  active?: boolean;
+}
+
+export class ListStandardsQueryDto extends ListQueryDto implements ListStandardsQuery {
+  @IsOptional() @IsIn(STANDARD_KINDS, { message: kindMessage })
+  kind?: StandardKind;
+
+  @IsOptional() @QueryBoolean() @IsBoolean({ message: 'active must be true or false' })
+  active?: boolean;
+
+  @IsOptional() @QueryBoolean() @IsBoolean({ message: 'overdue must be true or false' })
+  overdue?: boolean;
+
+  @IsOptional() @IsDateOnly('dueBefore')
+  dueBefore?: string;
+}
+

@@ -1,0 +1,39 @@
+import { Body, Controller, Get, Param, ParseIntPipe, Patch, Post, Query } from '@nestjs/common';
+import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
+import type { ListResponse, ReferenceStandard } from '@kilocycle/common/types';
+import type { AuthUser } from '../auth/auth-user.js';
+import { CurrentUser, Roles } from '../auth/decorators.js';
+import { CreateStandardDto, ListStandardsQueryDto, UpdateStandardDto } from './dto/standard.dto.js';
+import { StandardsService } from './standards.service.js';
+
+// Standards are the lab's own equipment: customers do not see them here (their certificates name them).
+@ApiTags('standards')
+@ApiBearerAuth()
+@Controller('standards')
+export class StandardsController {
+  constructor(private readonly standards: StandardsService) {}
+
+  @Roles('admin', 'lead', 'technician', 'engineer')
+  @Get()
+  list(@Query() query: ListStandardsQueryDto): Promise<ListResponse<ReferenceStandard>> {
+    return this.standards.list(query);
+  }
+
+  @Roles('admin', 'lead', 'technician', 'engineer')
+  @Get(':id')
+  get(@Param('id', ParseIntPipe) id: number): Promise<ReferenceStandard> {
+    return this.standards.get(id);
+  }
+
+  @Roles('admin', 'lead')
+  @Post()
+  create(@CurrentUser() user: AuthUser, @Body() body: CreateStandardDto): Promise<ReferenceStandard> {
+    return this.standards.create(user, body);
+  }
+
+  @Roles('admin', 'lead')
+  @Patch(':id')
+  update(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Body() body: UpdateStandardDto): Promise<ReferenceStandard> {
+    return this.standards.update(user, id, body);
+  }
+}

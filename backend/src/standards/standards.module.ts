@@ -1,0 +1,13 @@
+import { Module } from '@nestjs/common';
+import { TypeOrmModule } from '@nestjs/typeorm';
+import { Standard } from './standard.entity.js';
+import { StandardsController } from './standards.controller.js';
+import { StandardsService } from './standards.service.js';
+
+@Module({
+  imports: [TypeOrmModule.forFeature([Standard])],
+  controllers: [StandardsController],
+  providers: [StandardsService],
+  exports: [StandardsService],
+})
+export class StandardsModule {}
