@@ -1,7 +1,9 @@
+import { seedDemoLabRecords } from '../jobs/jobs.demo.js';
+import { seedDemoStandards } from '../standards/standards.demo.js';
 import type { DemoExtension } from './demo-seed.js';
 
 /**
  * Each module that brings demo records adds its `<module>.demo.ts` function here, in dependency order.
  * They run inside the seed's one transaction, after the organisations and accounts.
  */
-export const DEMO_EXTENSIONS: DemoExtension[] = [];
+export const DEMO_EXTENSIONS: DemoExtension[] = [seedDemoStandards, seedDemoLabRecords];
