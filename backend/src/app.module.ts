@@ -1,5 +1,6 @@
 import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
+import { AnalysisModule } from './analysis/analysis.module.js';
 import { AuditModule } from './audit/audit.module.js';
 import { AuthModule } from './auth/auth.module.js';
 import { BenchesModule } from './benches/benches.module.js';
@@ -8,8 +9,13 @@ import { ConfigModule } from './config/config.module.js';
 import { typeormOptions } from './database/typeorm-options.js';
 import { HealthModule } from './health/health.module.js';
 import { IngestModule } from './ingest/ingest.module.js';
+import { InstrumentsModule } from './instruments/instruments.module.js';
+import { JobsModule } from './jobs/jobs.module.js';
 import { LiveModule } from './live/live.module.js';
 import { OrganizationsModule } from './organizations/organizations.module.js';
+import { ReadingsModule } from './readings/readings.module.js';
+import { RunsModule } from './runs/runs.module.js';
+import { StandardsModule } from './standards/standards.module.js';
 import { UsersModule } from './users/users.module.js';
 
 @Module({
@@ -27,6 +33,12 @@ import { UsersModule } from './users/users.module.js';
     LiveModule,
     OrganizationsModule,
     UsersModule,
+    StandardsModule,
+    InstrumentsModule,
+    JobsModule,
+    RunsModule,
+    ReadingsModule,
+    AnalysisModule,
   ],
 })
 export class AppModule {}

@@ -1,11 +1,13 @@
 import { Global, Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { AuditEvent } from './audit-event.entity.js';
+import { AuditController } from './audit.controller.js';
 import { AuditService } from './audit.service.js';
 
 @Global()
 @Module({
   imports: [TypeOrmModule.forFeature([AuditEvent])],
+  controllers: [AuditController],
   providers: [AuditService],
   exports: [AuditService],
 })

@@ -35,12 +35,13 @@ export type RunWriteContext = {
 };
 
 export type StoredBatch = { runId: number; readings: ReadingView[] };
+export type ExcludedReading = { runId: number; reading: ReadingView };
 export type AppendResult = IngestAck & { stored: ReadingView[] };
 
 type Row = { seq: number | null; t: number; dial: number | null; frequency: number; aux: number | null };
 
 /** Why a run takes no readings now, or null when it does. */
-export function refusalReason(ctx: RunWriteContext): string | null {
+export function refusalReason(ctx: Pick<RunWriteContext, 'runId' | 'status' | 'jobStatus'>): string | null {
   if (ctx.status !== 'open') return `run ${ctx.runId} is closed`;
   if (ctx.jobStatus === 'approved' || ctx.jobStatus === 'issued') return `run ${ctx.runId} belongs to a job that is ${ctx.jobStatus}`;
   if (ctx.jobStatus === 'in_review') return `run ${ctx.runId} belongs to a job that is in review`;
@@ -56,6 +57,8 @@ export function refusalReason(ctx: RunWriteContext): string | null {
 export class ReadingsWriter {
   /** Every batch that stored at least one reading; the live gateway pushes these to browsers. */
   readonly stored$ = new Subject<StoredBatch>();
+  /** Every reading excluded (by ReadingsService), for the same listeners. */
+  readonly excluded$ = new Subject<ExcludedReading>();
 
   constructor(@InjectDataSource() private readonly dataSource: DataSource) {}
 

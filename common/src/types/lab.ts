@@ -216,6 +216,9 @@ export type IngestAck = {
   lastSeq: number;
 };
 
+/** The answer to POST /api/runs/:id/readings: the acknowledgement, plus the readings as stored (with their ids). */
+export type AppendReadingsResponse = IngestAck & { stored: Reading[] };
+
 export type ExcludeReadingRequest = { reason: string };
 
 export type AuditEventView = {
@@ -257,7 +260,8 @@ export type ListRunsQuery = ListQuery & {
 };
 /** Readings of one run; sort on seq (default), t, dial or frequency. */
 export type ListReadingsQuery = Omit<ListQuery, 'q'> & { excluded?: boolean };
-export type ListAuditQuery = ListQuery & { entity?: string; entityId?: string };
+/** entity + entityId for one record's history; jobId for a job with its runs and reading exclusions. */
+export type ListAuditQuery = ListQuery & { entity?: string; entityId?: string; jobId?: number };
 
 // ---- Analysis of a run (GET /api/runs/:id/analysis) ----
 

@@ -1,0 +1,269 @@
+import { Injectable, UnprocessableEntityException } from '@nestjs/common';
+import {
+  alignLC,
+  analyseCalibration,
+  detectGaps,
+  dialToNominal,
+  downsampleLttb,
+  driftRateWindows,
+  evaluateWarmup,
+  fitWarmup,
+  fractionalFrequency,
+  keyingShift,
+  MetrologyError,
+  modifiedAdev,
+  overlappingAdev,
+  settlingTime,
+  supplySensitivity,
+  warmupSummary,
+  type CalibrationPoint,
+  type DriftWindow,
+} from '@kilocycle/common/math';
+import {
+  MAX_SERIES_POINTS,
+  type AnalysisBasis,
+  type CalibrationRunAnalysis,
+  type KeyingRunAnalysis,
+  type RunAlignment,
+  type RunAnalysis,
+  type StabilityRunAnalysis,
+  type SupplySensitivityRunAnalysis,
+  type WarmupRunAnalysis,
+} from '@kilocycle/common/types';
+import type { AuthUser } from '../auth/auth-user.js';
+import type { InstrumentRange } from '../instruments/instrument-range.entity.js';
+import { RunsService } from '../runs/runs.service.js';
+import { LruCache } from './analysis-cache.js';
+import type { RunAnalysisQueryDto } from './dto/analysis-query.dto.js';
+import { includedByTime, RunSeriesLoader, type RunSeries } from './run-series.loader.js';
+
+export const DEFAULT_SETTLING_WITHIN_HZ = 5;
+export const DEFAULT_SETTLING_RATE_HZ_PER_MIN = 1;
+export const DEFAULT_DRIFT_WINDOW_SECONDS = 600;
+/** A range end counts as measured when a setting lies within this fraction of the dial span of it. */
+const END_COVERAGE = 0.05;
+
+@Injectable()
+export class AnalysisService {
+  private readonly results = new LruCache<RunAnalysis>(64);
+  // The series themselves are large (40 MB for a million readings): keep only the last few.
+  private readonly series = new LruCache<RunSeries>(3);
+
+  constructor(
+    private readonly runs: RunsService,
+    private readonly loader: RunSeriesLoader,
+  ) {}
+
+  async analyse(actor: AuthUser, runId: number, query: RunAnalysisQueryDto): Promise<RunAnalysis> {
+    const run = await this.runs.findVisible(actor, runId);
+    const counts = await this.loader.counts(runId);
+    const seriesKey = `${runId}|${counts.readingCount}|${counts.excludedCount}`;
+    const resultKey = `${seriesKey}|${JSON.stringify(query)}`;
+    const cached = this.results.get(resultKey);
+    if (cached) return cached;
+
+    let series = this.series.get(seriesKey);
+    if (!series) {
+      series = await this.loader.load(runId, counts.readingCount);
+      // Readings that arrived while loading make a newer series; cache it under its own counts only.
+      if (series.count === counts.readingCount) this.series.set(seriesKey, series);
+    }
+    const basis = (used: number): AnalysisBasis => ({
+      runId,
+      runKind: run.kind,
+      readingCount: series.count,
+      excludedCount: countExcluded(series),
+      usedCount: used,
+    });
+    let result: RunAnalysis;
+    switch (run.kind) {
+      case 'as_found':
+      case 'as_left':
+        result = this.calibration(run.range, series, basis, query);
+        break;
+      case 'warmup':
+        result = this.warmup(series, basis, query);
+        break;
+      case 'stability':
+        result = this.stability(series, basis, query);
+        break;
+      case 'supply_sensitivity':
+        result = this.supply(series, basis);
+        break;
+      case 'keying':
+        result = this.keying(series, basis);
+        break;
+    }
+    if (series.count === counts.readingCount) this.results.set(resultKey, result);
+    return result;
+  }
+
+  private calibration(range: InstrumentRange, series: RunSeries, basis: (used: number) => AnalysisBasis, query: RunAnalysisQueryDto): CalibrationRunAnalysis {
+    const readings: Array<{ dial: number; frequency: number; excluded: boolean }> = [];
+    for (let i = 0; i < series.count; i++) {
+      if (Number.isNaN(series.dial[i]!)) continue;
+      readings.push({ dial: series.dial[i]!, frequency: series.frequency[i]!, excluded: series.excluded[i] === 1 });
+    }
+    const result = analyseCalibration({ law: range.dialLaw, tolerance: range.tolerance, readings });
+    const { alignment, note } = this.alignment(range, result.points, query.tuningCapLowPf);
+    return {
+      ...basis(readings.filter((r) => !r.excluded).length),
+      analysis: 'calibration',
+      range: {
+        id: range.id,
+        label: range.label,
+        dialUnit: range.dialUnit,
+        dialMin: range.dialMin,
+        dialMax: range.dialMax,
+        freqMinHz: range.freqMinHz,
+        freqMaxHz: range.freqMaxHz,
+        tolerance: range.tolerance,
+      },
+      points: result.points,
+      fit: result.fit,
+      tracking: result.tracking,
+      corrections: result.corrections,
+      outliers: result.points.filter((p) => p.outlier).map((p) => ({ dial: p.dial, studentised: p.studentised! })),
+      alignment,
+      alignmentNote: note,
+    };
+  }
+
+  /** alignLC from the measured points at the two range ends, with a mid-range point when there is one. */
+  private alignment(range: InstrumentRange, points: CalibrationPoint[], tuningCapLowPf: number | undefined): { alignment: RunAlignment | null; note: string | null } {
+    if (points.length < 2) return { alignment: null, note: 'measure both ends of the range to get the alignment' };
+    const span = range.dialMax - range.dialMin;
+    const nominalAtMin = dialToNominal(range.dialLaw, range.dialMin);
+    const nominalAtMax = dialToNominal(range.dialLaw, range.dialMax);
+    const lowEndDial = nominalAtMin <= nominalAtMax ? range.dialMin : range.dialMax;
+    const highEndDial = lowEndDial === range.dialMin ? range.dialMax : range.dialMin;
+    const byNominal = [...points].sort((a, b) => a.nominal - b.nominal);
+    const low = byNominal[0]!;
+    const high = byNominal[byNominal.length - 1]!;
+    if (Math.abs(low.dial - lowEndDial) > END_COVERAGE * span || Math.abs(high.dial - highEndDial) > END_COVERAGE * span) {
+      return { alignment: null, note: `the alignment needs settings at both ends of the range (dial ${lowEndDial} and ${highEndDial})` };
+    }
+    const middleTarget = (low.nominal + high.nominal) / 2;
+    const inner = byNominal.slice(1, -1);
+    const mid = inner.length === 0 ? null : inner.reduce((best, p) => (Math.abs(p.nominal - middleTarget) < Math.abs(best.nominal - middleTarget) ? p : best));
+    try {
+      const result = alignLC({
+        lowMeasured: low.measured,
+        lowTarget: low.nominal,
+        highMeasured: high.measured,
+        highTarget: high.nominal,
+        ...(tuningCapLowPf !== undefined ? { tuningCapLowPf } : {}),
+        ...(mid ? { midMeasured: mid.measured, midTarget: mid.nominal } : {}),
+      });
+      const end = (p: CalibrationPoint) => ({ dial: p.dial, target: p.nominal, measured: p.measured });
+      return { alignment: { ...result, low: end(low), high: end(high), mid: mid ? end(mid) : null }, note: null };
+    } catch (error) {
+      // The calibration itself stands; only the alignment cannot be worked out from these readings.
+      if (error instanceof MetrologyError) return { alignment: null, note: error.message };
+      throw error;
+    }
+  }
+
+  private warmup(series: RunSeries, basis: (used: number) => AnalysisBasis, query: RunAnalysisQueryDto): WarmupRunAnalysis {
+    const { t, frequency } = includedByTime(series);
+    const fit = fitWarmup(t, frequency, { linearTerm: query.linear === true });
+    const withinHz = query.withinHz ?? DEFAULT_SETTLING_WITHIN_HZ;
+    const rateHzPerMin = query.rateHzPerMin ?? DEFAULT_SETTLING_RATE_HZ_PER_MIN;
+    const windowSeconds = query.windowSeconds ?? DEFAULT_DRIFT_WINDOW_SECONDS;
+    let windows: DriftWindow[] = [];
+    try {
+      windows = driftRateWindows(t, frequency, windowSeconds);
+    } catch (error) {
+      // A record shorter than one window has no windowed rate; the fit still stands.
+      if (!(error instanceof MetrologyError && error.code === 'too_short')) throw error;
+    }
+    const shown = downsampleLttb(t, frequency, MAX_SERIES_POINTS);
+    return {
+      ...basis(t.length),
+      analysis: 'warmup',
+      fit,
+      summary: warmupSummary(t, frequency, fit, { kind: 'within_hz', hz: withinHz }),
+      settling: {
+        withinHz,
+        withinSeconds: settlingTime(fit, { kind: 'within_hz', hz: withinHz }),
+        rateHzPerMin,
+        rateSeconds: settlingTime(fit, { kind: 'rate_below', hzPerMin: rateHzPerMin }),
+      },
+      drift: { windowSeconds, windows },
+      series: { t: shown.x, frequency: shown.y, fitted: shown.x.map((time) => evaluateWarmup(fit, time)) },
+    };
+  }
+
+  private stability(series: RunSeries, basis: (used: number) => AnalysisBasis, query: RunAnalysisQueryDto): StabilityRunAnalysis {
+    const { t, frequency } = includedByTime(series);
+    if (t.length < 3) throw new MetrologyError('too_few_points', `a stability analysis requires at least 3 data points (the run has ${t.length})`);
+    // The basic interval is the median spacing; gaps are then judged against it.
+    const tau0 = detectGaps(t, 1).medianInterval;
+    if (!(tau0 > 0)) throw new MetrologyError('not_sorted', 'the readings of this run share one time stamp, so they have no interval');
+    const gaps = detectGaps(t, tau0);
+    const referenceHz = query.referenceHz ?? mean(frequency);
+    const y = fractionalFrequency(frequency, referenceHz);
+    const shown = downsampleLttb(t, frequency, MAX_SERIES_POINTS);
+    return {
+      ...basis(t.length),
+      analysis: 'stability',
+      tau0,
+      referenceHz,
+      adev: overlappingAdev(y, tau0),
+      mdev: modifiedAdev(y, tau0),
+      gaps,
+      series: { t: shown.x, frequency: shown.y },
+    };
+  }
+
+  private supply(series: RunSeries, basis: (used: number) => AnalysisBasis): SupplySensitivityRunAnalysis {
+    const { t, frequency, aux } = includedByTime(series);
+    const volts: number[] = [];
+    const frequencies: number[] = [];
+    for (let i = 0; i < t.length; i++) {
+      if (Number.isNaN(aux[i]!)) continue;
+      volts.push(aux[i]!);
+      frequencies.push(frequency[i]!);
+    }
+    if (volts.length === 0) throw new UnprocessableEntityException('a supply-sensitivity run needs the supply voltage of each reading in aux');
+    const shown = downsampleLttb(t, frequency, MAX_SERIES_POINTS);
+    return {
+      ...basis(volts.length),
+      analysis: 'supply_sensitivity',
+      sensitivity: supplySensitivity(volts, frequencies),
+      series: { t: shown.x, frequency: shown.y },
+    };
+  }
+
+  private keying(series: RunSeries, basis: (used: number) => AnalysisBasis): KeyingRunAnalysis {
+    const { t, frequency, aux } = includedByTime(series);
+    const up: number[] = [];
+    const down: number[] = [];
+    for (let i = 0; i < t.length; i++) {
+      if (aux[i] === 0) up.push(frequency[i]!);
+      else if (aux[i] === 1) down.push(frequency[i]!);
+    }
+    if (up.length === 0 || down.length === 0) {
+      throw new UnprocessableEntityException('a keying run needs readings with the key up (aux 0) and down (aux 1)');
+    }
+    const shown = downsampleLttb(t, frequency, MAX_SERIES_POINTS);
+    return {
+      ...basis(up.length + down.length),
+      analysis: 'keying',
+      shift: keyingShift(up, down),
+      series: { t: shown.x, frequency: shown.y },
+    };
+  }
+}
+
+function countExcluded(series: RunSeries): number {
+  let n = 0;
+  for (let i = 0; i < series.count; i++) n += series.excluded[i]!;
+  return n;
+}
+
+function mean(values: Float64Array): number {
+  let sum = 0;
+  for (let i = 0; i < values.length; i++) sum += values[i]!;
+  return sum / values.length;
+}

@@ -1,0 +1,101 @@
+import { Injectable } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import type { DataSource } from 'typeorm';
+import { analyseCalibration, dialForFrequency, dialForOutput, MetrologyError, planBands, type ItuRegion } from '@kilocycle/common/math';
+import type { BandPlanResponse, BandPlanSetting } from '@kilocycle/common/types';
+import { unitMultiplier } from '@kilocycle/common/units';
+import type { AuthUser } from '../auth/auth-user.js';
+import type { InstrumentRange } from '../instruments/instrument-range.entity.js';
+import { InstrumentsService } from '../instruments/instruments.service.js';
+
+type MeasuredPoints = { runId: number; points: Array<{ dial: number; measured: number }> };
+
+@Injectable()
+export class BandPlanService {
+  constructor(
+    private readonly instruments: InstrumentsService,
+    @InjectDataSource() private readonly dataSource: DataSource,
+  ) {}
+
+  async plan(actor: AuthUser, instrumentId: number, region: ItuRegion, wantedHz: number | undefined): Promise<BandPlanResponse> {
+    const instrument = await this.instruments.findVisible(actor, instrumentId);
+    const ranges = [...instrument.ranges].sort((a, b) => a.position - b.position);
+    const planned = planBands(
+      ranges.map((r) => ({ label: r.label, lowHz: r.freqMinHz, highHz: r.freqMaxHz, multipliers: r.multipliers })),
+      region,
+    );
+    // planBands answers one row per range and multiplier, in the order given.
+    const rangeOfRow = ranges.flatMap((r) => r.multipliers.map(() => r.id));
+    const rows = planned.map((row, index) => ({ ...row, rangeId: rangeOfRow[index]! }));
+    if (wantedHz === undefined) return { instrumentId, region, rows, wanted: null };
+
+    const settings: BandPlanSetting[] = [];
+    for (const range of ranges) {
+      for (const multiplier of range.multipliers) {
+        const fundamentalHz = wantedHz / multiplier;
+        if (fundamentalHz < range.freqMinHz || fundamentalHz > range.freqMaxHz) continue;
+        const nominalDial = nominalDialFor(range, fundamentalHz);
+        if (nominalDial === null) continue;
+        const measured = await this.latestMeasuredPoints(range.id);
+        let correctedDial: number | null = null;
+        if (measured) {
+          try {
+            correctedDial = dialForOutput(measured.points, multiplier, wantedHz);
+          } catch (error) {
+            // Outside the measured span, or a curve that turns: no corrected setting, the nominal stands.
+            if (!(error instanceof MetrologyError)) throw error;
+          }
+        }
+        settings.push({
+          rangeId: range.id,
+          rangeLabel: range.label,
+          multiplier,
+          fundamentalHz,
+          nominalDial,
+          correctedDial,
+          correctionRunId: correctedDial === null ? null : measured!.runId,
+        });
+      }
+    }
+    return { instrumentId, region, rows, wanted: { outputHz: wantedHz, settings } };
+  }
+
+  /** Averaged measured points of the range's latest calibration run that has at least two settings. */
+  private async latestMeasuredPoints(rangeId: number): Promise<MeasuredPoints | null> {
+    const runs: Array<{ id: number }> = await this.dataSource.query(
+      "SELECT id FROM runs WHERE range_id = ? AND kind IN ('as_found', 'as_left') ORDER BY started_at DESC, id DESC LIMIT 5",
+      [rangeId],
+    );
+    const [range] = await this.dataSource.query('SELECT dial_law FROM instrument_ranges WHERE id = ?', [rangeId]);
+    const law = typeof range.dial_law === 'string' ? JSON.parse(range.dial_law) : range.dial_law;
+    for (const run of runs) {
+      const readings: Array<{ dial: number | null; frequency_hz: number; excluded: number | null }> = await this.dataSource.query(
+        `SELECT r.dial, r.frequency_hz, x.run_id AS excluded FROM readings r LEFT JOIN reading_exclusions x ON x.reading_id = r.id
+          WHERE r.run_id = ? AND r.dial IS NOT NULL`,
+        [run.id],
+      );
+      if (readings.length < 2) continue;
+      try {
+        const analysis = analyseCalibration({
+          law,
+          readings: readings.map((r) => ({ dial: Number(r.dial), frequency: Number(r.frequency_hz), excluded: r.excluded !== null })),
+        });
+        if (analysis.points.length >= 2) return { runId: run.id, points: analysis.points.map((p) => ({ dial: p.dial, measured: p.measured })) };
+      } catch (error) {
+        if (!(error instanceof MetrologyError)) throw error;
+      }
+    }
+    return null;
+  }
+}
+
+/** The dial setting the range's law gives for a frequency: a direct dial reads it, a table is read backwards. */
+function nominalDialFor(range: InstrumentRange, frequencyHz: number): number | null {
+  if (range.dialLaw.kind === 'direct') return frequencyHz / unitMultiplier(range.dialLaw.unit);
+  try {
+    return dialForFrequency(range.dialLaw.points.map((p) => ({ dial: p.dial, measured: p.frequency })), frequencyHz);
+  } catch (error) {
+    if (error instanceof MetrologyError) return null;
+    throw error;
+  }
+}

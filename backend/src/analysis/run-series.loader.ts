@@ -1,0 +1,137 @@
+import { Injectable } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import type { DataSource } from 'typeorm';
+
+/** A run's readings as columns, in seq order; NaN stands for an empty dial or aux. */
+export type RunSeries = {
+  count: number;
+  seq: Float64Array;
+  t: Float64Array;
+  dial: Float64Array;
+  frequency: Float64Array;
+  aux: Float64Array;
+  excluded: Uint8Array;
+};
+
+export type RunCounts = { readingCount: number; excludedCount: number };
+
+// The part of a mysql2 (callback API) connection the loader uses.
+type RowCell = number | string | null;
+type StreamingQuery = {
+  on(event: 'result', listener: (row: RowCell[]) => void): StreamingQuery;
+  on(event: 'error', listener: (error: Error) => void): StreamingQuery;
+  on(event: 'end', listener: () => void): StreamingQuery;
+};
+type RawConnection = { query(options: { sql: string; values: unknown[]; rowsAsArray: boolean }): StreamingQuery };
+
+/**
+ * Reads a run's readings straight from the driver, row arrays into typed arrays: no entities, no
+ * per-row objects. A million readings stream in about the time the database takes to send them.
+ */
+@Injectable()
+export class RunSeriesLoader {
+  constructor(@InjectDataSource() private readonly dataSource: DataSource) {}
+
+  async counts(runId: number): Promise<RunCounts> {
+    const [row] = await this.dataSource.query(
+      'SELECT (SELECT COUNT(*) FROM readings WHERE run_id = ?) AS n, (SELECT COUNT(*) FROM reading_exclusions WHERE run_id = ?) AS x',
+      [runId, runId],
+    );
+    return { readingCount: Number(row.n), excludedCount: Number(row.x) };
+  }
+
+  async load(runId: number, expected: number): Promise<RunSeries> {
+    const excludedSeqs = new Set<number>(
+      (await this.dataSource.query('SELECT r.seq FROM reading_exclusions x JOIN readings r ON r.id = x.reading_id WHERE x.run_id = ?', [runId])).map(
+        (row: { seq: number }) => Number(row.seq),
+      ),
+    );
+    let capacity = Math.max(expected, 16);
+    let series = allocate(capacity);
+    let count = 0;
+    const runner = this.dataSource.createQueryRunner();
+    try {
+      const connection = (await runner.connect()) as RawConnection;
+      await new Promise<void>((resolve, reject) => {
+        connection
+          .query({ sql: 'SELECT seq, t_s, dial, frequency_hz, aux FROM readings WHERE run_id = ? ORDER BY seq', values: [runId], rowsAsArray: true })
+          .on('result', (row) => {
+            // Readings may arrive while we read: grow rather than overrun.
+            if (count === capacity) {
+              capacity *= 2;
+              series = grow(series, capacity);
+            }
+            const seq = Number(row[0]);
+            series.seq[count] = seq;
+            series.t[count] = Number(row[1]);
+            series.dial[count] = row[2] === null ? Number.NaN : Number(row[2]);
+            series.frequency[count] = Number(row[3]);
+            series.aux[count] = row[4] === null ? Number.NaN : Number(row[4]);
+            series.excluded[count] = excludedSeqs.has(seq) ? 1 : 0;
+            count += 1;
+          })
+          .on('error', reject)
+          .on('end', resolve);
+      });
+    } finally {
+      await runner.release();
+    }
+    return {
+      count,
+      seq: series.seq.subarray(0, count),
+      t: series.t.subarray(0, count),
+      dial: series.dial.subarray(0, count),
+      frequency: series.frequency.subarray(0, count),
+      aux: series.aux.subarray(0, count),
+      excluded: series.excluded.subarray(0, count),
+    };
+  }
+}
+
+function allocate(capacity: number): Omit<RunSeries, 'count'> {
+  return {
+    seq: new Float64Array(capacity),
+    t: new Float64Array(capacity),
+    dial: new Float64Array(capacity),
+    frequency: new Float64Array(capacity),
+    aux: new Float64Array(capacity),
+    excluded: new Uint8Array(capacity),
+  };
+}
+
+function grow(old: Omit<RunSeries, 'count'>, capacity: number): Omit<RunSeries, 'count'> {
+  const next = allocate(capacity);
+  next.seq.set(old.seq);
+  next.t.set(old.t);
+  next.dial.set(old.dial);
+  next.frequency.set(old.frequency);
+  next.aux.set(old.aux);
+  next.excluded.set(old.excluded);
+  return next;
+}
+
+/** Included readings in time order: t and frequency (and aux), for the time-series analyses. */
+export function includedByTime(series: RunSeries): { t: Float64Array; frequency: Float64Array; aux: Float64Array } {
+  let n = 0;
+  for (let i = 0; i < series.count; i++) if (series.excluded[i] === 0) n++;
+  const order = new Uint32Array(n);
+  let k = 0;
+  let sorted = true;
+  for (let i = 0; i < series.count; i++) {
+    if (series.excluded[i] !== 0) continue;
+    if (k > 0 && series.t[i]! < series.t[order[k - 1]!]!) sorted = false;
+    order[k++] = i;
+  }
+  // Readings come in seq order, which is time order unless a bridge re-sent old ones late.
+  if (!sorted) order.sort((a, b) => series.t[a]! - series.t[b]! || series.seq[a]! - series.seq[b]!);
+  const t = new Float64Array(n);
+  const frequency = new Float64Array(n);
+  const aux = new Float64Array(n);
+  for (let j = 0; j < n; j++) {
+    const i = order[j]!;
+    t[j] = series.t[i]!;
+    frequency[j] = series.frequency[i]!;
+    aux[j] = series.aux[i]!;
+  }
+  return { t, frequency, aux };
+}

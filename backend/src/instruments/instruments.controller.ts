@@ -1,0 +1,36 @@
+import { Body, Controller, Get, Param, ParseIntPipe, Patch, Post, Query } from '@nestjs/common';
+import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
+import type { Instrument as InstrumentView, ListResponse } from '@kilocycle/common/types';
+import type { AuthUser } from '../auth/auth-user.js';
+import { CurrentUser, Roles } from '../auth/decorators.js';
+import { CreateInstrumentDto, ListInstrumentsQueryDto, UpdateInstrumentDto } from './dto/instrument.dto.js';
+import { InstrumentsService } from './instruments.service.js';
+
+@ApiTags('instruments')
+@ApiBearerAuth()
+@Controller('instruments')
+export class InstrumentsController {
+  constructor(private readonly instruments: InstrumentsService) {}
+
+  @Get()
+  list(@CurrentUser() user: AuthUser, @Query() query: ListInstrumentsQueryDto): Promise<ListResponse<InstrumentView>> {
+    return this.instruments.list(user, query);
+  }
+
+  @Get(':id')
+  get(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number): Promise<InstrumentView> {
+    return this.instruments.get(user, id);
+  }
+
+  @Roles('admin', 'lead', 'technician')
+  @Post()
+  create(@CurrentUser() user: AuthUser, @Body() body: CreateInstrumentDto): Promise<InstrumentView> {
+    return this.instruments.create(user, body);
+  }
+
+  @Roles('admin', 'lead', 'technician')
+  @Patch(':id')
+  update(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Body() body: UpdateInstrumentDto): Promise<InstrumentView> {
+    return this.instruments.update(user, id, body);
+  }
+}

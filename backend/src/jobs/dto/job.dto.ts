@@ -1,0 +1,73 @@
+import { Type } from 'class-transformer';
+import { IsIn, IsInt, IsNumber, IsOptional, IsString, Matches, Max, MaxLength, Min, MinLength, ValidateIf } from 'class-validator';
+import { JOB_STATUSES, type CreateJobRequest, type JobStatus, type ListJobsQuery, type UpdateJobRequest } from '@kilocycle/common/types';
+import { IsDateOnly, Trim } from '../../shared/dto-helpers.js';
+import { ListQueryDto } from '../../shared/list-query.dto.js';
+
+const finite = { allowNaN: false, allowInfinity: false } as const;
+const statusMessage = `status must be one of: ${JOB_STATUSES.join(', ')}`;
+
+export class CreateJobDto implements CreateJobRequest {
+  @IsInt({ message: 'instrumentId must be a whole number' }) @Min(1)
+  instrumentId: number;
+
+  @IsDateOnly('receivedDate')
+  receivedDate: string;
+
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
+  conditionReceived?: string | null;
+
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsInt({ message: 'technicianId must be a whole number' }) @Min(1)
+  technicianId?: number | null;
+
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsNumber(finite, { message: 'ambientTempC must be a number' }) @Min(-40) @Max(80)
+  ambientTempC?: number | null;
+
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsNumber(finite, { message: 'humidityPct must be a number' }) @Min(0) @Max(100)
+  humidityPct?: number | null;
+
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
+  notes?: string | null;
+}
+
+export class UpdateJobDto implements UpdateJobRequest {
+  @IsOptional() @IsDateOnly('receivedDate')
+  receivedDate?: string;
+
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
+  conditionReceived?: string | null;
+
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsInt({ message: 'technicianId must be a whole number' }) @Min(1)
+  technicianId?: number | null;
+
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsNumber(finite, { message: 'ambientTempC must be a number' }) @Min(-40) @Max(80)
+  ambientTempC?: number | null;
+
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsNumber(finite, { message: 'humidityPct must be a number' }) @Min(0) @Max(100)
+  humidityPct?: number | null;
+
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
+  notes?: string | null;
+
+  @IsOptional() @IsIn(JOB_STATUSES, { message: statusMessage })
+  status?: JobStatus;
+
+  /** Why the status changes; required when a lead returns a job for rework. */
+  @IsOptional() @IsString() @Trim() @MinLength(3, { message: 'comment must be at least 3 characters' }) @MaxLength(2000)
+  comment?: string;
+}
+
+export class ListJobsQueryDto extends ListQueryDto implements ListJobsQuery {
+  @IsOptional() @Type(() => Number) @IsInt({ message: 'organizationId must be a whole number' }) @Min(1)
+  organizationId?: number;
+
+  @IsOptional() @Type(() => Number) @IsInt({ message: 'instrumentId must be a whole number' }) @Min(1)
+  instrumentId?: number;
+
+  @IsOptional() @Type(() => Number) @IsInt({ message: 'technicianId must be a whole number' }) @Min(1)
+  technicianId?: number;
+
+  @IsOptional()
+  @Matches(new RegExp(`^(${JOB_STATUSES.join('|')})(,(${JOB_STATUSES.join('|')}))*$`), { message: `${statusMessage} (several separated by commas)` })
+  status?: string;
+}

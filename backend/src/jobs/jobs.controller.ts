@@ -1,0 +1,36 @@
+import { Body, Controller, Get, Param, ParseIntPipe, Patch, Post, Query } from '@nestjs/common';
+import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
+import type { Job as JobView, ListResponse } from '@kilocycle/common/types';
+import type { AuthUser } from '../auth/auth-user.js';
+import { CurrentUser, Roles } from '../auth/decorators.js';
+import { CreateJobDto, ListJobsQueryDto, UpdateJobDto } from './dto/job.dto.js';
+import { JobsService } from './jobs.service.js';
+
+@ApiTags('jobs')
+@ApiBearerAuth()
+@Controller('jobs')
+export class JobsController {
+  constructor(private readonly jobs: JobsService) {}
+
+  @Get()
+  list(@CurrentUser() user: AuthUser, @Query() query: ListJobsQueryDto): Promise<ListResponse<JobView>> {
+    return this.jobs.list(user, query);
+  }
+
+  @Get(':id')
+  get(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number): Promise<JobView> {
+    return this.jobs.get(user, id);
+  }
+
+  @Roles('admin', 'lead', 'technician')
+  @Post()
+  create(@CurrentUser() user: AuthUser, @Body() body: CreateJobDto): Promise<JobView> {
+    return this.jobs.create(user, body);
+  }
+
+  @Roles('admin', 'lead', 'technician')
+  @Patch(':id')
+  update(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Body() body: UpdateJobDto): Promise<JobView> {
+    return this.jobs.update(user, id, body);
+  }
+}

@@ -1,0 +1,217 @@
+import { BadRequestException, ConflictException, ForbiddenException, Injectable, NotFoundException } from '@nestjs/common';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { In, type DataSource, type EntityManager, type Repository } from 'typeorm';
+import type { Job as JobView, JobStatus, ListResponse } from '@kilocycle/common/types';
+import { AuditService } from '../audit/audit.service.js';
+import { organizationScope, type AuthUser } from '../auth/auth-user.js';
+import { Instrument } from '../instruments/instrument.entity.js';
+import { instrumentLabel } from '../instruments/instruments.service.js';
+import { dateOnly } from '../shared/dto-helpers.js';
+import { paginateFlat } from '../shared/page-query.js';
+import { likePattern } from '../shared/paginate.js';
+import { User } from '../users/user.entity.js';
+import type { CreateJobDto, ListJobsQueryDto, UpdateJobDto } from './dto/job.dto.js';
+import { ACTIVE_JOB_STATUSES, LOCKED_JOB_STATUSES, transitionRefusal } from './job-status-rules.js';
+import { Job } from './job.entity.js';
+
+type JobExtras = { runCount: number; returnComment: string | null };
+
+export function toJobView(j: Job, extras: JobExtras): JobView {
+  return {
+    id: j.id,
+    number: j.number,
+    instrumentId: j.instrumentId,
+    instrumentLabel: j.instrument ? instrumentLabel(j.instrument) : '',
+    organizationId: j.organizationId,
+    organizationName: j.organization?.name ?? '',
+    status: j.status,
+    receivedDate: dateOnly(j.receivedDate) ?? '',
+    conditionReceived: j.conditionReceived,
+    technicianId: j.technicianId,
+    technicianName: j.technician?.name ?? null,
+    ambientTempC: j.ambientTempC,
+    humidityPct: j.humidityPct,
+    notes: j.notes,
+    createdAt: j.createdAt.toISOString(),
+    updatedAt: j.updatedAt.toISOString(),
+    runCount: extras.runCount,
+    returnComment: extras.returnComment,
+  };
+}
+
+const SORTABLE = {
+  id: 'j.id',
+  number: 'j.number',
+  status: 'j.status',
+  receivedDate: 'j.receivedDate',
+  createdAt: 'j.createdAt',
+  updatedAt: 'j.updatedAt',
+  organizationName: 'o.name',
+  instrumentLabel: 'i.make',
+  technicianName: 't.name',
+};
+const FIELDS = ['receivedDate', 'conditionReceived', 'technicianId', 'ambientTempC', 'humidityPct', 'notes'] as const;
+
+@Injectable()
+export class JobsService {
+  constructor(
+    @InjectRepository(Job) private readonly jobs: Repository<Job>,
+    @InjectDataSource() private readonly dataSource: DataSource,
+    private readonly audit: AuditService,
+  ) {}
+
+  list(actor: AuthUser, query: ListJobsQueryDto): Promise<ListResponse<JobView>> {
+    const qb = this.baseQuery();
+    const scope = organizationScope(actor);
+    if (scope !== null) qb.andWhere('j.organizationId = :scope', { scope });
+    if (query.organizationId !== undefined) qb.andWhere('j.organizationId = :org', { org: query.organizationId });
+    if (query.instrumentId !== undefined) qb.andWhere('j.instrumentId = :instrumentId', { instrumentId: query.instrumentId });
+    if (query.technicianId !== undefined) qb.andWhere('j.technicianId = :technicianId', { technicianId: query.technicianId });
+    if (query.status) qb.andWhere('j.status IN (:...statuses)', { statuses: query.status.split(',') });
+    if (query.q) {
+      qb.andWhere('(j.number LIKE :q OR i.make LIKE :q OR i.model LIKE :q OR i.serial LIKE :q OR o.name LIKE :q)', { q: likePattern(query.q) });
+    }
+    return paginateFlat(qb, query, SORTABLE, '-receivedDate', 'j.id', (found) => this.toViews(found));
+  }
+
+  /** The job if the actor may see it; 404 otherwise. */
+  async findVisible(actor: AuthUser, id: number): Promise<Job> {
+    const found = await this.baseQuery().where('j.id = :id', { id }).getOne();
+    const scope = organizationScope(actor);
+    if (!found || (scope !== null && found.organizationId !== scope)) throw new NotFoundException(`Job ${id} not found`);
+    return found;
+  }
+
+  async get(actor: AuthUser, id: number): Promise<JobView> {
+    const [view] = await this.toViews([await this.findVisible(actor, id)]);
+    return view!;
+  }
+
+  async create(actor: AuthUser, body: CreateJobDto): Promise<JobView> {
+    const id = await this.dataSource.transaction(async (manager) => {
+      const instrument = await manager.findOne(Instrument, { where: { id: body.instrumentId }, lock: { mode: 'pessimistic_write' } });
+      if (!instrument) throw new BadRequestException(`instrumentId: instrument ${body.instrumentId} does not exist`);
+      const active = await manager.findOne(Job, { where: { instrumentId: instrument.id, status: In([...ACTIVE_JOB_STATUSES]) } });
+      if (active) throw new ConflictException(`${instrumentLabel(instrument)} already has job ${active.number} (${active.status}); finish that one first`);
+      if (body.technicianId != null) await this.assertTechnician(manager, body.technicianId);
+      const number = await this.nextNumber(manager, body.receivedDate);
+      const result = await manager.insert(Job, {
+        number,
+        instrumentId: instrument.id,
+        organizationId: instrument.organizationId,
+        status: 'received',
+        receivedDate: body.receivedDate,
+        conditionReceived: body.conditionReceived ?? null,
+        technicianId: body.technicianId ?? null,
+        ambientTempC: body.ambientTempC ?? null,
+        humidityPct: body.humidityPct ?? null,
+        notes: body.notes ?? null,
+      });
+      const newId = result.identifiers[0].id as number;
+      await this.audit.record({ actorId: actor.id, entity: 'job', entityId: newId, action: 'create', changes: { number, ...body } }, manager);
+      return newId;
+    });
+    return this.get(actor, id);
+  }
+
+  async update(actor: AuthUser, id: number, body: UpdateJobDto): Promise<JobView> {
+    await this.dataSource.transaction(async (manager) => {
+      const job = await manager.findOne(Job, { where: { id }, lock: { mode: 'pessimistic_write' } });
+      if (!job) throw new NotFoundException(`Job ${id} not found`);
+      const current = { ...job, receivedDate: dateOnly(job.receivedDate) };
+      const changes: Record<string, unknown> = {};
+      const patch: Partial<Job> = {};
+      for (const key of FIELDS) {
+        if (body[key] !== undefined && body[key] !== current[key]) {
+          changes[key] = { from: current[key], to: body[key] };
+          Object.assign(patch, { [key]: body[key] });
+        }
+      }
+      if (Object.keys(patch).length > 0) {
+        if (LOCKED_JOB_STATUSES.includes(job.status)) throw new ConflictException(`job ${job.number} is ${job.status}: its record can no longer change`);
+        if (patch.technicianId != null) await this.assertTechnician(manager, patch.technicianId);
+        await manager.update(Job, { id }, patch);
+        await this.audit.record({ actorId: actor.id, entity: 'job', entityId: id, action: 'update', changes }, manager);
+      }
+      if (body.status !== undefined && body.status !== job.status) {
+        await this.changeStatus(manager, actor, job, body.status, body.comment);
+      } else if (body.comment !== undefined && body.status === undefined) {
+        throw new BadRequestException('comment: a comment goes with a status change');
+      }
+    });
+    return this.get(actor, id);
+  }
+
+  /** Moves a job along its workflow (also used when the first run opens); audited in the caller's transaction. */
+  async changeStatus(manager: EntityManager, actor: Pick<AuthUser, 'id' | 'role'>, job: Job, to: JobStatus, comment?: string): Promise<void> {
+    const refusal = transitionRefusal(job.status, to, actor.role);
+    if (refusal) {
+      if (refusal.status === 403) throw new ForbiddenException(refusal.message);
+      throw new ConflictException(`job ${job.number}: ${refusal.message}`);
+    }
+    if (to === 'returned' && !comment) throw new BadRequestException('comment: say what needs rework when returning a job');
+    if (to === 'in_review') {
+      const [{ readings }] = await manager.query(
+        'SELECT COUNT(*) AS readings FROM readings WHERE run_id IN (SELECT id FROM runs WHERE job_id = ?)',
+        [job.id],
+      );
+      if (Number(readings) === 0) throw new ConflictException(`job ${job.number} has no readings yet: nothing to review`);
+    }
+    await manager.update(Job, { id: job.id }, { status: to });
+    await this.audit.record(
+      { actorId: actor.id, entity: 'job', entityId: job.id, action: 'status', changes: { from: job.status, to, comment: comment ?? null } },
+      manager,
+    );
+    job.status = to;
+  }
+
+  private baseQuery() {
+    return this.jobs
+      .createQueryBuilder('j')
+      .innerJoinAndSelect('j.instrument', 'i')
+      .innerJoinAndSelect('j.organization', 'o')
+      .leftJoinAndSelect('j.technician', 't');
+  }
+
+  private async toViews(found: Job[]): Promise<JobView[]> {
+    if (found.length === 0) return [];
+    const ids = found.map((j) => j.id);
+    const counts = new Map<number, number>(
+      (await this.dataSource.query('SELECT job_id, COUNT(*) AS n FROM runs WHERE job_id IN (?) GROUP BY job_id', [ids])).map(
+        (row: { job_id: number; n: number | string }) => [Number(row.job_id), Number(row.n)],
+      ),
+    );
+    const returned = found.filter((j) => j.status === 'returned').map((j) => String(j.id));
+    const comments = new Map<number, string | null>();
+    if (returned.length > 0) {
+      const events: Array<{ entity_id: string; changes: unknown }> = await this.dataSource.query(
+        `SELECT entity_id, changes FROM audit_events WHERE entity = 'job' AND action = 'status' AND entity_id IN (?) ORDER BY id DESC`,
+        [returned],
+      );
+      for (const event of events) {
+        const changes = (typeof event.changes === 'string' ? JSON.parse(event.changes) : event.changes) as { to?: string; comment?: string | null } | null;
+        const jobId = Number(event.entity_id);
+        if (!comments.has(jobId) && changes?.to === 'returned') comments.set(jobId, changes.comment ?? null);
+      }
+    }
+    return found.map((j) => toJobView(j, { runCount: counts.get(j.id) ?? 0, returnComment: comments.get(j.id) ?? null }));
+  }
+
+  private async assertTechnician(manager: EntityManager, userId: number): Promise<void> {
+    const user = await manager.findOneBy(User, { id: userId });
+    if (!user || !user.active || !['technician', 'lead'].includes(user.role)) {
+      throw new BadRequestException(`technicianId: user ${userId} is not an active technician or lead`);
+    }
+  }
+
+  /** J<year>-<nnnn>, counting up within the year the instrument was received. */
+  private async nextNumber(manager: EntityManager, receivedDate: string): Promise<string> {
+    const prefix = `J${receivedDate.slice(0, 4)}-`;
+    const [last] = await manager.query(
+      'SELECT number FROM jobs WHERE number LIKE ? ORDER BY LENGTH(number) DESC, number DESC LIMIT 1 FOR UPDATE',
+      [`${prefix}%`],
+    );
+    const next = last ? Number(String(last.number).slice(prefix.length)) + 1 : 1;
+    return `${prefix}${String(next).padStart(4, '0')}`;
+  }
+}

@@ -1,0 +1,35 @@
+import { Type } from 'class-transformer';
+import { ArrayMaxSize, ArrayMinSize, IsArray, IsBoolean, IsInt, IsOptional, IsString, Matches, Max, MaxLength, Min, MinLength } from 'class-validator';
+import { MAX_PAGE_SIZE, type AppendReadingsRequest, type ExcludeReadingRequest, type ListReadingsQuery, type ReadingInput } from '@kilocycle/common/types';
+import { QueryBoolean, Trim } from '../../shared/dto-helpers.js';
+import { MAX_BATCH } from '../readings-writer.service.js';
+
+/** Each reading is checked by ReadingsWriter (the one write path), which names the field that is wrong. */
+export class AppendReadingsDto implements AppendReadingsRequest {
+  @IsArray({ message: 'readings must be a list' })
+  @ArrayMinSize(1, { message: 'readings must hold at least 1 reading' })
+  @ArrayMaxSize(MAX_BATCH, { message: `readings must hold at most ${MAX_BATCH} readings a request` })
+  readings: ReadingInput[];
+}
+
+export class ExcludeReadingDto implements ExcludeReadingRequest {
+  @IsString({ message: 'reason must be text' })
+  @Trim()
+  @MinLength(3, { message: 'reason must be at least 3 characters' })
+  @MaxLength(500, { message: 'reason must be at most 500 characters' })
+  reason: string;
+}
+
+export class ListReadingsQueryDto implements ListReadingsQuery {
+  @IsOptional() @Type(() => Number) @IsInt() @Min(1)
+  page?: number;
+
+  @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(MAX_PAGE_SIZE)
+  pageSize?: number;
+
+  @IsOptional() @IsString() @Matches(/^-?[a-zA-Z]+$/, { message: 'sort must be a field name, optionally preceded by - for descending' })
+  sort?: string;
+
+  @IsOptional() @QueryBoolean() @IsBoolean({ message: 'excluded must be true or false' })
+  excluded?: boolean;
+}

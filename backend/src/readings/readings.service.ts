@@ -1,0 +1,115 @@
+import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import type { DataSource } from 'typeorm';
+import type { AppendReadingsResponse, ListResponse, Reading as ReadingView, ReadingInput } from '@kilocycle/common/types';
+import { AuditService } from '../audit/audit.service.js';
+import { organizationScope, type AuthUser } from '../auth/auth-user.js';
+import { assertMayWriteRun } from '../runs/run-rules.js';
+import { sortColumn } from '../shared/page-query.js';
+import type { ListReadingsQueryDto } from './dto/readings.dto.js';
+import { ReadingsWriter, refusalReason, toReadingView, type RunWriteContext } from './readings-writer.service.js';
+
+const SORTABLE = { seq: 'r.seq', t: 'r.t_s', dial: 'r.dial', frequency: 'r.frequency_hz', id: 'r.id' };
+const READING_KEYS = ['seq', 'dial', 'frequency', 't', 'aux'];
+
+@Injectable()
+export class ReadingsService {
+  constructor(
+    @InjectDataSource() private readonly dataSource: DataSource,
+    private readonly writer: ReadingsWriter,
+    private readonly audit: AuditService,
+  ) {}
+
+  /** The run's write context if the actor may see the run; 404 otherwise. */
+  async visibleRun(actor: AuthUser, runId: number): Promise<RunWriteContext> {
+    const ctx = await this.writer.loadContext(runId);
+    const scope = organizationScope(actor);
+    if (!ctx || (scope !== null && ctx.organizationId !== scope)) throw new NotFoundException(`Run ${runId} not found`);
+    return ctx;
+  }
+
+  async list(actor: AuthUser, runId: number, query: ListReadingsQueryDto): Promise<ListResponse<ReadingView>> {
+    await this.visibleRun(actor, runId);
+    const page = query.page ?? 1;
+    const pageSize = query.pageSize ?? 100;
+    const { column, direction } = sortColumn(query.sort ?? 'seq', SORTABLE);
+    const filter = query.excluded === true ? ' AND x.reading_id IS NOT NULL' : query.excluded === false ? ' AND x.reading_id IS NULL' : '';
+    const countSql =
+      filter === ''
+        ? 'SELECT COUNT(*) AS total FROM readings r WHERE r.run_id = ?'
+        : `SELECT COUNT(*) AS total FROM readings r LEFT JOIN reading_exclusions x ON x.reading_id = r.id WHERE r.run_id = ?${filter}`;
+    const [[{ total }], rows] = await Promise.all([
+      this.dataSource.query(countSql, [runId]),
+      this.dataSource.query(
+        `SELECT r.id, r.seq, r.t_s, r.dial, r.frequency_hz, r.aux, r.source, r.received_at, x.reason AS excluded_reason
+           FROM readings r LEFT JOIN reading_exclusions x ON x.reading_id = r.id
+          WHERE r.run_id = ?${filter}
+          ORDER BY ${column} ${direction}, r.seq ${direction}
+          LIMIT ? OFFSET ?`,
+        [runId, pageSize, (page - 1) * pageSize],
+      ),
+    ]);
+    return { items: (rows as Array<Record<string, unknown>>).map((row) => toReadingView(row)), total: Number(total) };
+  }
+
+  /**
+   * Stores typed readings through the shared write path. All or nothing: if any reading is refused,
+   * 400 names each refused field as `readings[i].field` and nothing is written.
+   */
+  async append(actor: AuthUser, runId: number, inputs: ReadingInput[]): Promise<AppendReadingsResponse> {
+    const ctx = await this.visibleRun(actor, runId);
+    assertMayWriteRun(actor.role, ctx.kind);
+    const refusal = refusalReason(ctx);
+    if (refusal) throw new ConflictException(refusal);
+    const problems: AppendReadingsResponse['rejected'] = [];
+    inputs.forEach((input, index) => {
+      if (input !== null && typeof input === 'object' && !Array.isArray(input)) {
+        for (const key of Object.keys(input)) {
+          if (!READING_KEYS.includes(key)) problems.push({ seq: null, index, field: key, reason: `${key} is not a reading field (use ${READING_KEYS.join(', ')})` });
+        }
+      }
+    });
+    problems.push(...this.writer.validate(ctx, inputs).rejected);
+    if (problems.length > 0) {
+      problems.sort((a, b) => a.index - b.index);
+      throw new BadRequestException({
+        statusCode: 400,
+        error: 'Bad Request',
+        message: problems.map((p) => `readings[${p.index}].${p.field}: ${p.reason}`),
+        rejected: problems,
+      });
+    }
+    const { stored, ...ack } = await this.writer.append(ctx, inputs, 'manual');
+    return { ...ack, stored };
+  }
+
+  /** Marks a reading as excluded, with the reason; the reading itself never changes. */
+  async exclude(actor: AuthUser, runId: number, readingId: number, reason: string): Promise<ReadingView> {
+    const ctx = await this.visibleRun(actor, runId);
+    assertMayWriteRun(actor.role, ctx.kind);
+    const refusal = refusalReason(ctx);
+    if (refusal) throw new ConflictException(refusal);
+    await this.dataSource.transaction(async (manager) => {
+      const [reading] = await manager.query(
+        `SELECT r.id, r.seq, x.reading_id AS excluded FROM readings r LEFT JOIN reading_exclusions x ON x.reading_id = r.id
+          WHERE r.id = ? AND r.run_id = ? FOR UPDATE`,
+        [readingId, runId],
+      );
+      if (!reading) throw new NotFoundException(`Reading ${readingId} not found in run ${runId}`);
+      if (reading.excluded !== null) throw new ConflictException(`reading ${readingId} (seq ${reading.seq}) is already excluded`);
+      await manager.query('INSERT INTO reading_exclusions (reading_id, run_id, reason, excluded_by) VALUES (?, ?, ?, ?)', [readingId, runId, reason, actor.id]);
+      await this.audit.record(
+        { actorId: actor.id, entity: 'reading', entityId: readingId, action: 'exclude', changes: { runId, seq: Number(reading.seq), reason } },
+        manager,
+      );
+    });
+    const [row] = await this.dataSource.query(
+      `SELECT r.id, r.seq, r.t_s, r.dial, r.frequency_hz, r.aux, r.source, r.received_at, x.reason AS excluded_reason
+         FROM readings r JOIN reading_exclusions x ON x.reading_id = r.id WHERE r.id = ?`,
+      [readingId],
+    );
+    const view = toReadingView(row);
+    this.writer.excluded$.next({ runId, reading: view });
+    return view;
+  }
+}

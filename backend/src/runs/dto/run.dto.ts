@@ -1,0 +1,79 @@
+import { Type } from 'class-transformer';
+import { IsIn, IsInt, IsNumber, IsOptional, IsString, Max, MaxLength, Min, MinLength, ValidateIf } from 'class-validator';
+import {
+  RUN_KINDS,
+  RUN_STATUSES,
+  type CreateRunRequest,
+  type ListRunsQuery,
+  type RunKind,
+  type RunStatus,
+  type UpdateRunRequest,
+} from '@kilocycle/common/types';
+import { Trim } from '../../shared/dto-helpers.js';
+import { ListQueryDto } from '../../shared/list-query.dto.js';
+
+const finite = { allowNaN: false, allowInfinity: false } as const;
+const kindMessage = `kind must be one of: ${RUN_KINDS.join(', ')}`;
+
+export class CreateRunDto implements CreateRunRequest {
+  @IsInt({ message: 'rangeId must be a whole number' }) @Min(1)
+  rangeId: number;
+
+  @IsIn(RUN_KINDS, { message: kindMessage })
+  kind: RunKind;
+
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsInt({ message: 'benchId must be a whole number' }) @Min(1)
+  benchId?: number | null;
+
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsInt({ message: 'standardId must be a whole number' }) @Min(1)
+  standardId?: number | null;
+
+  @IsOptional() @IsString() @Trim() @MinLength(10, { message: 'standardOverrideReason must be at least 10 characters' }) @MaxLength(1000)
+  standardOverrideReason?: string;
+
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsNumber(finite, { message: 'supplyVoltage must be a number' }) @Min(0) @Max(100000)
+  supplyVoltage?: number | null;
+
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
+  configuration?: string | null;
+
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
+  notes?: string | null;
+}
+
+export class UpdateRunDto implements UpdateRunRequest {
+  @IsOptional() @IsIn(['closed'], { message: 'status can only be set to closed (a closed run stays closed)' })
+  status?: 'closed';
+
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsNumber(finite, { message: 'supplyVoltage must be a number' }) @Min(0) @Max(100000)
+  supplyVoltage?: number | null;
+
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
+  configuration?: string | null;
+
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
+  notes?: string | null;
+}
+
+export class ListRunsQueryDto extends ListQueryDto implements ListRunsQuery {
+  @IsOptional() @Type(() => Number) @IsInt({ message: 'organizationId must be a whole number' }) @Min(1)
+  organizationId?: number;
+
+  @IsOptional() @Type(() => Number) @IsInt({ message: 'instrumentId must be a whole number' }) @Min(1)
+  instrumentId?: number;
+
+  @IsOptional() @Type(() => Number) @IsInt({ message: 'jobId must be a whole number' }) @Min(1)
+  jobId?: number;
+
+  @IsOptional() @Type(() => Number) @IsInt({ message: 'rangeId must be a whole number' }) @Min(1)
+  rangeId?: number;
+
+  @IsOptional() @Type(() => Number) @IsInt({ message: 'benchId must be a whole number' }) @Min(1)
+  benchId?: number;
+
+  @IsOptional() @IsIn(RUN_KINDS, { message: kindMessage })
+  kind?: RunKind;
+
+  @IsOptional() @IsIn(RUN_STATUSES, { message: `status must be one of: ${RUN_STATUSES.join(', ')}` })
+  status?: RunStatus;
+}

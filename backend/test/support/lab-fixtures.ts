@@ -1,0 +1,73 @@
+import type { TestApp } from './test-app.js';
+
+type Headers = { Authorization: string };
+
+/** A direct-reading kHz range, ±0.5 % of setting. */
+export function khzRange(label: string, low: number, high: number, multipliers: number[] = [1]) {
+  return {
+    label,
+    dialUnit: 'kHz',
+    dialLaw: { kind: 'direct', unit: 'kHz' },
+    dialMin: low,
+    dialMax: high,
+    freqMinHz: low * 1e3,
+    freqMaxHz: high * 1e3,
+    tolerance: { kind: 'percent', percent: 0.5 },
+    multipliers,
+  };
+}
+
+let serial = 0;
+
+/** Creates an instrument (one kHz range unless given), a job for it and returns their ids. */
+export async function instrumentWithJob(
+  t: TestApp,
+  headers: Headers,
+  opts: { organizationId: number; ranges?: unknown[]; make?: string },
+): Promise<{ instrumentId: number; rangeIds: number[]; jobId: number; jobNumber: string }> {
+  serial += 1;
+  const instrument = await t.http
+    .post('/api/instruments')
+    .set(headers)
+    .send({
+      organizationId: opts.organizationId,
+      make: opts.make ?? 'Test Works',
+      model: 'TG-1 test oscillator',
+      serial: `T-${process.pid}-${serial}`,
+      ranges: opts.ranges ?? [khzRange('Main 1000–2000 kHz', 1000, 2000)],
+    });
+  if (instrument.status !== 201) throw new Error(`instrument: ${instrument.status} ${JSON.stringify(instrument.body)}`);
+  const job = await t.http.post('/api/jobs').set(headers).send({ instrumentId: instrument.body.id, receivedDate: '2025-03-01' });
+  if (job.status !== 201) throw new Error(`job: ${job.status} ${JSON.stringify(job.body)}`);
+  return {
+    instrumentId: instrument.body.id,
+    rangeIds: instrument.body.ranges.map((r: { id: number }) => r.id),
+    jobId: job.body.id,
+    jobNumber: job.body.number,
+  };
+}
+
+/** Opens a run and answers its id. */
+export async function openRun(t: TestApp, headers: Headers, jobId: number, body: Record<string, unknown>): Promise<number> {
+  const res = await t.http.post(`/api/jobs/${jobId}/runs`).set(headers).send(body);
+  if (res.status !== 201) throw new Error(`run: ${res.status} ${JSON.stringify(res.body)}`);
+  return res.body.id as number;
+}
+
+/** Posts readings in batches of 1,000 (the most one request takes). */
+export async function postReadings(t: TestApp, headers: Headers, runId: number, readings: Array<Record<string, unknown>>): Promise<void> {
+  for (let from = 0; from < readings.length; from += 1000) {
+    const res = await t.http.post(`/api/runs/${runId}/readings`).set(headers).send({ readings: readings.slice(from, from + 1000) });
+    if (res.status !== 201) throw new Error(`readings: ${res.status} ${JSON.stringify(res.body).slice(0, 500)}`);
+  }
+}
+
+/** Organisation ids by name, as the lab sees them. */
+export async function organizationIds(t: TestApp, headers: Headers): Promise<Record<string, number>> {
+  const res = await t.http.get('/api/organizations?pageSize=100').set(headers);
+  return Object.fromEntries(res.body.items.map((o: { name: string; id: number }) => [o.name, o.id]));
+}
+
+export function parseChanges(value: unknown): Record<string, unknown> {
+  return (typeof value === 'string' ? JSON.parse(value) : value) as Record<string, unknown>;
+}
