@@ -38,6 +38,11 @@ export { summariseSample, welchDifference, welchFromSamples, type SampleSummary,
 export { describeDifference } from './describe-difference.js';
 export { supplySensitivity } from './supply-sensitivity.js';
 export { keyingShift, type KeyingShift } from './keying-shift.js';
+export { welchFromEstimates, type Estimate } from './welch-from-estimates.js';
+export { adevEstimate } from './adev-estimate.js';
+export { overlappingAdevAt } from './overlapping-adev-at.js';
+export { warmupCovariance, type WarmupCovariance } from './warmup-covariance.js';
+export { settlingTimeUncertainty } from './settling-time-uncertainty.js';
 
 // Uncertainty and decision (§5.6)
 export { COVERAGE_95_45, coverageFactor } from './coverage-factor.js';

@@ -5,3 +5,4 @@ export * from './lab.js';
 export * from './list.js';
 export * from './organizations.js';
 export * from './users.js';
+export * from './studies.js';
