@@ -1,7 +1,7 @@
 import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { Subject } from 'rxjs';
-import type { DataSource } from 'typeorm';
+import type { DataSource, EntityManager } from 'typeorm';
 import {
   CALIBRATION_RUN_KINDS,
   type IngestAck,
@@ -37,6 +37,13 @@ export type RunWriteContext = {
 export type StoredBatch = { runId: number; readings: ReadingView[] };
 export type ExcludedReading = { runId: number; reading: ReadingView };
 export type AppendResult = IngestAck & { stored: ReadingView[] };
+/** For callers that write many batches as one (CSV import). */
+export type AppendOptions = {
+  /** Write inside this transaction instead of one of its own; the caller commits (and pushes to stored$ if it wants). */
+  manager?: EntityManager;
+  /** Do not read the stored readings back (`stored` is then empty): bulk writes that need only the counts. */
+  skipReadBack?: boolean;
+};
 
 type Row = { seq: number | null; t: number; dial: number | null; frequency: number; aux: number | null };
 
@@ -142,14 +149,16 @@ export class ReadingsWriter {
   /**
    * Validates and stores a batch. Readings without a seq (typed at the bench) are numbered after the
    * run's last one under a lock on the run row; readings with a seq (the bridge) need no lock.
+   * With `options.manager` the batch joins the caller's transaction (a CSV import commits many
+   * batches at once) and nothing is pushed to stored$: only the caller knows when it commits.
    */
-  async append(ctx: RunWriteContext, inputs: readonly ReadingInput[], source: ReadingSource): Promise<AppendResult> {
+  async append(ctx: RunWriteContext, inputs: readonly ReadingInput[], source: ReadingSource, options: AppendOptions = {}): Promise<AppendResult> {
     const { rows, rejected } = this.validate(ctx, inputs);
     if (rows.length === 0) {
-      return { accepted: 0, duplicates: 0, rejected, lastSeq: await this.lastSeq(ctx.runId), stored: [] };
+      return { accepted: 0, duplicates: 0, rejected, lastSeq: await this.lastSeq(ctx.runId, options.manager), stored: [] };
     }
     const needsNumbers = rows.some((r) => r.seq === null);
-    const stored = await this.dataSource.transaction(async (manager) => {
+    const write = async (manager: EntityManager): Promise<{ inserted: number; stored: ReadingView[] }> => {
       if (needsNumbers) {
         await manager.query('SELECT id FROM runs WHERE id = ? FOR UPDATE', [ctx.runId]);
         const [{ last }] = await manager.query('SELECT COALESCE(MAX(seq), 0) AS last FROM readings WHERE run_id = ?', [ctx.runId]);
@@ -162,22 +171,23 @@ export class ReadingsWriter {
         [values],
       );
       const inserted = Number(result.affectedRows ?? 0);
-      if (inserted === 0) return [] as ReadingView[];
+      if (inserted === 0 || options.skipReadBack) return { inserted, stored: [] };
       // Rows this statement inserted have ids from insertId on; older duplicates have smaller ids.
       const fetched = await manager.query(
         `SELECT id, seq, t_s, dial, frequency_hz, aux, source, received_at FROM readings
           WHERE run_id = ? AND id >= ? ORDER BY seq LIMIT ?`,
         [ctx.runId, result.insertId, rows.length],
       );
-      return (fetched as Array<Record<string, unknown>>).map((row) => toReadingView(row));
-    });
-    const lastSeq = await this.lastSeq(ctx.runId);
-    if (stored.length > 0) this.stored$.next({ runId: ctx.runId, readings: stored });
-    return { accepted: stored.length, duplicates: rows.length - stored.length, rejected, lastSeq, stored };
+      return { inserted, stored: (fetched as Array<Record<string, unknown>>).map((row) => toReadingView(row)) };
+    };
+    const { inserted, stored } = options.manager ? await write(options.manager) : await this.dataSource.transaction(write);
+    const lastSeq = await this.lastSeq(ctx.runId, options.manager);
+    if (!options.manager && stored.length > 0) this.stored$.next({ runId: ctx.runId, readings: stored });
+    return { accepted: inserted, duplicates: rows.length - inserted, rejected, lastSeq, stored };
   }
 
-  async lastSeq(runId: number): Promise<number> {
-    const [{ last }] = await this.dataSource.query('SELECT COALESCE(MAX(seq), 0) AS last FROM readings WHERE run_id = ?', [runId]);
+  async lastSeq(runId: number, manager?: EntityManager): Promise<number> {
+    const [{ last }] = await (manager ?? this.dataSource).query('SELECT COALESCE(MAX(seq), 0) AS last FROM readings WHERE run_id = ?', [runId]);
     return Number(last);
   }
 }
