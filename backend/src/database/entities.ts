@@ -4,6 +4,14 @@ import { Bench } from '../benches/bench.entity.js';
 import { InstrumentRange } from '../instruments/instrument-range.entity.js';
 import { Instrument } from '../instruments/instrument.entity.js';
 import { Job } from '../jobs/job.entity.js';
+import { JobProcedure } from '../budgets/job-procedure.entity.js';
+import { Procedure } from '../budgets/procedure.entity.js';
+import { RunBudget } from '../budgets/run-budget.entity.js';
+import { Certificate } from '../certificates/certificate.entity.js';
+import { Setting } from '../certificates/setting.entity.js';
+import { MailMessage } from '../mail/mail-message.entity.js';
+import { RecallNotice } from '../recall/recall-notice.entity.js';
+import { JobReview } from '../reviews/job-review.entity.js';
 import { Organization } from '../organizations/organization.entity.js';
 import { ReadingExclusion } from '../readings/reading-exclusion.entity.js';
 import { Reading } from '../readings/reading.entity.js';
@@ -18,4 +26,5 @@ import { User } from '../users/user.entity.js';
 export const ENTITIES = [
   Organization, User, AuditEvent, RevokedToken,
   Instrument, InstrumentRange, Standard, Bench, Job, Run, Reading, ReadingExclusion,
+  Procedure, JobProcedure, RunBudget, JobReview, Setting, Certificate, MailMessage, RecallNotice,
 ];

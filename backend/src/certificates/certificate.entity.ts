@@ -1,0 +1,103 @@
+import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import type { CertificateStatus, Decision, JobResults } from '@kilocycle/common/types';
+import { Instrument } from '../instruments/instrument.entity.js';
+import { Job } from '../jobs/job.entity.js';
+import { Organization } from '../organizations/organization.entity.js';
+import { User } from '../users/user.entity.js';
+
+/** One revision of a calibration certificate. The PDF is made once, at signing, and never rebuilt. */
+@Entity('certificates')
+@Index('UQ_certificates_number_revision', ['number', 'revision'], { unique: true })
+@Index('IDX_certificates_organization_status', ['organizationId', 'status'])
+export class Certificate {
+  @PrimaryGeneratedColumn()
+  id: number;
+
+  @Column({ type: 'varchar', length: 32 })
+  number: string;
+
+  @Column({ type: 'int' })
+  revision: number;
+
+  @Column({ type: 'varchar', length: 16 })
+  status: CertificateStatus;
+
+  @Index('IDX_certificates_job')
+  @Column({ name: 'job_id', type: 'int' })
+  jobId: number;
+
+  @ManyToOne(() => Job, { onDelete: 'RESTRICT' })
+  @JoinColumn({ name: 'job_id', foreignKeyConstraintName: 'FK_certificates_job' })
+  job: Relation<Job>;
+
+  /** The customer, copied from the job for scoping. */
+  @Column({ name: 'organization_id', type: 'int' })
+  organizationId: number;
+
+  @ManyToOne(() => Organization, { onDelete: 'RESTRICT' })
+  @JoinColumn({ name: 'organization_id', foreignKeyConstraintName: 'FK_certificates_organization' })
+  organization: Relation<Organization>;
+
+  @Column({ name: 'instrument_id', type: 'int' })
+  instrumentId: number;
+
+  @ManyToOne(() => Instrument, { onDelete: 'RESTRICT' })
+  @JoinColumn({ name: 'instrument_id', foreignKeyConstraintName: 'FK_certificates_instrument' })
+  instrument: Relation<Instrument>;
+
+  @Column({ name: 'signed_by', type: 'int', nullable: true })
+  signedById: number | null;
+
+  @ManyToOne(() => User, { onDelete: 'RESTRICT', nullable: true })
+  @JoinColumn({ name: 'signed_by', foreignKeyConstraintName: 'FK_certificates_signed_by' })
+  signedBy: Relation<User> | null;
+
+  @Column({ name: 'signed_at', type: 'datetime', precision: 3, nullable: true })
+  signedAt: Date | null;
+
+  @Column({ name: 'signing_meaning', type: 'varchar', length: 200, nullable: true })
+  signingMeaning: string | null;
+
+  @Column({ name: 'issued_at', type: 'datetime', precision: 3, nullable: true })
+  issuedAt: Date | null;
+
+  /** Random file name under var/certificates; never derived from the number, never served by path. */
+  @Index('UQ_certificates_file_name', { unique: true })
+  @Column({ name: 'file_name', type: 'varchar', length: 80, nullable: true })
+  fileName: string | null;
+
+  @Column({ type: 'char', length: 64, nullable: true })
+  sha256: string | null;
+
+  /** Ed25519 signature (base64) of `signedPayload(number, revision, sha256)`. */
+  @Column({ type: 'varchar', length: 120, nullable: true })
+  signature: string | null;
+
+  @Column({ name: 'key_id', type: 'char', length: 16, nullable: true })
+  keyId: string | null;
+
+  @Column({ name: 'replaces_revision', type: 'int', nullable: true })
+  replacesRevision: number | null;
+
+  @Column({ name: 'amendment_reason', type: 'text', nullable: true })
+  amendmentReason: string | null;
+
+  @Column({ name: 'withdrawn_reason', type: 'text', nullable: true })
+  withdrawnReason: string | null;
+
+  @Column({ name: 'withdrawn_at', type: 'datetime', precision: 3, nullable: true })
+  withdrawnAt: Date | null;
+
+  @Column({ name: 'superseded_at', type: 'datetime', precision: 3, nullable: true })
+  supersededAt: Date | null;
+
+  @Column({ type: 'varchar', length: 20, nullable: true })
+  decision: Decision | null;
+
+  /** The results exactly as printed, stored at signing. */
+  @Column({ type: 'json', nullable: true })
+  results: JobResults | null;
+
+  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  createdAt: Date;
+}
