@@ -166,21 +166,26 @@ export class ReadingsWriter {
         for (const row of rows) if (row.seq === null) row.seq = ++next;
       }
       const values = rows.map((r) => [ctx.runId, r.seq, r.t, r.dial, r.frequency, r.aux, source]);
-      const result = await manager.query(
-        'INSERT IGNORE INTO readings (run_id, seq, t_s, dial, frequency_hz, aux, source) VALUES ?',
-        [values],
-      );
-      const inserted = Number(result.affectedRows ?? 0);
-      if (inserted === 0 || options.skipReadBack) return { inserted, stored: [] };
-      // Rows this statement inserted have ids from insertId on; older duplicates have smaller ids.
-      const fetched = await manager.query(
-        `SELECT id, seq, t_s, dial, frequency_hz, aux, source, received_at FROM readings
-          WHERE run_id = ? AND id >= ? ORDER BY seq LIMIT ?`,
-        [ctx.runId, result.insertId, rows.length],
-      );
-      return { inserted, stored: (fetched as Array<Record<string, unknown>>).map((row) => toReadingView(row)) };
+      const insert = 'INSERT IGNORE INTO readings (run_id, seq, t_s, dial, frequency_hz, aux, source) VALUES ?';
+      if (options.skipReadBack) {
+        const result = await manager.query(insert, [values]);
+        return { inserted: Number(result.affectedRows ?? 0), stored: [] };
+      }
+      // RETURNING (MariaDB 10.5+) names exactly the rows this statement stored, in the same round trip:
+      // a duplicate (run, seq) is skipped and not returned, and rows another connection stores in the
+      // same run at the same moment never mix in (reading back by id range could pick those up).
+      const returned = (await manager.query(`${insert} RETURNING id, seq, t_s, dial, frequency_hz, aux, source, received_at`, [
+        values,
+      ])) as Array<Record<string, unknown>>;
+      const stored = returned.map((row) => toReadingView(row)).sort((a, b) => a.seq - b.seq);
+      return { inserted: stored.length, stored };
     };
-    const { inserted, stored } = options.manager ? await write(options.manager) : await this.dataSource.transaction(write);
+    // Numbered readings on their own (the bridge) are one statement, atomic by itself: no transaction round trips.
+    const { inserted, stored } = options.manager
+      ? await write(options.manager)
+      : needsNumbers
+        ? await this.dataSource.transaction(write)
+        : await write(this.dataSource.manager);
     const lastSeq = await this.lastSeq(ctx.runId, options.manager);
     if (!options.manager && stored.length > 0) this.stored$.next({ runId: ctx.runId, readings: stored });
     return { accepted: inserted, duplicates: rows.length - inserted, rejected, lastSeq, stored };
