@@ -4,6 +4,8 @@ import { AnalysisModule } from './analysis/analysis.module.js';
 import { AuditModule } from './audit/audit.module.js';
 import { AuthModule } from './auth/auth.module.js';
 import { BenchesModule } from './benches/benches.module.js';
+import { BudgetsModule } from './budgets/budgets.module.js';
+import { CertificatesModule } from './certificates/certificates.module.js';
 import { APP_CONFIG, type AppConfig } from './config/app-config.js';
 import { ConfigModule } from './config/config.module.js';
 import { typeormOptions } from './database/typeorm-options.js';
@@ -12,8 +14,11 @@ import { IngestModule } from './ingest/ingest.module.js';
 import { InstrumentsModule } from './instruments/instruments.module.js';
 import { JobsModule } from './jobs/jobs.module.js';
 import { LiveModule } from './live/live.module.js';
+import { MailModule } from './mail/mail.module.js';
 import { OrganizationsModule } from './organizations/organizations.module.js';
 import { ReadingsModule } from './readings/readings.module.js';
+import { RecallModule } from './recall/recall.module.js';
+import { ReviewsModule } from './reviews/reviews.module.js';
 import { RunsModule } from './runs/runs.module.js';
 import { StandardsModule } from './standards/standards.module.js';
 import { UsersModule } from './users/users.module.js';
@@ -39,6 +44,7 @@ import { UsersModule } from './users/users.module.js';
     RunsModule,
     ReadingsModule,
     AnalysisModule,
+    MailModule, BudgetsModule, CertificatesModule, ReviewsModule, RecallModule,
   ],
 })
 export class AppModule {}

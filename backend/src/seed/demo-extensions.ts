@@ -1,3 +1,4 @@
+import { seedDemoCertificates } from '../certificates/certificates.demo.js';
 import { seedDemoLabRecords } from '../jobs/jobs.demo.js';
 import { seedDemoStandards } from '../standards/standards.demo.js';
 import type { DemoExtension } from './demo-seed.js';
@@ -6,4 +7,4 @@ import type { DemoExtension } from './demo-seed.js';
  * Each module that brings demo records adds its `<module>.demo.ts` function here, in dependency order.
  * They run inside the seed's one transaction, after the organisations and accounts.
  */
-export const DEMO_EXTENSIONS: DemoExtension[] = [seedDemoStandards, seedDemoLabRecords];
+export const DEMO_EXTENSIONS: DemoExtension[] = [seedDemoStandards, seedDemoLabRecords, seedDemoCertificates];

@@ -1,0 +1,141 @@
+import { Transform, Type } from 'class-transformer';
+import {
+  IsArray,
+  IsBoolean,
+  IsIn,
+  IsInt,
+  IsNumber,
+  IsOptional,
+  IsString,
+  Max,
+  MaxLength,
+  Min,
+  MinLength,
+  ValidateIf,
+  ValidateNested,
+} from 'class-validator';
+import {
+  COMPONENT_DISTRIBUTIONS,
+  DECISION_RULES,
+  type ComponentDistribution,
+  type CreateProcedureRequest,
+  type DecisionRule,
+  type ExtraComponent,
+  type ListProceduresQuery,
+  type SetJobProcedureRequest,
+  type UpdateProcedureRequest,
+  type UpdateRunBudgetRequest,
+} from '@kilocycle/common/types';
+import { ListQueryDto } from '../../shared/list-query.dto.js';
+
+export class ExtraComponentDto implements ExtraComponent {
+  @IsString()
+  @MinLength(1)
+  @MaxLength(120)
+  name: string;
+
+  @IsIn(COMPONENT_DISTRIBUTIONS, { message: `distribution must be one of: ${COMPONENT_DISTRIBUTIONS.join(', ')}` })
+  distribution: ComponentDistribution;
+
+  @IsNumber({ allowNaN: false, allowInfinity: false })
+  @Min(0)
+  value: number;
+
+  @IsIn(['Hz', 'ppm'], { message: 'unit must be Hz or ppm' })
+  unit: 'Hz' | 'ppm';
+
+  @IsOptional()
+  @IsNumber({ allowNaN: false, allowInfinity: false })
+  @Min(0.001)
+  divisor?: number;
+
+  @IsOptional()
+  @ValidateIf((_o, v) => v !== null)
+  @IsNumber({ allowNaN: false, allowInfinity: false })
+  @Min(1)
+  dof?: number | null;
+}
+
+export class CreateProcedureDto implements CreateProcedureRequest {
+  @IsString()
+  @MinLength(1)
+  @MaxLength(120)
+  name: string;
+
+  @IsString()
+  @MinLength(1)
+  @MaxLength(4000)
+  method: string;
+
+  @IsIn(DECISION_RULES, { message: `decisionRule must be one of: ${DECISION_RULES.join(', ')}` })
+  decisionRule: DecisionRule;
+
+  @IsNumber({ allowNaN: false, allowInfinity: false })
+  @Min(0)
+  @Max(50)
+  dialHalfDivisionPercentOfSpan: number;
+
+  @IsNumber({ allowNaN: false, allowInfinity: false })
+  @Min(0)
+  driftPpm: number;
+
+  @IsNumber({ allowNaN: false, allowInfinity: false })
+  @Min(0)
+  driftHz: number;
+
+  @IsArray()
+  @ValidateNested({ each: true })
+  @Type(() => ExtraComponentDto)
+  extraComponents: ExtraComponentDto[];
+
+  @IsOptional()
+  @IsBoolean()
+  isDefault?: boolean;
+}
+
+export class UpdateProcedureDto implements UpdateProcedureRequest {
+  @IsOptional() @IsString() @MinLength(1) @MaxLength(120) name?: string;
+  @IsOptional() @IsString() @MinLength(1) @MaxLength(4000) method?: string;
+  @IsOptional() @IsIn(DECISION_RULES, { message: `decisionRule must be one of: ${DECISION_RULES.join(', ')}` }) decisionRule?: DecisionRule;
+  @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) @Max(50) dialHalfDivisionPercentOfSpan?: number;
+  @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) driftPpm?: number;
+  @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) driftHz?: number;
+  @IsOptional() @IsArray() @ValidateNested({ each: true }) @Type(() => ExtraComponentDto) extraComponents?: ExtraComponentDto[];
+  @IsOptional() @IsBoolean() isDefault?: boolean;
+  @IsOptional() @IsBoolean() active?: boolean;
+}
+
+export class ListProceduresQueryDto extends ListQueryDto implements ListProceduresQuery {
+  @IsOptional()
+  @Transform(({ value }) => (value === 'true' ? true : value === 'false' ? false : value))
+  @IsBoolean()
+  active?: boolean;
+}
+
+export class SetJobProcedureDto implements SetJobProcedureRequest {
+  @IsInt()
+  @Min(1)
+  procedureId: number;
+}
+
+const nullableNumber = () => ValidateIf((_o, v) => v !== null);
+
+export class UpdateRunBudgetDto implements UpdateRunBudgetRequest {
+  @IsOptional() @nullableNumber() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) dialHalfDivision?: number | null;
+  @IsOptional() @nullableNumber() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) driftPpm?: number | null;
+  @IsOptional() @nullableNumber() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) driftHz?: number | null;
+  @IsOptional() @nullableNumber() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) counterResolutionHz?: number | null;
+
+  @IsOptional()
+  @ValidateIf((_o, v) => v !== null)
+  @IsArray()
+  @ValidateNested({ each: true })
+  @Type(() => ExtraComponentDto)
+  extraComponents?: ExtraComponentDto[] | null;
+
+  @IsOptional()
+  @ValidateIf((_o, v) => v !== null)
+  @IsString()
+  @MaxLength(2000)
+  note?: string | null;
+}

@@ -1,0 +1,548 @@
+import { createRequire } from 'node:module';
+import { dirname, join } from 'node:path';
+import PDFDocument from 'pdfkit';
+import QRCode from 'qrcode';
+import { formatFrequency, type FrequencyUnit } from '@kilocycle/common/units';
+import type { Decision, JobResults, MeasuredPoint, RangeResult, Tolerance } from '@kilocycle/common/types';
+
+/** Everything printed on a certificate; gathered once at signing. */
+export type CertificatePdfData = {
+  number: string;
+  revision: number;
+  replaces: { revision: number; reason: string; issuedAt: string | null } | null;
+  lab: { name: string; address: string; place: string };
+  customer: { name: string; contact: string | null };
+  instrument: { make: string; model: string; serial: string; assetTag: string | null; description: string | null };
+  job: {
+    number: string;
+    receivedDate: string;
+    conditionReceived: string | null;
+    ambientTempC: number | null;
+    humidityPct: number | null;
+    supplyVoltages: number[];
+  };
+  calibrationDates: { first: string; last: string };
+  issuedAt: Date;
+  results: JobResults;
+  deviations: string[];
+  signatory: { name: string; role: string; meaning: string; signedAt: Date };
+  verifyUrl: string;
+};
+
+const require = createRequire(import.meta.url);
+function fontPath(pkg: string, file: string): string {
+  return join(dirname(require.resolve(`@expo-google-fonts/${pkg}/package.json`)), file);
+}
+const FONTS = {
+  sans: fontPath('roboto', '400Regular/Roboto_400Regular.ttf'),
+  bold: fontPath('roboto', '700Bold/Roboto_700Bold.ttf'),
+  medium: fontPath('roboto', '500Medium/Roboto_500Medium.ttf'),
+  mono: fontPath('roboto-mono', '400Regular/RobotoMono_400Regular.ttf'),
+  monoBold: fontPath('roboto-mono', '700Bold/RobotoMono_700Bold.ttf'),
+};
+
+const PAGE = { width: 595.28, height: 841.89 };
+const MARGIN = { left: 46, right: 46, top: 74, bottom: 64 };
+const CONTENT_WIDTH = PAGE.width - MARGIN.left - MARGIN.right;
+const INK = '#1b1f24';
+const MUTED = '#5b6470';
+const RULE = '#c9ced6';
+const ACCENT = '#0f5c6e';
+const FOUND = '#9a6b1f';
+
+const DECISION_WORDS: Record<Decision, string> = {
+  pass: 'pass',
+  conditional_pass: 'cond. pass',
+  conditional_fail: 'cond. fail',
+  fail: 'fail',
+};
+
+type Doc = PDFKit.PDFDocument;
+
+/** The unit frequencies of a range are printed in: the dial's own unit, else the one that suits the span. */
+export function displayUnit(range: Pick<RangeResult, 'dialUnit' | 'freqMaxHz'>): FrequencyUnit {
+  if (range.dialUnit !== 'div') return range.dialUnit;
+  return range.freqMaxHz >= 1e6 ? 'MHz' : range.freqMaxHz >= 1e3 ? 'kHz' : 'Hz';
+}
+
+const UNIT_DIGITS: Record<FrequencyUnit, number> = { Hz: 0, kHz: 3, MHz: 6, GHz: 9 };
+
+/** A frequency in a unit, with as many decimals as the Hz resolution `hzDecimals` needs (digit-grouped). */
+export function frequencyText(hz: number, unit: FrequencyUnit, hzDecimals: number): string {
+  const decimals = Math.min(12, Math.max(0, hzDecimals + UNIT_DIGITS[unit]));
+  return formatFrequency(hz, unit, decimals).replace(/ [kMG]?Hz$/, '');
+}
+
+/** A signed value in Hz, digit-grouped: +12.3, -1 250.0. */
+export function signedHz(value: number, decimals: number): string {
+  const text = formatFrequency(value, 'Hz', Math.min(12, Math.max(0, decimals))).replace(/ Hz$/, '');
+  return /^-/.test(text) || /^0(\.0*)?$/.test(text.replace(/ /g, '')) ? text : `+${text}`;
+}
+
+export function plainHz(value: number, decimals: number): string {
+  return formatFrequency(value, 'Hz', Math.min(12, Math.max(0, decimals))).replace(/ Hz$/, '');
+}
+
+function dialText(dial: number, unit: string): string {
+  const text = Number(dial.toPrecision(10)).toString();
+  return unit === 'div' ? text : `${text}`;
+}
+
+function toleranceWords(tol: Tolerance): string {
+  return tol.kind === 'percent' ? `±${tol.percent} % of setting` : `±(${tol.ppm} ppm of setting + ${tol.hz} Hz)`;
+}
+
+function decimalsOf(p: MeasuredPoint | null): number {
+  return p?.budget ? p.decimals : 1;
+}
+
+function dateText(d: Date): string {
+  return d.toISOString().slice(0, 10);
+}
+
+function timeText(d: Date): string {
+  return `${d.toISOString().slice(0, 16).replace('T', ' ')} UTC`;
+}
+
+/** Nice round tick values covering [min, max] (about `count` of them). */
+export function niceTicks(min: number, max: number, count = 5): number[] {
+  if (!(max > min)) {
+    const pad = Math.abs(min) > 0 ? Math.abs(min) * 0.1 : 1;
+    return niceTicks(min - pad, max + pad, count);
+  }
+  const raw = (max - min) / count;
+  const magnitude = 10 ** Math.floor(Math.log10(raw));
+  const step = [1, 2, 2.5, 5, 10].map((m) => m * magnitude).find((s) => s >= raw) ?? 10 * magnitude;
+  const ticks: number[] = [];
+  for (let v = Math.floor(min / step) * step; v <= max + step * 1e-9; v += step) ticks.push(Number(v.toPrecision(12)));
+  if (ticks[0]! > min) ticks.unshift(Number((ticks[0]! - step).toPrecision(12)));
+  if (ticks[ticks.length - 1]! < max) ticks.push(Number((ticks[ticks.length - 1]! + step).toPrecision(12)));
+  return ticks;
+}
+
+class Layout {
+  constructor(readonly doc: Doc) {}
+
+  get y(): number {
+    return this.doc.y;
+  }
+
+  /** Starts a new page unless `height` points still fit on this one. */
+  ensure(height: number): void {
+    if (this.doc.y + height > PAGE.height - MARGIN.bottom) {
+      this.doc.addPage();
+      this.doc.y = MARGIN.top;
+    }
+  }
+
+  heading(text: string, space = 60): void {
+    this.ensure(space);
+    const doc = this.doc;
+    doc.moveDown(0.6);
+    doc.font('bold').fontSize(10.5).fillColor(ACCENT).text(text, MARGIN.left, doc.y, { width: CONTENT_WIDTH });
+    const y = doc.y + 1.5;
+    doc.moveTo(MARGIN.left, y).lineTo(MARGIN.left + CONTENT_WIDTH, y).lineWidth(0.6).strokeColor(ACCENT).stroke();
+    doc.y = y + 5;
+    doc.fillColor(INK);
+  }
+
+  paragraph(text: string, size = 8.5, font = 'sans'): void {
+    this.ensure(size * 3);
+    this.doc.font(font).fontSize(size).fillColor(INK).text(text, MARGIN.left, this.doc.y, { width: CONTENT_WIDTH, lineGap: 1.5 });
+    this.doc.moveDown(0.35);
+  }
+
+  /** Label/value rows: label in a narrow muted column, value beside it. */
+  fields(rows: Array<[string, string]>, x = MARGIN.left, width = CONTENT_WIDTH, labelWidth = 118): void {
+    const doc = this.doc;
+    for (const [label, value] of rows) {
+      doc.font('sans').fontSize(8.5);
+      const h = Math.max(doc.heightOfString(value || '—', { width: width - labelWidth }), 10);
+      this.ensure(h + 3);
+      const y = doc.y;
+      doc.font('sans').fontSize(7.5).fillColor(MUTED).text(label, x, y + 0.8, { width: labelWidth - 6 });
+      doc.font('sans').fontSize(8.5).fillColor(INK).text(value || '—', x + labelWidth, y, { width: width - labelWidth });
+      doc.y = y + h + 3;
+    }
+  }
+}
+
+type Column = { title: string; width: number; align: 'left' | 'right' | 'center' };
+
+function resultsTable(layout: Layout, range: RangeResult, unit: FrequencyUnit): void {
+  const doc = layout.doc;
+  const columns: Column[] = [
+    { title: range.dialUnit === 'div' ? 'Setting (div)' : `Setting (${range.dialUnit})`, width: 56, align: 'right' },
+    { title: `Nominal (${unit})`, width: 74, align: 'right' },
+    { title: `As found (${unit})`, width: 78, align: 'right' },
+    { title: `As left (${unit})`, width: 78, align: 'right' },
+    { title: 'Error (Hz)', width: 58, align: 'right' },
+    { title: 'Tolerance ± (Hz)', width: 60, align: 'right' },
+    { title: 'U (Hz)  k', width: 58, align: 'right' },
+    { title: 'Decision', width: CONTENT_WIDTH - 462, align: 'center' },
+  ];
+  const rowHeight = 11.5;
+  const headerHeight = 20;
+  const drawHeader = () => {
+    const y = doc.y;
+    doc.rect(MARGIN.left, y, CONTENT_WIDTH, headerHeight).fill('#eef1f4');
+    let x = MARGIN.left;
+    doc.font('medium').fontSize(6.8).fillColor(MUTED);
+    for (const c of columns) {
+      doc.text(c.title, x + 3, y + 4, { width: c.width - 6, align: c.align, lineGap: 0 });
+      x += c.width;
+    }
+    doc.y = y + headerHeight + 1.5;
+  };
+  layout.ensure(headerHeight + rowHeight * Math.min(4, range.points.length) + 4);
+  drawHeader();
+  range.points.forEach((p, index) => {
+    if (doc.y + rowHeight > PAGE.height - MARGIN.bottom) {
+      doc.addPage();
+      doc.y = MARGIN.top;
+      drawHeader();
+    }
+    const final = p.asLeft ?? p.asFound;
+    const decimals = decimalsOf(final);
+    const y = doc.y;
+    if (index % 2 === 1) doc.rect(MARGIN.left, y - 1.5, CONTENT_WIDTH, rowHeight).fill('#f7f8fa');
+    const cells = [
+      dialText(p.dial, range.dialUnit),
+      frequencyText(p.nominal, unit, decimals),
+      p.asFound ? frequencyText(p.asFound.measured, unit, decimalsOf(p.asFound)) : '—',
+      p.asLeft ? frequencyText(p.asLeft.measured, unit, decimalsOf(p.asLeft)) : '—',
+      final ? signedHz(final.budget ? final.errorRounded : final.errorHz, decimals) : '—',
+      plainHz(p.toleranceHz, Math.max(0, decimals)),
+      final?.budget ? `${plainHz(final.budget.U, decimals)}  ${final.budget.k.toFixed(2)}` : '—',
+      final?.decision ? DECISION_WORDS[final.decision] : '—',
+    ];
+    let x = MARGIN.left;
+    cells.forEach((cell, i) => {
+      const c = columns[i]!;
+      const isDecision = i === cells.length - 1;
+      const bad = isDecision && final?.decision && final.decision !== 'pass';
+      doc.font(isDecision ? (bad ? 'bold' : 'sans') : 'mono').fontSize(7.4).fillColor(bad ? '#a3261b' : INK);
+      doc.text(cell, x + 3, y, { width: c.width - 6, align: c.align, lineBreak: false });
+      x += c.width;
+    });
+    doc.y = y + rowHeight;
+  });
+  doc.moveTo(MARGIN.left, doc.y).lineTo(MARGIN.left + CONTENT_WIDTH, doc.y).lineWidth(0.4).strokeColor(RULE).stroke();
+  doc.y += 4;
+  doc.fillColor(INK);
+}
+
+function fitSentence(label: string, summary: RangeResult['asLeftFit']): string | null {
+  if (!summary) return null;
+  if (!summary.fit || !summary.tracking) return `${label} (run ${summary.runId}): fewer than three settings, no line fitted.`;
+  const f = summary.fit;
+  const ppm = f.slope * 1e6;
+  return (
+    `${label} (run ${summary.runId}): error ≈ ${signedHz(f.offsetHz, 1)} Hz ${ppm >= 0 ? '+' : '−'} ${Math.abs(ppm).toFixed(2)} ppm × nominal ` +
+    `(scale error ${ppm >= 0 ? '+' : '−'}${Math.abs(ppm).toFixed(2)} ± ${(f.seSlope * 1e6).toFixed(2)} ppm; residual SD ${plainHz(f.residualSd, 1)} Hz; R² ${f.r2.toFixed(4)}). ` +
+    `Tracking error: max ${plainHz(f ? summary.tracking.bestFit.maxAbsHz : 0, 1)} Hz, RMS ${plainHz(summary.tracking.bestFit.rmsHz, 1)} Hz from the best-fit line; ` +
+    `max ${plainHz(summary.tracking.endPoint.maxAbsHz, 1)} Hz, RMS ${plainHz(summary.tracking.endPoint.rmsHz, 1)} Hz from the end-point line.`
+  );
+}
+
+/** Error against setting, drawn as vectors: tolerance limits, zero line, as-found and as-left points with U bars. */
+function errorPlot(layout: Layout, range: RangeResult, unit: FrequencyUnit): void {
+  const doc = layout.doc;
+  const height = 132;
+  layout.ensure(height + 30);
+  const box = { x: MARGIN.left + 44, y: doc.y + 4, w: CONTENT_WIDTH - 44 - 8, h: height - 26 };
+  const points = range.points;
+  if (points.length === 0) return;
+  const mult = 10 ** UNIT_DIGITS[unit];
+  const xs = points.map((p) => p.nominal / mult);
+  let xMin = Math.min(...xs);
+  let xMax = Math.max(...xs);
+  if (xMax === xMin) {
+    xMin -= 1;
+    xMax += 1;
+  }
+  const ys: number[] = [];
+  for (const p of points) {
+    ys.push(p.toleranceHz, -p.toleranceHz);
+    for (const m of [p.asFound, p.asLeft]) if (m) ys.push(m.errorHz + (m.budget?.U ?? 0), m.errorHz - (m.budget?.U ?? 0));
+  }
+  const yTicks = niceTicks(Math.min(...ys), Math.max(...ys), 4);
+  const xTicks = niceTicks(xMin, xMax, 6).filter((t) => t >= xMin - (xMax - xMin) * 0.001 && t <= xMax + (xMax - xMin) * 0.001);
+  const yLo = yTicks[0]!;
+  const yHi = yTicks[yTicks.length - 1]!;
+  const px = (v: number) => box.x + ((v - xMin) / (xMax - xMin)) * box.w;
+  const py = (v: number) => box.y + box.h - ((v - yLo) / (yHi - yLo)) * box.h;
+
+  doc.save();
+  doc.rect(box.x, box.y, box.w, box.h).lineWidth(0.5).strokeColor(RULE).stroke();
+  doc.font('mono').fontSize(6).fillColor(MUTED);
+  for (const t of yTicks) {
+    doc.moveTo(box.x, py(t)).lineTo(box.x + box.w, py(t)).lineWidth(0.25).strokeColor('#e4e7eb').stroke();
+    doc.text(plainHz(t, Math.max(0, -Math.floor(Math.log10(Math.abs(yTicks[1]! - yTicks[0]!))))), box.x - 42, py(t) - 2.5, { width: 38, align: 'right', lineBreak: false });
+  }
+  for (const t of xTicks) {
+    doc.moveTo(px(t), box.y + box.h).lineTo(px(t), box.y + box.h + 2.5).lineWidth(0.4).strokeColor(MUTED).stroke();
+    const step = xTicks.length > 1 ? Math.abs(xTicks[1]! - xTicks[0]!) : 1;
+    const decimals = Math.max(0, -Math.floor(Math.log10(step)));
+    doc.text(formatFrequency(t * mult, unit, Math.min(12, decimals)).replace(/ [kMG]?Hz$/, ''), px(t) - 30, box.y + box.h + 4, { width: 60, align: 'center', lineBreak: false });
+  }
+  doc.font('sans').fontSize(6.5).fillColor(MUTED);
+  doc.text(`nominal (${unit})`, box.x + box.w - 80, box.y + box.h + 12, { width: 80, align: 'right', lineBreak: false });
+  doc.save();
+  doc.rotate(-90, { origin: [MARGIN.left + 4, box.y + box.h / 2] });
+  doc.text('error (Hz)', MARGIN.left + 4 - 30, box.y + box.h / 2 - 3, { width: 60, align: 'center', lineBreak: false });
+  doc.restore();
+
+  // zero line and tolerance limits (follow the nominal: the band widens with a percent tolerance)
+  if (yLo < 0 && yHi > 0) doc.moveTo(box.x, py(0)).lineTo(box.x + box.w, py(0)).lineWidth(0.6).strokeColor(MUTED).stroke();
+  for (const sign of [1, -1]) {
+    points.forEach((p, i) => {
+      const x = px(p.nominal / mult);
+      const y = py(sign * p.toleranceHz);
+      if (i === 0) doc.moveTo(x, y);
+      else doc.lineTo(x, y);
+    });
+    doc.lineWidth(0.8).dash(3, { space: 2 }).strokeColor('#a3261b').stroke();
+    doc.undash();
+  }
+  const series: Array<{ pick: (p: RangeResult['points'][number]) => MeasuredPoint | null; color: string; filled: boolean; offset: number }> = [
+    { pick: (p) => p.asFound, color: FOUND, filled: false, offset: -2 },
+    { pick: (p) => p.asLeft, color: ACCENT, filled: true, offset: 2 },
+  ];
+  for (const s of series) {
+    for (const p of points) {
+      const m = s.pick(p);
+      if (!m) continue;
+      const x = px(p.nominal / mult) + s.offset;
+      const y = py(m.errorHz);
+      if (m.budget) {
+        const top = py(m.errorHz + m.budget.U);
+        const bottom = py(m.errorHz - m.budget.U);
+        doc.moveTo(x, top).lineTo(x, bottom).moveTo(x - 1.8, top).lineTo(x + 1.8, top).moveTo(x - 1.8, bottom).lineTo(x + 1.8, bottom);
+        doc.lineWidth(0.5).strokeColor(s.color).stroke();
+      }
+      doc.circle(x, y, 1.9).lineWidth(0.7);
+      if (s.filled) doc.fillAndStroke(s.color, s.color);
+      else doc.fillAndStroke('#ffffff', s.color);
+    }
+  }
+  // legend
+  const ly = box.y + 5;
+  let lx = box.x + 6;
+  doc.font('sans').fontSize(6.2);
+  const legend: Array<[string, () => void]> = [
+    ['as found ± U', () => doc.circle(lx + 3, ly + 2.5, 1.9).lineWidth(0.7).fillAndStroke('#ffffff', FOUND)],
+    ['as left ± U', () => doc.circle(lx + 3, ly + 2.5, 1.9).lineWidth(0.7).fillAndStroke(ACCENT, ACCENT)],
+    ['tolerance limits', () => { doc.moveTo(lx, ly + 2.5).lineTo(lx + 9, ly + 2.5).lineWidth(0.8).dash(3, { space: 2 }).strokeColor('#a3261b').stroke(); doc.undash(); }],
+  ];
+  doc.rect(lx - 3, ly - 2.5, 218, 10).fill('#ffffff');
+  for (const [label, mark] of legend) {
+    mark();
+    doc.fillColor(MUTED).text(label, lx + 12, ly, { lineBreak: false });
+    lx += 12 + doc.widthOfString(label) + 12;
+  }
+  doc.restore();
+  doc.x = MARGIN.left;
+  doc.y = box.y + box.h + 22;
+  doc.fillColor(INK);
+}
+
+function conformityStatement(results: JobResults): string {
+  const lines: string[] = [];
+  const rangesWithDecisions = results.ranges.filter((r) => r.decision !== null);
+  if (rangesWithDecisions.length === 0) return 'No statement of conformity is made: no point could be decided.';
+  const nonConforming: string[] = [];
+  for (const r of results.ranges) {
+    for (const p of r.points) {
+      const final = p.asLeft ?? p.asFound;
+      if (final?.decision && final.decision !== 'pass') nonConforming.push(`${r.label} at ${dialText(p.dial, r.dialUnit)}${r.dialUnit === 'div' ? ' div' : ` ${r.dialUnit}`} (${final.decision.replace('_', ' ')})`);
+    }
+  }
+  const basis = results.ranges.some((r) => r.asLeftRunId !== null) ? 'as-left' : 'as-found';
+  if (nonConforming.length === 0) {
+    lines.push(`Every ${basis} result conforms to the tolerance stated for its range under the decision rule above.`);
+  } else {
+    lines.push(`The ${basis} results conform to the tolerance stated for their ranges under the decision rule above, except: ${nonConforming.join('; ')}.`);
+  }
+  const foundOut: string[] = [];
+  for (const r of results.ranges) {
+    if (r.asLeftRunId === null) continue;
+    const count = r.points.filter((p) => p.asFound?.decision && p.asFound.decision !== 'pass').length;
+    if (count > 0) foundOut.push(`${r.label}: ${count} of ${r.points.filter((p) => p.asFound).length} settings`);
+  }
+  if (foundOut.length > 0) lines.push(`As found, before adjustment, these did not pass: ${foundOut.join('; ')}.`);
+  return lines.join(' ');
+}
+
+/** Draws the certificate. Pages are buffered so every page can carry "Page x of y" at the end. */
+export async function renderCertificatePdf(data: CertificatePdfData): Promise<Buffer> {
+  const qr = await QRCode.toBuffer(data.verifyUrl, { type: 'png', errorCorrectionLevel: 'M', margin: 1, width: 240 });
+  const doc = new PDFDocument({
+    size: 'A4',
+    margins: MARGIN,
+    bufferPages: true,
+    autoFirstPage: true,
+    info: {
+      Title: `Calibration certificate ${data.number} revision ${data.revision}`,
+      Author: data.lab.name,
+      Subject: `${data.instrument.make} ${data.instrument.model}, serial ${data.instrument.serial}`,
+      Creator: 'Kilocycle',
+      CreationDate: data.issuedAt,
+    },
+  });
+  for (const [name, path] of Object.entries(FONTS)) doc.registerFont(name, path);
+  const chunks: Buffer[] = [];
+  doc.on('data', (chunk: Buffer) => chunks.push(chunk));
+  const finished = new Promise<Buffer>((resolve, reject) => {
+    doc.on('end', () => resolve(Buffer.concat(chunks)));
+    doc.on('error', reject);
+  });
+  const layout = new Layout(doc);
+  const r = data.results;
+
+  // ---- Title block ----
+  const qrSize = 78;
+  doc.image(qr, PAGE.width - MARGIN.right - qrSize, MARGIN.top - 4, { width: qrSize });
+  doc.font('sans').fontSize(6).fillColor(MUTED).text('Scan to check this certificate', PAGE.width - MARGIN.right - qrSize - 10, MARGIN.top + qrSize - 2, { width: qrSize + 10, align: 'center' });
+  doc.font('bold').fontSize(20).fillColor(INK).text('Calibration Certificate', MARGIN.left, MARGIN.top, { width: CONTENT_WIDTH - qrSize - 12 });
+  doc.font('mono').fontSize(10).fillColor(ACCENT).text(`${data.number}  ·  revision ${data.revision}`, MARGIN.left, doc.y + 2);
+  doc.font('sans').fontSize(8.5).fillColor(MUTED).text(`Issued ${dateText(data.issuedAt)} by ${data.lab.name}`, MARGIN.left, doc.y + 2);
+  if (data.replaces) {
+    doc.font('bold').fontSize(8.5).fillColor('#a3261b').text(`This revision replaces revision ${data.replaces.revision}${data.replaces.issuedAt ? ` (issued ${data.replaces.issuedAt.slice(0, 10)})` : ''}.`, MARGIN.left, doc.y + 2, { width: CONTENT_WIDTH - qrSize - 12 });
+  }
+  doc.y = Math.max(doc.y, MARGIN.top + qrSize + 10);
+  doc.fillColor(INK);
+
+  layout.heading('Laboratory and customer', 90);
+  layout.fields([
+    ['Laboratory', `${data.lab.name}\n${data.lab.address}`],
+    ['Place of calibration', data.lab.place],
+    ['Customer', data.customer.name],
+    ['Customer contact', data.customer.contact ?? ''],
+  ]);
+
+  layout.heading('Item calibrated', 90);
+  layout.fields([
+    ['Make and model', `${data.instrument.make} ${data.instrument.model}`],
+    ['Serial number', data.instrument.serial],
+    ['Asset tag', data.instrument.assetTag ?? 'none given'],
+    ...(data.instrument.description ? ([['Description', data.instrument.description]] as Array<[string, string]>) : []),
+    ['Condition as received', data.job.conditionReceived ?? 'not recorded'],
+    ['Ranges calibrated', r.ranges.map((g) => `${g.position}. ${g.label}`).join('; ')],
+  ]);
+
+  layout.heading('Dates, method and conditions', 90);
+  const env: string[] = [];
+  if (data.job.ambientTempC !== null) env.push(`ambient temperature ${data.job.ambientTempC.toFixed(1)} °C`);
+  if (data.job.humidityPct !== null) env.push(`relative humidity ${data.job.humidityPct.toFixed(0)} %`);
+  if (data.job.supplyVoltages.length > 0) env.push(`supply voltage ${[...new Set(data.job.supplyVoltages)].map((v) => `${v} V`).join(', ')}`);
+  layout.fields([
+    ['Job', data.job.number],
+    ['Received', data.job.receivedDate],
+    ['Calibrated', data.calibrationDates.first === data.calibrationDates.last ? data.calibrationDates.first : `${data.calibrationDates.first} to ${data.calibrationDates.last}`],
+    ['Issued', dateText(data.issuedAt)],
+    ['Procedure', r.procedure.name],
+    ['Method', r.procedure.method],
+    ['Environment', env.length > 0 ? env.join('; ') : 'not recorded'],
+  ]);
+
+  layout.heading('Metrological traceability', 70);
+  if (r.standards.length === 0) layout.paragraph('No reference standard is recorded for the runs reported.');
+  for (const s of r.standards) {
+    layout.paragraph(
+      `${s.name}: ${s.makeModel}, serial ${s.serial}; calibration certificate ${s.certificateNumber}, due ${s.dueDate}. ` +
+        `Time-base accuracy ±${s.timebaseAccuracyPpm} ppm, resolution ${s.resolutionHz} Hz, calibration uncertainty ${s.calibrationUPpm} ppm (k = ${s.calibrationK}).`,
+    );
+  }
+  layout.paragraph(
+    'The frequencies reported are traceable to the SI unit of time through the calibration of the standard named above, ' +
+      'which the laboratory keeps within its due date.',
+    8,
+  );
+
+  // ---- Results ----
+  for (const range of r.ranges) {
+    const unit = displayUnit(range);
+    layout.heading(`Results, range ${range.position}: ${range.label}`, 200);
+    const span = `${frequencyText(range.freqMinHz, unit, 0)} to ${frequencyText(range.freqMaxHz, unit, 0)} ${unit}`;
+    const runs = [range.asFoundRunId ? `as found: run ${range.asFoundRunId}` : null, range.asLeftRunId ? `as left: run ${range.asLeftRunId}` : null].filter(Boolean).join(', ');
+    layout.paragraph(`Span ${span}; tolerance ${toleranceWords(range.tolerance)}; ${runs}. Each row is the mean of the readings at that setting; error = measured − nominal of the final (as-left) result.`, 7.8);
+    resultsTable(layout, range, unit);
+    for (const sentence of [fitSentence('As-found fit', range.asFoundFit), fitSentence('As-left fit', range.asLeftFit)]) {
+      if (sentence) layout.paragraph(sentence, 7.6);
+    }
+    if (range.problems.length > 0) layout.paragraph(`Not evaluated: ${range.problems.join('; ')}`, 7.6);
+    errorPlot(layout, range, unit);
+  }
+
+  // ---- Statements ----
+  layout.heading('Measurement uncertainty', 80);
+  const extra = new Set<string>();
+  for (const range of r.ranges) for (const p of range.points) for (const m of [p.asFound, p.asLeft]) for (const l of m?.budget?.lines ?? []) extra.add(l.name);
+  layout.paragraph(
+    'The expanded uncertainty U is the combined standard uncertainty multiplied by the coverage factor k, evaluated following ' +
+      'JCGM 100:2008 (GUM). k is the Student t value for the effective degrees of freedom (Welch–Satterthwaite), so that the interval ' +
+      '±U has a coverage probability of approximately 95 %; k = 2 when the degrees of freedom are large. U is given to two significant ' +
+      'digits and the results to the same decimal place. Contributions considered at each setting: ' +
+      `${[...extra].join('; ').toLowerCase()}.`,
+  );
+
+  layout.heading('Decision rule and statement of conformity', 80);
+  layout.paragraph(r.decisionRuleText);
+  layout.paragraph(conformityStatement(r));
+  layout.paragraph('A test uncertainty ratio (tolerance ÷ U) below 4:1 is marked in the laboratory records and reported below.', 7.8);
+
+  layout.heading('Remarks and deviations from the method', 50);
+  const remarks = [...data.deviations];
+  const lowTur = r.flags.filter((f) => f.kind === 'tur_low');
+  if (lowTur.length > 0) remarks.push(`Test uncertainty ratio below 4:1 at ${lowTur.length} setting${lowTur.length === 1 ? '' : 's'}.`);
+  if (remarks.length === 0) remarks.push('None.');
+  for (const remark of remarks) layout.paragraph(`• ${remark}`, 8);
+  layout.paragraph(
+    'The results relate only to the item calibrated, as received and at the settings stated. This certificate does not recommend a ' +
+      'calibration interval. It may be reproduced only in full, unless the laboratory agrees otherwise in writing.',
+    8,
+  );
+
+  if (data.replaces) {
+    layout.heading('Amendment', 50);
+    layout.paragraph(`This is revision ${data.revision}; it replaces revision ${data.replaces.revision}, which is withdrawn from use. Reason: ${data.replaces.reason}`);
+  }
+
+  layout.heading('Authorisation', 90);
+  layout.fields([
+    ['Authorised by', `${data.signatory.name}, ${data.signatory.role}`],
+    ['Signed', `${timeText(data.signatory.signedAt)}, meaning: “${data.signatory.meaning}”`],
+    ['Electronic seal', 'The laboratory server records the SHA-256 digest of this file and seals it with its Ed25519 key. The verification page checks both.'],
+    ['Verify at', data.verifyUrl],
+  ]);
+  doc.moveDown(0.8);
+  layout.ensure(20);
+  doc.font('medium').fontSize(8).fillColor(MUTED).text(`— End of certificate ${data.number}, revision ${data.revision} —`, MARGIN.left, doc.y, { width: CONTENT_WIDTH, align: 'center' });
+
+  // ---- Header and footer on every page ----
+  const range = doc.bufferedPageRange();
+  for (let i = range.start; i < range.start + range.count; i++) {
+    doc.switchToPage(i);
+    const bottom = doc.page.margins.bottom;
+    doc.page.margins.bottom = 0; // writing into the footer band must not start a new page
+    const page = i - range.start + 1;
+    doc.font('bold').fontSize(8.5).fillColor(INK).text(data.lab.name, MARGIN.left, 30, { width: 300, lineBreak: false });
+    doc.font('sans').fontSize(7).fillColor(MUTED).text('Frequency calibration', MARGIN.left, 41, { width: 300, lineBreak: false });
+    doc.font('mono').fontSize(8).fillColor(INK).text(`Certificate ${data.number} · rev. ${data.revision}`, PAGE.width - MARGIN.right - 260, 30, { width: 260, align: 'right', lineBreak: false });
+    doc.font('mono').fontSize(8).fillColor(INK).text(`Page ${page} of ${range.count}`, PAGE.width - MARGIN.right - 260, 41, { width: 260, align: 'right', lineBreak: false });
+    doc.moveTo(MARGIN.left, 54).lineTo(PAGE.width - MARGIN.right, 54).lineWidth(0.6).strokeColor(ACCENT).stroke();
+    const fy = PAGE.height - 46;
+    doc.moveTo(MARGIN.left, fy).lineTo(PAGE.width - MARGIN.right, fy).lineWidth(0.4).strokeColor(RULE).stroke();
+    doc.font('sans').fontSize(6.5).fillColor(MUTED).text(
+      `Results relate only to the item calibrated. Reproduce only in full. Check this copy at ${data.verifyUrl}`,
+      MARGIN.left,
+      fy + 5,
+      { width: CONTENT_WIDTH - 70, lineBreak: false },
+    );
+    doc.font('mono').fontSize(6.5).fillColor(MUTED).text(`${data.number}/${data.revision} · ${page}/${range.count}`, PAGE.width - MARGIN.right - 70, fy + 5, { width: 70, align: 'right', lineBreak: false });
+    doc.page.margins.bottom = bottom;
+  }
+  doc.end();
+  return finished;
+}

@@ -1,0 +1,246 @@
+import { ConflictException, Inject, Injectable, NotFoundException } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import { existsSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import type { DataSource, SelectQueryBuilder } from 'typeorm';
+import type {
+  Certificate as CertificateView,
+  CertificateCheckResult,
+  CertificateDetail,
+  CertificateSettings,
+  CertificateSigningKey,
+  ListResponse,
+  PublicCertificate,
+} from '@kilocycle/common/types';
+import { AuditService } from '../audit/audit.service.js';
+import { organizationScope, type AuthUser } from '../auth/auth-user.js';
+import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { Job } from '../jobs/job.entity.js';
+import { JobReview } from '../reviews/job-review.entity.js';
+import { likePattern, paginate } from '../shared/paginate.js';
+import { Certificate } from './certificate.entity.js';
+import { readSettings, writeSettings } from './certificate-settings.js';
+import type { AmendCertificateDto, ListCertificatesQueryDto, UpdateSettingsDto } from './dto/certificate.dto.js';
+import { certificatesDir, instrumentLabel, verifyUrl } from './issue-certificate.js';
+import { loadSigningKey, sha256Hex, verifyCertificateSignature } from './signing-key.js';
+
+const SORTABLE = {
+  id: 'c.id',
+  number: 'c.number',
+  revision: 'c.revision',
+  status: 'c.status',
+  issuedAt: 'c.issuedAt',
+  organizationName: 'o.name',
+};
+
+@Injectable()
+export class CertificatesService {
+  constructor(
+    @InjectDataSource() private readonly dataSource: DataSource,
+    @Inject(APP_CONFIG) private readonly config: AppConfig,
+    private readonly audit: AuditService,
+  ) {}
+
+  toView(c: Certificate): CertificateView {
+    return {
+      id: c.id,
+      number: c.number,
+      revision: c.revision,
+      status: c.status,
+      jobId: c.jobId,
+      jobNumber: c.job?.number ?? '',
+      organizationId: c.organizationId,
+      organizationName: c.organization?.name ?? '',
+      instrumentId: c.instrumentId,
+      instrumentLabel: c.instrument ? instrumentLabel(c.instrument) : '',
+      signedById: c.signedById,
+      signedByName: c.signedBy?.name ?? null,
+      signedAt: c.signedAt?.toISOString() ?? null,
+      signingMeaning: c.signingMeaning,
+      issuedAt: c.issuedAt?.toISOString() ?? null,
+      sha256: c.sha256,
+      pdfUrl: c.fileName ? `/api/certificates/${c.id}/pdf` : null,
+      verifyUrl: verifyUrl(this.config.publicUrl, c.number),
+      replacesRevision: c.replacesRevision,
+      amendmentReason: c.amendmentReason,
+      withdrawnReason: c.withdrawnReason,
+      withdrawnAt: c.withdrawnAt?.toISOString() ?? null,
+      supersededAt: c.supersededAt?.toISOString() ?? null,
+      decision: c.decision,
+    };
+  }
+
+  private query(user: Pick<AuthUser, 'role' | 'organizationId'>, withResults = false): SelectQueryBuilder<Certificate> {
+    const columns = [
+      'c.id', 'c.number', 'c.revision', 'c.status', 'c.jobId', 'c.organizationId', 'c.instrumentId', 'c.signedById', 'c.signedAt',
+      'c.signingMeaning', 'c.issuedAt', 'c.fileName', 'c.sha256', 'c.replacesRevision', 'c.amendmentReason', 'c.withdrawnReason',
+      'c.withdrawnAt', 'c.supersededAt', 'c.decision',
+    ];
+    const qb = this.dataSource
+      .getRepository(Certificate)
+      .createQueryBuilder('c')
+      // The stored results are large: only the detail view reads them.
+      .select([...columns, ...(withResults ? ['c.results'] : []), 'j.id', 'j.number', 'o.id', 'o.name', 'i.id', 'i.make', 'i.model', 'i.serial', 's.id', 's.name'])
+      .innerJoin('c.job', 'j')
+      .innerJoin('c.organization', 'o')
+      .innerJoin('c.instrument', 'i')
+      .leftJoin('c.signedBy', 's');
+    const scope = organizationScope(user);
+    // A client sees its own organisation's certificates, and never a draft (an amendment in preparation).
+    if (scope !== null) qb.andWhere('c.organizationId = :scope', { scope }).andWhere("c.status <> 'draft'");
+    return qb;
+  }
+
+  async list(user: AuthUser, query: ListCertificatesQueryDto): Promise<ListResponse<CertificateView>> {
+    const qb = this.query(user);
+    if (query.organizationId) qb.andWhere('c.organizationId = :org', { org: query.organizationId });
+    if (query.instrumentId) qb.andWhere('c.instrumentId = :instrument', { instrument: query.instrumentId });
+    if (query.jobId) qb.andWhere('c.jobId = :job', { job: query.jobId });
+    if (query.status) qb.andWhere('c.status IN (:...statuses)', { statuses: query.status.split(',') });
+    if (query.q) {
+      qb.andWhere('(c.number LIKE :q OR i.make LIKE :q OR i.model LIKE :q OR i.serial LIKE :q OR o.name LIKE :q)', { q: likePattern(query.q) });
+    }
+    return paginate(qb, query, SORTABLE, '-issuedAt', (c) => this.toView(c));
+  }
+
+  private async find(user: Pick<AuthUser, 'role' | 'organizationId'>, id: number, withResults = false): Promise<Certificate> {
+    const found = await this.query(user, withResults).andWhere('c.id = :id', { id }).getOne();
+    if (!found) throw new NotFoundException(`Certificate ${id} not found`);
+    return found;
+  }
+
+  async get(user: AuthUser, id: number): Promise<CertificateDetail> {
+    const c = await this.find(user, id, true);
+    const revisions = await this.query(user).andWhere('c.number = :number', { number: c.number }).orderBy('c.revision', 'DESC').getMany();
+    return {
+      ...this.toView(c),
+      results: c.results,
+      revisions: revisions.map((r) => ({ id: r.id, revision: r.revision, status: r.status, issuedAt: r.issuedAt?.toISOString() ?? null })),
+    };
+  }
+
+  /** The stored file of a certificate the user may see; the file name never comes from the request. */
+  async pdf(user: AuthUser, id: number): Promise<{ data: Buffer; name: string }> {
+    const c = await this.find(user, id);
+    if (!c.fileName) throw new NotFoundException(`Certificate ${id} has no PDF yet (an amendment in preparation)`);
+    const path = join(certificatesDir(this.config.varDir), c.fileName);
+    if (!/^[0-9a-f]{40}\.pdf$/.test(c.fileName) || !existsSync(path)) throw new NotFoundException(`The PDF of certificate ${c.number} is missing from the store`);
+    return { data: readFileSync(path), name: `${c.number}-rev${c.revision}.pdf` };
+  }
+
+  /**
+   * Opens a new revision: the issued one becomes superseded at once (it stays downloadable), a draft of
+   * revision N+1 records the reason, and the job goes back to in_progress for rework (or straight to
+   * in_review when `rework` is false). The next signing issues the draft as "replaces revision N".
+   */
+  async amend(actor: AuthUser, id: number, body: AmendCertificateDto): Promise<CertificateDetail> {
+    const draftId = await this.dataSource.transaction(async (manager) => {
+      const c = await manager.findOne(Certificate, { where: { id }, lock: { mode: 'pessimistic_write' } });
+      if (!c) throw new NotFoundException(`Certificate ${id} not found`);
+      if (c.status !== 'issued') throw new ConflictException(`certificate ${c.number} revision ${c.revision} is ${c.status}: only the issued revision can be amended`);
+      const job = await manager.findOne(Job, { where: { id: c.jobId }, lock: { mode: 'pessimistic_write' } });
+      if (!job) throw new NotFoundException(`Job ${c.jobId} not found`);
+      const now = new Date();
+      const to = body.rework === false ? 'in_review' : 'in_progress';
+      await manager.update(Certificate, { id }, { status: 'superseded', supersededAt: now });
+      const inserted = await manager.insert(Certificate, {
+        number: c.number,
+        revision: c.revision + 1,
+        status: 'draft',
+        jobId: c.jobId,
+        organizationId: c.organizationId,
+        instrumentId: c.instrumentId,
+        replacesRevision: c.revision,
+        amendmentReason: body.reason,
+      });
+      await manager.update(Job, { id: job.id }, { status: to });
+      await manager.insert(JobReview, { jobId: job.id, action: 'amend', actorId: actor.id, comment: `${c.number} revision ${c.revision + 1}: ${body.reason}`, at: now });
+      await this.audit.record({ actorId: actor.id, entity: 'certificate', entityId: id, action: 'amend', changes: { status: { from: 'issued', to: 'superseded' }, reason: body.reason, newRevision: c.revision + 1 } }, manager);
+      await this.audit.record({ actorId: actor.id, entity: 'job', entityId: job.id, action: 'status', changes: { from: job.status, to, comment: `amendment of ${c.number}: ${body.reason}` } }, manager);
+      return inserted.identifiers[0].id as number;
+    });
+    return this.get(actor, draftId);
+  }
+
+  async withdraw(actor: AuthUser, id: number, reason: string): Promise<CertificateDetail> {
+    await this.dataSource.transaction(async (manager) => {
+      const c = await manager.findOne(Certificate, { where: { id }, lock: { mode: 'pessimistic_write' } });
+      if (!c) throw new NotFoundException(`Certificate ${id} not found`);
+      if (c.status !== 'issued') throw new ConflictException(`certificate ${c.number} revision ${c.revision} is ${c.status}: only an issued revision can be withdrawn`);
+      const now = new Date();
+      await manager.update(Certificate, { id }, { status: 'withdrawn', withdrawnAt: now, withdrawnReason: reason });
+      await manager.insert(JobReview, { jobId: c.jobId, action: 'withdraw', actorId: actor.id, comment: `${c.number} revision ${c.revision}: ${reason}`, at: now });
+      await this.audit.record({ actorId: actor.id, entity: 'certificate', entityId: id, action: 'withdraw', changes: { status: { from: 'issued', to: 'withdrawn' }, reason } }, manager);
+    });
+    return this.get(actor, id);
+  }
+
+  // ---- public ----
+
+  private async revisionsOf(number: string): Promise<Certificate[]> {
+    const rows = await this.dataSource
+      .getRepository(Certificate)
+      .createQueryBuilder('c')
+      .select(['c.id', 'c.number', 'c.revision', 'c.status', 'c.issuedAt', 'c.sha256', 'c.signature', 'c.keyId', 'o.id', 'o.name', 'i.id', 'i.make', 'i.model', 'i.serial'])
+      .innerJoin('c.organization', 'o')
+      .innerJoin('c.instrument', 'i')
+      .where('c.number = :number', { number })
+      .orderBy('c.revision', 'DESC')
+      .getMany();
+    if (!rows.some((r) => r.status !== 'draft')) throw new NotFoundException(`No certificate numbered ${number}`);
+    return rows;
+  }
+
+  async publicView(number: string): Promise<PublicCertificate> {
+    const rows = await this.revisionsOf(number);
+    const published = rows.filter((r) => r.status !== 'draft');
+    const latest = published[0]!;
+    return {
+      number: latest.number,
+      revision: latest.revision,
+      status: latest.status,
+      instrument: instrumentLabel(latest.instrument),
+      customer: latest.organization.name,
+      issuedAt: latest.issuedAt?.toISOString() ?? null,
+      sha256: latest.sha256,
+      revisions: published.map((r) => ({ revision: r.revision, status: r.status, issuedAt: r.issuedAt?.toISOString() ?? null, sha256: r.sha256 })),
+      amendmentPending: rows.some((r) => r.status === 'draft'),
+    };
+  }
+
+  /** Byte-for-byte check of an uploaded file against every revision's stored hash, and the server's seal. */
+  async check(number: string, file: Buffer): Promise<CertificateCheckResult> {
+    const rows = await this.revisionsOf(number);
+    const sha256 = sha256Hex(file);
+    const hit = rows.find((r) => r.status !== 'draft' && r.sha256 === sha256);
+    if (!hit || !hit.signature) return { match: false, sha256 };
+    const key = loadSigningKey(this.config.varDir);
+    const signatureValid = hit.keyId === key.keyId && verifyCertificateSignature(key, hit.number, hit.revision, sha256, hit.signature);
+    return { match: signatureValid, revision: hit.revision, status: hit.status, sha256, signatureValid };
+  }
+
+  signingKey(): CertificateSigningKey {
+    const key = loadSigningKey(this.config.varDir);
+    return { algorithm: 'Ed25519', keyId: key.keyId, publicKeyPem: key.publicKeyPem };
+  }
+
+  // ---- settings ----
+
+  settings(): Promise<CertificateSettings> {
+    return readSettings(this.dataSource.manager);
+  }
+
+  async updateSettings(actor: AuthUser, body: UpdateSettingsDto): Promise<CertificateSettings> {
+    await this.dataSource.transaction(async (manager) => {
+      const before = await readSettings(manager);
+      const changes: Record<string, unknown> = {};
+      for (const [key, value] of Object.entries(body)) {
+        if (value !== undefined && before[key as keyof CertificateSettings] !== value) changes[key] = { from: before[key as keyof CertificateSettings], to: value };
+      }
+      if (Object.keys(changes).length === 0) return;
+      await writeSettings(manager, body, actor.id);
+      await this.audit.record({ actorId: actor.id, entity: 'settings', entityId: 'certificates', action: 'update', changes }, manager);
+    });
+    return this.settings();
+  }
+}

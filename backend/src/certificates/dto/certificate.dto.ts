@@ -1,0 +1,57 @@
+import { Transform, Type } from 'class-transformer';
+import { IsBoolean, IsInt, IsOptional, IsString, Matches, Max, MaxLength, Min, MinLength } from 'class-validator';
+import type {
+  AmendCertificateRequest,
+  ListCertificatesQuery,
+  UpdateCertificateSettingsRequest,
+  WithdrawCertificateRequest,
+} from '@kilocycle/common/types';
+import { ListQueryDto } from '../../shared/list-query.dto.js';
+
+const trim = () => Transform(({ value }) => (typeof value === 'string' ? value.trim() : value));
+
+export class ListCertificatesQueryDto extends ListQueryDto implements ListCertificatesQuery {
+  @IsOptional() @Type(() => Number) @IsInt() @Min(1) organizationId?: number;
+  @IsOptional() @Type(() => Number) @IsInt() @Min(1) instrumentId?: number;
+  @IsOptional() @Type(() => Number) @IsInt() @Min(1) jobId?: number;
+
+  @IsOptional()
+  @IsString()
+  @Matches(/^(draft|issued|superseded|withdrawn)(,(draft|issued|superseded|withdrawn))*$/, {
+    message: 'status must be one or more of draft, issued, superseded, withdrawn, separated by commas',
+  })
+  status?: string;
+}
+
+export class AmendCertificateDto implements AmendCertificateRequest {
+  @IsString()
+  @trim()
+  @MinLength(3, { message: 'reason: say why the certificate is amended' })
+  @MaxLength(2000)
+  reason: string;
+
+  @IsOptional()
+  @IsBoolean()
+  rework?: boolean;
+}
+
+export class WithdrawCertificateDto implements WithdrawCertificateRequest {
+  @IsString()
+  @trim()
+  @MinLength(3, { message: 'reason: say why the certificate is withdrawn' })
+  @MaxLength(2000)
+  reason: string;
+}
+
+export class UpdateSettingsDto implements UpdateCertificateSettingsRequest {
+  @IsOptional() @IsBoolean() allowSelfSign?: boolean;
+
+  @IsOptional()
+  @IsString()
+  @Matches(/^[A-Z][A-Z0-9]{0,7}$/, { message: 'certificatePrefix must be 1 to 8 capital letters or digits, starting with a letter' })
+  certificatePrefix?: string;
+
+  @IsOptional() @IsString() @trim() @MinLength(1) @MaxLength(500) labAddress?: string;
+  @IsOptional() @IsString() @trim() @MinLength(1) @MaxLength(300) calibrationPlace?: string;
+  @IsOptional() @IsInt() @Min(1) @Max(365) recallNoticeDays?: number;
+}

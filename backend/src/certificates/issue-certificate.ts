@@ -1,0 +1,253 @@
+import { ConflictException } from '@nestjs/common';
+import { randomBytes } from 'node:crypto';
+import { mkdirSync, rmSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import type { EntityManager } from 'typeorm';
+import { SIGNING_MEANING, type JobResults } from '@kilocycle/common/types';
+import type { AuditEntry } from '../audit/audit.service.js';
+import { AuditEvent } from '../audit/audit-event.entity.js';
+import { computeJobResults } from '../budgets/job-results.js';
+import type { AppConfig } from '../config/app-config.js';
+import { Instrument } from '../instruments/instrument.entity.js';
+import { Job } from '../jobs/job.entity.js';
+import { Organization } from '../organizations/organization.entity.js';
+import { JobReview } from '../reviews/job-review.entity.js';
+import { User } from '../users/user.entity.js';
+import { Certificate } from './certificate.entity.js';
+import { renderCertificatePdf, type CertificatePdfData } from './certificate-pdf.js';
+import { readSettings } from './certificate-settings.js';
+import { loadSigningKey, sha256Hex, signCertificate } from './signing-key.js';
+
+export const SIGNATORY_ROLE = 'Calibration lead (authorised signatory)';
+
+export type IssueDeps = { config: Pick<AppConfig, 'varDir' | 'publicUrl'> };
+export type IssueInput = { jobId: number; signerId: number; meaning?: string; now?: Date };
+export type IssueOutcome = {
+  certificateId: number;
+  number: string;
+  revision: number;
+  replacesRevision: number | null;
+  pdf: Buffer;
+  filePath: string;
+  downloadName: string;
+  sha256: string;
+  recipients: string[];
+  labName: string;
+  customer: string;
+  instrumentLabel: string;
+  verifyUrl: string;
+};
+
+export function certificatesDir(varDir: string): string {
+  return join(varDir, 'certificates');
+}
+
+export function verifyUrl(publicUrl: string, number: string): string {
+  return `${publicUrl}/verify/${encodeURIComponent(number)}`;
+}
+
+export function instrumentLabel(i: Pick<Instrument, 'make' | 'model' | 'serial'>): string {
+  return `${i.make} ${i.model}, serial ${i.serial}`;
+}
+
+async function audit(manager: EntityManager, entry: AuditEntry): Promise<void> {
+  await manager.getRepository(AuditEvent).insert({
+    actorId: entry.actorId,
+    entity: entry.entity,
+    entityId: String(entry.entityId),
+    action: entry.action,
+    changes: (entry.changes ?? null) as never,
+  });
+}
+
+/** The next number of the year: PREFIX-YYYY-NNNN, under a lock on the year's highest number. */
+async function nextNumber(manager: EntityManager, prefix: string, year: number): Promise<string> {
+  const stem = `${prefix}-${year}-`;
+  const rows: Array<{ number: string }> = await manager.query(
+    'SELECT number FROM certificates WHERE number LIKE ? ORDER BY LENGTH(number) DESC, number DESC LIMIT 1 FOR UPDATE',
+    [`${stem}%`],
+  );
+  const last = rows[0] ? Number(rows[0].number.slice(stem.length)) : 0;
+  return `${stem}${String((Number.isFinite(last) ? last : 0) + 1).padStart(4, '0')}`;
+}
+
+function blockers(results: JobResults): string[] {
+  return results.flags.filter((f) => f.severity === 'blocker').map((f) => f.message);
+}
+
+/**
+ * Signs a job and issues its certificate, inside the caller's transaction: re-computes the results,
+ * refuses when something blocks issue, moves the job in_review → approved → issued, numbers the
+ * certificate (or takes the pending amendment's revision), renders the PDF once, hashes and seals it
+ * with the server's Ed25519 key, writes it under var/certificates with a random name, and records the
+ * certificate row, the review event and the audit trail. The caller removes `filePath` when its
+ * transaction fails, and mails after it commits. The seed uses this same path.
+ */
+export async function issueCertificate(manager: EntityManager, deps: IssueDeps, input: IssueInput): Promise<IssueOutcome> {
+  const now = input.now ?? new Date();
+  const meaning = input.meaning ?? SIGNING_MEANING;
+  const job = await manager.findOne(Job, { where: { id: input.jobId }, lock: { mode: 'pessimistic_write' } });
+  if (!job) throw new ConflictException(`job ${input.jobId} does not exist`);
+  if (job.status !== 'in_review' && job.status !== 'approved') {
+    throw new ConflictException(`job ${job.number} is ${job.status}: only a job in review can be signed`);
+  }
+  const existing = await manager.find(Certificate, { where: { jobId: job.id }, order: { revision: 'DESC' } });
+  const draft = existing.find((c) => c.status === 'draft') ?? null;
+  if (!draft && existing.some((c) => c.status === 'issued')) throw new ConflictException(`job ${job.number} already has an issued certificate`);
+
+  const results = await computeJobResults(manager, job.id);
+  const blocking = blockers(results);
+  if (blocking.length > 0) throw new ConflictException(`job ${job.number} cannot be signed: ${blocking.join('; ')}`);
+
+  const [instrument, customer, lab, signer, settings] = await Promise.all([
+    manager.findOneByOrFail(Instrument, { id: job.instrumentId }),
+    manager.findOneByOrFail(Organization, { id: job.organizationId }),
+    manager.findOneBy(Organization, { kind: 'lab' }),
+    manager.findOneByOrFail(User, { id: input.signerId }),
+    readSettings(manager),
+  ]);
+  const labName = lab?.name ?? 'Calibration laboratory';
+  const number = draft ? draft.number : await nextNumber(manager, settings.certificatePrefix, now.getUTCFullYear());
+  const revision = draft ? draft.revision : 1;
+  const replaced = draft?.replacesRevision ? existing.find((c) => c.revision === draft.replacesRevision) ?? null : null;
+
+  const usedRunIds = results.ranges.flatMap((g) => [g.asFoundRunId, g.asLeftRunId]).filter((id): id is number => id !== null);
+  const runRows: Array<{ started: string; ended: string; supply_voltage: number | null }> = await manager.query(
+    `SELECT DATE_FORMAT(started_at, '%Y-%m-%d') AS started, DATE_FORMAT(COALESCE(ended_at, started_at), '%Y-%m-%d') AS ended, supply_voltage
+       FROM runs WHERE id IN (?)`,
+    [usedRunIds],
+  );
+  const deviations: string[] = [];
+  const excludedRows: Array<{ run_id: number; n: number; reasons: string }> = await manager.query(
+    `SELECT e.run_id, COUNT(*) AS n, GROUP_CONCAT(DISTINCT e.reason ORDER BY e.reason SEPARATOR '; ') AS reasons
+       FROM reading_exclusions e WHERE e.run_id IN (?) GROUP BY e.run_id ORDER BY e.run_id`,
+    [usedRunIds],
+  );
+  for (const row of excludedRows) {
+    deviations.push(`${Number(row.n)} reading${Number(row.n) === 1 ? '' : 's'} of run ${row.run_id} excluded from the results: ${row.reasons}.`);
+  }
+  for (const flag of results.flags.filter((f) => f.kind === 'standard_override')) deviations.push(`Reference standard used past its due date by the lead's decision (run ${flag.runId}): ${flag.message.replace(/^.*override: /, '')}.`);
+  for (const flag of results.flags.filter((f) => f.kind === 'no_as_left')) deviations.push(flag.message.replace(/^([^:]+): /, 'Range $1: ') + '.');
+
+  const url = verifyUrl(deps.config.publicUrl, number);
+  const pdfData: CertificatePdfData = {
+    number,
+    revision,
+    replaces: draft?.replacesRevision
+      ? { revision: draft.replacesRevision, reason: draft.amendmentReason ?? '', issuedAt: replaced?.issuedAt?.toISOString() ?? null }
+      : null,
+    lab: { name: labName, address: settings.labAddress, place: settings.calibrationPlace },
+    customer: { name: customer.name, contact: customer.contactEmail },
+    instrument: { make: instrument.make, model: instrument.model, serial: instrument.serial, assetTag: instrument.assetTag, description: instrument.description },
+    job: {
+      number: job.number,
+      receivedDate: typeof job.receivedDate === 'string' ? job.receivedDate.slice(0, 10) : new Date(job.receivedDate).toISOString().slice(0, 10),
+      conditionReceived: job.conditionReceived,
+      ambientTempC: job.ambientTempC,
+      humidityPct: job.humidityPct,
+      supplyVoltages: runRows.map((r) => r.supply_voltage).filter((v): v is number => v !== null).map(Number),
+    },
+    calibrationDates: {
+      first: runRows.map((r) => r.started).sort()[0] ?? now.toISOString().slice(0, 10),
+      last: runRows.map((r) => r.ended).sort().at(-1) ?? now.toISOString().slice(0, 10),
+    },
+    issuedAt: now,
+    results,
+    deviations,
+    signatory: { name: signer.name, role: SIGNATORY_ROLE, meaning, signedAt: now },
+    verifyUrl: url,
+  };
+  const pdf = await renderCertificatePdf(pdfData);
+  const sha256 = sha256Hex(pdf);
+  const key = loadSigningKey(deps.config.varDir);
+  const signature = signCertificate(key, number, revision, sha256);
+  const fileName = `${randomBytes(20).toString('hex')}.pdf`;
+
+  const row = {
+    number,
+    revision,
+    status: 'issued' as const,
+    jobId: job.id,
+    organizationId: job.organizationId,
+    instrumentId: job.instrumentId,
+    signedById: signer.id,
+    signedAt: now,
+    signingMeaning: meaning,
+    issuedAt: now,
+    fileName,
+    sha256,
+    signature,
+    keyId: key.keyId,
+    decision: results.decision,
+    results,
+  };
+  let certificateId: number;
+  if (draft) {
+    await manager.update(Certificate, { id: draft.id }, row);
+    certificateId = draft.id;
+  } else {
+    certificateId = (await manager.insert(Certificate, row)).identifiers[0].id as number;
+  }
+  // An amendment's earlier revisions are superseded already; make sure no other revision stays issued.
+  await manager.query(
+    "UPDATE certificates SET status = 'superseded', superseded_at = COALESCE(superseded_at, ?) WHERE number = ? AND id <> ? AND status = 'issued'",
+    [now, number, certificateId],
+  );
+  await manager.update(Job, { id: job.id }, { status: 'issued' });
+  await manager.insert(JobReview, { jobId: job.id, action: 'sign', actorId: signer.id, comment: `${meaning} (certificate ${number} revision ${revision})`, at: now });
+  await audit(manager, { actorId: signer.id, entity: 'job', entityId: job.id, action: 'status', changes: { from: job.status, to: 'approved', meaning } });
+  await audit(manager, { actorId: signer.id, entity: 'job', entityId: job.id, action: 'status', changes: { from: 'approved', to: 'issued', certificate: number, revision } });
+  await audit(manager, {
+    actorId: signer.id,
+    entity: 'certificate',
+    entityId: certificateId,
+    action: 'issue',
+    changes: { number, revision, sha256, keyId: key.keyId, meaning, signedAt: now.toISOString(), replacesRevision: draft?.replacesRevision ?? null },
+  });
+
+  const clientRows: Array<{ email: string }> = await manager.query(
+    "SELECT email FROM users WHERE organization_id = ? AND role = 'client' AND active = 1 ORDER BY email",
+    [job.organizationId],
+  );
+  const recipients = [...new Set([customer.contactEmail, ...clientRows.map((c) => c.email)].filter((e): e is string => !!e))];
+
+  // Written last, just before the caller commits; removed by the caller if the commit fails.
+  const dir = certificatesDir(deps.config.varDir);
+  mkdirSync(dir, { recursive: true, mode: 0o750 });
+  const filePath = join(dir, fileName);
+  writeFileSync(filePath, pdf, { mode: 0o640, flag: 'wx' });
+
+  return {
+    certificateId,
+    number,
+    revision,
+    replacesRevision: draft?.replacesRevision ?? null,
+    pdf,
+    filePath,
+    downloadName: `${number}-rev${revision}.pdf`,
+    sha256,
+    recipients,
+    labName,
+    customer: customer.name,
+    instrumentLabel: instrumentLabel(instrument),
+    verifyUrl: url,
+  };
+}
+
+/** Runs `work` (which issues a certificate) in a transaction; the PDF file goes if the transaction fails. */
+export async function withCertificateFile<T extends { filePath: string }>(
+  transaction: (work: (manager: EntityManager) => Promise<T>) => Promise<T>,
+  work: (manager: EntityManager) => Promise<T>,
+): Promise<T> {
+  let written: string | null = null;
+  try {
+    return await transaction(async (manager) => {
+      const outcome = await work(manager);
+      written = outcome.filePath;
+      return outcome;
+    });
+  } catch (error) {
+    if (written) rmSync(written, { force: true });
+    throw error;
+  }
+}

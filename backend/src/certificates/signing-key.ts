@@ -1,0 +1,60 @@
+import { createHash, createPrivateKey, createPublicKey, generateKeyPairSync, sign, verify, type KeyObject } from 'node:crypto';
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+
+export type SigningKey = { privateKey: KeyObject; publicKey: KeyObject; publicKeyPem: string; keyId: string };
+
+const cache = new Map<string, SigningKey>();
+
+/**
+ * The server's Ed25519 key for certificates, kept as PEM files under var/keys (never in git), created on
+ * first use. keyId: the first 16 hex digits of the SHA-256 of the public key (DER), stored with each
+ * signature so a later key change does not break the verification of older certificates.
+ */
+export function loadSigningKey(varDir: string): SigningKey {
+  const cached = cache.get(varDir);
+  if (cached) return cached;
+  const dir = join(varDir, 'keys');
+  const privatePath = join(dir, 'certificate-signing.key.pem');
+  const publicPath = join(dir, 'certificate-signing.pub.pem');
+  if (!existsSync(privatePath)) {
+    mkdirSync(dir, { recursive: true, mode: 0o700 });
+    const pair = generateKeyPairSync('ed25519');
+    // 'wx': if another process created the key meanwhile, keep theirs.
+    try {
+      writeFileSync(privatePath, pair.privateKey.export({ type: 'pkcs8', format: 'pem' }), { mode: 0o600, flag: 'wx' });
+      writeFileSync(publicPath, pair.publicKey.export({ type: 'spki', format: 'pem' }), { mode: 0o644 });
+    } catch (error) {
+      if ((error as NodeJS.ErrnoException).code !== 'EEXIST') throw error;
+    }
+  }
+  const privateKey = createPrivateKey(readFileSync(privatePath));
+  const publicKey = createPublicKey(privateKey);
+  const publicKeyPem = publicKey.export({ type: 'spki', format: 'pem' }).toString();
+  const keyId = createHash('sha256').update(publicKey.export({ type: 'spki', format: 'der' })).digest('hex').slice(0, 16);
+  if (!existsSync(publicPath)) writeFileSync(publicPath, publicKeyPem, { mode: 0o644 });
+  const key = { privateKey, publicKey, publicKeyPem, keyId };
+  cache.set(varDir, key);
+  return key;
+}
+
+/** What the server signs: binds the file's hash to the certificate number and revision. */
+export function signedPayload(number: string, revision: number, sha256: string): Buffer {
+  return Buffer.from(`kilocycle-certificate:v1:${number}:${revision}:${sha256}`, 'utf8');
+}
+
+export function sha256Hex(data: Buffer): string {
+  return createHash('sha256').update(data).digest('hex');
+}
+
+export function signCertificate(key: SigningKey, number: string, revision: number, sha256: string): string {
+  return sign(null, signedPayload(number, revision, sha256), key.privateKey).toString('base64');
+}
+
+export function verifyCertificateSignature(key: SigningKey, number: string, revision: number, sha256: string, signature: string): boolean {
+  try {
+    return verify(null, signedPayload(number, revision, sha256), key.publicKey, Buffer.from(signature, 'base64'));
+  } catch {
+    return false;
+  }
+}

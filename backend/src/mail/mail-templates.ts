@@ -1,0 +1,58 @@
+import type { OutgoingMail } from './mailer.js';
+
+const SIGN_OFF = '\n\n-- \nThis message was sent by Kilocycle for the laboratory named above. Replies reach the laboratory.';
+
+export function certificateIssuedMail(input: {
+  to: string[];
+  labName: string;
+  number: string;
+  revision: number;
+  replacesRevision: number | null;
+  instrument: string;
+  customer: string;
+  verifyUrl: string;
+  pdf: Buffer;
+  fileName: string;
+}): OutgoingMail {
+  const revisionText = input.replacesRevision ? `revision ${input.revision}, which replaces revision ${input.replacesRevision}` : `revision ${input.revision}`;
+  return {
+    kind: 'certificate_issued',
+    to: input.to,
+    subject: `Calibration certificate ${input.number} (rev. ${input.revision}) for ${input.instrument}`,
+    text:
+      `Hello,\n\n${input.labName} has issued calibration certificate ${input.number}, ${revisionText}, ` +
+      `for ${input.instrument} (${input.customer}). The signed PDF is attached.\n\n` +
+      `Anyone can check that a copy is the one issued, and whether it is still valid, at:\n${input.verifyUrl}` +
+      SIGN_OFF,
+    attachments: [{ filename: input.fileName, content: input.pdf, contentType: 'application/pdf' }],
+  };
+}
+
+export function jobReturnedMail(input: { to: string; technician: string; lead: string; jobNumber: string; instrument: string; comment: string; jobUrl: string }): OutgoingMail {
+  return {
+    kind: 'job_returned',
+    to: [input.to],
+    subject: `Job ${input.jobNumber} returned for rework`,
+    text:
+      `Hello ${input.technician},\n\n${input.lead} has returned job ${input.jobNumber} (${input.instrument}) for rework:\n\n` +
+      `${input.comment.split('\n').map((l) => `  ${l}`).join('\n')}\n\nOpen the job: ${input.jobUrl}` +
+      SIGN_OFF,
+  };
+}
+
+export function recallReminderMail(input: { to: string[]; labName: string; customer: string; instruments: Array<{ label: string; dueDate: string }>; portalUrl: string }): OutgoingMail {
+  const lines = input.instruments.map((i) => `  - ${i.label}: due ${i.dueDate}`).join('\n');
+  return {
+    kind: 'recall_reminder',
+    to: input.to,
+    subject:
+      input.instruments.length === 1
+        ? `Calibration due ${input.instruments[0]!.dueDate}: ${input.instruments[0]!.label}`
+        : `Calibration due soon for ${input.instruments.length} instruments`,
+    text:
+      `Hello,\n\nThis is a reminder from ${input.labName} that the calibration of the following ` +
+      `${input.instruments.length === 1 ? 'instrument' : 'instruments'} of ${input.customer} falls due soon:\n\n${lines}\n\n` +
+      `To book it in, reply to this message. Your instruments and certificates: ${input.portalUrl}` +
+      SIGN_OFF,
+  };
+}

@@ -1,0 +1,45 @@
+import { Injectable, Logger, type OnApplicationShutdown, type OnModuleInit } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import type { DataSource } from 'typeorm';
+import { AuditService } from '../audit/audit.service.js';
+import { Mailer, type OutgoingMail } from './mailer.js';
+
+/** The app's mail: starts the fake with the app (unless real SMTP is configured) and never fails a caller. */
+@Injectable()
+export class MailService implements OnModuleInit, OnApplicationShutdown {
+  private readonly logger = new Logger('Mail');
+  readonly mailer: Mailer;
+
+  constructor(
+    @InjectDataSource() dataSource: DataSource,
+    private readonly audit: AuditService,
+  ) {
+    this.mailer = new Mailer(dataSource, undefined, (m) => this.logger.warn(m));
+  }
+
+  async onModuleInit(): Promise<void> {
+    await this.mailer.start();
+  }
+
+  async onApplicationShutdown(): Promise<void> {
+    await this.mailer.stop();
+  }
+
+  /**
+   * Sends and reports whether it went. A failure is logged and audited but never undoes the action that
+   * caused the mail (a signed certificate stays signed when the mail server is down).
+   */
+  async sendSafely(mail: OutgoingMail, about: { entity: string; entityId: string | number }): Promise<boolean> {
+    try {
+      await this.mailer.send(mail);
+      return true;
+    } catch (error) {
+      const reason = error instanceof Error ? error.message : String(error);
+      this.logger.error(`could not send "${mail.subject}" to ${mail.to.join(', ')}: ${reason}`);
+      await this.audit
+        .record({ actorId: null, entity: about.entity, entityId: about.entityId, action: 'mail_failed', changes: { kind: mail.kind, to: mail.to, reason } })
+        .catch(() => undefined);
+      return false;
+    }
+  }
+}

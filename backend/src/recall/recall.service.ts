@@ -1,0 +1,89 @@
+import { Inject, Injectable, Logger, type OnApplicationBootstrap, type OnApplicationShutdown } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import type { DataSource } from 'typeorm';
+import type { ListResponse, RecallNotice, RecallRunResult } from '@kilocycle/common/types';
+import { AuditService } from '../audit/audit.service.js';
+import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { MailService } from '../mail/mail.service.js';
+import { runRecall } from './run-recall.js';
+
+const DAY_MS = 86_400_000;
+
+/** The daily recall reminder: first run shortly after start (KC_RECALL_DELAY_MS, default 60 s), then every 24 h. */
+@Injectable()
+export class RecallService implements OnApplicationBootstrap, OnApplicationShutdown {
+  private readonly logger = new Logger('Recall');
+  private timers: NodeJS.Timeout[] = [];
+  private running: Promise<RecallRunResult> | null = null;
+
+  constructor(
+    @InjectDataSource() private readonly dataSource: DataSource,
+    @Inject(APP_CONFIG) private readonly config: AppConfig,
+    private readonly mail: MailService,
+    private readonly audit: AuditService,
+  ) {}
+
+  onApplicationBootstrap(): void {
+    // Off in tests (they call run()) and when KC_RECALL_DISABLED is set.
+    if (process.env.NODE_ENV === 'test' || process.env.KC_RECALL_DISABLED === 'true') return;
+    const delay = Number(process.env.KC_RECALL_DELAY_MS ?? 60_000);
+    const tick = () => {
+      this.run(null).catch((error: unknown) => this.logger.error(`recall reminder failed: ${error instanceof Error ? error.message : String(error)}`));
+    };
+    const first = setTimeout(() => {
+      tick();
+      const daily = setInterval(tick, DAY_MS);
+      daily.unref();
+      this.timers.push(daily);
+    }, Number.isFinite(delay) && delay >= 0 ? delay : 60_000);
+    first.unref();
+    this.timers.push(first);
+  }
+
+  onApplicationShutdown(): void {
+    for (const timer of this.timers) clearTimeout(timer);
+    this.timers = [];
+  }
+
+  /** One pass; concurrent callers share it. */
+  run(actorId: number | null, now?: Date): Promise<RecallRunResult> {
+    if (!this.running) {
+      this.running = runRecall(this.dataSource, (mail) => this.mail.mailer.send(mail), { publicUrl: this.config.publicUrl, now })
+        .then(async (result) => {
+          if (result.sent > 0) {
+            await this.audit.record({ actorId, entity: 'recall', entityId: 'reminder', action: 'send', changes: { sent: result.sent, instruments: result.notices.map((n) => n.instrumentId) } });
+            this.logger.log(`recall reminders sent for ${result.sent} instrument(s)`);
+          }
+          return result;
+        })
+        .finally(() => {
+          this.running = null;
+        });
+    }
+    return this.running;
+  }
+
+  async list(page = 1, pageSize = 25): Promise<ListResponse<RecallNotice>> {
+    const [{ total }] = await this.dataSource.query('SELECT COUNT(*) AS total FROM recall_notices');
+    const rows: Array<Record<string, unknown>> = await this.dataSource.query(
+      `SELECT n.id, n.instrument_id, i.make, i.model, i.serial, i.organization_id, o.name AS org_name,
+              DATE_FORMAT(n.due_date, '%Y-%m-%d') AS due, n.recipients, n.sent_at
+         FROM recall_notices n JOIN instruments i ON i.id = n.instrument_id JOIN organizations o ON o.id = i.organization_id
+        ORDER BY n.id DESC LIMIT ? OFFSET ?`,
+      [pageSize, (page - 1) * pageSize],
+    );
+    return {
+      total: Number(total),
+      items: rows.map((r) => ({
+        id: Number(r.id),
+        instrumentId: Number(r.instrument_id),
+        instrumentLabel: `${r.make} ${r.model}, serial ${r.serial}`,
+        organizationId: Number(r.organization_id),
+        organizationName: String(r.org_name),
+        dueDate: String(r.due),
+        recipients: (typeof r.recipients === 'string' ? JSON.parse(r.recipients) : r.recipients) as string[],
+        sentAt: new Date(r.sent_at as string).toISOString(),
+      })),
+    };
+  }
+}

@@ -1,0 +1,91 @@
+import type { DataSource } from 'typeorm';
+import type { RecallNotice as RecallNoticeView, RecallRunResult } from '@kilocycle/common/types';
+import { readSettings } from '../certificates/certificate-settings.js';
+import type { OutgoingMail } from '../mail/mailer.js';
+import { recallReminderMail } from '../mail/mail-templates.js';
+
+type DueRow = { id: number; make: string; model: string; serial: string; due: string; organization_id: number; org_name: string; contact_email: string | null };
+
+function addDays(date: Date, days: number): string {
+  return new Date(date.getTime() + days * 86_400_000).toISOString().slice(0, 10);
+}
+
+/**
+ * Sends the recall reminders that are due: every instrument whose next due date falls within the notice
+ * period (30 days unless the admin changed it; overdue ones included) and which has had no reminder for
+ * that due date. A reminder is claimed by inserting its recall_notices row (unique per instrument and
+ * due date) before the mail goes, so the scheduler and `kilocycle remind` never both send one; a claim
+ * whose mail fails is released, to be tried again next time. One mail per customer.
+ */
+export async function runRecall(
+  dataSource: DataSource,
+  send: (mail: OutgoingMail) => Promise<unknown>,
+  options: { publicUrl: string; now?: Date },
+): Promise<RecallRunResult> {
+  const now = options.now ?? new Date();
+  const settings = await readSettings(dataSource.manager);
+  const until = addDays(now, settings.recallNoticeDays);
+  const rows: DueRow[] = await dataSource.query(
+    `SELECT i.id, i.make, i.model, i.serial, DATE_FORMAT(i.next_due_date, '%Y-%m-%d') AS due, i.organization_id, o.name AS org_name, o.contact_email
+       FROM instruments i JOIN organizations o ON o.id = i.organization_id
+      WHERE i.next_due_date IS NOT NULL AND i.next_due_date <= ? AND o.active = 1
+        AND NOT EXISTS (SELECT 1 FROM recall_notices n WHERE n.instrument_id = i.id AND n.due_date = i.next_due_date)
+      ORDER BY o.id, i.next_due_date, i.id`,
+    [until],
+  );
+  const [lab] = await dataSource.query("SELECT name FROM organizations WHERE kind = 'lab' ORDER BY id LIMIT 1");
+  const byOrg = new Map<number, DueRow[]>();
+  for (const row of rows) byOrg.set(row.organization_id, [...(byOrg.get(row.organization_id) ?? []), row]);
+  const notices: RecallNoticeView[] = [];
+  let skipped = 0;
+  for (const [organizationId, due] of byOrg) {
+    const clients: Array<{ email: string }> = await dataSource.query(
+      "SELECT email FROM users WHERE organization_id = ? AND role = 'client' AND active = 1 ORDER BY email",
+      [organizationId],
+    );
+    const recipients = [...new Set([due[0]!.contact_email, ...clients.map((c) => c.email)].filter((e): e is string => !!e))];
+    if (recipients.length === 0) {
+      skipped += due.length;
+      continue;
+    }
+    const claimed: Array<DueRow & { noticeId: number }> = [];
+    for (const row of due) {
+      const result = await dataSource.query('INSERT IGNORE INTO recall_notices (instrument_id, due_date, recipients) VALUES (?, ?, ?)', [
+        row.id,
+        row.due,
+        JSON.stringify(recipients),
+      ]);
+      if (Number(result.affectedRows) === 1) claimed.push({ ...row, noticeId: Number(result.insertId) });
+      else skipped += 1;
+    }
+    if (claimed.length === 0) continue;
+    try {
+      await send(
+        recallReminderMail({
+          to: recipients,
+          labName: lab?.name ?? 'The laboratory',
+          customer: due[0]!.org_name,
+          instruments: claimed.map((c) => ({ label: `${c.make} ${c.model}, serial ${c.serial}`, dueDate: c.due })),
+          portalUrl: `${options.publicUrl}/instruments`,
+        }),
+      );
+    } catch (error) {
+      await dataSource.query('DELETE FROM recall_notices WHERE id IN (?)', [claimed.map((c) => c.noticeId)]);
+      throw error;
+    }
+    const sentAt = now.toISOString();
+    for (const c of claimed) {
+      notices.push({
+        id: c.noticeId,
+        instrumentId: c.id,
+        instrumentLabel: `${c.make} ${c.model}, serial ${c.serial}`,
+        organizationId,
+        organizationName: c.org_name,
+        dueDate: c.due,
+        recipients,
+        sentAt,
+      });
+    }
+  }
+  return { checked: rows.length, sent: notices.length, skipped, notices };
+}

@@ -1,0 +1,29 @@
+import { Transform } from 'class-transformer';
+import { IsOptional, IsString, MaxLength, MinLength } from 'class-validator';
+import type { ReturnJobRequest, SignJobRequest, SubmitJobRequest } from '@kilocycle/common/types';
+
+const trim = () => Transform(({ value }) => (typeof value === 'string' ? value.trim() : value));
+
+export class SubmitJobDto implements SubmitJobRequest {
+  @IsOptional() @IsString() @trim() @MaxLength(2000) comment?: string;
+}
+
+export class ReturnJobDto implements ReturnJobRequest {
+  @IsString()
+  @trim()
+  @MinLength(3, { message: 'comment: say what needs rework' })
+  @MaxLength(4000)
+  comment: string;
+}
+
+export class SignJobDto implements SignJobRequest {
+  @IsString()
+  @MinLength(1, { message: 'password: enter your password to sign' })
+  @MaxLength(200)
+  password: string;
+
+  @IsString()
+  @trim()
+  @MaxLength(200)
+  meaning: string;
+}

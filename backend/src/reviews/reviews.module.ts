@@ -1,0 +1,13 @@
+import { Module } from '@nestjs/common';
+import { TypeOrmModule } from '@nestjs/typeorm';
+import { CertificatesModule } from '../certificates/certificates.module.js';
+import { JobReview } from './job-review.entity.js';
+import { ReviewsController } from './reviews.controller.js';
+import { ReviewsService } from './reviews.service.js';
+
+@Module({
+  imports: [TypeOrmModule.forFeature([JobReview]), CertificatesModule],
+  controllers: [ReviewsController],
+  providers: [ReviewsService],
+})
+export class ReviewsModule {}

@@ -1,0 +1,274 @@
+import { BadRequestException, ConflictException, ForbiddenException, HttpException, HttpStatus, Inject, Injectable, Logger } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import bcrypt from 'bcryptjs';
+import type { DataSource, EntityManager } from 'typeorm';
+import { SIGNING_MEANING, type CertificateDetail, type JobReview as JobReviewView, type ReviewEvent, type ReviewFlag } from '@kilocycle/common/types';
+import { AuditService } from '../audit/audit.service.js';
+import type { AuthUser } from '../auth/auth-user.js';
+import { LoginThrottle } from '../auth/login-throttle.js';
+import { findScopedJob } from '../budgets/job-access.js';
+import { computeJobResults } from '../budgets/job-results.js';
+import { Certificate } from '../certificates/certificate.entity.js';
+import { readSettings } from '../certificates/certificate-settings.js';
+import { CertificatesService } from '../certificates/certificates.service.js';
+import { instrumentLabel, issueCertificate, withCertificateFile } from '../certificates/issue-certificate.js';
+import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { Instrument } from '../instruments/instrument.entity.js';
+import { Job } from '../jobs/job.entity.js';
+import { certificateIssuedMail, jobReturnedMail } from '../mail/mail-templates.js';
+import { MailService } from '../mail/mail.service.js';
+import { Organization } from '../organizations/organization.entity.js';
+import { User } from '../users/user.entity.js';
+import { JobReview } from './job-review.entity.js';
+
+const SUBMITTABLE = ['in_progress', 'returned'] as const;
+
+@Injectable()
+export class ReviewsService {
+  private readonly logger = new Logger('Reviews');
+  /** Wrong passwords at signing, per lead: five a minute, then a pause. */
+  readonly signThrottle = new LoginThrottle(5, 60_000);
+
+  constructor(
+    @InjectDataSource() private readonly dataSource: DataSource,
+    @Inject(APP_CONFIG) private readonly config: AppConfig,
+    private readonly audit: AuditService,
+    private readonly mail: MailService,
+    private readonly certificates: CertificatesService,
+  ) {}
+
+  private async changeStatus(manager: EntityManager, actor: AuthUser, job: Job, to: Job['status'], action: 'submit' | 'return', comment: string | null): Promise<void> {
+    await manager.update(Job, { id: job.id }, { status: to });
+    await manager.insert(JobReview, { jobId: job.id, action, actorId: actor.id, comment });
+    // Same shape as the jobs module's status changes, so its "returnComment" reads ours too.
+    await this.audit.record({ actorId: actor.id, entity: 'job', entityId: job.id, action: 'status', changes: { from: job.status, to, comment } }, manager);
+  }
+
+  async submit(actor: AuthUser, jobId: number, comment: string | null): Promise<JobReviewView> {
+    await this.dataSource.transaction(async (manager) => {
+      const job = await findScopedJob(manager, actor, jobId, true);
+      if (!(SUBMITTABLE as readonly string[]).includes(job.status)) {
+        throw new ConflictException(`job ${job.number} is ${job.status}: only a job in progress or returned can be submitted for review`);
+      }
+      const results = await computeJobResults(manager, job.id);
+      if (results.flags.some((f) => f.kind === 'no_calibration_run')) {
+        throw new ConflictException(`job ${job.number} has no as-found or as-left run with readings: nothing to review yet`);
+      }
+      await this.changeStatus(manager, actor, job, 'in_review', 'submit', comment || null);
+    });
+    return this.review(actor, jobId);
+  }
+
+  async returnJob(actor: AuthUser, jobId: number, comment: string): Promise<JobReviewView> {
+    const job = await this.dataSource.transaction(async (manager) => {
+      const found = await findScopedJob(manager, actor, jobId, true);
+      if (found.status !== 'in_review') throw new ConflictException(`job ${found.number} is ${found.status}: only a job in review can be returned`);
+      await this.changeStatus(manager, actor, found, 'returned', 'return', comment);
+      return found;
+    });
+    await this.mailReturned(actor, job, comment);
+    return this.review(actor, jobId);
+  }
+
+  private async mailReturned(actor: AuthUser, job: Job, comment: string): Promise<void> {
+    const manager = this.dataSource.manager;
+    let technician = job.technicianId ? await manager.findOneBy(User, { id: job.technicianId, active: true }) : null;
+    if (!technician) {
+      // No technician assigned: whoever captured the job's latest run.
+      const [row] = await manager.query('SELECT created_by FROM runs WHERE job_id = ? ORDER BY started_at DESC, id DESC LIMIT 1', [job.id]);
+      technician = row ? await manager.findOneBy(User, { id: Number(row.created_by), active: true }) : null;
+    }
+    if (!technician) {
+      this.logger.warn(`job ${job.number} returned, but it has no technician to tell`);
+      return;
+    }
+    const instrument = await manager.findOneByOrFail(Instrument, { id: job.instrumentId });
+    await this.mail.sendSafely(
+      jobReturnedMail({
+        to: technician.email,
+        technician: technician.name,
+        lead: actor.name,
+        jobNumber: job.number,
+        instrument: instrumentLabel(instrument),
+        comment,
+        jobUrl: `${this.config.publicUrl}/jobs/${job.id}`,
+      }),
+      { entity: 'job', entityId: job.id },
+    );
+  }
+
+  private async refuse(actor: AuthUser, job: Job, reason: string): Promise<void> {
+    await this.dataSource.transaction(async (manager) => {
+      await manager.insert(JobReview, { jobId: job.id, action: 'sign_refused', actorId: actor.id, comment: reason });
+      await this.audit.record({ actorId: actor.id, entity: 'job', entityId: job.id, action: 'sign_refused', changes: { reason } }, manager);
+    });
+  }
+
+  private async selfCaptured(manager: EntityManager, jobId: number, userId: number): Promise<boolean> {
+    const [row] = await manager.query('SELECT COUNT(*) AS n FROM runs WHERE job_id = ? AND created_by = ?', [jobId, userId]);
+    return Number(row?.n ?? 0) > 0;
+  }
+
+  /**
+   * Signing: the lead's password again (403, audited, when wrong: not 401, which would end the session),
+   * the agreed meaning, no self-signing unless the admin allows it; then issueCertificate in one
+   * transaction (the PDF file goes if it fails) and, after commit, the customer's mail with the PDF.
+   */
+  async sign(actor: AuthUser, jobId: number, password: string, meaning: string): Promise<CertificateDetail> {
+    const job = await findScopedJob(this.dataSource.manager, actor, jobId);
+    if (meaning !== SIGNING_MEANING) throw new BadRequestException(`meaning must be "${SIGNING_MEANING}"`);
+    const throttleKey = [`sign:${actor.id}`];
+    if (this.signThrottle.isBlocked(throttleKey)) {
+      throw new HttpException('Too many wrong passwords at signing; wait a minute and try again', HttpStatus.TOO_MANY_REQUESTS);
+    }
+    const me = await this.dataSource.getRepository(User).createQueryBuilder('u').addSelect('u.passwordHash').where('u.id = :id', { id: actor.id }).getOne();
+    if (!me || !(await bcrypt.compare(password, me.passwordHash))) {
+      this.signThrottle.recordFailure(throttleKey);
+      await this.refuse(actor, job, 'wrong password');
+      throw new ForbiddenException('Password is not right: the job was not signed');
+    }
+    const settings = await readSettings(this.dataSource.manager);
+    if (!settings.allowSelfSign && (await this.selfCaptured(this.dataSource.manager, job.id, actor.id))) {
+      await this.refuse(actor, job, 'the signatory captured runs of this job');
+      throw new ForbiddenException('You captured runs of this job yourself: another lead must sign it (or an admin allows self-signing)');
+    }
+    const outcome = await withCertificateFile(
+      (work) => this.dataSource.transaction(work),
+      (manager) => issueCertificate(manager, { config: this.config }, { jobId: job.id, signerId: actor.id, meaning }),
+    );
+    if (outcome.recipients.length === 0) {
+      this.logger.warn(`certificate ${outcome.number} issued, but ${outcome.customer} has no contact address to mail`);
+    } else {
+      await this.mail.sendSafely(
+        certificateIssuedMail({
+          to: outcome.recipients,
+          labName: outcome.labName,
+          number: outcome.number,
+          revision: outcome.revision,
+          replacesRevision: outcome.replacesRevision,
+          instrument: outcome.instrumentLabel,
+          customer: outcome.customer,
+          verifyUrl: outcome.verifyUrl,
+          pdf: outcome.pdf,
+          fileName: outcome.downloadName,
+        }),
+        { entity: 'certificate', entityId: outcome.certificateId },
+      );
+    }
+    return this.certificates.get(actor, outcome.certificateId);
+  }
+
+  async review(user: AuthUser, jobId: number): Promise<JobReviewView> {
+    const manager = this.dataSource.manager;
+    const job = await findScopedJob(manager, user, jobId);
+    const [instrument, organization, technician, results, settings] = await Promise.all([
+      manager.findOneByOrFail(Instrument, { id: job.instrumentId }),
+      manager.findOneByOrFail(Organization, { id: job.organizationId }),
+      job.technicianId ? manager.findOneBy(User, { id: job.technicianId }) : Promise.resolve(null),
+      computeJobResults(manager, job.id),
+      readSettings(manager),
+    ]);
+    const used = new Set(results.ranges.flatMap((r) => [r.asFoundRunId, r.asLeftRunId]).filter((id): id is number => id !== null));
+    const runRows: Array<Record<string, unknown>> = await manager.query(
+      `SELECT r.id, r.kind, r.range_id, g.label AS range_label, r.status, r.standard_id, s.name AS standard_name,
+              DATE_FORMAT(s.due_date, '%Y-%m-%d') AS standard_due, r.standard_override_reason, r.created_by, u.name AS created_by_name,
+              r.started_at, r.ended_at,
+              (SELECT COUNT(*) FROM readings x WHERE x.run_id = r.id) AS reading_count,
+              (SELECT COUNT(*) FROM reading_exclusions e WHERE e.run_id = r.id) AS excluded_count
+         FROM runs r JOIN instrument_ranges g ON g.id = r.range_id LEFT JOIN standards s ON s.id = r.standard_id
+         JOIN users u ON u.id = r.created_by
+        WHERE r.job_id = ? ORDER BY r.started_at, r.id`,
+      [job.id],
+    );
+    const excludedRows: Array<Record<string, unknown>> = await manager.query(
+      `SELECT e.reading_id, e.run_id, x.seq, x.dial, x.frequency_hz, e.reason, e.excluded_by, u.name AS excluded_by_name, e.excluded_at
+         FROM reading_exclusions e JOIN readings x ON x.id = e.reading_id JOIN runs r ON r.id = e.run_id
+         LEFT JOIN users u ON u.id = e.excluded_by
+        WHERE r.job_id = ? ORDER BY e.run_id, x.seq`,
+      [job.id],
+    );
+    const historyRows: Array<Record<string, unknown>> = await manager.query(
+      `SELECT v.id, v.action, v.actor_id, u.name AS actor_name, v.comment, v.at
+         FROM job_reviews v LEFT JOIN users u ON u.id = v.actor_id WHERE v.job_id = ? ORDER BY v.id`,
+      [job.id],
+    );
+    const draft = await manager.findOne(Certificate, { where: { jobId: job.id, status: 'draft' } });
+    const flags: ReviewFlag[] = [...results.flags];
+    const selfCaptured = user.role === 'lead' && runRows.some((r) => Number(r.created_by) === user.id);
+    if (selfCaptured) {
+      flags.push({
+        kind: 'self_captured',
+        severity: settings.allowSelfSign ? 'info' : 'blocker',
+        message: settings.allowSelfSign ? 'you captured runs of this job; self-signing is allowed by the admin' : 'you captured runs of this job: another lead must sign it',
+      });
+    }
+    const signBlockers: string[] = [];
+    if (user.role !== 'lead') signBlockers.push('only a lead may sign');
+    if (job.status !== 'in_review' && job.status !== 'approved') signBlockers.push(`the job is ${job.status}, not in review`);
+    for (const f of flags) if (f.severity === 'blocker') signBlockers.push(f.message);
+    const iso = (v: unknown) => (v === null || v === undefined ? null : new Date(v as string).toISOString());
+    return {
+      job: {
+        id: job.id,
+        number: job.number,
+        status: job.status,
+        organizationId: job.organizationId,
+        organizationName: organization.name,
+        instrumentId: job.instrumentId,
+        instrumentLabel: instrumentLabel(instrument),
+        receivedDate: typeof job.receivedDate === 'string' ? job.receivedDate.slice(0, 10) : new Date(job.receivedDate).toISOString().slice(0, 10),
+        conditionReceived: job.conditionReceived,
+        technicianId: job.technicianId,
+        technicianName: technician?.name ?? null,
+        ambientTempC: job.ambientTempC,
+        humidityPct: job.humidityPct,
+      },
+      results,
+      runs: runRows.map((r) => ({
+        id: Number(r.id),
+        kind: r.kind as JobReviewView['runs'][number]['kind'],
+        rangeId: Number(r.range_id),
+        rangeLabel: String(r.range_label),
+        status: String(r.status),
+        standardId: r.standard_id === null ? null : Number(r.standard_id),
+        standardName: (r.standard_name as string | null) ?? null,
+        standardDueDate: (r.standard_due as string | null) ?? null,
+        standardOverrideReason: (r.standard_override_reason as string | null) ?? null,
+        createdById: Number(r.created_by),
+        createdByName: String(r.created_by_name),
+        startedAt: iso(r.started_at)!,
+        endedAt: iso(r.ended_at),
+        readingCount: Number(r.reading_count),
+        excludedCount: Number(r.excluded_count),
+        used: used.has(Number(r.id)),
+      })),
+      excludedReadings: excludedRows.map((e) => ({
+        readingId: Number(e.reading_id),
+        runId: Number(e.run_id),
+        seq: Number(e.seq),
+        dial: e.dial === null ? null : Number(e.dial),
+        frequency: Number(e.frequency_hz),
+        reason: String(e.reason),
+        excludedById: Number(e.excluded_by),
+        excludedByName: (e.excluded_by_name as string | null) ?? null,
+        excludedAt: iso(e.excluded_at)!,
+      })),
+      flags,
+      history: historyRows.map(
+        (h): ReviewEvent => ({
+          id: Number(h.id),
+          action: h.action as ReviewEvent['action'],
+          actorId: h.actor_id === null ? null : Number(h.actor_id),
+          actorName: (h.actor_name as string | null) ?? null,
+          comment: (h.comment as string | null) ?? null,
+          at: iso(h.at)!,
+        }),
+      ),
+      amendment: draft
+        ? { certificateNumber: draft.number, revision: draft.revision, replacesRevision: draft.replacesRevision ?? draft.revision - 1, reason: draft.amendmentReason ?? '' }
+        : null,
+      canSign: signBlockers.length === 0,
+      signBlockers,
+    };
+  }
+}
