@@ -3,7 +3,20 @@ export const paths = {
   signIn: '/sign-in',
   adminUsers: '/admin/users',
   adminOrganisations: '/admin/organisations',
+  jobs: '/jobs',
+  job: '/jobs/:jobId',
+  instruments: '/instruments',
+  instrument: '/instruments/:instrumentId',
+  bandPlan: '/instruments/:instrumentId/band-plan',
+  run: '/runs/:runId',
+  standards: '/standards',
+  benches: '/benches',
 } as const;
+
+export const jobPath = (id: number) => `/jobs/${id}`;
+export const instrumentPath = (id: number) => `/instruments/${id}`;
+export const bandPlanPath = (instrumentId: number) => `/instruments/${instrumentId}/band-plan`;
+export const runPath = (id: number) => `/runs/${id}`;
 
 export function signInPath(next?: string) {
   return next && next !== paths.home ? `${paths.signIn}?next=${encodeURIComponent(next)}` : paths.signIn;
