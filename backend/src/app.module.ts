@@ -10,6 +10,7 @@ import { APP_CONFIG, type AppConfig } from './config/app-config.js';
 import { ConfigModule } from './config/config.module.js';
 import { typeormOptions } from './database/typeorm-options.js';
 import { HealthModule } from './health/health.module.js';
+import { ImportsModule } from './imports/imports.module.js';
 import { IngestModule } from './ingest/ingest.module.js';
 import { InstrumentsModule } from './instruments/instruments.module.js';
 import { JobsModule } from './jobs/jobs.module.js';
@@ -44,6 +45,7 @@ import { UsersModule } from './users/users.module.js';
     RunsModule,
     ReadingsModule,
     AnalysisModule,
+    ImportsModule,
     MailModule, BudgetsModule, CertificatesModule, ReviewsModule, RecallModule,
   ],
 })

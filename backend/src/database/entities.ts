@@ -1,3 +1,4 @@
+import { Attachment } from '../attachments/attachment.entity.js';
 import { AuditEvent } from '../audit/audit-event.entity.js';
 import { RevokedToken } from '../auth/revoked-token.entity.js';
 import { Bench } from '../benches/bench.entity.js';
@@ -8,6 +9,7 @@ import { JobProcedure } from '../budgets/job-procedure.entity.js';
 import { Procedure } from '../budgets/procedure.entity.js';
 import { RunBudget } from '../budgets/run-budget.entity.js';
 import { Certificate } from '../certificates/certificate.entity.js';
+import { Comparison } from '../comparisons/comparison.entity.js';
 import { Setting } from '../certificates/setting.entity.js';
 import { MailMessage } from '../mail/mail-message.entity.js';
 import { RecallNotice } from '../recall/recall-notice.entity.js';
@@ -27,4 +29,5 @@ export const ENTITIES = [
   Organization, User, AuditEvent, RevokedToken,
   Instrument, InstrumentRange, Standard, Bench, Job, Run, Reading, ReadingExclusion,
   Procedure, JobProcedure, RunBudget, JobReview, Setting, Certificate, MailMessage, RecallNotice,
+  Comparison, Attachment,
 ];

@@ -1,0 +1,62 @@
+import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import type { AttachmentContentType } from '@kilocycle/common/types';
+import { Instrument } from '../instruments/instrument.entity.js';
+import { Job } from '../jobs/job.entity.js';
+import { User } from '../users/user.entity.js';
+
+/**
+ * A photo or document on an instrument or a job (exactly one of the two). The bytes live under
+ * var/uploads/attachments with a random name; they are served only by id, after the scope check.
+ */
+@Entity('attachments')
+@Index('IDX_attachments_instrument', ['instrumentId'])
+@Index('IDX_attachments_job', ['jobId'])
+@Index('UQ_attachments_storage_name', ['storageName'], { unique: true })
+export class Attachment {
+  @PrimaryGeneratedColumn()
+  id: number;
+
+  @Column({ name: 'instrument_id', type: 'int', nullable: true })
+  instrumentId: number | null;
+
+  @ManyToOne(() => Instrument, { onDelete: 'RESTRICT', nullable: true })
+  @JoinColumn({ name: 'instrument_id', foreignKeyConstraintName: 'FK_attachments_instrument' })
+  instrument: Relation<Instrument> | null;
+
+  @Column({ name: 'job_id', type: 'int', nullable: true })
+  jobId: number | null;
+
+  @ManyToOne(() => Job, { onDelete: 'RESTRICT', nullable: true })
+  @JoinColumn({ name: 'job_id', foreignKeyConstraintName: 'FK_attachments_job' })
+  job: Relation<Job> | null;
+
+  /** 32 random hex digits: the file's name on disk, never shown. */
+  @Column({ name: 'storage_name', type: 'char', length: 32 })
+  storageName: string;
+
+  @Column({ name: 'original_name', type: 'varchar', length: 255 })
+  originalName: string;
+
+  @Column({ type: 'varchar', length: 500, nullable: true })
+  caption: string | null;
+
+  /** Found from the bytes when uploaded. */
+  @Column({ name: 'content_type', type: 'varchar', length: 64 })
+  contentType: AttachmentContentType;
+
+  @Column({ name: 'size_bytes', type: 'int' })
+  sizeBytes: number;
+
+  @Column({ type: 'char', length: 64 })
+  sha256: string;
+
+  @Column({ name: 'uploaded_by', type: 'int' })
+  uploadedById: number;
+
+  @ManyToOne(() => User, { onDelete: 'RESTRICT' })
+  @JoinColumn({ name: 'uploaded_by', foreignKeyConstraintName: 'FK_attachments_uploaded_by' })
+  uploadedBy: Relation<User>;
+
+  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  createdAt: Date;
+}

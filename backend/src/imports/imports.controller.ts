@@ -1,0 +1,39 @@
+import { Controller, Get, Param, ParseIntPipe, Post, Query, Req, Res } from '@nestjs/common';
+import { ApiBearerAuth, ApiConsumes, ApiTags } from '@nestjs/swagger';
+import type { Request, Response } from 'express';
+import type { ImportProgress, ImportReport } from '@kilocycle/common/types';
+import type { AuthUser } from '../auth/auth-user.js';
+import { CurrentUser, Roles } from '../auth/decorators.js';
+import { ImportQueryDto } from './dto/import-query.dto.js';
+import { ImportProgressStore } from './import-progress.store.js';
+import { ImportsService } from './imports.service.js';
+
+@ApiTags('imports')
+@ApiBearerAuth()
+@Controller()
+export class ImportsController {
+  constructor(
+    private readonly imports: ImportsService,
+    private readonly progress: ImportProgressStore,
+  ) {}
+
+  /** Multipart field `file` (.csv or .tsv), optional field `mapping`; see ImportReport for the answer. */
+  @Roles('admin', 'lead', 'technician', 'engineer')
+  @ApiConsumes('multipart/form-data')
+  @Post('runs/:id/imports')
+  import(
+    @CurrentUser() user: AuthUser,
+    @Param('id', ParseIntPipe) id: number,
+    @Query() query: ImportQueryDto,
+    @Req() req: Request,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<ImportReport> {
+    return this.imports.import(user, id, query, req, res);
+  }
+
+  @Roles('admin', 'lead', 'technician', 'engineer')
+  @Get('imports/:importId/progress')
+  getProgress(@CurrentUser() user: AuthUser, @Param('importId') importId: string): ImportProgress {
+    return this.progress.get(importId, user.id);
+  }
+}

@@ -1,0 +1,310 @@
+import {
+  BadRequestException,
+  ConflictException,
+  HttpException,
+  Inject,
+  Injectable,
+  NotFoundException,
+  UnsupportedMediaTypeException,
+} from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import type { Request, Response } from 'express';
+import { randomUUID } from 'node:crypto';
+import { createReadStream } from 'node:fs';
+import { join } from 'node:path';
+import Papa from 'papaparse';
+import type { DataSource, EntityManager } from 'typeorm';
+import {
+  CALIBRATION_RUN_KINDS,
+  DEFAULT_IMPORT_MAX_MB,
+  IMPORT_COLUMNS,
+  MAX_REPORTED_REJECTIONS,
+  type ImportColumn,
+  type ImportMode,
+  type ImportRejection,
+  type ImportReport,
+  type ReadingInput,
+} from '@kilocycle/common/types';
+import { sniffContent } from '../attachments/content-sniffer.js';
+import { AuditService } from '../audit/audit.service.js';
+import { organizationScope, type AuthUser } from '../auth/auth-user.js';
+import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { MAX_BATCH, ReadingsWriter, refusalReason, type RunWriteContext } from '../readings/readings-writer.service.js';
+import { assertMayWriteRun } from '../runs/run-rules.js';
+import { convertRow, detectDelimiter, ImportFileError, needsTime, parseMapping, resolveColumns, type Delimiter, type ResolvedColumns } from './csv-columns.js';
+import type { ImportQueryDto } from './dto/import-query.dto.js';
+import { ImportProgressStore, type ImportTracker } from './import-progress.store.js';
+import { megabytesFromEnv, readHead, receiveUpload, removeQuietly, type ReceivedUpload } from './multipart-upload.js';
+
+/** How much of the run's notes the list of skipped rows may take (the column is TEXT, 64 KB). */
+const NOTES_LIMIT = 60_000;
+const NOTES_LISTED_ROWS = 100;
+
+type UploadedFile = { path: string; name: string; size: number; bomLength: number; delimiter: Delimiter };
+type Batch = { inputs: ReadingInput[]; lines: number[]; rejected: ImportRejection[] };
+type PassResult = { rows: number };
+
+/**
+ * CSV/TSV import into a run (POST /api/runs/:id/imports). The upload streams to a temporary file;
+ * the file is then read as a stream, row by row (papaparse), in batches of 1,000 through the shared
+ * write path — never whole in memory. mode=all reads the file twice: first to validate every row
+ * (nothing written if one is bad), then to write, all in one transaction. mode=valid writes the
+ * valid rows in one pass and lists the skipped ones in the run's notes.
+ */
+@Injectable()
+export class ImportsService {
+  readonly maxBytes = megabytesFromEnv('KC_IMPORT_MAX_MB', DEFAULT_IMPORT_MAX_MB);
+
+  constructor(
+    @InjectDataSource() private readonly dataSource: DataSource,
+    private readonly writer: ReadingsWriter,
+    private readonly audit: AuditService,
+    private readonly progress: ImportProgressStore,
+    @Inject(APP_CONFIG) private readonly config: AppConfig,
+  ) {}
+
+  async import(actor: AuthUser, runId: number, query: ImportQueryDto, req: Request, res: Response): Promise<ImportReport> {
+    const ctx = await this.writer.loadContext(runId);
+    const scope = organizationScope(actor);
+    if (!ctx || (scope !== null && ctx.organizationId !== scope)) throw new NotFoundException(`Run ${runId} not found`);
+    assertMayWriteRun(actor.role, ctx.kind);
+    const refusal = refusalReason(ctx);
+    if (refusal) throw new ConflictException(refusal);
+    const mode: ImportMode = query.mode ?? 'all';
+    const importId = query.importId ?? randomUUID();
+    const length = Number(req.headers['content-length']);
+    const tracker = this.progress.start(importId, actor.id, runId, mode, Number.isFinite(length) && length > 0 ? length : null);
+    let upload: ReceivedUpload | null = null;
+    try {
+      upload = await receiveUpload(req, res, {
+        dir: join(this.config.varDir, 'tmp'),
+        maxBytes: this.maxBytes,
+        field: 'file',
+        onBytes: (bytesDone, bytesTotal) => tracker.update({ bytesDone, bytesTotal }),
+      });
+      const report = await this.process(actor, ctx, upload, mode, importId, query.mapping ?? upload.fields.mapping, tracker);
+      tracker.finish({ ok: true });
+      return report;
+    } catch (error) {
+      tracker.finish({ ok: false, message: failureMessage(error) });
+      throw error;
+    } finally {
+      if (upload) await removeQuietly(upload.path);
+    }
+  }
+
+  private async process(
+    actor: AuthUser,
+    ctx: RunWriteContext,
+    upload: ReceivedUpload,
+    mode: ImportMode,
+    importId: string,
+    mappingText: string | undefined,
+    tracker: ImportTracker,
+  ): Promise<ImportReport> {
+    const head = await readHead(upload.path);
+    const sniffed = sniffContent(head);
+    if (!sniffed.text) throw new UnsupportedMediaTypeException(`the file is not CSV or TSV text (it looks like ${sniffed.description})`);
+    const firstLine = Buffer.from(head.subarray(sniffed.bomLength)).toString('utf8').split(/\r?\n|\r/)[0] ?? '';
+    const file: UploadedFile = {
+      path: upload.path,
+      name: upload.originalName,
+      size: upload.size,
+      bomLength: sniffed.bomLength,
+      delimiter: detectDelimiter(firstLine, upload.originalName),
+    };
+    const report: ImportReport = {
+      importId, runId: ctx.runId, mode, imported: 0, rejected: [], rejectedCount: 0, rowCount: 0,
+      columns: { time: null, dial: null, frequency: null, unit: null, aux: null }, delimiter: file.delimiter, notesAppended: false,
+    };
+    let columns: ResolvedColumns;
+    try {
+      columns = resolveColumns(await this.header(file), parseMapping(mappingText));
+      report.columns = columns.names;
+      if (needsTime(ctx.kind) && columns.index.time === null) throw new ImportFileError(`no time column: a ${ctx.kind} run needs the time of each reading (name a column time, t or seconds, or give a mapping)`);
+      if (CALIBRATION_RUN_KINDS.includes(ctx.kind) && columns.index.dial === null) throw new ImportFileError(`no dial column: an ${ctx.kind} run needs the dial setting of each reading (name a column dial or setting, or give a mapping)`);
+    } catch (error) {
+      if (error instanceof ImportFileError) throw refused(report, [{ line: 1, column: 'header', reason: error.message }], error.message);
+      throw error;
+    }
+    const record = (rejected: ImportRejection[]) => {
+      report.rejectedCount += rejected.length;
+      for (const r of rejected) if (report.rejected.length < MAX_REPORTED_REJECTIONS) report.rejected.push(r);
+      tracker.update({ rowsRejected: report.rejectedCount });
+    };
+
+    if (mode === 'all') {
+      // Pass 1: validate every row; nothing is written unless all are good.
+      const checked = await this.pass(file, columns, ctx, tracker, 'validating', async (batch) => {
+        record(sortByLine([...batch.rejected, ...this.locate(this.writer.validate(ctx, batch.inputs).rejected, batch, columns)]));
+      });
+      report.rowCount = checked.rows;
+      if (report.rowCount === 0) throw refused(report, [{ line: 2, column: 'file', reason: 'the file has no readings under its header' }], 'the file has no readings under its header');
+      if (report.rejectedCount > 0) {
+        const rows = report.rejectedCount === 1 ? '1 row is' : `${report.rejectedCount} rows are`;
+        throw refused(report, null, `${rows} not valid: nothing was imported (fix them, or import only the valid rows with mode=valid)`);
+      }
+    }
+
+    await this.dataSource.transaction(async (manager) => {
+      await this.lockRun(manager, ctx.runId);
+      const written = await this.pass(file, columns, ctx, tracker, 'writing', async (batch) => {
+        const result = batch.inputs.length === 0 ? null : await this.writer.append(ctx, batch.inputs, 'import', { manager, skipReadBack: true });
+        const refusedNow = result ? this.locate(result.rejected, batch, columns) : [];
+        // Pass 1 passed every row; a refusal now means the rules changed underneath: roll everything back.
+        if (mode === 'all' && (refusedNow.length > 0 || batch.rejected.length > 0)) throw new ConflictException('a row changed between validating and writing; nothing was imported');
+        if (mode === 'valid') record(sortByLine([...batch.rejected, ...refusedNow]));
+        report.imported += result?.accepted ?? 0;
+        tracker.update({ imported: report.imported });
+      });
+      report.rowCount = written.rows;
+      if (report.imported === 0) {
+        const reason = report.rowCount === 0 ? 'the file has no readings under its header' : 'no row of the file is valid: nothing was imported';
+        throw refused(report, report.rowCount === 0 ? [{ line: 2, column: 'file', reason }] : null, reason);
+      }
+      if (mode === 'valid' && report.rejectedCount > 0) {
+        await this.appendNotes(manager, actor, ctx.runId, file.name, report);
+        report.notesAppended = true;
+      }
+      await this.audit.record(
+        {
+          actorId: actor.id,
+          entity: 'run',
+          entityId: ctx.runId,
+          action: 'import',
+          changes: { file: file.name, bytes: file.size, mode, rows: report.rowCount, imported: report.imported, skipped: report.rejectedCount, importId },
+        },
+        manager,
+      );
+    });
+    return report;
+  }
+
+  /** Locks the run (and its job) for the import's transaction and checks again that it takes readings. */
+  private async lockRun(manager: EntityManager, runId: number): Promise<void> {
+    const [row] = await manager.query('SELECT r.status, j.status AS job_status FROM runs r JOIN jobs j ON j.id = r.job_id WHERE r.id = ? FOR UPDATE', [runId]);
+    const refusal = row ? refusalReason({ runId, status: row.status, jobStatus: row.job_status }) : `there is no run ${runId}`;
+    if (refusal) throw new ConflictException(refusal);
+  }
+
+  /** The header row (the file's first line). */
+  private async header(file: UploadedFile): Promise<string[]> {
+    for await (const row of this.rows(file, () => undefined)) return row.cells;
+    throw new ImportFileError('the file is empty');
+  }
+
+  /** The file's rows as they stream off the disk, each with the line it starts on (blank lines skipped, still counted). */
+  private async *rows(file: UploadedFile, onBytes: (bytes: number) => void): AsyncGenerator<{ line: number; cells: string[] }> {
+    const stream = createReadStream(file.path, { start: file.bomLength, encoding: 'utf8', highWaterMark: 256 * 1024 });
+    const parser = Papa.parse(Papa.NODE_STREAM_INPUT, { delimiter: file.delimiter, header: false, skipEmptyLines: false });
+    stream.pipe(parser);
+    let line = 1;
+    try {
+      for await (const cells of parser as AsyncIterable<string[]>) {
+        const start = line;
+        line += 1;
+        // A quoted cell may hold line breaks: count them so later line numbers stay right.
+        for (const cell of cells) if (cell.includes('\n')) line += cell.split('\n').length - 1;
+        if (start % 1000 === 0) onBytes(file.bomLength + stream.bytesRead);
+        if (cells.length === 0 || (cells.length === 1 && cells[0]!.trim() === '')) continue;
+        yield { line: start, cells };
+      }
+    } finally {
+      stream.destroy();
+      parser.destroy();
+    }
+  }
+
+  /** One pass over the data rows: each converted, and handed on in batches of MAX_BATCH. */
+  private async pass(
+    file: UploadedFile,
+    columns: ResolvedColumns,
+    ctx: RunWriteContext,
+    tracker: ImportTracker,
+    phase: 'validating' | 'writing',
+    handle: (batch: Batch) => Promise<void>,
+  ): Promise<PassResult> {
+    tracker.update({ phase, bytesTotal: file.size, bytesDone: 0, rowsDone: 0 });
+    const run = { kind: ctx.kind, startedAtMs: ctx.startedAt.getTime() };
+    let rows = 0;
+    let batch: Batch = { inputs: [], lines: [], rejected: [] };
+    const flush = async () => {
+      if (batch.inputs.length === 0 && batch.rejected.length === 0) return;
+      await handle(batch);
+      batch = { inputs: [], lines: [], rejected: [] };
+      tracker.update({ rowsDone: rows });
+    };
+    let first = true;
+    for await (const { line, cells } of this.rows(file, (bytesDone) => tracker.update({ bytesDone }))) {
+      if (first) {
+        first = false; // the header
+        continue;
+      }
+      rows += 1;
+      const converted = convertRow(cells, columns, run);
+      if ('input' in converted) {
+        batch.inputs.push(converted.input);
+        batch.lines.push(line);
+      } else {
+        batch.rejected.push({ line, column: columns.names[converted.column] ?? converted.column, reason: converted.reason });
+      }
+      if (batch.inputs.length + batch.rejected.length >= MAX_BATCH) await flush();
+    }
+    await flush();
+    tracker.update({ bytesDone: file.size, rowsDone: rows });
+    return { rows };
+  }
+
+  /** The write path's refusals (by index in the batch) as lines and columns of the file. */
+  private locate(rejected: ReadonlyArray<{ index: number; field: string; reason: string }>, batch: Batch, columns: ResolvedColumns): ImportRejection[] {
+    const columnOf = (field: string): string => {
+      const key: ImportColumn | null = field === 't' ? 'time' : (IMPORT_COLUMNS as readonly string[]).includes(field) ? (field as ImportColumn) : null;
+      return key ? (columns.names[key] ?? key) : field;
+    };
+    return rejected.map((r) => ({ line: batch.lines[r.index]!, column: columnOf(r.field), reason: r.reason }));
+  }
+
+  /** Appends the skipped rows to the run's notes (the first hundred listed, within the column's size). */
+  private async appendNotes(manager: EntityManager, actor: AuthUser, runId: number, fileName: string, report: ImportReport): Promise<void> {
+    const [row] = await manager.query('SELECT notes FROM runs WHERE id = ?', [runId]);
+    const existing: string = row?.notes ?? '';
+    const when = new Date().toISOString().slice(0, 16).replace('T', ' ');
+    const skipped = report.rejectedCount === 1 ? '1 row skipped' : `${report.rejectedCount} rows skipped`;
+    const lines = [`Import of "${fileName}" on ${when} UTC by ${actor.name}: ${report.imported} readings imported, ${skipped}:`];
+    let budget = NOTES_LIMIT - existing.length - lines[0]!.length - 200;
+    let listed = 0;
+    for (const r of report.rejected) {
+      const text = `- line ${r.line}, ${r.column}: ${r.reason}`;
+      if (listed >= NOTES_LISTED_ROWS || budget - text.length < 0) break;
+      lines.push(text);
+      budget -= text.length + 1;
+      listed += 1;
+    }
+    if (listed < report.rejectedCount) lines.push(`- and ${report.rejectedCount - listed} more (the import report lists every row)`);
+    const addition = lines.join('\n');
+    const notes = existing.trim() === '' ? addition : `${existing.replace(/\s+$/, '')}\n\n${addition}`;
+    await manager.query('UPDATE runs SET notes = ? WHERE id = ?', [notes.slice(0, 65_000), runId]);
+  }
+}
+
+function sortByLine(rejected: ImportRejection[]): ImportRejection[] {
+  return rejected.sort((a, b) => a.line - b.line);
+}
+
+/** The 400 of a refused import: Nest's error shape with the report (and nothing written). */
+function refused(report: ImportReport, rejected: ImportRejection[] | null, message: string): BadRequestException {
+  if (rejected) {
+    report.rejected = rejected;
+    report.rejectedCount = rejected.length;
+  }
+  return new BadRequestException({ statusCode: 400, error: 'Bad Request', message, ...report, imported: 0 });
+}
+
+function failureMessage(error: unknown): string {
+  if (error instanceof HttpException) {
+    const body = error.getResponse();
+    const message = typeof body === 'object' && body !== null ? (body as { message?: unknown }).message : body;
+    return Array.isArray(message) ? message.join('; ') : String(message ?? error.message);
+  }
+  return error instanceof Error ? error.message : String(error);
+}
