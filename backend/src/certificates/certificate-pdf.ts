@@ -65,7 +65,7 @@ export function displayUnit(range: Pick<RangeResult, 'dialUnit' | 'freqMaxHz'>):
   return range.freqMaxHz >= 1e6 ? 'MHz' : range.freqMaxHz >= 1e3 ? 'kHz' : 'Hz';
 }
 
-const UNIT_DIGITS: Record<FrequencyUnit, number> = { Hz: 0, kHz: 3, MHz: 6, GHz: 9 };
+const UNIT_DIGITS: Record<FrequencyUnit, number> = { Hz: 0, kHz: 3, MHz: 6 };
 
 /** A frequency in a unit, with as many decimals as the Hz resolution `hzDecimals` needs (digit-grouped). */
 export function frequencyText(hz: number, unit: FrequencyUnit, hzDecimals: number): string {
@@ -77,6 +77,12 @@ export function frequencyText(hz: number, unit: FrequencyUnit, hzDecimals: numbe
 export function signedHz(value: number, decimals: number): string {
   const text = formatFrequency(value, 'Hz', Math.min(12, Math.max(0, decimals))).replace(/ Hz$/, '');
   return /^-/.test(text) || /^0(\.0*)?$/.test(text.replace(/ /g, '')) ? text : `+${text}`;
+}
+
+/** A frequency with no trailing zeros after the point: 1 750, 3 579.545. */
+export function compactFrequency(hz: number, unit: FrequencyUnit): string {
+  const text = frequencyText(hz, unit, 3);
+  return text.includes('.') ? text.replace(/[ 0]+$/, '').replace(/\.$/, '') : text;
 }
 
 export function plainHz(value: number, decimals: number): string {
@@ -248,9 +254,9 @@ function fitSentence(label: string, summary: RangeResult['asLeftFit']): string |
 /** Error against setting, drawn as vectors: tolerance limits, zero line, as-found and as-left points with U bars. */
 function errorPlot(layout: Layout, range: RangeResult, unit: FrequencyUnit): void {
   const doc = layout.doc;
-  const height = 132;
+  const height = 142;
   layout.ensure(height + 30);
-  const box = { x: MARGIN.left + 44, y: doc.y + 4, w: CONTENT_WIDTH - 44 - 8, h: height - 26 };
+  const box = { x: MARGIN.left + 44, y: doc.y + 14, w: CONTENT_WIDTH - 44 - 8, h: height - 26 };
   const points = range.points;
   if (points.length === 0) return;
   const mult = 10 ** UNIT_DIGITS[unit];
@@ -326,18 +332,18 @@ function errorPlot(layout: Layout, range: RangeResult, unit: FrequencyUnit): voi
       else doc.fillAndStroke('#ffffff', s.color);
     }
   }
-  // legend
-  const ly = box.y + 5;
-  let lx = box.x + 6;
+  // legend, above the plot's top right corner (never over the data)
+  const ly = box.y - 9;
   doc.font('sans').fontSize(6.2);
-  const legend: Array<[string, () => void]> = [
-    ['as found ± U', () => doc.circle(lx + 3, ly + 2.5, 1.9).lineWidth(0.7).fillAndStroke('#ffffff', FOUND)],
-    ['as left ± U', () => doc.circle(lx + 3, ly + 2.5, 1.9).lineWidth(0.7).fillAndStroke(ACCENT, ACCENT)],
-    ['tolerance limits', () => { doc.moveTo(lx, ly + 2.5).lineTo(lx + 9, ly + 2.5).lineWidth(0.8).dash(3, { space: 2 }).strokeColor('#a3261b').stroke(); doc.undash(); }],
+  const legend: Array<[string, (x: number) => void]> = [
+    ['as found ± U', (x) => doc.circle(x + 3, ly + 2.5, 1.9).lineWidth(0.7).fillAndStroke('#ffffff', FOUND)],
+    ['as left ± U', (x) => doc.circle(x + 3, ly + 2.5, 1.9).lineWidth(0.7).fillAndStroke(ACCENT, ACCENT)],
+    ['tolerance limits', (x) => { doc.moveTo(x, ly + 2.5).lineTo(x + 9, ly + 2.5).lineWidth(0.8).dash(3, { space: 2 }).strokeColor('#a3261b').stroke(); doc.undash(); }],
   ];
-  doc.rect(lx - 3, ly - 2.5, 218, 10).fill('#ffffff');
+  const legendWidth = legend.reduce((w, [label]) => w + 12 + doc.widthOfString(label) + 12, 0);
+  let lx = box.x + box.w - legendWidth + 12;
   for (const [label, mark] of legend) {
-    mark();
+    mark(lx);
     doc.fillColor(MUTED).text(label, lx + 12, ly, { lineBreak: false });
     lx += 12 + doc.widthOfString(label) + 12;
   }
@@ -464,7 +470,7 @@ export async function renderCertificatePdf(data: CertificatePdfData): Promise<Bu
   for (const range of r.ranges) {
     const unit = displayUnit(range);
     layout.heading(`Results, range ${range.position}: ${range.label}`, 200);
-    const span = `${frequencyText(range.freqMinHz, unit, 0)} to ${frequencyText(range.freqMaxHz, unit, 0)} ${unit}`;
+    const span = `${compactFrequency(range.freqMinHz, unit)} to ${compactFrequency(range.freqMaxHz, unit)} ${unit}`;
     const runs = [range.asFoundRunId ? `as found: run ${range.asFoundRunId}` : null, range.asLeftRunId ? `as left: run ${range.asLeftRunId}` : null].filter(Boolean).join(', ');
     layout.paragraph(`Span ${span}; tolerance ${toleranceWords(range.tolerance)}; ${runs}. Each row is the mean of the readings at that setting; error = measured − nominal of the final (as-left) result.`, 7.8);
     resultsTable(layout, range, unit);
@@ -484,7 +490,7 @@ export async function renderCertificatePdf(data: CertificatePdfData): Promise<Bu
       'JCGM 100:2008 (GUM). k is the Student t value for the effective degrees of freedom (Welch–Satterthwaite), so that the interval ' +
       '±U has a coverage probability of approximately 95 %; k = 2 when the degrees of freedom are large. U is given to two significant ' +
       'digits and the results to the same decimal place. Contributions considered at each setting: ' +
-      `${[...extra].join('; ').toLowerCase()}.`,
+      `${[...extra].join('; ')}.`,
   );
 
   layout.heading('Decision rule and statement of conformity', 80);
@@ -538,9 +544,9 @@ export async function renderCertificatePdf(data: CertificatePdfData): Promise<Bu
       `Results relate only to the item calibrated. Reproduce only in full. Check this copy at ${data.verifyUrl}`,
       MARGIN.left,
       fy + 5,
-      { width: CONTENT_WIDTH - 70, lineBreak: false },
+      { width: CONTENT_WIDTH - 115, lineBreak: false },
     );
-    doc.font('mono').fontSize(6.5).fillColor(MUTED).text(`${data.number}/${data.revision} · ${page}/${range.count}`, PAGE.width - MARGIN.right - 70, fy + 5, { width: 70, align: 'right', lineBreak: false });
+    doc.font('mono').fontSize(6.5).fillColor(MUTED).text(`${data.number}/${data.revision} · ${page}/${range.count}`, PAGE.width - MARGIN.right - 110, fy + 5, { width: 110, align: 'right', lineBreak: false });
     doc.page.margins.bottom = bottom;
   }
   doc.end();

@@ -15,9 +15,9 @@ import { issueCertificate } from './issue-certificate.js';
 
 // Invented: the oscillator, its serial and its readings exist nowhere else.
 const VFO_RANGES: Array<{ label: string; low: number; high: number; step: number }> = [
-  { label: '1  1.75–2.0 MHz', low: 1750, high: 2000, step: 25 },
-  { label: '2  3.5–4.0 MHz', low: 3500, high: 4000, step: 50 },
-  { label: '3  5.0–5.5 MHz (mixer drive)', low: 5000, high: 5500, step: 50 },
+  { label: '1.75–2.0 MHz', low: 1750, high: 2000, step: 25 },
+  { label: '3.5–4.0 MHz', low: 3500, high: 4000, step: 50 },
+  { label: '5.0–5.5 MHz (mixer drive)', low: 5000, high: 5500, step: 50 },
 ];
 const TOLERANCE: Tolerance = { kind: 'percent', percent: 0.25 };
 
@@ -41,7 +41,7 @@ export async function seedDemoCertificates({ manager, customerIds, userIds }: De
         'Output measured at each marked setting with a frequency counter referenced to the standard named below, three readings a setting, ' +
         'after a 30-minute warm-up in the case; as found, then as left after alignment. Conformity decided with a guard band equal to U.',
       decisionRule: 'guarded',
-      dialHalfDivisionPercentOfSpan: 0.2,
+      dialHalfDivisionPercentOfSpan: 0.1,
       driftPpm: 2,
       driftHz: 0,
       extraComponents: [{ name: 'Output loading (50 Ω pad changed)', distribution: 'rectangular', value: 1, unit: 'ppm' }],

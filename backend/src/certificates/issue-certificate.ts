@@ -2,7 +2,7 @@ import { ConflictException } from '@nestjs/common';
 import { randomBytes } from 'node:crypto';
 import { mkdirSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { EntityManager } from 'typeorm';
+import type { DataSource, EntityManager } from 'typeorm';
 import { SIGNING_MEANING, type JobResults } from '@kilocycle/common/types';
 import type { AuditEntry } from '../audit/audit.service.js';
 import { AuditEvent } from '../audit/audit-event.entity.js';
@@ -235,13 +235,10 @@ export async function issueCertificate(manager: EntityManager, deps: IssueDeps, 
 }
 
 /** Runs `work` (which issues a certificate) in a transaction; the PDF file goes if the transaction fails. */
-export async function withCertificateFile<T extends { filePath: string }>(
-  transaction: (work: (manager: EntityManager) => Promise<T>) => Promise<T>,
-  work: (manager: EntityManager) => Promise<T>,
-): Promise<T> {
+export async function withCertificateFile<T extends { filePath: string }>(dataSource: DataSource, work: (manager: EntityManager) => Promise<T>): Promise<T> {
   let written: string | null = null;
   try {
-    return await transaction(async (manager) => {
+    return await dataSource.transaction(async (manager) => {
       const outcome = await work(manager);
       written = outcome.filePath;
       return outcome;

@@ -132,9 +132,7 @@ export class ReviewsService {
       await this.refuse(actor, job, 'the signatory captured runs of this job');
       throw new ForbiddenException('You captured runs of this job yourself: another lead must sign it (or an admin allows self-signing)');
     }
-    const outcome = await withCertificateFile(
-      (work) => this.dataSource.transaction(work),
-      (manager) => issueCertificate(manager, { config: this.config }, { jobId: job.id, signerId: actor.id, meaning }),
+    const outcome = await withCertificateFile(this.dataSource, (manager) => issueCertificate(manager, { config: this.config }, { jobId: job.id, signerId: actor.id, meaning }),
     );
     if (outcome.recipients.length === 0) {
       this.logger.warn(`certificate ${outcome.number} issued, but ${outcome.customer} has no contact address to mail`);
