@@ -55,8 +55,7 @@ export class AnalysisService {
   ) {}
 
   async analyse(actor: AuthUser, runId: number, query: RunAnalysisQueryDto): Promise<RunAnalysis> {
-    const run = await this.runs.findVisible(actor, runId);
-    const counts = await this.loader.counts(runId);
+    const [run, counts] = await Promise.all([this.runs.findVisible(actor, runId), this.loader.counts(runId)]);
     const seriesKey = `${runId}|${counts.readingCount}|${counts.excludedCount}`;
     const resultKey = `${seriesKey}|${JSON.stringify(query)}`;
     const cached = this.results.get(resultKey);

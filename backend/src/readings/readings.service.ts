@@ -38,14 +38,17 @@ export class ReadingsService {
       filter === ''
         ? 'SELECT COUNT(*) AS total FROM readings r WHERE r.run_id = ?'
         : `SELECT COUNT(*) AS total FROM readings r LEFT JOIN reading_exclusions x ON x.reading_id = r.id WHERE r.run_id = ?${filter}`;
+    const order = column === 'r.seq' ? `r.seq ${direction}` : `${column} ${direction}, r.seq ${direction}`;
+    const exclusionJoin = filter === '' ? '' : ' LEFT JOIN reading_exclusions x ON x.reading_id = r.id';
+    // Deferred join: the page's ids come from the (run_id, seq) index alone; only those rows are read whole.
     const [[{ total }], rows] = await Promise.all([
       this.dataSource.query(countSql, [runId]),
       this.dataSource.query(
         `SELECT r.id, r.seq, r.t_s, r.dial, r.frequency_hz, r.aux, r.source, r.received_at, x.reason AS excluded_reason
-           FROM readings r LEFT JOIN reading_exclusions x ON x.reading_id = r.id
-          WHERE r.run_id = ?${filter}
-          ORDER BY ${column} ${direction}, r.seq ${direction}
-          LIMIT ? OFFSET ?`,
+           FROM (SELECT r.id FROM readings r${exclusionJoin} WHERE r.run_id = ?${filter} ORDER BY ${order} LIMIT ? OFFSET ?) page
+           JOIN readings r ON r.id = page.id
+           LEFT JOIN reading_exclusions x ON x.reading_id = r.id
+          ORDER BY ${order}`,
         [runId, pageSize, (page - 1) * pageSize],
       ),
     ]);

@@ -103,13 +103,13 @@ describe('run analysis (e2e, MariaDB)', () => {
     });
 
     it('should show the demo as-found error of about −0.9 % at the low end and an as-left within tolerance', async () => {
-      const runs = await t.http.get('/api/runs?sort=startedAt&kind=as_found&status=closed').set(as('northgate'));
+      const runs = await t.http.get('/api/runs?kind=as_found&q=N-1041').set(as('northgate'));
       const found = await t.http.get(`/api/runs/${runs.body.items[0].id}/analysis`).set(as('northgate'));
       expect(found.status).toBe(200);
       expect(found.body.points[0].dial).toBe(1750);
       expect(found.body.points[0].errorPercent).toBeCloseTo(-0.91, 1);
       expect(found.body.alignment).not.toBeNull();
-      const left = (await t.http.get('/api/runs?kind=as_left').set(as('northgate'))).body.items[0];
+      const left = (await t.http.get('/api/runs?kind=as_left&q=N-1041').set(as('northgate'))).body.items[0];
       const after = await t.http.get(`/api/runs/${left.id}/analysis`).set(as('northgate'));
       for (const p of after.body.points as Array<{ errorHz: number; toleranceHz: number }>) expect(Math.abs(p.errorHz)).toBeLessThan(p.toleranceHz / 10);
       expect((await t.http.get(`/api/runs/${left.id}/analysis`).set(as('saltmarsh'))).status).toBe(404);
@@ -165,7 +165,7 @@ describe('run analysis (e2e, MariaDB)', () => {
     });
 
     it('should analyse both demo warm-ups of the Saltmarsh receiver, the second settling sooner', async () => {
-      const runs = (await t.http.get('/api/runs?kind=warmup&sort=startedAt').set(as('saltmarsh'))).body.items;
+      const runs = (await t.http.get('/api/runs?kind=warmup&q=CR7-5520&sort=startedAt').set(as('saltmarsh'))).body.items;
       const [before, after] = await Promise.all(runs.map((r: { id: number }) => t.http.get(`/api/runs/${r.id}/analysis`).set(as('saltmarsh'))));
       // Generated with A = 2350 Hz, τ = 840 s before and A = 900 Hz, τ = 520 s after, 2 Hz of noise.
       relClose(before.body.fit.tau, 840, 0.05);

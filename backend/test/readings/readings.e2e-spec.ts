@@ -88,14 +88,14 @@ describe('readings (e2e, MariaDB)', () => {
     });
 
     it('should refuse readings for a closed run or a job in review with 409', async () => {
-      const closedRun = (await t.http.get('/api/runs?kind=as_left').set(as('tech'))).body.items[0];
+      const closedRun = (await t.http.get('/api/runs?kind=as_left&q=N-1041').set(as('tech'))).body.items[0];
       const res = await t.http.post(`/api/runs/${closedRun.id}/readings`).set(as('tech')).send({ readings: [{ dial: 1800, frequency: 1.8e6 }] });
       expect(res.status).toBe(409);
       expect(res.body.message).toBe(`run ${closedRun.id} is closed`);
     });
 
     it('should answer 403 to a client and to an engineer on a calibration run, 404 for a run that does not exist', async () => {
-      const open = (await t.http.get('/api/runs?status=open').set(as('tech'))).body.items[0];
+      const open = (await t.http.get('/api/runs?status=open&q=N-1187').set(as('tech'))).body.items[0];
       const reading = { readings: [{ dial: 1800, frequency: 1.8e6 }] };
       expect((await t.http.post(`/api/runs/${open.id}/readings`).set(as('northgate')).send(reading)).status).toBe(403);
       expect((await t.http.post(`/api/runs/${open.id}/readings`).set(as('engineer')).send(reading)).status).toBe(403);
@@ -126,7 +126,7 @@ describe('readings (e2e, MariaDB)', () => {
 
   describe('GET /api/runs/:id/readings and exclusions', () => {
     it('should page and sort a run’s readings', async () => {
-      const warmup = (await t.http.get('/api/runs?kind=warmup&sort=startedAt').set(as('tech'))).body.items[0];
+      const warmup = (await t.http.get('/api/runs?kind=warmup&q=CR7-5520&sort=startedAt').set(as('tech'))).body.items[0];
       const first = await t.http.get(`/api/runs/${warmup.id}/readings?pageSize=5`).set(as('tech'));
       expect(first.body.total).toBe(720);
       expect(first.body.items.map((r: ReadingBody) => r.seq)).toEqual([1, 2, 3, 4, 5]);
@@ -170,13 +170,13 @@ describe('readings (e2e, MariaDB)', () => {
     });
 
     it('should refuse an exclusion on a closed run', async () => {
-      const closedRun = (await t.http.get('/api/runs?kind=as_found&status=closed').set(as('tech'))).body.items[0];
+      const closedRun = (await t.http.get('/api/runs?kind=as_found&status=closed&q=N-1041').set(as('tech'))).body.items[0];
       const reading = (await t.http.get(`/api/runs/${closedRun.id}/readings?pageSize=1`).set(as('tech'))).body.items[0];
       expect((await t.http.post(`/api/runs/${closedRun.id}/readings/${reading.id}/exclusion`).set(as('lead')).send({ reason: 'late look' })).status).toBe(409);
     });
 
     it('should let a client read its own runs’ readings and answer 404 for another organisation’s', async () => {
-      const northgateRun = (await t.http.get('/api/runs?kind=as_left').set(as('admin'))).body.items[0];
+      const northgateRun = (await t.http.get('/api/runs?kind=as_left&q=N-1041').set(as('admin'))).body.items[0];
       expect((await t.http.get(`/api/runs/${northgateRun.id}/readings`).set(as('northgate'))).body.total).toBe(22);
       expect((await t.http.get(`/api/runs/${northgateRun.id}/readings`).set(as('saltmarsh'))).status).toBe(404);
       const someReading = (await t.http.get(`/api/runs/${northgateRun.id}/readings?pageSize=1`).set(as('admin'))).body.items[0];
