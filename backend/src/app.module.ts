@@ -9,6 +9,7 @@ import { CertificatesModule } from './certificates/certificates.module.js';
 import { APP_CONFIG, type AppConfig } from './config/app-config.js';
 import { ConfigModule } from './config/config.module.js';
 import { typeormOptions } from './database/typeorm-options.js';
+import { ExportsModule } from './exports/exports.module.js';
 import { HealthModule } from './health/health.module.js';
 import { ImportsModule } from './imports/imports.module.js';
 import { IngestModule } from './ingest/ingest.module.js';
@@ -46,6 +47,7 @@ import { UsersModule } from './users/users.module.js';
     ReadingsModule,
     AnalysisModule,
     ImportsModule,
+    ExportsModule,
     MailModule, BudgetsModule, CertificatesModule, ReviewsModule, RecallModule,
   ],
 })

@@ -243,7 +243,7 @@ export const READINGS_CSV_COLUMNS = ['seq', 't_s', 'dial', 'frequency_hz', 'aux'
 /** Columns of GET /api/jobs/:id/results.csv, in order: one line per calibration run and dial setting. */
 export const RESULTS_CSV_COLUMNS = [
   'job', 'run_id', 'run_kind', 'range', 'dial', 'dial_unit', 'nominal_hz', 'measured_mean_hz', 'n', 'sd_hz',
-  'error_hz', 'error_ppm', 'error_percent', 'tolerance_hz', 'outlier',
+  'error_hz', 'error_ppm', 'error_percent', 'tolerance_hz', 'outlier', 'note',
 ] as const;
 
 // ---- Attachments (photos and documents on instruments and jobs) ----
