@@ -9,7 +9,8 @@ Commands:
   migrate   run pending migrations
   revert    revert the newest migration
   seed      load the demo data once (demo mode) or make sure an admin exists (production mode)
-  accounts  print the demo accounts`;
+  accounts  print the demo accounts
+  remind    send the recall reminders that are due now (instruments due within 30 days, once per due date)`;
 
 async function main(command: string | undefined): Promise<void> {
   if (!command || command === '--help' || command === '-h') {
@@ -27,6 +28,9 @@ async function main(command: string | undefined): Promise<void> {
     if (command === 'migrate') {
       const ran = await dataSource.runMigrations({ transaction: 'each' });
       console.log(ran.length ? `Migrations applied: ${ran.map((m) => m.name).join(', ')}` : 'Database schema is up to date');
+    } else if (command === 'remind') {
+      const { runRemindCommand } = await import('./recall/remind-command.js');
+      console.log(await runRemindCommand(dataSource, config));
     } else if (command === 'revert') {
       await dataSource.undoLastMigration({ transaction: 'each' });
       console.log('Reverted the newest migration');

@@ -194,6 +194,12 @@ export async function issueCertificate(manager: EntityManager, deps: IssueDeps, 
     [now, number, certificateId],
   );
   await manager.update(Job, { id: job.id }, { status: 'issued' });
+  // The recall cycle restarts at issue: the next due date is the issue date plus the owner's interval.
+  if (instrument.recallIntervalMonths > 0) {
+    const due = new Date(now);
+    due.setUTCMonth(due.getUTCMonth() + instrument.recallIntervalMonths);
+    await manager.update(Instrument, { id: instrument.id }, { nextDueDate: due.toISOString().slice(0, 10) });
+  }
   await manager.insert(JobReview, { jobId: job.id, action: 'sign', actorId: signer.id, comment: `${meaning} (certificate ${number} revision ${revision})`, at: now });
   await audit(manager, { actorId: signer.id, entity: 'job', entityId: job.id, action: 'status', changes: { from: job.status, to: 'approved', meaning } });
   await audit(manager, { actorId: signer.id, entity: 'job', entityId: job.id, action: 'status', changes: { from: 'approved', to: 'issued', certificate: number, revision } });

@@ -1,0 +1,22 @@
+import type { DataSource } from 'typeorm';
+import type { AppConfig } from '../config/app-config.js';
+import { Mailer } from '../mail/mailer.js';
+import { runRecall } from './run-recall.js';
+
+/**
+ * `kilocycle remind`: one pass of the recall reminder outside the app. Without KC_SMTP_HOST the mail goes
+ * to a mail fake started for the duration, which stores it in the outbox like the app's does.
+ */
+export async function runRemindCommand(dataSource: DataSource, config: Pick<AppConfig, 'publicUrl'>): Promise<string> {
+  const mailer = new Mailer(dataSource);
+  await mailer.start();
+  try {
+    const result = await runRecall(dataSource, (mail) => mailer.send(mail), { publicUrl: config.publicUrl });
+    const lines = [`Recall reminders: ${result.sent} sent, ${result.checked} due without a reminder, ${result.skipped} skipped`];
+    for (const n of result.notices) lines.push(`  ${n.dueDate}  ${n.instrumentLabel} (${n.organizationName}) → ${n.recipients.join(', ')}`);
+    if (mailer.usesFake) lines.push('Mail went to the local mail fake: see the outbox (GET /api/mail).');
+    return lines.join('\n');
+  } finally {
+    await mailer.stop();
+  }
+}
