@@ -46,8 +46,8 @@ const END_COVERAGE = 0.05;
 @Injectable()
 export class AnalysisService {
   private readonly results = new LruCache<RunAnalysis>(64);
-  // The series themselves are large (40 MB for a million readings): keep only the last few.
-  private readonly series = new LruCache<RunSeries>(3);
+  // The series themselves are large (41 MB for a million readings): keep only the last two.
+  private readonly series = new LruCache<RunSeries>(2);
 
   constructor(
     private readonly runs: RunsService,

@@ -31,12 +31,13 @@ export class BandPlanService {
 
     const settings: BandPlanSetting[] = [];
     for (const range of ranges) {
+      let measured: MeasuredPoints | null | undefined;
       for (const multiplier of range.multipliers) {
         const fundamentalHz = wantedHz / multiplier;
         if (fundamentalHz < range.freqMinHz || fundamentalHz > range.freqMaxHz) continue;
         const nominalDial = nominalDialFor(range, fundamentalHz);
         if (nominalDial === null) continue;
-        const measured = await this.latestMeasuredPoints(range.id);
+        if (measured === undefined) measured = await this.latestMeasuredPoints(range);
         let correctedDial: number | null = null;
         if (measured) {
           try {
@@ -61,13 +62,11 @@ export class BandPlanService {
   }
 
   /** Averaged measured points of the range's latest calibration run that has at least two settings. */
-  private async latestMeasuredPoints(rangeId: number): Promise<MeasuredPoints | null> {
+  private async latestMeasuredPoints(range: InstrumentRange): Promise<MeasuredPoints | null> {
     const runs: Array<{ id: number }> = await this.dataSource.query(
       "SELECT id FROM runs WHERE range_id = ? AND kind IN ('as_found', 'as_left') ORDER BY started_at DESC, id DESC LIMIT 5",
-      [rangeId],
+      [range.id],
     );
-    const [range] = await this.dataSource.query('SELECT dial_law FROM instrument_ranges WHERE id = ?', [rangeId]);
-    const law = typeof range.dial_law === 'string' ? JSON.parse(range.dial_law) : range.dial_law;
     for (const run of runs) {
       const readings: Array<{ dial: number | null; frequency_hz: number; excluded: number | null }> = await this.dataSource.query(
         `SELECT r.dial, r.frequency_hz, x.run_id AS excluded FROM readings r LEFT JOIN reading_exclusions x ON x.reading_id = r.id
@@ -77,7 +76,7 @@ export class BandPlanService {
       if (readings.length < 2) continue;
       try {
         const analysis = analyseCalibration({
-          law,
+          law: range.dialLaw,
           readings: readings.map((r) => ({ dial: Number(r.dial), frequency: Number(r.frequency_hz), excluded: r.excluded !== null })),
         });
         if (analysis.points.length >= 2) return { runId: run.id, points: analysis.points.map((p) => ({ dial: p.dial, measured: p.measured })) };
