@@ -1,6 +1,7 @@
 import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { AnalysisModule } from './analysis/analysis.module.js';
+import { AttachmentsModule } from './attachments/attachments.module.js';
 import { AuditModule } from './audit/audit.module.js';
 import { AuthModule } from './auth/auth.module.js';
 import { BenchesModule } from './benches/benches.module.js';
@@ -48,6 +49,7 @@ import { UsersModule } from './users/users.module.js';
     AnalysisModule,
     ImportsModule,
     ExportsModule,
+    AttachmentsModule,
     MailModule, BudgetsModule, CertificatesModule, ReviewsModule, RecallModule,
   ],
 })
