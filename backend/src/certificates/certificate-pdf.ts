@@ -267,13 +267,18 @@ function errorPlot(layout: Layout, range: RangeResult, unit: FrequencyUnit): voi
     xMin -= 1;
     xMax += 1;
   }
+  // A little room at both ends, so the end points and their bars clear the frame and the tick labels.
+  const pad = (xMax - xMin) * 0.025;
+  const [dataMin, dataMax] = [xMin, xMax];
+  xMin -= pad;
+  xMax += pad;
   const ys: number[] = [];
   for (const p of points) {
     ys.push(p.toleranceHz, -p.toleranceHz);
     for (const m of [p.asFound, p.asLeft]) if (m) ys.push(m.errorHz + (m.budget?.U ?? 0), m.errorHz - (m.budget?.U ?? 0));
   }
   const yTicks = niceTicks(Math.min(...ys), Math.max(...ys), 4);
-  const xTicks = niceTicks(xMin, xMax, 6).filter((t) => t >= xMin - (xMax - xMin) * 0.001 && t <= xMax + (xMax - xMin) * 0.001);
+  const xTicks = niceTicks(dataMin, dataMax, 6).filter((t) => t >= xMin && t <= xMax);
   const yLo = yTicks[0]!;
   const yHi = yTicks[yTicks.length - 1]!;
   const px = (v: number) => box.x + ((v - xMin) / (xMax - xMin)) * box.w;
