@@ -3,6 +3,7 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import type { DataSource } from 'typeorm';
 import { MAX_INGEST_BATCH, type AttachAck, type IngestBatchAck } from '@kilocycle/common/events';
 import type { DialUnit, IngestAck, ReadingInput } from '@kilocycle/common/types';
+import { parseFrequency, parseNumber } from '@kilocycle/common/units';
 import type { BenchIdentity } from '../benches/benches.service.js';
 import { ReadingsWriter, refusalReason, type RunWriteContext } from '../readings/readings-writer.service.js';
 import { IngestException, payloadObject, runIdOf } from './ingest.exception.js';
@@ -88,21 +89,60 @@ export class IngestService {
     });
     if (highest > (this.highWater.get(runId) ?? 0)) this.highWater.set(runId, highest);
     if (inputs.length === 0) {
-      return { ok: true, runId, accepted: 0, duplicates: 0, rejected, lastSeq: await this.writer.lastSeq(runId), duplicateSeqs: [] };
+      return { ok: true, runId, accepted: 0, duplicates: 0, rejected, lastSeq: await this.writer.lastSeq(runId), duplicateSeqs: [], conflictSeqs: [] };
     }
 
-    const result = await this.writer.append(ctx, inputs, 'bridge');
+    const result = await this.appendRetrying(ctx, inputs);
     for (const r of result.rejected) rejected.push({ ...r, index: indexOf[r.index] ?? r.index });
     rejected.sort((a, b) => a.index - b.index);
+    const { same, taken } = result.duplicates > 0 ? await this.sortDuplicates(runId, notStored(inputs, result.rejected, result.stored)) : { same: [], taken: [] };
     return {
       ok: true,
       runId,
       accepted: result.accepted,
-      duplicates: result.duplicates,
+      duplicates: same.length,
       rejected,
       lastSeq: result.lastSeq,
-      duplicateSeqs: result.duplicates > 0 ? duplicateSeqs(inputs, result.rejected, result.stored) : [],
+      duplicateSeqs: same,
+      conflictSeqs: taken,
     };
+  }
+
+  /**
+   * Two benches writing the same run can deadlock on the (run, seq) index; the loser's statement is
+   * rolled back whole, so running it again is safe and saves the bridge a round of resending.
+   */
+  private async appendRetrying(ctx: RunWriteContext, inputs: readonly ReadingInput[]) {
+    for (let attempt = 1; ; attempt++) {
+      try {
+        return await this.writer.append(ctx, inputs, 'bridge');
+      } catch (error) {
+        const errno = (error as { driverError?: { errno?: number }; errno?: number }).driverError?.errno ?? (error as { errno?: number }).errno;
+        if (attempt >= 4 || (errno !== ER_LOCK_DEADLOCK && errno !== ER_LOCK_WAIT_TIMEOUT)) throw error;
+        await new Promise((resolve) => setTimeout(resolve, 5 * attempt));
+      }
+    }
+  }
+
+  /**
+   * Splits seqs that were not stored into true duplicates (the stored reading is this one: a resend)
+   * and conflicts (another reading holds the seq, e.g. from a second bridge on the run), by comparing
+   * t, dial and frequency with the stored row.
+   */
+  private async sortDuplicates(runId: number, candidates: ReadonlyArray<{ seq: number; input: ReadingInput }>): Promise<{ same: number[]; taken: number[] }> {
+    if (candidates.length === 0) return { same: [], taken: [] };
+    const rows = (await this.dataSource.query('SELECT seq, t_s, dial, frequency_hz FROM readings WHERE run_id = ? AND seq IN (?)', [
+      runId,
+      candidates.map((c) => c.seq),
+    ])) as Array<{ seq: number; t_s: number; dial: number | null; frequency_hz: number }>;
+    const bySeq = new Map(rows.map((r) => [Number(r.seq), r]));
+    const same: number[] = [];
+    const taken: number[] = [];
+    for (const { seq, input } of candidates) {
+      const row = bySeq.get(seq);
+      (row && sameReading(row, input) ? same : taken).push(seq);
+    }
+    return { same, taken };
   }
 
   /** The run as the bench may write to it now, or the reason it may not. */
@@ -117,15 +157,30 @@ export class IngestService {
   }
 }
 
-/** The seqs of valid readings that were not stored by this batch (already stored, or repeated within it). */
-function duplicateSeqs(inputs: readonly ReadingInput[], rejected: IngestAck['rejected'], stored: ReadonlyArray<{ seq: number }>): number[] {
+const ER_LOCK_WAIT_TIMEOUT = 1205;
+const ER_LOCK_DEADLOCK = 1213;
+
+/** The valid readings this batch did not store (already stored, or repeated within the batch). */
+function notStored(inputs: readonly ReadingInput[], rejected: IngestAck['rejected'], stored: ReadonlyArray<{ seq: number }>): Array<{ seq: number; input: ReadingInput }> {
   const refused = new Set(rejected.map((r) => r.index));
   const fresh = new Set(stored.map((r) => r.seq));
-  const out: number[] = [];
+  const out: Array<{ seq: number; input: ReadingInput }> = [];
   inputs.forEach((input, index) => {
     if (refused.has(index) || typeof input.seq !== 'number') return;
     if (fresh.has(input.seq)) fresh.delete(input.seq);
-    else out.push(input.seq);
+    else out.push({ seq: input.seq, input });
   });
   return out;
+}
+
+/** Whether a stored row is this (already validated) reading: same t, dial and frequency. */
+function sameReading(row: { t_s: number; dial: number | null; frequency_hz: number }, input: ReadingInput): boolean {
+  const frequency = typeof input.frequency === 'number' ? input.frequency : parseFrequency(input.frequency, 'Hz');
+  const dial = input.dial === undefined || input.dial === null || input.dial === '' ? null : typeof input.dial === 'number' ? input.dial : parseNumber(input.dial);
+  const close = (a: number, b: number) => a === b || Math.abs(a - b) <= 1e-12 * Math.max(Math.abs(a), Math.abs(b));
+  return (
+    close(Number(row.frequency_hz), frequency) &&
+    (row.dial === null ? dial === null : dial !== null && close(Number(row.dial), dial)) &&
+    (input.t === undefined || close(Number(row.t_s), input.t))
+  );
 }

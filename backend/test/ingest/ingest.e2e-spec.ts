@@ -36,7 +36,7 @@ describe('/ingest namespace (e2e, MariaDB)', () => {
     return socket;
   };
   const send = (socket: Socket, payload: unknown) => request<IngestBatchReply>(socket, INGEST_EVENTS.readings, payload);
-  const readings = (from: number, n: number) => Array.from({ length: n }, (_, i) => ({ seq: from + i, t: from + i, frequency: 7_000_000 + i }));
+  const readings = (from: number, n: number) => Array.from({ length: n }, (_, i) => ({ seq: from + i, t: from + i, frequency: 7_000_000 + from + i }));
 
   describe('handshake', () => {
     it('should refuse a connection without a token, naming what to send', async () => {
@@ -100,11 +100,14 @@ describe('/ingest namespace (e2e, MariaDB)', () => {
       const fresh = await createRun(t.dataSource, { organizationId: saltmarsh, benchId: bench.benchId });
       const socket = await attached(bench.token, fresh.runId);
       const first = await send(socket, { runId: fresh.runId, readings: readings(1, 100) });
-      expect(first).toEqual({ ok: true, runId: fresh.runId, accepted: 100, duplicates: 0, rejected: [], lastSeq: 100, duplicateSeqs: [] });
+      expect(first).toEqual({ ok: true, runId: fresh.runId, accepted: 100, duplicates: 0, rejected: [], lastSeq: 100, duplicateSeqs: [], conflictSeqs: [] });
       expect(await readingCount(t.dataSource, fresh.runId)).toBe(100);
       const again = await send(socket, { runId: fresh.runId, readings: readings(91, 20) });
       expect(again).toMatchObject({ ok: true, accepted: 10, duplicates: 10, lastSeq: 110 });
       expect(again.ok && again.duplicateSeqs).toEqual(readings(91, 10).map((r) => r.seq));
+      // A different reading under a stored seq is a conflict, not a duplicate: the sender renumbers it.
+      const clash = await send(socket, { runId: fresh.runId, readings: [{ seq: 5, t: 5, frequency: 7_100_000 }, { seq: 6, t: 6, frequency: 7_000_006 }] });
+      expect(clash).toMatchObject({ ok: true, accepted: 0, duplicates: 1, duplicateSeqs: [6], conflictSeqs: [5] });
       const [row] = await t.dataSource.query("SELECT COUNT(*) AS n, COUNT(DISTINCT seq) AS d, MIN(source) AS s FROM readings WHERE run_id = ?", [fresh.runId]);
       expect({ n: Number(row.n), d: Number(row.d), s: row.s }).toEqual({ n: 110, d: 110, s: 'bridge' });
       // A new connection continues after the last seq.

@@ -78,10 +78,12 @@ export type AttachReply = AttachAck | Refusal;
 export type IngestBatch = { runId: number; readings: ReadingInput[] };
 
 /**
- * The acknowledgement of a stored batch: accepted, duplicates (already stored under that seq),
- * and every refused reading with its reason. `duplicateSeqs` lists the seqs that were duplicates.
+ * The acknowledgement of a stored batch: accepted, duplicates (this very reading was stored before
+ * under that seq: a resend), and every refused reading with its reason. `duplicateSeqs` lists the
+ * duplicates; `conflictSeqs` lists seqs already holding a different reading (another bridge on the
+ * run got there first): those readings were not stored, and the sender numbers them afresh.
  */
-export type IngestBatchAck = IngestAck & { ok: true; runId: number; duplicateSeqs: number[] };
+export type IngestBatchAck = IngestAck & { ok: true; runId: number; duplicateSeqs: number[]; conflictSeqs: number[] };
 export type IngestBatchReply = IngestBatchAck | Refusal;
 
 export type RefusedEvent = { request: 'attach' | 'readings'; runId: number | null; code: IngestErrorCode; reason: string };
