@@ -9,6 +9,7 @@ import {
   type ConnectRefusal,
   type JoinReply,
   type LeaveReply,
+  type LiveExclusionEvent,
   type LiveReadingsEvent,
 } from '@kilocycle/common/events';
 import type { AuthUser } from '../auth/auth-user.js';
@@ -22,12 +23,13 @@ type LiveSocket = Socket<Record<string, never>, Record<string, never>, Record<st
 
 /**
  * `/live`: browsers authenticate with the session's JWT and join the room of each run they show;
- * every batch the write path commits (bridge, bench page or import) is pushed to that run's room.
+ * every batch the write path commits (bridge, bench page or import) and every exclusion is pushed to
+ * that run's room.
  */
 @WebSocketGateway({ namespace: NAMESPACES.live })
 export class LiveGateway implements OnGatewayInit, OnModuleDestroy {
   private readonly logger = new Logger('LiveGateway');
-  private subscription: Subscription | null = null;
+  private readonly subscriptions: Subscription[] = [];
 
   constructor(
     private readonly auth: AuthService,
@@ -50,14 +52,20 @@ export class LiveGateway implements OnGatewayInit, OnModuleDestroy {
         .catch((error: unknown) => refuse(error instanceof Error ? error.message : 'the session is not valid; sign in again'));
     });
     // Fan-out after the commit: one encode per batch, whatever the number of watchers.
-    this.subscription = this.writer.stored$.subscribe(({ runId, readings }) => {
-      const event: LiveReadingsEvent = { runId, readings };
-      nsp.to(runRoom(runId)).emit(LIVE_EVENTS.readings, event);
-    });
+    this.subscriptions.push(
+      this.writer.stored$.subscribe(({ runId, readings }) => {
+        const event: LiveReadingsEvent = { runId, readings };
+        nsp.to(runRoom(runId)).emit(LIVE_EVENTS.readings, event);
+      }),
+      this.writer.excluded$.subscribe(({ runId, reading }) => {
+        const event: LiveExclusionEvent = { runId, reading };
+        nsp.to(runRoom(runId)).emit(LIVE_EVENTS.excluded, event);
+      }),
+    );
   }
 
   onModuleDestroy(): void {
-    this.subscription?.unsubscribe();
+    for (const subscription of this.subscriptions) subscription.unsubscribe();
   }
 
   @SubscribeMessage(LIVE_EVENTS.join)

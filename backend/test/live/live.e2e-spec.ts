@@ -1,5 +1,5 @@
 import type { Socket } from 'socket.io-client';
-import { INGEST_EVENTS, LIVE_EVENTS, NAMESPACES, type JoinReply, type LiveReadingsEvent } from '@kilocycle/common/events';
+import { INGEST_EVENTS, LIVE_EVENTS, NAMESPACES, type JoinReply, type LiveExclusionEvent, type LiveReadingsEvent } from '@kilocycle/common/events';
 import { DEMO_CUSTOMERS } from '../../src/seed/demo-seed.js';
 import { connect, createBench, createRun, listen, organizationId, request, type RunFixture } from '../ingest/ingest-fixtures.js';
 import { createTestApp, DEMO, tokenFor, type TestApp } from '../support/test-app.js';
@@ -84,6 +84,24 @@ describe('/live namespace (e2e, MariaDB)', () => {
     expect(await request(source, INGEST_EVENTS.readings, { runId: northgateRun.runId, readings: [{ seq: 1, frequency: 7e6 }] })).toMatchObject({ ok: true, accepted: 1 });
     await new Promise((r) => setTimeout(r, 100));
     expect(heard).toEqual([]);
+  });
+
+  it('should push readings typed at the bench page and exclusions through the same room', async () => {
+    const run = await createRun(t.dataSource, { organizationId: saltmarshRun.organizationId, benchId: null });
+    const page = await browser('engineer');
+    await request(page, LIVE_EVENTS.join, { runId: run.runId });
+    const arriving = nextLive(page);
+    const typed = await t.http.post(`/api/runs/${run.runId}/readings`).set('Authorization', `Bearer ${tokens.tech}`).send({ readings: [{ frequency: '7.050 MHz' }] });
+    expect(typed.status).toBeLessThan(300);
+    const event = await arriving;
+    expect(event.readings.map((r) => [r.seq, r.frequency, r.source])).toEqual([[1, 7_050_000, 'manual']]);
+    const excluded = new Promise<LiveExclusionEvent>((resolve) => page.once(LIVE_EVENTS.excluded, resolve));
+    const res = await t.http
+      .post(`/api/runs/${run.runId}/readings/${event.readings[0].id}/exclusion`)
+      .set('Authorization', `Bearer ${tokens.tech}`)
+      .send({ reason: 'counter gate left at 10 ms' });
+    expect(res.status).toBeLessThan(300);
+    expect(await excluded).toMatchObject({ runId: run.runId, reading: { seq: 1, excluded: true, excludedReason: 'counter gate left at 10 ms' } });
   });
 
   it('should refuse a join once the user has signed out', async () => {

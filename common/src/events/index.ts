@@ -32,6 +32,8 @@ export const LIVE_EVENTS = {
   leave: 'leave',
   /** server → browser: {@link LiveReadingsEvent}, after each commit that stored readings in the run. */
   readings: 'readings',
+  /** server → browser: {@link LiveExclusionEvent}, when a reading of the run is excluded. */
+  excluded: 'excluded',
 } as const;
 
 /** The socket.io room a run's live readings go to. */
@@ -95,3 +97,6 @@ export type LeaveReply = { ok: true; runId: number } | Refusal;
 
 /** Readings just stored in a run (in seq order), as the bench page and the study pages show them. */
 export type LiveReadingsEvent = { runId: number; readings: Reading[] };
+
+/** A reading just excluded (with its reason): the page marks it and refits without it. */
+export type LiveExclusionEvent = { runId: number; reading: Reading };
