@@ -8,6 +8,7 @@ import { BenchesModule } from './benches/benches.module.js';
 import { BudgetsModule } from './budgets/budgets.module.js';
 import { CertificatesModule } from './certificates/certificates.module.js';
 import { APP_CONFIG, type AppConfig } from './config/app-config.js';
+import { ComparisonsModule } from './comparisons/comparisons.module.js';
 import { ConfigModule } from './config/config.module.js';
 import { typeormOptions } from './database/typeorm-options.js';
 import { ExportsModule } from './exports/exports.module.js';
@@ -50,6 +51,7 @@ import { UsersModule } from './users/users.module.js';
     ImportsModule,
     ExportsModule,
     AttachmentsModule,
+    ComparisonsModule,
     MailModule, BudgetsModule, CertificatesModule, ReviewsModule, RecallModule,
   ],
 })

@@ -168,13 +168,17 @@ export type SavedComparison = {
   kind: ComparableRunKind;
   runIds: number[];
   labels: string[];
+  /** Saved options (null: the defaults). */
+  withinHz: number | null;
+  windowSeconds: number | null;
   createdById: number;
   createdByName: string;
   createdAt: string;
   updatedAt: string;
 };
 export type CreateComparisonRequest = ComparisonOptions & { title: string; notes?: string | null; runIds: number[]; labels?: string[] };
-export type UpdateComparisonRequest = Partial<CreateComparisonRequest>;
+/** Options sent as null go back to the defaults. */
+export type UpdateComparisonRequest = Partial<Omit<CreateComparisonRequest, 'withinHz' | 'windowSeconds'>> & { withinHz?: number | null; windowSeconds?: number | null };
 /** Sort on title, createdAt (default -createdAt) or updatedAt; q searches title and notes. */
 export type ListComparisonsQuery = ListQuery & { instrumentId?: number };
 

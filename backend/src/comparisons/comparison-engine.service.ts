@@ -1,0 +1,447 @@
+import { BadRequestException, Injectable, NotFoundException } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import type { DataSource } from 'typeorm';
+import {
+  adevEstimate,
+  describeDifference,
+  detectGaps,
+  downsampleLttb,
+  driftRateWindows,
+  evaluateWarmup,
+  fitWarmup,
+  fractionalFrequency,
+  keyingShift,
+  MetrologyError,
+  overlappingAdev,
+  overlappingAdevAt,
+  settlingTime,
+  settlingTimeUncertainty,
+  summariseSample,
+  supplySensitivity,
+  warmupCovariance,
+  welchFromEstimates,
+  type DriftWindow,
+  type Estimate,
+  type WarmupFit,
+} from '@kilocycle/common/math';
+import {
+  COMPARABLE_RUN_KINDS,
+  COMPARISON_ADEV_TAUS,
+  COMPARISON_CONFIDENCE,
+  DEFAULT_COMPARISON_WINDOW_SECONDS,
+  DEFAULT_COMPARISON_WITHIN_HZ,
+  MAX_COMPARED_RUNS,
+  MAX_SERIES_POINTS,
+  MIN_COMPARED_RUNS,
+  type ComparableRunKind,
+  type ComparedRun,
+  type ComparisonCurve,
+  type ComparisonDifference,
+  type ComparisonEstimate,
+  type ComparisonOptions,
+  type ComparisonQuantity,
+  type ComparisonResult,
+  type ComparisonRow,
+  type InstrumentSensitivity,
+  type KeyingEntry,
+  type RunKind,
+  type SupplySensitivityEntry,
+} from '@kilocycle/common/types';
+import jstat from 'jstat';
+import { includedByTime, RunSeriesLoader } from '../analysis/run-series.loader.js';
+import { instrumentLabel } from '../instruments/instruments.service.js';
+import { ADEV_QUANTITY_TAU, COMPARISON_ROWS, engineeringExponent, powerOfTenText } from './comparison-rows.js';
+
+/** Points of the fitted curve drawn from power-on to the last reading. */
+const FITTED_POINTS = 200;
+/** Newest runs of each kind shown in the sensitivity block. */
+const SENSITIVITY_RUNS = 10;
+/** The settled part must hold this many windows of the default length, else the window is shortened to a third of the shortest settled part. */
+const WINDOWS_WANTED = 3;
+
+type RunMeta = {
+  id: number;
+  kind: RunKind;
+  jobId: number;
+  jobNumber: string;
+  instrumentId: number;
+  instrumentLabel: string;
+  rangeId: number;
+  rangeLabel: string;
+  startedAt: Date;
+  endedAt: Date | null;
+  configuration: string | null;
+  notes: string | null;
+  supplyVoltage: number | null;
+};
+
+/** One run with its included readings in time order and what the first stage worked out. */
+type Prepared = {
+  meta: RunMeta;
+  label: string;
+  /** The settling band, Hz. */
+  withinHz: number;
+  readingCount: number;
+  t: Float64Array;
+  f: Float64Array;
+  fit: WarmupFit | null;
+  fitProblem: string | null;
+  /** Index of the first settled reading, or null when the run never settles within its record. */
+  settledIndex: number | null;
+  settledFrom: number | null;
+};
+
+type RunOutcome = { run: ComparedRun; estimates: Partial<Record<ComparisonQuantity, ComparisonEstimate>>; problems: Partial<Record<ComparisonQuantity, string>> };
+
+function problemText(error: unknown): string {
+  if (error instanceof MetrologyError) return error.message;
+  throw error;
+}
+
+/** Two-sided Student-t interval of an estimate. */
+function interval(estimate: Estimate, confidence = COMPARISON_CONFIDENCE): ComparisonEstimate {
+  const t = jstat.studentt.inv(1 - (1 - confidence) / 2, estimate.df);
+  return { ...estimate, low: estimate.value - t * estimate.se, high: estimate.value + t * estimate.se };
+}
+
+/**
+ * The comparison of two to six warm-up or stability runs of one instrument (PRODUCT §5.5).
+ *
+ * Every quantity of every run is an estimate with a standard error and degrees of freedom, and the
+ * difference of each run to the first is Welch's interval of two such estimates (common's
+ * welchFromEstimates: se = √(se₁² + se₂²), Welch–Satterthwaite ν, Student t at 95 %):
+ * - τ, A, f∞: the warm-up fit's standard errors, ν = n − 3. These rest on independent residuals;
+ *   with strongly correlated counter noise they are optimistic, which the method column says.
+ * - settling time (within N Hz): τ·ln(|A|/N), standard error by the delta method with the fit's full
+ *   covariance (τ and A are strongly correlated), ν = n − 3.
+ * - settled drift rate: the mean of the per-window least-squares rates over back-to-back windows after
+ *   settling, se = s/√k, ν = k − 1 — the spread between windows carries any slow wander the counter
+ *   noise does not, so this one does not lean on independent readings.
+ * - Allan deviation at 1, 10 and 100 s over the settled part: se = σ/√(2·edf), ν = edf (χ² variance).
+ */
+@Injectable()
+export class ComparisonEngine {
+  constructor(
+    @InjectDataSource() private readonly dataSource: DataSource,
+    private readonly loader: RunSeriesLoader,
+  ) {}
+
+  /** Checks that the runs can be compared: 2–6 distinct, all found, one instrument, all warm-up or all stability. */
+  async validateRuns(runIds: readonly number[], labels?: readonly string[]): Promise<{ metas: RunMeta[]; kind: ComparableRunKind; instrumentId: number; instrumentLabel: string; labels: string[] }> {
+    if (runIds.length < MIN_COMPARED_RUNS || runIds.length > MAX_COMPARED_RUNS) {
+      throw new BadRequestException(`runIds: a comparison takes ${MIN_COMPARED_RUNS} to ${MAX_COMPARED_RUNS} runs (got ${runIds.length})`);
+    }
+    if (new Set(runIds).size !== runIds.length) throw new BadRequestException('runIds: each run may appear only once');
+    if (labels !== undefined && labels.length !== runIds.length) {
+      throw new BadRequestException(`labels: give one label per run (${runIds.length}), or none`);
+    }
+    const metas = await this.metas(runIds);
+    const byId = new Map(metas.map((m) => [m.id, m]));
+    const ordered = runIds.map((id) => {
+      const meta = byId.get(id);
+      if (!meta) throw new NotFoundException(`Run ${id} not found`);
+      return meta;
+    });
+    const first = ordered[0]!;
+    for (const meta of ordered) {
+      if (!(COMPARABLE_RUN_KINDS as readonly RunKind[]).includes(meta.kind)) {
+        throw new BadRequestException(`run ${meta.id} is a ${meta.kind} run; only warmup and stability runs can be compared`);
+      }
+      if (meta.kind !== first.kind) throw new BadRequestException(`a comparison takes warm-up runs or stability runs, not both (run ${first.id} is ${first.kind}, run ${meta.id} is ${meta.kind})`);
+      if (meta.instrumentId !== first.instrumentId) {
+        throw new BadRequestException(`the runs must be of one instrument (run ${first.id} is of ${first.instrumentLabel}, run ${meta.id} of ${meta.instrumentLabel})`);
+      }
+    }
+    const resolvedLabels = ordered.map((meta, i) => labels?.[i]?.trim() || `run ${meta.id}`);
+    return { metas: ordered, kind: first.kind as ComparableRunKind, instrumentId: first.instrumentId, instrumentLabel: first.instrumentLabel, labels: resolvedLabels };
+  }
+
+  async compute(request: ComparisonOptions & { runIds: readonly number[]; labels?: readonly string[] }): Promise<ComparisonResult> {
+    const { metas, kind, instrumentId, instrumentLabel: label, labels } = await this.validateRuns(request.runIds, request.labels);
+    const withinHz = request.withinHz ?? DEFAULT_COMPARISON_WITHIN_HZ;
+    const prepared: Prepared[] = [];
+    // One run at a time: only the included times and frequencies are kept, not the whole series.
+    for (const [i, meta] of metas.entries()) prepared.push(await this.prepare(meta, labels[i]!, kind, withinHz));
+    const windowSeconds = request.windowSeconds ?? this.defaultWindow(prepared);
+    const outcomes = prepared.map((p) => this.study(p, kind, windowSeconds));
+    return {
+      instrumentId,
+      instrumentLabel: label,
+      kind,
+      options: { withinHz, windowSeconds },
+      confidence: COMPARISON_CONFIDENCE,
+      runs: outcomes.map((o) => o.run),
+      rows: this.rows(kind, outcomes, withinHz, windowSeconds),
+      sensitivity: await this.sensitivity(instrumentId, label),
+    };
+  }
+
+  /** Supply sensitivity and keying shift from the instrument's newest runs of those kinds. */
+  async sensitivity(instrumentId: number, label?: string): Promise<InstrumentSensitivity> {
+    let instrumentName = label;
+    if (instrumentName === undefined) {
+      const [row] = await this.dataSource.query('SELECT make, model, serial FROM instruments WHERE id = ?', [instrumentId]);
+      if (!row) throw new NotFoundException(`Instrument ${instrumentId} not found`);
+      instrumentName = instrumentLabel(row);
+    }
+    const runs: Array<Record<string, unknown>> = await this.dataSource.query(
+      `SELECT r.id, r.kind, r.started_at, r.configuration, j.number, g.label
+         FROM runs r JOIN jobs j ON j.id = r.job_id JOIN instrument_ranges g ON g.id = r.range_id
+        WHERE j.instrument_id = ? AND r.kind IN ('supply_sensitivity', 'keying')
+        ORDER BY r.started_at DESC, r.id DESC`,
+      [instrumentId],
+    );
+    const supply: SupplySensitivityEntry[] = [];
+    const keying: KeyingEntry[] = [];
+    for (const run of runs) {
+      const isSupply = run.kind === 'supply_sensitivity';
+      if ((isSupply ? supply.length : keying.length) >= SENSITIVITY_RUNS) continue;
+      const runId = Number(run.id);
+      const base = { runId, jobNumber: String(run.number), rangeLabel: String(run.label), startedAt: new Date(run.started_at as string).toISOString(), configuration: (run.configuration as string | null) ?? null };
+      const counts = await this.loader.counts(runId);
+      const { frequency, aux } = includedByTime(await this.loader.load(runId, counts.readingCount));
+      if (isSupply) {
+        const volts: number[] = [];
+        const freqs: number[] = [];
+        for (let i = 0; i < frequency.length; i++) {
+          if (Number.isNaN(aux[i]!)) continue;
+          volts.push(aux[i]!);
+          freqs.push(frequency[i]!);
+        }
+        try {
+          supply.push({ ...base, ...supplySensitivity(volts, freqs), problem: null });
+        } catch (error) {
+          supply.push({ ...base, hzPerVolt: null, seHzPerVolt: null, n: volts.length, problem: `${problemText(error)} (each reading needs its supply voltage in aux)` });
+        }
+      } else {
+        const up: number[] = [];
+        const down: number[] = [];
+        for (let i = 0; i < frequency.length; i++) {
+          if (aux[i] === 0) up.push(frequency[i]!);
+          else if (aux[i] === 1) down.push(frequency[i]!);
+        }
+        try {
+          keying.push({ ...base, shift: keyingShift(up, down), problem: null });
+        } catch (error) {
+          keying.push({ ...base, shift: null, problem: `${problemText(error)} (readings need aux 0 with the key up and 1 with it down)` });
+        }
+      }
+    }
+    return { instrumentId, instrumentLabel: instrumentName, supplySensitivity: supply, keying };
+  }
+
+  private async metas(runIds: readonly number[]): Promise<RunMeta[]> {
+    const rows: Array<Record<string, unknown>> = await this.dataSource.query(
+      `SELECT r.id, r.kind, r.job_id, r.range_id, r.started_at, r.ended_at, r.configuration, r.notes, r.supply_voltage,
+              j.number AS job_number, j.instrument_id, g.label AS range_label, i.make, i.model, i.serial
+         FROM runs r JOIN jobs j ON j.id = r.job_id JOIN instrument_ranges g ON g.id = r.range_id JOIN instruments i ON i.id = j.instrument_id
+        WHERE r.id IN (?)`,
+      [runIds],
+    );
+    return rows.map((row) => ({
+      id: Number(row.id),
+      kind: row.kind as RunKind,
+      jobId: Number(row.job_id),
+      jobNumber: String(row.job_number),
+      instrumentId: Number(row.instrument_id),
+      instrumentLabel: instrumentLabel({ make: String(row.make), model: String(row.model), serial: String(row.serial) }),
+      rangeId: Number(row.range_id),
+      rangeLabel: String(row.range_label),
+      startedAt: new Date(row.started_at as string),
+      endedAt: row.ended_at === null ? null : new Date(row.ended_at as string),
+      configuration: (row.configuration as string | null) ?? null,
+      notes: (row.notes as string | null) ?? null,
+      supplyVoltage: row.supply_voltage === null ? null : Number(row.supply_voltage),
+    }));
+  }
+
+  private async prepare(meta: RunMeta, label: string, kind: ComparableRunKind, withinHz: number): Promise<Prepared> {
+    const counts = await this.loader.counts(meta.id);
+    const series = await this.loader.load(meta.id, counts.readingCount);
+    const { t, frequency } = includedByTime(series);
+    let fit: WarmupFit | null = null;
+    let fitProblem: string | null = null;
+    if (kind === 'warmup') {
+      try {
+        fit = fitWarmup(t, frequency);
+      } catch (error) {
+        fitProblem = problemText(error);
+      }
+    } else {
+      fitProblem = 'a stability run is not fitted with a warm-up curve';
+    }
+    let settledFrom: number | null = t.length > 0 ? t[0]! : null;
+    if (fit) {
+      const settling = settlingTime(fit, { kind: 'within_hz', hz: withinHz })!;
+      settledFrom = t.length > 0 && settling <= t[t.length - 1]! ? settling : null;
+    }
+    let settledIndex: number | null = null;
+    if (settledFrom !== null) {
+      settledIndex = 0;
+      while (settledIndex < t.length && t[settledIndex]! < settledFrom) settledIndex++;
+    }
+    return { meta, label, withinHz, readingCount: series.count, t, f: frequency, fit, fitProblem, settledIndex, settledFrom };
+  }
+
+  /** The default window: 600 s, or a third of the shortest settled part when that is under 30 min (whole seconds). */
+  private defaultWindow(prepared: readonly Prepared[]): number {
+    let shortest = Number.POSITIVE_INFINITY;
+    for (const p of prepared) {
+      if (p.settledIndex === null || p.settledIndex >= p.t.length) continue;
+      shortest = Math.min(shortest, p.t[p.t.length - 1]! - p.t[p.settledIndex]!);
+    }
+    if (!Number.isFinite(shortest) || shortest >= WINDOWS_WANTED * DEFAULT_COMPARISON_WINDOW_SECONDS) return DEFAULT_COMPARISON_WINDOW_SECONDS;
+    return Math.max(1, Math.floor(shortest / WINDOWS_WANTED));
+  }
+
+  private study(p: Prepared, kind: ComparableRunKind, windowSeconds: number): RunOutcome {
+    const estimates: RunOutcome['estimates'] = {};
+    const problems: RunOutcome['problems'] = {};
+    const { t, f, fit } = p;
+    const n = t.length;
+
+    if (fit) {
+      const df = fit.n - 3;
+      estimates.tau = interval({ value: fit.tau, se: fit.seTau, df });
+      estimates.amplitude = interval({ value: fit.amplitude, se: fit.seAmplitude, df });
+      estimates.fInf = interval({ value: fit.fInf, se: fit.seFInf, df });
+      try {
+        const settling = settlingTimeUncertainty(fit, warmupCovariance(t, fit), p.withinHz);
+        estimates.settlingTime = interval({ value: settling.seconds, se: settling.se, df: settling.df });
+      } catch (error) {
+        problems.settlingTime = problemText(error);
+      }
+    } else if (p.fitProblem) {
+      for (const q of ['tau', 'amplitude', 'fInf', 'settlingTime'] as const) problems[q] = p.fitProblem;
+    }
+
+    let driftWindows: DriftWindow[] = [];
+    let stability: ComparedRun['stability'] = null;
+    let stabilityProblem: string | null = null;
+    const notSettled = `the run does not settle within ${p.withinHz} Hz before its last reading`;
+    if (p.settledIndex === null || n - p.settledIndex < 3) {
+      const reason = p.settledIndex === null ? notSettled : 'fewer than 3 readings after settling';
+      problems.settledDriftRate = reason;
+      for (const q of ['adev1s', 'adev10s', 'adev100s'] as const) problems[q] = reason;
+      stabilityProblem = reason;
+    } else {
+      const ts = t.subarray(p.settledIndex);
+      const fs = f.subarray(p.settledIndex);
+      try {
+        driftWindows = driftRateWindows(ts, fs, windowSeconds);
+        if (driftWindows.length < 2) {
+          problems.settledDriftRate = `the settled part holds ${driftWindows.length} window of ${windowSeconds} s; a standard error needs two or more`;
+        } else {
+          const summary = summariseSample(driftWindows.map((w) => w.rateHzPerMin));
+          estimates.settledDriftRate = interval({ value: summary.mean, se: summary.sd / Math.sqrt(summary.n), df: summary.n - 1 });
+        }
+      } catch (error) {
+        problems.settledDriftRate = problemText(error);
+      }
+      try {
+        const tau0 = detectGaps(ts, 1).medianInterval;
+        if (!(tau0 > 0)) throw new MetrologyError('not_sorted', 'the settled readings share one time stamp, so they have no interval');
+        const gaps = detectGaps(ts, tau0);
+        let sum = 0;
+        for (let i = 0; i < fs.length; i++) sum += fs[i]!;
+        const referenceHz = sum / fs.length;
+        const y = fractionalFrequency(fs, referenceHz);
+        const options = { confidence: COMPARISON_CONFIDENCE };
+        stability = { tau0, fromSeconds: ts[0]!, referenceHz, gapCount: gaps.gaps.length, irregular: gaps.irregular, adev: overlappingAdev(y, tau0, options) };
+        const at = overlappingAdevAt(y, tau0, COMPARISON_ADEV_TAUS, options);
+        for (const quantity of ['adev1s', 'adev10s', 'adev100s'] as const) {
+          const tau = ADEV_QUANTITY_TAU[quantity]!;
+          const point = at[COMPARISON_ADEV_TAUS.indexOf(tau as (typeof COMPARISON_ADEV_TAUS)[number])];
+          if (!point) {
+            problems[quantity] = `the readings (every ${round(tau0)} s, ${round(ts[ts.length - 1]! - ts[0]!)} s settled) do not give τ = ${tau} s`;
+            continue;
+          }
+          estimates[quantity] = { ...adevEstimate(point), low: point.ciLow, high: point.ciHigh };
+        }
+      } catch (error) {
+        stabilityProblem = problemText(error);
+        for (const q of ['adev1s', 'adev10s', 'adev100s'] as const) problems[q] = stabilityProblem;
+      }
+    }
+
+    const reference: ComparedRun['reference'] = fit ? { kind: 'f_inf', hz: fit.fInf } : { kind: 'mean', hz: n > 0 ? mean(f) : 0 };
+    const curve = (x: ArrayLike<number>, y: ArrayLike<number>): ComparisonCurve => ({
+      t: Array.from(x),
+      frequency: Array.from(y),
+      deviation: Array.from(y, (v) => v - reference.hz),
+    });
+    const shown = n >= 3 ? downsampleLttb(t, f, MAX_SERIES_POINTS) : { x: Array.from(t), y: Array.from(f) };
+    let fitted: ComparisonCurve | null = null;
+    if (fit && n > 0) {
+      const last = t[n - 1]!;
+      const times = Array.from({ length: FITTED_POINTS }, (_, i) => (last * i) / (FITTED_POINTS - 1));
+      fitted = curve(times, times.map((time) => evaluateWarmup(fit, time)));
+    }
+    const meta = p.meta;
+    return {
+      estimates,
+      problems,
+      run: {
+        runId: meta.id,
+        label: p.label,
+        kind,
+        jobId: meta.jobId,
+        jobNumber: meta.jobNumber,
+        rangeId: meta.rangeId,
+        rangeLabel: meta.rangeLabel,
+        startedAt: meta.startedAt.toISOString(),
+        endedAt: meta.endedAt ? meta.endedAt.toISOString() : null,
+        configuration: meta.configuration,
+        notes: meta.notes,
+        supplyVoltage: meta.supplyVoltage,
+        readingCount: p.readingCount,
+        usedCount: n,
+        fit,
+        fitProblem: p.fitProblem,
+        reference,
+        points: curve(shown.x, shown.y),
+        fitted,
+        settledFromSeconds: p.settledFrom,
+        driftWindows,
+        stability,
+        stabilityProblem,
+      },
+    };
+  }
+
+  private rows(kind: ComparableRunKind, outcomes: readonly RunOutcome[], withinHz: number, windowSeconds: number): ComparisonRow[] {
+    return COMPARISON_ROWS.filter((row) => row.kinds.includes(kind)).map((definition) => {
+      const name = kind === 'stability' && definition.quantity === 'settledDriftRate' ? 'drift rate' : definition.name(withinHz);
+      const values = outcomes.map((o) => o.estimates[definition.quantity] ?? null);
+      const problems: Array<string | null> = outcomes.map((o) => o.problems[definition.quantity] ?? null);
+      const isAdev = definition.quantity in ADEV_QUANTITY_TAU;
+      const exponent = isAdev ? engineeringExponent(values.find((v) => v !== null)?.value ?? 0) : 0;
+      const scale = 10 ** -exponent;
+      const unitWords = isAdev ? powerOfTenText(exponent) : definition.unit;
+      const first = values[0];
+      const differences = values.map((value, i): ComparisonDifference | null => {
+        if (i === 0 || value === null || !first) return null;
+        try {
+          const diff = welchFromEstimates(first, value, COMPARISON_CONFIDENCE);
+          const shown = isAdev ? { difference: diff.difference * scale, low: diff.low * scale, high: diff.high * scale, confidence: diff.confidence } : diff;
+          return { ...diff, sentence: describeDifference(outcomes[i]!.run.label, name, unitWords, shown) };
+        } catch (error) {
+          problems[i] ??= problemText(error);
+          return null;
+        }
+      });
+      if (!first) for (let i = 1; i < values.length; i++) if (values[i] !== null) problems[i] ??= `no difference: ${outcomes[0]!.run.label} has no ${name}`;
+      return { quantity: definition.quantity, name, unit: definition.unit, method: definition.method(windowSeconds), values, differences, problems };
+    });
+  }
+}
+
+function mean(values: ArrayLike<number>): number {
+  let sum = 0;
+  for (let i = 0; i < values.length; i++) sum += values[i]!;
+  return sum / values.length;
+}
+
+function round(value: number): number {
+  return Math.round(value * 1000) / 1000;
+}

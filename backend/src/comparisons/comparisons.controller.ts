@@ -1,0 +1,81 @@
+import { Body, Controller, Delete, Get, HttpCode, Param, ParseIntPipe, Patch, Post, Query, Res } from '@nestjs/common';
+import { ApiBearerAuth, ApiProduces, ApiTags } from '@nestjs/swagger';
+import type { Response } from 'express';
+import type { ComparisonResult, InstrumentSensitivity, ListResponse, SavedComparison } from '@kilocycle/common/types';
+import type { AuthUser } from '../auth/auth-user.js';
+import { CurrentUser, Roles } from '../auth/decorators.js';
+import { attachmentDisposition } from '../exports/csv.js';
+import { comparisonCsv } from './comparison-csv.js';
+import { ComparisonsService } from './comparisons.service.js';
+import { ComputeComparisonDto, CreateComparisonDto, ListComparisonsQueryDto, UpdateComparisonDto } from './dto/comparison.dto.js';
+
+const LAB = ['admin', 'lead', 'technician', 'engineer'] as const;
+const WRITERS = ['lead', 'engineer'] as const;
+
+@ApiTags('comparisons')
+@ApiBearerAuth()
+@Roles(...LAB)
+@Controller()
+export class ComparisonsController {
+  constructor(private readonly comparisons: ComparisonsService) {}
+
+  /** The comparison of 2–6 warm-up or stability runs of one instrument, computed now (nothing saved). */
+  @HttpCode(200)
+  @Post('comparisons/compute')
+  compute(@Body() body: ComputeComparisonDto): Promise<ComparisonResult> {
+    return this.comparisons.compute(body);
+  }
+
+  @Get('comparisons')
+  list(@Query() query: ListComparisonsQueryDto): Promise<ListResponse<SavedComparison>> {
+    return this.comparisons.list(query);
+  }
+
+  @Roles(...WRITERS)
+  @Post('comparisons')
+  create(@CurrentUser() user: AuthUser, @Body() body: CreateComparisonDto): Promise<SavedComparison> {
+    return this.comparisons.create(user, body);
+  }
+
+  @Get('comparisons/:id')
+  get(@Param('id', ParseIntPipe) id: number): Promise<SavedComparison> {
+    return this.comparisons.get(id);
+  }
+
+  /** A saved comparison computed now from its runs, labels and options. */
+  @Get('comparisons/:id/result')
+  async result(@Param('id', ParseIntPipe) id: number): Promise<ComparisonResult> {
+    return (await this.comparisons.result(id)).result;
+  }
+
+  /** The comparison table as CSV (see COMPARISON_CSV_COLUMNS). */
+  @ApiProduces('text/csv')
+  @Get('comparisons/:id/export.csv')
+  async exportCsv(@Param('id', ParseIntPipe) id: number, @Res() res: Response): Promise<void> {
+    const { saved, result } = await this.comparisons.result(id);
+    const slug = saved.title.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'comparison';
+    res.setHeader('Content-Type', 'text/csv; charset=utf-8');
+    res.setHeader('Content-Disposition', attachmentDisposition(`comparison-${id}-${slug}.csv`));
+    res.setHeader('Cache-Control', 'private, no-store');
+    res.send(comparisonCsv(result));
+  }
+
+  @Roles(...WRITERS)
+  @Patch('comparisons/:id')
+  update(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Body() body: UpdateComparisonDto): Promise<SavedComparison> {
+    return this.comparisons.update(user, id, body);
+  }
+
+  @Roles(...WRITERS)
+  @HttpCode(204)
+  @Delete('comparisons/:id')
+  remove(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number): Promise<void> {
+    return this.comparisons.remove(user, id);
+  }
+
+  /** Supply sensitivity (Hz/V) and keying shift from the instrument's supply_sensitivity and keying runs. */
+  @Get('instruments/:id/sensitivity')
+  sensitivity(@Param('id', ParseIntPipe) id: number): Promise<InstrumentSensitivity> {
+    return this.comparisons.sensitivity(id);
+  }
+}

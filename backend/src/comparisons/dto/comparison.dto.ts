@@ -1,0 +1,54 @@
+import { OmitType, PartialType } from '@nestjs/mapped-types';
+import { Type } from 'class-transformer';
+import { ArrayMaxSize, ArrayMinSize, ArrayUnique, IsArray, IsInt, IsNotEmpty, IsNumber, IsOptional, IsString, Max, MaxLength, Min, ValidateIf } from 'class-validator';
+import {
+  MAX_COMPARED_RUNS,
+  MIN_COMPARED_RUNS,
+  type ComputeComparisonRequest,
+  type CreateComparisonRequest,
+  type ListComparisonsQuery,
+  type UpdateComparisonRequest,
+} from '@kilocycle/common/types';
+import { Trim } from '../../shared/dto-helpers.js';
+import { ListQueryDto } from '../../shared/list-query.dto.js';
+
+const finite = { allowNaN: false, allowInfinity: false } as const;
+
+export class ComputeComparisonDto implements ComputeComparisonRequest {
+  @IsArray() @ArrayMinSize(MIN_COMPARED_RUNS, { message: `runIds must list ${MIN_COMPARED_RUNS} to ${MAX_COMPARED_RUNS} runs` })
+  @ArrayMaxSize(MAX_COMPARED_RUNS, { message: `runIds must list ${MIN_COMPARED_RUNS} to ${MAX_COMPARED_RUNS} runs` })
+  @ArrayUnique({ message: 'runIds: each run may appear only once' })
+  @IsInt({ each: true, message: 'runIds must be whole numbers' }) @Min(1, { each: true })
+  runIds: number[];
+
+  /** One per run, in the same order ("before: original regulator"); empty ones become "run <id>". */
+  @IsOptional() @IsArray() @IsString({ each: true }) @MaxLength(120, { each: true })
+  labels?: string[];
+
+  @IsOptional() @IsNumber(finite, { message: 'withinHz must be a number of hertz' }) @Min(0.000001) @Max(1e9)
+  withinHz?: number;
+
+  @IsOptional() @IsNumber(finite, { message: 'windowSeconds must be a number of seconds' }) @Min(1) @Max(31 * 86400)
+  windowSeconds?: number;
+}
+
+export class CreateComparisonDto extends ComputeComparisonDto implements CreateComparisonRequest {
+  @IsString() @Trim() @IsNotEmpty({ message: 'title must not be empty' }) @MaxLength(200)
+  title: string;
+
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
+  notes?: string | null;
+}
+
+export class UpdateComparisonDto extends PartialType(OmitType(CreateComparisonDto, ['withinHz', 'windowSeconds'] as const)) implements UpdateComparisonRequest {
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsNumber(finite, { message: 'withinHz must be a number of hertz' }) @Min(0.000001) @Max(1e9)
+  withinHz?: number | null;
+
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsNumber(finite, { message: 'windowSeconds must be a number of seconds' }) @Min(1) @Max(31 * 86400)
+  windowSeconds?: number | null;
+}
+
+export class ListComparisonsQueryDto extends ListQueryDto implements ListComparisonsQuery {
+  @IsOptional() @Type(() => Number) @IsInt({ message: 'instrumentId must be a whole number' }) @Min(1)
+  instrumentId?: number;
+}
