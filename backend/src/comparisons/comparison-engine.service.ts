@@ -3,6 +3,7 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import type { DataSource } from 'typeorm';
 import {
   adevEstimate,
+  coverageFactor,
   describeDifference,
   detectGaps,
   downsampleLttb,
@@ -47,7 +48,6 @@ import {
   type RunKind,
   type SupplySensitivityEntry,
 } from '@kilocycle/common/types';
-import jstat from 'jstat';
 import { includedByTime, RunSeriesLoader } from '../analysis/run-series.loader.js';
 import { instrumentLabel } from '../instruments/instruments.service.js';
 import { ADEV_QUANTITY_TAU, COMPARISON_ROWS, engineeringExponent, powerOfTenText } from './comparison-rows.js';
@@ -98,9 +98,9 @@ function problemText(error: unknown): string {
   throw error;
 }
 
-/** Two-sided Student-t interval of an estimate. */
+/** Two-sided Student-t interval of an estimate (t from common's coverageFactor). */
 function interval(estimate: Estimate, confidence = COMPARISON_CONFIDENCE): ComparisonEstimate {
-  const t = jstat.studentt.inv(1 - (1 - confidence) / 2, estimate.df);
+  const t = coverageFactor(estimate.df, confidence);
   return { ...estimate, low: estimate.value - t * estimate.se, high: estimate.value + t * estimate.se };
 }
 
