@@ -2,6 +2,7 @@
 // Usage: npm run build -w common && npm run build -w backend && node backend/scripts/bench-lists.mjs
 // It empties and fills its own database (KC_DB_NAME, default kilocycle_bench_lists), starts the built
 // server on BENCH_PORT (default 5183) against it, times requests over HTTP on loopback and stops the server.
+// BENCH_DIST points at another build of the backend (e.g. one compiled with --outDir var/bench-dist).
 import { spawn } from 'node:child_process';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -12,7 +13,7 @@ const INSTRUMENTS = Number(process.env.BENCH_INSTRUMENTS ?? 10_000);
 const READINGS = Number(process.env.BENCH_READINGS ?? 100_000);
 const REPEAT = Number(process.env.BENCH_REPEAT ?? 20);
 const here = dirname(fileURLToPath(import.meta.url));
-const dist = join(here, '..', 'dist');
+const dist = process.env.BENCH_DIST ?? join(here, '..', 'dist');
 
 const { createDataSource } = await import(join(dist, 'database/create-data-source.js'));
 const { seedDemo, DEMO_PASSWORD } = await import(join(dist, 'seed/demo-seed.js'));
