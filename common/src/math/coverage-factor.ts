@@ -15,6 +15,12 @@ export const COVERAGE_95_45 = 0.9544997361036416;
  * who want the table's truncation pass Math.floor(ν)). For ν = ∞ the normal quantile,
  * and exactly 2 at the default p.
  *
+ * Above ν = 1000 jstat's inverse t loses accuracy (about 1e-7 off at ν = 10⁴; it drifts
+ * away from 2 and reaches 0 by ν ≈ 10²⁰), so there the expansion of the t quantile about
+ * the normal quantile z is used (Abramowitz & Stegun 26.7.5):
+ * t ≈ z + (z³ + z)/(4ν) + (5z⁵ + 16z³ + 3z)/(96ν²) + (3z⁷ + 19z⁵ + 17z³ − 15z)/(384ν³);
+ * the next term is below 1e-12 for ν > 1000.
+ *
  * @param nu degrees of freedom, > 0 (Infinity allowed)
  * @param p coverage probability, 0 < p < 1; default 2Φ(2) − 1 ("95.45 %")
  * @returns k
@@ -29,5 +35,17 @@ export function coverageFactor(nu: number, p: number = COVERAGE_95_45): number {
   if (nu === Number.POSITIVE_INFINITY) {
     return p === COVERAGE_95_45 ? 2 : jstat.normal.inv(upper, 0, 1);
   }
+  if (nu > LARGE_DOF) {
+    const z = p === COVERAGE_95_45 ? 2 : jstat.normal.inv(upper, 0, 1);
+    return (
+      z +
+      (z ** 3 + z) / (4 * nu) +
+      (5 * z ** 5 + 16 * z ** 3 + 3 * z) / (96 * nu ** 2) +
+      (3 * z ** 7 + 19 * z ** 5 + 17 * z ** 3 - 15 * z) / (384 * nu ** 3)
+    );
+  }
   return jstat.studentt.inv(upper, nu);
 }
+
+/** Degrees of freedom above which {@link coverageFactor} uses the series instead of jstat's inverse t. */
+export const LARGE_DOF = 1000;

@@ -1,3 +1,4 @@
+import jstat from 'jstat';
 // Uncertainty: GUM (JCGM 100:2008) Table G.2 t-factors (as NIST TN 1297 Table B.1), the
 // Welch–Satterthwaite worked example (GUM G.4.1), closed forms for the budget.
 import fc from 'fast-check';
@@ -45,6 +46,20 @@ describe('coverageFactor()', () => {
 
   test('k = 2 exactly at ν = ∞ for 95.45 % (GUM Table G.2 gives 2.00)', () => {
     expect(coverageFactor(Number.POSITIVE_INFINITY)).toBe(2);
+  });
+
+  test('large ν: k tends to 2 monotonically and never collapses (normal limit of Student t)', () => {
+    // t_p(ν) decreases to the normal quantile as ν grows (a property of Student's t); for 95.45 % the limit is 2.
+    const nus = [100, 1000, 1001, 1e4, 1e6, 1e8, 1e12, 1e20, 1e300];
+    const ks = nus.map((nu) => coverageFactor(nu));
+    for (let i = 1; i < ks.length; i += 1) expect(ks[i]).toBeLessThanOrEqual(ks[i - 1]);
+    for (const k of ks) expect(k).toBeGreaterThanOrEqual(2);
+    expect(Math.abs(coverageFactor(1e8) - 2)).toBeLessThan(1e-7);
+    expect(coverageFactor(1e300)).toBe(2);
+    // Where the series takes over it agrees with jstat's inverse t (an independent library, itself
+    // good to about 1e-7 there: measured 7.5e-8 at ν = 1000).
+    const u = 1 - (1 - COVERAGE_95_45) / 2;
+    expect(Math.abs(coverageFactor(1001) - jstat.studentt.inv(u, 1001))).toBeLessThan(2e-7);
   });
 
   test('closed forms of Student t: ν = 1 (Cauchy) t = tan(π(u − ½)); ν = 2 t = (2u − 1)/√(2u(1 − u))', () => {
