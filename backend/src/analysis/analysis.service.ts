@@ -131,21 +131,20 @@ export class AnalysisService {
   /** alignLC from the measured points at the two range ends, with a mid-range point when there is one. */
   private alignment(range: InstrumentRange, points: CalibrationPoint[], tuningCapLowPf: number | undefined): { alignment: RunAlignment | null; note: string | null } {
     if (points.length < 2) return { alignment: null, note: 'measure both ends of the range to get the alignment' };
-    const span = range.dialMax - range.dialMin;
-    const nominalAtMin = dialToNominal(range.dialLaw, range.dialMin);
-    const nominalAtMax = dialToNominal(range.dialLaw, range.dialMax);
-    const lowEndDial = nominalAtMin <= nominalAtMax ? range.dialMin : range.dialMax;
-    const highEndDial = lowEndDial === range.dialMin ? range.dialMax : range.dialMin;
-    const byNominal = [...points].sort((a, b) => a.nominal - b.nominal);
-    const low = byNominal[0]!;
-    const high = byNominal[byNominal.length - 1]!;
-    if (Math.abs(low.dial - lowEndDial) > END_COVERAGE * span || Math.abs(high.dial - highEndDial) > END_COVERAGE * span) {
-      return { alignment: null, note: `the alignment needs settings at both ends of the range (dial ${lowEndDial} and ${highEndDial})` };
-    }
-    const middleTarget = (low.nominal + high.nominal) / 2;
-    const inner = byNominal.slice(1, -1);
-    const mid = inner.length === 0 ? null : inner.reduce((best, p) => (Math.abs(p.nominal - middleTarget) < Math.abs(best.nominal - middleTarget) ? p : best));
     try {
+      const span = range.dialMax - range.dialMin;
+      // Which dial end is the low-frequency one depends on the law (a table may run backwards).
+      const lowEndDial = dialToNominal(range.dialLaw, range.dialMin) <= dialToNominal(range.dialLaw, range.dialMax) ? range.dialMin : range.dialMax;
+      const highEndDial = lowEndDial === range.dialMin ? range.dialMax : range.dialMin;
+      const byNominal = [...points].sort((a, b) => a.nominal - b.nominal);
+      const low = byNominal[0]!;
+      const high = byNominal[byNominal.length - 1]!;
+      if (Math.abs(low.dial - lowEndDial) > END_COVERAGE * span || Math.abs(high.dial - highEndDial) > END_COVERAGE * span) {
+        return { alignment: null, note: `the alignment needs settings at both ends of the range (dial ${lowEndDial} and ${highEndDial})` };
+      }
+      const middleTarget = (low.nominal + high.nominal) / 2;
+      const inner = byNominal.slice(1, -1);
+      const mid = inner.length === 0 ? null : inner.reduce((best, p) => (Math.abs(p.nominal - middleTarget) < Math.abs(best.nominal - middleTarget) ? p : best));
       const result = alignLC({
         lowMeasured: low.measured,
         lowTarget: low.nominal,

@@ -4,6 +4,7 @@ import { FullPageSpinner } from '@/components/ui/full-page-spinner';
 import { rolesFor } from '@/config/navigation';
 import { paths } from '@/config/paths';
 import { RequireRole } from '@/lib/auth';
+import { LAB_ROLES } from '@kilocycle/common/types';
 import { setNavigator } from '@/lib/navigator';
 import { AppRoot } from './routes/app-root';
 import { RouteError } from './routes/route-error';
@@ -13,11 +14,28 @@ const OverviewRoute = lazy(() => import('./routes/overview'));
 const UsersRoute = lazy(() => import('./routes/admin/users'));
 const OrganisationsRoute = lazy(() => import('./routes/admin/organisations'));
 const NotFoundRoute = lazy(() => import('./routes/not-found'));
+const ReviewQueueRoute = lazy(() => import('./routes/reviews/queue'));
+const ReviewRoute = lazy(() => import('./routes/reviews/review'));
+const ProceduresRoute = lazy(() => import('./routes/procedures'));
+const CertificatesRoute = lazy(() => import('./routes/certificates'));
+const OutboxRoute = lazy(() => import('./routes/admin/outbox'));
+const OutboxMessageRoute = lazy(() => import('./routes/admin/outbox-message'));
+const VerifyLookupRoute = lazy(() => import('./routes/verify/lookup'));
+const VerifyCertificateRoute = lazy(() => import('./routes/verify/certificate'));
 
 /** A page reached from the navigation, open only to the roles its navigation entry lists. */
 function guarded(path: string, Page: LazyExoticComponent<ComponentType>) {
   return (
     <RequireRole roles={rolesFor(path)}>
+      <Page />
+    </RequireRole>
+  );
+}
+
+/** A page lab staff reach from a link rather than the navigation (a job's review, say). */
+function labOnly(Page: LazyExoticComponent<ComponentType>) {
+  return (
+    <RequireRole roles={LAB_ROLES}>
       <Page />
     </RequireRole>
   );
@@ -33,6 +51,9 @@ function standalone(Page: LazyExoticComponent<ComponentType>) {
 
 const routes: RouteObject[] = [
   { path: paths.signIn, element: standalone(SignInRoute), errorElement: <RouteError /> },
+  // Public: anyone holding a certificate may check it, signed in or not.
+  { path: paths.verify, element: standalone(VerifyLookupRoute), errorElement: <RouteError /> },
+  { path: paths.verifyCertificate, element: standalone(VerifyCertificateRoute), errorElement: <RouteError /> },
   {
     path: paths.home,
     element: <AppRoot />,
@@ -44,6 +65,12 @@ const routes: RouteObject[] = [
           { index: true, element: <OverviewRoute /> },
           { path: paths.adminUsers, element: guarded(paths.adminUsers, UsersRoute) },
           { path: paths.adminOrganisations, element: guarded(paths.adminOrganisations, OrganisationsRoute) },
+          { path: paths.reviews, element: guarded(paths.reviews, ReviewQueueRoute) },
+          { path: paths.review, element: labOnly(ReviewRoute) },
+          { path: paths.procedures, element: guarded(paths.procedures, ProceduresRoute) },
+          { path: paths.certificates, element: guarded(paths.certificates, CertificatesRoute) },
+          { path: paths.adminOutbox, element: guarded(paths.adminOutbox, OutboxRoute) },
+          { path: paths.adminOutboxMessage, element: guarded(paths.adminOutbox, OutboxMessageRoute) },
         ],
       },
     ],

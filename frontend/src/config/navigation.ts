@@ -1,5 +1,9 @@
 import BusinessOutlined from '@mui/icons-material/BusinessOutlined';
+import OutboxOutlined from '@mui/icons-material/OutboxOutlined';
 import PeopleOutlined from '@mui/icons-material/PeopleOutlined';
+import RateReviewOutlined from '@mui/icons-material/RateReviewOutlined';
+import RuleOutlined from '@mui/icons-material/RuleOutlined';
+import WorkspacePremiumOutlined from '@mui/icons-material/WorkspacePremiumOutlined';
 import SpaceDashboardOutlined from '@mui/icons-material/SpaceDashboardOutlined';
 import type SvgIcon from '@mui/material/SvgIcon';
 import { ROLES, type Role } from '@kilocycle/common/types';
@@ -15,6 +19,10 @@ export type NavItem = {
 // The single list of pages in the side navigation. The router guards each page with the same roles.
 export const NAV_ITEMS: readonly NavItem[] = [
   { label: 'Overview', path: paths.home, icon: SpaceDashboardOutlined, roles: ROLES },
+  { label: 'Review', path: paths.reviews, icon: RateReviewOutlined, roles: ['lead'] },
+  { label: 'Certificates', path: paths.certificates, icon: WorkspacePremiumOutlined, roles: ROLES },
+  { label: 'Procedures', path: paths.procedures, icon: RuleOutlined, roles: ['lead'] },
+  { label: 'Outbox', path: paths.adminOutbox, icon: OutboxOutlined, roles: ['admin'] },
   { label: 'Users', path: paths.adminUsers, icon: PeopleOutlined, roles: ['admin'] },
   { label: 'Organisations', path: paths.adminOrganisations, icon: BusinessOutlined, roles: ['admin'] },
 ];

@@ -11,12 +11,29 @@ export const paths = {
   run: '/runs/:runId',
   standards: '/standards',
   benches: '/benches',
+  adminOutbox: '/admin/outbox',
+  adminOutboxMessage: '/admin/outbox/:messageId',
+  reviews: '/reviews',
+  review: '/reviews/:jobId',
+  procedures: '/procedures',
+  certificates: '/certificates',
+  verify: '/verify',
+  verifyCertificate: '/verify/:number',
+  comparisons: '/comparisons',
+  comparison: '/comparisons/:comparisonId',
+  runImport: '/runs/:runId/import',
 } as const;
 
 export const jobPath = (id: number) => `/jobs/${id}`;
 export const instrumentPath = (id: number) => `/instruments/${id}`;
 export const bandPlanPath = (instrumentId: number) => `/instruments/${instrumentId}/band-plan`;
 export const runPath = (id: number) => `/runs/${id}`;
+export const reviewPath = (jobId: number) => `/reviews/${jobId}`;
+export const verifyPath = (number: string) => `/verify/${encodeURIComponent(number)}`;
+export const outboxMessagePath = (id: number) => `/admin/outbox/${id}`;
+/** A saved comparison by id, or `new` for one being put together. */
+export const comparisonPath = (id: number | 'new') => `/comparisons/${id}`;
+export const runImportPath = (runId: number) => `/runs/${runId}/import`;
 
 export function signInPath(next?: string) {
   return next && next !== paths.home ? `${paths.signIn}?next=${encodeURIComponent(next)}` : paths.signIn;

@@ -6,17 +6,23 @@ const labels = (role: Parameters<typeof navItemsFor>[0]) => navItemsFor(role).ma
 
 describe('navigation', () => {
   it('shows an administrator the overview and both admin pages', () => {
-    expect(labels('admin')).toEqual(['Overview', 'Users', 'Organisations']);
+    expect(labels('admin')).toEqual(['Overview', 'Certificates', 'Outbox', 'Users', 'Organisations']);
   });
 
-  it('shows a client only the overview', () => {
-    expect(labels('client')).toEqual(['Overview']);
+  it('shows a client the overview and its certificates', () => {
+    expect(labels('client')).toEqual(['Overview', 'Certificates']);
     expect(labels('client')).not.toContain('Users');
     expect(labels('client')).not.toContain('Organisations');
   });
 
   it.each(['lead', 'technician', 'engineer'] as const)('keeps the admin pages from a %s', (role) => {
-    expect(labels(role)).toEqual(['Overview']);
+    expect(labels(role)).not.toContain('Users');
+    expect(labels(role)).not.toContain('Outbox');
+  });
+
+  it('gives the review queue and the procedures to the lead alone', () => {
+    expect(labels('lead')).toEqual(['Overview', 'Review', 'Certificates', 'Procedures']);
+    expect(labels('technician')).toEqual(['Overview', 'Certificates']);
   });
 
   it('gives every role the overview and every entry a unique path', () => {

@@ -1,0 +1,18 @@
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import type { Certificate, ListCertificatesQuery, ListResponse } from '@kilocycle/common/types';
+import { api } from '@/lib/api-client';
+
+/** The server scopes the list: a client gets its own organisation's certificates only. */
+export function getCertificates(query: ListCertificatesQuery = {}): Promise<ListResponse<Certificate>> {
+  return api.get<ListResponse<Certificate>>('/certificates', { params: query });
+}
+
+export const getCertificatesQueryOptions = (query?: ListCertificatesQuery) =>
+  queryOptions({
+    queryKey: query ? ['certificates', 'list', query] : ['certificates'],
+    queryFn: () => getCertificates(query),
+  });
+
+export function useCertificates({ query }: { query: ListCertificatesQuery }) {
+  return useQuery({ ...getCertificatesQueryOptions(query), placeholderData: keepPreviousData });
+}

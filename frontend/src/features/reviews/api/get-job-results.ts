@@ -1,0 +1,17 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { JobResults } from '@kilocycle/common/types';
+import { api } from '@/lib/api-client';
+
+export function getJobResults(jobId: number): Promise<JobResults> {
+  return api.get<JobResults>(`/jobs/${jobId}/results`);
+}
+
+export const getJobResultsQueryOptions = (jobId: number) =>
+  queryOptions({
+    queryKey: ['reviews', 'results', jobId],
+    queryFn: () => getJobResults(jobId),
+  });
+
+export function useJobResults(jobId: number) {
+  return useQuery({ ...getJobResultsQueryOptions(jobId), enabled: Number.isInteger(jobId) && jobId > 0 });
+}

@@ -1,0 +1,31 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { SIGNING_MEANING, type CertificateDetail } from '@kilocycle/common/types';
+import { api } from '@/lib/api-client';
+import { invalidateJobEverywhere } from './invalidate-job';
+
+export type SignJobInput = { jobId: number; password: string };
+
+/**
+ * Signs with the lead's password typed again. A refused password must not end the session, so neither 401
+ * nor 403 is treated as an expired sign-in here: the dialog shows the server's message and stays open.
+ */
+export function signJob({ jobId, password }: SignJobInput): Promise<CertificateDetail> {
+  return api.post<CertificateDetail>(
+    `/jobs/${jobId}/sign`,
+    { password, meaning: SIGNING_MEANING },
+    { notify: false, handleUnauthorized: false },
+  );
+}
+
+export function useSignJob({ onSuccess }: { onSuccess?: (certificate: CertificateDetail) => void } = {}) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: signJob,
+    onSuccess: async (certificate, { jobId }) => {
+      await invalidateJobEverywhere(queryClient, jobId);
+      // The certificate lists (another feature's cache) start with the same key.
+      await queryClient.invalidateQueries({ queryKey: ['certificates'] });
+      onSuccess?.(certificate);
+    },
+  });
+}

@@ -1,0 +1,120 @@
+import AddOutlined from '@mui/icons-material/AddOutlined';
+import DeleteOutlined from '@mui/icons-material/DeleteOutlined';
+import Box from '@mui/material/Box';
+import Button from '@mui/material/Button';
+import IconButton from '@mui/material/IconButton';
+import MenuItem from '@mui/material/MenuItem';
+import TextField from '@mui/material/TextField';
+import Typography from '@mui/material/Typography';
+import { COMPONENT_DISTRIBUTIONS, type ComponentDistribution, type ExtraComponent } from '@kilocycle/common/types';
+
+export type ExtraComponentDraft = {
+  name: string;
+  distribution: ComponentDistribution;
+  value: string;
+  unit: 'Hz' | 'ppm';
+  divisor: string;
+  dof: string;
+};
+
+const DISTRIBUTION_LABELS: Record<ComponentDistribution, string> = {
+  normal: 'Normal (quoted U with its k)',
+  rectangular: 'Rectangular (half-width)',
+  triangular: 'Triangular (half-width)',
+  u_shaped: 'U-shaped (half-width)',
+};
+
+export function toDrafts(components: readonly ExtraComponent[]): ExtraComponentDraft[] {
+  return components.map((c) => ({
+    name: c.name,
+    distribution: c.distribution,
+    value: String(c.value),
+    unit: c.unit,
+    divisor: c.divisor === undefined ? '' : String(c.divisor),
+    dof: c.dof === undefined || c.dof === null ? '' : String(c.dof),
+  }));
+}
+
+/** The drafts as the API takes them, or the first problem found. */
+export function fromDrafts(drafts: readonly ExtraComponentDraft[]): { components: ExtraComponent[] } | { problem: string } {
+  const components: ExtraComponent[] = [];
+  for (const [index, d] of drafts.entries()) {
+    const where = `Extra component ${index + 1}`;
+    if (!d.name.trim()) return { problem: `${where}: give it a name` };
+    const value = Number(d.value);
+    if (d.value.trim() === '' || !Number.isFinite(value) || value < 0) return { problem: `${where}: the value must be a number of zero or more` };
+    const component: ExtraComponent = { name: d.name.trim(), distribution: d.distribution, value, unit: d.unit };
+    if (d.distribution === 'normal' && d.divisor.trim() !== '') {
+      const divisor = Number(d.divisor);
+      if (!Number.isFinite(divisor) || divisor < 0.001) return { problem: `${where}: the coverage factor must be a positive number` };
+      component.divisor = divisor;
+    }
+    if (d.dof.trim() !== '') {
+      const dof = Number(d.dof);
+      if (!Number.isFinite(dof) || dof < 1) return { problem: `${where}: degrees of freedom must be 1 or more (leave empty for infinite)` };
+      component.dof = dof;
+    }
+    components.push(component);
+  }
+  return { components };
+}
+
+const EMPTY: ExtraComponentDraft = { name: '', distribution: 'rectangular', value: '', unit: 'Hz', divisor: '', dof: '' };
+
+type ExtraComponentsEditorProps = { value: ExtraComponentDraft[]; onChange: (value: ExtraComponentDraft[]) => void; disabled?: boolean };
+
+/** Budget lines beyond the standard six (cabling, loading…), each with its distribution and size. */
+export function ExtraComponentsEditor({ value, onChange, disabled }: ExtraComponentsEditorProps) {
+  const set = (index: number, changes: Partial<ExtraComponentDraft>) =>
+    onChange(value.map((d, i) => (i === index ? { ...d, ...changes } : d)));
+  return (
+    <Box>
+      {value.length === 0 && (
+        <Typography variant="body2" color="text.secondary" sx={{ mb: 1 }}>
+          No extra components.
+        </Typography>
+      )}
+      {value.map((d, index) => (
+        <Box
+          key={index}
+          sx={{ display: 'grid', gridTemplateColumns: { xs: '1fr', sm: '2fr 1.6fr 0.9fr 0.8fr 0.8fr 0.7fr auto' }, gap: 1, mb: 1, alignItems: 'start' }}
+        >
+          <TextField label="Component" value={d.name} onChange={(e) => set(index, { name: e.target.value })} disabled={disabled} />
+          <TextField
+            select
+            label="Distribution"
+            value={d.distribution}
+            onChange={(e) => set(index, { distribution: e.target.value as ComponentDistribution })}
+            disabled={disabled}
+          >
+            {COMPONENT_DISTRIBUTIONS.map((dist) => (
+              <MenuItem key={dist} value={dist}>
+                {DISTRIBUTION_LABELS[dist]}
+              </MenuItem>
+            ))}
+          </TextField>
+          <TextField label="Value" inputMode="decimal" value={d.value} onChange={(e) => set(index, { value: e.target.value })} disabled={disabled} />
+          <TextField select label="Unit" value={d.unit} onChange={(e) => set(index, { unit: e.target.value as 'Hz' | 'ppm' })} disabled={disabled}>
+            <MenuItem value="Hz">Hz</MenuItem>
+            <MenuItem value="ppm">ppm</MenuItem>
+          </TextField>
+          <TextField
+            label="k"
+            inputMode="decimal"
+            placeholder="1"
+            value={d.divisor}
+            onChange={(e) => set(index, { divisor: e.target.value })}
+            disabled={disabled || d.distribution !== 'normal'}
+          />
+          <TextField label="ν" inputMode="numeric" placeholder="∞" value={d.dof} onChange={(e) => set(index, { dof: e.target.value })} disabled={disabled} />
+          <IconButton aria-label={`Remove extra component ${index + 1}`} onClick={() => onChange(value.filter((_, i) => i !== index))} disabled={disabled}>
+            <DeleteOutlined fontSize="small" />
+          </IconButton>
+        </Box>
+      ))}
+      <Button size="small" startIcon={<AddOutlined />} onClick={() => onChange([...value, { ...EMPTY }])} disabled={disabled}>
+        Add a component
+      </Button>
+    </Box>
+  );
+}

@@ -1,0 +1,69 @@
+import Link from '@mui/material/Link';
+import Paper from '@mui/material/Paper';
+import { DataGrid, type GridColDef } from '@mui/x-data-grid';
+import { useMemo } from 'react';
+import { Link as RouterLink } from 'react-router-dom';
+import type { Job } from '@kilocycle/common/types';
+import { Num } from '@/components/ui/num';
+import { SearchField } from '@/components/ui/search-field';
+import { useListSearchParams } from '@/hooks/use-list-search-params';
+import { fromPaginationModel, fromSortParam, PAGE_SIZE_OPTIONS, toPaginationModel, toSortParam } from '@/lib/data-grid';
+import { formatDate, formatDateTime } from '@/utils/format';
+import { useReviewQueue } from '../api/get-review-queue';
+
+const SORT_FIELDS = ['number', 'receivedDate', 'updatedAt', 'organizationName', 'instrumentLabel'];
+
+/** Jobs waiting for the lead, the longest-waiting first. */
+export function ReviewQueue({ reviewPath }: { reviewPath: (jobId: number) => string }) {
+  const list = useListSearchParams({ pageSize: 25, sort: 'updatedAt', sortFields: SORT_FIELDS });
+  const queue = useReviewQueue({ query: { page: list.page, pageSize: list.pageSize, sort: list.sort || undefined, q: list.q || undefined } });
+
+  const columns = useMemo<GridColDef<Job>[]>(
+    () => [
+      {
+        field: 'number',
+        headerName: 'Job',
+        width: 130,
+        renderCell: ({ row }) => (
+          <Link component={RouterLink} to={reviewPath(row.id)} aria-label={`Review job ${row.number}`}>
+            <Num>{row.number}</Num>
+          </Link>
+        ),
+      },
+      { field: 'instrumentLabel', headerName: 'Instrument', flex: 1.4, minWidth: 220 },
+      { field: 'organizationName', headerName: 'Customer', flex: 1, minWidth: 160 },
+      { field: 'technicianName', headerName: 'Technician', width: 150, sortable: false, valueFormatter: (v: string | null) => v ?? '—' },
+      { field: 'runCount', headerName: 'Runs', width: 70, sortable: false, align: 'right', headerAlign: 'right' },
+      { field: 'receivedDate', headerName: 'Received', width: 110, renderCell: ({ row }) => <Num>{formatDate(row.receivedDate)}</Num> },
+      { field: 'updatedAt', headerName: 'Submitted', width: 150, renderCell: ({ row }) => <Num>{formatDateTime(row.updatedAt)}</Num> },
+    ],
+    [reviewPath],
+  );
+
+  return (
+    <>
+      <SearchField label="Search" placeholder="Job, instrument or customer" value={list.q} onChange={(q) => list.update({ q })} />
+      <Paper variant="outlined" sx={{ mt: 1.5, height: 'calc(100vh - 240px)', minHeight: 320 }}>
+        <DataGrid
+          aria-label="Jobs waiting for review"
+          rows={queue.data?.items ?? []}
+          rowCount={queue.data?.total ?? 0}
+          columns={columns}
+          loading={queue.isFetching}
+          paginationMode="server"
+          sortingMode="server"
+          filterMode="server"
+          disableColumnFilter
+          paginationModel={toPaginationModel(list.page, list.pageSize)}
+          onPaginationModelChange={(model) => list.update(fromPaginationModel(model))}
+          pageSizeOptions={PAGE_SIZE_OPTIONS}
+          sortModel={fromSortParam(list.sort)}
+          onSortModelChange={(model) => list.update({ sort: toSortParam(model) })}
+          sortingOrder={['asc', 'desc']}
+          localeText={{ noRowsLabel: queue.isError ? 'The queue could not be loaded.' : 'Nothing is waiting for review.' }}
+          sx={{ border: 0 }}
+        />
+      </Paper>
+    </>
+  );
+}
