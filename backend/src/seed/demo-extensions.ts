@@ -1,3 +1,4 @@
+import { seedDemoBenches } from '../benches/benches.demo.js';
 import { seedDemoCertificates } from '../certificates/certificates.demo.js';
 import { seedDemoComparisons } from '../comparisons/comparisons.demo.js';
 import { seedDemoLabRecords } from '../jobs/jobs.demo.js';
@@ -8,4 +9,4 @@ import type { DemoExtension } from './demo-seed.js';
  * Each module that brings demo records adds its `<module>.demo.ts` function here, in dependency order.
  * They run inside the seed's one transaction, after the organisations and accounts.
  */
-export const DEMO_EXTENSIONS: DemoExtension[] = [seedDemoStandards, seedDemoLabRecords, seedDemoCertificates, seedDemoComparisons];
+export const DEMO_EXTENSIONS: DemoExtension[] = [seedDemoStandards, seedDemoLabRecords, seedDemoCertificates, seedDemoComparisons, seedDemoBenches];

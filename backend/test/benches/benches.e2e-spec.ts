@@ -4,9 +4,9 @@ import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { promisify } from 'node:util';
 import type { Socket } from 'socket.io-client';
-import { NAMESPACES } from '@kilocycle/common/events';
+import { INGEST_EVENTS, NAMESPACES } from '@kilocycle/common/events';
 import { REPO_ROOT } from '../../src/config/app-config.js';
-import { connect, listen } from '../ingest/ingest-fixtures.js';
+import { connect, listen, request } from '../ingest/ingest-fixtures.js';
 import { createTestApp, DEMO, tokenFor, type TestApp } from '../support/test-app.js';
 
 const run = promisify(execFile);
@@ -34,6 +34,19 @@ describe('benches and bench tokens (e2e, MariaDB)', () => {
   const as = (who: keyof typeof DEMO) => ({ Authorization: `Bearer ${tokens[who]}` });
   const auditOf = (benchId: number) =>
     t.dataSource.query('SELECT action, actor_id, changes FROM audit_events WHERE entity = ? AND entity_id = ? ORDER BY id', ['bench', String(benchId)]);
+
+  it('should bring a demo Bench 1 with the in-date counter, and an open warm-up run on it for the live demo', async () => {
+    const list = await t.http.get('/api/benches?q=Bench%201').set(as('tech'));
+    expect(list.body.items).toEqual([expect.objectContaining({ name: 'Bench 1', defaultStandardName: 'Bench counter A', hasToken: false, active: true })]);
+    const [run] = await t.dataSource.query(
+      "SELECT r.id, r.kind, r.status, j.status AS job_status FROM runs r JOIN jobs j ON j.id = r.job_id WHERE r.bench_id = ? AND r.status = 'open'",
+      [list.body.items[0].id],
+    );
+    expect(run).toMatchObject({ kind: 'warmup', status: 'open', job_status: 'in_progress' });
+    const { token } = (await t.http.post(`/api/benches/${list.body.items[0].id}/token`).set(as('admin'))).body;
+    const socket = await connect(url, NAMESPACES.ingest, token, sockets);
+    expect(await request(socket, INGEST_EVENTS.attach, { runId: run.id })).toMatchObject({ ok: true, lastSeq: 0, kind: 'warmup', benchName: 'Bench 1', range: { dialMin: 7000, dialMax: 7200 } });
+  });
 
   it('should let the admin create and edit benches, lab roles read them, and refuse clients', async () => {
     expect((await t.http.get('/api/benches')).status).toBe(401);
