@@ -46,6 +46,9 @@ Options:
   --speed N                 simulate: simulated seconds per real second (default 1)
   --seed N                  simulate: noise seed
   --count N                 stop after N readings
+  --time-zero run|now       what t = 0 is for scpi, serial and stdin readings: the run's start
+                            (default) or the moment this bridge starts reading (a warm-up begun by
+                            switching on as the bridge starts; a second bridge would start at 0 again)
   --batch N                 most readings a batch (default 200, at most ${MAX_INGEST_BATCH})
   --window N                batches sent and not yet acknowledged, at most (default 4)
   --spool FILE              the spool file (default \$KC_VAR_DIR/spool/run-RUN_ID.jsonl, or ./spool/)
@@ -97,7 +100,7 @@ function buildSource(source: string, args: ReturnType<typeof parseArgs>): Counte
 async function main(argv: string[]): Promise<number> {
   const args = parseArgs(
     argv,
-    ['server', 'token', 'run', 'source', 'query', 'setup', 'dial', 'interval', 'speed', 'seed', 'count', 'batch', 'window', 'spool', 'timeout', 'status-every'],
+    ['server', 'token', 'run', 'source', 'query', 'setup', 'dial', 'interval', 'speed', 'seed', 'count', 'time-zero', 'batch', 'window', 'spool', 'timeout', 'status-every'],
     ['help'],
   );
   if (args.flags.has('help')) {
@@ -111,6 +114,8 @@ async function main(argv: string[]): Promise<number> {
   if (!/^https?:\/\/[^/]+/.test(server)) throw new UsageError(`--server must be an http:// or https:// address (got "${server}")`);
   const runId = numberOption(args, 'run', 0, { min: 1, max: 2_147_483_647, integer: true });
   const source = buildSource(args.values.get('source')!, args);
+  const timeZero = args.values.get('time-zero') ?? 'run';
+  if (timeZero !== 'run' && timeZero !== 'now') throw new UsageError('--time-zero must be run or now');
   const spoolPath = resolve(args.values.get('spool') ?? join(process.env.KC_VAR_DIR ?? '.', 'spool', `run-${runId}.jsonl`));
   const bridge = new Bridge({
     server,
@@ -121,6 +126,7 @@ async function main(argv: string[]): Promise<number> {
     batchSize: numberOption(args, 'batch', 200, { min: 1, max: MAX_INGEST_BATCH, integer: true }),
     window: numberOption(args, 'window', 4, { min: 1, max: 64, integer: true }),
     count: args.values.has('count') ? numberOption(args, 'count', 0, { min: 1, max: 1e9, integer: true }) : undefined,
+    timeZero,
     ackTimeoutMs: numberOption(args, 'timeout', 10000, { min: 100, max: 600000, integer: true }),
     flushTimeoutMs: 10000,
     statusEveryMs: numberOption(args, 'status-every', 5000, { min: 100, max: 3_600_000, integer: true }),

@@ -24,6 +24,8 @@ export type BridgeOptions = {
   window: number;
   /** Stop after this many readings. */
   count?: number;
+  /** What t = 0 is for readings the source does not time itself: the run's start, or this bridge's start. */
+  timeZero: 'run' | 'now';
   ackTimeoutMs: number;
   /** How long Ctrl-C waits for the last acknowledgements before leaving the rest in the spool. */
   flushTimeoutMs: number;
@@ -213,7 +215,7 @@ export class Bridge {
   // ---- readings -------------------------------------------------------------------------------
 
   private async runSource(attach: AttachAck): Promise<void> {
-    const startedAt = Date.parse(attach.startedAt);
+    const startedAt = this.options.timeZero === 'now' ? Date.now() : Date.parse(attach.startedAt);
     const emit = (captured: Captured) => {
       if (this.sourceStopped || this.nextSeq === null) return;
       if (this.options.count !== undefined && this.stats.captured >= this.options.count) return this.stopSource();

@@ -67,6 +67,21 @@ describe('the bridge and the counter simulator (e2e, real processes, MariaDB)', 
       expect(await seqs(run.runId)).toEqual([1, 2, 3, 4, 5]);
     });
 
+    it('should time readings from the run start, or from its own start with --time-zero now', async () => {
+      const { token, benchId } = await createBench(t.dataSource);
+      const run = await createRun(t.dataSource, { organizationId: org, benchId, startedAt: new Date(Date.now() - 3600_000) });
+      const fromRun = bridge(token, run.runId, 'stdin');
+      fromRun.process.stdin!.end('7050000\n');
+      expect(await fromRun.exited).toBe(0);
+      const fromNow = bridge(token, run.runId, 'stdin', ['--time-zero', 'now']);
+      fromNow.process.stdin!.end('7050001\n');
+      expect(await fromNow.exited).toBe(0);
+      const [first, second] = await t.dataSource.query('SELECT t_s FROM readings WHERE run_id = ? ORDER BY seq', [run.runId]);
+      expect(Number(first.t_s)).toBeGreaterThan(3599);
+      expect(Number(first.t_s)).toBeLessThan(3700);
+      expect(Number(second.t_s)).toBeLessThan(5);
+    });
+
     it('should exit 3 naming the lines it could not read and the readings the server refused', async () => {
       const { token, benchId } = await createBench(t.dataSource);
       const run = await createRun(t.dataSource, { organizationId: org, benchId });
