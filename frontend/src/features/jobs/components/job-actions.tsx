@@ -1,0 +1,117 @@
+import Alert from '@mui/material/Alert';
+import Box from '@mui/material/Box';
+import Button from '@mui/material/Button';
+import Dialog from '@mui/material/Dialog';
+import DialogActions from '@mui/material/DialogActions';
+import DialogContent from '@mui/material/DialogContent';
+import DialogContentText from '@mui/material/DialogContentText';
+import DialogTitle from '@mui/material/DialogTitle';
+import TextField from '@mui/material/TextField';
+import { useId, useState, type ReactNode } from 'react';
+import type { Job, Role } from '@kilocycle/common/types';
+import { FormErrors } from '@/components/ui/form-errors';
+import { ApiError } from '@/lib/api-client';
+import { notify } from '@/lib/notifications';
+import { useSubmitJob } from '../api/submit-job';
+import { useUpdateJob } from '../api/update-job';
+
+const BENCH_ROLES: readonly Role[] = ['admin', 'lead', 'technician'];
+
+function messagesOf(error: unknown) {
+  return error instanceof ApiError ? error.messages : error ? ['That did not work. Try again.'] : [];
+}
+
+type JobActionsProps = {
+  job: Job;
+  role: Role;
+  /** Shown to a lead while the job is in review: where the review is done. */
+  reviewLink?: ReactNode;
+};
+
+/** The status moves open to this person now, as the API allows them; the rest is explained, not hidden. */
+export function JobActions({ job, role, reviewLink }: JobActionsProps) {
+  const titleId = useId();
+  const [submitting, setSubmitting] = useState(false);
+  const [comment, setComment] = useState('');
+  const update = useUpdateJob({ onSuccess: (j) => notify('success', `Job ${j.number} is in progress.`) });
+  const submit = useSubmitJob({
+    onSuccess: () => {
+      notify('success', `Job ${job.number} submitted for review.`);
+      setSubmitting(false);
+      setComment('');
+    },
+  });
+  const atBench = BENCH_ROLES.includes(role);
+
+  let actions: ReactNode = null;
+  let note: ReactNode = null;
+  if (role === 'client') {
+    note = null;
+  } else if ((job.status === 'received' || job.status === 'returned') && atBench) {
+    actions = (
+      <>
+        <Button variant="outlined" disabled={update.isPending} onClick={() => update.mutate({ id: job.id, changes: { status: 'in_progress' } })}>
+          {job.status === 'received' ? 'Start work' : 'Back to work'}
+        </Button>
+        {job.status === 'returned' && (
+          <Button variant="contained" onClick={() => setSubmitting(true)}>
+            Submit for review
+          </Button>
+        )}
+      </>
+    );
+  } else if (job.status === 'in_progress' && atBench) {
+    actions = (
+      <Button variant="contained" onClick={() => setSubmitting(true)}>
+        Submit for review
+      </Button>
+    );
+  } else if (job.status === 'in_review') {
+    note = role === 'lead' ? <>Waiting for your review. {reviewLink}</> : 'Waiting for the lead’s review; its runs take no more readings until then.';
+  } else if (job.status === 'approved') {
+    note = 'Approved. The job is issued when its certificate is signed.';
+  } else if (job.status === 'issued') {
+    note = 'Issued: the record is closed.';
+  }
+
+  return (
+    <Box>
+      {job.status === 'returned' && job.returnComment && (
+        <Alert severity="warning" sx={{ mb: 1 }}>
+          Returned for rework: {job.returnComment}
+        </Alert>
+      )}
+      <FormErrors messages={messagesOf(update.error)} />
+      <Box sx={{ display: 'flex', gap: 1, alignItems: 'center', flexWrap: 'wrap' }}>
+        {actions}
+        {note && (
+          <Box component="span" sx={{ color: 'text.secondary', fontSize: '0.875rem' }}>
+            {note}
+          </Box>
+        )}
+      </Box>
+      <Dialog open={submitting} onClose={submit.isPending ? undefined : () => setSubmitting(false)} aria-labelledby={titleId}>
+        <DialogTitle id={titleId}>Submit job {job.number} for review?</DialogTitle>
+        <DialogContent>
+          <FormErrors messages={messagesOf(submit.error)} />
+          <DialogContentText sx={{ mb: 2 }}>
+            The lead reviews the readings, fits and budget. Until the job comes back, its runs take no more readings.
+          </DialogContentText>
+          <TextField label="Note for the lead (optional)" multiline minRows={2} value={comment} onChange={(e) => setComment(e.target.value)} />
+        </DialogContent>
+        <DialogActions>
+          <Button onClick={() => setSubmitting(false)} disabled={submit.isPending}>
+            Cancel
+          </Button>
+          <Button
+            variant="contained"
+            disabled={submit.isPending}
+            onClick={() => submit.mutate({ id: job.id, body: comment.trim() ? { comment: comment.trim() } : {} })}
+          >
+            {submit.isPending ? 'Submitting…' : 'Submit for review'}
+          </Button>
+        </DialogActions>
+      </Dialog>
+    </Box>
+  );
+}

@@ -1,0 +1,110 @@
+import Box from '@mui/material/Box';
+import Link from '@mui/material/Link';
+import Paper from '@mui/material/Paper';
+import { DataGrid, type GridColDef } from '@mui/x-data-grid';
+import { useMemo } from 'react';
+import { Link as RouterLink } from 'react-router-dom';
+import { JOB_STATUSES, type Job, type ListJobsQuery } from '@kilocycle/common/types';
+import { Num } from '@/components/ui/num';
+import { SearchField } from '@/components/ui/search-field';
+import { SelectFilter, type FilterOption } from '@/components/ui/select-filter';
+import { jobPath } from '@/config/paths';
+import { useListSearchParams } from '@/hooks/use-list-search-params';
+import { fromPaginationModel, fromSortParam, PAGE_SIZE_OPTIONS, toPaginationModel, toSortParam } from '@/lib/data-grid';
+import { formatDate } from '@/utils/format';
+import { useJobs } from '../api/get-jobs';
+import { JOB_STATUS_LABELS, JobStatusChip } from './job-status-chip';
+
+const FILTER_KEYS = ['status', 'organizationId'] as const;
+const SORT_FIELDS = ['number', 'status', 'receivedDate', 'updatedAt', 'organizationName', 'instrumentLabel', 'technicianName'];
+const OPEN = 'received,in_progress,returned';
+const STATUS_OPTIONS: FilterOption[] = [
+  { value: OPEN, label: 'Open at the bench' },
+  ...JOB_STATUSES.map((status) => ({ value: status, label: JOB_STATUS_LABELS[status] })),
+];
+
+type JobsTableProps = { customers?: readonly FilterOption[] };
+
+export function JobsTable({ customers = [] }: JobsTableProps) {
+  const list = useListSearchParams({ pageSize: 25, sort: '-receivedDate', sortFields: SORT_FIELDS }, FILTER_KEYS);
+  const { status, organizationId } = list.filters;
+  const query: ListJobsQuery = {
+    page: list.page,
+    pageSize: list.pageSize,
+    sort: list.sort || undefined,
+    q: list.q || undefined,
+    status: STATUS_OPTIONS.some((o) => o.value === status) ? status : undefined,
+    organizationId: organizationId ? Number(organizationId) : undefined,
+  };
+  const jobs = useJobs({ query });
+
+  const columns = useMemo<GridColDef<Job>[]>(
+    () => [
+      {
+        field: 'number',
+        headerName: 'Job',
+        width: 120,
+        renderCell: ({ row }) => (
+          <Link component={RouterLink} to={jobPath(row.id)} underline="hover">
+            <Num>{row.number}</Num>
+          </Link>
+        ),
+      },
+      { field: 'instrumentLabel', headerName: 'Instrument', flex: 1.4, minWidth: 220 },
+      { field: 'organizationName', headerName: 'Customer', flex: 1, minWidth: 160 },
+      { field: 'status', headerName: 'Status', width: 160, renderCell: ({ row }) => <JobStatusChip status={row.status} /> },
+      { field: 'receivedDate', headerName: 'Received', width: 110, renderCell: ({ row }) => <Num>{formatDate(row.receivedDate)}</Num> },
+      { field: 'technicianName', headerName: 'Technician', width: 140, valueFormatter: (v: string | null) => v ?? '—' },
+      {
+        field: 'runCount',
+        headerName: 'Runs',
+        width: 70,
+        sortable: false,
+        align: 'right',
+        headerAlign: 'right',
+        renderCell: ({ row }) => <Num>{row.runCount}</Num>,
+      },
+    ],
+    [],
+  );
+
+  return (
+    <>
+      <Box sx={{ display: 'flex', gap: 1.5, mb: 1.5, flexWrap: 'wrap', alignItems: 'center' }}>
+        <SearchField label="Search" placeholder="Job number, instrument or customer" value={list.q} onChange={(q) => list.update({ q })} />
+        <SelectFilter label="Status" value={status} options={STATUS_OPTIONS} onChange={(v) => list.update({ status: v })} allLabel="Any status" minWidth={190} />
+        {customers.length > 0 && (
+          <SelectFilter
+            label="Customer"
+            value={organizationId}
+            options={customers}
+            onChange={(v) => list.update({ organizationId: v })}
+            allLabel="All customers"
+            minWidth={220}
+          />
+        )}
+      </Box>
+      <Paper variant="outlined" sx={{ height: 'calc(100vh - 230px)', minHeight: 360 }}>
+        <DataGrid
+          aria-label="Jobs"
+          rows={jobs.data?.items ?? []}
+          rowCount={jobs.data?.total ?? 0}
+          columns={columns}
+          loading={jobs.isFetching}
+          paginationMode="server"
+          sortingMode="server"
+          filterMode="server"
+          disableColumnFilter
+          paginationModel={toPaginationModel(list.page, list.pageSize)}
+          onPaginationModelChange={(model) => list.update(fromPaginationModel(model))}
+          pageSizeOptions={PAGE_SIZE_OPTIONS}
+          sortModel={fromSortParam(list.sort)}
+          onSortModelChange={(model) => list.update({ sort: toSortParam(model) })}
+          sortingOrder={['asc', 'desc']}
+          localeText={{ noRowsLabel: jobs.isError ? 'The list could not be loaded.' : 'No jobs match these filters.' }}
+          sx={{ border: 0 }}
+        />
+      </Paper>
+    </>
+  );
+}
