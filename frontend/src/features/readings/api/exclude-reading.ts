@@ -1,0 +1,22 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { Reading } from '@kilocycle/common/types';
+import { api } from '@/lib/api-client';
+import { getReadingsQueryOptions } from './get-readings';
+
+export type ExcludeReadingInput = { runId: number; readingId: number; reason: string };
+
+/** Marks a reading as excluded with the reason; the reading itself never changes. */
+export function excludeReading({ runId, readingId, reason }: ExcludeReadingInput): Promise<Reading> {
+  return api.post<Reading>(`/runs/${runId}/readings/${readingId}/exclusion`, { reason }, { notify: false });
+}
+
+export function useExcludeReading({ onSuccess }: { onSuccess?: (reading: Reading) => void } = {}) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: excludeReading,
+    onSuccess: async (reading, { runId }) => {
+      onSuccess?.(reading);
+      await queryClient.invalidateQueries({ queryKey: getReadingsQueryOptions(runId).queryKey });
+    },
+  });
+}

@@ -1,0 +1,89 @@
+import { fireEvent, screen, waitFor } from '@testing-library/react';
+import { describe, expect, it, vi } from 'vitest';
+import { createAppendAnswer, createReading } from '@/testing/lab-generators';
+import { mockFetch } from '@/testing/fetch-mock';
+import { renderWithApp, signInAs } from '@/testing/test-utils';
+import { ReadingEntry } from '../reading-entry';
+
+function renderEntry(onSaved = vi.fn()) {
+  renderWithApp(<ReadingEntry runId={7} dialUnit="kHz" freqMinHz={1_750_000} freqMaxHz={2_000_000} onSaved={onSaved} />, { path: '/runs/7' });
+  return {
+    dial: screen.getByLabelText('Dial (kHz)') as HTMLInputElement,
+    counter: screen.getByLabelText('Counter') as HTMLInputElement,
+    form: screen.getByRole('form', { name: 'Reading entry' }),
+    onSaved,
+  };
+}
+
+describe('<ReadingEntry>', () => {
+  it('should save the pair as typed on Enter, then clear both fields and put the cursor back on the dial', async () => {
+    signInAs({ role: 'technician' });
+    const stored = createReading({ seq: 4, dial: 1750, frequency: 1_735_000 });
+    const { requests } = mockFetch([{ method: 'POST', path: '/api/runs/7/readings', status: 201, body: createAppendAnswer([stored]) }]);
+    const { dial, counter, form, onSaved } = renderEntry();
+
+    expect(document.activeElement).toBe(dial);
+    fireEvent.change(dial, { target: { value: '1750' } });
+    fireEvent.change(counter, { target: { value: '1735 kHz' } });
+    // What the counter text will be stored as, before it is sent.
+    expect(screen.getByTestId('counter-understood').textContent).toContain('= 1 735.000 kHz');
+    fireEvent.submit(form);
+
+    await waitFor(() => expect(dial.value).toBe(''));
+    expect(counter.value).toBe('');
+    expect(document.activeElement).toBe(dial);
+    expect(requests).toHaveLength(1);
+    expect(requests[0]!.url).toBe('/api/runs/7/readings');
+    expect(requests[0]!.body).toEqual({ readings: [{ dial: 1750, frequency: '1735 kHz' }] });
+    expect(screen.getByTestId('last-saved').textContent).toContain('Saved #4: dial 1750 kHz → 1 735.000 kHz');
+    expect(onSaved).toHaveBeenCalledOnce();
+  });
+
+  it('should keep the typed values and show the reason when the server refuses the reading', async () => {
+    signInAs({ role: 'technician' });
+    mockFetch([
+      {
+        method: 'POST',
+        path: '/api/runs/7/readings',
+        status: 400,
+        body: {
+          statusCode: 400,
+          error: 'Bad Request',
+          message: ["readings[0].dial: dial 2300 is outside the range's dial span 1750 to 2000 by more than 10 %"],
+        },
+      },
+    ]);
+    const { dial, counter, form, onSaved } = renderEntry();
+
+    fireEvent.change(dial, { target: { value: '2300' } });
+    fireEvent.change(counter, { target: { value: '1.7352 MHz' } });
+    fireEvent.submit(form);
+
+    const alert = await screen.findByRole('alert');
+    expect(alert.textContent).toBe("Not saved — dial: dial 2300 is outside the range's dial span 1750 to 2000 by more than 10 %");
+    expect(dial.value).toBe('2300');
+    expect(counter.value).toBe('1.7352 MHz');
+    await waitFor(() => expect(document.activeElement).toBe(dial));
+    expect(onSaved).not.toHaveBeenCalled();
+  });
+
+  it('should say what a counter entry was read as, and refuse one it cannot read without sending it', async () => {
+    signInAs({ role: 'technician' });
+    const { fetchMock } = mockFetch([]);
+    const { dial, counter, form } = renderEntry();
+
+    fireEvent.change(counter, { target: { value: '1735000' } });
+    expect(screen.getByTestId('counter-understood').textContent).toContain('= 1 735.000 kHz (1 735 000 Hz)');
+    // A bare number is hertz: 1735 alone is far below this range, and the page says so.
+    fireEvent.change(counter, { target: { value: '1735' } });
+    expect(screen.getByTestId('counter-understood').textContent).toMatch(/far outside this range/);
+
+    fireEvent.change(dial, { target: { value: '1750' } });
+    fireEvent.change(counter, { target: { value: '1,735.5 kHz' } });
+    fireEvent.submit(form);
+
+    expect((await screen.findByRole('alert')).textContent).toMatch(/^Not saved — counter: .*mixes a comma and a point/);
+    expect(counter.value).toBe('1,735.5 kHz');
+    expect(fetchMock).not.toHaveBeenCalled();
+  });
+});

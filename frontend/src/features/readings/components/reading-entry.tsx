@@ -1,0 +1,227 @@
+import Alert from '@mui/material/Alert';
+import Box from '@mui/material/Box';
+import Button from '@mui/material/Button';
+import Paper from '@mui/material/Paper';
+import TextField from '@mui/material/TextField';
+import Typography from '@mui/material/Typography';
+import { useRef, useState, type FormEvent, type KeyboardEvent } from 'react';
+import type { AppendReadingsResponse, DialUnit } from '@kilocycle/common/types';
+import { parseFrequency, parseNumber } from '@kilocycle/common/units';
+import { Num, numberSx } from '@/components/ui/num';
+import { ApiError } from '@/lib/api-client';
+import { formatHz, formatNumber } from '@/utils/frequency';
+import { useAppendReadings } from '../api/append-readings';
+
+type Field = 'dial' | 'frequency';
+type Problem = { field: Field | null; message: string };
+
+type ReadingEntryProps = {
+  runId: number;
+  dialUnit: DialUnit;
+  /** The range's nominal span, to warn when a value is far outside it (a unit slip, usually). */
+  freqMinHz: number;
+  freqMaxHz: number;
+  /** Why the run takes no readings now; the form is then read-only. */
+  refusal?: string | null;
+  onSaved?: (answer: AppendReadingsResponse) => void;
+};
+
+type Understood = { ok: true; hz: number; text: string; far: boolean } | { ok: false; text: string } | null;
+
+/** What the counter text will be stored as: the same parser the server uses (a bare number is in Hz). */
+export function understandFrequency(text: string, freqMinHz: number, freqMaxHz: number): Understood {
+  if (!text.trim()) return null;
+  try {
+    const hz = parseFrequency(text, 'Hz');
+    const far = hz < freqMinHz / 2 || hz > freqMaxHz * 2;
+    return { ok: true, hz, far, text: `= ${formatHz(hz)} (${formatNumber(hz, Number.isInteger(hz) ? 0 : 1)} Hz)` };
+  } catch (error) {
+    return { ok: false, text: error instanceof Error ? error.message : String(error) };
+  }
+}
+
+/** Server messages look like `readings[0].dial: dial 3000 is outside…`: say which field, drop the index. */
+function toProblem(error: unknown): Problem {
+  if (error instanceof ApiError) {
+    const first = error.messages[0] ?? error.message;
+    const match = /^readings\[\d+\]\.(\w+):\s*(.*)$/.exec(first);
+    if (match) {
+      const field = match[1] === 'dial' || match[1] === 'frequency' ? match[1] : null;
+      return { field, message: `Not saved — ${match[1] === 'frequency' ? 'counter' : match[1]}: ${match[2]}` };
+    }
+    return { field: null, message: `Not saved — ${error.messages.join('; ')}` };
+  }
+  return { field: null, message: 'Not saved — the server could not be reached. The values are still here; press Enter to try again.' };
+}
+
+/**
+ * Keyboard-only capture at the bench: dial, Tab, counter as typed (`1735 kHz`, `1.735 MHz`, `1735000`), Enter.
+ * A saved pair clears and the cursor goes back to the dial; a refused pair stays, with the reason.
+ */
+export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, onSaved }: ReadingEntryProps) {
+  const dialRef = useRef<HTMLInputElement>(null);
+  const counterRef = useRef<HTMLInputElement>(null);
+  const [dial, setDial] = useState('');
+  const [counter, setCounter] = useState('');
+  const [problem, setProblem] = useState<Problem | null>(null);
+  const [last, setLast] = useState<string | null>(null);
+  // What was sent: on success only these are cleared, so anything typed meanwhile stays.
+  const sent = useRef<{ dial: string; counter: string } | null>(null);
+  const append = useAppendReadings({
+    onSuccess: (answer) => {
+      const stored = answer.stored[answer.stored.length - 1];
+      setLast(
+        stored
+          ? `Saved #${stored.seq}: dial ${stored.dial ?? '—'} ${dialUnit} → ${formatHz(stored.frequency)}`
+          : `Saved (${answer.accepted} stored, ${answer.duplicates} already there)`,
+      );
+      const was = sent.current;
+      sent.current = null;
+      const dialNow = dialRef.current?.value ?? '';
+      const counterNow = counterRef.current?.value ?? '';
+      const untouched = was !== null && dialNow === was.dial && counterNow === was.counter;
+      if (untouched) {
+        setDial('');
+        setCounter('');
+        dialRef.current?.focus();
+      }
+      setProblem(null);
+      onSaved?.(answer);
+    },
+  });
+
+  const readOnly = Boolean(refusal);
+  const frequency = understandFrequency(counter, freqMinHz, freqMaxHz);
+  let dialValue: number | null = null;
+  let dialError: string | null = null;
+  if (dial.trim()) {
+    try {
+      dialValue = parseNumber(dial);
+    } catch (error) {
+      dialError = error instanceof Error ? error.message : String(error);
+    }
+  }
+
+  const submit = (event: FormEvent<HTMLFormElement>) => {
+    event.preventDefault();
+    if (readOnly) return;
+    if (append.isPending) {
+      setProblem({ field: null, message: 'Still saving the previous reading; press Enter again in a moment.' });
+      return;
+    }
+    if (dialValue === null) {
+      setProblem({ field: 'dial', message: dialError ? `Not saved — dial: ${dialError}` : 'Enter the dial setting first.' });
+      dialRef.current?.focus();
+      return;
+    }
+    if (!counter.trim()) {
+      setProblem({ field: 'frequency', message: 'Enter the counter reading.' });
+      counterRef.current?.focus();
+      return;
+    }
+    if (frequency && !frequency.ok) {
+      setProblem({ field: 'frequency', message: `Not saved — counter: ${frequency.text}` });
+      counterRef.current?.focus();
+      return;
+    }
+    setProblem(null);
+    sent.current = { dial, counter };
+    append.mutate(
+      { runId, body: { readings: [{ dial: dialValue, frequency: counter.trim() }] } },
+      {
+        onError: (error) => {
+          sent.current = null;
+          const found = toProblem(error);
+          setProblem(found);
+          // Nothing is lost: the typed values stay, and the cursor goes where the fix is needed.
+          requestAnimationFrame(() => (found.field === 'dial' ? dialRef.current : counterRef.current)?.focus());
+        },
+      },
+    );
+  };
+
+  // Enter on the dial moves on to the counter while the counter is still empty.
+  const onDialKey = (event: KeyboardEvent<HTMLInputElement>) => {
+    if (event.key === 'Enter' && !counter.trim() && dial.trim()) {
+      event.preventDefault();
+      counterRef.current?.focus();
+    }
+  };
+
+  const mono = { fontFamily: numberSx.fontFamily, fontSize: '1.125rem' };
+
+  return (
+    <Paper variant="outlined" sx={{ p: 2 }}>
+      <Typography variant="h3" component="h2" sx={{ mb: 1 }}>
+        Enter a reading
+      </Typography>
+      {refusal ? (
+        <Alert severity="info" sx={{ mb: 1 }}>
+          This run takes no readings now: {refusal}.
+        </Alert>
+      ) : (
+        <Typography variant="body2" color="text.secondary" sx={{ mb: 1.5 }}>
+          Dial, <kbd>Tab</kbd>, counter as shown (<Num>1735 kHz</Num>, <Num>1.7352 MHz</Num> or <Num>1735200</Num> in Hz),{' '}
+          <kbd>Enter</kbd>. Repeat a setting as often as you like.
+        </Typography>
+      )}
+      <Box component="form" noValidate onSubmit={submit} aria-label="Reading entry" sx={{ display: 'grid', gridTemplateColumns: { xs: 'minmax(0, 1fr)', sm: 'minmax(0, 1fr) minmax(0, 2fr) auto' }, gap: 1.5, alignItems: 'start' }}>
+        <TextField
+          label={`Dial (${dialUnit})`}
+          value={dial}
+          onChange={(e) => {
+            setDial(e.target.value);
+            if (problem?.field === 'dial') setProblem(null);
+          }}
+          onKeyDown={onDialKey}
+          inputRef={dialRef}
+          autoFocus={!readOnly}
+          autoComplete="off"
+          error={Boolean(dialError) || problem?.field === 'dial'}
+          helperText={dialError ?? (dialValue !== null ? `dial ${formatNumber(dialValue, Number.isInteger(dialValue) ? 0 : 3)}` : ' ')}
+          slotProps={{ htmlInput: { inputMode: 'decimal', readOnly, style: mono } }}
+        />
+        <TextField
+          label="Counter"
+          value={counter}
+          onChange={(e) => {
+            setCounter(e.target.value);
+            if (problem?.field === 'frequency') setProblem(null);
+          }}
+          inputRef={counterRef}
+          autoComplete="off"
+          error={(frequency !== null && !frequency.ok) || problem?.field === 'frequency'}
+          helperText={
+            frequency === null ? (
+              'Understood as: —'
+            ) : frequency.ok ? (
+              <Box component="span" data-testid="counter-understood" sx={{ color: frequency.far ? 'warning.main' : undefined }}>
+                <Num>{frequency.text}</Num>
+                {frequency.far && ` — far outside this range (${formatHz(freqMinHz)} – ${formatHz(freqMaxHz)}); check the unit`}
+              </Box>
+            ) : (
+              frequency.text
+            )
+          }
+          slotProps={{ htmlInput: { readOnly, style: mono } }}
+        />
+        <Button type="submit" variant="contained" disabled={readOnly} sx={{ mt: 0.5, minWidth: 96 }} tabIndex={-1}>
+          {append.isPending ? 'Saving…' : 'Save'}
+        </Button>
+      </Box>
+      <Box aria-live="polite" sx={{ minHeight: 24, mt: 0.5 }}>
+        {problem ? (
+          <Alert severity="error" role="alert" sx={{ py: 0 }}>
+            {problem.message}
+          </Alert>
+        ) : (
+          last && (
+            <Typography variant="body2" color="success.main" data-testid="last-saved">
+              <Num>{last}</Num>
+            </Typography>
+          )
+        )}
+      </Box>
+    </Paper>
+  );
+}

@@ -1,0 +1,230 @@
+import Box from '@mui/material/Box';
+import Button from '@mui/material/Button';
+import Dialog from '@mui/material/Dialog';
+import DialogActions from '@mui/material/DialogActions';
+import DialogContent from '@mui/material/DialogContent';
+import DialogContentText from '@mui/material/DialogContentText';
+import DialogTitle from '@mui/material/DialogTitle';
+import Paper from '@mui/material/Paper';
+import TextField from '@mui/material/TextField';
+import Typography from '@mui/material/Typography';
+import { DataGrid, type GridColDef, type GridPaginationModel, type GridSortModel } from '@mui/x-data-grid';
+import { useId, useMemo, useState, type FormEvent } from 'react';
+import type { FrequencyUnit, Reading } from '@kilocycle/common/types';
+import { FormErrors } from '@/components/ui/form-errors';
+import { Num } from '@/components/ui/num';
+import { ApiError } from '@/lib/api-client';
+import { toSortParam } from '@/lib/data-grid';
+import { formatDateTime } from '@/utils/format';
+import { formatDuration, formatHz, formatHzTo, formatNumber } from '@/utils/frequency';
+import { useExcludeReading } from '../api/exclude-reading';
+import { useReadings } from '../api/get-readings';
+
+const MIN_REASON = 3;
+const SOURCE_LABELS: Record<Reading['source'], string> = { manual: 'Typed', bridge: 'Bridge', import: 'Import' };
+
+type ExcludeDialogProps = { runId: number; reading: Reading | null; unit?: FrequencyUnit; onClose: () => void; onExcluded?: (reading: Reading) => void };
+
+function ExcludeDialog({ runId, reading, unit, onClose, onExcluded }: ExcludeDialogProps) {
+  const titleId = useId();
+  const [reason, setReason] = useState('');
+  const [tooShort, setTooShort] = useState(false);
+  const exclude = useExcludeReading({
+    onSuccess: (excluded) => {
+      setReason('');
+      onExcluded?.(excluded);
+      onClose();
+    },
+  });
+  const submit = (event: FormEvent<HTMLFormElement>) => {
+    event.preventDefault();
+    if (!reading) return;
+    if (reason.trim().length < MIN_REASON) {
+      setTooShort(true);
+      return;
+    }
+    exclude.mutate({ runId, readingId: reading.id, reason: reason.trim() });
+  };
+  return (
+    <Dialog
+      open={reading !== null}
+      onClose={exclude.isPending ? undefined : onClose}
+      aria-labelledby={titleId}
+      slotProps={{
+        transition: {
+          onExited: () => {
+            setReason('');
+            setTooShort(false);
+            exclude.reset();
+          },
+        },
+      }}
+    >
+      <form noValidate onSubmit={submit}>
+        <DialogTitle id={titleId}>Exclude reading {reading ? `#${reading.seq}` : ''}?</DialogTitle>
+        <DialogContent>
+          <FormErrors messages={exclude.error instanceof ApiError ? exclude.error.messages : exclude.error ? ['The reading could not be excluded.'] : []} />
+          {reading && (
+            <DialogContentText sx={{ mb: 2 }}>
+              Dial <Num>{reading.dial ?? '—'}</Num>, <Num>{formatHz(reading.frequency, unit)}</Num>. The reading stays on record, struck
+              through with your reason, and leaves the fits. This cannot be undone.
+            </DialogContentText>
+          )}
+          <TextField
+            label="Reason"
+            autoFocus
+            required
+            value={reason}
+            onChange={(e) => {
+              setReason(e.target.value);
+              setTooShort(false);
+            }}
+            error={tooShort}
+            helperText={tooShort ? `At least ${MIN_REASON} characters` : 'E.g. counter gate still counting, wrong dial setting, lead moved'}
+          />
+        </DialogContent>
+        <DialogActions>
+          <Button onClick={onClose} disabled={exclude.isPending}>
+            Cancel
+          </Button>
+          <Button type="submit" variant="contained" color="error" disabled={exclude.isPending}>
+            {exclude.isPending ? 'Excluding…' : 'Exclude'}
+          </Button>
+        </DialogActions>
+      </form>
+    </Dialog>
+  );
+}
+
+type ReadingsTableProps = {
+  runId: number;
+  /** Unit frequencies are shown in (the range's dial unit); by size when absent. */
+  unit?: FrequencyUnit;
+  /** Resolution frequencies are shown to, Hz (0.1 Hz by default). */
+  resolutionHz?: number;
+  showDial?: boolean;
+  showAux?: string | null;
+  canExclude: boolean;
+  onExcluded?: (reading: Reading) => void;
+  height?: number;
+};
+
+/** Every reading of the run, newest first; an excluded one is struck through with its reason, never removed. */
+export function ReadingsTable({ runId, unit, resolutionHz = 0.1, showDial = true, showAux = null, canExclude, onExcluded, height = 420 }: ReadingsTableProps) {
+  const [pagination, setPagination] = useState<GridPaginationModel>({ page: 0, pageSize: 50 });
+  const [sortModel, setSortModel] = useState<GridSortModel>([{ field: 'seq', sort: 'desc' }]);
+  const [excluding, setExcluding] = useState<Reading | null>(null);
+  const readings = useReadings({
+    runId,
+    query: { page: pagination.page + 1, pageSize: pagination.pageSize, sort: toSortParam(sortModel) || 'seq' },
+  });
+
+  const columns = useMemo<GridColDef<Reading>[]>(() => {
+    const struck = (row: Reading) => (row.excluded ? { textDecoration: 'line-through', color: 'text.disabled' } : undefined);
+    return [
+      { field: 'seq', headerName: '#', width: 70, renderCell: ({ row }) => <Num sx={struck(row)}>{row.seq}</Num> },
+      {
+        field: 't',
+        headerName: 'Time',
+        width: 120,
+        renderCell: ({ row }) => <Num sx={struck(row)}>{formatDuration(row.t)}</Num>,
+      },
+      ...(showDial
+        ? [
+            {
+              field: 'dial',
+              headerName: 'Dial',
+              width: 100,
+              align: 'right',
+              headerAlign: 'right',
+              renderCell: ({ row }) => <Num sx={struck(row)}>{row.dial === null ? '—' : formatNumber(row.dial, Number.isInteger(row.dial) ? 0 : 3)}</Num>,
+            } satisfies GridColDef<Reading>,
+          ]
+        : []),
+      {
+        field: 'frequency',
+        headerName: 'Frequency',
+        width: 200,
+        align: 'right',
+        headerAlign: 'right',
+        renderCell: ({ row }) => <Num sx={struck(row)}>{formatHzTo(row.frequency, resolutionHz)}</Num>,
+      },
+      ...(showAux
+        ? [
+            {
+              field: 'aux',
+              headerName: showAux,
+              width: 100,
+              sortable: false,
+              align: 'right',
+              headerAlign: 'right',
+              renderCell: ({ row }) => <Num sx={struck(row)}>{row.aux ?? '—'}</Num>,
+            } satisfies GridColDef<Reading>,
+          ]
+        : []),
+      { field: 'source', headerName: 'Source', width: 80, sortable: false, valueFormatter: (v: Reading['source']) => SOURCE_LABELS[v] ?? v },
+      {
+        field: 'receivedAt',
+        headerName: 'Recorded',
+        width: 160,
+        sortable: false,
+        renderCell: ({ row }) => <Num>{formatDateTime(row.receivedAt)}</Num>,
+      },
+      {
+        field: 'excludedReason',
+        headerName: 'Status',
+        flex: 1,
+        minWidth: 200,
+        sortable: false,
+        renderCell: ({ row }) =>
+          row.excluded ? (
+            <Box component="span" sx={{ color: 'error.main' }} title={row.excludedReason ?? ''}>
+              Excluded: {row.excludedReason}
+            </Box>
+          ) : canExclude ? (
+            <Button size="small" color="inherit" onClick={() => setExcluding(row)} aria-label={`Exclude reading ${row.seq}`} sx={{ color: 'text.secondary' }}>
+              Exclude
+            </Button>
+          ) : (
+            ''
+          ),
+      },
+    ];
+  }, [showDial, showAux, resolutionHz, canExclude]);
+
+  return (
+    <Paper variant="outlined" sx={{ p: 2 }}>
+      <Box sx={{ display: 'flex', alignItems: 'baseline', gap: 2, mb: 1 }}>
+        <Typography variant="h3" component="h2">
+          Readings
+        </Typography>
+        <Typography variant="body2" color="text.secondary" data-testid="readings-count">
+          <Num>{readings.data?.total ?? 0}</Num> in this run
+        </Typography>
+      </Box>
+      <Box sx={{ height }}>
+        <DataGrid
+          aria-label="Readings"
+          rows={readings.data?.items ?? []}
+          rowCount={readings.data?.total ?? 0}
+          columns={columns}
+          loading={readings.isFetching && !readings.data}
+          paginationMode="server"
+          sortingMode="server"
+          filterMode="server"
+          disableColumnFilter
+          paginationModel={pagination}
+          onPaginationModelChange={setPagination}
+          pageSizeOptions={[50, 100, 500]}
+          sortModel={sortModel}
+          onSortModelChange={(model) => setSortModel(model.length ? model : [{ field: 'seq', sort: 'desc' }])}
+          sortingOrder={['desc', 'asc']}
+          getRowClassName={({ row }) => (row.excluded ? 'kc-excluded' : '')}
+          localeText={{ noRowsLabel: readings.isError ? 'The readings could not be loaded.' : 'No readings yet.' }}
+          sx={{ border: 0, '& .kc-excluded': { bgcolor: 'action.hover' } }}
+        />
+      </Box>
+      <ExcludeDialog runId={runId} reading={excluding} unit={unit} onClose={() => setExcluding(null)} onExcluded={onExcluded} />
+    </Paper>
+  );
+}

@@ -1,0 +1,74 @@
+import { useQueryClient } from '@tanstack/react-query';
+import { useEffect, useRef, useState } from 'react';
+import { io } from 'socket.io-client';
+import { LIVE_EVENTS, NAMESPACES, type JoinReply, type LiveReadingsEvent } from '@kilocycle/common/events';
+import type { Reading } from '@kilocycle/common/types';
+import { getSession } from '@/lib/session';
+import { getLatestReadingsQueryOptions, mergeReadings } from '../api/get-latest-readings';
+
+export type LiveState = 'connecting' | 'live' | 'offline' | 'refused';
+export type LiveStatus = { state: LiveState; message: string | null; lastArrivalAt: number | null };
+
+type UseLiveReadingsOptions = {
+  enabled?: boolean;
+  /** Called with each batch the server stored, after the cache has it. */
+  onReadings?: (readings: Reading[]) => void;
+};
+
+/**
+ * Follows a run live over socket.io (`/live`, signed in with the session's token): stored readings are merged
+ * into the run's latest-readings query, so pages read them from React Query like any other server data.
+ */
+export function useLiveReadings(runId: number, { enabled = true, onReadings }: UseLiveReadingsOptions = {}): LiveStatus {
+  const queryClient = useQueryClient();
+  const [status, setStatus] = useState<LiveStatus>({ state: 'connecting', message: null, lastArrivalAt: null });
+  const callback = useRef(onReadings);
+  useEffect(() => {
+    callback.current = onReadings;
+  }, [onReadings]);
+
+  useEffect(() => {
+    if (!enabled) return;
+    const token = getSession()?.accessToken;
+    if (!token) {
+      setStatus({ state: 'refused', message: 'Sign in again to follow the run live.', lastArrivalAt: null });
+      return;
+    }
+    const key = getLatestReadingsQueryOptions(runId).queryKey;
+    const socket = io(NAMESPACES.live, { auth: { token }, reconnectionDelayMax: 5000 });
+    let joinedBefore = false;
+
+    socket.on('connect', () => {
+      setStatus((s) => ({ ...s, state: 'connecting', message: 'Joining the run…' }));
+      socket.emit(LIVE_EVENTS.join, { runId }, (reply: JoinReply) => {
+        if (reply.ok) {
+          setStatus((s) => ({ ...s, state: 'live', message: null }));
+          // After a reconnection, whatever arrived while away is fetched once.
+          if (joinedBefore) void queryClient.invalidateQueries({ queryKey: key });
+          joinedBefore = true;
+        } else {
+          setStatus((s) => ({ ...s, state: 'refused', message: reply.error }));
+        }
+      });
+    });
+    socket.on('disconnect', (reason) => {
+      setStatus((s) => ({ ...s, state: 'offline', message: reason === 'io client disconnect' ? null : 'Connection lost; reconnecting…' }));
+    });
+    socket.on('connect_error', (error: Error) => {
+      setStatus((s) => ({ ...s, state: 'offline', message: `Cannot reach the live feed: ${error.message}` }));
+    });
+    socket.on(LIVE_EVENTS.readings, (event: LiveReadingsEvent) => {
+      if (event.runId !== runId || event.readings.length === 0) return;
+      queryClient.setQueryData<Reading[]>(key, (current) => mergeReadings(current, event.readings));
+      setStatus((s) => ({ ...s, lastArrivalAt: Date.now() }));
+      callback.current?.(event.readings);
+    });
+
+    return () => {
+      socket.emit(LIVE_EVENTS.leave, { runId });
+      socket.disconnect();
+    };
+  }, [runId, enabled, queryClient]);
+
+  return status;
+}

@@ -1,0 +1,234 @@
+import Alert from '@mui/material/Alert';
+import Box from '@mui/material/Box';
+import Paper from '@mui/material/Paper';
+import Table from '@mui/material/Table';
+import TableBody from '@mui/material/TableBody';
+import TableCell from '@mui/material/TableCell';
+import TableHead from '@mui/material/TableHead';
+import TableRow from '@mui/material/TableRow';
+import Typography from '@mui/material/Typography';
+import { useTheme } from '@mui/material/styles';
+import { ChartsAxis } from '@mui/x-charts/ChartsAxis';
+import { ChartsDataProvider } from '@mui/x-charts/ChartsDataProvider';
+import { ChartsGrid } from '@mui/x-charts/ChartsGrid';
+import { ChartsLegend } from '@mui/x-charts/ChartsLegend';
+import { ChartsSurface } from '@mui/x-charts/ChartsSurface';
+import { ChartsTooltip } from '@mui/x-charts/ChartsTooltip';
+import { ChartsWrapper } from '@mui/x-charts/ChartsWrapper';
+import { LinePlot } from '@mui/x-charts/LineChart';
+import { ScatterPlot } from '@mui/x-charts/ScatterChart';
+import { useMemo } from 'react';
+import { evaluateWarmup } from '@kilocycle/common/math';
+import type { Reading, WarmupRunAnalysis } from '@kilocycle/common/types';
+import { Num } from '@/components/ui/num';
+import { MONO_FONT } from '@/lib/theme';
+import { formatDuration, formatHzTo, formatNumber, formatSignedHz } from '@/utils/frequency';
+import { Figure, Figures } from './figures';
+
+const tickStyle = { fontFamily: MONO_FONT, fontSize: 11 };
+
+type WarmupViewProps = {
+  analysis: WarmupRunAnalysis | null;
+  /** Why there is no fit yet (too few readings, no curvature yet…). */
+  problem: string | null;
+  /** The newest readings, live; shown beyond what the last analysis covered. */
+  latest: readonly Reading[];
+  skipAnimation?: boolean;
+};
+
+/** Frequency against time since power-on, with the fitted f∞ + A·e^(−t/τ) curve and its figures. */
+export function WarmupView({ analysis, problem, latest, skipAnimation }: WarmupViewProps) {
+  const theme = useTheme();
+  const fit = analysis?.fit ?? null;
+
+  const chart = useMemo(() => {
+    const t: number[] = [];
+    const f: number[] = [];
+    const seriesT = analysis?.series.t ?? [];
+    const seriesF = analysis?.series.frequency ?? [];
+    for (let i = 0; i < seriesT.length; i++) {
+      t.push(seriesT[i]!);
+      f.push(seriesF[i]!);
+    }
+    const after = t.length ? t[t.length - 1]! : -Infinity;
+    for (const r of latest) {
+      if (!r.excluded && r.t > after) {
+        t.push(r.t);
+        f.push(r.frequency);
+      }
+    }
+    const xs = t.map((s) => s / 60);
+    let fitted: number[] | null = null;
+    if (fit) {
+      try {
+        fitted = t.map((s) => evaluateWarmup(fit, s));
+      } catch {
+        fitted = null;
+      }
+    }
+    return { xs, points: xs.map((x, i) => ({ id: i, x, y: f[i]! })), fitted };
+  }, [analysis, latest, fit]);
+
+  const series = [
+    {
+      type: 'scatter' as const,
+      id: 'readings',
+      label: 'Readings',
+      data: chart.points,
+      markerSize: 2.5,
+      color: theme.palette.primary.main,
+      valueFormatter: (v: { x: number; y: number } | null) => (v ? `${formatDuration(v.x * 60)}: ${formatHzTo(v.y, 0.01)}` : ''),
+    },
+    ...(chart.fitted
+      ? [
+          {
+            type: 'line' as const,
+            id: 'fit',
+            label: 'Fitted f∞ + A·e^(−t/τ)',
+            data: chart.fitted,
+            color: theme.palette.secondary.main,
+            showMark: false,
+            valueFormatter: (v: number | null) => (v === null ? '' : formatHzTo(v, 0.01)),
+          },
+        ]
+      : []),
+  ];
+
+  const lastWindow = analysis?.drift.windows[analysis.drift.windows.length - 1] ?? null;
+
+  return (
+    <Box sx={{ display: 'grid', gridTemplateColumns: { xs: '1fr', lg: '2fr 1fr' }, gap: 2, alignItems: 'start' }}>
+      <Paper variant="outlined" sx={{ p: 2 }}>
+        <Typography variant="h3" component="h2" sx={{ mb: 1 }}>
+          Frequency since power-on
+        </Typography>
+        {chart.points.length === 0 ? (
+          <Box sx={{ height: 360, display: 'grid', placeItems: 'center', color: 'text.secondary' }}>Waiting for the first readings…</Box>
+        ) : (
+          <Box role="img" aria-label={`Frequency against time, ${chart.points.length} points`} data-testid="warmup-chart">
+            <ChartsDataProvider
+              height={380}
+              series={series}
+              skipAnimation={skipAnimation}
+              margin={{ top: 8, right: 16, bottom: 8, left: 8 }}
+              xAxis={[{ id: 't', scaleType: 'linear', data: chart.xs, label: 'Time since power-on (min)', height: 50, tickLabelStyle: tickStyle }]}
+              yAxis={[
+                {
+                  id: 'f',
+                  label: 'Frequency (Hz)',
+                  width: 96,
+                  tickLabelStyle: tickStyle,
+                  valueFormatter: (v: number) => formatNumber(v, 0),
+                },
+              ]}
+            >
+              <ChartsWrapper legendPosition={{ vertical: 'top', horizontal: 'end' }}>
+                <ChartsLegend />
+                <ChartsSurface>
+                  <ChartsGrid horizontal vertical />
+                  <LinePlot />
+                  <ScatterPlot />
+                  <ChartsAxis />
+                </ChartsSurface>
+                <ChartsTooltip trigger="item" />
+              </ChartsWrapper>
+            </ChartsDataProvider>
+          </Box>
+        )}
+      </Paper>
+
+      <Paper variant="outlined" sx={{ p: 2 }} data-testid="warmup-figures">
+        <Typography variant="h3" component="h2" sx={{ mb: 1 }}>
+          Warm-up fit
+        </Typography>
+        {problem && !analysis && (
+          <Alert severity="info" sx={{ mb: 1 }}>
+            No fit yet: {problem}
+          </Alert>
+        )}
+        {analysis && (
+          <>
+            <Figures>
+              <Figure label="Settled frequency f∞" value={formatHzTo(analysis.fit.fInf, 0.01)} detail={`± ${formatNumber(analysis.fit.seFInf, 2)} Hz`} testId="fit-finf" />
+              <Figure label="Amplitude A" value={formatSignedHz(analysis.fit.amplitude)} detail={`± ${formatNumber(analysis.fit.seAmplitude, 1)} Hz`} />
+              <Figure
+                label="Time constant τ"
+                value={`${formatNumber(analysis.fit.tau, 1)} s`}
+                detail={`± ${formatNumber(analysis.fit.seTau, 1)} s (${formatDuration(analysis.fit.tau)})`}
+                testId="fit-tau"
+              />
+              {analysis.fit.linear !== null && (
+                <Figure label="Linear term" value={`${formatNumber(analysis.fit.linear * 60, 3, true)} Hz/min`} />
+              )}
+              <Figure label="Residual SD" value={`${formatNumber(analysis.fit.residualSd, 2)} Hz`} detail={`${analysis.usedCount} readings`} />
+              <Figure
+                label={`Settled within ${analysis.settling.withinHz} Hz`}
+                value={analysis.settling.withinSeconds === null ? 'not by this rule' : formatDuration(analysis.settling.withinSeconds)}
+              />
+              <Figure
+                label={`Drift below ${analysis.settling.rateHzPerMin} Hz/min`}
+                value={analysis.settling.rateSeconds === null ? 'not by this rule' : formatDuration(analysis.settling.rateSeconds)}
+              />
+              <Figure
+                label="Drift, first hour"
+                value={formatSignedHz(analysis.summary.driftFirstHourHz)}
+                detail={analysis.summary.firstHourCovered ? undefined : 'extrapolated by the fit'}
+              />
+              <Figure
+                label="Drift per 10 min, settled"
+                value={analysis.summary.driftPer10MinAfterSettlingHz === null ? '—' : formatSignedHz(analysis.summary.driftPer10MinAfterSettlingHz, 2)}
+              />
+              <Figure
+                label={`Latest ${formatDuration(analysis.drift.windowSeconds)} window`}
+                value={lastWindow ? `${formatNumber(lastWindow.rateHzPerMin, 2, true)} Hz/min` : 'record shorter than one window'}
+              />
+            </Figures>
+            {problem && (
+              <Typography variant="caption" color="text.secondary" sx={{ display: 'block', mt: 1 }}>
+                The newest readings could not be fitted yet ({problem}); the figures are from the last fit that worked.
+              </Typography>
+            )}
+          </>
+        )}
+      </Paper>
+
+      {analysis && analysis.drift.windows.length > 0 && (
+        <Paper variant="outlined" sx={{ p: 2, gridColumn: '1 / -1' }}>
+          <Typography variant="h3" component="h2" sx={{ mb: 1 }}>
+            Drift rate by window
+          </Typography>
+          <Box sx={{ maxHeight: 260, overflow: 'auto' }}>
+            <Table size="small" stickyHeader aria-label="Drift rate by window">
+              <TableHead>
+                <TableRow>
+                  <TableCell>From</TableCell>
+                  <TableCell>To</TableCell>
+                  <TableCell align="right">Drift rate</TableCell>
+                  <TableCell align="right">Readings</TableCell>
+                </TableRow>
+              </TableHead>
+              <TableBody>
+                {analysis.drift.windows.map((w) => (
+                  <TableRow key={w.tStart}>
+                    <TableCell>
+                      <Num>{formatDuration(w.tStart)}</Num>
+                    </TableCell>
+                    <TableCell>
+                      <Num>{formatDuration(w.tEnd)}</Num>
+                    </TableCell>
+                    <TableCell align="right">
+                      <Num>{formatNumber(w.rateHzPerMin, 2, true)} Hz/min</Num>
+                    </TableCell>
+                    <TableCell align="right">
+                      <Num>{w.n}</Num>
+                    </TableCell>
+                  </TableRow>
+                ))}
+              </TableBody>
+            </Table>
+          </Box>
+        </Paper>
+      )}
+    </Box>
+  );
+}
