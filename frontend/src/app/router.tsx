@@ -14,6 +14,14 @@ const OverviewRoute = lazy(() => import('./routes/overview'));
 const UsersRoute = lazy(() => import('./routes/admin/users'));
 const OrganisationsRoute = lazy(() => import('./routes/admin/organisations'));
 const NotFoundRoute = lazy(() => import('./routes/not-found'));
+const JobsRoute = lazy(() => import('./routes/jobs/jobs'));
+const JobRoute = lazy(() => import('./routes/jobs/job'));
+const InstrumentsRoute = lazy(() => import('./routes/instruments/instruments'));
+const InstrumentRoute = lazy(() => import('./routes/instruments/instrument'));
+const BandPlanRoute = lazy(() => import('./routes/instruments/band-plan'));
+const RunRoute = lazy(() => import('./routes/runs/run'));
+const StandardsRoute = lazy(() => import('./routes/standards'));
+const BenchesRoute = lazy(() => import('./routes/benches'));
 const ReviewQueueRoute = lazy(() => import('./routes/reviews/queue'));
 const ReviewRoute = lazy(() => import('./routes/reviews/review'));
 const ProceduresRoute = lazy(() => import('./routes/procedures'));
@@ -63,6 +71,14 @@ const routes: RouteObject[] = [
         errorElement: <RouteError />,
         children: [
           { index: true, element: <OverviewRoute /> },
+          { path: paths.jobs, element: guarded(paths.jobs, JobsRoute) },
+          { path: paths.job, element: guarded(paths.jobs, JobRoute) },
+          { path: paths.run, element: guarded(paths.jobs, RunRoute) },
+          { path: paths.instruments, element: guarded(paths.instruments, InstrumentsRoute) },
+          { path: paths.instrument, element: guarded(paths.instruments, InstrumentRoute) },
+          { path: paths.bandPlan, element: guarded(paths.instruments, BandPlanRoute) },
+          { path: paths.standards, element: guarded(paths.standards, StandardsRoute) },
+          { path: paths.benches, element: guarded(paths.benches, BenchesRoute) },
           { path: paths.adminUsers, element: guarded(paths.adminUsers, UsersRoute) },
           { path: paths.adminOrganisations, element: guarded(paths.adminOrganisations, OrganisationsRoute) },
           { path: paths.reviews, element: guarded(paths.reviews, ReviewQueueRoute) },

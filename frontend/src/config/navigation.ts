@@ -1,4 +1,8 @@
 import BusinessOutlined from '@mui/icons-material/BusinessOutlined';
+import BuildOutlined from '@mui/icons-material/BuildOutlined';
+import PrecisionManufacturingOutlined from '@mui/icons-material/PrecisionManufacturingOutlined';
+import SettingsInputAntennaOutlined from '@mui/icons-material/SettingsInputAntennaOutlined';
+import WorkOutlineOutlined from '@mui/icons-material/WorkOutlineOutlined';
 import OutboxOutlined from '@mui/icons-material/OutboxOutlined';
 import PeopleOutlined from '@mui/icons-material/PeopleOutlined';
 import RateReviewOutlined from '@mui/icons-material/RateReviewOutlined';
@@ -6,7 +10,7 @@ import RuleOutlined from '@mui/icons-material/RuleOutlined';
 import WorkspacePremiumOutlined from '@mui/icons-material/WorkspacePremiumOutlined';
 import SpaceDashboardOutlined from '@mui/icons-material/SpaceDashboardOutlined';
 import type SvgIcon from '@mui/material/SvgIcon';
-import { ROLES, type Role } from '@kilocycle/common/types';
+import { LAB_ROLES, ROLES, type Role } from '@kilocycle/common/types';
 import { paths } from './paths';
 
 export type NavItem = {
@@ -19,6 +23,10 @@ export type NavItem = {
 // The single list of pages in the side navigation. The router guards each page with the same roles.
 export const NAV_ITEMS: readonly NavItem[] = [
   { label: 'Overview', path: paths.home, icon: SpaceDashboardOutlined, roles: ROLES },
+  { label: 'Jobs', path: paths.jobs, icon: WorkOutlineOutlined, roles: ROLES },
+  { label: 'Instruments', path: paths.instruments, icon: SettingsInputAntennaOutlined, roles: ROLES },
+  { label: 'Standards', path: paths.standards, icon: PrecisionManufacturingOutlined, roles: LAB_ROLES },
+  { label: 'Benches', path: paths.benches, icon: BuildOutlined, roles: LAB_ROLES },
   { label: 'Review', path: paths.reviews, icon: RateReviewOutlined, roles: ['lead'] },
   { label: 'Certificates', path: paths.certificates, icon: WorkspacePremiumOutlined, roles: ROLES },
   { label: 'Procedures', path: paths.procedures, icon: RuleOutlined, roles: ['lead'] },

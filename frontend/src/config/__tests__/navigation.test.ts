@@ -6,11 +6,11 @@ const labels = (role: Parameters<typeof navItemsFor>[0]) => navItemsFor(role).ma
 
 describe('navigation', () => {
   it('shows an administrator the overview and both admin pages', () => {
-    expect(labels('admin')).toEqual(['Overview', 'Certificates', 'Outbox', 'Users', 'Organisations']);
+    expect(labels('admin')).toEqual(['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches', 'Certificates', 'Outbox', 'Users', 'Organisations']);
   });
 
-  it('shows a client the overview and its certificates', () => {
-    expect(labels('client')).toEqual(['Overview', 'Certificates']);
+  it('shows a client the overview, its jobs and instruments and its certificates', () => {
+    expect(labels('client')).toEqual(['Overview', 'Jobs', 'Instruments', 'Certificates']);
     expect(labels('client')).not.toContain('Users');
     expect(labels('client')).not.toContain('Organisations');
   });
@@ -21,8 +21,15 @@ describe('navigation', () => {
   });
 
   it('gives the review queue and the procedures to the lead alone', () => {
-    expect(labels('lead')).toEqual(['Overview', 'Review', 'Certificates', 'Procedures']);
-    expect(labels('technician')).toEqual(['Overview', 'Certificates']);
+    expect(labels('lead')).toEqual(['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches', 'Review', 'Certificates', 'Procedures']);
+    expect(labels('technician')).toEqual(['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches', 'Certificates']);
+  });
+
+  it('gives lab staff the standards and benches, and nobody outside the lab', () => {
+    for (const role of ['admin', 'lead', 'technician', 'engineer'] as const) expect(labels(role)).toEqual(expect.arrayContaining(['Jobs', 'Instruments', 'Standards', 'Benches']));
+    expect(labels('client')).not.toContain('Standards');
+    expect(labels('client')).not.toContain('Benches');
+    expect(rolesFor('/benches')).toEqual(['admin', 'lead', 'technician', 'engineer']);
   });
 
   it('gives every role the overview and every entry a unique path', () => {

@@ -13,19 +13,19 @@ describe('<AppLayout>', () => {
 
     const nav = screen.getByRole('navigation', { name: 'Main' });
     const links = within(nav).getAllByRole('link').map((link) => link.textContent);
-    expect(links).toEqual(['Overview', 'Certificates', 'Outbox', 'Users', 'Organisations']);
+    expect(links).toEqual(['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches', 'Certificates', 'Outbox', 'Users', 'Organisations']);
     expect(within(nav).getByRole('link', { name: 'Users' }).getAttribute('href')).toBe('/admin/users');
     expect(screen.getByText('Kilocycle')).toBeTruthy();
     expect(screen.getByText('Ada Quarry')).toBeTruthy();
     expect(screen.getByText('Administrator')).toBeTruthy();
   });
 
-  it('shows a client only the overview and its certificates', () => {
+  it('shows a client only the overview, its jobs and instruments and its certificates', () => {
     signInAs({ role: 'client', name: 'Nia Northgate' });
     renderWithApp(<AppLayout>page</AppLayout>);
 
     const nav = screen.getByRole('navigation', { name: 'Main' });
-    expect(within(nav).getAllByRole('link').map((link) => link.textContent)).toEqual(['Overview', 'Certificates']);
+    expect(within(nav).getAllByRole('link').map((link) => link.textContent)).toEqual(['Overview', 'Jobs', 'Instruments', 'Certificates']);
     expect(within(nav).queryByRole('link', { name: 'Users' })).toBeNull();
   });
 

@@ -26,7 +26,7 @@ describe('<WelcomePanel>', () => {
   it('shows a client no admin links and no bench caution', () => {
     signInAs({ role: 'client', organizationId: 2 });
     renderWithApp(<WelcomePanel />);
-    expect(screen.getAllByRole('link').map((link) => link.textContent)).toEqual(['Certificates']);
+    expect(screen.getAllByRole('link').map((link) => link.textContent)).toEqual(['Jobs', 'Instruments', 'Certificates']);
     expect(screen.getByText(/certificates issued to you/)).toBeTruthy();
     expect(screen.queryByText(/hazardous voltages/)).toBeNull();
   });

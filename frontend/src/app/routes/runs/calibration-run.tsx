@@ -1,0 +1,68 @@
+import Alert from '@mui/material/Alert';
+import Box from '@mui/material/Box';
+import type { CalibrationRunAnalysis, Role, Run } from '@kilocycle/common/types';
+import { useInstrument } from '@/features/instruments/api/get-instrument';
+import { ReadingEntry } from '@/features/readings/components/reading-entry';
+import { ReadingsTable } from '@/features/readings/components/readings-table';
+import { useRunAnalysis } from '@/features/runs/api/get-run-analysis';
+import { useRefreshRun } from '@/features/runs/api/use-refresh-run';
+import { AlignmentPanel } from '@/features/runs/components/calibration/alignment-panel';
+import { CorrectionTable } from '@/features/runs/components/calibration/correction-table';
+import { ErrorChart } from '@/features/runs/components/calibration/error-chart';
+import { FitSummary } from '@/features/runs/components/calibration/fit-summary';
+import { PaddingCalculator } from '@/features/runs/components/calibration/padding-calculator';
+import { RunHeader } from '@/features/runs/components/run-header';
+import { SafetyCaution } from '@/features/runs/components/safety-caution';
+import { analysisProblem, mayWriteRun, skipChartAnimation } from './run-access';
+
+/** The bench page of an as-found or as-left run: typed readings on the left, the fit updating beside them. */
+export function CalibrationRun({ run, role }: { run: Run; role: Role }) {
+  const analysis = useRunAnalysis({ id: run.id });
+  const refresh = useRefreshRun(run.id);
+  const canWrite = mayWriteRun(role, run.kind);
+  const data = analysis.data?.analysis === 'calibration' ? (analysis.data as CalibrationRunAnalysis) : null;
+  const problem = analysisProblem(analysis.error);
+  // The range as the instrument defines it, so the entry form knows its units before the first reading.
+  const instrument = useInstrument({ id: run.instrumentId });
+  const range = instrument.data?.ranges.find((r) => r.id === run.rangeId) ?? data?.range ?? null;
+  const unit = !range || range.dialUnit === 'div' ? undefined : range.dialUnit;
+
+  return (
+    <>
+      <RunHeader run={run} canWrite={canWrite} />
+      {canWrite && (
+        <Box sx={{ mb: 2 }}>
+          <SafetyCaution />
+        </Box>
+      )}
+      <Box sx={{ display: 'grid', gridTemplateColumns: { xs: 'minmax(0, 1fr)', lg: 'minmax(0, 5fr) minmax(0, 7fr)' }, gap: 2, alignItems: 'start' }}>
+        <Box sx={{ display: 'grid', gap: 2, minWidth: 0 }}>
+          {canWrite && range && (
+            <ReadingEntry
+              runId={run.id}
+              dialUnit={range.dialUnit}
+              freqMinHz={range.freqMinHz}
+              freqMaxHz={range.freqMaxHz}
+              refusal={run.refusal}
+              onSaved={() => void refresh()}
+            />
+          )}
+          {data ? <FitSummary analysis={data} /> : <Alert severity="info">{run.readingCount === 0 ? 'The fit appears with the first readings.' : (problem ?? 'Loading the analysis…')}</Alert>}
+          {data && <CorrectionTable analysis={data} />}
+        </Box>
+        <Box sx={{ display: 'grid', gap: 2, minWidth: 0 }}>
+          {data && <ErrorChart analysis={data} skipAnimation={skipChartAnimation} />}
+        </Box>
+      </Box>
+      {data && run.kind === 'as_found' && (
+        <Box sx={{ display: 'grid', gridTemplateColumns: { xs: '1fr', md: '1fr 1fr' }, gap: 2, alignItems: 'start', mt: 2 }}>
+          <AlignmentPanel analysis={data} />
+          <PaddingCalculator unit={unit} />
+        </Box>
+      )}
+      <Box sx={{ mt: 2 }}>
+        <ReadingsTable runId={run.id} unit={unit} resolutionHz={0.1} canExclude={canWrite && !run.refusal} onExcluded={() => void refresh()} />
+      </Box>
+    </>
+  );
+}

@@ -1,0 +1,103 @@
+import Box from '@mui/material/Box';
+import { useMemo } from 'react';
+import type { Role, Run, RunAnalysis } from '@kilocycle/common/types';
+import { useLatestReadings } from '@/features/readings/api/get-latest-readings';
+import { useReadings } from '@/features/readings/api/get-readings';
+import { ReadingsTable } from '@/features/readings/components/readings-table';
+import { useLiveReadings } from '@/features/readings/hooks/use-live-readings';
+import { useRunAnalysis } from '@/features/runs/api/get-run-analysis';
+import { useRefreshRun, useThrottledRefreshRun } from '@/features/runs/api/use-refresh-run';
+import { RunHeader } from '@/features/runs/components/run-header';
+import { SafetyCaution } from '@/features/runs/components/safety-caution';
+import { AuxView } from '@/features/studies/components/aux-view';
+import { LiveStatus } from '@/features/studies/components/live-status';
+import { StabilityView } from '@/features/studies/components/stability-view';
+import { WarmupView } from '@/features/studies/components/warmup-view';
+import { analysisProblem, mayWriteRun, skipChartAnimation } from './run-access';
+
+function pick<K extends RunAnalysis['analysis']>(data: RunAnalysis | undefined, kind: K): Extract<RunAnalysis, { analysis: K }> | null {
+  return data && data.analysis === kind ? (data as Extract<RunAnalysis, { analysis: K }>) : null;
+}
+
+/** Warm-up and stability runs: followed live while open, re-analysed at most twice a second as readings arrive. */
+export function TimeSeriesRun({ run, role }: { run: Run; role: Role }) {
+  const canWrite = mayWriteRun(role, run.kind);
+  const analysis = useRunAnalysis({ id: run.id });
+  const latest = useLatestReadings({ runId: run.id });
+  const throttledRefresh = useThrottledRefreshRun(run.id, 500);
+  const refresh = useRefreshRun(run.id);
+  const live = useLiveReadings(run.id, { enabled: run.status === 'open', onReadings: throttledRefresh });
+
+  const tail = latest.data ?? [];
+  const arrivedSince = tail.filter((r) => r.seq > run.lastSeq).length;
+  const problem = analysisProblem(analysis.error);
+
+  return (
+    <>
+      <RunHeader run={run} canWrite={canWrite} />
+      {canWrite && run.status === 'open' && (
+        <Box sx={{ mb: 2 }}>
+          <SafetyCaution />
+        </Box>
+      )}
+      <Box sx={{ mb: 2 }}>
+        <LiveStatus
+          state={run.status === 'open' ? live.state : 'closed'}
+          message={run.status === 'open' ? live.message : null}
+          readingCount={run.readingCount + arrivedSince}
+          last={tail[tail.length - 1] ?? null}
+          lastArrivalAt={live.lastArrivalAt}
+        />
+      </Box>
+      {run.kind === 'warmup' ? (
+        <WarmupView analysis={pick(analysis.data, 'warmup')} problem={problem} latest={tail} skipAnimation={skipChartAnimation} />
+      ) : (
+        <StabilityView analysis={pick(analysis.data, 'stability')} problem={problem} skipAnimation={skipChartAnimation} />
+      )}
+      <Box sx={{ mt: 2 }}>
+        <ReadingsTable
+          runId={run.id}
+          showDial={false}
+          resolutionHz={run.kind === 'stability' ? 0.0001 : 0.01}
+          canExclude={canWrite && !run.refusal}
+          onExcluded={() => void refresh()}
+          height={360}
+        />
+      </Box>
+    </>
+  );
+}
+
+/** Supply-sensitivity and keying runs: frequency against the auxiliary value, and the figure the analysis gives. */
+export function AuxRun({ run, role }: { run: Run; role: Role }) {
+  const canWrite = mayWriteRun(role, run.kind);
+  const analysis = useRunAnalysis({ id: run.id });
+  const refresh = useRefreshRun(run.id);
+  const readings = useReadings({ runId: run.id, query: { excluded: false, pageSize: 500, sort: 'seq' } });
+  const points = useMemo(
+    () => (readings.data?.items ?? []).filter((r) => r.aux !== null).map((r) => ({ aux: r.aux as number, frequency: r.frequency })),
+    [readings.data],
+  );
+  const kind = run.kind === 'keying' ? 'keying' : 'supply_sensitivity';
+  const data = pick(analysis.data, kind);
+  return (
+    <>
+      <RunHeader run={run} canWrite={canWrite} />
+      {canWrite && run.status === 'open' && (
+        <Box sx={{ mb: 2 }}>
+          <SafetyCaution />
+        </Box>
+      )}
+      <AuxView kind={kind} analysis={data} problem={analysisProblem(analysis.error)} points={points} skipAnimation={skipChartAnimation} />
+      <Box sx={{ mt: 2 }}>
+        <ReadingsTable
+          runId={run.id}
+          showDial={false}
+          showAux={run.kind === 'keying' ? 'Key' : 'Supply V'}
+          canExclude={canWrite && !run.refusal}
+          onExcluded={() => void refresh()}
+        />
+      </Box>
+    </>
+  );
+}
