@@ -4,11 +4,11 @@ import { keepScreenshot, launchBrowser, newPage, signIn } from './support/browse
 
 // What each role should find in the main navigation (PRODUCT.md §2: who does what in the lab).
 const EXPECTED_NAV: Record<string, { email: string; sees: string[]; doesNotSee: string[] }> = {
-  admin: { email: 'admin@kilocycle.test', sees: ['Overview', 'Users', 'Organisations'], doesNotSee: [] },
-  lead: { email: 'lead@kilocycle.test', sees: ['Overview'], doesNotSee: ['Users', 'Organisations'] },
-  technician: { email: 'tech@kilocycle.test', sees: ['Overview'], doesNotSee: ['Users', 'Organisations'] },
-  engineer: { email: 'engineer@kilocycle.test', sees: ['Overview'], doesNotSee: ['Users', 'Organisations'] },
-  client: { email: 'client@northgate.test', sees: ['Overview'], doesNotSee: ['Users', 'Organisations'] },
+  admin: { email: 'admin@kilocycle.test', sees: ['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches', 'Users', 'Organisations'], doesNotSee: [] },
+  lead: { email: 'lead@kilocycle.test', sees: ['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches'], doesNotSee: ['Users', 'Organisations'] },
+  technician: { email: 'tech@kilocycle.test', sees: ['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches'], doesNotSee: ['Users', 'Organisations'] },
+  engineer: { email: 'engineer@kilocycle.test', sees: ['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches'], doesNotSee: ['Users', 'Organisations'] },
+  client: { email: 'client@northgate.test', sees: ['Overview', 'Jobs', 'Instruments'], doesNotSee: ['Standards', 'Benches', 'Users', 'Organisations'] },
 };
 
 describe('sign-in and navigation per role (browser)', () => {
