@@ -8,6 +8,8 @@ import { Run } from '../runs/run.entity.js';
  */
 @Entity('readings')
 @Index('UQ_readings_run_seq', ['runId', 'seq'], { unique: true })
+@Index('IDX_readings_run_frequency', ['runId', 'frequency'])
+@Index('IDX_readings_run_t', ['runId', 't'])
 export class Reading {
   @PrimaryGeneratedColumn({ type: 'bigint' })
   id: string;

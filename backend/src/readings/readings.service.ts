@@ -38,7 +38,8 @@ export class ReadingsService {
       filter === ''
         ? 'SELECT COUNT(*) AS total FROM readings r WHERE r.run_id = ?'
         : `SELECT COUNT(*) AS total FROM readings r LEFT JOIN reading_exclusions x ON x.reading_id = r.id WHERE r.run_id = ?${filter}`;
-    const order = column === 'r.seq' ? `r.seq ${direction}` : `${column} ${direction}, r.seq ${direction}`;
+    // Ties break on the row id, which the (run_id, frequency_hz) and (run_id, t_s) indexes carry: no sort step.
+    const order = column === 'r.seq' || column === 'r.id' ? `${column} ${direction}` : `${column} ${direction}, r.id ${direction}`;
     const exclusionJoin = filter === '' ? '' : ' LEFT JOIN reading_exclusions x ON x.reading_id = r.id';
     // Deferred join: the page's ids come from the (run_id, seq) index alone; only those rows are read whole.
     const [[{ total }], rows] = await Promise.all([
