@@ -165,19 +165,28 @@ export class ReadingsWriter {
         let next = Number(last);
         for (const row of rows) if (row.seq === null) row.seq = ++next;
       }
-      const values = rows.map((r) => [ctx.runId, r.seq, r.t, r.dial, r.frequency, r.aux, source]);
-      const insert = 'INSERT IGNORE INTO readings (run_id, seq, t_s, dial, frequency_hz, aux, source) VALUES ?';
+      // The receipt time is set here rather than by the column default, so the views pushed to the
+      // browsers carry exactly what is stored without reading the rows back.
+      const receivedAt = new Date();
+      const received = receivedAt.toISOString().replace('T', ' ').slice(0, 23);
+      const insert = `INSERT IGNORE INTO readings (run_id, seq, t_s, dial, frequency_hz, aux, source, received_at) VALUES ${valuesList(ctx.runId, rows, source, received)}`;
       if (options.skipReadBack) {
-        const result = await manager.query(insert, [values]);
+        const result = await manager.query(insert);
         return { inserted: Number(result.affectedRows ?? 0), stored: [] };
       }
       // RETURNING (MariaDB 10.5+) names exactly the rows this statement stored, in the same round trip:
       // a duplicate (run, seq) is skipped and not returned, and rows another connection stores in the
       // same run at the same moment never mix in (reading back by id range could pick those up).
-      const returned = (await manager.query(`${insert} RETURNING id, seq, t_s, dial, frequency_hz, aux, source, received_at`, [
-        values,
-      ])) as Array<Record<string, unknown>>;
-      const stored = returned.map((row) => toReadingView(row)).sort((a, b) => a.seq - b.seq);
+      const returned = (await manager.query(`${insert} RETURNING id, seq`)) as Array<{ id: number | string; seq: number }>;
+      const bySeq = new Map<number, Row>();
+      for (const r of rows) if (!bySeq.has(r.seq!)) bySeq.set(r.seq!, r);
+      const iso = receivedAt.toISOString();
+      const stored = returned
+        .map(({ id, seq }): ReadingView => {
+          const r = bySeq.get(Number(seq))!;
+          return { id: Number(id), seq: Number(seq), t: r.t, dial: r.dial, frequency: r.frequency, aux: r.aux, source, receivedAt: iso, excluded: false, excludedReason: null };
+        })
+        .sort((a, b) => a.seq - b.seq);
       return { inserted: stored.length, stored };
     };
     // Numbered readings on their own (the bridge) are one statement, atomic by itself: no transaction round trips.
@@ -195,6 +204,30 @@ export class ReadingsWriter {
     const [{ last }] = await (manager ?? this.dataSource).query('SELECT COALESCE(MAX(seq), 0) AS last FROM readings WHERE run_id = ?', [runId]);
     return Number(last);
   }
+}
+
+const SQL_SAFE_SOURCE = /^[a-z]+$/;
+const SQL_SAFE_TIME = /^\d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2}\.\d{3}$/;
+
+/**
+ * The VALUES list of a batch, written directly: every field is a validated finite number, null, the
+ * source (one of three words) or our own time stamp, so nothing needs escaping. A driver's generic
+ * escaping of 8,000 values a batch was a measurable share of the server's time on the ingest path.
+ */
+function valuesList(runId: number, rows: readonly Row[], source: ReadingSource, received: string): string {
+  if (!Number.isInteger(runId) || !SQL_SAFE_SOURCE.test(source) || !SQL_SAFE_TIME.test(received)) throw new Error('valuesList: unexpected run id, source or time');
+  const num = (x: number | null) => {
+    if (x === null) return 'NULL';
+    if (typeof x !== 'number' || !Number.isFinite(x)) throw new Error('valuesList: a value is not a finite number');
+    return String(x);
+  };
+  const tail = `,'${source}','${received}')`;
+  let sql = '';
+  for (let i = 0; i < rows.length; i++) {
+    const r = rows[i];
+    sql += `${i === 0 ? '' : ','}(${runId},${num(r.seq)},${num(r.t)},${num(r.dial)},${num(r.frequency)},${num(r.aux)}${tail}`;
+  }
+  return sql;
 }
 
 export function toReadingView(row: Record<string, unknown>, exclusion?: { reason: string } | null): ReadingView {
