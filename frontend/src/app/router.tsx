@@ -30,6 +30,9 @@ const OutboxRoute = lazy(() => import('./routes/admin/outbox'));
 const OutboxMessageRoute = lazy(() => import('./routes/admin/outbox-message'));
 const VerifyLookupRoute = lazy(() => import('./routes/verify/lookup'));
 const VerifyCertificateRoute = lazy(() => import('./routes/verify/certificate'));
+const ComparisonsRoute = lazy(() => import('./routes/comparisons/list'));
+const ComparisonRoute = lazy(() => import('./routes/comparisons/comparison'));
+const RunImportRoute = lazy(() => import('./routes/run-import'));
 
 /** A page reached from the navigation, open only to the roles its navigation entry lists. */
 function guarded(path: string, Page: LazyExoticComponent<ComponentType>) {
@@ -87,6 +90,9 @@ const routes: RouteObject[] = [
           { path: paths.certificates, element: guarded(paths.certificates, CertificatesRoute) },
           { path: paths.adminOutbox, element: guarded(paths.adminOutbox, OutboxRoute) },
           { path: paths.adminOutboxMessage, element: guarded(paths.adminOutbox, OutboxMessageRoute) },
+          { path: paths.comparisons, element: guarded(paths.comparisons, ComparisonsRoute) },
+          { path: paths.comparison, element: guarded(paths.comparisons, ComparisonRoute) },
+          { path: paths.runImport, element: labOnly(RunImportRoute) },
         ],
       },
     ],

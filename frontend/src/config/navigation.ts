@@ -7,6 +7,7 @@ import OutboxOutlined from '@mui/icons-material/OutboxOutlined';
 import PeopleOutlined from '@mui/icons-material/PeopleOutlined';
 import RateReviewOutlined from '@mui/icons-material/RateReviewOutlined';
 import RuleOutlined from '@mui/icons-material/RuleOutlined';
+import StackedLineChartOutlined from '@mui/icons-material/StackedLineChartOutlined';
 import WorkspacePremiumOutlined from '@mui/icons-material/WorkspacePremiumOutlined';
 import SpaceDashboardOutlined from '@mui/icons-material/SpaceDashboardOutlined';
 import type SvgIcon from '@mui/material/SvgIcon';
@@ -29,6 +30,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { label: 'Benches', path: paths.benches, icon: BuildOutlined, roles: LAB_ROLES },
   { label: 'Review', path: paths.reviews, icon: RateReviewOutlined, roles: ['lead'] },
   { label: 'Certificates', path: paths.certificates, icon: WorkspacePremiumOutlined, roles: ROLES },
+  { label: 'Comparisons', path: paths.comparisons, icon: StackedLineChartOutlined, roles: ['engineer', 'lead'] },
   { label: 'Procedures', path: paths.procedures, icon: RuleOutlined, roles: ['lead'] },
   { label: 'Outbox', path: paths.adminOutbox, icon: OutboxOutlined, roles: ['admin'] },
   { label: 'Users', path: paths.adminUsers, icon: PeopleOutlined, roles: ['admin'] },

@@ -21,8 +21,13 @@ describe('navigation', () => {
   });
 
   it('gives the review queue and the procedures to the lead alone', () => {
-    expect(labels('lead')).toEqual(['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches', 'Review', 'Certificates', 'Procedures']);
+    expect(labels('lead')).toEqual(['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches', 'Review', 'Certificates', 'Comparisons', 'Procedures']);
     expect(labels('technician')).toEqual(['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches', 'Certificates']);
+  });
+
+  it('gives the comparisons of studies to the engineer and the lead', () => {
+    expect(labels('engineer')).toEqual(['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches', 'Certificates', 'Comparisons']);
+    expect(rolesFor('/comparisons')).toEqual(['engineer', 'lead']);
   });
 
   it('gives lab staff the standards and benches, and nobody outside the lab', () => {

@@ -1,0 +1,42 @@
+import Box from '@mui/material/Box';
+import Typography from '@mui/material/Typography';
+import type { ComparisonResult } from '@kilocycle/common/types';
+import { ErrorBoundary } from '@/components/errors/error-boundary';
+import { formatDuration } from '@/utils/measurement';
+import { AdevChart } from './adev-chart';
+import { ComparedRuns } from './compared-runs';
+import { ComparisonTable } from './comparison-table';
+import { DriftChart } from './drift-chart';
+import { SensitivityPanel } from './sensitivity-panel';
+
+/** A computed comparison: the runs, the two plots, the table of differences and the instrument's sensitivities. */
+export function ComparisonResultView({ result, fileTitle }: { result: ComparisonResult; fileTitle: string }) {
+  return (
+    <Box sx={{ display: 'grid', gap: 2 }}>
+      <Typography variant="body2" color="text.secondary">
+        {result.instrumentLabel} · {result.kind === 'warmup' ? 'warm-up' : 'stability'} runs aligned at power-on · settled when within{' '}
+        {result.options.withinHz} Hz of f∞ · settled drift rate over {formatDuration(result.options.windowSeconds)} windows · intervals at{' '}
+        {Math.round(result.confidence * 100)} %
+      </Typography>
+      <ErrorBoundary>
+        <ComparedRuns result={result} />
+      </ErrorBoundary>
+      <Box sx={{ display: 'grid', gridTemplateColumns: { xs: '1fr', xl: '1fr 1fr' }, gap: 2 }}>
+        <ErrorBoundary>
+          <DriftChart result={result} fileTitle={fileTitle} />
+        </ErrorBoundary>
+        <ErrorBoundary>
+          <AdevChart result={result} fileTitle={fileTitle} />
+        </ErrorBoundary>
+      </Box>
+      <Box sx={{ display: 'grid', gridTemplateColumns: { xs: '1fr', lg: '3fr 1.2fr' }, gap: 2, alignItems: 'start' }}>
+        <ErrorBoundary>
+          <ComparisonTable result={result} fileTitle={fileTitle} />
+        </ErrorBoundary>
+        <ErrorBoundary>
+          <SensitivityPanel sensitivity={result.sensitivity} />
+        </ErrorBoundary>
+      </Box>
+    </Box>
+  );
+}
