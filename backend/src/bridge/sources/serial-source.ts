@@ -3,6 +3,16 @@ import { parseScpiNumber } from '../oscillator-model.js';
 import { parseReadingLine, sleep, type Captured, type CounterSource, type SourceContext } from './counter-source.js';
 import { LineChannel } from './line-channel.js';
 
+/** What the source needs of a serial port: a duplex byte stream that opens on request. */
+export type SerialPortLike = Duplex & { open(callback: (error: Error | null) => void): void };
+export type SerialPortFactory = (address: SerialAddress) => Promise<SerialPortLike>;
+
+/** The real port, through the serialport package (loaded only when a serial source is used). */
+const openSerialPort: SerialPortFactory = async (address) => {
+  const { SerialPort } = await import('serialport');
+  return new SerialPort({ path: address.path, baudRate: address.baudRate, dataBits: address.dataBits, parity: address.parity, stopBits: address.stopBits, autoOpen: false });
+};
+
 export type SerialAddress = { path: string; baudRate: number; dataBits: 5 | 6 | 7 | 8; parity: 'none' | 'even' | 'odd'; stopBits: 1 | 2; query: string | null };
 
 /** Parses `serial:/dev/ttyUSB0?baud=9600[&bits=8&parity=none&stop=1&query=FETC?]`. */
@@ -37,21 +47,14 @@ export class SerialSource implements CounterSource {
   constructor(
     private readonly address: SerialAddress,
     private readonly options: { intervalMs: number; timeoutMs: number; dial?: number },
+    private readonly openPort: SerialPortFactory = openSerialPort,
   ) {
     this.label = `serial counter on ${address.path} at ${address.baudRate} baud${address.query ? ` (${address.query})` : ' (listening)'}`;
   }
 
   async run(emit: (reading: Captured) => void, context: SourceContext): Promise<void> {
-    const { SerialPort } = await import('serialport');
     while (!this.abort.signal.aborted) {
-      const port = new SerialPort({
-        path: this.address.path,
-        baudRate: this.address.baudRate,
-        dataBits: this.address.dataBits,
-        parity: this.address.parity,
-        stopBits: this.address.stopBits,
-        autoOpen: false,
-      });
+      const port = await this.openPort(this.address);
       const opened = await new Promise<Error | null>((resolve) => port.open((error) => resolve(error ?? null)));
       if (opened) {
         context.warn(`cannot open ${this.address.path}: ${opened.message}; trying again`);
