@@ -11,7 +11,7 @@ export async function sessionToken(page: Page): Promise<string> {
 export async function apiRequest<T>(token: string, method: string, path: string, body?: unknown): Promise<T> {
   const response = await fetch(`${BASE_URL}/api${path}`, {
     method,
-    headers: { Authorization: `Bearer ${token}`, Accept: 'application/json', ...(body === undefined ? {} : { 'Content-Type': 'application/json' }) },
+    headers: { ...(token ? { Authorization: `Bearer ${token}` } : {}), Accept: 'application/json', ...(body === undefined ? {} : { 'Content-Type': 'application/json' }) },
     body: body === undefined ? undefined : JSON.stringify(body),
   });
   const text = await response.text();
@@ -20,3 +20,9 @@ export async function apiRequest<T>(token: string, method: string, path: string,
 }
 
 export const apiGet = <T>(token: string, path: string) => apiRequest<T>(token, 'GET', path);
+
+/** Signs in through the API (for set-up the test does as another person than the page's). */
+export async function apiLogin(email: string, password: string): Promise<string> {
+  const answer = await apiRequest<{ accessToken: string }>('', 'POST', '/auth/login', { email, password });
+  return answer.accessToken;
+}

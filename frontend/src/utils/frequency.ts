@@ -53,7 +53,11 @@ export function formatSignificant(value: number | null | undefined, digits = 3):
   if (value === null || value === undefined || !Number.isFinite(value)) return '—';
   if (value === 0) return '0';
   const magnitude = Math.floor(Math.log10(Math.abs(value)));
-  if (magnitude < -4 || magnitude > 6) return value.toExponential(digits - 1).replace('e', '×10^');
+  if (magnitude < -4 || magnitude > 6) {
+    const [mantissa = '', exponent = ''] = value.toExponential(digits - 1).split('e');
+    const superscript = exponent.replace('+', '').replace(/[-0-9]/g, (c) => '⁻⁰¹²³⁴⁵⁶⁷⁸⁹'['-0123456789'.indexOf(c)] ?? c);
+    return `${mantissa}×10${superscript}`;
+  }
   const decimals = Math.max(0, digits - 1 - magnitude);
   return formatNumber(value, decimals);
 }

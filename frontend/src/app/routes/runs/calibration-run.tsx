@@ -11,6 +11,7 @@ import { CorrectionTable } from '@/features/runs/components/calibration/correcti
 import { ErrorChart } from '@/features/runs/components/calibration/error-chart';
 import { FitSummary } from '@/features/runs/components/calibration/fit-summary';
 import { PaddingCalculator } from '@/features/runs/components/calibration/padding-calculator';
+import { RunDataTransfer } from '@/features/imports/components/run-data-transfer';
 import { RunHeader } from '@/features/runs/components/run-header';
 import { SafetyCaution } from '@/features/runs/components/safety-caution';
 import { analysisProblem, mayWriteRun, skipChartAnimation } from './run-access';
@@ -29,7 +30,7 @@ export function CalibrationRun({ run, role }: { run: Run; role: Role }) {
 
   return (
     <>
-      <RunHeader run={run} canWrite={canWrite} />
+      <RunHeader run={run} canWrite={canWrite} extra={<RunDataTransfer run={run} role={role} />} />
       {canWrite && (
         <Box sx={{ mb: 2 }}>
           <SafetyCaution />

@@ -2,11 +2,12 @@ import Box from '@mui/material/Box';
 import { useMemo } from 'react';
 import type { Role, Run, RunAnalysis } from '@kilocycle/common/types';
 import { useLatestReadings } from '@/features/readings/api/get-latest-readings';
-import { useReadings } from '@/features/readings/api/get-readings';
+import { useReadings, useRefreshReadings } from '@/features/readings/api/get-readings';
 import { ReadingsTable } from '@/features/readings/components/readings-table';
 import { useLiveReadings } from '@/features/readings/hooks/use-live-readings';
 import { useRunAnalysis } from '@/features/runs/api/get-run-analysis';
 import { useRefreshRun, useThrottledRefreshRun } from '@/features/runs/api/use-refresh-run';
+import { RunDataTransfer } from '@/features/imports/components/run-data-transfer';
 import { RunHeader } from '@/features/runs/components/run-header';
 import { SafetyCaution } from '@/features/runs/components/safety-caution';
 import { AuxView } from '@/features/studies/components/aux-view';
@@ -24,7 +25,9 @@ export function TimeSeriesRun({ run, role }: { run: Run; role: Role }) {
   const canWrite = mayWriteRun(role, run.kind);
   const analysis = useRunAnalysis({ id: run.id });
   const latest = useLatestReadings({ runId: run.id });
-  const throttledRefresh = useThrottledRefreshRun(run.id, 500);
+  // The readings list below follows the stream too, at the same pace as the analysis.
+  const refreshReadings = useRefreshReadings(run.id);
+  const throttledRefresh = useThrottledRefreshRun(run.id, 500, refreshReadings);
   const refresh = useRefreshRun(run.id);
   const live = useLiveReadings(run.id, { enabled: run.status === 'open', onReadings: throttledRefresh });
 
@@ -34,7 +37,7 @@ export function TimeSeriesRun({ run, role }: { run: Run; role: Role }) {
 
   return (
     <>
-      <RunHeader run={run} canWrite={canWrite} />
+      <RunHeader run={run} canWrite={canWrite} extra={<RunDataTransfer run={run} role={role} />} />
       {canWrite && run.status === 'open' && (
         <Box sx={{ mb: 2 }}>
           <SafetyCaution />
@@ -82,7 +85,7 @@ export function AuxRun({ run, role }: { run: Run; role: Role }) {
   const data = pick(analysis.data, kind);
   return (
     <>
-      <RunHeader run={run} canWrite={canWrite} />
+      <RunHeader run={run} canWrite={canWrite} extra={<RunDataTransfer run={run} role={role} />} />
       {canWrite && run.status === 'open' && (
         <Box sx={{ mb: 2 }}>
           <SafetyCaution />

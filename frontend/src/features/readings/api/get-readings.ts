@@ -1,4 +1,5 @@
-import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import { keepPreviousData, queryOptions, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useCallback } from 'react';
 import type { ListReadingsQuery, ListResponse, Reading } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
 
@@ -11,6 +12,19 @@ export const getReadingsQueryOptions = (runId: number, query?: ListReadingsQuery
     queryKey: query ? ['readings', runId, query] : ['readings', runId],
     queryFn: () => getReadings(runId, query),
   });
+
+/** Fetches the run's reading lists again (not the live latest-readings entry, which the stream keeps current). */
+export function useRefreshReadings(runId: number) {
+  const queryClient = useQueryClient();
+  return useCallback(
+    () =>
+      queryClient.invalidateQueries({
+        queryKey: getReadingsQueryOptions(runId).queryKey,
+        predicate: (query) => query.queryKey[2] !== 'latest',
+      }),
+    [queryClient, runId],
+  );
+}
 
 export function useReadings({ runId, query, enabled = true }: { runId: number; query: ListReadingsQuery; enabled?: boolean }) {
   return useQuery({ ...getReadingsQueryOptions(runId, query), placeholderData: keepPreviousData, enabled });

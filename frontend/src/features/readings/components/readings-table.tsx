@@ -127,7 +127,8 @@ export function ReadingsTable({ runId, unit, resolutionHz = 0.1, showDial = true
         field: 't',
         headerName: 'Time',
         width: 120,
-        renderCell: ({ row }) => <Num sx={struck(row)}>{formatDuration(row.t)}</Num>,
+        // Tenths of a second while it matters (a fast bridge), then minutes and hours.
+        renderCell: ({ row }) => <Num sx={struck(row)}>{row.t < 60 ? `${formatNumber(row.t, 1)} s` : formatDuration(row.t)}</Num>,
       },
       ...(showDial
         ? [

@@ -20,8 +20,9 @@ export function useRefreshRun(runId: number) {
  * For live runs: asks for the run and its analysis again at most once per `intervalMs`, and never
  * while a request is still on its way, so a stream of readings cannot queue up analyses.
  */
-export function useThrottledRefreshRun(runId: number, intervalMs = 500) {
-  const refresh = useRefreshRun(runId);
+export function useThrottledRefreshRun(runId: number, intervalMs = 500, alsoRefresh?: () => Promise<unknown>) {
+  const refreshRun = useRefreshRun(runId);
+  const refresh = useCallback(() => Promise.all([refreshRun(), alsoRefresh?.()]), [refreshRun, alsoRefresh]);
   const latest = useRef(refresh);
   useEffect(() => {
     latest.current = refresh;

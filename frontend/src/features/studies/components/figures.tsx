@@ -7,7 +7,7 @@ import { Num } from '@/components/ui/num';
 export function Figure({ label, value, detail, testId }: { label: string; value: ReactNode; detail?: ReactNode; testId?: string }) {
   return (
     <Box sx={{ display: 'contents' }}>
-      <Typography variant="body2" color="text.secondary" component="dt">
+      <Typography variant="body2" color="text.secondary" component="dt" sx={{ whiteSpace: 'nowrap' }}>
         {label}
       </Typography>
       <Typography variant="body2" component="dd" sx={{ m: 0, textAlign: 'right' }} data-testid={testId}>

@@ -22,7 +22,7 @@ import { evaluateWarmup } from '@kilocycle/common/math';
 import type { Reading, WarmupRunAnalysis } from '@kilocycle/common/types';
 import { Num } from '@/components/ui/num';
 import { MONO_FONT } from '@/lib/theme';
-import { formatDuration, formatHzTo, formatNumber, formatSignedHz } from '@/utils/frequency';
+import { formatDuration, formatHzTo, formatNumber, formatSignedHz, formatSignificant } from '@/utils/frequency';
 import { Figure, Figures } from './figures';
 
 const tickStyle = { fontFamily: MONO_FONT, fontSize: 11 };
@@ -57,7 +57,9 @@ export function WarmupView({ analysis, problem, latest, skipAnimation }: WarmupV
         f.push(r.frequency);
       }
     }
-    const xs = t.map((s) => s / 60);
+    // Seconds for a short record, minutes once it runs past five.
+    const perUnit = (t[t.length - 1] ?? 0) > 300 ? 60 : 1;
+    const xs = t.map((s) => s / perUnit);
     let fitted: number[] | null = null;
     if (fit) {
       try {
@@ -66,7 +68,7 @@ export function WarmupView({ analysis, problem, latest, skipAnimation }: WarmupV
         fitted = null;
       }
     }
-    return { xs, points: xs.map((x, i) => ({ id: i, x, y: f[i]! })), fitted };
+    return { xs, perUnit, points: xs.map((x, i) => ({ id: i, x, y: f[i]! })), fitted };
   }, [analysis, latest, fit]);
 
   const series = [
@@ -77,7 +79,7 @@ export function WarmupView({ analysis, problem, latest, skipAnimation }: WarmupV
       data: chart.points,
       markerSize: 2.5,
       color: theme.palette.primary.main,
-      valueFormatter: (v: { x: number; y: number } | null) => (v ? `${formatDuration(v.x * 60)}: ${formatHzTo(v.y, 0.01)}` : ''),
+      valueFormatter: (v: { x: number; y: number } | null) => (v ? `${formatDuration(v.x * chart.perUnit)}: ${formatHzTo(v.y, 0.01)}` : ''),
     },
     ...(chart.fitted
       ? [
@@ -111,7 +113,7 @@ export function WarmupView({ analysis, problem, latest, skipAnimation }: WarmupV
               series={series}
               skipAnimation={skipAnimation}
               margin={{ top: 8, right: 16, bottom: 8, left: 8 }}
-              xAxis={[{ id: 't', scaleType: 'linear', data: chart.xs, label: 'Time since power-on (min)', height: 50, tickLabelStyle: tickStyle }]}
+              xAxis={[{ id: 't', scaleType: 'linear', data: chart.xs, label: `Time since power-on (${chart.perUnit === 60 ? 'min' : 's'})`, height: 50, tickLabelStyle: tickStyle }]}
               yAxis={[
                 {
                   id: 'f',
@@ -149,12 +151,12 @@ export function WarmupView({ analysis, problem, latest, skipAnimation }: WarmupV
         {analysis && (
           <>
             <Figures>
-              <Figure label="Settled frequency f∞" value={formatHzTo(analysis.fit.fInf, 0.01)} detail={`± ${formatNumber(analysis.fit.seFInf, 2)} Hz`} testId="fit-finf" />
-              <Figure label="Amplitude A" value={formatSignedHz(analysis.fit.amplitude)} detail={`± ${formatNumber(analysis.fit.seAmplitude, 1)} Hz`} />
+              <Figure label="Settled frequency f∞" value={formatHzTo(analysis.fit.fInf, 0.01)} detail={`± ${formatSignificant(analysis.fit.seFInf, 2)} Hz`} testId="fit-finf" />
+              <Figure label="Amplitude A" value={formatSignedHz(analysis.fit.amplitude)} detail={`± ${formatSignificant(analysis.fit.seAmplitude, 2)} Hz`} />
               <Figure
                 label="Time constant τ"
-                value={`${formatNumber(analysis.fit.tau, 1)} s`}
-                detail={`± ${formatNumber(analysis.fit.seTau, 1)} s (${formatDuration(analysis.fit.tau)})`}
+                value={`${formatSignificant(analysis.fit.tau, 3)} s`}
+                detail={`± ${formatSignificant(analysis.fit.seTau, 2)} s${analysis.fit.tau >= 60 ? ` (${formatDuration(analysis.fit.tau)})` : ''}`}
                 testId="fit-tau"
               />
               {analysis.fit.linear !== null && (
@@ -163,11 +165,13 @@ export function WarmupView({ analysis, problem, latest, skipAnimation }: WarmupV
               <Figure label="Residual SD" value={`${formatNumber(analysis.fit.residualSd, 2)} Hz`} detail={`${analysis.usedCount} readings`} />
               <Figure
                 label={`Settled within ${analysis.settling.withinHz} Hz`}
-                value={analysis.settling.withinSeconds === null ? 'not by this rule' : formatDuration(analysis.settling.withinSeconds)}
+                value={analysis.settling.withinSeconds === null ? '—' : formatDuration(analysis.settling.withinSeconds)}
+                detail={analysis.settling.withinSeconds === null ? 'never, by this rule' : undefined}
               />
               <Figure
                 label={`Drift below ${analysis.settling.rateHzPerMin} Hz/min`}
-                value={analysis.settling.rateSeconds === null ? 'not by this rule' : formatDuration(analysis.settling.rateSeconds)}
+                value={analysis.settling.rateSeconds === null ? '—' : formatDuration(analysis.settling.rateSeconds)}
+                detail={analysis.settling.rateSeconds === null ? 'never, by this rule' : undefined}
               />
               <Figure
                 label="Drift, first hour"
@@ -180,7 +184,8 @@ export function WarmupView({ analysis, problem, latest, skipAnimation }: WarmupV
               />
               <Figure
                 label={`Latest ${formatDuration(analysis.drift.windowSeconds)} window`}
-                value={lastWindow ? `${formatNumber(lastWindow.rateHzPerMin, 2, true)} Hz/min` : 'record shorter than one window'}
+                value={lastWindow ? `${formatNumber(lastWindow.rateHzPerMin, 2, true)} Hz/min` : '—'}
+                detail={lastWindow ? undefined : 'the record is shorter than one window'}
               />
             </Figures>
             {problem && (

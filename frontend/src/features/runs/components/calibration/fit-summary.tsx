@@ -9,7 +9,7 @@ import { formatNumber, formatSignedHz } from '@/utils/frequency';
 function Figure({ label, value, detail }: { label: string; value: ReactNode; detail?: ReactNode }) {
   return (
     <Box sx={{ display: 'contents' }}>
-      <Typography variant="body2" color="text.secondary" component="dt">
+      <Typography variant="body2" color="text.secondary" component="dt" sx={{ whiteSpace: 'nowrap' }}>
         {label}
       </Typography>
       <Typography variant="body2" component="dd" sx={{ m: 0, textAlign: 'right' }}>
