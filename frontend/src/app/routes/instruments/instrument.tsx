@@ -9,6 +9,7 @@ import { Link as RouterLink, useParams } from 'react-router-dom';
 import { FullPageSpinner } from '@/components/ui/full-page-spinner';
 import { PageHeader } from '@/components/ui/page-header';
 import { bandPlanPath, paths } from '@/config/paths';
+import { AttachmentsPanel } from '@/features/attachments/components/attachments-panel';
 import { useInstrument } from '@/features/instruments/api/get-instrument';
 import { EditInstrument } from '@/features/instruments/components/instrument-form';
 import { InstrumentSummary } from '@/features/instruments/components/instrument-summary';
@@ -55,6 +56,7 @@ export default function InstrumentRoute() {
       <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: 'minmax(0, 1fr)' }}>
         <InstrumentSummary instrument={i} actions={canEdit ? <EditInstrument instrument={i} /> : undefined} />
         <RangesEditor instrument={i} canEdit={canEdit} />
+        <AttachmentsPanel owner="instrument" ownerId={i.id} canUpload={canEdit} canDelete={user.role === 'lead' || user.role === 'admin'} />
         <Box sx={{ display: 'grid', gridTemplateColumns: { xs: 'minmax(0, 1fr)', lg: 'minmax(0, 2fr) minmax(0, 3fr)' }, gap: 2, alignItems: 'start' }}>
           <Paper variant="outlined" sx={{ p: 2 }}>
             <Typography variant="h3" component="h2" sx={{ mb: 1 }}>

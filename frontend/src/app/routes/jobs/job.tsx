@@ -12,12 +12,15 @@ import { FullPageSpinner } from '@/components/ui/full-page-spinner';
 import { Num } from '@/components/ui/num';
 import { instrumentPath, paths, reviewPath, runPath } from '@/config/paths';
 import { useBenches } from '@/features/benches/api/get-benches';
+import { AttachmentsPanel } from '@/features/attachments/components/attachments-panel';
 import { useInstrument } from '@/features/instruments/api/get-instrument';
 import { getJobQueryOptions, useJob } from '@/features/jobs/api/get-job';
 import { JobActions } from '@/features/jobs/components/job-actions';
 import { JobDetails } from '@/features/jobs/components/job-details';
 import { JobHistory } from '@/features/jobs/components/job-history';
 import { JobStatusChip } from '@/features/jobs/components/job-status-chip';
+import { JobResultsPanel } from '@/features/reviews/components/job-results-panel';
+import { JobReviewActions } from '@/features/reviews/components/job-review-actions';
 import { useRuns } from '@/features/runs/api/get-runs';
 import { kindsFor, OpenRunDialog } from '@/features/runs/components/open-run-dialog';
 import { RunsTable } from '@/features/runs/components/runs-table';
@@ -77,6 +80,7 @@ export default function JobRoute() {
           }
         />
       </Box>
+      {isLab && <JobReviewActions jobId={j.id} reviewPath={reviewPath(j.id)} />}
       <Box sx={{ display: 'grid', gap: 2 }}>
         <JobDetails
           job={j}
@@ -114,6 +118,8 @@ export default function JobRoute() {
           </Box>
           <RunsTable runs={runs.data?.items ?? []} emptyText={runs.isPending ? 'Loading…' : 'No runs yet. Open one to start capturing readings.'} />
         </Paper>
+        {runs.data?.items.some((r) => r.kind === 'as_found' || r.kind === 'as_left') && <JobResultsPanel jobId={j.id} />}
+        <AttachmentsPanel owner="job" ownerId={j.id} canUpload={EDIT_ROLES.includes(user.role)} canDelete={user.role === 'lead' || user.role === 'admin'} />
         {isLab && <JobHistory jobId={j.id} />}
       </Box>
     </>
