@@ -64,7 +64,7 @@ acknowledged stays in the spool for the next start.
 Exit status: 0 every reading acknowledged and stored; 1 bad options or a start-up failure; 2 the
 server refused the bench or the run (wrong or revoked token, run closed or not on this bench);
 3 finished, but the server refused some readings or some input lines held none (reasons on stderr);
-4 stopped with readings left in the spool.
+4 stopped before everything read was sent and acknowledged (what was read is kept in the spool).
 
 Example: bin/kilocycle bridge --server http://127.0.0.1:5180 --token kcb_… --run 12 \\
            --source scpi://127.0.0.1:5025 --interval 1000`;

@@ -380,6 +380,7 @@ export class Bridge {
 
   private async drainThenFinish(): Promise<void> {
     while (!this.sourceStopped) await new Promise((r) => setTimeout(r, 50));
+    if (!this.attach) return this.finish(4, 'stopped before the server answered: nothing was read');
     if (this.queue.length > 0 || this.inflight.size > 0) await new Promise<void>((resolve) => this.idleWaiters.push(resolve));
     const problems = this.stats.rejected + this.stats.skipped;
     await this.finish(

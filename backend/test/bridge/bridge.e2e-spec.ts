@@ -108,6 +108,35 @@ describe('the bridge and the counter simulator (e2e, real processes, MariaDB)', 
     });
   });
 
+  it('should flush on Ctrl-C: everything read is acknowledged and stored before it exits 0', async () => {
+    const { token, benchId } = await createBench(t.dataSource);
+    const run = await createRun(t.dataSource, { organizationId: org, benchId });
+    const child = bridge(token, run.runId, 'simulate:warmup', ['--interval', '2', '--speed', '60']);
+    await waitFor('readings to flow', async () => (await readingCount(t.dataSource, run.runId)) > 100, 15000);
+    child.process.kill('SIGINT');
+    expect(await child.exited).toBe(0);
+    const read = Number(/every reading acknowledged \((\d+) readings read/.exec(child.stderr())?.[1]);
+    expect(read).toBeGreaterThan(100);
+    expect(await readingCount(t.dataSource, run.runId)).toBe(read);
+  });
+
+  it('should keep what it could not send in the spool when the server is gone, and exit 4 on Ctrl-C', async () => {
+    const { token, benchId } = await createBench(t.dataSource);
+    const run = await createRun(t.dataSource, { organizationId: org, benchId });
+    const spool = join(dir, 'unreachable.jsonl');
+    // Send a first reading, then point a second bridge at a port nobody listens on.
+    const first = startNode(DIST.bridge, ['--server', url, '--token', token, '--run', String(run.runId), '--source', 'stdin', '--spool', spool]);
+    children.push(first);
+    first.process.stdin!.end('7050000\n');
+    expect(await first.exited).toBe(0);
+    const unreachable = startNode(DIST.bridge, ['--server', 'http://127.0.0.1:9', '--token', token, '--run', String(run.runId), '--source', 'stdin', '--spool', spool]);
+    children.push(unreachable);
+    await waitFor('the bridge to report the server unreachable', () => unreachable.stderr().includes('unreachable'), 10000);
+    unreachable.process.kill('SIGINT');
+    expect(await unreachable.exited).toBe(4);
+    expect(statSync(spool).size).toBe(0); // nothing was read: a bridge reads only once attached
+  });
+
   it('should send readings left in a spool by an earlier bridge first, then clear it', async () => {
     const { token, benchId } = await createBench(t.dataSource);
     const run = await createRun(t.dataSource, { organizationId: org, benchId });
