@@ -1,4 +1,4 @@
-import { columnForHeader, convertRow, detectDelimiter, ImportFileError, parseMapping, resolveColumns } from './csv-columns.js';
+import { columnForHeader, convertRow, detectDelimiter, detectNewline, ImportFileError, lastRecordEnd, parseMapping, resolveColumns } from './csv-columns.js';
 
 const run = { kind: 'warmup' as const, startedAtMs: Date.parse('2025-03-01T08:00:00Z') };
 
@@ -49,7 +49,7 @@ describe('convertRow()', () => {
   test('mixed units: the cell, the unit column, the header, else Hz', () => {
     expect(convertRow(['1', '1735 kHz', '', ''], columns, run)).toEqual({ input: { t: 1, frequency: 1_735_000 } });
     expect(convertRow(['2', '1.735', 'MHz', ''], columns, run)).toEqual({ input: { t: 2, frequency: 1_735_000 } });
-    expect(convertRow(['3', '1735000', '', '7,5'], columns, run)).toEqual({ input: { t: 3, frequency: 1_735_000, dial: '7,5' } });
+    expect(convertRow(['3', '1735000', '', '7,5'], columns, run)).toEqual({ input: { t: 3, frequency: 1_735_000, dial: 7.5 } });
     const kHzHeader = resolveColumns(['time', 'Counter [kHz]'], null);
     expect(convertRow(['0', '7001.25'], kHzHeader, run)).toEqual({ input: { t: 0, frequency: 7_001_250 } });
   });
@@ -70,6 +70,22 @@ describe('convertRow()', () => {
   });
 
   test('a calibration run may leave the time out', () => {
-    expect(convertRow(['', '1735 kHz', '', '1735'], columns, { ...run, kind: 'as_found' })).toEqual({ input: { frequency: 1_735_000, dial: '1735' } });
+    expect(convertRow(['', '1735 kHz', '', '1735'], columns, { ...run, kind: 'as_found' })).toEqual({ input: { frequency: 1_735_000, dial: 1735 } });
+  });
+});
+
+describe('detectNewline() and lastRecordEnd()', () => {
+  test('finds the line break outside quotes', () => {
+    expect(detectNewline('a,b\r\n1,2')).toBe('\r\n');
+    expect(detectNewline('"x\r\ny",b\n1,2')).toBe('\n');
+    expect(detectNewline('a\rb')).toBe('\r');
+    expect(detectNewline('abc')).toBe('\n');
+  });
+
+  test('cuts after the last record end, never inside a quoted cell or between CR and LF', () => {
+    expect(lastRecordEnd('a,b\r\n1,2\r\n3,', '\r\n')).toBe(10);
+    expect(lastRecordEnd('a,b\r\n1,2\r', '\r\n')).toBe(5);
+    expect(lastRecordEnd('a,"b\nc"\nd,"e\nf', '\n')).toBe(8);
+    expect(lastRecordEnd('"open\n', '\n')).toBe(-1);
   });
 });

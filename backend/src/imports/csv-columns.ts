@@ -2,6 +2,7 @@ import { CALIBRATION_RUN_KINDS, IMPORT_COLUMNS, type FrequencyUnit, type ImportC
 import { parseFrequency, parseNumber } from '@kilocycle/common/units';
 
 export type Delimiter = ',' | '\t' | ';';
+export type Newline = '\r\n' | '\n' | '\r';
 
 /** A problem with the file as a whole (header, mapping): 400, nothing written. */
 export class ImportFileError extends Error {}
@@ -59,6 +60,35 @@ export function detectDelimiter(firstLine: string, fileName: string): Delimiter 
   let best: Delimiter = order[0]!;
   for (const d of order) if (counts[d] > counts[best]) best = d;
   return best;
+}
+
+/** The line break of a file from its first one outside quotes: Windows (CRLF), Unix (LF) or old Mac (CR); LF when there is none. */
+export function detectNewline(text: string): Newline {
+  let quoted = false;
+  for (let i = 0; i < text.length; i++) {
+    const c = text[i];
+    if (c === '"') quoted = !quoted;
+    else if (!quoted && c === '\r') return text[i + 1] === '\n' ? '\r\n' : '\r';
+    else if (!quoted && c === '\n') return '\n';
+  }
+  return '\n';
+}
+
+/**
+ * The index just after the last line break that ends a record — outside quotes, counting from the
+ * start of `text`, which must itself be the start of a record — or −1 when there is none yet.
+ */
+export function lastRecordEnd(text: string, newline: Newline): number {
+  const mark = newline.charCodeAt(0);
+  const pair = newline.length === 2;
+  let quoted = false;
+  let last = -1;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c === 34) quoted = !quoted;
+    else if (!quoted && c === mark && (!pair || text.charCodeAt(i + 1) === 10)) last = i + newline.length;
+  }
+  return last;
 }
 
 /** Parses the `mapping` parameter (JSON object of column → header name or 1-based column number). */
@@ -174,7 +204,13 @@ export function convertRow(cells: readonly string[], columns: ResolvedColumns, r
   }
 
   const dialText = cell('dial');
-  if (dialText !== '') input.dial = dialText;
+  if (dialText !== '') {
+    try {
+      input.dial = parseNumber(dialText);
+    } catch (error) {
+      return { column: 'dial', reason: message(error) };
+    }
+  }
 
   const unitText = cell('unit');
   let unit: FrequencyUnit | null = columns.frequencyUnit;

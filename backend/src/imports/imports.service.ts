@@ -23,7 +23,6 @@ import {
   type ImportMode,
   type ImportRejection,
   type ImportReport,
-  type ReadingInput,
 } from '@kilocycle/common/types';
 import { sniffContent } from '../attachments/content-sniffer.js';
 import { AuditService } from '../audit/audit.service.js';
@@ -31,17 +30,19 @@ import { organizationScope, type AuthUser } from '../auth/auth-user.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { MAX_BATCH, ReadingsWriter, refusalReason, type RunWriteContext } from '../readings/readings-writer.service.js';
 import { assertMayWriteRun } from '../runs/run-rules.js';
-import { convertRow, detectDelimiter, ImportFileError, needsTime, parseMapping, resolveColumns, type Delimiter, type ResolvedColumns } from './csv-columns.js';
+import { convertRow, detectDelimiter, detectNewline, ImportFileError, lastRecordEnd, needsTime, parseMapping, resolveColumns, type Delimiter, type Newline, type ResolvedColumns } from './csv-columns.js';
 import type { ImportQueryDto } from './dto/import-query.dto.js';
 import { ImportProgressStore, type ImportTracker } from './import-progress.store.js';
+import { ReadingBatch } from './reading-batch.js';
 import { megabytesFromEnv, readHead, receiveUpload, removeQuietly, type ReceivedUpload } from './multipart-upload.js';
 
 /** How much of the run's notes the list of skipped rows may take (the column is TEXT, 64 KB). */
 const NOTES_LIMIT = 60_000;
 const NOTES_LISTED_ROWS = 100;
+/** A record (line) longer than this is refused rather than buffered: most likely an unclosed quote. */
+const MAX_RECORD_CHARS = 4_000_000;
 
-type UploadedFile = { path: string; name: string; size: number; bomLength: number; delimiter: Delimiter };
-type Batch = { inputs: ReadingInput[]; lines: number[]; rejected: ImportRejection[] };
+type UploadedFile = { path: string; name: string; size: number; bomLength: number; delimiter: Delimiter; newline: Newline };
 type PassResult = { rows: number };
 
 /**
@@ -105,8 +106,10 @@ export class ImportsService {
     const head = await readHead(upload.path);
     const sniffed = sniffContent(head);
     if (!sniffed.text) throw new UnsupportedMediaTypeException(`the file is not CSV or TSV text (it looks like ${sniffed.description})`);
-    const firstLine = Buffer.from(head.subarray(sniffed.bomLength)).toString('utf8').split(/\r?\n|\r/)[0] ?? '';
+    const headText = Buffer.from(head.subarray(sniffed.bomLength)).toString('utf8');
+    const firstLine = headText.split(/\r?\n|\r/)[0] ?? '';
     const file: UploadedFile = {
+      newline: detectNewline(headText),
       path: upload.path,
       name: upload.originalName,
       size: upload.size,
@@ -136,7 +139,7 @@ export class ImportsService {
     if (mode === 'all') {
       // Pass 1: validate every row; nothing is written unless all are good.
       const checked = await this.pass(file, columns, ctx, tracker, 'validating', async (batch) => {
-        record(sortByLine([...batch.rejected, ...this.locate(this.writer.validate(ctx, batch.inputs).rejected, batch, columns)]));
+        record(sortByLine([...batch.rejected, ...this.locate(this.writer.validate(ctx, batch.inputs()).rejected, batch, columns)]));
       });
       report.rowCount = checked.rows;
       if (report.rowCount === 0) throw refused(report, [{ line: 2, column: 'file', reason: 'the file has no readings under its header' }], 'the file has no readings under its header');
@@ -149,7 +152,7 @@ export class ImportsService {
     await this.dataSource.transaction(async (manager) => {
       await this.lockRun(manager, ctx.runId);
       const written = await this.pass(file, columns, ctx, tracker, 'writing', async (batch) => {
-        const result = batch.inputs.length === 0 ? null : await this.writer.append(ctx, batch.inputs, 'import', { manager, skipReadBack: true });
+        const result = batch.size === 0 ? null : await this.writer.append(ctx, batch.inputs(), 'import', { manager, skipReadBack: true });
         const refusedNow = result ? this.locate(result.rejected, batch, columns) : [];
         // Pass 1 passed every row; a refusal now means the rules changed underneath: roll everything back.
         if (mode === 'all' && (refusedNow.length > 0 || batch.rejected.length > 0)) throw new ConflictException('a row changed between validating and writing; nothing was imported');
@@ -189,74 +192,115 @@ export class ImportsService {
 
   /** The header row (the file's first line). */
   private async header(file: UploadedFile): Promise<string[]> {
-    for await (const row of this.rows(file, () => undefined)) return row.cells;
+    const state = { line: 1 };
+    for await (const block of this.blocks(file, () => undefined)) {
+      let header: string[] | null = null;
+      this.parseBlock(block, file, state, (_line, cells) => {
+        header ??= cells;
+      });
+      if (header) return header;
+    }
     throw new ImportFileError('the file is empty');
   }
 
-  /** The file's rows as they stream off the disk, each with the line it starts on (blank lines skipped, still counted). */
-  private async *rows(file: UploadedFile, onBytes: (bytes: number) => void): AsyncGenerator<{ line: number; cells: string[] }> {
-    const stream = createReadStream(file.path, { start: file.bomLength, encoding: 'utf8', highWaterMark: 256 * 1024 });
-    const parser = Papa.parse(Papa.NODE_STREAM_INPUT, { delimiter: file.delimiter, header: false, skipEmptyLines: false });
-    stream.pipe(parser);
-    let line = 1;
+  /**
+   * The file as it streams off the disk, in blocks of whole records (about 64 kB): each block is cut
+   * at the last line break outside quotes, so a quoted cell may hold line breaks.
+   */
+  private async *blocks(file: UploadedFile, onBytes: (bytes: number) => void): AsyncGenerator<string> {
+    const stream = createReadStream(file.path, { start: file.bomLength, encoding: 'utf8', highWaterMark: 64 * 1024 });
+    let pending = '';
     try {
-      for await (const cells of parser as AsyncIterable<string[]>) {
-        const start = line;
-        line += 1;
-        // A quoted cell may hold line breaks: count them so later line numbers stay right.
-        for (const cell of cells) if (cell.includes('\n')) line += cell.split('\n').length - 1;
-        if (start % 1000 === 0) onBytes(file.bomLength + stream.bytesRead);
-        if (cells.length === 0 || (cells.length === 1 && cells[0]!.trim() === '')) continue;
-        yield { line: start, cells };
+      for await (const chunk of stream as AsyncIterable<string>) {
+        pending += chunk;
+        const end = lastRecordEnd(pending, file.newline);
+        if (end < 0) {
+          if (pending.length > MAX_RECORD_CHARS) throw new ImportFileError(`a line runs on for more than ${MAX_RECORD_CHARS / 1_000_000} million characters: is a quote left open?`);
+          continue;
+        }
+        // The block stops before its last line break, so papaparse sees no empty row after it.
+        const block = pending.slice(0, end - file.newline.length);
+        pending = pending.slice(end);
+        yield block;
+        onBytes(file.bomLength + stream.bytesRead);
       }
+      if (pending !== '') yield pending;
     } finally {
       stream.destroy();
-      parser.destroy();
     }
   }
 
-  /** One pass over the data rows: each converted, and handed on in batches of MAX_BATCH. */
+  /**
+   * Parses one block with papaparse, row by row, handing each non-blank row and the line it starts on
+   * to `visit` at once: no array of rows is built, so nothing of the text outlives its row.
+   */
+  private parseBlock(block: string, file: UploadedFile, state: { line: number }, visit: (line: number, cells: string[]) => void): void {
+    Papa.parse<string[]>(block, {
+      delimiter: file.delimiter,
+      newline: file.newline,
+      header: false,
+      skipEmptyLines: false,
+      step: (results) => {
+        const cells = results.data;
+        const start = state.line;
+        state.line += 1;
+        for (const cell of cells) if (cell.includes(file.newline)) state.line += cell.split(file.newline).length - 1;
+        if (cells.length === 0 || (cells.length === 1 && cells[0]!.trim() === '')) return;
+        visit(start, cells);
+      },
+    });
+  }
+
+  /**
+   * One pass over the data rows: each converted and handed on in batches of MAX_BATCH. A block of the
+   * file is converted whole before any batch of it goes to the database, so no text waits on a round trip.
+   */
   private async pass(
     file: UploadedFile,
     columns: ResolvedColumns,
     ctx: RunWriteContext,
     tracker: ImportTracker,
     phase: 'validating' | 'writing',
-    handle: (batch: Batch) => Promise<void>,
+    handle: (batch: ReadingBatch) => Promise<void>,
   ): Promise<PassResult> {
     tracker.update({ phase, bytesTotal: file.size, bytesDone: 0, rowsDone: 0 });
     const run = { kind: ctx.kind, startedAtMs: ctx.startedAt.getTime() };
     let rows = 0;
-    let batch: Batch = { inputs: [], lines: [], rejected: [] };
-    const flush = async () => {
-      if (batch.inputs.length === 0 && batch.rejected.length === 0) return;
-      await handle(batch);
-      batch = { inputs: [], lines: [], rejected: [] };
-      tracker.update({ rowsDone: rows });
+    let handled = 0;
+    let header = true;
+    let batch = new ReadingBatch();
+    const ready: ReadingBatch[] = [];
+    const send = async (next: ReadingBatch) => {
+      await handle(next);
+      handled += next.size + next.rejected.length;
+      tracker.update({ rowsDone: handled });
     };
-    let first = true;
-    for await (const { line, cells } of this.rows(file, (bytesDone) => tracker.update({ bytesDone }))) {
-      if (first) {
-        first = false; // the header
-        continue;
+    const state = { line: 1 };
+    const visit = (line: number, cells: string[]) => {
+      if (header) {
+        header = false;
+        return;
       }
       rows += 1;
       const converted = convertRow(cells, columns, run);
-      if ('input' in converted) {
-        batch.inputs.push(converted.input);
-        batch.lines.push(line);
-      } else {
-        batch.rejected.push({ line, column: columns.names[converted.column] ?? converted.column, reason: converted.reason });
+      if ('input' in converted) batch.add(line, converted.input);
+      else batch.rejected.push({ line, column: columns.names[converted.column] ?? converted.column, reason: converted.reason });
+      if (batch.full) {
+        ready.push(batch);
+        batch = new ReadingBatch();
       }
-      if (batch.inputs.length + batch.rejected.length >= MAX_BATCH) await flush();
+    };
+    for await (const block of this.blocks(file, (bytesDone) => tracker.update({ bytesDone }))) {
+      this.parseBlock(block, file, state, visit);
+      while (ready.length > 0) await send(ready.shift()!);
     }
-    await flush();
+    if (!batch.empty) await send(batch);
     tracker.update({ bytesDone: file.size, rowsDone: rows });
     return { rows };
   }
 
   /** The write path's refusals (by index in the batch) as lines and columns of the file. */
-  private locate(rejected: ReadonlyArray<{ index: number; field: string; reason: string }>, batch: Batch, columns: ResolvedColumns): ImportRejection[] {
+  private locate(rejected: ReadonlyArray<{ index: number; field: string; reason: string }>, batch: ReadingBatch, columns: ResolvedColumns): ImportRejection[] {
     const columnOf = (field: string): string => {
       const key: ImportColumn | null = field === 't' ? 'time' : (IMPORT_COLUMNS as readonly string[]).includes(field) ? (field as ImportColumn) : null;
       return key ? (columns.names[key] ?? key) : field;

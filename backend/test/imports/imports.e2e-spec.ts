@@ -103,6 +103,15 @@ describe('CSV import (e2e, MariaDB)', () => {
     expect((await readings(tsvRun.runId)).map((r) => [Number(r.t_s), Number(r.frequency_hz)])).toEqual([[0, 7_001_250], [60, 7_001_500], [3600, 7_002_000]]);
   });
 
+  it('counts lines right after a quoted cell that holds a line break, and reads semicolon files with comma decimals', async () => {
+    const run = await newRun();
+    const file = Buffer.from('time;frequency (kHz);remark\n0;7001,25;"cold start,\nlid off"\n10;oops;\n20;7001,5;\n');
+    const res = await upload('tech', run.runId, file, 'log.csv');
+    expect(res.status).toBe(400);
+    expect(res.body.delimiter).toBe(';');
+    expect(res.body.rejected).toEqual([{ line: 4, column: 'frequency (kHz)', reason: expect.stringContaining("'oops'") }]);
+  });
+
   it('refuses a file that is really a PNG image, whatever its name says (415)', async () => {
     const run = await newRun();
     const res = await upload('tech', run.runId, PNG, 'readings.csv');
