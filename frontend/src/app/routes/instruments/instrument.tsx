@@ -57,7 +57,7 @@ export default function InstrumentRoute() {
         <InstrumentSummary instrument={i} actions={canEdit ? <EditInstrument instrument={i} /> : undefined} />
         <RangesEditor instrument={i} canEdit={canEdit} />
         <AttachmentsPanel owner="instrument" ownerId={i.id} canUpload={canEdit} canDelete={user.role === 'lead' || user.role === 'admin'} />
-        <Box sx={{ display: 'grid', gridTemplateColumns: { xs: 'minmax(0, 1fr)', lg: 'minmax(0, 2fr) minmax(0, 3fr)' }, gap: 2, alignItems: 'start' }}>
+        <Box sx={{ display: 'grid', gridTemplateColumns: 'minmax(0, 1fr)', gap: 2 }}>
           <Paper variant="outlined" sx={{ p: 2 }}>
             <Typography variant="h3" component="h2" sx={{ mb: 1 }}>
               Jobs

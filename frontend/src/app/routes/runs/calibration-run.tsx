@@ -3,9 +3,11 @@ import Box from '@mui/material/Box';
 import type { CalibrationRunAnalysis, Role, Run } from '@kilocycle/common/types';
 import { useInstrument } from '@/features/instruments/api/get-instrument';
 import { ReadingEntry } from '@/features/readings/components/reading-entry';
+import { useRefreshReadings } from '@/features/readings/api/get-readings';
 import { ReadingsTable } from '@/features/readings/components/readings-table';
+import { useLiveReadings } from '@/features/readings/hooks/use-live-readings';
 import { useRunAnalysis } from '@/features/runs/api/get-run-analysis';
-import { useRefreshRun } from '@/features/runs/api/use-refresh-run';
+import { useRefreshRun, useThrottledRefreshRun } from '@/features/runs/api/use-refresh-run';
 import { AlignmentPanel } from '@/features/runs/components/calibration/alignment-panel';
 import { CorrectionTable } from '@/features/runs/components/calibration/correction-table';
 import { ErrorChart } from '@/features/runs/components/calibration/error-chart';
@@ -20,6 +22,10 @@ import { analysisProblem, mayWriteRun, skipChartAnimation } from './run-access';
 export function CalibrationRun({ run, role }: { run: Run; role: Role }) {
   const analysis = useRunAnalysis({ id: run.id });
   const refresh = useRefreshRun(run.id);
+  // A run on a bench may also be fed by its bridge (a dial sweep): follow it live like a study.
+  const refreshReadings = useRefreshReadings(run.id);
+  const throttledRefresh = useThrottledRefreshRun(run.id, 500, refreshReadings);
+  useLiveReadings(run.id, { enabled: run.status === 'open' && run.benchId !== null, onReadings: throttledRefresh });
   const canWrite = mayWriteRun(role, run.kind);
   const data = analysis.data?.analysis === 'calibration' ? (analysis.data as CalibrationRunAnalysis) : null;
   const problem = analysisProblem(analysis.error);
