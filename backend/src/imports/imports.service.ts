@@ -4,7 +4,9 @@ import {
   HttpException,
   Inject,
   Injectable,
+  Logger,
   NotFoundException,
+  type OnModuleInit,
   UnsupportedMediaTypeException,
 } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
@@ -34,7 +36,7 @@ import { convertRow, detectDelimiter, detectNewline, ImportFileError, lastRecord
 import type { ImportQueryDto } from './dto/import-query.dto.js';
 import { ImportProgressStore, type ImportTracker } from './import-progress.store.js';
 import { ReadingBatch } from './reading-batch.js';
-import { megabytesFromEnv, readHead, receiveUpload, removeQuietly, type ReceivedUpload } from './multipart-upload.js';
+import { megabytesFromEnv, readHead, receiveUpload, removeQuietly, removeStaleUploads, type ReceivedUpload } from './multipart-upload.js';
 
 /** How much of the run's notes the list of skipped rows may take (the column is TEXT, 64 KB). */
 const NOTES_LIMIT = 60_000;
@@ -53,7 +55,8 @@ type PassResult = { rows: number };
  * valid rows in one pass and lists the skipped ones in the run's notes.
  */
 @Injectable()
-export class ImportsService {
+export class ImportsService implements OnModuleInit {
+  private readonly logger = new Logger('Imports');
   readonly maxBytes = megabytesFromEnv('KC_IMPORT_MAX_MB', DEFAULT_IMPORT_MAX_MB);
 
   constructor(
@@ -63,6 +66,12 @@ export class ImportsService {
     private readonly progress: ImportProgressStore,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
   ) {}
+
+  /** Uploads a stopped server left half-checked in var/tmp are removed at start (after an hour, so a running upload is safe). */
+  async onModuleInit(): Promise<void> {
+    const removed = await removeStaleUploads(join(this.config.varDir, 'tmp'), 3600_000).catch(() => 0);
+    if (removed > 0) this.logger.warn(`removed ${removed} unfinished upload(s) from ${join(this.config.varDir, 'tmp')}`);
+  }
 
   async import(actor: AuthUser, runId: number, query: ImportQueryDto, req: Request, res: Response): Promise<ImportReport> {
     const ctx = await this.writer.loadContext(runId);

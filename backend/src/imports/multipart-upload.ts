@@ -3,7 +3,8 @@ import type { Request, Response } from 'express';
 import multer, { MulterError } from 'multer';
 import { randomBytes } from 'node:crypto';
 import { mkdirSync } from 'node:fs';
-import { open, unlink } from 'node:fs/promises';
+import { join } from 'node:path';
+import { open, readdir, stat, unlink } from 'node:fs/promises';
 import { SNIFF_BYTES } from '../attachments/content-sniffer.js';
 
 /** A file received to disk, with the multipart text fields that came with it. */
@@ -89,4 +90,20 @@ export async function removeQuietly(path: string): Promise<void> {
   await unlink(path).catch((error: NodeJS.ErrnoException) => {
     if (error.code !== 'ENOENT') throw error;
   });
+}
+
+/** Removes uploads left in `dir` by a server that stopped half-way (older than `olderThanMs`); answers how many. */
+export async function removeStaleUploads(dir: string, olderThanMs: number, now = Date.now()): Promise<number> {
+  const names = await readdir(dir).catch(() => [] as string[]);
+  let removed = 0;
+  for (const name of names) {
+    if (!/^[0-9a-f]{32}\.upload$/.test(name)) continue;
+    const path = join(dir, name);
+    const info = await stat(path).catch(() => null);
+    if (info && now - info.mtimeMs > olderThanMs) {
+      await removeQuietly(path);
+      removed += 1;
+    }
+  }
+  return removed;
 }
