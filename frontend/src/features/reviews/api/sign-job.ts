@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { SIGNING_MEANING, type CertificateDetail } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { getReviewQueryOptions } from './get-review';
 import { invalidateJobEverywhere } from './invalidate-job';
 
 export type SignJobInput = { jobId: number; password: string };
@@ -27,5 +28,7 @@ export function useSignJob({ onSuccess }: { onSuccess?: (certificate: Certificat
       await queryClient.invalidateQueries({ queryKey: ['certificates'] });
       onSuccess?.(certificate);
     },
+    // A refused signature is recorded in the job's history: show it.
+    onError: (_error, { jobId }) => void queryClient.invalidateQueries({ queryKey: getReviewQueryOptions(jobId).queryKey }),
   });
 }
