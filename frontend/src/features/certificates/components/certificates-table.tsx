@@ -120,7 +120,7 @@ function Table({ shape, embedded, verifyPath, jobPath, height }: { shape: Shape 
           ),
       },
       { field: 'issuedAt', headerName: 'Issued', width: 110, renderCell: ({ row }) => <Num>{formatDate(row.issuedAt)}</Num> },
-      { field: 'decision', headerName: 'Decision', width: 116, sortable: false, renderCell: ({ row }) => <DecisionChip decision={row.decision} /> },
+      { field: 'decision', headerName: 'Decision', width: 116, sortable: false, renderCell: ({ row }) => (row.status === 'draft' ? '—' : <DecisionChip decision={row.decision} />) },
       {
         field: 'actions',
         headerName: '',
