@@ -31,6 +31,9 @@ describe('the bridge and the counter simulator (e2e, real processes, MariaDB)', 
     children.push(child);
     return child;
   };
+  /** The exit code, with the bridge's stderr alongside so a failure shows why. */
+  const exitOf = async (child: Child) => ({ code: await child.exited, stderr: child.stderr() });
+  const exitsWith = async (child: Child, code: number) => expect(await exitOf(child)).toEqual({ code, stderr: expect.any(String) });
   const seqs = async (runId: number) =>
     (await t.dataSource.query('SELECT seq FROM readings WHERE run_id = ? ORDER BY seq', [runId])).map((r: { seq: number }) => Number(r.seq));
 
@@ -42,7 +45,7 @@ describe('the bridge and the counter simulator (e2e, real processes, MariaDB)', 
       const lines = ['# dial,frequency', '3500,3503870', '5500,5506125.5', '7500 ; 7.508 MHz'];
       for (let i = 0; i < 500; i++) lines.push(`${3500 + i * 8},${(3500 + i * 8) * 1000 + 3000}`);
       child.process.stdin!.end(lines.join('\n') + '\n');
-      expect(await child.exited).toBe(0);
+      await exitsWith(child, 0);
       expect(child.stdout()).toBe('');
       expect(child.stderr()).toContain('every reading acknowledged');
       const rows = await t.dataSource.query('SELECT seq, dial, frequency_hz, source FROM readings WHERE run_id = ? ORDER BY seq LIMIT 3', [run.runId]);
@@ -59,10 +62,10 @@ describe('the bridge and the counter simulator (e2e, real processes, MariaDB)', 
       const run = await createRun(t.dataSource, { organizationId: org, benchId });
       const first = bridge(token, run.runId, 'stdin');
       first.process.stdin!.end('7050000\n7050001\n7050002\n');
-      expect(await first.exited).toBe(0);
+      await exitsWith(first, 0);
       const second = bridge(token, run.runId, 'stdin');
       second.process.stdin!.end('7050003\n7050004\n');
-      expect(await second.exited).toBe(0);
+      await exitsWith(second, 0);
       expect(second.stderr()).toContain('numbering from seq 4');
       expect(await seqs(run.runId)).toEqual([1, 2, 3, 4, 5]);
     });
@@ -72,10 +75,10 @@ describe('the bridge and the counter simulator (e2e, real processes, MariaDB)', 
       const run = await createRun(t.dataSource, { organizationId: org, benchId, startedAt: new Date(Date.now() - 3600_000) });
       const fromRun = bridge(token, run.runId, 'stdin');
       fromRun.process.stdin!.end('7050000\n');
-      expect(await fromRun.exited).toBe(0);
+      await exitsWith(fromRun, 0);
       const fromNow = bridge(token, run.runId, 'stdin', ['--time-zero', 'now']);
       fromNow.process.stdin!.end('7050001\n');
-      expect(await fromNow.exited).toBe(0);
+      await exitsWith(fromNow, 0);
       const [first, second] = await t.dataSource.query('SELECT t_s FROM readings WHERE run_id = ? ORDER BY seq', [run.runId]);
       expect(Number(first.t_s)).toBeGreaterThan(3599);
       expect(Number(first.t_s)).toBeLessThan(3700);
@@ -87,7 +90,7 @@ describe('the bridge and the counter simulator (e2e, real processes, MariaDB)', 
       const run = await createRun(t.dataSource, { organizationId: org, benchId });
       const child = bridge(token, run.runId, 'stdin');
       child.process.stdin!.end('7050000\nseven megacycles\n20000,7050000\n');
-      expect(await child.exited).toBe(3);
+      await exitsWith(child, 3);
       expect(child.stderr()).toContain('line 2 skipped');
       expect(child.stderr()).toMatch(/seq 2 refused \(dial\): dial 20000 is outside/);
       expect(await seqs(run.runId)).toEqual([1]);
@@ -98,12 +101,12 @@ describe('the bridge and the counter simulator (e2e, real processes, MariaDB)', 
       const run = await createRun(t.dataSource, { organizationId: org, benchId });
       const wrong = bridge('kcb_wrong', run.runId, 'stdin');
       wrong.process.stdin!.end('7050000\n');
-      expect(await wrong.exited).toBe(2);
+      await exitsWith(wrong, 2);
       expect(wrong.stderr()).toContain('the server refused the bench: the bench token is not valid');
       const elsewhere = await createRun(t.dataSource, { organizationId: org, benchId: null });
       const unassigned = bridge(token, elsewhere.runId, 'stdin');
       unassigned.process.stdin!.end('7050000\n');
-      expect(await unassigned.exited).toBe(2);
+      await exitsWith(unassigned, 2);
       expect(unassigned.stderr()).toContain(`run ${elsewhere.runId} is not assigned to bench`);
     });
   });
@@ -114,7 +117,7 @@ describe('the bridge and the counter simulator (e2e, real processes, MariaDB)', 
     const child = bridge(token, run.runId, 'simulate:warmup', ['--interval', '2', '--speed', '60']);
     await waitFor('readings to flow', async () => (await readingCount(t.dataSource, run.runId)) > 100, 15000);
     child.process.kill('SIGINT');
-    expect(await child.exited).toBe(0);
+    await exitsWith(child, 0);
     const read = Number(/every reading acknowledged \((\d+) readings read/.exec(child.stderr())?.[1]);
     expect(read).toBeGreaterThan(100);
     expect(await readingCount(t.dataSource, run.runId)).toBe(read);
@@ -128,12 +131,12 @@ describe('the bridge and the counter simulator (e2e, real processes, MariaDB)', 
     const first = startNode(DIST.bridge, ['--server', url, '--token', token, '--run', String(run.runId), '--source', 'stdin', '--spool', spool]);
     children.push(first);
     first.process.stdin!.end('7050000\n');
-    expect(await first.exited).toBe(0);
+    await exitsWith(first, 0);
     const unreachable = startNode(DIST.bridge, ['--server', 'http://127.0.0.1:9', '--token', token, '--run', String(run.runId), '--source', 'stdin', '--spool', spool]);
     children.push(unreachable);
     await waitFor('the bridge to report the server unreachable', () => unreachable.stderr().includes('unreachable'), 10000);
     unreachable.process.kill('SIGINT');
-    expect(await unreachable.exited).toBe(4);
+    await exitsWith(unreachable, 4);
     expect(statSync(spool).size).toBe(0); // nothing was read: a bridge reads only once attached
   });
 
@@ -145,7 +148,7 @@ describe('the bridge and the counter simulator (e2e, real processes, MariaDB)', 
     const child = startNode(DIST.bridge, ['--server', url, '--token', token, '--run', String(run.runId), '--source', 'stdin', '--spool', spool]);
     children.push(child);
     child.process.stdin!.end('7000002\n');
-    expect(await child.exited).toBe(0);
+    await exitsWith(child, 0);
     expect(child.stderr()).toContain('2 readings left in');
     expect(await seqs(run.runId)).toEqual([1, 2, 3]);
     expect(statSync(spool).size).toBe(0);
@@ -157,8 +160,8 @@ describe('the bridge and the counter simulator (e2e, real processes, MariaDB)', 
     const run = await createRun(t.dataSource, { organizationId: org, benchId });
     const a = bridge(token, run.runId, 'simulate:stable', ['--interval', '1', '--count', '1500', '--seed', '1']);
     const b = bridge(token, run.runId, 'simulate:stable', ['--interval', '1', '--count', '1500', '--seed', '2']);
-    expect(await a.exited).toBe(0);
-    expect(await b.exited).toBe(0);
+    await exitsWith(a, 0);
+    await exitsWith(b, 0);
     const stored = await seqs(run.runId);
     expect(stored.length).toBe(3000);
     expect(new Set(stored).size).toBe(3000);
@@ -192,7 +195,7 @@ describe('the bridge and the counter simulator (e2e, real processes, MariaDB)', 
       const { token, benchId } = await createBench(t.dataSource);
       const run = await createRun(t.dataSource, { organizationId: org, benchId });
       const child = bridge(token, run.runId, `scpi://127.0.0.1:${port}`, ['--interval', '20', '--count', '25']);
-      expect(await child.exited).toBe(0);
+      await exitsWith(child, 0);
       expect(child.stderr()).toContain('counter: Kilocycle,Simulated frequency counter');
       const rows = await t.dataSource.query('SELECT seq, t_s, frequency_hz FROM readings WHERE run_id = ? ORDER BY seq', [run.runId]);
       expect(rows).toHaveLength(25);
