@@ -17,7 +17,10 @@ import { ChartsTooltip } from '@mui/x-charts/ChartsTooltip';
 import { ChartsWrapper } from '@mui/x-charts/ChartsWrapper';
 import { LinePlot } from '@mui/x-charts/LineChart';
 import { ScatterPlot } from '@mui/x-charts/ScatterChart';
-import { useMemo } from 'react';
+import ToggleButton from '@mui/material/ToggleButton';
+import ToggleButtonGroup from '@mui/material/ToggleButtonGroup';
+import { ChartsReferenceLine } from '@mui/x-charts/ChartsReferenceLine';
+import { useMemo, useState } from 'react';
 import { evaluateWarmup } from '@kilocycle/common/math';
 import type { Reading, WarmupRunAnalysis } from '@kilocycle/common/types';
 import { Num } from '@/components/ui/num';
@@ -40,6 +43,7 @@ type WarmupViewProps = {
 export function WarmupView({ analysis, problem, latest, skipAnimation }: WarmupViewProps) {
   const theme = useTheme();
   const fit = analysis?.fit ?? null;
+  const [view, setView] = useState<'frequency' | 'residual'>('frequency');
 
   const chart = useMemo(() => {
     const t: number[] = [];
@@ -68,8 +72,11 @@ export function WarmupView({ analysis, problem, latest, skipAnimation }: WarmupV
         fitted = null;
       }
     }
-    return { xs, perUnit, points: xs.map((x, i) => ({ id: i, x, y: f[i]! })), fitted };
-  }, [analysis, latest, fit]);
+    // Residuals from the fit show what the curve hides: noise, steps, a drift the model does not describe.
+    const residual = view === 'residual' && fitted !== null;
+    const points = xs.map((x, i) => ({ id: i, x, y: residual ? f[i]! - fitted![i]! : f[i]! }));
+    return { xs, perUnit, points, fitted: residual ? null : fitted, residual };
+  }, [analysis, latest, fit, view]);
 
   const series = [
     {
@@ -77,9 +84,11 @@ export function WarmupView({ analysis, problem, latest, skipAnimation }: WarmupV
       id: 'readings',
       label: 'Readings',
       data: chart.points,
-      markerSize: 2.5,
-      color: theme.palette.primary.main,
-      valueFormatter: (v: { x: number; y: number } | null) => (v ? `${formatDuration(v.x * chart.perUnit)}: ${formatHzTo(v.y, 0.01)}` : ''),
+      // Dense records draw small, light points so the fitted curve on top stays readable.
+      markerSize: chart.points.length > 300 ? 1.5 : 2.5,
+      color: chart.points.length > 300 ? theme.palette.primary.light : theme.palette.primary.main,
+      valueFormatter: (v: { x: number; y: number } | null) =>
+        v ? `${formatDuration(v.x * chart.perUnit)}: ${chart.residual ? `${formatNumber(v.y, 2, true)} Hz from the fit` : formatHzTo(v.y, 0.01)}` : '',
     },
     ...(chart.fitted
       ? [
@@ -101,9 +110,17 @@ export function WarmupView({ analysis, problem, latest, skipAnimation }: WarmupV
   return (
     <Box sx={{ display: 'grid', gridTemplateColumns: { xs: '1fr', lg: '2fr 1fr' }, gap: 2, alignItems: 'start' }}>
       <Paper variant="outlined" sx={{ p: 2 }}>
-        <Typography variant="h3" component="h2" sx={{ mb: 1 }}>
-          Frequency since power-on
-        </Typography>
+        <Box sx={{ display: 'flex', alignItems: 'center', gap: 2, mb: 1 }}>
+          <Typography variant="h3" component="h2" sx={{ flex: 1 }}>
+            Frequency since power-on
+          </Typography>
+          <ToggleButtonGroup exclusive size="small" value={view} onChange={(_e, v: 'frequency' | 'residual' | null) => v && setView(v)} aria-label="Show">
+            <ToggleButton value="frequency">Frequency</ToggleButton>
+            <ToggleButton value="residual" disabled={!fit}>
+              Residual from fit
+            </ToggleButton>
+          </ToggleButtonGroup>
+        </Box>
         {chart.points.length === 0 ? (
           <Box sx={{ height: 360, display: 'grid', placeItems: 'center', color: 'text.secondary' }}>Waiting for the first readings…</Box>
         ) : (
@@ -117,19 +134,20 @@ export function WarmupView({ analysis, problem, latest, skipAnimation }: WarmupV
               yAxis={[
                 {
                   id: 'f',
-                  label: 'Frequency (Hz)',
+                  label: chart.residual ? 'Residual (Hz)' : 'Frequency (Hz)',
                   width: 96,
                   tickLabelStyle: tickStyle,
-                  valueFormatter: (v: number) => formatNumber(v, 0),
+                  valueFormatter: (v: number) => formatNumber(v, chart.residual ? 1 : 0),
                 },
               ]}
             >
               <ChartsWrapper legendPosition={{ vertical: 'top', horizontal: 'end' }}>
                 <ChartsLegend />
-                <ChartsSurface>
+                <ChartsSurface sx={{ '& path[data-series="fit"]': { strokeWidth: 1.75 } }}>
                   <ChartsGrid horizontal vertical />
-                  <LinePlot />
                   <ScatterPlot />
+                  <LinePlot />
+                  {chart.residual && <ChartsReferenceLine y={0} lineStyle={{ stroke: theme.palette.secondary.main }} />}
                   <ChartsAxis />
                 </ChartsSurface>
                 <ChartsTooltip trigger="item" />
