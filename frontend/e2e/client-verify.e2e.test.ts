@@ -2,8 +2,9 @@ import { readFileSync } from 'node:fs';
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Certificate, ListResponse } from '@kilocycle/common/types';
-import { DEMO_PASSWORD, keepScreenshot, launchBrowser, newPage, signIn } from './support/browser';
+import { DEMO_PASSWORD, keepScreenshot, launchBrowser, signIn } from './support/browser';
 import { apiGet, apiLogin } from './support/lab';
+import { patientPage } from './support/patient-page';
 
 // Journey 4 (PRODUCT.md §4): the client signs in, sees the organisation's instruments and certificates, downloads
 // the PDF and verifies it on the public page; a copy with one byte changed is refused.
@@ -25,7 +26,7 @@ describe('client portal and public verification (browser)', () => {
   });
 
   it('should show the client the organisation’s instruments, jobs and certificates, and download the PDF', async () => {
-    const page = await newPage(browser);
+    const page = await patientPage(browser);
     await signIn(page, 'client@northgate.test');
     await page.getByRole('heading', { name: 'Northgate Radio Club' }).waitFor();
 
@@ -51,7 +52,7 @@ describe('client portal and public verification (browser)', () => {
 
   it('should confirm on the public page, without signing in, that the downloaded PDF is the issued one', async () => {
     expect(pdf).toBeDefined();
-    const page = await newPage(browser);
+    const page = await patientPage(browser);
     await page.goto('/verify');
     await page.getByLabel('Certificate number').fill(certificate.number.toLowerCase());
     await page.getByRole('button', { name: 'Look it up' }).click();
@@ -73,7 +74,7 @@ describe('client portal and public verification (browser)', () => {
     const altered = Buffer.from(pdf);
     const middle = Math.floor(altered.length / 2);
     altered[middle] = altered[middle]! ^ 0x01;
-    const page = await newPage(browser);
+    const page = await patientPage(browser);
     await page.goto(`/verify/${certificate.number}`);
     await page.getByTestId('certificate-status').waitFor();
     await page.getByLabel('Certificate PDF to check').setInputFiles({ name: 'altered.pdf', mimeType: 'application/pdf', buffer: altered });

@@ -1,8 +1,9 @@
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Instrument, ListResponse, Run } from '@kilocycle/common/types';
-import { DEMO_PASSWORD, keepScreenshot, launchBrowser, newPage, signIn } from './support/browser';
+import { DEMO_PASSWORD, keepScreenshot, launchBrowser, signIn } from './support/browser';
 import { apiGet, apiLogin } from './support/lab';
+import { patientPage } from './support/patient-page';
 
 // Journey 5 (PRODUCT.md §4): the engineer compares the Saltmarsh receiver's warm-up before and after its regulator
 // was fitted, sees them overlaid and reads the differences with their 95 % intervals.
@@ -26,8 +27,7 @@ describe('comparison of warm-up studies (browser)', () => {
   });
 
   it('should overlay the before and after warm-ups and state each difference with its 95 % interval', async () => {
-    const page = await newPage(browser);
-    await page.emulateMedia({ reducedMotion: 'reduce' });
+    const page = await patientPage(browser);
     await signIn(page, 'engineer@kilocycle.test');
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Comparisons', exact: true }).click();
     await page.getByRole('link', { name: 'New comparison' }).click();
@@ -54,8 +54,7 @@ describe('comparison of warm-up studies (browser)', () => {
   });
 
   it('should reopen the demo’s saved comparison and export its plot as SVG', async () => {
-    const page = await newPage(browser);
-    await page.emulateMedia({ reducedMotion: 'reduce' });
+    const page = await patientPage(browser);
     await signIn(page, 'engineer@kilocycle.test');
     await page.goto('/comparisons');
     await page.getByRole('link', { name: /CR-7 local oscillator warm-up/ }).click();

@@ -1,8 +1,9 @@
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Job, JobReview, ListResponse, MailMessageSummary } from '@kilocycle/common/types';
-import { DEMO_PASSWORD, keepScreenshot, launchBrowser, newPage, signIn } from './support/browser';
+import { DEMO_PASSWORD, keepScreenshot, launchBrowser, signIn } from './support/browser';
 import { apiGet, apiLogin } from './support/lab';
+import { patientPage } from './support/patient-page';
 
 // Journey 3 (PRODUCT.md §4): the lead reviews the job in review, signs with the password typed again, the PDF
 // is made and the customer's mail lands in the admin's outbox.
@@ -34,8 +35,7 @@ describe('review and sign-off (browser)', () => {
   });
 
   it('should show the lead the data, fits, results, budgets and decisions of the job in review', async () => {
-    const page = await newPage(browser);
-    await page.emulateMedia({ reducedMotion: 'reduce' });
+    const page = await patientPage(browser);
     await signIn(page, 'lead@kilocycle.test');
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Review', exact: true }).click();
     await page.getByRole('link', { name: `Review job ${jobNumber}` }).click();
@@ -60,8 +60,7 @@ describe('review and sign-off (browser)', () => {
   });
 
   it('should keep the sign dialog open on a wrong password, then sign and show the certificate number', async () => {
-    const page = await newPage(browser);
-    await page.emulateMedia({ reducedMotion: 'reduce' });
+    const page = await patientPage(browser);
     await signIn(page, 'lead@kilocycle.test');
     await page.goto(`/reviews/${jobId}`);
     await page.getByRole('button', { name: 'Sign and issue' }).click();
@@ -98,7 +97,7 @@ describe('review and sign-off (browser)', () => {
     }
     expect(found, `a captured mail about ${certificateNumber}`).toBeDefined();
 
-    const page = await newPage(browser);
+    const page = await patientPage(browser);
     await signIn(page, 'admin@kilocycle.test');
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Outbox', exact: true }).click();
     await page.getByRole('link', { name: found!.subject }).click();
