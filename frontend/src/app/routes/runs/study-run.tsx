@@ -78,7 +78,7 @@ export function AuxRun({ run, role }: { run: Run; role: Role }) {
   const refresh = useRefreshRun(run.id);
   const readings = useReadings({ runId: run.id, query: { excluded: false, pageSize: 500, sort: 'seq' } });
   const points = useMemo(
-    () => (readings.data?.items ?? []).filter((r) => r.aux !== null).map((r) => ({ aux: r.aux as number, frequency: r.frequency })),
+    () => (readings.data?.items ?? []).filter((r) => r.aux !== null).map((r) => ({ t: r.t, aux: r.aux as number, frequency: r.frequency })),
     [readings.data],
   );
   const kind = run.kind === 'keying' ? 'keying' : 'supply_sensitivity';

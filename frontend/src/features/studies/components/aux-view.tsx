@@ -16,7 +16,7 @@ type AuxViewProps = {
   analysis: SupplySensitivityRunAnalysis | KeyingRunAnalysis | null;
   problem: string | null;
   /** Included readings that carry an aux value (supply volts, or key state 0 up / 1 down). */
-  points: ReadonlyArray<{ aux: number; frequency: number }>;
+  points: ReadonlyArray<{ t: number; aux: number; frequency: number }>;
   skipAnimation?: boolean;
 };
 
@@ -24,12 +24,22 @@ type AuxViewProps = {
 export function AuxView({ kind, analysis, problem, points, skipAnimation }: AuxViewProps) {
   const theme = useTheme();
   const supply = kind === 'supply_sensitivity';
-  const auxLabel = supply ? 'Supply (V)' : 'Key (0 up, 1 down)';
+  // Supply: frequency against volts. Keying: frequency against time, key-down readings in their own colour.
+  const byTime = !supply;
+  const toPoint = (p: { t: number; aux: number; frequency: number }, i: number) => ({ id: i, x: byTime ? p.t : p.aux, y: p.frequency });
+  const format = (v: { x: number; y: number } | null) =>
+    v ? `${byTime ? `${formatNumber(v.x, 1)} s` : `${formatNumber(v.x, 2)} V`}: ${formatHzTo(v.y, 0.01)}` : '';
+  const series = supply
+    ? [{ id: 'readings', label: 'Readings', data: points.map(toPoint), markerSize: 4, color: theme.palette.primary.main, valueFormatter: format }]
+    : [
+        { id: 'up', label: 'Key up', data: points.filter((p) => p.aux === 0).map(toPoint), markerSize: 4, color: theme.palette.primary.main, valueFormatter: format },
+        { id: 'down', label: 'Key down', data: points.filter((p) => p.aux !== 0).map(toPoint), markerSize: 4, color: theme.palette.error.main, valueFormatter: format },
+      ];
   return (
     <Box sx={{ display: 'grid', gridTemplateColumns: { xs: '1fr', lg: '2fr 1fr' }, gap: 2, alignItems: 'start' }}>
       <Paper variant="outlined" sx={{ p: 2 }}>
         <Typography variant="h3" component="h2" sx={{ mb: 1 }}>
-          Frequency against {supply ? 'supply voltage' : 'key state'}
+          {supply ? 'Frequency against supply voltage' : 'Frequency, key up and key down'}
         </Typography>
         {points.length === 0 ? (
           <Box sx={{ height: 320, display: 'grid', placeItems: 'center', color: 'text.secondary' }}>
@@ -39,19 +49,10 @@ export function AuxView({ kind, analysis, problem, points, skipAnimation }: AuxV
           <ScatterChart
             height={340}
             skipAnimation={skipAnimation}
-            series={[
-              {
-                id: 'readings',
-                label: 'Readings',
-                data: points.map((p, i) => ({ id: i, x: p.aux, y: p.frequency })),
-                markerSize: 4,
-                color: theme.palette.primary.main,
-                valueFormatter: (v) => (v ? `${formatNumber(v.x, 2)}: ${formatHzTo(v.y, 0.01)}` : ''),
-              },
-            ]}
-            xAxis={[{ label: auxLabel, height: 50, tickLabelStyle: tickStyle }]}
+            series={series}
+            xAxis={[{ label: supply ? 'Supply (V)' : 'Time since the run started (s)', height: 50, tickLabelStyle: tickStyle }]}
             yAxis={[{ label: 'Frequency (Hz)', width: 96, tickLabelStyle: tickStyle, valueFormatter: (v: number) => formatNumber(v, 0) }]}
-            hideLegend
+            hideLegend={supply}
           />
         )}
       </Paper>
