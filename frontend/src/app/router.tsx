@@ -32,7 +32,6 @@ const VerifyLookupRoute = lazy(() => import('./routes/verify/lookup'));
 const VerifyCertificateRoute = lazy(() => import('./routes/verify/certificate'));
 const ComparisonsRoute = lazy(() => import('./routes/comparisons/list'));
 const ComparisonRoute = lazy(() => import('./routes/comparisons/comparison'));
-const RunImportRoute = lazy(() => import('./routes/run-import'));
 
 /** A page reached from the navigation, open only to the roles its navigation entry lists. */
 function guarded(path: string, Page: LazyExoticComponent<ComponentType>) {
@@ -92,7 +91,6 @@ const routes: RouteObject[] = [
           { path: paths.adminOutboxMessage, element: guarded(paths.adminOutbox, OutboxMessageRoute) },
           { path: paths.comparisons, element: guarded(paths.comparisons, ComparisonsRoute) },
           { path: paths.comparison, element: guarded(paths.comparisons, ComparisonRoute) },
-          { path: paths.runImport, element: labOnly(RunImportRoute) },
         ],
       },
     ],

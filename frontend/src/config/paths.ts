@@ -21,7 +21,6 @@ export const paths = {
   verifyCertificate: '/verify/:number',
   comparisons: '/comparisons',
   comparison: '/comparisons/:comparisonId',
-  runImport: '/runs/:runId/import',
 } as const;
 
 export const jobPath = (id: number) => `/jobs/${id}`;
@@ -33,7 +32,6 @@ export const verifyPath = (number: string) => `/verify/${encodeURIComponent(numb
 export const outboxMessagePath = (id: number) => `/admin/outbox/${id}`;
 /** A saved comparison by id, or `new` for one being put together. */
 export const comparisonPath = (id: number | 'new') => `/comparisons/${id}`;
-export const runImportPath = (runId: number) => `/runs/${runId}/import`;
 
 export function signInPath(next?: string) {
   return next && next !== paths.home ? `${paths.signIn}?next=${encodeURIComponent(next)}` : paths.signIn;

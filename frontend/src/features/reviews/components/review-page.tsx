@@ -32,10 +32,10 @@ const STATUS_LABELS: Record<JobStatus, string> = {
   issued: 'Issued',
 };
 
-type ReviewPageProps = { jobId: number; queuePath: string; jobPath?: string };
+type ReviewPageProps = { jobId: number; queuePath: string; jobPath?: string; runPath?: (runId: number) => string };
 
 /** Everything the lead needs to decide on a job: what was measured, what follows from it, what is flagged. */
-export function ReviewPage({ jobId, queuePath, jobPath }: ReviewPageProps) {
+export function ReviewPage({ jobId, queuePath, jobPath, runPath }: ReviewPageProps) {
   const user = useCurrentUser();
   const review = useReview(jobId);
   const [signed, setSigned] = useState<CertificateDetail | null>(null);
@@ -92,7 +92,7 @@ export function ReviewPage({ jobId, queuePath, jobPath }: ReviewPageProps) {
       <ErrorBoundary>
         <ResultsOverview results={data.results} />
       </ErrorBoundary>
-      <ReviewRuns runs={data.runs} canEditBudgets={canEditBudgets} rangeUnits={rangeUnits} />
+      <ReviewRuns runs={data.runs} canEditBudgets={canEditBudgets} rangeUnits={rangeUnits} runPath={runPath} />
       <ExcludedReadings readings={data.excludedReadings} />
       <ReviewHistory history={data.history} />
     </Box>

@@ -1,6 +1,7 @@
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import Chip from '@mui/material/Chip';
+import Link from '@mui/material/Link';
 import Paper from '@mui/material/Paper';
 import Table from '@mui/material/Table';
 import TableBody from '@mui/material/TableBody';
@@ -10,16 +11,17 @@ import TableRow from '@mui/material/TableRow';
 import Tooltip from '@mui/material/Tooltip';
 import Typography from '@mui/material/Typography';
 import { useState } from 'react';
+import { Link as RouterLink } from 'react-router-dom';
 import { CALIBRATION_RUN_KINDS, type ReviewRun } from '@kilocycle/common/types';
 import { numberSx } from '@/components/ui/num';
 import { formatDate, formatDateTime } from '@/utils/format';
 import { RUN_KIND_LABELS } from '../utils/results-format';
 import { RunBudgetDialog } from './run-budget-dialog';
 
-type ReviewRunsProps = { runs: readonly ReviewRun[]; canEditBudgets: boolean; rangeUnits: Record<number, string> };
+type ReviewRunsProps = { runs: readonly ReviewRun[]; canEditBudgets: boolean; rangeUnits: Record<number, string>; runPath?: (runId: number) => string };
 
 /** Every run of the job, with the standard it used (and any override of a lapsed one) and who captured it. */
-export function ReviewRuns({ runs, canEditBudgets, rangeUnits }: ReviewRunsProps) {
+export function ReviewRuns({ runs, canEditBudgets, rangeUnits, runPath }: ReviewRunsProps) {
   const [budgetRun, setBudgetRun] = useState<ReviewRun | null>(null);
   return (
     <Paper variant="outlined" component="section" aria-label="Runs" sx={{ p: 2, mb: 2 }}>
@@ -46,7 +48,15 @@ export function ReviewRuns({ runs, canEditBudgets, rangeUnits }: ReviewRunsProps
               const calibration = CALIBRATION_RUN_KINDS.includes(run.kind);
               return (
                 <TableRow key={run.id}>
-                  <TableCell sx={numberSx}>{run.id}</TableCell>
+                  <TableCell sx={numberSx}>
+                    {runPath ? (
+                      <Link component={RouterLink} to={runPath(run.id)} aria-label={`Readings of run ${run.id}`}>
+                        {run.id}
+                      </Link>
+                    ) : (
+                      run.id
+                    )}
+                  </TableCell>
                   <TableCell>
                     {RUN_KIND_LABELS[run.kind]}{' '}
                     {calibration && !run.used && (
