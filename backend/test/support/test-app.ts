@@ -2,10 +2,11 @@ import 'reflect-metadata';
 import { Test } from '@nestjs/testing';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import request from 'supertest';
-import type { DataSource } from 'typeorm';
+import { DataSource } from 'typeorm';
 import { AppModule } from '../../src/app.module.js';
 import { loadConfig } from '../../src/config/app-config.js';
 import { createDataSource } from '../../src/database/create-data-source.js';
+import { typeormOptions } from '../../src/database/typeorm-options.js';
 import { DEMO_PASSWORD, seedDemo } from '../../src/seed/demo-seed.js';
 import { setupApp } from '../../src/setup-app.js';
 
@@ -13,6 +14,7 @@ export type TestApp = { app: NestExpressApplication; http: ReturnType<typeof req
 
 /** Empties the test database (KC_DB_NAME, kilocycle_test under bin/kilocycle test), migrates and loads the demo data. */
 export async function resetDatabase(): Promise<void> {
+  await createDatabaseIfMissing();
   const ds = createDataSource();
   await ds.initialize();
   try {
@@ -24,6 +26,18 @@ export async function resetDatabase(): Promise<void> {
   }
 }
 
+/** Lets a developer point KC_DB_NAME at any new kilocycle_… name (the app user may create those). */
+async function createDatabaseIfMissing(): Promise<void> {
+  const config = loadConfig();
+  const server = new DataSource({ ...typeormOptions(config), database: undefined, migrations: [], entities: [] });
+  await server.initialize();
+  try {
+    await server.query(`CREATE DATABASE IF NOT EXISTS \`${config.db.name}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
+  } finally {
+    await server.destroy();
+  }
+}
+
 /** A fresh database and a fresh app instance (its own sign-in throttle), set up exactly as main.ts does. */
 export async function createTestApp(options: { reset?: boolean } = {}): Promise<TestApp> {
   if (options.reset !== false) await resetDatabase();
@@ -31,7 +45,7 @@ export async function createTestApp(options: { reset?: boolean } = {}): Promise<
   const app = moduleRef.createNestApplication<NestExpressApplication>({ logger: ['error'] });
   setupApp(app, loadConfig());
   await app.init();
-  const dataSource = app.get<DataSource>((await import('typeorm')).DataSource);
+  const dataSource = app.get(DataSource);
   return { app, http: request(app.getHttpServer()), dataSource, close: () => app.close() };
 }
 
