@@ -346,7 +346,8 @@ export function ImportReadings({ runId, needsTime, needsDial, disabled, refusal 
         </DialogContent>
         <DialogActions>
           {step === 'sending' ? (
-            <Button onClick={() => abort.current?.abort()}>Cancel the upload</Button>
+            // Once the file is sent the server finishes on its own: cancelling here would only stop the waiting.
+            uploadFraction < 1 && <Button onClick={() => abort.current?.abort()}>Cancel the upload</Button>
           ) : step === 'finished' ? (
             <>
               {!outcome?.ok && preview && (
