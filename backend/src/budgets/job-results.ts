@@ -9,7 +9,6 @@ import {
   toleranceHz,
   type CalibrationAnalysis,
   type UncertaintyComponent,
-  welchSatterthwaite,
 } from '@kilocycle/common/math';
 import type {
   BudgetLine,
@@ -212,24 +211,6 @@ function extraToComponent(extra: ExtraComponent, nominalHz: number): Uncertainty
   return { name: extra.name, kind: 'B', distribution: extra.distribution, value: valueHz, divisor, sensitivity: 1, dof: extra.dof ?? null };
 }
 
-/**
- * Above this ν_eff the Student t quantile equals the normal one to better than 5 parts in 10⁶, so k = 2
- * at 95.45 % (GUM G.3.4). common's coverageFactor takes jstat's inverse t, which loses accuracy above
- * ν ≈ 10⁷ (k = 1.9956 at 10⁸, 0.47 at 10¹⁵, 0 at 10²⁰: U would be wrong or zero when the readings at a
- * setting agree far better than the dial can be read). Such budgets are combined with k = 2.
- */
-export const LARGE_DOF = 1e6;
-
-/** combineUncertainty, with ν_eff above LARGE_DOF taken as large (k = 2) and reported as computed. */
-export function combineWithLargeDof(components: UncertaintyComponent[]): ReturnType<typeof combineUncertainty> {
-  const contributions = components.map((c) => [Math.abs(c.sensitivity) * (c.value / c.divisor), c.dof] as const);
-  const uc = Math.sqrt(contributions.reduce((sum, [u]) => sum + u * u, 0));
-  const nuEff = uc > 0 ? welchSatterthwaite(uc, contributions) : Number.POSITIVE_INFINITY;
-  if (!(nuEff > LARGE_DOF) || !Number.isFinite(nuEff)) return combineUncertainty(components);
-  const combined = combineUncertainty(components.map((c) => ({ ...c, dof: null })));
-  return { ...combined, components: combined.components.map((line, i) => ({ ...line, dof: components[i]!.dof })), nuEff };
-}
-
 export type BudgetInputs = {
   nominalHz: number;
   samples: readonly number[];
@@ -253,7 +234,7 @@ export function pointBudget(input: BudgetInputs): PointBudget {
     standardCalK: input.standard.calibrationK,
   });
   const all = [...components, ...input.figures.extraComponents.map((extra) => extraToComponent(extra, input.nominalHz))];
-  const combined = combineWithLargeDof(all);
+  const combined = combineUncertainty(all);
   const lines: BudgetLine[] = combined.components.map((c) => ({
     name: c.name,
     kind: c.kind,

@@ -1,9 +1,11 @@
 import type { DataSourceOptions } from 'typeorm';
+
+type MariaDbOptions = Extract<DataSourceOptions, { type: 'mysql' | 'mariadb' }>;
 import type { AppConfig } from '../config/app-config.js';
 import { MIGRATIONS } from './migrations/index.js';
 
 /** Connection options shared by Nest, the CLI data source and the tests. `synchronize` is always off. */
-export function typeormOptions(config: AppConfig): DataSourceOptions {
+export function typeormOptions(config: AppConfig): MariaDbOptions {
   return {
     type: 'mariadb',
     host: config.db.host,
