@@ -243,7 +243,7 @@ try {
   await flood(1, 10_000, 500, 2); // and the server's path
   // The machine is shared, so its load drifts: raw and ingest are measured in alternation, several
   // rounds, and the medians reported (each round's ratio compares figures taken a few seconds apart).
-  const rounds = Number(process.env.KC_BENCH_ROUNDS ?? 3);
+  const rounds = Number(process.env.KC_BENCH_ROUNDS ?? 5);
   const results = [];
   for (let round = 0; round < rounds; round++) {
     const raw1 = await rawInsert(1, 100_000, 1000);

@@ -54,10 +54,13 @@ export class LiveGateway implements OnGatewayInit, OnModuleDestroy {
     // Fan-out after the commit: one encode per batch, whatever the number of watchers.
     this.subscriptions.push(
       this.writer.stored$.subscribe(({ runId, readings }) => {
+        // socket.io encodes a broadcast even for an empty room: skip runs nobody is watching.
+        if (!nsp.adapter.rooms.get(runRoom(runId))?.size) return;
         const event: LiveReadingsEvent = { runId, readings };
         nsp.to(runRoom(runId)).emit(LIVE_EVENTS.readings, event);
       }),
       this.writer.excluded$.subscribe(({ runId, reading }) => {
+        if (!nsp.adapter.rooms.get(runRoom(runId))?.size) return;
         const event: LiveExclusionEvent = { runId, reading };
         nsp.to(runRoom(runId)).emit(LIVE_EVENTS.excluded, event);
       }),
