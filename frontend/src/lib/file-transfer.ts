@@ -26,7 +26,7 @@ function sessionEnded() {
   notify('warning', 'Your session has ended. Please sign in again.');
 }
 
-async function parseBody(text: string, contentType: string): Promise<unknown> {
+function parseBody(text: string, contentType: string): unknown {
   if (!text) return undefined;
   if (contentType.includes('json')) {
     try {
@@ -66,7 +66,7 @@ export async function fetchFile(path: string, { signal }: { signal?: AbortSignal
   }
   if (!response.ok) {
     const contentType = response.headers.get('content-type') ?? '';
-    const body = await parseBody(await response.text(), contentType);
+    const body = parseBody(await response.text(), contentType);
     if (response.status === 401) sessionEnded();
     throw toApiError(response.status, body);
   }
@@ -123,7 +123,7 @@ export async function postFile<T>(path: string, file: Blob, { authenticated = tr
   } catch {
     throw toApiError(0, undefined);
   }
-  const body = await parseBody(await response.text(), response.headers.get('content-type') ?? '');
+  const body = parseBody(await response.text(), response.headers.get('content-type') ?? '');
   if (response.ok) return body as T;
   if (response.status === 401 && authenticated) sessionEnded();
   throw toApiError(response.status, body);
@@ -170,10 +170,9 @@ export function uploadWithProgress({
       xhr.upload.onprogress = (event) => onUploadProgress({ loaded: event.loaded, total: event.lengthComputable ? event.total : null });
     }
     xhr.onload = () => {
-      void parseBody(xhr.responseText, xhr.getResponseHeader('content-type') ?? '').then((data) => {
-        if (xhr.status === 401 && authenticated) sessionEnded();
-        resolve({ status: xhr.status, ok: xhr.status >= 200 && xhr.status < 300, data });
-      });
+      const data = parseBody(xhr.responseText, xhr.getResponseHeader('content-type') ?? '');
+      if (xhr.status === 401 && authenticated) sessionEnded();
+      resolve({ status: xhr.status, ok: xhr.status >= 200 && xhr.status < 300, data });
     };
     xhr.onerror = () => reject(toApiError(0, undefined));
     xhr.onabort = () => reject(new DOMException('The upload was cancelled', 'AbortError'));

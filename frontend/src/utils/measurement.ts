@@ -23,14 +23,6 @@ export function formatHz(hz: number | null | undefined, unit?: FrequencyUnit, re
   return formatFrequency(hz, chosen, decimals).replace('-', MINUS);
 }
 
-/** A signed number with a proper minus and a leading plus: `+4.1`, `−0.30`. */
-export function formatSigned(value: number | null | undefined, decimals: number): string {
-  if (value === null || value === undefined || !Number.isFinite(value)) return '—';
-  const fixed = Math.abs(value).toFixed(Math.max(0, decimals));
-  const zero = Number(fixed) === 0;
-  return `${zero ? '' : value < 0 ? MINUS : '+'}${fixed}`;
-}
-
 /** A number with a proper minus sign and thin-space digit groups in the integer part. */
 export function formatNumber(value: number | null | undefined, decimals: number): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return '—';
