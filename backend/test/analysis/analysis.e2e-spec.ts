@@ -1,5 +1,5 @@
 import { instrumentWithJob, openRun, organizationIds, postReadings } from '../support/lab-fixtures.js';
-import { createTestApp, DEMO, tokenFor, type TestApp } from '../support/test-app.js';
+import { createTestApp, signInDemo, type AsDemo, type TestApp } from '../support/test-app.js';
 
 // Expected values below come from the formulas that generate the readings, not from the code under test.
 
@@ -8,16 +8,15 @@ const relClose = (actual: number, expected: number, tolerance: number) => expect
 describe('run analysis (e2e, MariaDB)', () => {
   let t: TestApp;
   let orgs: Record<string, number>;
-  const tokens: Record<keyof typeof DEMO, string> = {} as never;
+  let as: AsDemo;
   beforeAll(async () => {
     t = await createTestApp();
-    for (const key of Object.keys(DEMO) as (keyof typeof DEMO)[]) tokens[key] = await tokenFor(t.http, DEMO[key]);
+    as = await signInDemo(t.http);
     orgs = await organizationIds(t, as('admin'));
   });
   afterAll(async () => {
     await t.close();
   });
-  const as = (who: keyof typeof DEMO) => ({ Authorization: `Bearer ${tokens[who]}` });
   const freshRun = async (kind: string, org = 'Northgate Radio Club') => {
     const { jobId, rangeIds } = await instrumentWithJob(t, as('tech'), { organizationId: orgs[org]! });
     return openRun(t, as('tech'), jobId, { rangeId: rangeIds[0], kind });

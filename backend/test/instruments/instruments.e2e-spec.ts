@@ -1,21 +1,20 @@
 import { khzRange, organizationIds, parseChanges } from '../support/lab-fixtures.js';
-import { createTestApp, DEMO, tokenFor, type TestApp } from '../support/test-app.js';
+import { createTestApp, signInDemo, type AsDemo, type TestApp } from '../support/test-app.js';
 
 type InstrumentBody = { id: number; serial: string; organizationName: string; ranges: Array<{ id: number; label: string; position: number }> };
 
 describe('instruments and ranges (e2e, MariaDB)', () => {
   let t: TestApp;
   let orgs: Record<string, number>;
-  const tokens: Record<keyof typeof DEMO, string> = {} as never;
+  let as: AsDemo;
   beforeAll(async () => {
     t = await createTestApp();
-    for (const key of Object.keys(DEMO) as (keyof typeof DEMO)[]) tokens[key] = await tokenFor(t.http, DEMO[key]);
+    as = await signInDemo(t.http);
     orgs = await organizationIds(t, as('admin'));
   });
   afterAll(async () => {
     await t.close();
   });
-  const as = (who: keyof typeof DEMO) => ({ Authorization: `Bearer ${tokens[who]}` });
   const bySerial = async (serial: string): Promise<InstrumentBody> => (await t.http.get(`/api/instruments?q=${serial}`).set(as('admin'))).body.items[0];
 
   describe('GET /api/instruments', () => {

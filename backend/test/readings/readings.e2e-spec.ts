@@ -1,21 +1,20 @@
 import { instrumentWithJob, openRun, organizationIds, parseChanges } from '../support/lab-fixtures.js';
-import { createTestApp, DEMO, tokenFor, type TestApp } from '../support/test-app.js';
+import { createTestApp, signInDemo, type AsDemo, type TestApp } from '../support/test-app.js';
 
 type ReadingBody = { id: number; seq: number; dial: number | null; frequency: number; source: string; excluded: boolean; excludedReason: string | null };
 
 describe('readings (e2e, MariaDB)', () => {
   let t: TestApp;
   let orgs: Record<string, number>;
-  const tokens: Record<keyof typeof DEMO, string> = {} as never;
+  let as: AsDemo;
   beforeAll(async () => {
     t = await createTestApp();
-    for (const key of Object.keys(DEMO) as (keyof typeof DEMO)[]) tokens[key] = await tokenFor(t.http, DEMO[key]);
+    as = await signInDemo(t.http);
     orgs = await organizationIds(t, as('admin'));
   });
   afterAll(async () => {
     await t.close();
   });
-  const as = (who: keyof typeof DEMO) => ({ Authorization: `Bearer ${tokens[who]}` });
   const count = async (runId: number) => Number((await t.dataSource.query('SELECT COUNT(*) AS n FROM readings WHERE run_id = ?', [runId]))[0].n);
   const freshRun = async (kind = 'as_found') => {
     const { jobId, rangeIds } = await instrumentWithJob(t, as('tech'), { organizationId: orgs['Northgate Radio Club'] });

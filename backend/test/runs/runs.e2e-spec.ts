@@ -1,5 +1,5 @@
 import { instrumentWithJob, openRun, organizationIds, parseChanges } from '../support/lab-fixtures.js';
-import { createTestApp, DEMO, tokenFor, type TestApp } from '../support/test-app.js';
+import { createTestApp, signInDemo, type AsDemo, type TestApp } from '../support/test-app.js';
 
 type RunBody = { id: number; kind: string; status: string; jobNumber: string; rangeLabel: string; readingCount: number; refusal: string | null };
 
@@ -7,10 +7,10 @@ describe('runs (e2e, MariaDB)', () => {
   let t: TestApp;
   let orgs: Record<string, number>;
   let standards: Record<string, number>;
-  const tokens: Record<keyof typeof DEMO, string> = {} as never;
+  let as: AsDemo;
   beforeAll(async () => {
     t = await createTestApp();
-    for (const key of Object.keys(DEMO) as (keyof typeof DEMO)[]) tokens[key] = await tokenFor(t.http, DEMO[key]);
+    as = await signInDemo(t.http);
     orgs = await organizationIds(t, as('admin'));
     const list = await t.http.get('/api/standards').set(as('admin'));
     standards = Object.fromEntries(list.body.items.map((s: { name: string; id: number }) => [s.name, s.id]));
@@ -18,7 +18,6 @@ describe('runs (e2e, MariaDB)', () => {
   afterAll(async () => {
     await t.close();
   });
-  const as = (who: keyof typeof DEMO) => ({ Authorization: `Bearer ${tokens[who]}` });
   const fresh = () => instrumentWithJob(t, as('tech'), { organizationId: orgs['Northgate Radio Club'] });
 
   describe('GET /api/runs', () => {

@@ -1,16 +1,15 @@
-import { createTestApp, DEMO, tokenFor, type TestApp } from '../support/test-app.js';
+import { createTestApp, signInDemo, type AsDemo, type TestApp } from '../support/test-app.js';
 
 describe('reference standards (e2e, MariaDB)', () => {
   let t: TestApp;
-  const tokens: Record<keyof typeof DEMO, string> = {} as never;
+  let as: AsDemo;
   beforeAll(async () => {
     t = await createTestApp();
-    for (const key of Object.keys(DEMO) as (keyof typeof DEMO)[]) tokens[key] = await tokenFor(t.http, DEMO[key]);
+    as = await signInDemo(t.http);
   });
   afterAll(async () => {
     await t.close();
   });
-  const as = (who: keyof typeof DEMO) => ({ Authorization: `Bearer ${tokens[who]}` });
   const valid = {
     name: 'Rubidium reference R1',
     kind: 'reference',

@@ -55,6 +55,16 @@ export async function tokenFor(http: TestApp['http'], email: string, password = 
   return res.body.accessToken as string;
 }
 
+export type DemoAccount = keyof typeof DEMO;
+export type AsDemo = (who: DemoAccount) => { Authorization: string };
+
+/** Signs every demo account in once; returns the request headers of each, by account. */
+export async function signInDemo(http: TestApp['http']): Promise<AsDemo> {
+  const headers = {} as Record<DemoAccount, { Authorization: string }>;
+  for (const who of Object.keys(DEMO) as DemoAccount[]) headers[who] = { Authorization: `Bearer ${await tokenFor(http, DEMO[who])}` };
+  return (who) => headers[who];
+}
+
 export const DEMO = {
   admin: 'admin@kilocycle.test',
   lead: 'lead@kilocycle.test',

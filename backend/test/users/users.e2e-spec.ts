@@ -1,16 +1,15 @@
-import { createTestApp, DEMO, tokenFor, type TestApp } from '../support/test-app.js';
+import { createTestApp, DEMO, signInDemo, tokenFor, type AsDemo, type TestApp } from '../support/test-app.js';
 
 describe('users and organisations (e2e, MariaDB)', () => {
   let t: TestApp;
-  const tokens: Record<keyof typeof DEMO, string> = {} as never;
+  let as: AsDemo;
   beforeAll(async () => {
     t = await createTestApp();
-    for (const key of Object.keys(DEMO) as (keyof typeof DEMO)[]) tokens[key] = await tokenFor(t.http, DEMO[key]);
+    as = await signInDemo(t.http);
   });
   afterAll(async () => {
     await t.close();
   });
-  const as = (who: keyof typeof DEMO) => ({ Authorization: `Bearer ${tokens[who]}` });
 
   describe('GET /api/users', () => {
     it('should answer 401 without a session', async () => {
