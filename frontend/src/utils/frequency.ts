@@ -62,17 +62,19 @@ export function formatSignificant(value: number | null | undefined, digits = 3):
   return formatNumber(value, decimals);
 }
 
-/** A duration in seconds as people say it: `42 s`, `7 min 30 s`, `2 h 05 min`. */
+/** A duration in seconds as people say it: `42 s`, `7 min 30 s`, `2 h 05 min`; a negative one (a difference) gets a minus sign. */
 export function formatDuration(seconds: number | null | undefined): string {
   if (seconds === null || seconds === undefined || !Number.isFinite(seconds)) return '—';
-  const s = Math.max(0, Math.round(seconds));
-  if (s < 60) return `${s} s`;
+  const s = Math.round(Math.abs(seconds));
+  const sign = seconds < 0 && s > 0 ? '\u2212' : '';
+  if (s < 60) return `${sign}${s} s`;
   if (s < 3600) {
     const rest = s % 60;
-    return rest === 0 ? `${Math.floor(s / 60)} min` : `${Math.floor(s / 60)} min ${rest} s`;
+    return rest === 0 ? `${sign}${Math.floor(s / 60)} min` : `${sign}${Math.floor(s / 60)} min ${rest} s`;
   }
+  // Round to whole minutes first, so 1 h 59.5 min reads 2 h 00 min, never 1 h 60 min.
   const totalMinutes = Math.round(s / 60);
-  return `${Math.floor(totalMinutes / 60)} h ${String(totalMinutes % 60).padStart(2, '0')} min`;
+  return `${sign}${Math.floor(totalMinutes / 60)} h ${String(totalMinutes % 60).padStart(2, '0')} min`;
 }
 
 /** A frequency as short as it can be said, for spans in lists: `150 kHz`, `7.3 MHz`, `455 kHz`. */

@@ -74,22 +74,6 @@ function superscript(n: number): string {
     .join('');
 }
 
-/** A duration in seconds as people say it: `45 s`, `12 min 30 s`, `2 h 05 min`. */
-export function formatDuration(seconds: number | null | undefined): string {
-  if (seconds === null || seconds === undefined || !Number.isFinite(seconds)) return '—';
-  const s = Math.round(Math.abs(seconds));
-  const sign = seconds < 0 ? MINUS : '';
-  if (s < 60) return `${sign}${s} s`;
-  if (s < 3600) {
-    const minutes = Math.floor(s / 60);
-    const rest = s % 60;
-    return rest === 0 ? `${sign}${minutes} min` : `${sign}${minutes} min ${String(rest).padStart(2, '0')} s`;
-  }
-  const hours = Math.floor(s / 3600);
-  const minutes = Math.round((s % 3600) / 60);
-  return `${sign}${hours} h ${String(minutes).padStart(2, '0')} min`;
-}
-
 /** A byte count for people: `812 B`, `4.2 kB`, `18.6 MB`. */
 export function formatBytes(bytes: number | null | undefined): string {
   if (bytes === null || bytes === undefined || !Number.isFinite(bytes)) return '—';

@@ -9,7 +9,8 @@ import Typography from '@mui/material/Typography';
 import type { ComparisonResult } from '@kilocycle/common/types';
 import { numberSx } from '@/components/ui/num';
 import { formatDateTime } from '@/utils/format';
-import { formatDuration, formatHz } from '@/utils/measurement';
+import { formatDuration } from '@/utils/frequency';
+import { formatHz } from '@/utils/measurement';
 import { runColor } from '../utils/comparison-format';
 
 /** Which runs are compared: where they come from, how they were set up, and how much of each was used. */

@@ -2,7 +2,7 @@ import Box from '@mui/material/Box';
 import Typography from '@mui/material/Typography';
 import type { ComparisonResult } from '@kilocycle/common/types';
 import { ErrorBoundary } from '@/components/errors/error-boundary';
-import { formatDuration } from '@/utils/measurement';
+import { formatDuration } from '@/utils/frequency';
 import { AdevChart } from './adev-chart';
 import { ComparedRuns } from './compared-runs';
 import { ComparisonTable } from './comparison-table';
