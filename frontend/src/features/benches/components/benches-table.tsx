@@ -2,14 +2,14 @@ import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import Chip from '@mui/material/Chip';
 import Paper from '@mui/material/Paper';
-import { DataGrid, type GridColDef } from '@mui/x-data-grid';
+import type { GridColDef } from '@mui/x-data-grid';
 import { useMemo, useState } from 'react';
 import type { Bench } from '@kilocycle/common/types';
 import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 import { Num } from '@/components/ui/num';
 import { SearchField } from '@/components/ui/search-field';
+import { ServerDataGrid } from '@/components/ui/server-data-grid';
 import { useListSearchParams } from '@/hooks/use-list-search-params';
-import { fromPaginationModel, fromSortParam, PAGE_SIZE_OPTIONS, toPaginationModel, toSortParam } from '@/lib/data-grid';
 import { formatDateTime } from '@/utils/format';
 import { useBenches } from '../api/get-benches';
 import { useIssueBenchToken } from '../api/issue-bench-token';
@@ -103,24 +103,12 @@ export function BenchesTable({ isAdmin }: { isAdmin: boolean }) {
         <SearchField label="Search" placeholder="Bench name or location" value={list.q} onChange={(q) => list.update({ q })} />
       </Box>
       <Paper variant="outlined" sx={{ height: 'calc(100vh - 230px)', minHeight: 320 }}>
-        <DataGrid
-          aria-label="Benches"
-          rows={benches.data?.items ?? []}
-          rowCount={benches.data?.total ?? 0}
+        <ServerDataGrid
+          label="Benches"
+          result={benches}
+          list={list}
+          emptyText="No benches yet."
           columns={columns}
-          loading={benches.isFetching}
-          paginationMode="server"
-          sortingMode="server"
-          filterMode="server"
-          disableColumnFilter
-          paginationModel={toPaginationModel(list.page, list.pageSize)}
-          onPaginationModelChange={(model) => list.update(fromPaginationModel(model))}
-          pageSizeOptions={PAGE_SIZE_OPTIONS}
-          sortModel={fromSortParam(list.sort)}
-          onSortModelChange={(model) => list.update({ sort: toSortParam(model) })}
-          sortingOrder={['asc', 'desc']}
-          localeText={{ noRowsLabel: benches.isError ? 'The list could not be loaded.' : 'No benches yet.' }}
-          sx={{ border: 0 }}
         />
       </Paper>
       <ConfirmDialog

@@ -1,7 +1,7 @@
 import Box from '@mui/material/Box';
 import Link from '@mui/material/Link';
 import Paper from '@mui/material/Paper';
-import { DataGrid, type GridColDef } from '@mui/x-data-grid';
+import type { GridColDef } from '@mui/x-data-grid';
 import { useMemo } from 'react';
 import { Link as RouterLink } from 'react-router-dom';
 import type { Instrument, ListInstrumentsQuery } from '@kilocycle/common/types';
@@ -9,9 +9,9 @@ import { DueChip } from '@/components/ui/due-chip';
 import { Num } from '@/components/ui/num';
 import { SearchField } from '@/components/ui/search-field';
 import { SelectFilter, type FilterOption } from '@/components/ui/select-filter';
+import { ServerDataGrid } from '@/components/ui/server-data-grid';
 import { instrumentPath } from '@/config/paths';
 import { useListSearchParams } from '@/hooks/use-list-search-params';
-import { fromPaginationModel, fromSortParam, PAGE_SIZE_OPTIONS, toPaginationModel, toSortParam } from '@/lib/data-grid';
 import { formatDate } from '@/utils/format';
 import { formatHzShort } from '@/utils/frequency';
 import { useInstruments } from '../api/get-instruments';
@@ -128,26 +128,12 @@ export function InstrumentsTable({ owners = [] }: InstrumentsTableProps) {
         <SelectFilter label="Due" value={due} options={DUE_OPTIONS} onChange={(v) => list.update({ due: v })} allLabel="Any date" minWidth={180} />
       </Box>
       <Paper variant="outlined" sx={{ height: 'calc(100vh - 230px)', minHeight: 360 }}>
-        <DataGrid
-          aria-label="Instruments"
-          rows={instruments.data?.items ?? []}
-          rowCount={instruments.data?.total ?? 0}
+        <ServerDataGrid
+          label="Instruments"
+          result={instruments}
+          list={list}
+          emptyText="No instruments match these filters."
           columns={columns}
-          loading={instruments.isFetching}
-          paginationMode="server"
-          sortingMode="server"
-          filterMode="server"
-          disableColumnFilter
-          paginationModel={toPaginationModel(list.page, list.pageSize)}
-          onPaginationModelChange={(model) => list.update(fromPaginationModel(model))}
-          pageSizeOptions={PAGE_SIZE_OPTIONS}
-          sortModel={fromSortParam(list.sort)}
-          onSortModelChange={(model) => list.update({ sort: toSortParam(model) })}
-          sortingOrder={['asc', 'desc']}
-          localeText={{
-            noRowsLabel: instruments.isError ? 'The list could not be loaded.' : 'No instruments match these filters.',
-          }}
-          sx={{ border: 0 }}
         />
       </Paper>
     </>

@@ -1,16 +1,16 @@
 import Box from '@mui/material/Box';
 import Link from '@mui/material/Link';
 import Paper from '@mui/material/Paper';
-import { DataGrid, type GridColDef } from '@mui/x-data-grid';
+import type { GridColDef } from '@mui/x-data-grid';
 import { useMemo } from 'react';
 import { Link as RouterLink } from 'react-router-dom';
 import { JOB_STATUSES, type Job, type ListJobsQuery } from '@kilocycle/common/types';
 import { Num } from '@/components/ui/num';
 import { SearchField } from '@/components/ui/search-field';
 import { SelectFilter, type FilterOption } from '@/components/ui/select-filter';
+import { ServerDataGrid } from '@/components/ui/server-data-grid';
 import { jobPath } from '@/config/paths';
 import { useListSearchParams } from '@/hooks/use-list-search-params';
-import { fromPaginationModel, fromSortParam, PAGE_SIZE_OPTIONS, toPaginationModel, toSortParam } from '@/lib/data-grid';
 import { formatDate } from '@/utils/format';
 import { useJobs } from '../api/get-jobs';
 import { JOB_STATUS_LABELS, JobStatusChip } from './job-status-chip';
@@ -85,24 +85,12 @@ export function JobsTable({ customers = [] }: JobsTableProps) {
         )}
       </Box>
       <Paper variant="outlined" sx={{ height: 'calc(100vh - 230px)', minHeight: 360 }}>
-        <DataGrid
-          aria-label="Jobs"
-          rows={jobs.data?.items ?? []}
-          rowCount={jobs.data?.total ?? 0}
+        <ServerDataGrid
+          label="Jobs"
+          result={jobs}
+          list={list}
+          emptyText="No jobs match these filters."
           columns={columns}
-          loading={jobs.isFetching}
-          paginationMode="server"
-          sortingMode="server"
-          filterMode="server"
-          disableColumnFilter
-          paginationModel={toPaginationModel(list.page, list.pageSize)}
-          onPaginationModelChange={(model) => list.update(fromPaginationModel(model))}
-          pageSizeOptions={PAGE_SIZE_OPTIONS}
-          sortModel={fromSortParam(list.sort)}
-          onSortModelChange={(model) => list.update({ sort: toSortParam(model) })}
-          sortingOrder={['asc', 'desc']}
-          localeText={{ noRowsLabel: jobs.isError ? 'The list could not be loaded.' : 'No jobs match these filters.' }}
-          sx={{ border: 0 }}
         />
       </Paper>
     </>

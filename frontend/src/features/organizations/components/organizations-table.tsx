@@ -3,17 +3,17 @@ import Button from '@mui/material/Button';
 import Chip from '@mui/material/Chip';
 import Paper from '@mui/material/Paper';
 import Tooltip from '@mui/material/Tooltip';
-import { DataGrid, type GridColDef } from '@mui/x-data-grid';
+import type { GridColDef } from '@mui/x-data-grid';
 import { useMemo, useState } from 'react';
 import { ORGANIZATION_KINDS, type Organization, type OrganizationKind } from '@kilocycle/common/types';
 import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 import { Num } from '@/components/ui/num';
 import { SearchField } from '@/components/ui/search-field';
 import { SelectFilter } from '@/components/ui/select-filter';
+import { ServerDataGrid } from '@/components/ui/server-data-grid';
 import { ActiveChip } from '@/components/ui/status-chip';
 import { useListSearchParams } from '@/hooks/use-list-search-params';
 import { useCurrentUser } from '@/lib/auth';
-import { fromPaginationModel, fromSortParam, PAGE_SIZE_OPTIONS, toPaginationModel, toSortParam } from '@/lib/data-grid';
 import { formatDate } from '@/utils/format';
 import { useOrganizations, type OrganizationsQuery } from '../api/get-organizations';
 import { useUpdateOrganization } from '../api/update-organization';
@@ -132,26 +132,12 @@ export function OrganizationsTable() {
         <SelectFilter label="Status" value={active} options={STATUS_OPTIONS} onChange={(v) => list.update({ active: v })} />
       </Box>
       <Paper variant="outlined" sx={{ height: 'calc(100vh - 230px)', minHeight: 360 }}>
-        <DataGrid
-          aria-label="Organisations"
-          rows={organizations.data?.items ?? []}
-          rowCount={organizations.data?.total ?? 0}
+        <ServerDataGrid
+          label="Organisations"
+          result={organizations}
+          list={list}
+          emptyText="No organisations match these filters."
           columns={columns}
-          loading={organizations.isFetching}
-          paginationMode="server"
-          sortingMode="server"
-          filterMode="server"
-          disableColumnFilter
-          paginationModel={toPaginationModel(list.page, list.pageSize)}
-          onPaginationModelChange={(model) => list.update(fromPaginationModel(model))}
-          pageSizeOptions={PAGE_SIZE_OPTIONS}
-          sortModel={fromSortParam(list.sort)}
-          onSortModelChange={(model) => list.update({ sort: toSortParam(model) })}
-          sortingOrder={['asc', 'desc']}
-          localeText={{
-            noRowsLabel: organizations.isError ? 'The list could not be loaded.' : 'No organisations match these filters.',
-          }}
-          sx={{ border: 0 }}
         />
       </Paper>
       <ConfirmDialog

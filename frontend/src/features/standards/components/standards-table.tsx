@@ -4,15 +4,15 @@ import Button from '@mui/material/Button';
 import Chip from '@mui/material/Chip';
 import Paper from '@mui/material/Paper';
 import { alpha } from '@mui/material/styles';
-import { DataGrid, type GridColDef } from '@mui/x-data-grid';
+import type { GridColDef } from '@mui/x-data-grid';
 import { useMemo, useState } from 'react';
 import { STANDARD_KINDS, type ListStandardsQuery, type ReferenceStandard, type StandardKind } from '@kilocycle/common/types';
 import { DueChip } from '@/components/ui/due-chip';
 import { Num } from '@/components/ui/num';
 import { SearchField } from '@/components/ui/search-field';
 import { SelectFilter } from '@/components/ui/select-filter';
+import { ServerDataGrid } from '@/components/ui/server-data-grid';
 import { useListSearchParams } from '@/hooks/use-list-search-params';
-import { fromPaginationModel, fromSortParam, PAGE_SIZE_OPTIONS, toPaginationModel, toSortParam } from '@/lib/data-grid';
 import { formatDate } from '@/utils/format';
 import { formatNumber } from '@/utils/frequency';
 import { useStandards } from '../api/get-standards';
@@ -128,24 +128,13 @@ export function StandardsTable({ canEdit }: { canEdit: boolean }) {
         )}
       </Box>
       <Paper variant="outlined" sx={{ height: 'calc(100vh - 230px)', minHeight: 360 }}>
-        <DataGrid
-          aria-label="Reference standards"
-          rows={standards.data?.items ?? []}
-          rowCount={standards.data?.total ?? 0}
+        <ServerDataGrid
+          label="Reference standards"
+          result={standards}
+          list={list}
+          emptyText="No standards match these filters."
           columns={columns}
-          loading={standards.isFetching}
-          paginationMode="server"
-          sortingMode="server"
-          filterMode="server"
-          disableColumnFilter
-          paginationModel={toPaginationModel(list.page, list.pageSize)}
-          onPaginationModelChange={(model) => list.update(fromPaginationModel(model))}
-          pageSizeOptions={PAGE_SIZE_OPTIONS}
-          sortModel={fromSortParam(list.sort)}
-          onSortModelChange={(model) => list.update({ sort: toSortParam(model) })}
-          sortingOrder={['asc', 'desc']}
           getRowClassName={({ row }) => (row.overdue ? 'kc-overdue' : '')}
-          localeText={{ noRowsLabel: standards.isError ? 'The list could not be loaded.' : 'No standards match these filters.' }}
           sx={(t) => ({
             border: 0,
             '& .kc-overdue': { backgroundColor: alpha(t.palette.error.main, 0.07) },

@@ -2,18 +2,18 @@ import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import Paper from '@mui/material/Paper';
 import Tooltip from '@mui/material/Tooltip';
-import { DataGrid, type GridColDef } from '@mui/x-data-grid';
+import type { GridColDef } from '@mui/x-data-grid';
 import { useMemo, useState } from 'react';
 import { ROLES, type Organization, type Role, type User } from '@kilocycle/common/types';
 import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 import { Num } from '@/components/ui/num';
 import { SearchField } from '@/components/ui/search-field';
 import { SelectFilter } from '@/components/ui/select-filter';
+import { ServerDataGrid } from '@/components/ui/server-data-grid';
 import { ActiveChip } from '@/components/ui/status-chip';
 import { ROLE_LABELS } from '@/config/roles';
 import { useListSearchParams } from '@/hooks/use-list-search-params';
 import { useCurrentUser } from '@/lib/auth';
-import { fromPaginationModel, fromSortParam, PAGE_SIZE_OPTIONS, toPaginationModel, toSortParam } from '@/lib/data-grid';
 import { formatDate } from '@/utils/format';
 import { useUsers, type UsersQuery } from '../api/get-users';
 import { useUpdateUser } from '../api/update-user';
@@ -135,24 +135,12 @@ export function UsersTable({ organizations }: UsersTableProps) {
         <SelectFilter label="Status" value={active} options={STATUS_OPTIONS} onChange={(v) => list.update({ active: v })} />
       </Box>
       <Paper variant="outlined" sx={{ height: 'calc(100vh - 230px)', minHeight: 360 }}>
-        <DataGrid
-          aria-label="Users"
-          rows={users.data?.items ?? []}
-          rowCount={users.data?.total ?? 0}
+        <ServerDataGrid
+          label="Users"
+          result={users}
+          list={list}
+          emptyText="No users match these filters."
           columns={columns}
-          loading={users.isFetching}
-          paginationMode="server"
-          sortingMode="server"
-          filterMode="server"
-          disableColumnFilter
-          paginationModel={toPaginationModel(list.page, list.pageSize)}
-          onPaginationModelChange={(model) => list.update(fromPaginationModel(model))}
-          pageSizeOptions={PAGE_SIZE_OPTIONS}
-          sortModel={fromSortParam(list.sort)}
-          onSortModelChange={(model) => list.update({ sort: toSortParam(model) })}
-          sortingOrder={['asc', 'desc']}
-          localeText={{ noRowsLabel: users.isError ? 'The list could not be loaded.' : 'No users match these filters.' }}
-          sx={{ border: 0 }}
         />
       </Paper>
       <ConfirmDialog
