@@ -63,7 +63,9 @@ export class AnalysisService {
 
     let series = this.series.get(seriesKey);
     if (!series) {
-      series = await this.loader.load(runId, counts.readingCount);
+      const calibration = run.kind === 'as_found' || run.kind === 'as_left';
+      const withAux = run.kind === 'supply_sensitivity' || run.kind === 'keying';
+      series = await this.loader.load(runId, counts.readingCount, { dial: calibration, aux: withAux });
       // Readings that arrived while loading make a newer series; cache it under its own counts only.
       if (series.count === counts.readingCount) this.series.set(seriesKey, series);
     }

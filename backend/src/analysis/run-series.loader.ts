@@ -15,6 +15,10 @@ export type RunSeries = {
 
 export type RunCounts = { readingCount: number; excludedCount: number };
 
+/** Which optional columns to read; a warm-up or stability analysis needs neither, so it streams less. */
+export type SeriesColumns = { dial: boolean; aux: boolean };
+const ALL_COLUMNS: SeriesColumns = { dial: true, aux: true };
+
 // The part of a mysql2 (callback API) connection the loader uses.
 type RowCell = number | string | null;
 type StreamingQuery = {
@@ -41,7 +45,9 @@ export class RunSeriesLoader {
     return { readingCount: Number(row.n), excludedCount: Number(row.x) };
   }
 
-  async load(runId: number, expected: number): Promise<RunSeries> {
+  /** Columns not asked for come back as NaN. */
+  async load(runId: number, expected: number, columns: SeriesColumns = ALL_COLUMNS): Promise<RunSeries> {
+    const sql = `SELECT seq, t_s, ${columns.dial ? 'dial' : 'NULL'}, frequency_hz, ${columns.aux ? 'aux' : 'NULL'} FROM readings WHERE run_id = ? ORDER BY seq`;
     const excludedSeqs = new Set<number>(
       (await this.dataSource.query('SELECT r.seq FROM reading_exclusions x JOIN readings r ON r.id = x.reading_id WHERE x.run_id = ?', [runId])).map(
         (row: { seq: number }) => Number(row.seq),
@@ -55,7 +61,7 @@ export class RunSeriesLoader {
       const connection = (await runner.connect()) as RawConnection;
       await new Promise<void>((resolve, reject) => {
         connection
-          .execute({ sql: 'SELECT seq, t_s, dial, frequency_hz, aux FROM readings WHERE run_id = ? ORDER BY seq', values: [runId], rowsAsArray: true })
+          .execute({ sql, values: [runId], rowsAsArray: true })
           .on('result', (row) => {
             // Readings may arrive while we read: grow rather than overrun.
             if (count === capacity) {

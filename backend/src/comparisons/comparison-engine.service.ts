@@ -257,7 +257,7 @@ export class ComparisonEngine {
 
   private async prepare(meta: RunMeta, label: string, kind: ComparableRunKind, withinHz: number): Promise<Prepared> {
     const counts = await this.loader.counts(meta.id);
-    const series = await this.loader.load(meta.id, counts.readingCount);
+    const series = await this.loader.load(meta.id, counts.readingCount, { dial: false, aux: false });
     const { t, frequency } = includedByTime(series);
     let fit: WarmupFit | null = null;
     let fitProblem: string | null = null;
