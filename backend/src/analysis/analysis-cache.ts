@@ -22,6 +22,12 @@ export class LruCache<V> {
     while (this.entries.size > this.capacity) this.entries.delete(this.entries.keys().next().value!);
   }
 
+  /** Whether any key starts with `prefix` (no reordering). */
+  hasPrefix(prefix: string): boolean {
+    for (const key of this.entries.keys()) if (key.startsWith(prefix)) return true;
+    return false;
+  }
+
   clear(): void {
     this.entries.clear();
   }

@@ -35,7 +35,7 @@ import type { InstrumentRange } from '../instruments/instrument-range.entity.js'
 import { RunsService } from '../runs/runs.service.js';
 import { LruCache } from './analysis-cache.js';
 import type { RunAnalysisQueryDto } from './dto/analysis-query.dto.js';
-import { includedByTime, RunSeriesLoader, type RunSeries } from './run-series.loader.js';
+import { includedByTime, RunSeriesLoader, type RunCounts, type RunSeries } from './run-series.loader.js';
 
 export const DEFAULT_SETTLING_WITHIN_HZ = 5;
 export const DEFAULT_SETTLING_RATE_HZ_PER_MIN = 1;
@@ -55,7 +55,21 @@ export class AnalysisService {
   ) {}
 
   async analyse(actor: AuthUser, runId: number, query: RunAnalysisQueryDto): Promise<RunAnalysis> {
-    const [run, counts] = await Promise.all([this.runs.findVisible(actor, runId), this.loader.counts(runId)]);
+    const run = await this.runs.findVisible(actor, runId);
+    const columns = {
+      dial: run.kind === 'as_found' || run.kind === 'as_left',
+      aux: run.kind === 'supply_sensitivity' || run.kind === 'keying',
+    };
+    // Nothing of this run is cached, so it must be read whatever it counts: read it while it is counted.
+    const runPrefix = `${runId}|`;
+    const early = this.results.hasPrefix(runPrefix) || this.series.hasPrefix(runPrefix) ? null : this.loader.load(runId, 0, columns);
+    let counts: RunCounts;
+    try {
+      counts = await this.loader.counts(runId);
+    } catch (error) {
+      early?.catch(() => undefined);
+      throw error;
+    }
     const seriesKey = `${runId}|${counts.readingCount}|${counts.excludedCount}`;
     const resultKey = `${seriesKey}|${JSON.stringify(query)}`;
     const cached = this.results.get(resultKey);
@@ -63,11 +77,9 @@ export class AnalysisService {
 
     let series = this.series.get(seriesKey);
     if (!series) {
-      const calibration = run.kind === 'as_found' || run.kind === 'as_left';
-      const withAux = run.kind === 'supply_sensitivity' || run.kind === 'keying';
-      series = await this.loader.load(runId, counts.readingCount, { dial: calibration, aux: withAux });
+      series = early ? await early : await this.loader.load(runId, counts.readingCount, columns);
       // Readings that arrived while loading make a newer series; cache it under its own counts only.
-      if (series.count === counts.readingCount) this.series.set(seriesKey, series);
+      if (series.count === counts.readingCount && countExcluded(series) === counts.excludedCount) this.series.set(seriesKey, series);
     }
     const basis = (used: number): AnalysisBasis => ({
       runId,
@@ -95,7 +107,7 @@ export class AnalysisService {
         result = this.keying(series, basis);
         break;
     }
-    if (series.count === counts.readingCount) this.results.set(resultKey, result);
+    if (series.count === counts.readingCount && countExcluded(series) === counts.excludedCount) this.results.set(resultKey, result);
     return result;
   }
 
