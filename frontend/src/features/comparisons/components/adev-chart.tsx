@@ -2,7 +2,8 @@ import Typography from '@mui/material/Typography';
 import { LineChart } from '@mui/x-charts/LineChart';
 import { useMemo } from 'react';
 import type { ComparisonResult } from '@kilocycle/common/types';
-import { formatCompact, formatSignificant } from '@/utils/measurement';
+import { formatSignificant } from '@/utils/frequency';
+import { formatCompact } from '@/utils/measurement';
 import { runColor } from '../utils/comparison-format';
 import { ChartPanel } from './chart-panel';
 

@@ -9,8 +9,7 @@ import Typography from '@mui/material/Typography';
 import type { ComparisonResult } from '@kilocycle/common/types';
 import { numberSx } from '@/components/ui/num';
 import { formatDateTime } from '@/utils/format';
-import { formatDuration } from '@/utils/frequency';
-import { formatHz } from '@/utils/measurement';
+import { formatDuration, formatHzTo } from '@/utils/frequency';
 import { runColor } from '../utils/comparison-format';
 
 /** Which runs are compared: where they come from, how they were set up, and how much of each was used. */
@@ -65,7 +64,7 @@ export function ComparedRuns({ result }: { result: ComparisonResult }) {
                 <TableCell sx={{ ...numberSx, textAlign: 'right' }}>
                   {run.usedCount} of {run.readingCount}
                 </TableCell>
-                <TableCell sx={{ ...numberSx, textAlign: 'right' }}>{run.fit ? formatHz(run.fit.fInf, undefined, 1) : '—'}</TableCell>
+                <TableCell sx={{ ...numberSx, textAlign: 'right' }}>{run.fit ? formatHzTo(run.fit.fInf, 0.1) : '—'}</TableCell>
                 <TableCell sx={{ ...numberSx, textAlign: 'right' }}>
                   {run.settledFromSeconds === null ? 'not within the record' : formatDuration(run.settledFromSeconds)}
                 </TableCell>

@@ -3,7 +3,7 @@ import ToggleButtonGroup from '@mui/material/ToggleButtonGroup';
 import { LineChart } from '@mui/x-charts/LineChart';
 import { useMemo, useState } from 'react';
 import type { ComparisonResult } from '@kilocycle/common/types';
-import { formatNumber } from '@/utils/measurement';
+import { formatNumber } from '@/utils/frequency';
 import { runColor } from '../utils/comparison-format';
 import type { LegendEntry } from '../utils/chart-export';
 import { ChartPanel } from './chart-panel';

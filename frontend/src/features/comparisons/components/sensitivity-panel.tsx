@@ -9,7 +9,7 @@ import Typography from '@mui/material/Typography';
 import type { InstrumentSensitivity } from '@kilocycle/common/types';
 import { numberSx } from '@/components/ui/num';
 import { formatDate } from '@/utils/format';
-import { formatNumber, formatSignificant } from '@/utils/measurement';
+import { formatNumber, formatSignificant } from '@/utils/frequency';
 
 const num = { ...numberSx, fontSize: '0.8125rem', textAlign: 'right' } as const;
 

@@ -1,5 +1,5 @@
 import type { ComparisonDifference, ComparisonEstimate, ComparisonResult } from '@kilocycle/common/types';
-import { formatNumber, formatSignificant } from '@/utils/measurement';
+import { formatNumber, formatSignificant } from '@/utils/frequency';
 
 /** Colours of the compared runs, in order: distinct on screen and in print, the first (the reference) warm. */
 export const RUN_COLORS = ['#c98a1b', '#1f4e55', '#7b3f99', '#2e7d4f', '#b3261e', '#2f6db3'] as const;

@@ -7,7 +7,8 @@ import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
 import type { ComponentDistribution, PointBudget } from '@kilocycle/common/types';
 import { numberSx } from '@/components/ui/num';
-import { formatCompact, formatNumber, formatSignificant } from '@/utils/measurement';
+import { formatNumber, formatSignificant } from '@/utils/frequency';
+import { formatCompact } from '@/utils/measurement';
 import { formatUncertainty } from '../utils/results-format';
 
 const DISTRIBUTION_LABELS: Record<ComponentDistribution, string> = {

@@ -1,7 +1,7 @@
 import { LineChart } from '@mui/x-charts/LineChart';
 import type { RangeResult } from '@kilocycle/common/types';
 import { FREQUENCY_UNIT_HZ } from '@kilocycle/common/units';
-import { formatNumber } from '@/utils/measurement';
+import { formatNumber } from '@/utils/frequency';
 import { rangeUnit } from '../utils/results-format';
 
 type ErrorChartProps = { range: RangeResult; height?: number };

@@ -9,7 +9,7 @@ import Typography from '@mui/material/Typography';
 import type { ExcludedReading } from '@kilocycle/common/types';
 import { numberSx } from '@/components/ui/num';
 import { formatDateTime } from '@/utils/format';
-import { formatHz, formatNumber } from '@/utils/measurement';
+import { formatHzTo, formatNumber } from '@/utils/frequency';
 
 /** Readings left out of the results, each with the reason given and who gave it. Nothing is ever deleted. */
 export function ExcludedReadings({ readings }: { readings: readonly ExcludedReading[] }) {
@@ -40,7 +40,7 @@ export function ExcludedReadings({ readings }: { readings: readonly ExcludedRead
                   <TableCell sx={numberSx}>{r.runId}</TableCell>
                   <TableCell sx={{ ...numberSx, textAlign: 'right' }}>{r.seq}</TableCell>
                   <TableCell sx={{ ...numberSx, textAlign: 'right' }}>{r.dial === null ? '—' : formatNumber(r.dial, 3)}</TableCell>
-                  <TableCell sx={{ ...numberSx, textAlign: 'right' }}>{formatHz(r.frequency, undefined, 1)}</TableCell>
+                  <TableCell sx={{ ...numberSx, textAlign: 'right' }}>{formatHzTo(r.frequency, 0.1)}</TableCell>
                   <TableCell>{r.reason}</TableCell>
                   <TableCell>{r.excludedByName ?? '—'}</TableCell>
                   <TableCell sx={numberSx}>{formatDateTime(r.excludedAt)}</TableCell>

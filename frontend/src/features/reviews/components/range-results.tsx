@@ -16,7 +16,7 @@ import { FREQUENCY_UNIT_HZ } from '@kilocycle/common/units';
 import type { MeasuredPoint, PointResult, RangeResult, RunFitSummary } from '@kilocycle/common/types';
 import { DecisionChip } from '@/components/ui/decision-chip';
 import { numberSx } from '@/components/ui/num';
-import { formatHz, formatNumber, formatSignificant } from '@/utils/measurement';
+import { formatHz, formatNumber, formatSignificant } from '@/utils/frequency';
 import { formatDial, formatError, formatTur, formatUncertainty, rangeUnit, toleranceText } from '../utils/results-format';
 import { BudgetTable } from './budget-table';
 import { ErrorChart } from './error-chart';

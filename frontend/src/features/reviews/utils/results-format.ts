@@ -1,5 +1,5 @@
 import type { DecisionRule, DialUnit, FrequencyUnit, MeasuredPoint, RangeResult, RunKind, Tolerance } from '@kilocycle/common/types';
-import { formatNumber, unitFor } from '@/utils/measurement';
+import { bestUnit, formatNumber } from '@/utils/frequency';
 
 export const RUN_KIND_LABELS: Record<RunKind, string> = {
   as_found: 'As found',
@@ -18,7 +18,7 @@ export const DECISION_RULE_LABELS: Record<DecisionRule, string> = {
 
 /** The unit a range's frequencies read best in: its dial's unit, or by size for a dial in divisions. */
 export function rangeUnit(range: Pick<RangeResult, 'dialUnit' | 'freqMaxHz'>): FrequencyUnit {
-  return range.dialUnit === 'div' ? unitFor(range.freqMaxHz) : range.dialUnit;
+  return range.dialUnit === 'div' ? bestUnit(range.freqMaxHz) : range.dialUnit;
 }
 
 export function toleranceText(tolerance: Tolerance): string {

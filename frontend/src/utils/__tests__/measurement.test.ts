@@ -1,0 +1,24 @@
+import { describe, expect, it } from 'vitest';
+import { formatBytes, formatCompact } from '../measurement';
+
+describe('formatCompact()', () => {
+  it('drops trailing zeros and the digit-group spaces between them', () => {
+    expect(formatCompact(1)).toBe('1');
+    expect(formatCompact(0.09)).toBe('0.09');
+    expect(formatCompact(1000)).toBe('1 000');
+    expect(formatCompact(12.5)).toBe('12.5');
+  });
+
+  it('leaves exponent forms and missing values alone', () => {
+    expect(formatCompact(2.5e-9)).toMatch(/^2\.500×10⁻⁹$/);
+    expect(formatCompact(null)).toBe('—');
+  });
+});
+
+describe('formatBytes()', () => {
+  it('says sizes in decimal units', () => {
+    expect(formatBytes(812)).toBe('812 B');
+    expect(formatBytes(4200)).toBe('4.2 kB');
+    expect(formatBytes(18_600_000)).toBe('18.6 MB');
+  });
+});
