@@ -19,10 +19,20 @@ type ServerDataGridProps<R extends GridValidRowModel> = Omit<
   result: { data?: ListResponse<R>; isFetching: boolean; isError: boolean };
   list: ListState;
   emptyText: string;
+  /** Shown when the list request failed. */
+  errorText?: string;
 };
 
 /** A DataGrid whose paging and sorting are done by the API (1-based pages there, 0-based here). */
-export function ServerDataGrid<R extends GridValidRowModel>({ label, result, list, emptyText, sx, ...rest }: ServerDataGridProps<R>) {
+export function ServerDataGrid<R extends GridValidRowModel>({
+  label,
+  result,
+  list,
+  emptyText,
+  errorText = 'The list could not be loaded.',
+  sx,
+  ...rest
+}: ServerDataGridProps<R>) {
   return (
     <DataGrid<R>
       aria-label={label}
@@ -39,7 +49,7 @@ export function ServerDataGrid<R extends GridValidRowModel>({ label, result, lis
       sortModel={fromSortParam(list.sort)}
       onSortModelChange={(model) => list.update({ sort: toSortParam(model) })}
       sortingOrder={['asc', 'desc']}
-      localeText={{ noRowsLabel: result.isError ? 'The list could not be loaded.' : emptyText }}
+      localeText={{ noRowsLabel: result.isError ? errorText : emptyText }}
       sx={[{ border: 0 }, ...(Array.isArray(sx) ? sx : [sx])]}
       {...rest}
     />

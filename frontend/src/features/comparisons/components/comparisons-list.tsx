@@ -1,13 +1,13 @@
 import Link from '@mui/material/Link';
 import Paper from '@mui/material/Paper';
-import { DataGrid, type GridColDef } from '@mui/x-data-grid';
+import type { GridColDef } from '@mui/x-data-grid';
 import { useMemo } from 'react';
 import { Link as RouterLink } from 'react-router-dom';
 import type { SavedComparison } from '@kilocycle/common/types';
 import { Num } from '@/components/ui/num';
 import { SearchField } from '@/components/ui/search-field';
+import { ServerDataGrid } from '@/components/ui/server-data-grid';
 import { useListSearchParams } from '@/hooks/use-list-search-params';
-import { fromPaginationModel, fromSortParam, PAGE_SIZE_OPTIONS, toPaginationModel, toSortParam } from '@/lib/data-grid';
 import { formatDateTime } from '@/utils/format';
 import { useComparisons } from '../api/get-comparisons';
 
@@ -42,24 +42,13 @@ export function ComparisonsList({ comparisonPath }: { comparisonPath: (id: numbe
     <>
       <SearchField label="Search" placeholder="Title or notes" value={list.q} onChange={(q) => list.update({ q })} />
       <Paper variant="outlined" sx={{ mt: 1.5, height: 'calc(100vh - 250px)', minHeight: 320 }}>
-        <DataGrid
-          aria-label="Saved comparisons"
-          rows={comparisons.data?.items ?? []}
-          rowCount={comparisons.data?.total ?? 0}
+        <ServerDataGrid
+          label="Saved comparisons"
+          result={comparisons}
+          list={list}
+          emptyText="No saved comparisons yet."
+          errorText="The comparisons could not be loaded."
           columns={columns}
-          loading={comparisons.isFetching}
-          paginationMode="server"
-          sortingMode="server"
-          filterMode="server"
-          disableColumnFilter
-          paginationModel={toPaginationModel(list.page, list.pageSize)}
-          onPaginationModelChange={(model) => list.update(fromPaginationModel(model))}
-          pageSizeOptions={PAGE_SIZE_OPTIONS}
-          sortModel={fromSortParam(list.sort)}
-          onSortModelChange={(model) => list.update({ sort: toSortParam(model) })}
-          sortingOrder={['asc', 'desc']}
-          localeText={{ noRowsLabel: comparisons.isError ? 'The comparisons could not be loaded.' : 'No saved comparisons yet.' }}
-          sx={{ border: 0 }}
         />
       </Paper>
     </>

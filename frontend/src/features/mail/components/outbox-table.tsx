@@ -2,15 +2,15 @@ import AttachFileOutlined from '@mui/icons-material/AttachFileOutlined';
 import Box from '@mui/material/Box';
 import Link from '@mui/material/Link';
 import Paper from '@mui/material/Paper';
-import { DataGrid, type GridColDef } from '@mui/x-data-grid';
+import type { GridColDef } from '@mui/x-data-grid';
 import { useMemo } from 'react';
 import { Link as RouterLink } from 'react-router-dom';
 import type { MailMessageSummary } from '@kilocycle/common/types';
 import { Num } from '@/components/ui/num';
 import { SearchField } from '@/components/ui/search-field';
 import { SelectFilter } from '@/components/ui/select-filter';
+import { ServerDataGrid } from '@/components/ui/server-data-grid';
 import { useListSearchParams } from '@/hooks/use-list-search-params';
-import { fromPaginationModel, fromSortParam, PAGE_SIZE_OPTIONS, toPaginationModel, toSortParam } from '@/lib/data-grid';
 import { formatDateTime } from '@/utils/format';
 import { formatBytes } from '@/utils/measurement';
 import { useMail } from '../api/get-mail';
@@ -68,24 +68,13 @@ export function OutboxTable({ messagePath }: { messagePath: (id: number) => stri
         <SelectFilter label="Kind" value={list.filters.kind} options={KIND_OPTIONS} onChange={(kind) => list.update({ kind })} allLabel="All kinds" />
       </Box>
       <Paper variant="outlined" sx={{ height: 'calc(100vh - 240px)', minHeight: 320 }}>
-        <DataGrid
-          aria-label="Outbox"
-          rows={mail.data?.items ?? []}
-          rowCount={mail.data?.total ?? 0}
+        <ServerDataGrid
+          label="Outbox"
+          result={mail}
+          list={list}
+          emptyText="No mail has been sent yet."
+          errorText="The outbox could not be loaded."
           columns={columns}
-          loading={mail.isFetching}
-          paginationMode="server"
-          sortingMode="server"
-          filterMode="server"
-          disableColumnFilter
-          paginationModel={toPaginationModel(list.page, list.pageSize)}
-          onPaginationModelChange={(model) => list.update(fromPaginationModel(model))}
-          pageSizeOptions={PAGE_SIZE_OPTIONS}
-          sortModel={fromSortParam(list.sort)}
-          onSortModelChange={(model) => list.update({ sort: toSortParam(model) })}
-          sortingOrder={['asc', 'desc']}
-          localeText={{ noRowsLabel: mail.isError ? 'The outbox could not be loaded.' : 'No mail has been sent yet.' }}
-          sx={{ border: 0 }}
         />
       </Paper>
     </>

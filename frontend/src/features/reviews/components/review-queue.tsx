@@ -1,13 +1,13 @@
 import Link from '@mui/material/Link';
 import Paper from '@mui/material/Paper';
-import { DataGrid, type GridColDef } from '@mui/x-data-grid';
+import type { GridColDef } from '@mui/x-data-grid';
 import { useMemo } from 'react';
 import { Link as RouterLink } from 'react-router-dom';
 import type { Job } from '@kilocycle/common/types';
 import { Num } from '@/components/ui/num';
 import { SearchField } from '@/components/ui/search-field';
+import { ServerDataGrid } from '@/components/ui/server-data-grid';
 import { useListSearchParams } from '@/hooks/use-list-search-params';
-import { fromPaginationModel, fromSortParam, PAGE_SIZE_OPTIONS, toPaginationModel, toSortParam } from '@/lib/data-grid';
 import { formatDate, formatDateTime } from '@/utils/format';
 import { useReviewQueue } from '../api/get-review-queue';
 
@@ -44,24 +44,13 @@ export function ReviewQueue({ reviewPath }: { reviewPath: (jobId: number) => str
     <>
       <SearchField label="Search" placeholder="Job, instrument or customer" value={list.q} onChange={(q) => list.update({ q })} />
       <Paper variant="outlined" sx={{ mt: 1.5, height: 'calc(100vh - 240px)', minHeight: 320 }}>
-        <DataGrid
-          aria-label="Jobs waiting for review"
-          rows={queue.data?.items ?? []}
-          rowCount={queue.data?.total ?? 0}
+        <ServerDataGrid
+          label="Jobs waiting for review"
+          result={queue}
+          list={list}
+          emptyText="Nothing is waiting for review."
+          errorText="The queue could not be loaded."
           columns={columns}
-          loading={queue.isFetching}
-          paginationMode="server"
-          sortingMode="server"
-          filterMode="server"
-          disableColumnFilter
-          paginationModel={toPaginationModel(list.page, list.pageSize)}
-          onPaginationModelChange={(model) => list.update(fromPaginationModel(model))}
-          pageSizeOptions={PAGE_SIZE_OPTIONS}
-          sortModel={fromSortParam(list.sort)}
-          onSortModelChange={(model) => list.update({ sort: toSortParam(model) })}
-          sortingOrder={['asc', 'desc']}
-          localeText={{ noRowsLabel: queue.isError ? 'The queue could not be loaded.' : 'Nothing is waiting for review.' }}
-          sx={{ border: 0 }}
         />
       </Paper>
     </>
