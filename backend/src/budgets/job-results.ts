@@ -33,16 +33,21 @@ import type { EntityManager } from 'typeorm';
 /** Order of severity: the worst decision of a set is the one latest in this list. */
 const DECISION_ORDER: readonly Decision[] = ['pass', 'conditional_pass', 'conditional_fail', 'fail'];
 
+// Said as computed (common's decide() with U = k·u_c before rounding): strict and closed boundaries, and the
+// false-accept figure ILAC-G8 4.2.2 gives, which is the probability beyond the limit nearer the result.
 const RULE_WORDS: Record<DecisionRule, string> = {
   simple:
-    'Simple acceptance (ILAC-G8:09/2019, 4.2.1): a point conforms when its error lies within the tolerance; no guard band (w = 0). ' +
+    'Simple acceptance (ILAC-G8:09/2019, 4.2.1): a point conforms when its error lies within the tolerance, limits included; no guard band (w = 0). ' +
     'For a result close to a limit the probability of a false accept can approach 50 %.',
   guarded_binary:
-    'Guarded acceptance (ILAC-G8:09/2019, 4.2.2) with guard band w = U: a point conforms when its error lies within the tolerance less U, ' +
-    'otherwise it does not conform. The probability of a false accept is below 2.5 %.',
+    'Guarded acceptance (ILAC-G8:09/2019, 4.2.2) with guard band w = U: a point conforms when the size of its error is less than the tolerance less U, ' +
+    'otherwise it does not conform. The guard band uses U as calculated, before it is rounded to the two digits printed. ' +
+    'For a conforming point the probability that its true error lies beyond the nearer tolerance limit is below 2.5 %.',
   guarded:
-    'Guarded acceptance with four outcomes (ILAC-G8:09/2019, 4.2.3), guard band w = U: pass within the tolerance less U; conditional pass ' +
-    'from there to the tolerance; conditional fail from the tolerance to the tolerance plus U; fail beyond.',
+    'Guarded acceptance with four outcomes (ILAC-G8:09/2019, 4.2.3), guard band w = U: pass when the size of the error is less than the tolerance less U; ' +
+    'conditional pass from there to the tolerance, limits included; conditional fail above the tolerance up to the tolerance plus U; fail beyond. ' +
+    'The guard band uses U as calculated, before it is rounded to the two digits printed. ' +
+    'For a pass the probability that the true error lies beyond the nearer tolerance limit is below 2.5 %; for a conditional pass it can approach 50 %.',
 };
 
 export function decisionRuleText(rule: DecisionRule): string {
@@ -417,7 +422,8 @@ export async function computeJobResults(manager: EntityManager, jobId: number): 
               slopeHzPerDialUnit: dialSlope(range.dialLaw, p.dial, span),
               dialUnit: range.dialUnit,
             });
-            const decision = decide({ errorHz: p.errorHz, toleranceHz: tolHz, U: budget.U, rule });
+            // ILAC-G8: w, the acceptance limit and the TUR take U as computed; the two-digit U is only printed.
+            const decision = decide({ errorHz: p.errorHz, toleranceHz: tolHz, U: budget.Uunrounded, rule });
             const rounded = roundResultToUncertainty(p.errorHz, budget.U);
             Object.assign(measured, {
               budget,

@@ -24,11 +24,19 @@ export type DecisionResult = {
   ruleText: string;
 };
 
+// Each text says what decide() computes: w = U as computed (k·u_c, not the two-digit U printed), the strict or
+// closed boundaries, and the false-accept figure ILAC-G8 gives (the probability beyond the nearer limit).
 const RULE_TEXT: Record<DecisionRule, string> = {
-  simple: 'Simple acceptance (ILAC-G8:09/2019 4.2.1): pass when the error is within the tolerance; guard band w = 0',
-  guarded_binary: 'Guarded acceptance (ILAC-G8:09/2019 4.2.2): pass when the error is within the tolerance less w = U, otherwise fail',
+  simple:
+    'Simple acceptance (ILAC-G8:09/2019 4.2.1): pass when |error| ≤ TL, otherwise fail; guard band w = 0. ' +
+    'At the limit the probability of a false accept can approach 50 %',
+  guarded_binary:
+    'Guarded acceptance (ILAC-G8:09/2019 4.2.2), w = U (k·u_c before rounding): pass when |error| < TL − U, otherwise fail. ' +
+    'For a pass the probability that the true error lies beyond the nearer tolerance limit is below 2.5 %',
   guarded:
-    'Guarded acceptance with conditional statements (ILAC-G8:09/2019 4.2.3), w = U: pass within TL − U, conditional pass from TL − U to TL, conditional fail from TL to TL + U, fail beyond TL + U',
+    'Guarded acceptance with conditional statements (ILAC-G8:09/2019 4.2.3), w = U (k·u_c before rounding): pass when |error| < TL − U, ' +
+    'conditional pass from TL − U to TL, conditional fail above TL up to TL + U, fail beyond TL + U. ' +
+    'For a pass the probability that the true error lies beyond the nearer tolerance limit is below 2.5 %',
 };
 
 /**
@@ -42,7 +50,12 @@ const RULE_TEXT: Record<DecisionRule, string> = {
  * a conditional pass, e = TL + U a conditional fail; under simple acceptance e = TL passes.
  * TUR = TL/U, flagged below 4.
  *
- * @param input errorHz (measured − nominal), toleranceHz (half-width TL > 0), U (expanded, > 0), rule
+ * U is the expanded uncertainty as computed, k·u_c, NOT the value rounded to two significant digits for
+ * printing: ILAC-G8 4.2.2 takes w = U so that the specific false-accept probability at the acceptance
+ * limit is 1 − Φ(k) ≤ 1 − Φ(2) = 2.3 % (normal, k ≥ 2); U rounded down by up to 5 % moves the limit
+ * outward and lets that probability exceed 2.5 %.
+ *
+ * @param input errorHz (measured − nominal), toleranceHz (half-width TL > 0), U (expanded, unrounded, > 0), rule
  * @returns decision, TUR and flag, guard band, acceptance limit and the rule in words
  * @throws {MetrologyError} 'not_finite', 'bad_argument' (TL or U ≤ 0, unknown rule)
  * @example decide({ errorHz: 90, toleranceHz: 100, U: 20, rule: 'guarded' }).decision; // => 'conditional_pass'
