@@ -5,6 +5,7 @@ import {
   dialToNominal,
   DISTRIBUTION_DIVISORS,
   frequencyBudget,
+  jobOutcomes,
   roundResultToUncertainty,
   toleranceHz,
   type CalibrationAnalysis,
@@ -501,6 +502,7 @@ export async function computeJobResults(manager: EntityManager, jobId: number): 
     ranges: rangeResults,
     standards: [...standards.values()],
     decision: worstDecision(rangeResults.map((r) => r.decision)),
+    outcomes: jobOutcomes(rangeResults),
     flags,
   };
 }

@@ -56,6 +56,7 @@ export {
 export { roundResultToUncertainty, roundUncertainty } from './round-uncertainty.js';
 export { frequencyBudget, type FrequencyBudgetInput } from './frequency-budget.js';
 export { decide, TUR_FLAG_BELOW, type Decision, type DecisionResult, type DecisionRule } from './decide.js';
+export { jobOutcomes, withOutcomes } from './job-outcomes.js';
 
 // Band planner (§5.7)
 export { AMATEUR_BANDS_REGION2, bandsForRegion, US_60M_CHANNELS_HZ, type AmateurBand, type ItuRegion } from './amateur-bands.js';

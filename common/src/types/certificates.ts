@@ -218,6 +218,39 @@ export type ReviewFlag = {
   readingId?: number;
 };
 
+/**
+ * One of a job's two outcomes (as found, before any adjustment; as left, after it), over every setting
+ * measured in runs of that kind on every range. Made by common's jobOutcomes().
+ */
+export type JobOutcome = {
+  /** Worst decision of the settings (fail > conditional fail > conditional pass > pass); null when none was decided. */
+  decision: Decision | null;
+  /** Settings measured. */
+  settings: number;
+  pass: number;
+  conditionalPass: number;
+  conditionalFail: number;
+  fail: number;
+  /** Settings out of tolerance: fail plus conditional fail. */
+  outOfTolerance: number;
+  /** Settings with a conditional decision (pass or fail): the error lies within U of the tolerance limit. */
+  conditional: number;
+  /** Settings with no decision (no uncertainty could be stated). */
+  undecided: number;
+  /** Plain words: "out of tolerance at 3 of 10 settings", "within tolerance". */
+  words: string;
+};
+
+/** The job's two outcomes. asFound or asLeft is null when no run of that kind has results. */
+export type JobOutcomes = {
+  asFound: JobOutcome | null;
+  asLeft: JobOutcome | null;
+  /** Labels of the ranges measured as found and not as left: there the as-found results are the final ones. */
+  asFoundFinalRanges: string[];
+  /** Both outcomes in one plain sentence: "As found: out of tolerance at 3 of 10 settings; as left: within tolerance." */
+  summary: string;
+};
+
 export type JobResults = {
   jobId: number;
   jobNumber: string;
@@ -230,6 +263,8 @@ export type JobResults = {
   standards: StandardReference[];
   /** Worst decision over every range's final points; null when nothing could be decided. */
   decision: Decision | null;
+  /** The as-found and the as-left outcome (results stored before this field existed lack it: readers derive it with jobOutcomes). */
+  outcomes: JobOutcomes;
   flags: ReviewFlag[];
 };
 
