@@ -1,6 +1,7 @@
 import { Type } from 'class-transformer';
 import { IsInt, IsOptional, IsString, Matches, Max, MaxLength, Min } from 'class-validator';
 import { MAX_PAGE_SIZE, type ListQuery } from '@kilocycle/common/types';
+import { SingleLine } from './single-line.decorator.js';
 
 /** Query parameters every list endpoint takes; endpoints extend it with their own filters. */
 export class ListQueryDto implements ListQuery {
@@ -25,5 +26,6 @@ export class ListQueryDto implements ListQuery {
   @IsOptional()
   @IsString()
   @MaxLength(200)
+  @SingleLine()
   q?: string;
 }

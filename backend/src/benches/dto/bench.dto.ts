@@ -2,6 +2,7 @@ import { Transform } from 'class-transformer';
 import { IsBoolean, IsInt, IsOptional, IsString, MaxLength, Min, MinLength, ValidateIf } from 'class-validator';
 import type { CreateBenchRequest, UpdateBenchRequest } from '@kilocycle/common/types';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
+import { SingleLine } from '../../shared/single-line.decorator.js';
 
 const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 
@@ -10,6 +11,7 @@ export class CreateBenchDto implements CreateBenchRequest {
   @Transform(trim)
   @MinLength(1, { message: 'name must not be empty' })
   @MaxLength(120)
+  @SingleLine()
   name: string;
 
   @IsOptional()
@@ -17,6 +19,7 @@ export class CreateBenchDto implements CreateBenchRequest {
   @IsString()
   @Transform(trim)
   @MaxLength(200)
+  @SingleLine()
   location?: string | null;
 
   @IsOptional()
@@ -32,6 +35,7 @@ export class UpdateBenchDto implements UpdateBenchRequest {
   @Transform(trim)
   @MinLength(1, { message: 'name must not be empty' })
   @MaxLength(120)
+  @SingleLine()
   name?: string;
 
   @IsOptional()
@@ -39,6 +43,7 @@ export class UpdateBenchDto implements UpdateBenchRequest {
   @IsString()
   @Transform(trim)
   @MaxLength(200)
+  @SingleLine()
   location?: string | null;
 
   @IsOptional()

@@ -27,11 +27,13 @@ import {
   type UpdateRunBudgetRequest,
 } from '@kilocycle/common/types';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
+import { SingleLine } from '../../shared/single-line.decorator.js';
 
 export class ExtraComponentDto implements ExtraComponent {
   @IsString()
   @MinLength(1)
   @MaxLength(120)
+  @SingleLine()
   name: string;
 
   @IsIn(COMPONENT_DISTRIBUTIONS, { message: `distribution must be one of: ${COMPONENT_DISTRIBUTIONS.join(', ')}` })
@@ -60,6 +62,7 @@ export class CreateProcedureDto implements CreateProcedureRequest {
   @IsString()
   @MinLength(1)
   @MaxLength(120)
+  @SingleLine()
   name: string;
 
   @IsString()
@@ -94,7 +97,7 @@ export class CreateProcedureDto implements CreateProcedureRequest {
 }
 
 export class UpdateProcedureDto implements UpdateProcedureRequest {
-  @IsOptional() @IsString() @MinLength(1) @MaxLength(120) name?: string;
+  @IsOptional() @IsString() @MinLength(1) @MaxLength(120) @SingleLine() name?: string;
   @IsOptional() @IsString() @MinLength(1) @MaxLength(4000) method?: string;
   @IsOptional() @IsIn(DECISION_RULES, { message: `decisionRule must be one of: ${DECISION_RULES.join(', ')}` }) decisionRule?: DecisionRule;
   @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) @Max(50) dialHalfDivisionPercentOfSpan?: number;

@@ -7,6 +7,7 @@ import type {
   WithdrawCertificateRequest,
 } from '@kilocycle/common/types';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
+import { SingleLine } from '../../shared/single-line.decorator.js';
 
 const trim = () => Transform(({ value }) => (typeof value === 'string' ? value.trim() : value));
 
@@ -52,6 +53,6 @@ export class UpdateSettingsDto implements UpdateCertificateSettingsRequest {
   certificatePrefix?: string;
 
   @IsOptional() @IsString() @trim() @MinLength(1) @MaxLength(500) labAddress?: string;
-  @IsOptional() @IsString() @trim() @MinLength(1) @MaxLength(300) calibrationPlace?: string;
+  @IsOptional() @IsString() @trim() @MinLength(1) @MaxLength(300) @SingleLine() calibrationPlace?: string;
   @IsOptional() @IsInt() @Min(1) @Max(365) recallNoticeDays?: number;
 }

@@ -11,6 +11,7 @@ import {
 } from '@kilocycle/common/types';
 import { Trim } from '../../shared/dto-helpers.js';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
+import { SingleLine } from '../../shared/single-line.decorator.js';
 
 const finite = { allowNaN: false, allowInfinity: false } as const;
 
@@ -22,7 +23,7 @@ export class ComputeComparisonDto implements ComputeComparisonRequest {
   runIds: number[];
 
   /** One per run, in the same order ("before: original regulator"); empty ones become "run <id>". */
-  @IsOptional() @IsArray() @IsString({ each: true }) @MaxLength(120, { each: true })
+  @IsOptional() @IsArray() @IsString({ each: true }) @MaxLength(120, { each: true }) @SingleLine({ each: true })
   labels?: string[];
 
   @IsOptional() @IsNumber(finite, { message: 'withinHz must be a number of hertz' }) @Min(0.000001) @Max(1e9)
@@ -33,7 +34,7 @@ export class ComputeComparisonDto implements ComputeComparisonRequest {
 }
 
 export class CreateComparisonDto extends ComputeComparisonDto implements CreateComparisonRequest {
-  @IsString() @Trim() @IsNotEmpty({ message: 'title must not be empty' }) @MaxLength(200)
+  @IsString() @Trim() @IsNotEmpty({ message: 'title must not be empty' }) @MaxLength(200) @SingleLine()
   title: string;
 
   @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)

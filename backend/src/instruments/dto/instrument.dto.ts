@@ -30,6 +30,7 @@ import {
 } from '@kilocycle/common/types';
 import { IsDateOnly, QueryBoolean, Trim } from '../../shared/dto-helpers.js';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
+import { SingleLine } from '../../shared/single-line.decorator.js';
 
 export const MAX_RANGES = 32;
 const finite = { allowNaN: false, allowInfinity: false } as const;
@@ -43,7 +44,7 @@ export class RangeInputDto implements RangeInput {
   @IsOptional() @IsInt({ message: 'position must be a whole number' })
   position?: number;
 
-  @IsString() @Trim() @MinLength(1, { message: 'label must not be empty' }) @MaxLength(60)
+  @IsString() @Trim() @MinLength(1, { message: 'label must not be empty' }) @MaxLength(60) @SingleLine()
   label: string;
 
   @IsIn(DIAL_UNITS, { message: `dialUnit must be one of: ${DIAL_UNITS.join(', ')}` })
@@ -80,16 +81,16 @@ export class CreateInstrumentDto implements CreateInstrumentRequest {
   @IsInt({ message: 'organizationId must be a whole number' }) @Min(1)
   organizationId: number;
 
-  @IsString() @Trim() @MinLength(1, { message: 'make must not be empty' }) @MaxLength(120)
+  @IsString() @Trim() @MinLength(1, { message: 'make must not be empty' }) @MaxLength(120) @SingleLine()
   make: string;
 
-  @IsString() @Trim() @MinLength(1, { message: 'model must not be empty' }) @MaxLength(120)
+  @IsString() @Trim() @MinLength(1, { message: 'model must not be empty' }) @MaxLength(120) @SingleLine()
   model: string;
 
-  @IsString() @Trim() @MinLength(1, { message: 'serial must not be empty' }) @MaxLength(120)
+  @IsString() @Trim() @MinLength(1, { message: 'serial must not be empty' }) @MaxLength(120) @SingleLine()
   serial: string;
 
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @Trim() @MaxLength(120)
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @Trim() @MaxLength(120) @SingleLine()
   assetTag?: string | null;
 
   @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
@@ -110,16 +111,16 @@ export class CreateInstrumentDto implements CreateInstrumentRequest {
 }
 
 export class UpdateInstrumentDto implements UpdateInstrumentRequest {
-  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'make must not be empty' }) @MaxLength(120)
+  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'make must not be empty' }) @MaxLength(120) @SingleLine()
   make?: string;
 
-  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'model must not be empty' }) @MaxLength(120)
+  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'model must not be empty' }) @MaxLength(120) @SingleLine()
   model?: string;
 
-  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'serial must not be empty' }) @MaxLength(120)
+  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'serial must not be empty' }) @MaxLength(120) @SingleLine()
   serial?: string;
 
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @Trim() @MaxLength(120)
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @Trim() @MaxLength(120) @SingleLine()
   assetTag?: string | null;
 
   @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)

@@ -7,12 +7,14 @@ import {
   type UpdateOrganizationRequest,
 } from '@kilocycle/common/types';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
+import { SingleLine } from '../../shared/single-line.decorator.js';
 
 export class CreateOrganizationDto implements CreateOrganizationRequest {
   @IsString()
   @Transform(({ value }) => (typeof value === 'string' ? value.trim() : value))
   @MinLength(1, { message: 'name must not be empty' })
   @MaxLength(200)
+  @SingleLine()
   name: string;
 
   @IsIn(ORGANIZATION_KINDS, { message: `kind must be one of: ${ORGANIZATION_KINDS.join(', ')}` })
@@ -21,6 +23,7 @@ export class CreateOrganizationDto implements CreateOrganizationRequest {
   @IsOptional()
   @ValidateIf((_o, v) => v !== null)
   @IsEmail({}, { message: 'contactEmail must be an e-mail address' })
+  @SingleLine()
   contactEmail?: string | null;
 }
 
@@ -29,11 +32,13 @@ export class UpdateOrganizationDto implements UpdateOrganizationRequest {
   @IsString()
   @MinLength(1)
   @MaxLength(200)
+  @SingleLine()
   name?: string;
 
   @IsOptional()
   @ValidateIf((_o, v) => v !== null)
   @IsEmail({}, { message: 'contactEmail must be an e-mail address' })
+  @SingleLine()
   contactEmail?: string | null;
 
   @IsOptional()

@@ -1,6 +1,7 @@
 import { Transform } from 'class-transformer';
 import { IsOptional, IsString, MaxLength, MinLength } from 'class-validator';
 import type { ReturnJobRequest, SignJobRequest, SubmitJobRequest } from '@kilocycle/common/types';
+import { SingleLine } from '../../shared/single-line.decorator.js';
 
 const trim = () => Transform(({ value }) => (typeof value === 'string' ? value.trim() : value));
 
@@ -25,5 +26,6 @@ export class SignJobDto implements SignJobRequest {
   @IsString()
   @trim()
   @MaxLength(200)
+  @SingleLine()
   meaning: string;
 }

@@ -8,6 +8,7 @@ import {
 } from '@kilocycle/common/types';
 import { IsDateOnly, QueryBoolean, Trim } from '../../shared/dto-helpers.js';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
+import { SingleLine } from '../../shared/single-line.decorator.js';
 
 const kindMessage = `kind must be one of: ${STANDARD_KINDS.join(', ')}`;
 
@@ -16,6 +17,7 @@ export class CreateStandardDto implements CreateStandardRequest {
   @Trim()
   @MinLength(1, { message: 'name must not be empty' })
   @MaxLength(120)
+  @SingleLine()
   name: string;
 
   @IsIn(STANDARD_KINDS, { message: kindMessage })
@@ -25,18 +27,21 @@ export class CreateStandardDto implements CreateStandardRequest {
   @Trim()
   @MinLength(1, { message: 'makeModel must not be empty' })
   @MaxLength(160)
+  @SingleLine()
   makeModel: string;
 
   @IsString()
   @Trim()
   @MinLength(1, { message: 'serial must not be empty' })
   @MaxLength(120)
+  @SingleLine()
   serial: string;
 
   @IsString()
   @Trim()
   @MinLength(1, { message: 'certificateNumber must not be empty' })
   @MaxLength(120)
+  @SingleLine()
   certificateNumber: string;
 
   @IsDateOnly('dueDate')
@@ -64,19 +69,19 @@ export class CreateStandardDto implements CreateStandardRequest {
 }
 
 export class UpdateStandardDto implements UpdateStandardRequest {
-  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'name must not be empty' }) @MaxLength(120)
+  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'name must not be empty' }) @MaxLength(120) @SingleLine()
   name?: string;
 
   @IsOptional() @IsIn(STANDARD_KINDS, { message: kindMessage })
   kind?: StandardKind;
 
-  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'makeModel must not be empty' }) @MaxLength(160)
+  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'makeModel must not be empty' }) @MaxLength(160) @SingleLine()
   makeModel?: string;
 
-  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'serial must not be empty' }) @MaxLength(120)
+  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'serial must not be empty' }) @MaxLength(120) @SingleLine()
   serial?: string;
 
-  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'certificateNumber must not be empty' }) @MaxLength(120)
+  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'certificateNumber must not be empty' }) @MaxLength(120) @SingleLine()
   certificateNumber?: string;
 
   @IsOptional() @IsDateOnly('dueDate')

@@ -8,6 +8,7 @@ import {
   type UpdateUserRequest,
 } from '@kilocycle/common/types';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
+import { SingleLine } from '../../shared/single-line.decorator.js';
 
 const passwordMessage = `password must be at least ${MIN_PASSWORD_LENGTH} characters`;
 
@@ -15,11 +16,13 @@ export class CreateUserDto implements CreateUserRequest {
   @IsEmail({}, { message: 'email must be an e-mail address' })
   @MaxLength(254)
   @Transform(({ value }) => (typeof value === 'string' ? value.trim().toLowerCase() : value))
+  @SingleLine()
   email: string;
 
   @IsString()
   @MinLength(1)
   @MaxLength(200)
+  @SingleLine()
   name: string;
 
   @IsIn(ROLES, { message: `role must be one of: ${ROLES.join(', ')}` })
@@ -40,6 +43,7 @@ export class UpdateUserDto implements UpdateUserRequest {
   @IsString()
   @MinLength(1)
   @MaxLength(200)
+  @SingleLine()
   name?: string;
 
   @IsOptional()

@@ -1,0 +1,1 @@
+export { CONTROL_CHARACTER, isSingleLineText, printableLine, printableText, singleLineMessage } from './single-line.js';
