@@ -35,6 +35,10 @@ export class Procedure {
   @Column({ type: 'boolean', default: true })
   active: boolean;
 
+  /** 1 when created, +1 at every edit; procedure_versions keeps each one. */
+  @Column({ type: 'int', default: 1 })
+  version: number;
+
   @UpdateDateColumn({ name: 'updated_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)', onUpdate: 'CURRENT_TIMESTAMP(3)' })
   updatedAt: Date;
 }

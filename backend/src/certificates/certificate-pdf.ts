@@ -4,6 +4,7 @@ import PDFDocument from 'pdfkit';
 import QRCode from 'qrcode';
 import { formatFrequency, type FrequencyUnit } from '@kilocycle/common/units';
 import type { Decision, JobResults, MeasuredPoint, RangeResult, Tolerance } from '@kilocycle/common/types';
+import { printableCertificateData } from './certificate-text.js';
 
 /** Everything printed on a certificate; gathered once at signing. */
 export type CertificatePdfData = {
@@ -386,7 +387,9 @@ function conformityStatement(results: JobResults): string {
 }
 
 /** Draws the certificate. Pages are buffered so every page can carry "Page x of y" at the end. */
-export async function renderCertificatePdf(data: CertificatePdfData): Promise<Buffer> {
+export async function renderCertificatePdf(input: CertificatePdfData): Promise<Buffer> {
+  // Control characters go everywhere; names, serials and labels print on one line (see certificate-text.ts).
+  const data = printableCertificateData(input);
   const qr = await QRCode.toBuffer(data.verifyUrl, { type: 'png', errorCorrectionLevel: 'M', margin: 1, width: 240 });
   const doc = new PDFDocument({
     size: 'A4',

@@ -1,5 +1,6 @@
 import type { DialLaw, Tolerance } from '@kilocycle/common/types';
 import { Procedure } from '../budgets/procedure.entity.js';
+import { recordProcedureVersion } from '../budgets/procedure-versions.js';
 import { JobProcedure } from '../budgets/job-procedure.entity.js';
 import { loadConfig } from '../config/app-config.js';
 import { InstrumentRange } from '../instruments/instrument-range.entity.js';
@@ -48,6 +49,7 @@ export async function seedDemoCertificates({ manager, customerIds, userIds }: De
       isDefault: false,
     })
   ).identifiers[0].id as number;
+  await recordProcedureVersion(manager, guarded, null);
 
   const counter = await manager.findOne(Standard, { where: { active: true }, order: { dueDate: 'DESC' } });
   if (!counter) throw new Error('the certificate demo needs a reference standard from the lab-records demo');

@@ -2,10 +2,11 @@ import { Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import type { Response } from 'express';
 import type { DataSource } from 'typeorm';
-import { analyseCalibration, MetrologyError } from '@kilocycle/common/math';
-import { READINGS_CSV_COLUMNS, RESULTS_CSV_COLUMNS, type DialLaw, type RunKind, type Tolerance } from '@kilocycle/common/types';
+import { READINGS_CSV_COLUMNS } from '@kilocycle/common/types';
 import { organizationScope, type AuthUser } from '../auth/auth-user.js';
+import { loadSignedRecord } from '../certificates/signed-record.js';
 import { attachmentDisposition, csvLine } from './csv.js';
+import { resultsCsv } from './results-csv.js';
 
 // The part of a mysql2 (callback API) pool connection the export streams with.
 type RowCell = number | string | Date | null;
@@ -18,10 +19,6 @@ type RawConnection = { query(options: { sql: string; values: unknown[]; rowsAsAr
 
 /** Lines are gathered to about this many characters before each write to the response. */
 const CHUNK = 64 * 1024;
-
-function json<T>(value: unknown): T {
-  return (typeof value === 'string' ? JSON.parse(value) : value) as T;
-}
 
 /** CSV exports, in the same organisation scope as the pages: a client gets its own organisation's, anything else is 404. */
 @Injectable()
@@ -92,48 +89,17 @@ export class ExportsService {
   }
 
   /**
-   * A job's results: per calibration run (as-found, as-left) and dial setting, the nominal, the mean of
-   * the included readings, n, SD, the error in Hz, ppm and %, the tolerance and the outlier flag, by
-   * common's analyseCalibration on the range's dial law and tolerance.
+   * A job's results CSV (resultsCsv). A signed job's is the one stored with its signed record, byte for
+   * byte, whatever has been edited since.
    */
   async results(actor: AuthUser, jobId: number, res: Response): Promise<void> {
     const [job] = await this.dataSource.query('SELECT id, number, organization_id FROM jobs WHERE id = ?', [jobId]);
     const scope = organizationScope(actor);
     if (!job || (scope !== null && Number(job.organization_id) !== scope)) throw new NotFoundException(`Job ${jobId} not found`);
-    const runs: Array<Record<string, unknown>> = await this.dataSource.query(
-      `SELECT r.id, r.kind, g.label, g.dial_unit, g.dial_law, g.tolerance
-         FROM runs r JOIN instrument_ranges g ON g.id = r.range_id
-        WHERE r.job_id = ? AND r.kind IN ('as_found', 'as_left') ORDER BY g.position, r.started_at, r.id`,
-      [jobId],
-    );
-    let body = csvLine(RESULTS_CSV_COLUMNS);
-    for (const run of runs) {
-      const readings: Array<{ dial: number | null; frequency_hz: number; excluded: number }> = await this.dataSource.query(
-        `SELECT r.dial, r.frequency_hz, (x.reading_id IS NOT NULL) AS excluded
-           FROM readings r LEFT JOIN reading_exclusions x ON x.reading_id = r.id WHERE r.run_id = ? ORDER BY r.seq`,
-        [run.id],
-      );
-      const base = [job.number, Number(run.id), run.kind as RunKind, run.label, null, run.dial_unit];
-      const usable = readings.filter((r) => r.dial !== null).map((r) => ({ dial: Number(r.dial), frequency: Number(r.frequency_hz), excluded: Number(r.excluded) === 1 }));
-      if (usable.filter((r) => !r.excluded).length === 0) {
-        body += csvLine([...base, null, null, 0, null, null, null, null, null, null, 'no included readings with a dial setting']);
-        continue;
-      }
-      try {
-        const analysis = analyseCalibration({ law: json<DialLaw>(run.dial_law), tolerance: json<Tolerance>(run.tolerance), readings: usable });
-        for (const p of analysis.points) {
-          body += csvLine([
-            job.number, Number(run.id), run.kind, run.label, p.dial, run.dial_unit, p.nominal, p.measured, p.n, p.sd,
-            p.errorHz, p.errorPpm, p.errorPercent, p.toleranceHz, p.outlier, null,
-          ]);
-        }
-      } catch (error) {
-        if (!(error instanceof MetrologyError)) throw error;
-        body += csvLine([...base, null, null, usable.length, null, null, null, null, null, null, error.message]);
-      }
-    }
+    const signed = await loadSignedRecord(this.dataSource.manager, jobId);
+    const body = signed?.record?.resultsCsv ?? (await resultsCsv(this.dataSource.manager, jobId, String(job.number)));
     res.setHeader('Content-Type', 'text/csv; charset=utf-8');
-    res.setHeader('Content-Disposition', attachmentDisposition(`${job.number}-results.csv`));
+    res.setHeader('Content-Disposition', attachmentDisposition(`${signed?.record?.job.number ?? job.number}-results.csv`));
     res.setHeader('Cache-Control', 'private, no-store');
     res.send(body);
   }

@@ -48,6 +48,10 @@ export class Run {
   @JoinColumn({ name: 'standard_id', foreignKeyConstraintName: 'FK_runs_standard' })
   standard: Relation<Standard> | null;
 
+  /** The version of the standard the signed results used; set at signing (open jobs use the newest). */
+  @Column({ name: 'standard_version', type: 'int', nullable: true })
+  standardVersion: number | null;
+
   @Column({ name: 'standard_override_reason', type: 'text', nullable: true })
   standardOverrideReason: string | null;
 

@@ -40,4 +40,8 @@ export class Standard {
 
   @Column({ type: 'boolean', default: true })
   active: boolean;
+
+  /** 1 when created, +1 at every edit; standard_versions keeps each one. */
+  @Column({ type: 'int', default: 1 })
+  version: number;
 }

@@ -1,5 +1,6 @@
 import { addDays } from '../jobs/demo-signals.js';
 import type { DemoContext } from '../seed/demo-seed.js';
+import { recordStandardVersion } from './standard-versions.js';
 import { Standard } from './standard.entity.js';
 
 /** The demo lab's two counters: one in date, one whose calibration has lapsed (for the override flow). */
@@ -7,7 +8,7 @@ export const DEMO_STANDARDS = { inDate: 'Bench counter A', lapsed: 'Bench counte
 
 export async function seedDemoStandards({ manager }: DemoContext): Promise<void> {
   const today = new Date();
-  await manager.insert(Standard, [
+  const inserted = await manager.insert(Standard, [
     {
       name: DEMO_STANDARDS.inDate,
       kind: 'counter',
@@ -35,4 +36,5 @@ export async function seedDemoStandards({ manager }: DemoContext): Promise<void>
       active: true,
     },
   ]);
+  for (const { id } of inserted.identifiers) await recordStandardVersion(manager, id as number, null);
 }

@@ -1,11 +1,12 @@
 import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
+import { StandardVersionRow } from './standard-version.entity.js';
 import { Standard } from './standard.entity.js';
 import { StandardsController } from './standards.controller.js';
 import { StandardsService } from './standards.service.js';
 
 @Module({
-  imports: [TypeOrmModule.forFeature([Standard])],
+  imports: [TypeOrmModule.forFeature([Standard, StandardVersionRow])],
   controllers: [StandardsController],
   providers: [StandardsService],
   exports: [StandardsService],

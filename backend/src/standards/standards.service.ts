@@ -7,6 +7,7 @@ import type { AuthUser } from '../auth/auth-user.js';
 import { dateOnly, todayIso } from '../shared/dto-helpers.js';
 import { likePattern, paginate } from '../shared/paginate.js';
 import type { CreateStandardDto, ListStandardsQueryDto, UpdateStandardDto } from './dto/standard.dto.js';
+import { recordStandardVersion } from './standard-versions.js';
 import { Standard } from './standard.entity.js';
 
 export function toStandardView(s: Standard, today = todayIso()): ReferenceStandard {
@@ -25,6 +26,7 @@ export function toStandardView(s: Standard, today = todayIso()): ReferenceStanda
     calibrationK: s.calibrationK,
     active: s.active,
     overdue: dueDate < today,
+    version: s.version,
   };
 }
 
@@ -78,7 +80,8 @@ export class StandardsService {
       }
       const result = await manager.insert(Standard, { ...body, active: true });
       const newId = result.identifiers[0].id as number;
-      await this.audit.record({ actorId: actor.id, entity: 'standard', entityId: newId, action: 'create', changes: { ...body } }, manager);
+      await recordStandardVersion(manager, newId, actor.id);
+      await this.audit.record({ actorId: actor.id, entity: 'standard', entityId: newId, action: 'create', changes: { ...body, version: 1 } }, manager);
       return newId;
     });
     return this.get(id);
@@ -101,8 +104,11 @@ export class StandardsService {
         }
       }
       if (Object.keys(patch).length === 0) return;
-      await manager.update(Standard, { id }, patch);
-      await this.audit.record({ actorId: actor.id, entity: 'standard', entityId: id, action: 'update', changes }, manager);
+      // An edit is a new version: jobs signed earlier keep the version they were signed with.
+      const version = found.version + 1;
+      await manager.update(Standard, { id }, { ...patch, version });
+      await recordStandardVersion(manager, id, actor.id);
+      await this.audit.record({ actorId: actor.id, entity: 'standard', entityId: id, action: 'update', changes: { ...changes, version: { from: found.version, to: version } } }, manager);
     });
     return this.get(id);
   }
