@@ -9,6 +9,7 @@ import type {
 } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
 import type { AuthUser } from '../auth/auth-user.js';
+import { loadSignedRecord } from '../certificates/signed-record.js';
 import { assertJobEditable, isJobSigned } from '../reviews/job-guards.js';
 import { likePattern, paginate } from '../shared/paginate.js';
 import { User } from '../users/user.entity.js';
@@ -16,6 +17,7 @@ import type { CreateProcedureDto, ListProceduresQueryDto, UpdateProcedureDto, Up
 import { findScopedJob, findScopedRun } from './job-access.js';
 import { JobProcedure } from './job-procedure.entity.js';
 import { computeJobResults, effectiveFigures, loadJobProcedure } from './job-results.js';
+import { recordProcedureVersion } from './procedure-versions.js';
 import { Procedure } from './procedure.entity.js';
 import { RunBudget } from './run-budget.entity.js';
 
@@ -32,6 +34,7 @@ export function toProcedureView(p: Procedure): ProcedureView {
     isDefault: p.isDefault,
     active: p.active,
     updatedAt: p.updatedAt.toISOString(),
+    version: p.version,
   };
 }
 
@@ -63,7 +66,8 @@ export class BudgetsService {
       if (body.isDefault) await manager.update(Procedure, { isDefault: true }, { isDefault: false });
       const result = await manager.insert(Procedure, { ...body, extraComponents: body.extraComponents.map((c) => ({ ...c })), isDefault: body.isDefault ?? false });
       const newId = result.identifiers[0].id as number;
-      await this.audit.record({ actorId: actor.id, entity: 'procedure', entityId: newId, action: 'create', changes: { ...body } }, manager);
+      await recordProcedureVersion(manager, newId, actor.id);
+      await this.audit.record({ actorId: actor.id, entity: 'procedure', entityId: newId, action: 'create', changes: { ...body, version: 1 } }, manager);
       return newId;
     });
     return this.getProcedure(id);
@@ -87,7 +91,15 @@ export class BudgetsService {
         changes[key] = { from: found[key as keyof Procedure], to: value };
       }
       if (Object.keys(patch).length === 0) return;
-      await manager.update(Procedure, { id }, patch);
+      // A change to what the procedure computes or prints is a new version: jobs signed earlier keep theirs.
+      // Which procedure is the default, or whether it is offered, is not part of a version.
+      const versioned = Object.keys(patch).some((key) => key !== 'isDefault' && key !== 'active');
+      const version = versioned ? found.version + 1 : found.version;
+      await manager.update(Procedure, { id }, { ...patch, version });
+      if (versioned) {
+        await recordProcedureVersion(manager, id, actor.id);
+        changes.version = { from: found.version, to: version };
+      }
       await this.audit.record({ actorId: actor.id, entity: 'procedure', entityId: id, action: 'update', changes }, manager);
     });
     return this.getProcedure(id);
@@ -152,8 +164,10 @@ export class BudgetsService {
     return this.runBudget(actor, runId);
   }
 
+  /** A signed job's results are the ones it was signed with; an open job's are computed now. */
   async results(user: AuthUser, jobId: number): Promise<JobResults> {
     await findScopedJob(this.dataSource.manager, user, jobId);
-    return computeJobResults(this.dataSource.manager, jobId);
+    const signed = await loadSignedRecord(this.dataSource.manager, jobId);
+    return signed ? signed.results : computeJobResults(this.dataSource.manager, jobId);
   }
 }

@@ -66,6 +66,8 @@ export function worstDecision(decisions: ReadonlyArray<Decision | null>): Decisi
 
 export type ProcedureFigures = {
   id: number;
+  /** The procedure's version these figures are (open jobs use the newest). */
+  version: number;
   name: string;
   method: string;
   decisionRule: DecisionRule;
@@ -113,6 +115,8 @@ export type CalibrationRunRow = {
   rangeId: number;
   startedAt: Date;
   standard: StandardReference | null;
+  /** The version of the standard's row read here (the newest: the job is open). */
+  standardVersion: number | null;
   standardOverrideReason: string | null;
   overrides: RunOverrides | null;
 };
@@ -133,6 +137,7 @@ export async function loadJobProcedure(manager: EntityManager, jobId: number): P
   if (!row) throw new Error('no calibration procedure is defined; a lead must create one first');
   return {
     id: Number(row.id),
+    version: Number(row.version),
     name: String(row.name),
     method: String(row.method),
     decisionRule: row.decision_rule as DecisionRule,
@@ -147,7 +152,7 @@ export async function loadCalibrationRuns(manager: EntityManager, jobId: number)
   const rows: Array<Record<string, unknown>> = await manager.query(
     `SELECT r.id, r.kind, r.range_id, r.started_at, r.standard_override_reason,
             s.id AS s_id, s.name AS s_name, s.make_model, s.serial AS s_serial, s.certificate_number,
-            DATE_FORMAT(s.due_date, '%Y-%m-%d') AS s_due, s.timebase_accuracy_ppm, s.resolution_hz, s.calibration_u_ppm, s.calibration_k,
+            DATE_FORMAT(s.due_date, '%Y-%m-%d') AS s_due, s.timebase_accuracy_ppm, s.resolution_hz, s.calibration_u_ppm, s.calibration_k, s.version AS s_version,
             b.run_id AS b_run, b.dial_half_division, b.drift_ppm, b.drift_hz, b.counter_resolution_hz, b.extra_components
        FROM runs r
        LEFT JOIN standards s ON s.id = r.standard_id
@@ -163,6 +168,7 @@ export async function loadCalibrationRuns(manager: EntityManager, jobId: number)
     rangeId: Number(row.range_id),
     startedAt: new Date(row.started_at as string),
     standardOverrideReason: (row.standard_override_reason as string | null) ?? null,
+    standardVersion: row.s_id === null ? null : Number(row.s_version),
     standard:
       row.s_id === null
         ? null

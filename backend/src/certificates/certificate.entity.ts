@@ -1,5 +1,5 @@
 import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
-import type { CertificateStatus, Decision, JobResults } from '@kilocycle/common/types';
+import type { CertificateStatus, Decision, JobResults, SignedRecord } from '@kilocycle/common/types';
 import { Instrument } from '../instruments/instrument.entity.js';
 import { Job } from '../jobs/job.entity.js';
 import { Organization } from '../organizations/organization.entity.js';
@@ -97,6 +97,17 @@ export class Certificate {
   /** The results exactly as printed, stored at signing. */
   @Column({ type: 'json', nullable: true })
   results: JobResults | null;
+
+  /** Everything the signature covers, captured at signing (null only for revisions signed before it was kept). */
+  @Column({ type: 'json', nullable: true })
+  record: SignedRecord | null;
+
+  /** The instrument and the customer as printed on this revision, for lists and the public page. */
+  @Column({ name: 'instrument_label', type: 'varchar', length: 400, nullable: true })
+  instrumentLabel: string | null;
+
+  @Column({ name: 'customer_name', type: 'varchar', length: 200, nullable: true })
+  customerName: string | null;
 
   @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
   createdAt: Date;

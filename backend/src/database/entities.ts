@@ -7,6 +7,7 @@ import { Instrument } from '../instruments/instrument.entity.js';
 import { Job } from '../jobs/job.entity.js';
 import { JobProcedure } from '../budgets/job-procedure.entity.js';
 import { Procedure } from '../budgets/procedure.entity.js';
+import { ProcedureVersionRow } from '../budgets/procedure-version.entity.js';
 import { RunBudget } from '../budgets/run-budget.entity.js';
 import { Certificate } from '../certificates/certificate.entity.js';
 import { Comparison } from '../comparisons/comparison.entity.js';
@@ -19,6 +20,7 @@ import { ReadingExclusion } from '../readings/reading-exclusion.entity.js';
 import { Reading } from '../readings/reading.entity.js';
 import { Run } from '../runs/run.entity.js';
 import { Standard } from '../standards/standard.entity.js';
+import { StandardVersionRow } from '../standards/standard-version.entity.js';
 import { User } from '../users/user.entity.js';
 
 /**
@@ -28,6 +30,6 @@ import { User } from '../users/user.entity.js';
 export const ENTITIES = [
   Organization, User, AuditEvent, RevokedToken,
   Instrument, InstrumentRange, Standard, Bench, Job, Run, Reading, ReadingExclusion,
-  Procedure, JobProcedure, RunBudget, JobReview, Setting, Certificate, MailMessage, RecallNotice,
+  StandardVersionRow, Procedure, ProcedureVersionRow, JobProcedure, RunBudget, JobReview, Setting, Certificate, MailMessage, RecallNotice,
   Comparison, Attachment,
 ];

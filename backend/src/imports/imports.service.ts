@@ -30,7 +30,7 @@ import { sniffContent } from '../attachments/content-sniffer.js';
 import { AuditService } from '../audit/audit.service.js';
 import { organizationScope, type AuthUser } from '../auth/auth-user.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
-import { MAX_BATCH, ReadingsWriter, refusalReason, type RunWriteContext } from '../readings/readings-writer.service.js';
+import { MAX_BATCH, ReadingsWriter, refusalReason, type RunWriteContext, type SpanConfirmation } from '../readings/readings-writer.service.js';
 import { assertMayWriteRun } from '../runs/run-rules.js';
 import { convertRow, detectDelimiter, detectNewline, ImportFileError, lastRecordEnd, needsTime, parseMapping, resolveColumns, type Delimiter, type Newline, type ResolvedColumns } from './csv-columns.js';
 import type { ImportQueryDto } from './dto/import-query.dto.js';
@@ -92,7 +92,9 @@ export class ImportsService implements OnModuleInit {
         field: 'file',
         onBytes: (bytesDone, bytesTotal) => tracker.update({ bytesDone, bytesTotal }),
       });
-      const report = await this.process(actor, ctx, upload, mode, importId, query.mapping ?? upload.fields.mapping, tracker);
+      // Rows outside the range's span are bad rows unless the person confirmed the file as it is.
+      const confirm: SpanConfirmation = query.confirmed === true ? 'all' : 'none';
+      const report = await this.process(actor, ctx, upload, mode, importId, query.mapping ?? upload.fields.mapping, tracker, confirm);
       tracker.finish({ ok: true });
       return report;
     } catch (error) {
@@ -111,6 +113,7 @@ export class ImportsService implements OnModuleInit {
     importId: string,
     mappingText: string | undefined,
     tracker: ImportTracker,
+    confirm: SpanConfirmation,
   ): Promise<ImportReport> {
     const head = await readHead(upload.path);
     const sniffed = sniffContent(head);
@@ -148,7 +151,7 @@ export class ImportsService implements OnModuleInit {
     if (mode === 'all') {
       // Pass 1: validate every row; nothing is written unless all are good.
       const checked = await this.pass(file, columns, ctx, tracker, 'validating', async (batch) => {
-        record(sortByLine([...batch.rejected, ...this.locate(this.writer.validate(ctx, batch.inputs()).rejected, batch, columns)]));
+        record(sortByLine([...batch.rejected, ...this.locate(this.writer.validate(ctx, batch.inputs(), Date.now(), confirm).rejected, batch, columns)]));
       });
       report.rowCount = checked.rows;
       if (report.rowCount === 0) throw refused(report, [{ line: 2, column: 'file', reason: 'the file has no readings under its header' }], 'the file has no readings under its header');
@@ -161,7 +164,7 @@ export class ImportsService implements OnModuleInit {
     await this.dataSource.transaction(async (manager) => {
       await this.lockRun(manager, ctx.runId);
       const written = await this.pass(file, columns, ctx, tracker, 'writing', async (batch) => {
-        const result = batch.size === 0 ? null : await this.writer.append(ctx, batch.inputs(), 'import', { manager, skipReadBack: true });
+        const result = batch.size === 0 ? null : await this.writer.append(ctx, batch.inputs(), 'import', { manager, skipReadBack: true, confirm });
         const refusedNow = result ? this.locate(result.rejected, batch, columns) : [];
         // Pass 1 passed every row; a refusal now means the rules changed underneath: roll everything back.
         if (mode === 'all' && (refusedNow.length > 0 || batch.rejected.length > 0)) throw new ConflictException('a row changed between validating and writing; nothing was imported');

@@ -12,7 +12,7 @@ import {
   type RunKind,
   type RunStatus,
 } from '@kilocycle/common/types';
-import { parseFrequency, parseNumber } from '@kilocycle/common/units';
+import { outsideSpan, parseFrequency, parseNumber, SPAN_MARGIN, spanLimits } from '@kilocycle/common/units';
 
 export const MAX_BATCH = 1000;
 /** Frequencies above this are refused as implausible for the equipment a lab of this kind measures. */
@@ -31,8 +31,18 @@ export type RunWriteContext = {
   organizationId: number;
   dialMin: number;
   dialMax: number;
+  /** The range's nominal frequency span: readings far outside it are refused unless confirmed. */
+  freqMinHz: number;
+  freqMaxHz: number;
   startedAt: Date;
 };
+
+/**
+ * Which readings outside the range's span (by more than SPAN_MARGIN of it) are stored as given:
+ * 'each' those marked `confirmed: true` (typed through the API), 'all' every one (an import the person
+ * confirmed), 'none' none (a bench: the bridge has no one to confirm, so such readings are refused).
+ */
+export type SpanConfirmation = 'each' | 'all' | 'none';
 
 export type StoredBatch = { runId: number; readings: ReadingView[] };
 export type ExcludedReading = { runId: number; reading: ReadingView };
@@ -43,6 +53,8 @@ export type AppendOptions = {
   manager?: EntityManager;
   /** Do not read the stored readings back (`stored` is then empty): bulk writes that need only the counts. */
   skipReadBack?: boolean;
+  /** Default: 'each' for typed readings (source manual), 'none' otherwise. */
+  confirm?: SpanConfirmation;
 };
 
 type Row = { seq: number | null; t: number; dial: number | null; frequency: number; aux: number | null };
@@ -72,7 +84,7 @@ export class ReadingsWriter {
   async loadContext(runId: number): Promise<RunWriteContext | null> {
     const [row] = await this.dataSource.query(
       `SELECT r.id, r.kind, r.status, r.bench_id, r.started_at, j.status AS job_status, j.organization_id,
-              g.dial_min, g.dial_max
+              g.dial_min, g.dial_max, g.freq_min_hz, g.freq_max_hz
          FROM runs r JOIN jobs j ON j.id = r.job_id JOIN instrument_ranges g ON g.id = r.range_id
         WHERE r.id = ?`,
       [runId],
@@ -87,18 +99,28 @@ export class ReadingsWriter {
       organizationId: row.organization_id,
       dialMin: Number(row.dial_min),
       dialMax: Number(row.dial_max),
+      freqMinHz: Number(row.freq_min_hz),
+      freqMaxHz: Number(row.freq_max_hz),
       startedAt: new Date(row.started_at),
     };
   }
 
-  /** Checks every reading; returns the rows to store and the refused ones, each with its reason. */
-  validate(ctx: RunWriteContext, inputs: readonly ReadingInput[], now = Date.now()): { rows: Row[]; rejected: IngestAck['rejected'] } {
+  /**
+   * Checks every reading; returns the rows to store and the refused ones, each with its reason. A
+   * frequency outside the range's span by more than SPAN_MARGIN of it (a unit slip, usually) is refused
+   * with what it was read as and what was probably meant, unless `confirm` lets it through.
+   */
+  validate(ctx: RunWriteContext, inputs: readonly ReadingInput[], now = Date.now(), confirm: SpanConfirmation = 'none'): { rows: Row[]; rejected: IngestAck['rejected'] } {
     const rows: Row[] = [];
     const rejected: IngestAck['rejected'] = [];
     const needsDial = CALIBRATION_RUN_KINDS.includes(ctx.kind);
     const span = ctx.dialMax - ctx.dialMin;
     const dialLow = ctx.dialMin - DIAL_MARGIN * span;
     const dialHigh = ctx.dialMax + DIAL_MARGIN * span;
+    // Once per batch; each reading then costs two comparisons (the ingest path allocates nothing more).
+    const limits = spanLimits(ctx.freqMinHz, ctx.freqMaxHz, SPAN_MARGIN);
+    const freqLow = limits.low;
+    const freqHigh = limits.high;
     inputs.forEach((input, index) => {
       const rawSeq = (input as { seq?: unknown } | null)?.seq;
       const seq = Number.isInteger(rawSeq) ? (rawSeq as number) : null;
@@ -141,6 +163,13 @@ export class ReadingsWriter {
         if (typeof input.aux !== 'number' || !Number.isFinite(input.aux)) return refuse('aux', 'aux must be a finite number');
         aux = input.aux;
       }
+      // Last, so that a reading with a plain error is refused for that (it cannot be confirmed away).
+      if (confirm === 'each' && input.confirmed !== undefined && typeof input.confirmed !== 'boolean') return refuse('confirmed', 'confirmed must be true or false');
+      if ((frequency < freqLow || frequency > freqHigh) && confirm !== 'all' && !(confirm === 'each' && input.confirmed === true)) {
+        const { message } = outsideSpan(input.frequency, frequency, ctx.freqMinHz, ctx.freqMaxHz, SPAN_MARGIN, limits);
+        if (confirm === 'each') return rejected.push({ seq, index, field: 'frequency', reason: message, confirmable: true });
+        return refuse('frequency', confirm === 'none' && input.confirmed === true ? `${message} (a bench cannot confirm a reading outside the span)` : message);
+      }
       rows.push({ seq, t, dial, frequency, aux });
     });
     return { rows, rejected };
@@ -153,7 +182,7 @@ export class ReadingsWriter {
    * batches at once) and nothing is pushed to stored$: only the caller knows when it commits.
    */
   async append(ctx: RunWriteContext, inputs: readonly ReadingInput[], source: ReadingSource, options: AppendOptions = {}): Promise<AppendResult> {
-    const { rows, rejected } = this.validate(ctx, inputs);
+    const { rows, rejected } = this.validate(ctx, inputs, Date.now(), options.confirm ?? (source === 'manual' ? 'each' : 'none'));
     if (rows.length === 0) {
       return { accepted: 0, duplicates: 0, rejected, lastSeq: await this.lastSeq(ctx.runId, options.manager), stored: [] };
     }

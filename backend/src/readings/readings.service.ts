@@ -1,4 +1,4 @@
-import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
+import { BadRequestException, ConflictException, Injectable, NotFoundException, UnprocessableEntityException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import type { DataSource } from 'typeorm';
 import type { AppendReadingsResponse, ListResponse, Reading as ReadingView, ReadingInput } from '@kilocycle/common/types';
@@ -10,7 +10,7 @@ import type { ListReadingsQueryDto } from './dto/readings.dto.js';
 import { ReadingsWriter, refusalReason, toReadingView, type RunWriteContext } from './readings-writer.service.js';
 
 const SORTABLE = { seq: 'r.seq', t: 'r.t_s', dial: 'r.dial', frequency: 'r.frequency_hz', id: 'r.id' };
-const READING_KEYS = ['seq', 'dial', 'frequency', 't', 'aux'];
+const READING_KEYS = ['seq', 'dial', 'frequency', 't', 'aux', 'confirmed'];
 
 @Injectable()
 export class ReadingsService {
@@ -58,7 +58,8 @@ export class ReadingsService {
 
   /**
    * Stores typed readings through the shared write path. All or nothing: if any reading is refused,
-   * 400 names each refused field as `readings[i].field` and nothing is written.
+   * 400 names each refused field as `readings[i].field` and nothing is written; 422 when the only
+   * problem is a frequency outside the range's span (stored when sent again with `confirmed: true`).
    */
   async append(actor: AuthUser, runId: number, inputs: ReadingInput[]): Promise<AppendReadingsResponse> {
     const ctx = await this.visibleRun(actor, runId);
@@ -73,9 +74,19 @@ export class ReadingsService {
         }
       }
     });
-    problems.push(...this.writer.validate(ctx, inputs).rejected);
+    problems.push(...this.writer.validate(ctx, inputs, Date.now(), 'each').rejected);
     if (problems.length > 0) {
       problems.sort((a, b) => a.index - b.index);
+      // Only readings outside the range's span: 422, and sent again with confirmed: true they are stored.
+      if (problems.every((p) => p.confirmable)) {
+        throw new UnprocessableEntityException({
+          statusCode: 422,
+          error: 'Unprocessable Entity',
+          message: problems.map((p) => `readings[${p.index}].${p.field}: ${p.reason}`),
+          rejected: problems,
+          hint: 'nothing was stored; if the reading is right as given, send it again with confirmed: true',
+        });
+      }
       throw new BadRequestException({
         statusCode: 400,
         error: 'Bad Request',

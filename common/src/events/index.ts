@@ -76,7 +76,13 @@ export type AttachAck = {
 };
 export type AttachReply = AttachAck | Refusal;
 
-/** One batch: at most {@link MAX_INGEST_BATCH} readings, each with its own `seq`. */
+/**
+ * One batch: at most {@link MAX_INGEST_BATCH} readings, each with its own `seq`. A reading whose
+ * frequency lies outside the run's range span by more than `SPAN_MARGIN` of it (common/units
+ * `spanLimits`) is rejected with a reason in the acknowledgement, like any other bad reading: a bench
+ * has no one to confirm it (`confirmed` is ignored here), so a reading that is right though outside the
+ * span is entered on the run's page instead, where a person confirms it.
+ */
 export type IngestBatch = { runId: number; readings: ReadingInput[] };
 
 /**

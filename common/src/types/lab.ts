@@ -83,8 +83,10 @@ export type ReferenceStandard = {
   active: boolean;
   /** Derived: the due date has passed. */
   overdue: boolean;
+  /** 1 when created; every edit makes the next version (jobs signed earlier keep the one they used). */
+  version: number;
 };
-export type CreateStandardRequest = Omit<ReferenceStandard, 'id' | 'active' | 'overdue'>;
+export type CreateStandardRequest = Omit<ReferenceStandard, 'id' | 'active' | 'overdue' | 'version'>;
 export type UpdateStandardRequest = Partial<CreateStandardRequest> & { active?: boolean };
 
 export type Bench = {
@@ -184,7 +186,24 @@ export type CreateRunRequest = {
   configuration?: string | null;
   notes?: string | null;
 };
-export type UpdateRunRequest = { status?: 'closed'; supplyVoltage?: number | null; configuration?: string | null; notes?: string | null };
+/**
+ * PATCH /api/runs/:id. `status: 'closed'` closes the run. The run's details (standard, supply voltage,
+ * configuration, notes) are corrected while the job is open (received, in progress or returned), each
+ * correction with a `reason` kept in the audit trail with the values from and to.
+ */
+export type UpdateRunRequest = {
+  status?: 'closed';
+  standardId?: number | null;
+  /** Required when the new standard is past its due date (lead only); kept in the audit log. */
+  standardOverrideReason?: string;
+  supplyVoltage?: number | null;
+  configuration?: string | null;
+  notes?: string | null;
+  /** Why the details are corrected; required whenever one of them changes. */
+  reason?: string;
+};
+/** The run details a correction may change. */
+export const RUN_CORRECTABLE_FIELDS = ['standardId', 'supplyVoltage', 'configuration', 'notes'] as const;
 
 export const READING_SOURCES = ['bridge', 'manual', 'import'] as const;
 export type ReadingSource = (typeof READING_SOURCES)[number];
@@ -205,14 +224,27 @@ export type Reading = {
 };
 
 /** One reading as sent by the bench page, an import or the bridge. Frequency in Hz, or as typed ("1.735 MHz"). */
-export type ReadingInput = { seq?: number; dial?: number | string | null; frequency: number | string; t?: number; aux?: number | null };
+export type ReadingInput = {
+  seq?: number;
+  dial?: number | string | null;
+  frequency: number | string;
+  t?: number;
+  aux?: number | null;
+  /**
+   * The person has seen that the frequency lies outside the range's span (by more than the margin of
+   * `spanLimits` in common/units) and stores it as given. Honoured for readings typed through the API;
+   * a bench (the bridge) has no one to confirm, so its readings outside the span are always refused.
+   */
+  confirmed?: boolean;
+};
 export type AppendReadingsRequest = { readings: ReadingInput[] };
 
 /** The acknowledgement of a batch (REST and the bench socket alike). */
 export type IngestAck = {
   accepted: number;
   duplicates: number;
-  rejected: Array<{ seq: number | null; index: number; field: string; reason: string }>;
+  /** `confirmable`: refused only for lying outside the range's span; sent again with `confirmed: true` it is stored. */
+  rejected: Array<{ seq: number | null; index: number; field: string; reason: string; confirmable?: boolean }>;
   lastSeq: number;
 };
 

@@ -196,6 +196,19 @@ export const DEFAULT_IMPORT_MAX_MB = 200;
 /** At most this many refused rows are listed in a report (rejectedCount has them all). */
 export const MAX_REPORTED_REJECTIONS = 10_000;
 
+/** Query of POST /api/runs/:id/imports (`mapping` may also come as a multipart field). */
+export type ImportQuery = {
+  mode?: ImportMode;
+  importId?: string;
+  /** JSON: which header or 1-based column feeds each column ({@link ImportMapping}). */
+  mapping?: string;
+  /**
+   * true: rows whose frequency lies outside the range's span by more than the margin are stored as
+   * given (the person has checked them); otherwise they are refused like any other bad row.
+   */
+  confirmed?: boolean;
+};
+
 /** One refused row: line in the file (header = line 1), the column as named in the file, and why. */
 export type ImportRejection = { line: number; column: string; reason: string };
 
