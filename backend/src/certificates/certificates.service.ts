@@ -50,9 +50,10 @@ export class CertificatesService {
       jobId: c.jobId,
       jobNumber: c.job?.number ?? '',
       organizationId: c.organizationId,
-      organizationName: c.organization?.name ?? '',
       instrumentId: c.instrumentId,
-      instrumentLabel: c.instrument ? instrumentLabel(c.instrument) : '',
+      // As printed on the revision (kept at signing); a draft has none yet and shows the live instrument.
+      organizationName: c.customerName ?? c.organization?.name ?? '',
+      instrumentLabel: c.instrumentLabel ?? (c.instrument ? instrumentLabel(c.instrument) : ''),
       signedById: c.signedById,
       signedByName: c.signedBy?.name ?? null,
       signedAt: c.signedAt?.toISOString() ?? null,
@@ -74,7 +75,7 @@ export class CertificatesService {
     const columns = [
       'c.id', 'c.number', 'c.revision', 'c.status', 'c.jobId', 'c.organizationId', 'c.instrumentId', 'c.signedById', 'c.signedAt',
       'c.signingMeaning', 'c.issuedAt', 'c.fileName', 'c.sha256', 'c.replacesRevision', 'c.amendmentReason', 'c.withdrawnReason',
-      'c.withdrawnAt', 'c.supersededAt', 'c.decision',
+      'c.withdrawnAt', 'c.supersededAt', 'c.decision', 'c.asFoundDecision', 'c.instrumentLabel', 'c.customerName',
     ];
     const qb = this.dataSource
       .getRepository(Certificate)
@@ -98,7 +99,10 @@ export class CertificatesService {
     if (query.jobId) qb.andWhere('c.jobId = :job', { job: query.jobId });
     if (query.status) qb.andWhere('c.status IN (:...statuses)', { statuses: query.status.split(',') });
     if (query.q) {
-      qb.andWhere('(c.number LIKE :q OR i.make LIKE :q OR i.model LIKE :q OR i.serial LIKE :q OR o.name LIKE :q)', { q: likePattern(query.q) });
+      qb.andWhere(
+        '(c.number LIKE :q OR c.instrumentLabel LIKE :q OR c.customerName LIKE :q OR i.make LIKE :q OR i.model LIKE :q OR i.serial LIKE :q OR o.name LIKE :q)',
+        { q: likePattern(query.q) },
+      );
     }
     return paginate(qb, query, SORTABLE, '-issuedAt', (c) => this.toView(c));
   }
@@ -181,7 +185,7 @@ export class CertificatesService {
     const rows = await this.dataSource
       .getRepository(Certificate)
       .createQueryBuilder('c')
-      .select(['c.id', 'c.number', 'c.revision', 'c.status', 'c.issuedAt', 'c.sha256', 'c.signature', 'c.keyId', 'o.id', 'o.name', 'i.id', 'i.make', 'i.model', 'i.serial'])
+      .select(['c.id', 'c.number', 'c.revision', 'c.status', 'c.issuedAt', 'c.sha256', 'c.signature', 'c.keyId', 'c.instrumentLabel', 'c.customerName', 'o.id', 'o.name', 'i.id', 'i.make', 'i.model', 'i.serial'])
       .innerJoin('c.organization', 'o')
       .innerJoin('c.instrument', 'i')
       .where('c.number = :number', { number })
@@ -199,8 +203,9 @@ export class CertificatesService {
       number: latest.number,
       revision: latest.revision,
       status: latest.status,
-      instrument: instrumentLabel(latest.instrument),
-      customer: latest.organization.name,
+      // As printed on the revision, never the live rows (a later edit must not change what the page says).
+      instrument: latest.instrumentLabel ?? instrumentLabel(latest.instrument),
+      customer: latest.customerName ?? latest.organization.name,
       issuedAt: latest.issuedAt?.toISOString() ?? null,
       sha256: latest.sha256,
       revisions: published.map((r) => ({ revision: r.revision, status: r.status, issuedAt: r.issuedAt?.toISOString() ?? null, sha256: r.sha256 })),

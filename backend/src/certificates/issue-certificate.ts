@@ -2,16 +2,21 @@ import { ConflictException } from '@nestjs/common';
 import { randomBytes } from 'node:crypto';
 import { mkdirSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { DataSource, EntityManager } from 'typeorm';
-import { SIGNING_MEANING, type JobResults } from '@kilocycle/common/types';
+import { In, type DataSource, type EntityManager } from 'typeorm';
+import { SIGNING_MEANING, type JobOutcomes, type JobResults, type SignedRecord } from '@kilocycle/common/types';
 import type { AuditEntry } from '../audit/audit.service.js';
 import { AuditEvent } from '../audit/audit-event.entity.js';
-import { computeJobResults } from '../budgets/job-results.js';
+import { computeJobResults, loadJobProcedure } from '../budgets/job-results.js';
 import type { AppConfig } from '../config/app-config.js';
+import { resultsCsv } from '../exports/results-csv.js';
+import { InstrumentRange } from '../instruments/instrument-range.entity.js';
+import { toRangeView } from '../instruments/instruments.service.js';
 import { Instrument } from '../instruments/instrument.entity.js';
 import { Job } from '../jobs/job.entity.js';
 import { Organization } from '../organizations/organization.entity.js';
 import { JobReview } from '../reviews/job-review.entity.js';
+import { standardFigures } from '../standards/standard-versions.js';
+import { Standard } from '../standards/standard.entity.js';
 import { User } from '../users/user.entity.js';
 import { Certificate } from './certificate.entity.js';
 import { renderCertificatePdf, type CertificatePdfData } from './certificate-pdf.js';
@@ -129,6 +134,20 @@ export async function issueCertificate(manager: EntityManager, deps: IssueDeps, 
   for (const flag of results.flags.filter((f) => f.kind === 'standard_override')) deviations.push(`Reference standard used past its due date by the lead's decision (run ${flag.runId}): ${flag.message.replace(/^.*override: /, '')}.`);
   for (const flag of results.flags.filter((f) => f.kind === 'no_as_left')) deviations.push(flag.message.replace(/^([^:]+): /, 'Range $1: ') + '.');
 
+  // Everything the signature covers, read in this transaction: every later view of the job reads it.
+  const record = await captureRecord(manager, {
+    job,
+    instrument,
+    customer,
+    lab: { name: labName, address: settings.labAddress, place: settings.calibrationPlace },
+    results,
+    deviations,
+    usedRunIds,
+    runRows,
+    signer,
+    meaning,
+    now,
+  });
   const url = verifyUrl(deps.config.publicUrl, number);
   const pdfData: CertificatePdfData = {
     number,
@@ -136,25 +155,15 @@ export async function issueCertificate(manager: EntityManager, deps: IssueDeps, 
     replaces: draft?.replacesRevision
       ? { revision: draft.replacesRevision, reason: draft.amendmentReason ?? '', issuedAt: replaced?.issuedAt?.toISOString() ?? null }
       : null,
-    lab: { name: labName, address: settings.labAddress, place: settings.calibrationPlace },
-    customer: { name: customer.name, contact: customer.contactEmail },
-    instrument: { make: instrument.make, model: instrument.model, serial: instrument.serial, assetTag: instrument.assetTag, description: instrument.description },
-    job: {
-      number: job.number,
-      receivedDate: typeof job.receivedDate === 'string' ? job.receivedDate.slice(0, 10) : new Date(job.receivedDate).toISOString().slice(0, 10),
-      conditionReceived: job.conditionReceived,
-      ambientTempC: job.ambientTempC,
-      humidityPct: job.humidityPct,
-      supplyVoltages: runRows.map((r) => r.supply_voltage).filter((v): v is number => v !== null).map(Number),
-    },
-    calibrationDates: {
-      first: runRows.map((r) => r.started).sort()[0] ?? now.toISOString().slice(0, 10),
-      last: runRows.map((r) => r.ended).sort().at(-1) ?? now.toISOString().slice(0, 10),
-    },
+    lab: { name: record.lab.name, address: record.lab.address ?? '', place: record.lab.place ?? '' },
+    customer: { name: record.customer.name, contact: record.customer.contactEmail },
+    instrument: record.instrument,
+    job: { ...record.job, supplyVoltages: record.job.supplyVoltages },
+    calibrationDates: record.job.calibrationDates,
     issuedAt: now,
-    results,
-    deviations,
-    signatory: { name: signer.name, role: SIGNATORY_ROLE, meaning, signedAt: now },
+    results: record.results,
+    deviations: record.deviations,
+    signatory: { name: record.signatory.name, role: record.signatory.role, meaning: record.signatory.meaning, signedAt: now },
     verifyUrl: url,
   };
   const pdf = await renderCertificatePdf(pdfData);
@@ -179,7 +188,11 @@ export async function issueCertificate(manager: EntityManager, deps: IssueDeps, 
     signature,
     keyId: key.keyId,
     decision: results.decision,
+    asFoundDecision: results.outcomes.asFound?.decision ?? null,
     results,
+    record,
+    instrumentLabel: record.instrument.label,
+    customerName: record.customer.name,
   };
   let certificateId: number;
   if (draft) {
@@ -237,6 +250,86 @@ export async function issueCertificate(manager: EntityManager, deps: IssueDeps, 
     customer: customer.name,
     instrumentLabel: instrumentLabel(instrument),
     verifyUrl: url,
+    outcomes: results.outcomes,
+  };
+}
+
+type CaptureInput = {
+  job: Job;
+  instrument: Instrument;
+  customer: Organization;
+  lab: SignedRecord['lab'];
+  results: JobResults;
+  deviations: string[];
+  usedRunIds: number[];
+  runRows: Array<{ started: string; ended: string; supply_voltage: number | null }>;
+  signer: User;
+  meaning: string;
+  now: Date;
+};
+
+/**
+ * The signed record: the instrument's identity and ranges, the customer, the procedure version and the
+ * standards' versions the results were computed with, the results, deviations, the results CSV and the
+ * signatory. Stamps each used run with the version of its standard.
+ */
+async function captureRecord(manager: EntityManager, input: CaptureInput): Promise<SignedRecord> {
+  const { job, instrument, customer, results, now } = input;
+  const [procedure, ranges, technician, csv] = await Promise.all([
+    loadJobProcedure(manager, job.id),
+    manager.find(InstrumentRange, { where: { instrumentId: instrument.id }, order: { position: 'ASC' } }),
+    job.technicianId ? manager.findOneBy(User, { id: job.technicianId }) : Promise.resolve(null),
+    resultsCsv(manager, job.id, job.number),
+  ]);
+  const standardIds = results.standards.map((s) => s.id);
+  const standards = standardIds.length === 0 ? [] : await manager.findBy(Standard, { id: In(standardIds) });
+  if (input.usedRunIds.length > 0) {
+    await manager.query('UPDATE runs r JOIN standards s ON s.id = r.standard_id SET r.standard_version = s.version WHERE r.id IN (?)', [input.usedRunIds]);
+  }
+  return {
+    schema: 1,
+    job: {
+      id: job.id,
+      number: job.number,
+      receivedDate: typeof job.receivedDate === 'string' ? job.receivedDate.slice(0, 10) : new Date(job.receivedDate).toISOString().slice(0, 10),
+      conditionReceived: job.conditionReceived,
+      technicianName: technician?.name ?? null,
+      ambientTempC: job.ambientTempC,
+      humidityPct: job.humidityPct,
+      supplyVoltages: input.runRows.map((r) => r.supply_voltage).filter((v): v is number => v !== null).map(Number),
+      calibrationDates: {
+        first: input.runRows.map((r) => r.started).sort()[0] ?? now.toISOString().slice(0, 10),
+        last: input.runRows.map((r) => r.ended).sort().at(-1) ?? now.toISOString().slice(0, 10),
+      },
+    },
+    instrument: {
+      id: instrument.id,
+      make: instrument.make,
+      model: instrument.model,
+      serial: instrument.serial,
+      assetTag: instrument.assetTag,
+      description: instrument.description,
+      label: instrumentLabel(instrument),
+      ranges: ranges.map(toRangeView),
+    },
+    customer: { id: customer.id, name: customer.name, contactEmail: customer.contactEmail },
+    lab: input.lab,
+    procedure: {
+      id: procedure.id,
+      version: procedure.version,
+      name: procedure.name,
+      method: procedure.method,
+      decisionRule: procedure.decisionRule,
+      dialHalfDivisionPercentOfSpan: procedure.dialHalfDivisionPercentOfSpan,
+      driftPpm: procedure.driftPpm,
+      driftHz: procedure.driftHz,
+      extraComponents: procedure.extraComponents,
+    },
+    standards: standards.map(standardFigures).sort((a, b) => standardIds.indexOf(a.id) - standardIds.indexOf(b.id)),
+    results,
+    deviations: input.deviations,
+    resultsCsv: csv,
+    signatory: { id: input.signer.id, name: input.signer.name, role: SIGNATORY_ROLE, meaning: input.meaning, signedAt: now.toISOString() },
   };
 }
 

@@ -11,6 +11,7 @@ import { computeJobResults } from '../budgets/job-results.js';
 import { Certificate } from '../certificates/certificate.entity.js';
 import { readSettings } from '../certificates/certificate-settings.js';
 import { CertificatesService } from '../certificates/certificates.service.js';
+import { loadSignedRecord } from '../certificates/signed-record.js';
 import { instrumentLabel, issueCertificate, withCertificateFile } from '../certificates/issue-certificate.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { Instrument } from '../instruments/instrument.entity.js';
@@ -159,13 +160,17 @@ export class ReviewsService {
   async review(user: AuthUser, jobId: number): Promise<JobReviewView> {
     const manager = this.dataSource.manager;
     const job = await findScopedJob(manager, user, jobId);
+    // A signed job is shown as it was signed: results, instrument, customer and standards from its record.
+    const signed = await loadSignedRecord(manager, job.id);
+    const frozen = signed?.record ?? null;
     const [instrument, organization, technician, results, settings] = await Promise.all([
       manager.findOneByOrFail(Instrument, { id: job.instrumentId }),
       manager.findOneByOrFail(Organization, { id: job.organizationId }),
       job.technicianId ? manager.findOneBy(User, { id: job.technicianId }) : Promise.resolve(null),
-      computeJobResults(manager, job.id),
+      signed ? Promise.resolve(signed.results) : computeJobResults(manager, job.id),
       readSettings(manager),
     ]);
+    const signedStandards = new Map((frozen?.standards ?? []).map((s) => [s.id, s]));
     const used = new Set(results.ranges.flatMap((r) => [r.asFoundRunId, r.asLeftRunId]).filter((id): id is number => id !== null));
     const runRows: Array<Record<string, unknown>> = await manager.query(
       `SELECT r.id, r.kind, r.range_id, g.label AS range_label, r.status, r.standard_id, s.name AS standard_name,
@@ -211,26 +216,26 @@ export class ReviewsService {
         number: job.number,
         status: job.status,
         organizationId: job.organizationId,
-        organizationName: organization.name,
+        organizationName: frozen?.customer.name ?? organization.name,
         instrumentId: job.instrumentId,
-        instrumentLabel: instrumentLabel(instrument),
-        receivedDate: typeof job.receivedDate === 'string' ? job.receivedDate.slice(0, 10) : new Date(job.receivedDate).toISOString().slice(0, 10),
-        conditionReceived: job.conditionReceived,
+        instrumentLabel: frozen?.instrument.label ?? instrumentLabel(instrument),
+        receivedDate: frozen?.job.receivedDate ?? (typeof job.receivedDate === 'string' ? job.receivedDate.slice(0, 10) : new Date(job.receivedDate).toISOString().slice(0, 10)),
+        conditionReceived: frozen ? frozen.job.conditionReceived : job.conditionReceived,
         technicianId: job.technicianId,
-        technicianName: technician?.name ?? null,
-        ambientTempC: job.ambientTempC,
-        humidityPct: job.humidityPct,
+        technicianName: frozen ? frozen.job.technicianName : (technician?.name ?? null),
+        ambientTempC: frozen ? frozen.job.ambientTempC : job.ambientTempC,
+        humidityPct: frozen ? frozen.job.humidityPct : job.humidityPct,
       },
       results,
       runs: runRows.map((r) => ({
         id: Number(r.id),
         kind: r.kind as JobReviewView['runs'][number]['kind'],
         rangeId: Number(r.range_id),
-        rangeLabel: String(r.range_label),
+        rangeLabel: frozen?.instrument.ranges.find((g) => g.id === Number(r.range_id))?.label ?? String(r.range_label),
         status: String(r.status),
         standardId: r.standard_id === null ? null : Number(r.standard_id),
-        standardName: (r.standard_name as string | null) ?? null,
-        standardDueDate: (r.standard_due as string | null) ?? null,
+        standardName: signedStandards.get(Number(r.standard_id))?.name ?? (r.standard_name as string | null) ?? null,
+        standardDueDate: signedStandards.get(Number(r.standard_id))?.dueDate ?? (r.standard_due as string | null) ?? null,
         standardOverrideReason: (r.standard_override_reason as string | null) ?? null,
         createdById: Number(r.created_by),
         createdByName: String(r.created_by_name),

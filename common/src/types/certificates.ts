@@ -1,6 +1,6 @@
 import type { CalibrationFit, TrackingSummary } from '../math/analyse-calibration.js';
 import type { Decision, DecisionRule } from '../math/decide.js';
-import type { DialUnit, JobStatus, RunKind, Tolerance } from './lab.js';
+import type { DialUnit, InstrumentRange, JobStatus, RunKind, Tolerance } from './lab.js';
 import type { ListQuery } from './list.js';
 
 export type { Decision, DecisionRule };
@@ -48,8 +48,10 @@ export type Procedure = BudgetDefaults & {
   isDefault: boolean;
   active: boolean;
   updatedAt: string;
+  /** 1 when created; every edit makes the next version (jobs signed earlier keep the one they used). */
+  version: number;
 };
-export type CreateProcedureRequest = Omit<Procedure, 'id' | 'active' | 'updatedAt' | 'isDefault'> & { isDefault?: boolean };
+export type CreateProcedureRequest = Omit<Procedure, 'id' | 'active' | 'updatedAt' | 'isDefault' | 'version'> & { isDefault?: boolean };
 export type UpdateProcedureRequest = Partial<CreateProcedureRequest> & { active?: boolean };
 export type ListProceduresQuery = ListQuery & { active?: boolean };
 
@@ -266,6 +268,55 @@ export type JobResults = {
   /** The as-found and the as-left outcome (results stored before this field existed lack it: readers derive it with jobOutcomes). */
   outcomes: JobOutcomes;
   flags: ReviewFlag[];
+};
+
+// ---- The signed record (what a signature covers) ----
+
+/** A procedure as one version of it stood: an edit makes a new version, and only open jobs use the newest. */
+export type ProcedureVersion = BudgetDefaults & Pick<Procedure, 'id' | 'name' | 'method' | 'decisionRule'> & { version: number };
+
+/** A reference standard as one version of it stood (its certificate, due date and accuracy). */
+export type StandardVersion = StandardReference & { version: number };
+
+/**
+ * Everything a job's results and certificate depend on, captured in the signing transaction and stored
+ * with the certificate revision (ISO/IEC 17025:2017 7.8; our design 7.1 "signed means frozen"). Every view
+ * of a signed job (results, CSV, review, portal, public verification) reads this, never the live rows.
+ */
+export type SignedRecord = {
+  schema: 1;
+  job: {
+    id: number;
+    number: string;
+    receivedDate: string;
+    conditionReceived: string | null;
+    technicianName: string | null;
+    ambientTempC: number | null;
+    humidityPct: number | null;
+    supplyVoltages: number[];
+    calibrationDates: { first: string; last: string };
+  };
+  instrument: {
+    id: number;
+    make: string;
+    model: string;
+    serial: string;
+    assetTag: string | null;
+    description: string | null;
+    /** "make model, serial N", as printed. */
+    label: string;
+    ranges: InstrumentRange[];
+  };
+  customer: { id: number; name: string; contactEmail: string | null };
+  lab: { name: string; address: string | null; place: string | null };
+  procedure: ProcedureVersion;
+  standards: StandardVersion[];
+  results: JobResults;
+  /** Deviations from the method stated on the certificate. */
+  deviations: string[];
+  /** GET /api/jobs/:id/results.csv as it stood at signing. */
+  resultsCsv: string;
+  signatory: { id: number; name: string; role: string; meaning: string; signedAt: string };
 };
 
 // ---- Review (GET /api/reviews/:jobId) and sign-off ----
