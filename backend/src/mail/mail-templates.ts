@@ -1,8 +1,9 @@
 import type { OutgoingMail } from './mailer.js';
+import { printableMailInput } from './mail-text.js';
 
 const SIGN_OFF = '\n\n-- \nThis message was sent by Kilocycle for the laboratory named above. Replies reach the laboratory.';
 
-export function certificateIssuedMail(input: {
+export function certificateIssuedMail(raw: {
   to: string[];
   labName: string;
   number: string;
@@ -14,6 +15,7 @@ export function certificateIssuedMail(input: {
   pdf: Buffer;
   fileName: string;
 }): OutgoingMail {
+  const input = printableMailInput(raw);
   const revisionText = input.replacesRevision ? `revision ${input.revision}, which replaces revision ${input.replacesRevision}` : `revision ${input.revision}`;
   return {
     kind: 'certificate_issued',
@@ -28,7 +30,8 @@ export function certificateIssuedMail(input: {
   };
 }
 
-export function jobReturnedMail(input: { to: string; technician: string; lead: string; jobNumber: string; instrument: string; comment: string; jobUrl: string }): OutgoingMail {
+export function jobReturnedMail(raw: { to: string; technician: string; lead: string; jobNumber: string; instrument: string; comment: string; jobUrl: string }): OutgoingMail {
+  const input = printableMailInput(raw, ['comment']);
   return {
     kind: 'job_returned',
     to: [input.to],
@@ -40,7 +43,8 @@ export function jobReturnedMail(input: { to: string; technician: string; lead: s
   };
 }
 
-export function recallReminderMail(input: { to: string[]; labName: string; customer: string; instruments: Array<{ label: string; dueDate: string }>; portalUrl: string }): OutgoingMail {
+export function recallReminderMail(raw: { to: string[]; labName: string; customer: string; instruments: Array<{ label: string; dueDate: string }>; portalUrl: string }): OutgoingMail {
+  const input = printableMailInput(raw);
   const lines = input.instruments.map((i) => `  - ${i.label}: due ${i.dueDate}`).join('\n');
   return {
     kind: 'recall_reminder',
