@@ -89,9 +89,14 @@ export function ProcedureDialog({ procedure, canEdit, onClose }: ProcedureDialog
   return (
     <Dialog open onClose={save.isPending ? undefined : onClose} aria-labelledby={titleId} maxWidth="md">
       <form noValidate onSubmit={submit}>
-        <DialogTitle id={titleId}>{procedure ? procedure.name : 'New procedure'}</DialogTitle>
+        <DialogTitle id={titleId}>{procedure ? `${procedure.name} (version ${procedure.version})` : 'New procedure'}</DialogTitle>
         <DialogContent>
           <FormErrors messages={problem ? [problem, ...messages] : messages} />
+          {procedure && canEdit && (
+            <Typography variant="body2" color="text.secondary" sx={{ mb: 1 }}>
+              Saving a change makes version {procedure.version + 1}. Open jobs use it at once; signed jobs keep the version they were signed with.
+            </Typography>
+          )}
           <Box sx={{ display: 'grid', gap: 2, pt: 1 }}>
             <TextField label="Name" required value={draft.name} onChange={(e) => set('name', e.target.value)} disabled={disabled} />
             <TextField

@@ -69,7 +69,9 @@ export function ProceduresTable({ canEdit }: { canEdit: boolean }) {
                 <TableCell>
                   <ActiveChip active={p.active} />
                 </TableCell>
-                <TableCell sx={numberSx}>{formatDateTime(p.updatedAt)}</TableCell>
+                <TableCell sx={numberSx}>
+                  v{p.version} · {formatDateTime(p.updatedAt)}
+                </TableCell>
                 <TableCell sx={{ textAlign: 'right' }}>
                   <Button size="small" onClick={() => setEditing(p)} aria-label={`${canEdit ? 'Edit' : 'Open'} ${p.name}`}>
                     {canEdit ? 'Edit' : 'Open'}

@@ -9,6 +9,7 @@ import MenuItem from '@mui/material/MenuItem';
 import Stack from '@mui/material/Stack';
 import Switch from '@mui/material/Switch';
 import TextField from '@mui/material/TextField';
+import Typography from '@mui/material/Typography';
 import { useId, useState, type FormEvent } from 'react';
 import { STANDARD_KINDS, type CreateStandardRequest, type ReferenceStandard, type StandardKind } from '@kilocycle/common/types';
 import { parseNumber } from '@kilocycle/common/units';
@@ -158,9 +159,14 @@ export function StandardDialog({ open, standard, onClose }: StandardDialogProps)
       }}
     >
       <form noValidate onSubmit={submit}>
-        <DialogTitle id={titleId}>{standard ? `Edit ${standard.name}` : 'New reference standard'}</DialogTitle>
+        <DialogTitle id={titleId}>{standard ? `Edit ${standard.name} (version ${standard.version})` : 'New reference standard'}</DialogTitle>
         <DialogContent>
           <FormErrors messages={messages} />
+          {standard && (
+            <Typography variant="body2" color="text.secondary" sx={{ mb: 1 }}>
+              Saving a change makes version {standard.version + 1}. Open jobs use it at once; signed jobs keep the version they were signed with.
+            </Typography>
+          )}
           <Stack spacing={2} sx={{ pt: 1 }}>
             <Box sx={{ display: 'grid', gridTemplateColumns: '1fr 1fr', gap: 2 }}>
               {textField('name', 'Name', { autoFocus: true, helper: 'As the bench knows it, e.g. Bench counter A' })}
