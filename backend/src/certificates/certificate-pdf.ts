@@ -3,7 +3,8 @@ import { dirname, join } from 'node:path';
 import PDFDocument from 'pdfkit';
 import QRCode from 'qrcode';
 import { formatFrequency, type FrequencyUnit } from '@kilocycle/common/units';
-import type { Decision, JobResults, MeasuredPoint, RangeResult, Tolerance } from '@kilocycle/common/types';
+import { jobOutcomes, withOutcomes } from '@kilocycle/common/math';
+import type { Decision, DecisionRule, JobOutcome, JobOutcomes, JobResults, MeasuredPoint, RangeResult, Tolerance } from '@kilocycle/common/types';
 import { printableCertificateData } from './certificate-text.js';
 
 /** Everything printed on a certificate; gathered once at signing. */
@@ -56,6 +57,12 @@ const DECISION_WORDS: Record<Decision, string> = {
   conditional_pass: 'cond. pass',
   conditional_fail: 'cond. fail',
   fail: 'fail',
+};
+
+const RULE_SHORT: Record<DecisionRule, string> = {
+  simple: 'simple acceptance, no guard band (ILAC-G8:09/2019 4.2.1)',
+  guarded_binary: 'guarded acceptance, guard band w = U (ILAC-G8:09/2019 4.2.2)',
+  guarded: 'guarded acceptance with conditional pass and fail, guard band w = U (ILAC-G8:09/2019 4.2.3)',
 };
 
 type Doc = PDFKit.PDFDocument;
@@ -174,66 +181,123 @@ class Layout {
   }
 }
 
-type Column = { title: string; width: number; align: 'left' | 'right' | 'center' };
+type Column = { title: string; width: number; align: 'left' | 'right' | 'center'; group?: 'found' | 'left' };
 
+/** Draws `text` in one line within `width`, stepping the size down (to 70 %) rather than letting it run over. */
+function fitText(doc: Doc, text: string, x: number, y: number, width: number, align: Column['align'], size: number): void {
+  let fontSize = size;
+  doc.fontSize(fontSize);
+  while (doc.widthOfString(text) > width && fontSize > size * 0.7) {
+    fontSize -= 0.2;
+    doc.fontSize(fontSize);
+  }
+  doc.text(text, x, y + (size - fontSize) * 0.6, { width, align, lineBreak: false });
+}
+
+/**
+ * One range's results, per setting: nominal and tolerance, then as found (measured, error, U, k,
+ * decision) and as left (the same), so results before and after adjustment stand side by side
+ * (ISO/IEC 17025:2017 7.8.4.1).
+ */
 function resultsTable(layout: Layout, range: RangeResult, unit: FrequencyUnit): void {
   const doc = layout.doc;
-  const columns: Column[] = [
-    { title: range.dialUnit === 'div' ? 'Setting (div)' : `Setting (${range.dialUnit})`, width: 56, align: 'right' },
-    { title: `Nominal (${unit})`, width: 74, align: 'right' },
-    { title: `As found (${unit})`, width: 78, align: 'right' },
-    { title: `As left (${unit})`, width: 78, align: 'right' },
-    { title: 'Error (Hz)', width: 58, align: 'right' },
-    { title: 'Tolerance ± (Hz)', width: 60, align: 'right' },
-    { title: 'U (Hz)  k', width: 58, align: 'right' },
-    { title: 'Decision', width: CONTENT_WIDTH - 462, align: 'center' },
+  const side = (group: 'found' | 'left'): Column[] => [
+    { title: `Measured (${unit})`, width: 53, align: 'right', group },
+    { title: 'Error (Hz)', width: 41, align: 'right', group },
+    { title: 'U (Hz)', width: 33, align: 'right', group },
+    { title: 'k', width: 22, align: 'right', group },
+    { title: 'Decision', width: 36, align: 'center', group },
   ];
+  const fixed: Column[] = [
+    { title: range.dialUnit === 'div' ? 'Setting (div)' : `Setting (${range.dialUnit})`, width: 36, align: 'right' },
+    { title: `Nominal (${unit})`, width: 46, align: 'right' },
+    { title: 'Tolerance ± (Hz)', width: 0, align: 'right' },
+  ];
+  const columns = [...fixed, ...side('found'), ...side('left')];
+  fixed[2]!.width = CONTENT_WIDTH - columns.reduce((w, c) => w + c.width, 0);
   const rowHeight = 11.5;
-  const headerHeight = 20;
+  const groupHeight = 10;
+  const headerHeight = groupHeight + 18;
   const drawHeader = () => {
     const y = doc.y;
     doc.rect(MARGIN.left, y, CONTENT_WIDTH, headerHeight).fill('#eef1f4');
     let x = MARGIN.left;
-    doc.font('medium').fontSize(6.8).fillColor(MUTED);
+    for (const group of ['found', 'left'] as const) {
+      const start = MARGIN.left + columns.slice(0, columns.findIndex((c) => c.group === group)).reduce((w, c) => w + c.width, 0);
+      const width = columns.filter((c) => c.group === group).reduce((w, c) => w + c.width, 0);
+      doc.font('bold').fontSize(7).fillColor(group === 'found' ? FOUND : ACCENT);
+      doc.text(group === 'found' ? 'As found (before adjustment)' : 'As left (after adjustment)', start, y + 2.5, { width, align: 'center', lineBreak: false });
+      doc.moveTo(start + 4, y + groupHeight + 0.5).lineTo(start + width - 4, y + groupHeight + 0.5).lineWidth(0.5).strokeColor(group === 'found' ? FOUND : ACCENT).stroke();
+      doc.moveTo(start, y + 1).lineTo(start, y + headerHeight - 1).lineWidth(0.5).strokeColor(RULE).stroke();
+    }
+    doc.font('medium').fontSize(6.6).fillColor(MUTED);
     for (const c of columns) {
-      doc.text(c.title, x + 3, y + 4, { width: c.width - 6, align: c.align, lineGap: 0 });
+      const top = c.group ? y + groupHeight + 2.5 : y + 5;
+      doc.text(c.title, x + 2.5, top, { width: c.width - 5, align: c.align, lineGap: 0 });
       x += c.width;
     }
     doc.y = y + headerHeight + 1.5;
   };
+  // A thin rule at the start of each side, from the header down to the segment's last row on this page.
+  const groupStarts = (['found', 'left'] as const).map((g) => MARGIN.left + columns.slice(0, columns.findIndex((c) => c.group === g)).reduce((w, c) => w + c.width, 0));
+  let segmentTop = 0;
+  const closeSegment = () => {
+    for (const gx of groupStarts) doc.moveTo(gx, segmentTop).lineTo(gx, doc.y - 1.5).lineWidth(0.5).strokeColor(RULE).stroke();
+  };
   layout.ensure(headerHeight + rowHeight * Math.min(4, range.points.length) + 4);
   drawHeader();
+  segmentTop = doc.y - 1.5;
   range.points.forEach((p, index) => {
     if (doc.y + rowHeight > PAGE.height - MARGIN.bottom) {
+      closeSegment();
       doc.addPage();
       doc.y = MARGIN.top;
       drawHeader();
+      segmentTop = doc.y - 1.5;
     }
-    const final = p.asLeft ?? p.asFound;
-    const decimals = decimalsOf(final);
+    const decimals = decimalsOf(p.asLeft ?? p.asFound);
     const y = doc.y;
     if (index % 2 === 1) doc.rect(MARGIN.left, y - 1.5, CONTENT_WIDTH, rowHeight).fill('#f7f8fa');
+    const measuredCells = (m: MeasuredPoint | null): string[] => {
+      if (!m) return ['not measured', '', '', '', ''];
+      const d = decimalsOf(m);
+      return [
+        frequencyText(m.measured, unit, d),
+        signedHz(m.budget ? m.errorRounded : m.errorHz, d),
+        m.budget ? plainHz(m.budget.U, d) : '—',
+        m.budget ? m.budget.k.toFixed(2) : '—',
+        m.decision ? DECISION_WORDS[m.decision] : '—',
+      ];
+    };
     const cells = [
       dialText(p.dial, range.dialUnit),
-      frequencyText(p.nominal, unit, decimals),
-      p.asFound ? frequencyText(p.asFound.measured, unit, decimalsOf(p.asFound)) : '—',
-      p.asLeft ? frequencyText(p.asLeft.measured, unit, decimalsOf(p.asLeft)) : '—',
-      final ? signedHz(final.budget ? final.errorRounded : final.errorHz, decimals) : '—',
+      compactFrequency(p.nominal, unit),
       plainHz(p.toleranceHz, Math.max(0, decimals)),
-      final?.budget ? `${plainHz(final.budget.U, decimals)}  ${final.budget.k.toFixed(2)}` : '—',
-      final?.decision ? DECISION_WORDS[final.decision] : '—',
+      ...measuredCells(p.asFound),
+      ...measuredCells(p.asLeft),
     ];
+    const decisionOf = (i: number) => (i === 7 ? p.asFound?.decision : i === 12 ? p.asLeft?.decision : undefined);
     let x = MARGIN.left;
     cells.forEach((cell, i) => {
       const c = columns[i]!;
-      const isDecision = i === cells.length - 1;
-      const bad = isDecision && final?.decision && final.decision !== 'pass';
-      doc.font(isDecision ? (bad ? 'bold' : 'sans') : 'mono').fontSize(7.4).fillColor(bad ? '#a3261b' : INK);
-      doc.text(cell, x + 3, y, { width: c.width - 6, align: c.align, lineBreak: false });
+      const decision = decisionOf(i);
+      const isDecision = i === 7 || i === 12;
+      const bad = isDecision && (decision === 'fail' || decision === 'conditional_fail');
+      const conditional = isDecision && decision === 'conditional_pass';
+      if (cell === 'not measured') {
+        // One muted note across the side's five cells.
+        const width = columns.filter((col) => col.group === c.group).reduce((w, col) => w + col.width, 0);
+        const note = c.group === 'left' && range.asLeftRunId === null ? 'not adjusted: the as-found result is final' : 'not measured';
+        doc.font('sans').fontSize(7).fillColor(MUTED).text(note, x + 3, y, { width: width - 6, align: 'center', lineBreak: false });
+      } else if (cell !== '') {
+        doc.font(isDecision ? (bad ? 'bold' : conditional ? 'medium' : 'sans') : 'mono').fillColor(bad ? '#a3261b' : conditional ? FOUND : INK);
+        fitText(doc, cell, x + 2.5, y, c.width - 5, c.align, 7.2);
+      }
       x += c.width;
     });
     doc.y = y + rowHeight;
   });
+  closeSegment();
   doc.moveTo(MARGIN.left, doc.y).lineTo(MARGIN.left + CONTENT_WIDTH, doc.y).lineWidth(0.4).strokeColor(RULE).stroke();
   doc.y += 4;
   doc.fillColor(INK);
@@ -359,7 +423,11 @@ function errorPlot(layout: Layout, range: RangeResult, unit: FrequencyUnit): voi
   doc.fillColor(INK);
 }
 
-function conformityStatement(results: JobResults): string {
+function settingText(range: RangeResult, dial: number): string {
+  return `${dialText(dial, range.dialUnit)}${range.dialUnit === 'div' ? ' div' : ` ${range.dialUnit}`}`;
+}
+
+function conformityStatement(results: JobResults, outcomes: JobOutcomes): string {
   const lines: string[] = [];
   const rangesWithDecisions = results.ranges.filter((r) => r.decision !== null);
   if (rangesWithDecisions.length === 0) return 'No statement of conformity is made: no point could be decided.';
@@ -367,7 +435,7 @@ function conformityStatement(results: JobResults): string {
   for (const r of results.ranges) {
     for (const p of r.points) {
       const final = p.asLeft ?? p.asFound;
-      if (final?.decision && final.decision !== 'pass') nonConforming.push(`${r.label} at ${dialText(p.dial, r.dialUnit)}${r.dialUnit === 'div' ? ' div' : ` ${r.dialUnit}`} (${final.decision.replace('_', ' ')})`);
+      if (final?.decision && final.decision !== 'pass') nonConforming.push(`${r.label} at ${settingText(r, p.dial)} (${final.decision.replace('_', ' ')})`);
     }
   }
   const basis = results.ranges.some((r) => r.asLeftRunId !== null) ? 'as-left' : 'as-found';
@@ -376,14 +444,86 @@ function conformityStatement(results: JobResults): string {
   } else {
     lines.push(`The ${basis} results conform to the tolerance stated for their ranges under the decision rule above, except: ${nonConforming.join('; ')}.`);
   }
-  const foundOut: string[] = [];
-  for (const r of results.ranges) {
-    if (r.asLeftRunId === null) continue;
-    const count = r.points.filter((p) => p.asFound?.decision && p.asFound.decision !== 'pass').length;
-    if (count > 0) foundOut.push(`${r.label}: ${count} of ${r.points.filter((p) => p.asFound).length} settings`);
+  if (outcomes.asLeft && outcomes.asFound && outcomes.asFound.outOfTolerance > 0) {
+    const found: string[] = [];
+    for (const r of results.ranges) {
+      const out = r.points.filter((p) => p.asFound?.decision === 'fail' || p.asFound?.decision === 'conditional_fail');
+      // One unit per range; a conditional fail (beyond the limit by less than U) is marked.
+      const dials = out.map((p) => `${dialText(p.dial, r.dialUnit)}${p.asFound!.decision === 'conditional_fail' ? ' (conditional fail)' : ''}`);
+      if (out.length > 0) found.push(`${r.label} at ${dials.join(', ')} ${r.dialUnit}`);
+    }
+    lines.push(`As found, before adjustment, the instrument was out of tolerance at ${outcomes.asFound.outOfTolerance} of ${outcomes.asFound.settings} settings: ${found.join('; ')}.`);
   }
-  if (foundOut.length > 0) lines.push(`As found, before adjustment, these did not pass: ${foundOut.join('; ')}.`);
   return lines.join(' ');
+}
+
+/** The settings whose test uncertainty ratio is below 4:1, as found and as left, listed with the ratio. */
+function lowTurSentence(results: JobResults): string {
+  const entries: string[] = [];
+  let count = 0;
+  for (const r of results.ranges) {
+    const here: string[] = [];
+    for (const p of r.points) {
+      const sides = ([['as found', p.asFound], ['as left', p.asLeft]] as const).filter(([, m]) => m?.turFlag && m.tur !== null);
+      if (sides.length === 0) continue;
+      count += 1;
+      here.push(`${settingText(r, p.dial)} (${sides.map(([label, m]) => `${m!.tur!.toFixed(1)}:1 ${label}`).join(', ')})`);
+    }
+    if (here.length > 0) entries.push(`range ${r.position}, ${r.label}: ${here.join('; ')}`);
+  }
+  const what = 'The test uncertainty ratio (TUR = tolerance ÷ U) shows how much of the tolerance the uncertainty takes; below 4:1 it is marked.';
+  if (count === 0) return `${what} It is 4:1 or more at every setting reported.`;
+  return `${what} It is below 4:1 at ${count} setting${count === 1 ? '' : 's'} — ${entries.join(' — ')}.`;
+}
+
+const OUTCOME_COLORS = { bad: '#a3261b', conditional: '#9a6b1f', good: '#1d6b3a', none: MUTED };
+
+function outcomeTone(o: JobOutcome | null): keyof typeof OUTCOME_COLORS {
+  if (!o || o.decision === null) return 'none';
+  if (o.outOfTolerance > 0) return 'bad';
+  return o.conditional > 0 ? 'conditional' : 'good';
+}
+
+function capitalised(text: string): string {
+  return text.charAt(0).toUpperCase() + text.slice(1);
+}
+
+/** Page 1: both outcomes, plainly, in a box near the top (an as-found failure is never left for page 2). */
+function outcomeBox(layout: Layout, outcomes: JobOutcomes, rule: string): void {
+  const doc = layout.doc;
+  const rows: Array<[string, string, keyof typeof OUTCOME_COLORS]> = [
+    ['As found (before adjustment)', outcomes.asFound ? capitalised(outcomes.asFound.words) : 'Not measured', outcomeTone(outcomes.asFound)],
+    [
+      'As left (after adjustment)',
+      outcomes.asLeft ? capitalised(outcomes.asLeft.words) : 'No adjustment was recorded: the as-found results are the final ones',
+      outcomes.asLeft ? outcomeTone(outcomes.asLeft) : 'none',
+    ],
+  ];
+  const labelWidth = 130;
+  const textWidth = CONTENT_WIDTH - labelWidth - 16;
+  doc.font('bold').fontSize(9);
+  const heights = rows.map(([, text]) => Math.max(doc.heightOfString(text, { width: textWidth }), 11));
+  const notes: string[] = [];
+  if (outcomes.asLeft && outcomes.asFoundFinalRanges.length > 0) notes.push(`Not adjusted, so the as-found results are final: ${outcomes.asFoundFinalRanges.join('; ')}.`);
+  notes.push(`Decision rule: ${rule}. Per-setting results, uncertainties and decisions follow.`);
+  doc.font('sans').fontSize(7.5);
+  const noteHeight = doc.heightOfString(notes.join(' '), { width: CONTENT_WIDTH - 16 });
+  const height = 20 + heights.reduce((a, b) => a + b + 4, 0) + noteHeight + 8;
+  layout.ensure(height + 12);
+  doc.moveDown(0.6);
+  const top = doc.y;
+  doc.rect(MARGIN.left, top, CONTENT_WIDTH, height).lineWidth(0.8).fillAndStroke('#f5f7f9', ACCENT);
+  doc.font('bold').fontSize(10.5).fillColor(ACCENT).text('Result', MARGIN.left + 8, top + 6, { width: CONTENT_WIDTH - 16 });
+  let y = top + 22;
+  rows.forEach(([label, text, tone], i) => {
+    doc.font('sans').fontSize(7.5).fillColor(MUTED).text(label, MARGIN.left + 8, y + 1.2, { width: labelWidth - 6 });
+    doc.font('bold').fontSize(9).fillColor(OUTCOME_COLORS[tone]).text(text, MARGIN.left + 8 + labelWidth, y, { width: textWidth });
+    y += heights[i]! + 4;
+  });
+  doc.font('sans').fontSize(7.5).fillColor(INK).text(notes.join(' '), MARGIN.left + 8, y + 1, { width: CONTENT_WIDTH - 16 });
+  doc.y = top + height + 2;
+  doc.x = MARGIN.left;
+  doc.fillColor(INK);
 }
 
 /** Draws the certificate. Pages are buffered so every page can carry "Page x of y" at the end. */
@@ -412,7 +552,8 @@ export async function renderCertificatePdf(input: CertificatePdfData): Promise<B
     doc.on('error', reject);
   });
   const layout = new Layout(doc);
-  const r = data.results;
+  // Results stored before the two outcomes were kept get them from their own points.
+  const r = withOutcomes(data.results);
 
   // ---- Title block ----
   const qrSize = 78;
@@ -426,6 +567,7 @@ export async function renderCertificatePdf(input: CertificatePdfData): Promise<B
   }
   doc.y = Math.max(doc.y, MARGIN.top + qrSize + 10);
   doc.fillColor(INK);
+  outcomeBox(layout, r.outcomes, RULE_SHORT[r.decisionRule]);
 
   layout.heading('Laboratory and customer', 90);
   layout.fields([
@@ -480,7 +622,12 @@ export async function renderCertificatePdf(input: CertificatePdfData): Promise<B
     layout.heading(`Results, range ${range.position}: ${range.label}`, 200);
     const span = `${compactFrequency(range.freqMinHz, unit)} to ${compactFrequency(range.freqMaxHz, unit)} ${unit}`;
     const runs = [range.asFoundRunId ? `as found: run ${range.asFoundRunId}` : null, range.asLeftRunId ? `as left: run ${range.asLeftRunId}` : null].filter(Boolean).join(', ');
-    layout.paragraph(`Span ${span}; tolerance ${toleranceWords(range.tolerance)}; ${runs}. Each row is the mean of the readings at that setting; error = measured − nominal of the final (as-left) result.`, 7.8);
+    layout.paragraph(
+      `Span ${span}; tolerance ${toleranceWords(range.tolerance)}; ${runs}. Each row is the mean of the readings at that setting; ` +
+        'error = measured − nominal; U is the expanded uncertainty with its coverage factor k (coverage probability ≈ 95 %).',
+      7.8,
+    );
+    layout.paragraph(`This range: ${jobOutcomes([range]).summary}`, 7.8, 'medium');
     resultsTable(layout, range, unit);
     for (const sentence of [fitSentence('As-found fit', range.asFoundFit), fitSentence('As-left fit', range.asLeftFit)]) {
       if (sentence) layout.paragraph(sentence, 7.6);
@@ -503,13 +650,11 @@ export async function renderCertificatePdf(input: CertificatePdfData): Promise<B
 
   layout.heading('Decision rule and statement of conformity', 80);
   layout.paragraph(r.decisionRuleText);
-  layout.paragraph(conformityStatement(r));
-  layout.paragraph('A test uncertainty ratio (tolerance ÷ U) below 4:1 is marked in the laboratory records and reported below.', 7.8);
+  layout.paragraph(conformityStatement(r, r.outcomes));
+  layout.paragraph(lowTurSentence(r), 7.8);
 
   layout.heading('Remarks and deviations from the method', 50);
   const remarks = [...data.deviations];
-  const lowTur = r.flags.filter((f) => f.kind === 'tur_low');
-  if (lowTur.length > 0) remarks.push(`Test uncertainty ratio below 4:1 at ${lowTur.length} setting${lowTur.length === 1 ? '' : 's'}.`);
   if (remarks.length === 0) remarks.push('None.');
   for (const remark of remarks) layout.paragraph(`• ${remark}`, 8);
   layout.paragraph(

@@ -94,6 +94,10 @@ export class Certificate {
   @Column({ type: 'varchar', length: 20, nullable: true })
   decision: Decision | null;
 
+  /** The as-found outcome (worst as-found decision), set at signing: an as-found failure shows in lists. */
+  @Column({ name: 'as_found_decision', type: 'varchar', length: 20, nullable: true })
+  asFoundDecision: Decision | null;
+
   /** The results exactly as printed, stored at signing. */
   @Column({ type: 'json', nullable: true })
   results: JobResults | null;

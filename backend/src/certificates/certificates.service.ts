@@ -12,6 +12,7 @@ import type {
   ListResponse,
   PublicCertificate,
 } from '@kilocycle/common/types';
+import { withOutcomes } from '@kilocycle/common/math';
 import { AuditService } from '../audit/audit.service.js';
 import { organizationScope, type AuthUser } from '../auth/auth-user.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
@@ -68,6 +69,7 @@ export class CertificatesService {
       withdrawnAt: c.withdrawnAt?.toISOString() ?? null,
       supersededAt: c.supersededAt?.toISOString() ?? null,
       decision: c.decision,
+      asFoundDecision: c.asFoundDecision,
     };
   }
 
@@ -118,7 +120,8 @@ export class CertificatesService {
     const revisions = await this.query(user).andWhere('c.number = :number', { number: c.number }).orderBy('c.revision', 'DESC').getMany();
     return {
       ...this.toView(c),
-      results: c.results,
+      // Results stored before the two outcomes were kept get them derived from their own points.
+      results: c.results ? withOutcomes(c.results) : null,
       revisions: revisions.map((r) => ({ id: r.id, revision: r.revision, status: r.status, issuedAt: r.issuedAt?.toISOString() ?? null })),
     };
   }

@@ -41,6 +41,8 @@ export type IssueOutcome = {
   customer: string;
   instrumentLabel: string;
   verifyUrl: string;
+  /** The job's as-found and as-left outcomes, for the customer's e-mail. */
+  outcomes: JobOutcomes;
 };
 
 export function certificatesDir(varDir: string): string {

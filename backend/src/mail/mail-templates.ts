@@ -1,3 +1,4 @@
+import type { JobOutcomes } from '@kilocycle/common/types';
 import type { OutgoingMail } from './mailer.js';
 import { printableMailInput } from './mail-text.js';
 
@@ -12,11 +13,20 @@ export function certificateIssuedMail(raw: {
   instrument: string;
   customer: string;
   verifyUrl: string;
+  /** The job's two outcomes: both are stated, and an as-found failure is said plainly. */
+  outcomes: JobOutcomes;
   pdf: Buffer;
   fileName: string;
 }): OutgoingMail {
   const input = printableMailInput(raw);
   const revisionText = input.replacesRevision ? `revision ${input.revision}, which replaces revision ${input.replacesRevision}` : `revision ${input.revision}`;
+  const found = input.outcomes.asFound;
+  // Labs tell the customer of an as-found failure so they can judge the work the instrument did since its last calibration.
+  const foundOut =
+    found && found.outOfTolerance > 0
+      ? `\n\nThe instrument was found out of tolerance at ${found.outOfTolerance} of ${found.settings} setting${found.settings === 1 ? '' : 's'}` +
+        `${input.outcomes.asLeft ? ' before adjustment' : ''}. Please consider the effect on work done with it since its last calibration.`
+      : '';
   return {
     kind: 'certificate_issued',
     to: input.to,
@@ -24,6 +34,7 @@ export function certificateIssuedMail(raw: {
     text:
       `Hello,\n\n${input.labName} has issued calibration certificate ${input.number}, ${revisionText}, ` +
       `for ${input.instrument} (${input.customer}). The signed PDF is attached.\n\n` +
+      `Results: ${input.outcomes.summary}${foundOut}\n\n` +
       `Anyone can check that a copy is the one issued, and whether it is still valid, at:\n${input.verifyUrl}` +
       SIGN_OFF,
     attachments: [{ filename: input.fileName, content: input.pdf, contentType: 'application/pdf' }],

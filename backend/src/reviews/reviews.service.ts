@@ -148,6 +148,7 @@ export class ReviewsService {
           instrument: outcome.instrumentLabel,
           customer: outcome.customer,
           verifyUrl: outcome.verifyUrl,
+          outcomes: outcome.outcomes,
           pdf: outcome.pdf,
           fileName: outcome.downloadName,
         }),

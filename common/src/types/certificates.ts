@@ -430,8 +430,10 @@ export type Certificate = {
   withdrawnReason: string | null;
   withdrawnAt: string | null;
   supersededAt: string | null;
-  /** Overall decision printed on the certificate. */
+  /** Overall decision printed on the certificate: the final one (as left, else as found). */
   decision: Decision | null;
+  /** The as-found outcome, before any adjustment (worst as-found decision); null when not measured or not decided. */
+  asFoundDecision: Decision | null;
 };
 
 /** GET /api/certificates/:id adds the results exactly as printed (stored at signing, never recomputed). */
