@@ -15,16 +15,19 @@ export type AuditEntry = {
 export class AuditService {
   constructor(@InjectRepository(AuditEvent) private readonly events: Repository<AuditEvent>) {}
 
-  /** Records one event; pass the transaction's manager so the event commits or rolls back with the change. */
+  /**
+   * Records one event; pass the transaction's manager so the event commits or rolls back with the change.
+   * One plain INSERT: a repository insert would read the row back for its time stamp, a second round
+   * trip on every write (the ingest path writes one event per batch).
+   */
   async record(entry: AuditEntry, manager?: EntityManager): Promise<void> {
-    const repo = manager ? manager.getRepository(AuditEvent) : this.events;
-    await repo.insert({
-      actorId: entry.actorId,
-      entity: entry.entity,
-      entityId: String(entry.entityId),
-      action: entry.action,
-      changes: (entry.changes ?? null) as never,
-    });
+    await (manager ?? this.events.manager).query('INSERT INTO audit_events (actor_id, entity, entity_id, action, changes) VALUES (?, ?, ?, ?, ?)', [
+      entry.actorId,
+      entry.entity,
+      String(entry.entityId),
+      entry.action,
+      entry.changes === null || entry.changes === undefined ? null : JSON.stringify(entry.changes),
+    ]);
   }
 
   async forEntity(entity: string, entityId: string | number): Promise<AuditEvent[]> {

@@ -28,7 +28,7 @@ export class AuthController {
   @ApiBearerAuth()
   @Post('logout')
   @HttpCode(204)
-  async logout(@CurrentUser() user: AuthUser): Promise<void> {
-    await this.auth.logout(user);
+  async logout(@CurrentUser() user: AuthUser, @Ip() address: string): Promise<void> {
+    await this.auth.logout(user, address);
   }
 }

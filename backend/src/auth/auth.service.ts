@@ -5,6 +5,7 @@ import bcrypt from 'bcryptjs';
 import { randomUUID } from 'node:crypto';
 import { LessThan, type Repository } from 'typeorm';
 import type { LoginResponse, SessionUser } from '@kilocycle/common/types';
+import { AuditService } from '../audit/audit.service.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { User } from '../users/user.entity.js';
 import type { AuthUser, JwtClaims } from './auth-user.js';
@@ -16,6 +17,9 @@ const BAD_CREDENTIALS = 'E-mail or password is not right';
 // A real hash to compare against when the e-mail is unknown, so both failures take the same time.
 const DUMMY_HASH = bcrypt.hashSync('not-a-real-password-kc', 10);
 
+/** Why a sign-in was refused, as the audit trail records it (the answer to the client stays the same for all). */
+type RefusalReason = 'unknown e-mail' | 'wrong password' | 'account or organisation deactivated' | 'too many failed sign-ins';
+
 export function toSessionUser(user: User): SessionUser {
   return { id: user.id, email: user.email, name: user.name, role: user.role, organizationId: user.organizationId };
 }
@@ -23,17 +27,24 @@ export function toSessionUser(user: User): SessionUser {
 @Injectable()
 export class AuthService {
   readonly throttle = new LoginThrottle();
+  /**
+   * When a throttled attempt was last audited, per e-mail and address: a flood of refused attempts
+   * writes one event a minute for each pair, not one per request (the database is not the flood's target).
+   */
+  private readonly throttledAudited = new Map<string, number>();
 
   constructor(
     @InjectRepository(User) private readonly users: Repository<User>,
     @InjectRepository(RevokedToken) private readonly revoked: Repository<RevokedToken>,
     private readonly jwt: JwtService,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
+    private readonly audit: AuditService,
   ) {}
 
   async login(email: string, password: string, address: string): Promise<LoginResponse> {
     const keys = [`account:${email.toLowerCase()}`, `address:${address}`];
     if (this.throttle.isBlocked(keys)) {
+      if (this.firstThrottledThisMinute(email, address)) await this.refused(email, address, { reason: 'too many failed sign-ins', accountId: null });
       throw new HttpException('Too many failed sign-ins; wait a minute and try again', HttpStatus.TOO_MANY_REQUESTS);
     }
     const user = await this.users
@@ -46,11 +57,40 @@ export class AuthService {
     const ok = await bcrypt.compare(password, user?.passwordHash ?? DUMMY_HASH);
     if (!user || !ok) {
       this.throttle.recordFailure(keys);
+      await this.refused(email, address, user ? { reason: 'wrong password', accountId: user.id } : null);
       throw new UnauthorizedException(BAD_CREDENTIALS);
     }
     const claims: JwtClaims = { sub: user.id, role: user.role, org: user.organizationId, jti: randomUUID() };
     const accessToken = await this.jwt.signAsync(claims, { expiresIn: this.config.jwtTtlSeconds });
+    await this.audit.record({ actorId: user.id, entity: 'user', entityId: user.id, action: 'sign_in', changes: { email: user.email, address } });
     return { accessToken, user: toSessionUser(user) };
+  }
+
+  /**
+   * Audits a refused sign-in with the e-mail tried and the client address (never the password). The
+   * event is on the account the e-mail names, or on "unknown" when none does.
+   */
+  private async refused(email: string, address: string, known: { reason: RefusalReason; accountId: number | null } | null): Promise<void> {
+    let reason = known?.reason ?? null;
+    let accountId = known?.accountId ?? null;
+    if (accountId === null) {
+      const account = await this.users.findOne({ where: { email: email.toLowerCase() }, relations: { organization: true } });
+      accountId = account?.id ?? null;
+      reason ??= !account ? 'unknown e-mail' : !account.active || !account.organization.active ? 'account or organisation deactivated' : 'wrong password';
+    }
+    await this.audit.record({ actorId: null, entity: 'user', entityId: accountId ?? 'unknown', action: 'sign_in_refused', changes: { email, address, reason } });
+  }
+
+  private firstThrottledThisMinute(email: string, address: string): boolean {
+    const now = Date.now();
+    const key = `${email.toLowerCase()}|${address}`;
+    const last = this.throttledAudited.get(key);
+    if (last !== undefined && now - last < 60_000) return false;
+    if (this.throttledAudited.size > 10_000) {
+      for (const [k, at] of this.throttledAudited) if (now - at >= 60_000) this.throttledAudited.delete(k);
+    }
+    this.throttledAudited.set(key, now);
+    return true;
   }
 
   /** Checks a bearer token and reloads the user, so deactivation and sign-out take effect at once. */
@@ -71,13 +111,17 @@ export class AuthService {
     return { ...toSessionUser(user), jti: claims.jti, exp: claims.exp ?? 0 };
   }
 
-  async logout(user: AuthUser): Promise<void> {
-    await this.revoked
-      .createQueryBuilder()
-      .insert()
-      .values({ jti: user.jti, expiresAt: new Date(user.exp * 1000) })
-      .orIgnore()
-      .execute();
+  async logout(user: AuthUser, address: string): Promise<void> {
+    await this.revoked.manager.transaction(async (manager) => {
+      await manager
+        .createQueryBuilder()
+        .insert()
+        .into(RevokedToken)
+        .values({ jti: user.jti, expiresAt: new Date(user.exp * 1000) })
+        .orIgnore()
+        .execute();
+      await this.audit.record({ actorId: user.id, entity: 'user', entityId: user.id, action: 'sign_out', changes: { email: user.email, address } }, manager);
+    });
     await this.revoked.delete({ expiresAt: LessThan(new Date()) });
   }
 }

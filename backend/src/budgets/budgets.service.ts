@@ -159,7 +159,8 @@ export class BudgetsService {
       else await manager.insert(RunBudget, { runId, ...patch, updatedById: actor.id });
       const changes: Record<string, unknown> = {};
       for (const [key, value] of Object.entries(patch)) changes[key] = { from: before ? before[key as keyof RunBudget] : null, to: value };
-      await this.audit.record({ actorId: actor.id, entity: 'run', entityId: runId, action: 'budget', changes }, manager);
+      // The event names the job as well as the run: the no-self-sign rule and the job's history read it.
+      await this.audit.record({ actorId: actor.id, entity: 'run', entityId: runId, action: 'budget', changes: { jobId: job.id, jobNumber: locked.number, ...changes } }, manager);
     });
     return this.runBudget(actor, runId);
   }

@@ -161,10 +161,12 @@ export class ImportsService implements OnModuleInit {
       }
     }
 
+    // Every reading names the importing user; the import as a whole is one audit event (below).
+    const author = { kind: 'user' as const, id: actor.id, name: actor.name };
     await this.dataSource.transaction(async (manager) => {
       await this.lockRun(manager, ctx.runId);
       const written = await this.pass(file, columns, ctx, tracker, 'writing', async (batch) => {
-        const result = batch.size === 0 ? null : await this.writer.append(ctx, batch.inputs(), 'import', { manager, skipReadBack: true, confirm });
+        const result = batch.size === 0 ? null : await this.writer.append(ctx, batch.inputs(), 'import', author, { manager, skipReadBack: true, callerAudits: true, confirm });
         const refusedNow = result ? this.locate(result.rejected, batch, columns) : [];
         // Pass 1 passed every row; a refusal now means the rules changed underneath: roll everything back.
         if (mode === 'all' && (refusedNow.length > 0 || batch.rejected.length > 0)) throw new ConflictException('a row changed between validating and writing; nothing was imported');
@@ -187,7 +189,7 @@ export class ImportsService implements OnModuleInit {
           entity: 'run',
           entityId: ctx.runId,
           action: 'import',
-          changes: { file: file.name, bytes: file.size, mode, rows: report.rowCount, imported: report.imported, skipped: report.rejectedCount, importId },
+          changes: { file: file.name, bytes: file.size, mode, rows: report.rowCount, imported: report.imported, skipped: report.rejectedCount, importId, source: 'import', author },
         },
         manager,
       );

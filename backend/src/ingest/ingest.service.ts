@@ -92,7 +92,7 @@ export class IngestService {
       return { ok: true, runId, accepted: 0, duplicates: 0, rejected, lastSeq: await this.writer.lastSeq(runId), duplicateSeqs: [], conflictSeqs: [] };
     }
 
-    const result = await this.appendRetrying(ctx, inputs);
+    const result = await this.appendRetrying(bench, ctx, inputs);
     for (const r of result.rejected) rejected.push({ ...r, index: indexOf[r.index] ?? r.index });
     rejected.sort((a, b) => a.index - b.index);
     const { same, taken } = result.duplicates > 0 ? await this.sortDuplicates(runId, notStored(inputs, result.rejected, result.stored)) : { same: [], taken: [] };
@@ -109,13 +109,13 @@ export class IngestService {
   }
 
   /**
-   * Two benches writing the same run can deadlock on the (run, seq) index; the loser's statement is
-   * rolled back whole, so running it again is safe and saves the bridge a round of resending.
+   * Two benches writing the same run can deadlock on the (run, seq) index; the loser's transaction (its
+   * INSERT and audit event) is rolled back whole, so running it again is safe and saves the bridge a round of resending.
    */
-  private async appendRetrying(ctx: RunWriteContext, inputs: readonly ReadingInput[]) {
+  private async appendRetrying(bench: BenchIdentity, ctx: RunWriteContext, inputs: readonly ReadingInput[]) {
     for (let attempt = 1; ; attempt++) {
       try {
-        return await this.writer.append(ctx, inputs, 'bridge');
+        return await this.writer.append(ctx, inputs, 'bridge', { kind: 'bench', id: bench.id, name: bench.name });
       } catch (error) {
         const errno = (error as { driverError?: { errno?: number }; errno?: number }).driverError?.errno ?? (error as { errno?: number }).errno;
         if (attempt >= 4 || (errno !== ER_LOCK_DEADLOCK && errno !== ER_LOCK_WAIT_TIMEOUT)) throw error;

@@ -42,4 +42,16 @@ export class Reading {
 
   @Column({ name: 'received_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
   receivedAt: Date;
+
+  /**
+   * Who entered it: the user who typed or imported it (source manual or import), else null. No foreign
+   * key and no index, deliberately: either would cost every row of the ingest INSERT an index write, and
+   * users and benches are deactivated, never deleted. Null for readings stored before authors were kept.
+   */
+  @Column({ name: 'entered_by', type: 'int', nullable: true })
+  enteredBy: number | null;
+
+  /** The bench whose bridge sent it (source bridge), else null. */
+  @Column({ name: 'bench_id', type: 'int', nullable: true })
+  benchId: number | null;
 }

@@ -7,12 +7,14 @@ import {
   type IngestAck,
   type JobStatus,
   type Reading as ReadingView,
+  type ReadingAuthor,
   type ReadingInput,
   type ReadingSource,
   type RunKind,
   type RunStatus,
 } from '@kilocycle/common/types';
 import { outsideSpan, parseFrequency, parseNumber, SPAN_MARGIN, spanLimits } from '@kilocycle/common/units';
+import { AuditService } from '../audit/audit.service.js';
 
 export const MAX_BATCH = 1000;
 /** Frequencies above this are refused as implausible for the equipment a lab of this kind measures. */
@@ -53,11 +55,20 @@ export type AppendOptions = {
   manager?: EntityManager;
   /** Do not read the stored readings back (`stored` is then empty): bulk writes that need only the counts. */
   skipReadBack?: boolean;
+  /** The caller records one audit event for all its batches (CSV import); the writer records none. */
+  callerAudits?: boolean;
   /** Default: 'each' for typed readings (source manual), 'none' otherwise. */
   confirm?: SpanConfirmation;
 };
 
 type Row = { seq: number | null; t: number; dial: number | null; frequency: number; aux: number | null };
+
+/** The author columns of a stored reading: a user for typed and imported readings, a bench for the bridge's. */
+function authorColumns(source: ReadingSource, author: ReadingAuthor): { enteredBy: number | null; benchId: number | null } {
+  if (!Number.isInteger(author.id) || author.id < 1) throw new Error('ReadingsWriter: an author needs a whole-number id');
+  if ((source === 'bridge') !== (author.kind === 'bench')) throw new Error(`ReadingsWriter: a ${source} reading cannot be entered by a ${author.kind}`);
+  return author.kind === 'bench' ? { enteredBy: null, benchId: author.id } : { enteredBy: author.id, benchId: null };
+}
 
 /** Why a run takes no readings now, or null when it does. */
 export function refusalReason(ctx: Pick<RunWriteContext, 'runId' | 'status' | 'jobStatus'>): string | null {
@@ -79,7 +90,10 @@ export class ReadingsWriter {
   /** Every reading excluded (by ReadingsService), for the same listeners. */
   readonly excluded$ = new Subject<ExcludedReading>();
 
-  constructor(@InjectDataSource() private readonly dataSource: DataSource) {}
+  constructor(
+    @InjectDataSource() private readonly dataSource: DataSource,
+    private readonly audit: AuditService,
+  ) {}
 
   async loadContext(runId: number): Promise<RunWriteContext | null> {
     const [row] = await this.dataSource.query(
@@ -176,12 +190,16 @@ export class ReadingsWriter {
   }
 
   /**
-   * Validates and stores a batch. Readings without a seq (typed at the bench) are numbered after the
-   * run's last one under a lock on the run row; readings with a seq (the bridge) need no lock.
+   * Validates and stores a batch, each reading with its author (the user, or the bench for the bridge).
+   * Readings without a seq (typed at the bench) are numbered after the run's last one under a lock on
+   * the run row; readings with a seq (the bridge) need no lock. A batch that stores anything writes one
+   * audit event (entity run, action readings: counts, seq range, source, author) in the same
+   * transaction as its INSERT, so the answer, sent after the commit, covers both.
    * With `options.manager` the batch joins the caller's transaction (a CSV import commits many
    * batches at once) and nothing is pushed to stored$: only the caller knows when it commits.
    */
-  async append(ctx: RunWriteContext, inputs: readonly ReadingInput[], source: ReadingSource, options: AppendOptions = {}): Promise<AppendResult> {
+  async append(ctx: RunWriteContext, inputs: readonly ReadingInput[], source: ReadingSource, author: ReadingAuthor, options: AppendOptions = {}): Promise<AppendResult> {
+    const columns = authorColumns(source, author);
     const { rows, rejected } = this.validate(ctx, inputs, Date.now(), options.confirm ?? (source === 'manual' ? 'each' : 'none'));
     if (rows.length === 0) {
       return { accepted: 0, duplicates: 0, rejected, lastSeq: await this.lastSeq(ctx.runId, options.manager), stored: [] };
@@ -198,10 +216,12 @@ export class ReadingsWriter {
       // browsers carry exactly what is stored without reading the rows back.
       const receivedAt = new Date();
       const received = receivedAt.toISOString().replace('T', ' ').slice(0, 23);
-      const insert = `INSERT IGNORE INTO readings (run_id, seq, t_s, dial, frequency_hz, aux, source, received_at) VALUES ${valuesList(ctx.runId, rows, source, received)}`;
+      const insert = `INSERT IGNORE INTO readings (run_id, seq, t_s, dial, frequency_hz, aux, source, received_at, entered_by, bench_id) VALUES ${valuesList(ctx.runId, rows, source, received, columns)}`;
       if (options.skipReadBack) {
         const result = await manager.query(insert);
-        return { inserted: Number(result.affectedRows ?? 0), stored: [] };
+        const inserted = Number(result.affectedRows ?? 0);
+        if (!options.callerAudits && inserted > 0) await this.recordBatch(manager, ctx.runId, source, author, { accepted: inserted, duplicates: rows.length - inserted, rejected: rejected.length, firstSeq: null, lastSeq: null });
+        return { inserted, stored: [] };
       }
       // RETURNING (MariaDB 10.5+) names exactly the rows this statement stored, in the same round trip:
       // a duplicate (run, seq) is skipped and not returned, and rows another connection stores in the
@@ -213,20 +233,45 @@ export class ReadingsWriter {
       const stored = returned
         .map(({ id, seq }): ReadingView => {
           const r = bySeq.get(Number(seq))!;
-          return { id: Number(id), seq: Number(seq), t: r.t, dial: r.dial, frequency: r.frequency, aux: r.aux, source, receivedAt: iso, excluded: false, excludedReason: null };
+          return { id: Number(id), seq: Number(seq), t: r.t, dial: r.dial, frequency: r.frequency, aux: r.aux, source, receivedAt: iso, excluded: false, excludedReason: null, author };
         })
         .sort((a, b) => a.seq - b.seq);
+      if (!options.callerAudits && stored.length > 0) {
+        await this.recordBatch(manager, ctx.runId, source, author, {
+          accepted: stored.length,
+          duplicates: rows.length - stored.length,
+          rejected: rejected.length,
+          firstSeq: stored[0]!.seq,
+          lastSeq: stored[stored.length - 1]!.seq,
+        });
+      }
       return { inserted: stored.length, stored };
     };
-    // Numbered readings on their own (the bridge) are one statement, atomic by itself: no transaction round trips.
-    const { inserted, stored } = options.manager
-      ? await write(options.manager)
-      : needsNumbers
-        ? await this.dataSource.transaction(write)
-        : await write(this.dataSource.manager);
+    // The INSERT and its audit event commit together; a batch that stores nothing writes no event.
+    const { inserted, stored } = options.manager ? await write(options.manager) : await this.dataSource.transaction(write);
     const lastSeq = await this.lastSeq(ctx.runId, options.manager);
     if (!options.manager && stored.length > 0) this.stored$.next({ runId: ctx.runId, readings: stored });
     return { accepted: inserted, duplicates: rows.length - inserted, rejected, lastSeq, stored };
+  }
+
+  /** One audit event for one stored batch (not one per reading: a bench may send thousands a second). */
+  private recordBatch(
+    manager: EntityManager,
+    runId: number,
+    source: ReadingSource,
+    author: ReadingAuthor,
+    counts: { accepted: number; duplicates: number; rejected: number; firstSeq: number | null; lastSeq: number | null },
+  ): Promise<void> {
+    return this.audit.record(
+      {
+        actorId: author.kind === 'user' ? author.id : null,
+        entity: 'run',
+        entityId: runId,
+        action: 'readings',
+        changes: { source, ...counts, author: { kind: author.kind, id: author.id, name: author.name } },
+      },
+      manager,
+    );
   }
 
   async lastSeq(runId: number, manager?: EntityManager): Promise<number> {
@@ -243,20 +288,38 @@ const SQL_SAFE_TIME = /^\d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2}\.\d{3}$/;
  * source (one of three words) or our own time stamp, so nothing needs escaping. A driver's generic
  * escaping of 8,000 values a batch was a measurable share of the server's time on the ingest path.
  */
-function valuesList(runId: number, rows: readonly Row[], source: ReadingSource, received: string): string {
+function valuesList(runId: number, rows: readonly Row[], source: ReadingSource, received: string, author: { enteredBy: number | null; benchId: number | null }): string {
   if (!Number.isInteger(runId) || !SQL_SAFE_SOURCE.test(source) || !SQL_SAFE_TIME.test(received)) throw new Error('valuesList: unexpected run id, source or time');
+  const id = (x: number | null) => {
+    if (x === null) return 'NULL';
+    if (!Number.isInteger(x)) throw new Error('valuesList: an author id is not a whole number');
+    return String(x);
+  };
   const num = (x: number | null) => {
     if (x === null) return 'NULL';
     if (typeof x !== 'number' || !Number.isFinite(x)) throw new Error('valuesList: a value is not a finite number');
     return String(x);
   };
-  const tail = `,'${source}','${received}')`;
+  const tail = `,'${source}','${received}',${id(author.enteredBy)},${id(author.benchId)})`;
   let sql = '';
   for (let i = 0; i < rows.length; i++) {
     const r = rows[i];
     sql += `${i === 0 ? '' : ','}(${runId},${num(r.seq)},${num(r.t)},${num(r.dial)},${num(r.frequency)},${num(r.aux)}${tail}`;
   }
   return sql;
+}
+
+/**
+ * The author columns for a readings query: join `users eu` and `benches eb` as AUTHOR_JOINS does.
+ * Only the page being listed is joined, so the cost is a primary-key lookup per row shown.
+ */
+export const AUTHOR_COLUMNS = 'r.entered_by, eu.name AS entered_by_name, r.bench_id, eb.name AS bench_name';
+export const AUTHOR_JOINS = 'LEFT JOIN users eu ON eu.id = r.entered_by LEFT JOIN benches eb ON eb.id = r.bench_id';
+
+function authorOf(row: Record<string, unknown>): ReadingAuthor | null {
+  if (row.bench_id !== null && row.bench_id !== undefined) return { kind: 'bench', id: Number(row.bench_id), name: String(row.bench_name ?? `bench ${row.bench_id}`) };
+  if (row.entered_by !== null && row.entered_by !== undefined) return { kind: 'user', id: Number(row.entered_by), name: String(row.entered_by_name ?? `user ${row.entered_by}`) };
+  return null;
 }
 
 export function toReadingView(row: Record<string, unknown>, exclusion?: { reason: string } | null): ReadingView {
@@ -271,5 +334,6 @@ export function toReadingView(row: Record<string, unknown>, exclusion?: { reason
     receivedAt: new Date(row.received_at as string).toISOString(),
     excluded: Boolean(exclusion ?? row.excluded_reason),
     excludedReason: exclusion?.reason ?? (row.excluded_reason as string | null) ?? null,
+    author: authorOf(row),
   };
 }

@@ -7,7 +7,7 @@ import { organizationScope, type AuthUser } from '../auth/auth-user.js';
 import { assertMayWriteRun } from '../runs/run-rules.js';
 import { sortColumn } from '../shared/page-query.js';
 import type { ListReadingsQueryDto } from './dto/readings.dto.js';
-import { ReadingsWriter, refusalReason, toReadingView, type RunWriteContext } from './readings-writer.service.js';
+import { AUTHOR_COLUMNS, AUTHOR_JOINS, ReadingsWriter, refusalReason, toReadingView, type RunWriteContext } from './readings-writer.service.js';
 
 const SORTABLE = { seq: 'r.seq', t: 'r.t_s', dial: 'r.dial', frequency: 'r.frequency_hz', id: 'r.id' };
 const READING_KEYS = ['seq', 'dial', 'frequency', 't', 'aux', 'confirmed'];
@@ -45,10 +45,11 @@ export class ReadingsService {
     const [[{ total }], rows] = await Promise.all([
       this.dataSource.query(countSql, [runId]),
       this.dataSource.query(
-        `SELECT r.id, r.seq, r.t_s, r.dial, r.frequency_hz, r.aux, r.source, r.received_at, x.reason AS excluded_reason
+        `SELECT r.id, r.seq, r.t_s, r.dial, r.frequency_hz, r.aux, r.source, r.received_at, x.reason AS excluded_reason, ${AUTHOR_COLUMNS}
            FROM (SELECT r.id FROM readings r${exclusionJoin} WHERE r.run_id = ?${filter} ORDER BY ${order} LIMIT ? OFFSET ?) page
            JOIN readings r ON r.id = page.id
            LEFT JOIN reading_exclusions x ON x.reading_id = r.id
+           ${AUTHOR_JOINS}
           ORDER BY ${order}`,
         [runId, pageSize, (page - 1) * pageSize],
       ),
@@ -94,7 +95,7 @@ export class ReadingsService {
         rejected: problems,
       });
     }
-    const { stored, ...ack } = await this.writer.append(ctx, inputs, 'manual');
+    const { stored, ...ack } = await this.writer.append(ctx, inputs, 'manual', { kind: 'user', id: actor.id, name: actor.name });
     return { ...ack, stored };
   }
 
@@ -119,8 +120,8 @@ export class ReadingsService {
       );
     });
     const [row] = await this.dataSource.query(
-      `SELECT r.id, r.seq, r.t_s, r.dial, r.frequency_hz, r.aux, r.source, r.received_at, x.reason AS excluded_reason
-         FROM readings r JOIN reading_exclusions x ON x.reading_id = r.id WHERE r.id = ?`,
+      `SELECT r.id, r.seq, r.t_s, r.dial, r.frequency_hz, r.aux, r.source, r.received_at, x.reason AS excluded_reason, ${AUTHOR_COLUMNS}
+         FROM readings r JOIN reading_exclusions x ON x.reading_id = r.id ${AUTHOR_JOINS} WHERE r.id = ?`,
       [readingId],
     );
     const view = toReadingView(row);

@@ -208,6 +208,12 @@ export const RUN_CORRECTABLE_FIELDS = ['standardId', 'supplyVoltage', 'configura
 export const READING_SOURCES = ['bridge', 'manual', 'import'] as const;
 export type ReadingSource = (typeof READING_SOURCES)[number];
 
+/**
+ * Who or what entered a reading: a person (typed at the bench page or imported from a file) or a
+ * bench (streamed by its bridge). Null for readings stored before authors were kept.
+ */
+export type ReadingAuthor = { kind: 'user' | 'bench'; id: number; name: string };
+
 export type Reading = {
   id: number;
   seq: number;
@@ -221,6 +227,8 @@ export type Reading = {
   receivedAt: string;
   excluded: boolean;
   excludedReason: string | null;
+  /** Who or what entered it (the source says how). */
+  author: ReadingAuthor | null;
 };
 
 /** One reading as sent by the bench page, an import or the bridge. Frequency in Hz, or as typed ("1.735 MHz"). */

@@ -52,6 +52,7 @@ export function createReading(overrides: Partial<Reading> = {}): Reading {
     receivedAt: '2025-03-07T14:05:00.000Z',
     excluded: false,
     excludedReason: null,
+    author: { kind: 'user', id: 3, name: 'Tomas Reyes' },
     ...overrides,
   };
 }

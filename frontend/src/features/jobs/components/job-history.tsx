@@ -17,6 +17,9 @@ const ACTIONS: Record<string, string> = {
   exclude: 'reading excluded',
   standard_override: 'lapsed standard used by override',
   submit: 'submitted for review',
+  readings: 'readings stored',
+  import: 'readings imported',
+  budget: 'budget edited',
 };
 
 function describe(event: AuditEventView): string {
@@ -29,6 +32,14 @@ function describe(event: AuditEventView): string {
   if (event.action === 'standard_override') return `${str(c.standardName)}, due ${str(c.dueDate)}: ${str(c.reason)}`;
   if (event.entity === 'run' && event.action === 'create') return `${str(c.kind).replace('_', '-')} on ${str(c.rangeLabel)}`;
   if (event.action === 'update') return Object.keys(c).join(', ');
+  if (event.entity === 'run' && (event.action === 'readings' || event.action === 'import')) {
+    const author = (c.author ?? null) as { kind?: string; name?: string } | null;
+    const by = author?.name ? ` by ${author.kind === 'bench' ? 'bench ' : ''}${author.name}` : '';
+    if (event.action === 'import') return `${str(c.imported)} from ${str(c.file)}${by}`;
+    const seqs = c.firstSeq !== null && c.firstSeq !== undefined ? `, seq ${str(c.firstSeq)}–${str(c.lastSeq)}` : '';
+    return `${str(c.accepted)} (${str(c.source)})${by}${seqs}`;
+  }
+  if (event.action === 'budget') return Object.keys(c).filter((k) => k !== 'jobId' && k !== 'jobNumber').join(', ');
   return '';
 }
 

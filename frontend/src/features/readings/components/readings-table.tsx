@@ -165,6 +165,14 @@ export function ReadingsTable({ runId, unit, resolutionHz = 0.1, showDial = true
         : []),
       { field: 'source', headerName: 'Source', width: 80, sortable: false, valueFormatter: (v: Reading['source']) => SOURCE_LABELS[v] ?? v },
       {
+        field: 'author',
+        headerName: 'By',
+        width: 140,
+        sortable: false,
+        valueGetter: (_v, row) => (row.author === null ? '' : row.author.kind === 'bench' ? `Bench ${row.author.name}` : row.author.name),
+        renderCell: ({ row, value }) => (row.author === null ? <Box component="span" sx={{ color: 'text.secondary' }}>—</Box> : <span title={value}>{value}</span>),
+      },
+      {
         field: 'receivedAt',
         headerName: 'Recorded',
         width: 160,
