@@ -3,6 +3,7 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import bcrypt from 'bcryptjs';
 import type { DataSource, EntityManager } from 'typeorm';
 import { SIGNING_MEANING, type CertificateDetail, type JobReview as JobReviewView, type ReviewEvent, type ReviewFlag } from '@kilocycle/common/types';
+import { selfSignRefusal } from '@kilocycle/common/rules';
 import { AuditService } from '../audit/audit.service.js';
 import type { AuthUser } from '../auth/auth-user.js';
 import { LoginThrottle } from '../auth/login-throttle.js';
@@ -21,6 +22,7 @@ import { MailService } from '../mail/mail.service.js';
 import { Organization } from '../organizations/organization.entity.js';
 import { User } from '../users/user.entity.js';
 import { JobReview } from './job-review.entity.js';
+import { readSignerDeeds } from './signer-deeds.js';
 
 const SUBMITTABLE = ['in_progress', 'returned'] as const;
 
@@ -105,9 +107,9 @@ export class ReviewsService {
     });
   }
 
-  private async selfCaptured(manager: EntityManager, jobId: number, userId: number): Promise<boolean> {
-    const [row] = await manager.query('SELECT COUNT(*) AS n FROM runs WHERE job_id = ? AND created_by = ?', [jobId, userId]);
-    return Number(row?.n ?? 0) > 0;
+  /** What the user did to the job's data, in words ("you entered 10 readings of run 12 …: another lead must sign"), or null. */
+  private async selfCaptured(manager: EntityManager, jobId: number, userId: number): Promise<string | null> {
+    return selfSignRefusal(await readSignerDeeds(manager, jobId, userId));
   }
 
   /**
@@ -129,9 +131,10 @@ export class ReviewsService {
       throw new ForbiddenException('Password is not right: the job was not signed');
     }
     const settings = await readSettings(this.dataSource.manager);
-    if (!settings.allowSelfSign && (await this.selfCaptured(this.dataSource.manager, job.id, actor.id))) {
-      await this.refuse(actor, job, 'the signatory captured runs of this job');
-      throw new ForbiddenException('You captured runs of this job yourself: another lead must sign it (or an admin allows self-signing)');
+    const captured = settings.allowSelfSign ? null : await this.selfCaptured(this.dataSource.manager, job.id, actor.id);
+    if (captured) {
+      await this.refuse(actor, job, captured);
+      throw new ForbiddenException(`${captured.charAt(0).toUpperCase()}${captured.slice(1)} (or an admin allows self-signing)`);
     }
     const outcome = await withCertificateFile(this.dataSource, (manager) => issueCertificate(manager, { config: this.config }, { jobId: job.id, signerId: actor.id, meaning }),
     );
@@ -198,12 +201,12 @@ export class ReviewsService {
     );
     const draft = await manager.findOne(Certificate, { where: { jobId: job.id, status: 'draft' } });
     const flags: ReviewFlag[] = [...results.flags];
-    const selfCaptured = user.role === 'lead' && runRows.some((r) => Number(r.created_by) === user.id);
+    const selfCaptured = user.role === 'lead' ? await this.selfCaptured(manager, job.id, user.id) : null;
     if (selfCaptured) {
       flags.push({
         kind: 'self_captured',
         severity: settings.allowSelfSign ? 'info' : 'blocker',
-        message: settings.allowSelfSign ? 'you captured runs of this job; self-signing is allowed by the admin' : 'you captured runs of this job: another lead must sign it',
+        message: settings.allowSelfSign ? `${selfCaptured.replace(/: another lead must sign$/, '')}; self-signing is allowed by the admin` : selfCaptured,
       });
     }
     const signBlockers: string[] = [];

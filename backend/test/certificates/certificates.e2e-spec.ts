@@ -164,8 +164,9 @@ describe('review, signing and certificates (e2e, MariaDB)', () => {
     it('should apply a per-run budget override and give the U the GUM formulas give by hand (jstat t quantile)', async () => {
       const review = (await t.http.get(`/api/reviews/${job1}`).set(as('lead'))).body;
       const asLeftRun = review.runs.find((r: { kind: string; used: boolean }) => r.kind === 'as_left' && r.used);
-      // A finer dial reading and no drift allowance, so repeatability (Type A, ν = n − 1) dominates.
-      const put = await t.http.put(`/api/runs/${asLeftRun.id}/budget`).set(as('lead')).send({ dialHalfDivision: 0.001, driftPpm: 0, note: 'vernier dial' });
+      // A finer dial reading and no drift allowance, so repeatability (Type A, ν = n − 1) dominates. The
+      // technician edits the budget: a lead who did would be barred from signing the job.
+      const put = await t.http.put(`/api/runs/${asLeftRun.id}/budget`).set(as('tech')).send({ dialHalfDivision: 0.001, driftPpm: 0, note: 'vernier dial' });
       expect(put.status).toBe(200);
       expect(put.body).toMatchObject({ dialHalfDivision: 0.001, driftPpm: 0, editable: true, effective: { dialHalfDivision: 0.001, driftPpm: 0 } });
       expect((await t.http.put(`/api/runs/${asLeftRun.id}/budget`).set(as('engineer')).send({ driftHz: 1 })).status).toBe(403);
@@ -357,7 +358,8 @@ describe('review, signing and certificates (e2e, MariaDB)', () => {
     it('should refuse a lead signing runs they captured, audited, until the admin allows it', async () => {
       const refused = await t.http.post(`/api/jobs/${job2}/sign`).set(as('lead')).send({ password: 'kilocycle-demo', meaning: 'reviewed and approved for issue' });
       expect(refused.status).toBe(403);
-      expect(refused.body.message).toMatch(/captured runs of this job/);
+      // The lead opened the as-left run and typed its 12 readings; the refusal says so.
+      expect(refused.body.message).toMatch(/^You opened run (\d+) and entered 12 readings of run \1: another lead must sign/);
       const [{ n }] = await t.dataSource.query("SELECT COUNT(*) AS n FROM audit_events WHERE entity = 'job' AND entity_id = ? AND action = 'sign_refused'", [String(job2)]);
       expect(Number(n)).toBe(1);
       expect((await t.http.patch('/api/settings').set(as('lead')).send({ allowSelfSign: true })).status).toBe(403);

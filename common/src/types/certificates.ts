@@ -209,6 +209,17 @@ export const REVIEW_FLAG_KINDS = [
 ] as const;
 export type ReviewFlagKind = (typeof REVIEW_FLAG_KINDS)[number];
 
+/**
+ * One thing a person did to a job's data, as the audit trail and the record show it: what the
+ * no-self-sign rule looks at (a signatory must not have captured or shaped the data they sign).
+ */
+export type SignerDeed =
+  | { kind: 'opened_run'; runId: number }
+  | { kind: 'entered'; runId: number; readings: number }
+  | { kind: 'imported'; runId: number; readings: number }
+  | { kind: 'excluded'; runId: number; seq: number }
+  | { kind: 'edited_budget'; runId: number };
+
 /** Something the lead should look at; 'blocker' flags stop signing. */
 export type ReviewFlag = {
   kind: ReviewFlagKind;

@@ -1,0 +1,1 @@
+export { describeSignerDeeds, selfSignRefusal } from './signer-deeds.js';
