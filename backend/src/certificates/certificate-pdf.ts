@@ -271,7 +271,7 @@ function resultsTable(layout: Layout, range: RangeResult, unit: FrequencyUnit): 
     };
     const cells = [
       dialText(p.dial, range.dialUnit),
-      compactFrequency(p.nominal, unit),
+      frequencyText(p.nominal, unit, decimals),
       plainHz(p.toleranceHz, Math.max(0, decimals)),
       ...measuredCells(p.asFound),
       ...measuredCells(p.asLeft),
@@ -411,6 +411,10 @@ function errorPlot(layout: Layout, range: RangeResult, unit: FrequencyUnit): voi
     ['tolerance limits', (x) => { doc.moveTo(x, ly + 2.5).lineTo(x + 9, ly + 2.5).lineWidth(0.8).dash(3, { space: 2 }).strokeColor('#a3261b').stroke(); doc.undash(); }],
   ];
   const legendWidth = legend.reduce((w, [label]) => w + 12 + doc.widthOfString(label) + 12, 0);
+  // A caption names the range, so a plot that falls to the next page is still read against its table.
+  doc.font('medium').fontSize(6.5).fillColor(MUTED);
+  doc.text(`Range ${range.position}, ${range.label}: error against nominal`, box.x, ly, { width: box.w - legendWidth - 8, height: 8, lineBreak: false, ellipsis: true });
+  doc.font('sans').fontSize(6.2);
   let lx = box.x + box.w - legendWidth + 12;
   for (const [label, mark] of legend) {
     mark(lx);
