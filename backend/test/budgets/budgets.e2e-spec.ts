@@ -1,4 +1,5 @@
 import type { JobResults, Procedure } from '@kilocycle/common/types';
+import { budgetByHand, decisionByHand, directSlope } from '../support/gum-by-hand.js';
 import { createTestApp, DEMO, tokenFor, type TestApp } from '../support/test-app.js';
 
 type Who = keyof typeof DEMO;
@@ -59,7 +60,8 @@ describe('procedures, budgets and results (e2e, MariaDB)', () => {
       'Drift during the measurement',
       'Reference standard calibration (U/k)',
     ]);
-    expect(point.asLeft!.tur).toBeCloseTo(point.toleranceHz / point.asLeft!.budget!.U, 12);
+    // ILAC-G8: the TUR, like the guard band, takes U before it is rounded for printing.
+    expect(point.asLeft!.tur).toBeCloseTo(point.toleranceHz / point.asLeft!.budget!.Uunrounded, 12);
     const list = (await t.http.get('/api/procedures?q=coarse').set(as('lead'))).body.items as Procedure[];
     const put = await t.http.put(`/api/jobs/${jobId}/procedure`).set(as('tech')).send({ procedureId: list[0]!.id });
     expect(put.status).toBe(200);
@@ -69,6 +71,83 @@ describe('procedures, budgets and results (e2e, MariaDB)', () => {
     const lines = after.ranges[0]!.points[0]!.asLeft!.budget!.lines;
     expect(lines.at(-1)).toMatchObject({ name: 'Cable movement', divisor: 2, standardUncertainty: 1, contributionHz: 1 });
     expect((await t.http.get(`/api/jobs/${jobId}/procedure`).set(as('engineer'))).body.name).toBe('Guarded, coarse dials');
+  });
+
+  it('should state at every point the U, k, ν_eff, guard band and decision that a GUM budget and ILAC-G8 worked by hand give', async () => {
+    // The job now uses the guarded binary procedure made above (w = U, and a normal extra line of 2 Hz at k = 2).
+    const results: JobResults = (await t.http.get(`/api/jobs/${jobId}/results`).set(as('lead'))).body;
+    expect(results.decisionRule).toBe('guarded_binary');
+    const [procedure] = await t.dataSource.query('SELECT p.* FROM procedures p JOIN job_procedures jp ON jp.procedure_id = p.id WHERE jp.job_id = ?', [jobId]);
+    const json = <T>(v: unknown): T => (typeof v === 'string' ? JSON.parse(v) : v) as T;
+    const num = (v: unknown): number | null => (v === null || v === undefined ? null : Number(v));
+    let checked = 0;
+    let roundedAway = 0;
+    const decisions = new Set<string>();
+    for (const range of results.ranges) {
+      const [row] = await t.dataSource.query('SELECT dial_law, dial_min, dial_max, tolerance FROM instrument_ranges WHERE id = ?', [range.rangeId]);
+      const slope = directSlope(json(row.dial_law));
+      const tolerance = json<{ kind: 'percent'; percent: number } | { kind: 'ppm_hz'; ppm: number; hz: number }>(row.tolerance);
+      const span = Math.abs(Number(row.dial_max) - Number(row.dial_min));
+      for (const kind of ['asFound', 'asLeft'] as const) {
+        const runId = kind === 'asFound' ? range.asFoundRunId : range.asLeftRunId;
+        if (runId === null) continue;
+        const [std] = await t.dataSource.query('SELECT s.* FROM runs r JOIN standards s ON s.id = r.standard_id WHERE r.id = ?', [runId]);
+        const [override] = await t.dataSource.query('SELECT * FROM run_budgets WHERE run_id = ?', [runId]);
+        const readings: Array<{ dial: number; frequency_hz: number }> = await t.dataSource.query(
+          'SELECT r.dial, r.frequency_hz FROM readings r LEFT JOIN reading_exclusions e ON e.reading_id = r.id WHERE r.run_id = ? AND e.reading_id IS NULL AND r.dial IS NOT NULL',
+          [runId],
+        );
+        for (const p of range.points) {
+          const m = p[kind];
+          expect(m).toBeTruthy();
+          const nominal = p.dial * slope; // a direct-reading dial
+          expect(p.nominal).toBeCloseTo(nominal, 6);
+          const TL = tolerance.kind === 'percent' ? (nominal * tolerance.percent) / 100 : nominal * tolerance.ppm * 1e-6 + tolerance.hz;
+          expect(p.toleranceHz).toBeCloseTo(TL, 6);
+          const hand = budgetByHand({
+            nominalHz: nominal,
+            samples: readings.filter((r) => Number(r.dial) === p.dial).map((r) => Number(r.frequency_hz)),
+            timebasePpm: Number(std.timebase_accuracy_ppm),
+            resolutionHz: num(override?.counter_resolution_hz) ?? Number(std.resolution_hz),
+            calibrationUPpm: Number(std.calibration_u_ppm),
+            calibrationK: Number(std.calibration_k),
+            dialHalfDivision: num(override?.dial_half_division) ?? (Number(procedure.dial_half_division_pct) / 100) * span,
+            slopeHzPerDial: slope,
+            driftPpm: num(override?.drift_ppm) ?? Number(procedure.drift_ppm),
+            driftHz: num(override?.drift_hz) ?? Number(procedure.drift_hz),
+            extras: (override?.extra_components ? json(override.extra_components) : null) ?? json(procedure.extra_components) ?? [],
+          });
+          const stated = m!.budget!;
+          expect(m!.n).toBe(hand.n);
+          expect(m!.measured).toBeCloseTo(hand.mean, 6);
+          expect(m!.errorHz).toBeCloseTo(hand.mean - nominal, 6);
+          expect(stated.ucHz / hand.uc).toBeCloseTo(1, 9);
+          if (Number.isFinite(hand.nuEff)) {
+            expect(stated.nuEff).not.toBeNull();
+            expect(stated.nuEff! / hand.nuEff).toBeCloseTo(1, 9);
+          } else {
+            expect(stated.nuEff).toBeNull();
+          }
+          expect(stated.k).toBeCloseTo(hand.k, 6);
+          expect(stated.U).toBeCloseTo(hand.U, 10);
+          // ILAC-G8 4.2.2: w = U before rounding.
+          const d = decisionByHand(hand.mean - nominal, TL, hand.Uunrounded, 'guarded_binary');
+          // Relative checks: k from jstat agrees with the server's to about 1e-7 (relative) where ν_eff is large.
+          expect(m!.guardBandHz! / d.guardBandHz).toBeCloseTo(1, 6);
+          expect((m!.acceptanceLimitHz! - d.acceptanceLimitHz) / TL).toBeCloseTo(0, 6);
+          expect(m!.tur! / d.tur).toBeCloseTo(1, 6);
+          expect(m!.decision).toBe(d.decision);
+          decisions.add(d.decision);
+          if (Math.abs(hand.Uunrounded - hand.U) > 1e-9 * hand.U) roundedAway += 1;
+          checked += 1;
+        }
+      }
+    }
+    expect(checked).toBe(results.ranges.reduce((a, r) => a + r.points.filter((p) => p.asFound).length + r.points.filter((p) => p.asLeft).length, 0));
+    expect(checked).toBeGreaterThanOrEqual(20);
+    // The checks tell rounded from unrounded U, and passes from fails.
+    expect(roundedAway).toBeGreaterThan(checked / 2);
+    expect([...decisions].sort()).toEqual(['fail', 'pass']);
   });
 
   it('should flag excluded readings and outliers and scope the results to the customer', async () => {

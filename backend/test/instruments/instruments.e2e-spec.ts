@@ -193,6 +193,25 @@ describe('instruments and ranges (e2e, MariaDB)', () => {
       expect(onA).toMatchObject({ multiplier: 2, fundamentalHz: 1_850_000, nominalDial: 1850, correctionRunId: runs.body.items[0].id });
       // After adjustment the range is within about 0.02 % of its marks: the correction is under half a kHz.
       expect(Math.abs(onA.correctedDial - 1850)).toBeLessThan(0.5);
+      // By hand: the means of the as-left readings at each setting, and the straight line between the two
+      // settings whose means bracket 1 850 000 Hz: dial = d₁ + (F − f₁)(d₂ − d₁)/(f₂ − f₁).
+      const readings: Array<{ dial: number; frequency_hz: number }> = await t.dataSource.query(
+        'SELECT r.dial, r.frequency_hz FROM readings r LEFT JOIN reading_exclusions e ON e.reading_id = r.id WHERE r.run_id = ? AND e.reading_id IS NULL AND r.dial IS NOT NULL',
+        [onA.correctionRunId],
+      );
+      const sums = new Map<number, { sum: number; n: number }>();
+      for (const r of readings) {
+        const entry = sums.get(Number(r.dial)) ?? { sum: 0, n: 0 };
+        sums.set(Number(r.dial), { sum: entry.sum + Number(r.frequency_hz), n: entry.n + 1 });
+      }
+      const means = [...sums].map(([dial, { sum, n }]) => ({ dial, mean: sum / n })).sort((a, b) => a.dial - b.dial);
+      const i = means.findIndex((m) => m.mean >= 1_850_000);
+      expect(i).toBeGreaterThan(0);
+      const [a, b] = [means[i - 1]!, means[i]!];
+      const byHand = a.dial + ((1_850_000 - a.mean) * (b.dial - a.dial)) / (b.mean - a.mean);
+      expect(onA.correctedDial).toBeCloseTo(byHand, 6);
+      // The correction is real: the uncorrected dial (1850) would miss the interpolation by far more than the check's 5e-7.
+      expect(Math.abs(byHand - 1850)).toBeGreaterThan(0.01);
     });
 
     it('should answer 422 for a region without a sourced band table', async () => {
