@@ -1,4 +1,5 @@
 import type { EntityManager } from 'typeorm';
+import { withOutcomes } from '@kilocycle/common/math';
 import type { CertificateStatus, JobResults, JobStatus, SignedRecord } from '@kilocycle/common/types';
 import { SIGNED_JOB_STATUSES } from '../reviews/job-guards.js';
 
@@ -34,8 +35,9 @@ export async function loadSignedRecord(manager: EntityManager, jobId: number): P
   if (!row) return null;
   const record = row.record === null ? null : json<SignedRecord>(row.record);
   const jobStatus = row.job_status as JobStatus;
-  // The results as signed; only the job's status is today's.
-  const results = { ...(record?.results ?? json<JobResults>(row.results)), jobStatus };
+  // The results as signed; only the job's status is today's. Results signed before the two outcomes were
+  // kept get them derived from their own points.
+  const results = withOutcomes({ ...(record?.results ?? json<JobResults>(row.results)), jobStatus });
   return {
     certificateId: Number(row.id),
     number: String(row.number),

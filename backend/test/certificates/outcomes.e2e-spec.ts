@@ -136,9 +136,17 @@ describe('as-found and as-left outcomes (e2e, MariaDB)', () => {
   });
 
   it('should derive the outcomes of results stored before they were kept', async () => {
-    await t.dataSource.query("UPDATE certificates SET results = JSON_REMOVE(results, '$.outcomes') WHERE id = ?", [certificate.id]);
+    await t.dataSource.query(
+      "UPDATE certificates SET results = JSON_REMOVE(results, '$.outcomes'), record = IF(record IS NULL, NULL, JSON_REMOVE(record, '$.results.outcomes')) WHERE id = ?",
+      [certificate.id],
+    );
+    const [stored] = await t.dataSource.query("SELECT JSON_CONTAINS_PATH(results, 'one', '$.outcomes') AS r, JSON_CONTAINS_PATH(record, 'one', '$.results.outcomes') AS s FROM certificates WHERE id = ?", [certificate.id]);
+    expect([Number(stored.r), Number(stored.s ?? 0)]).toEqual([0, 0]);
     const detail: CertificateDetail = (await t.http.get(`/api/certificates/${certificate.id}`).set(as('northgate'))).body;
     expect(detail.results!.outcomes.summary).toBe('As found: out of tolerance at 3 of 10 settings; as left: within tolerance.');
     expect(detail.results!.outcomes.asFound).toMatchObject({ settings: 10, outOfTolerance: 3 });
+    // The signed job's results are read from its stored record too.
+    const results: JobResults = (await t.http.get(`/api/jobs/${jobId}/results`).set(as('lead'))).body;
+    expect(results.outcomes.summary).toBe('As found: out of tolerance at 3 of 10 settings; as left: within tolerance.');
   });
 });
