@@ -120,7 +120,39 @@ function Table({ shape, embedded, verifyPath, jobPath, height }: { shape: Shape 
           ),
       },
       { field: 'issuedAt', headerName: 'Issued', width: 110, renderCell: ({ row }) => <Num>{formatDate(row.issuedAt)}</Num> },
-      { field: 'decision', headerName: 'Decision', width: 116, sortable: false, renderCell: ({ row }) => (row.status === 'draft' ? '—' : <DecisionChip decision={row.decision} />) },
+      // Both outcomes: an as-found failure shows in the list even when the instrument left within tolerance.
+      {
+        field: 'asFoundDecision',
+        headerName: 'As found',
+        width: 128,
+        sortable: false,
+        renderCell: ({ row }) =>
+          row.status === 'draft' ? (
+            '—'
+          ) : (
+            <Tooltip title="Before adjustment: the worst as-found decision">
+              <span>
+                <DecisionChip decision={row.asFoundDecision} />
+              </span>
+            </Tooltip>
+          ),
+      },
+      {
+        field: 'decision',
+        headerName: 'Final',
+        width: 128,
+        sortable: false,
+        renderCell: ({ row }) =>
+          row.status === 'draft' ? (
+            '—'
+          ) : (
+            <Tooltip title="As left, after adjustment (as found where no adjustment was made): the decision the certificate states">
+              <span>
+                <DecisionChip decision={row.decision} />
+              </span>
+            </Tooltip>
+          ),
+      },
       {
         field: 'actions',
         headerName: '',

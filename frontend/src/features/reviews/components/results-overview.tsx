@@ -7,10 +7,10 @@ import TableHead from '@mui/material/TableHead';
 import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
 import type { JobResults } from '@kilocycle/common/types';
-import { DecisionChip } from '@/components/ui/decision-chip';
 import { numberSx } from '@/components/ui/num';
 import { formatDate } from '@/utils/format';
 import { DECISION_RULE_LABELS } from '../utils/results-format';
+import { JobOutcomesSummary } from './job-outcomes';
 import { RangeResults } from './range-results';
 
 type ResultsOverviewProps = { results: JobResults };
@@ -24,12 +24,16 @@ export function ResultsOverview({ results }: ResultsOverviewProps) {
           <Typography variant="h3" component="h2">
             Results
           </Typography>
-          <DecisionChip decision={results.decision} />
           <Typography variant="body2" color="text.secondary">
             {results.procedure.name} · {DECISION_RULE_LABELS[results.decisionRule]}
           </Typography>
         </Box>
-        <Typography variant="body2">{results.decisionRuleText}</Typography>
+        <Box sx={{ my: 1 }}>
+          <JobOutcomesSummary outcomes={results.outcomes} />
+        </Box>
+        <Typography variant="body2" color="text.secondary">
+          {results.decisionRuleText}
+        </Typography>
       </Paper>
       {results.ranges.map((range) => (
         <RangeResults key={range.rangeId} range={range} />

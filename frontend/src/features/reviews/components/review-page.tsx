@@ -16,6 +16,7 @@ import { rangeUnit } from '../utils/results-format';
 import { CertificateIssued } from './certificate-issued';
 import { DownloadResultsCsv } from './download-results-csv';
 import { ExcludedReadings } from './excluded-readings';
+import { JobOutcomesSummary } from './job-outcomes';
 import { JobSummary } from './job-summary';
 import { ResultsOverview } from './results-overview';
 import { ReviewActions } from './review-actions';
@@ -66,7 +67,8 @@ export function ReviewPage({ jobId, queuePath, jobPath, runPath }: ReviewPagePro
         description={
           <>
             {job.instrumentLabel} · {job.organizationName}{' '}
-            <Chip size="small" label={STATUS_LABELS[job.status]} sx={{ height: 20, ml: 0.5 }} />
+            <Chip size="small" label={STATUS_LABELS[job.status]} sx={{ height: 20, ml: 0.5, mr: 1.5 }} />
+            <JobOutcomesSummary outcomes={data.results.outcomes} compact />
             {jobPath && (
               <Button component={RouterLink} to={jobPath} size="small" sx={{ ml: 1 }}>
                 Open the job
