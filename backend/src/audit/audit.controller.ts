@@ -19,6 +19,9 @@ export class ListAuditQueryDto extends ListQueryDto implements ListAuditQuery {
 
   @IsOptional() @Type(() => Number) @IsInt({ message: 'jobId must be a whole number' }) @Min(1)
   jobId?: number;
+
+  @IsOptional() @IsString() @Matches(/^[a-z_]+$/, { message: 'action must be an action such as create, update, exclude' }) @MaxLength(40)
+  action?: string;
 }
 
 const SORTABLE = { at: 'e.id', id: 'e.id', entity: 'e.entity', action: 'e.action' };
@@ -42,6 +45,10 @@ export class AuditController {
     if (query.entityId) {
       where.push('e.entity_id = ?');
       params.push(query.entityId);
+    }
+    if (query.action) {
+      where.push('e.action = ?');
+      params.push(query.action);
     }
     if (query.jobId !== undefined) {
       const job = String(query.jobId);

@@ -2,7 +2,7 @@ import { BadRequestException, ConflictException, ForbiddenException, HttpExcepti
 import { InjectDataSource } from '@nestjs/typeorm';
 import bcrypt from 'bcryptjs';
 import type { DataSource, EntityManager } from 'typeorm';
-import { SIGNING_MEANING, type CertificateDetail, type JobReview as JobReviewView, type ReviewEvent, type ReviewFlag } from '@kilocycle/common/types';
+import { SIGNING_MEANING, type RunKind, type CertificateDetail, type JobReview as JobReviewView, type ReviewEvent, type ReviewFlag } from '@kilocycle/common/types';
 import { selfSignRefusal } from '@kilocycle/common/rules';
 import { AuditService } from '../audit/audit.service.js';
 import type { AuthUser } from '../auth/auth-user.js';
@@ -21,6 +21,7 @@ import { certificateIssuedMail, jobReturnedMail } from '../mail/mail-templates.j
 import { MailService } from '../mail/mail.service.js';
 import { Organization } from '../organizations/organization.entity.js';
 import { User } from '../users/user.entity.js';
+import { missingStandards } from '../runs/run-rules.js';
 import { JobReview } from './job-review.entity.js';
 import { readSignerDeeds } from './signer-deeds.js';
 
@@ -52,6 +53,15 @@ export class ReviewsService {
       const job = await findScopedJob(manager, actor, jobId, true);
       if (!(SUBMITTABLE as readonly string[]).includes(job.status)) {
         throw new ConflictException(`job ${job.number} is ${job.status}: only a job in progress or returned can be submitted for review`);
+      }
+      // Results are stated against a standard: a calibration run without one cannot go to review.
+      const runs = (await manager.query(
+        "SELECT r.id, r.kind, r.standard_id, g.label FROM runs r JOIN instrument_ranges g ON g.id = r.range_id WHERE r.job_id = ? AND r.kind IN ('as_found', 'as_left') ORDER BY r.id",
+        [job.id],
+      )) as Array<{ id: number; kind: RunKind; standard_id: number | null; label: string }>;
+      const missing = missingStandards(runs.map((r) => ({ id: Number(r.id), kind: r.kind, rangeLabel: r.label, standardId: r.standard_id === null ? null : Number(r.standard_id) })));
+      if (missing) {
+        throw new ConflictException(`job ${job.number} cannot go to review: ${missing}. Set the standard with "Correct run details" on the run's page.`);
       }
       const results = await computeJobResults(manager, job.id);
       if (results.flags.some((f) => f.kind === 'no_calibration_run')) {

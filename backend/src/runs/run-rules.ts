@@ -1,5 +1,5 @@
 import { ForbiddenException } from '@nestjs/common';
-import type { Role, RunKind } from '@kilocycle/common/types';
+import { CALIBRATION_RUN_KINDS, type Role, type RunKind } from '@kilocycle/common/types';
 
 /** Engineers run studies, not calibrations: these are the kinds they may open and record into. */
 export const ENGINEER_RUN_KINDS: readonly RunKind[] = ['warmup', 'stability', 'supply_sensitivity', 'keying'];
@@ -10,4 +10,19 @@ export function assertMayWriteRun(role: Role, kind: RunKind): void {
   if (role === 'engineer' && ENGINEER_RUN_KINDS.includes(kind)) return;
   if (role === 'engineer') throw new ForbiddenException(`an engineer may work on ${ENGINEER_RUN_KINDS.join(', ')} runs, not ${kind}`);
   throw new ForbiddenException('lab records are read-only for this account');
+}
+
+/** How a run kind is written in sentences: as-found, as-left, warm-up… */
+export function runKindWords(kind: RunKind): string {
+  return kind === 'supply_sensitivity' ? 'supply sensitivity' : kind === 'warmup' ? 'warm-up' : kind.replace('_', '-');
+}
+
+/**
+ * A calibration run (as-found, as-left) states results against a reference standard, so it cannot be
+ * opened or submitted without one. Returns the sentence naming each such run that lacks one, or null.
+ */
+export function missingStandards(runs: ReadonlyArray<{ id: number; kind: RunKind; rangeLabel: string; standardId: number | null }>): string | null {
+  const missing = runs.filter((r) => CALIBRATION_RUN_KINDS.includes(r.kind) && r.standardId === null);
+  if (missing.length === 0) return null;
+  return missing.map((r) => `run ${r.id} (${runKindWords(r.kind)}, ${r.rangeLabel}) has no reference standard`).join('; ');
 }

@@ -1,7 +1,7 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
-import type { DataSource, Repository } from 'typeorm';
-import type { ListResponse, Run as RunView } from '@kilocycle/common/types';
+import type { DataSource, EntityManager, Repository } from 'typeorm';
+import { CALIBRATION_RUN_KINDS, RUN_CORRECTABLE_FIELDS, type ListResponse, type Run as RunView } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
 import { organizationScope, type AuthUser } from '../auth/auth-user.js';
 import { Bench } from '../benches/bench.entity.js';
@@ -16,7 +16,7 @@ import { paginateFlat } from '../shared/page-query.js';
 import { likePattern } from '../shared/paginate.js';
 import { Standard } from '../standards/standard.entity.js';
 import type { CreateRunDto, ListRunsQueryDto, UpdateRunDto } from './dto/run.dto.js';
-import { assertMayWriteRun } from './run-rules.js';
+import { assertMayWriteRun, runKindWords } from './run-rules.js';
 import { Run } from './run.entity.js';
 
 type RunCounts = { readingCount: number; excludedCount: number; lastSeq: number };
@@ -128,19 +128,11 @@ export class RunsService {
         if (busy) throw new ConflictException(`bench "${bench.name}" already has run ${busy.id} open; close it first`);
         standardId ??= bench.defaultStandardId;
       }
-      let overrideReason: string | null = null;
-      let standard: Standard | null = null;
-      if (standardId !== null) {
-        standard = await manager.findOneBy(Standard, { id: standardId });
-        if (!standard || !standard.active) throw new BadRequestException(`standardId: standard ${standardId} does not exist or is out of use`);
-        const due = dateOnly(standard.dueDate)!;
-        if (due < todayIso()) {
-          const base = `standard "${standard.name}" was due for calibration on ${due}`;
-          if (actor.role !== 'lead') throw new ConflictException(`${base}; only a lead can override, with a written reason`);
-          if (!body.standardOverrideReason) throw new ConflictException(`${base}; give standardOverrideReason to use it anyway`);
-          overrideReason = body.standardOverrideReason;
-        }
+      if (standardId === null && CALIBRATION_RUN_KINDS.includes(body.kind)) {
+        const why = body.benchId != null ? ' (the bench has no default standard)' : '';
+        throw new BadRequestException(`standardId: an ${runKindWords(body.kind)} run needs a reference standard${why}; choose the counter or reference the readings are taken with`);
       }
+      const { standard, overrideReason } = await this.usableStandard(manager, actor, standardId, body.standardOverrideReason);
       const result = await manager.insert(Run, {
         jobId: job.id,
         rangeId: range.id,
@@ -186,32 +178,104 @@ export class RunsService {
     return this.get(actor, id);
   }
 
+  /**
+   * Closes a run (status closed) and corrects its details. A correction (standard, supply voltage,
+   * configuration, notes) needs a reason and is made only while the job is open (received, in
+   * progress or returned); it is audited with each field's from and to and the reason, in the same
+   * transaction. A closed run's details can still be corrected while its job is open: closing ends
+   * capture, not the record of how the readings were taken.
+   */
   async update(actor: AuthUser, id: number, body: UpdateRunDto): Promise<RunView> {
     await this.dataSource.transaction(async (manager) => {
       const run = await manager.findOne(Run, { where: { id }, lock: { mode: 'pessimistic_write' } });
       if (!run) throw new NotFoundException(`Run ${id} not found`);
       run.job = await manager.findOneByOrFail(Job, { id: run.jobId });
+      const scope = organizationScope(actor);
+      if (scope !== null && run.job.organizationId !== scope) throw new NotFoundException(`Run ${id} not found`);
       assertMayWriteRun(actor.role, run.kind);
-      if (run.status === 'closed') throw new ConflictException(`run ${id} is closed: it no longer changes`);
       if (LOCKED_JOB_STATUSES.includes(run.job.status)) throw new ConflictException(`run ${id} belongs to job ${run.job.number}, which is ${run.job.status}`);
-      const changes: Record<string, unknown> = {};
-      const patch: Partial<Run> = {};
-      for (const key of ['supplyVoltage', 'configuration', 'notes'] as const) {
-        if (body[key] !== undefined && body[key] !== run[key]) {
-          changes[key] = { from: run[key], to: body[key] };
-          Object.assign(patch, { [key]: body[key] });
+      const asked = RUN_CORRECTABLE_FIELDS.filter((key) => body[key] !== undefined);
+      if (asked.length > 0) {
+        if (!OPEN_JOB_STATUSES.includes(run.job.status)) {
+          throw new ConflictException(
+            `run ${id} belongs to job ${run.job.number}, which is ${run.job.status.replace('_', ' ')}: a run's details are corrected only while its job is received, in progress or returned`,
+          );
         }
-      }
-      if (Object.keys(patch).length > 0) {
-        await manager.update(Run, { id }, patch);
-        await this.audit.record({ actorId: actor.id, entity: 'run', entityId: id, action: 'update', changes }, manager);
+        await this.correct(manager, actor, run, body);
+      } else if (body.status !== 'closed' && (body.reason !== undefined || body.standardOverrideReason !== undefined)) {
+        throw new BadRequestException('reason: give it together with the details it explains (standardId, supplyVoltage, configuration, notes)');
       }
       if (body.status === 'closed') {
+        if (run.status === 'closed') throw new ConflictException(`run ${id} is closed: it no longer changes`);
         await manager.update(Run, { id }, { status: 'closed', endedAt: new Date() });
         await this.audit.record({ actorId: actor.id, entity: 'run', entityId: id, action: 'status', changes: { from: 'open', to: 'closed' } }, manager);
       }
     });
     return this.get(actor, id);
+  }
+
+  /** Applies a correction of the run's details with its reason, and audits it (action update, with from/to per field). */
+  private async correct(manager: EntityManager, actor: AuthUser, run: Run, body: UpdateRunDto): Promise<void> {
+    const changes: Record<string, unknown> = {};
+    const patch: Partial<Run> = {};
+    for (const key of ['supplyVoltage', 'configuration', 'notes'] as const) {
+      if (body[key] !== undefined && body[key] !== run[key]) {
+        changes[key] = { from: run[key], to: body[key] };
+        Object.assign(patch, { [key]: body[key] });
+      }
+    }
+    let override: { standard: Standard; reason: string } | null = null;
+    if (body.standardId !== undefined && body.standardId !== run.standardId) {
+      if (body.standardId === null && CALIBRATION_RUN_KINDS.includes(run.kind)) {
+        throw new BadRequestException(`standardId: an ${runKindWords(run.kind)} run needs a reference standard; choose the one the readings were taken with`);
+      }
+      const before = run.standardId === null ? null : await manager.findOneBy(Standard, { id: run.standardId });
+      const { standard, overrideReason } = await this.usableStandard(manager, actor, body.standardId, body.standardOverrideReason);
+      changes.standardId = { from: run.standardId, to: body.standardId };
+      changes.standardName = { from: before?.name ?? null, to: standard?.name ?? null };
+      patch.standardId = body.standardId;
+      patch.standardOverrideReason = overrideReason;
+      if (standard && overrideReason !== null) override = { standard, reason: overrideReason };
+    }
+    if (Object.keys(patch).length === 0) return;
+    const reason = body.reason?.trim() ?? '';
+    if (reason.length < 3) throw new BadRequestException("reason: say why the run's details are corrected (at least 3 characters)");
+    changes.reason = reason;
+    await manager.update(Run, { id: run.id }, patch);
+    await this.audit.record({ actorId: actor.id, entity: 'run', entityId: run.id, action: 'update', changes }, manager);
+    if (override) {
+      await this.audit.record(
+        {
+          actorId: actor.id,
+          entity: 'run',
+          entityId: run.id,
+          action: 'standard_override',
+          changes: { standardId: override.standard.id, standardName: override.standard.name, dueDate: dateOnly(override.standard.dueDate), reason: override.reason },
+        },
+        manager,
+      );
+    }
+  }
+
+  /**
+   * The standard a run may use: active, and in date unless a lead overrides with a written reason
+   * (400 for one that does not exist or is out of use, 409 for an overdue one without the override).
+   */
+  private async usableStandard(
+    manager: EntityManager,
+    actor: AuthUser,
+    standardId: number | null,
+    overrideReason: string | undefined,
+  ): Promise<{ standard: Standard | null; overrideReason: string | null }> {
+    if (standardId === null) return { standard: null, overrideReason: null };
+    const standard = await manager.findOneBy(Standard, { id: standardId });
+    if (!standard || !standard.active) throw new BadRequestException(`standardId: standard ${standardId} does not exist or is out of use`);
+    const due = dateOnly(standard.dueDate)!;
+    if (due >= todayIso()) return { standard, overrideReason: null };
+    const base = `standard "${standard.name}" was due for calibration on ${due}`;
+    if (actor.role !== 'lead') throw new ConflictException(`${base}; only a lead can override, with a written reason`);
+    if (!overrideReason) throw new ConflictException(`${base}; give standardOverrideReason to use it anyway`);
+    return { standard, overrideReason };
   }
 
   private baseQuery() {

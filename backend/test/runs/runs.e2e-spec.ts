@@ -113,7 +113,7 @@ describe('runs (e2e, MariaDB)', () => {
     it('should close a run once, audit it, and then refuse readings and changes', async () => {
       const { jobId, rangeIds } = await fresh();
       const runId = await openRun(t, as('tech'), jobId, { rangeId: rangeIds[0], kind: 'as_found' });
-      const noted = await t.http.patch(`/api/runs/${runId}`).set(as('tech')).send({ notes: 'Lid off for the first half.' });
+      const noted = await t.http.patch(`/api/runs/${runId}`).set(as('tech')).send({ notes: 'Lid off for the first half.', reason: 'noted after the run' });
       expect(noted.body.notes).toBe('Lid off for the first half.');
       const closed = await t.http.patch(`/api/runs/${runId}`).set(as('tech')).send({ status: 'closed' });
       expect(closed.status).toBe(200);

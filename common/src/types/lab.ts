@@ -301,7 +301,7 @@ export type ListRunsQuery = ListQuery & {
 /** Readings of one run; sort on seq (default), t, dial or frequency. */
 export type ListReadingsQuery = Omit<ListQuery, 'q'> & { excluded?: boolean };
 /** entity + entityId for one record's history; jobId for a job with its runs and reading exclusions. */
-export type ListAuditQuery = ListQuery & { entity?: string; entityId?: string; jobId?: number };
+export type ListAuditQuery = ListQuery & { entity?: string; entityId?: string; jobId?: number; action?: string };
 
 // ---- Analysis of a run (GET /api/runs/:id/analysis) ----
 

@@ -45,6 +45,15 @@ export class UpdateRunDto implements UpdateRunRequest {
   @IsOptional() @IsIn(['closed'], { message: 'status can only be set to closed (a closed run stays closed)' })
   status?: 'closed';
 
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsInt({ message: 'standardId must be a whole number' }) @Min(1)
+  standardId?: number | null;
+
+  @IsOptional() @IsString() @Trim() @MinLength(10, { message: 'standardOverrideReason must be at least 10 characters' }) @MaxLength(1000)
+  standardOverrideReason?: string;
+
+  @IsOptional() @IsString({ message: 'reason must be text' }) @Trim() @MinLength(3, { message: 'reason must be at least 3 characters' }) @MaxLength(1000)
+  reason?: string;
+
   @IsOptional() @ValidateIf((_o, v) => v !== null) @IsNumber(finite, { message: 'supplyVoltage must be a number' }) @Min(0) @Max(100000)
   supplyVoltage?: number | null;
 
