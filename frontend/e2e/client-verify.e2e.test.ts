@@ -38,6 +38,12 @@ describe('client portal and public verification (browser)', () => {
     expect(await page.getByRole('table', { name: 'Jobs' }).innerText()).toMatch(/Certificate issued/);
     const certificates = page.getByRole('region', { name: 'Certificates' });
     await certificates.getByText(certificate.number).first().waitFor();
+    // Both outcomes in the list: the demo instrument was found out of tolerance and left within it.
+    const grid = certificates.getByRole('grid', { name: 'Certificates' });
+    expect(await grid.getByRole('columnheader', { name: 'As found' }).count()).toBe(1);
+    expect(await grid.getByRole('columnheader', { name: 'Final' }).count()).toBe(1);
+    const row = grid.getByRole('row').filter({ hasText: certificate.number }).first();
+    expect(await row.innerText()).toMatch(/Fail[\s\S]*Pass/);
     await keepScreenshot(page, 'client-overview');
 
     const [download] = await Promise.all([
@@ -47,6 +53,22 @@ describe('client portal and public verification (browser)', () => {
     expect(download.suggestedFilename()).toBe(`${certificate.number}-rev${certificate.revision}.pdf`);
     pdf = readFileSync(await download.path());
     expect(pdf.subarray(0, 5).toString('latin1')).toBe('%PDF-');
+    await page.setViewportSize({ width: 390, height: 844 });
+    await keepScreenshot(page, 'client-overview-390');
+    await page.context().close();
+  });
+
+  it('should show the lab its certificate list with the as-found outcome beside the final one', async () => {
+    const page = await patientPage(browser);
+    await signIn(page, 'lead@kilocycle.test');
+    await page.goto('/certificates');
+    const grid = page.getByRole('grid', { name: 'Certificates' });
+    const row = grid.getByRole('row').filter({ hasText: certificate.number }).first();
+    await row.waitFor();
+    expect(await row.innerText()).toMatch(/Fail[\s\S]*Pass/);
+    await keepScreenshot(page, 'certificate-list');
+    await page.setViewportSize({ width: 390, height: 844 });
+    await keepScreenshot(page, 'certificate-list-390');
     await page.context().close();
   });
 

@@ -40,6 +40,10 @@ describe('review and sign-off (browser)', () => {
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Review', exact: true }).click();
     await page.getByRole('link', { name: `Review job ${jobNumber}` }).click();
     await page.getByRole('heading', { name: `Review of job ${jobNumber}` }).waitFor();
+    // The header and the results carry both outcomes, as found and as left.
+    const outcomes = page.getByLabel('Outcomes');
+    expect(await outcomes.first().innerText()).toMatch(/As found[\s\S]*As left/);
+    expect(await outcomes.nth(1).innerText()).toMatch(/As found, before adjustment[\s\S]*As left, after adjustment/);
 
     const results = page.getByRole('table', { name: /^Results, range / }).first();
     await results.waitFor();
@@ -56,6 +60,9 @@ describe('review and sign-off (browser)', () => {
     expect(budgetText).toMatch(/Coverage factor k/);
     expect(budgetText).toMatch(/Expanded uncertainty U/);
     await keepScreenshot(page, 'review-page');
+    await page.setViewportSize({ width: 390, height: 844 });
+    await page.getByRole('heading', { name: `Review of job ${jobNumber}` }).scrollIntoViewIfNeeded();
+    await keepScreenshot(page, 'review-page-390');
     await page.context().close();
   });
 

@@ -6,6 +6,8 @@ import Menu from '@mui/material/Menu';
 import MenuItem from '@mui/material/MenuItem';
 import Paper from '@mui/material/Paper';
 import Tooltip from '@mui/material/Tooltip';
+import useMediaQuery from '@mui/material/useMediaQuery';
+import { useTheme } from '@mui/material/styles';
 import { DataGrid, type GridColDef, type GridPaginationModel, type GridSortModel } from '@mui/x-data-grid';
 import { useMemo, useState } from 'react';
 import { Link as RouterLink } from 'react-router-dom';
@@ -72,6 +74,8 @@ function Table({ shape, embedded, verifyPath, jobPath, height }: { shape: Shape 
   const user = useCurrentUser();
   const isClient = user.role === 'client';
   const isLead = user.role === 'lead';
+  // On a phone the revision gives way, so the as-found outcome is in view beside the number and status.
+  const narrow = useMediaQuery(useTheme().breakpoints.down('sm'));
   const certificates = useCertificates({ query: shape.query });
   const [menu, setMenu] = useState<{ anchor: HTMLElement; certificate: Certificate } | null>(null);
   const [pending, setPending] = useState<{ certificate: Certificate; action: 'amend' | 'withdraw' } | null>(null);
@@ -81,7 +85,7 @@ function Table({ shape, embedded, verifyPath, jobPath, height }: { shape: Shape 
       {
         field: 'number',
         headerName: 'Certificate',
-        width: 140,
+        width: 130,
         renderCell: ({ row }) => (
           <Tooltip title="Public verification page">
             <Link component={RouterLink} to={verifyPath(row.number)}>
@@ -103,28 +107,11 @@ function Table({ shape, embedded, verifyPath, jobPath, height }: { shape: Shape 
           </Tooltip>
         ),
       },
-      { field: 'instrumentLabel', headerName: 'Instrument', flex: 1.4, minWidth: 180, sortable: false },
-      ...(isClient ? [] : [{ field: 'organizationName', headerName: 'Customer', flex: 1, minWidth: 140 } satisfies GridColDef<Certificate>]),
-      {
-        field: 'jobNumber',
-        headerName: 'Job',
-        width: 110,
-        sortable: false,
-        renderCell: ({ row }) =>
-          jobPath && !isClient ? (
-            <Link component={RouterLink} to={jobPath(row.jobId)}>
-              <Num>{row.jobNumber}</Num>
-            </Link>
-          ) : (
-            <Num>{row.jobNumber}</Num>
-          ),
-      },
-      { field: 'issuedAt', headerName: 'Issued', width: 110, renderCell: ({ row }) => <Num>{formatDate(row.issuedAt)}</Num> },
       // Both outcomes: an as-found failure shows in the list even when the instrument left within tolerance.
       {
         field: 'asFoundDecision',
         headerName: 'As found',
-        width: 128,
+        width: 108,
         sortable: false,
         renderCell: ({ row }) =>
           row.status === 'draft' ? (
@@ -140,7 +127,7 @@ function Table({ shape, embedded, verifyPath, jobPath, height }: { shape: Shape 
       {
         field: 'decision',
         headerName: 'Final',
-        width: 128,
+        width: 108,
         sortable: false,
         renderCell: ({ row }) =>
           row.status === 'draft' ? (
@@ -153,6 +140,23 @@ function Table({ shape, embedded, verifyPath, jobPath, height }: { shape: Shape 
             </Tooltip>
           ),
       },
+      { field: 'instrumentLabel', headerName: 'Instrument', flex: 1.4, minWidth: 150, sortable: false },
+      ...(isClient ? [] : [{ field: 'organizationName', headerName: 'Customer', flex: 1, minWidth: 110 } satisfies GridColDef<Certificate>]),
+      {
+        field: 'jobNumber',
+        headerName: 'Job',
+        width: 110,
+        sortable: false,
+        renderCell: ({ row }) =>
+          jobPath && !isClient ? (
+            <Link component={RouterLink} to={jobPath(row.jobId)}>
+              <Num>{row.jobNumber}</Num>
+            </Link>
+          ) : (
+            <Num>{row.jobNumber}</Num>
+          ),
+      },
+      { field: 'issuedAt', headerName: 'Issued', width: 110, renderCell: ({ row }) => <Num>{formatDate(row.issuedAt)}</Num> },
       {
         field: 'actions',
         headerName: '',
@@ -187,6 +191,7 @@ function Table({ shape, embedded, verifyPath, jobPath, height }: { shape: Shape 
           rows={certificates.data?.items ?? []}
           rowCount={certificates.data?.total ?? 0}
           columns={columns}
+          columnVisibilityModel={narrow ? { revision: false } : {}}
           loading={certificates.isFetching}
           paginationMode="server"
           sortingMode="server"
