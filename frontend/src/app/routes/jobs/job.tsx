@@ -102,7 +102,11 @@ export default function JobRoute() {
                 jobId={j.id}
                 role={user.role}
                 ranges={(instrument.data?.ranges ?? []).map((r) => ({ value: String(r.id), label: `${r.position}. ${r.label}` }))}
-                benches={(benches.data?.items ?? []).map((b) => ({ value: String(b.id), label: b.name }))}
+                benches={(benches.data?.items ?? []).map((b) => ({
+                  value: String(b.id),
+                  label: b.name,
+                  defaultStandardId: b.defaultStandardId === null ? null : String(b.defaultStandardId),
+                }))}
                 standards={(standards.data?.items ?? []).map((s) => ({
                   value: String(s.id),
                   label: `${s.name} (due ${formatDate(s.dueDate)})`,

@@ -4,9 +4,9 @@ import Button from '@mui/material/Button';
 import Paper from '@mui/material/Paper';
 import TextField from '@mui/material/TextField';
 import Typography from '@mui/material/Typography';
-import { useRef, useState, type FormEvent, type KeyboardEvent } from 'react';
+import { useEffect, useRef, useState, type FormEvent, type KeyboardEvent } from 'react';
 import type { AppendReadingsResponse, DialUnit } from '@kilocycle/common/types';
-import { parseFrequency, parseNumber } from '@kilocycle/common/units';
+import { checkFrequencySpan, parseFrequency, parseNumber } from '@kilocycle/common/units';
 import { Num, numberSx } from '@/components/ui/num';
 import { ApiError } from '@/lib/api-client';
 import { formatHz, formatNumber } from '@/utils/frequency';
@@ -26,15 +26,25 @@ type ReadingEntryProps = {
   onSaved?: (answer: AppendReadingsResponse) => void;
 };
 
-type Understood = { ok: true; hz: number; text: string; far: boolean } | { ok: false; text: string } | null;
+type Understood = { ok: true; hz: number; text: string; far: boolean; probableHz: number | null } | { ok: false; text: string } | null;
+/** A reading the server refused only for lying outside the range's span: stored as typed if the person confirms. */
+type Confirming = { dial: string; counter: string; message: string };
 
-/** What the counter text will be stored as: the same parser the server uses (a bare number is in Hz). */
+/**
+ * What the counter text will be stored as: the same parser the server uses (a bare number is in Hz),
+ * and the same span rule (common's checkFrequencySpan), so the amber hint warns before the server refuses.
+ */
 export function understandFrequency(text: string, freqMinHz: number, freqMaxHz: number): Understood {
   if (!text.trim()) return null;
   try {
     const hz = parseFrequency(text, 'Hz');
-    const far = hz < freqMinHz / 2 || hz > freqMaxHz * 2;
-    return { ok: true, hz, far, text: `= ${formatHz(hz)} (${formatNumber(hz, Number.isInteger(hz) ? 0 : 1)} Hz)` };
+    let outside: ReturnType<typeof checkFrequencySpan> = null;
+    try {
+      outside = checkFrequencySpan(text, hz, freqMinHz, freqMaxHz);
+    } catch {
+      outside = null; // a range without a usable span: the server decides
+    }
+    return { ok: true, hz, far: outside !== null, probableHz: outside?.probableHz ?? null, text: `= ${formatHz(hz)} (${formatNumber(hz, Number.isInteger(hz) ? 0 : 1)} Hz)` };
   } catch (error) {
     return { ok: false, text: error instanceof Error ? error.message : String(error) };
   }
@@ -65,6 +75,12 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
   const [counter, setCounter] = useState('');
   const [problem, setProblem] = useState<Problem | null>(null);
   const [last, setLast] = useState<string | null>(null);
+  const [confirming, setConfirming] = useState<Confirming | null>(null);
+  const confirmRef = useRef<HTMLButtonElement>(null);
+  // The confirmation takes the keyboard once it is on the page, so Enter stores the reading as typed.
+  useEffect(() => {
+    if (confirming) confirmRef.current?.focus();
+  }, [confirming]);
   // What was sent: on success only these are cleared, so anything typed meanwhile stays.
   const sent = useRef<{ dial: string; counter: string } | null>(null);
   const append = useAppendReadings({
@@ -86,6 +102,7 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
         dialRef.current?.focus();
       }
       setProblem(null);
+      setConfirming(null);
       onSaved?.(answer);
     },
   });
@@ -101,6 +118,41 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
       dialError = error instanceof Error ? error.message : String(error);
     }
   }
+
+  /** Sends the pair; `confirmed` stores a frequency outside the range's span as typed. */
+  const send = (confirmed: boolean) => {
+    if (dialValue === null) return;
+    setProblem(null);
+    sent.current = { dial, counter };
+    append.mutate(
+      { runId, body: { readings: [{ dial: dialValue, frequency: counter.trim(), ...(confirmed ? { confirmed: true } : {}) }] } },
+      {
+        onError: (error) => {
+          sent.current = null;
+          // 422: refused only for lying outside the span. Offer to store it as typed, one keystroke away.
+          if (!confirmed && error instanceof ApiError && error.status === 422) {
+            const message = (error.messages[0] ?? error.message).replace(/^readings\[\d+\]\.\w+:\s*/, '');
+            setConfirming({ dial, counter, message });
+            return;
+          }
+          setConfirming(null);
+          const found = toProblem(error);
+          setProblem(found);
+          // Nothing is lost: the typed values stay, and the cursor goes where the fix is needed.
+          requestAnimationFrame(() => (found.field === 'dial' ? dialRef.current : counterRef.current)?.focus());
+        },
+      },
+    );
+  };
+
+  /** Escape: back to the counter, its text selected, to type it again. */
+  const correct = () => {
+    setConfirming(null);
+    requestAnimationFrame(() => {
+      counterRef.current?.focus();
+      counterRef.current?.select();
+    });
+  };
 
   const submit = (event: FormEvent<HTMLFormElement>) => {
     event.preventDefault();
@@ -124,20 +176,8 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
       counterRef.current?.focus();
       return;
     }
-    setProblem(null);
-    sent.current = { dial, counter };
-    append.mutate(
-      { runId, body: { readings: [{ dial: dialValue, frequency: counter.trim() }] } },
-      {
-        onError: (error) => {
-          sent.current = null;
-          const found = toProblem(error);
-          setProblem(found);
-          // Nothing is lost: the typed values stay, and the cursor goes where the fix is needed.
-          requestAnimationFrame(() => (found.field === 'dial' ? dialRef.current : counterRef.current)?.focus());
-        },
-      },
-    );
+    // Enter again on the same pair after the refusal stores it as typed.
+    send(confirming !== null && confirming.dial === dial && confirming.counter === counter);
   };
 
   // Enter on the dial moves on to the counter while the counter is still empty.
@@ -171,6 +211,7 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
           value={dial}
           onChange={(e) => {
             setDial(e.target.value);
+            setConfirming(null);
             if (problem?.field === 'dial') setProblem(null);
           }}
           onKeyDown={onDialKey}
@@ -186,6 +227,7 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
           value={counter}
           onChange={(e) => {
             setCounter(e.target.value);
+            setConfirming(null);
             if (problem?.field === 'frequency') setProblem(null);
           }}
           inputRef={counterRef}
@@ -197,7 +239,8 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
             ) : frequency.ok ? (
               <Box component="span" data-testid="counter-understood" sx={{ color: frequency.far ? 'warning.main' : undefined }}>
                 <Num>{frequency.text}</Num>
-                {frequency.far && ` — far outside this range (${formatHz(freqMinHz)} – ${formatHz(freqMaxHz)}); check the unit`}
+                {frequency.far &&
+                  ` — far outside this range (${formatHz(freqMinHz)} – ${formatHz(freqMaxHz)}); ${frequency.probableHz !== null ? `did you mean ${formatHz(frequency.probableHz)}?` : 'check the unit'}`}
               </Box>
             ) : (
               frequency.text
@@ -210,7 +253,34 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
         </Button>
       </Box>
       <Box aria-live="polite" sx={{ minHeight: 24, mt: 0.5 }}>
-        {problem ? (
+        {confirming ? (
+          <Alert
+            severity="warning"
+            role="alert"
+            data-testid="confirm-reading"
+            onKeyDown={(event) => {
+              if (event.key === 'Escape') {
+                event.preventDefault();
+                correct();
+              }
+            }}
+          >
+            <Box component="span" sx={{ display: 'block' }}>
+              Not saved — {confirming.message}
+            </Box>
+            <Box component="span" sx={{ display: 'block', mt: 0.5 }}>
+              Press <kbd>Enter</kbd> again to store it as typed, or <kbd>Esc</kbd> to correct it.
+            </Box>
+            <Box sx={{ display: 'flex', gap: 1, flexWrap: 'wrap', mt: 1 }}>
+              <Button ref={confirmRef} variant="contained" color="warning" size="small" onClick={() => send(true)} disabled={append.isPending}>
+                Store as typed
+              </Button>
+              <Button size="small" color="inherit" onClick={correct}>
+                Correct it
+              </Button>
+            </Box>
+          </Alert>
+        ) : problem ? (
           <Alert severity="error" role="alert" sx={{ py: 0 }}>
             {problem.message}
           </Alert>

@@ -11,7 +11,7 @@ import MenuItem from '@mui/material/MenuItem';
 import Stack from '@mui/material/Stack';
 import TextField from '@mui/material/TextField';
 import { useId, useState, type FormEvent } from 'react';
-import { RUN_KINDS, type CreateRunRequest, type Role, type Run, type RunKind } from '@kilocycle/common/types';
+import { CALIBRATION_RUN_KINDS, RUN_KINDS, type CreateRunRequest, type Role, type Run, type RunKind } from '@kilocycle/common/types';
 import { FormErrors } from '@/components/ui/form-errors';
 import { ApiError } from '@/lib/api-client';
 import { useOpenRun } from '../api/open-run';
@@ -22,6 +22,8 @@ const MIN_OVERRIDE_REASON = 10;
 
 export type StandardChoice = { value: string; label: string; overdue: boolean };
 export type Choice = { value: string; label: string };
+/** A bench, with the standard it measures against unless told otherwise. */
+export type BenchChoice = Choice & { defaultStandardId: string | null };
 
 /** The run kinds a role may open: engineers run studies, not calibrations. */
 export function kindsFor(role: Role): readonly RunKind[] {
@@ -34,12 +36,27 @@ type OpenRunDialogProps = {
   jobId: number;
   role: Role;
   ranges: readonly Choice[];
-  benches: readonly Choice[];
+  benches: readonly BenchChoice[];
   standards: readonly StandardChoice[];
   onOpened: (run: Run) => void;
 };
 
-/** "Open run": range, kind, bench and standard. A lapsed standard is refused unless a lead gives a written reason. */
+/**
+ * The standard to pre-select: the chosen bench's default, or with no bench chosen the default of the
+ * first bench that has one (a lab measures typed readings with its bench counter too).
+ */
+export function preselectedStandard(benches: readonly BenchChoice[], benchId: string, standards: readonly StandardChoice[]): { id: string; bench: string } | null {
+  const bench = benchId ? benches.find((b) => b.value === benchId) : benches.find((b) => b.defaultStandardId !== null);
+  const id = bench?.defaultStandardId ?? null;
+  if (!bench || id === null || !standards.some((s) => s.value === id)) return null;
+  return { id, bench: bench.label };
+}
+
+/**
+ * "Open run": range, kind, bench and standard. The bench's default standard is pre-selected; an
+ * as-found or as-left run must have one (no "None" for those kinds). A lapsed standard is refused
+ * unless a lead gives a written reason.
+ */
 export function OpenRunDialog({ jobId, role, ranges, benches, standards, onOpened }: OpenRunDialogProps) {
   const titleId = useId();
   const kinds = kindsFor(role);
@@ -47,7 +64,7 @@ export function OpenRunDialog({ jobId, role, ranges, benches, standards, onOpene
     rangeId: ranges[0]?.value ?? '',
     kind: kinds[0] ?? 'as_found',
     benchId: '',
-    standardId: '',
+    standardId: preselectedStandard(benches, '', standards)?.id ?? '',
     supplyVoltage: '',
     configuration: '',
     notes: '',
@@ -56,6 +73,8 @@ export function OpenRunDialog({ jobId, role, ranges, benches, standards, onOpene
   const [open, setOpen] = useState(false);
   const [draft, setDraft] = useState(blank);
   const [problem, setProblem] = useState<string | null>(null);
+  // Once the person picks a standard, choosing a bench no longer replaces it with the bench's default.
+  const [standardChosen, setStandardChosen] = useState(false);
   const openRun = useOpenRun({
     onSuccess: (run) => {
       setOpen(false);
@@ -64,9 +83,19 @@ export function OpenRunDialog({ jobId, role, ranges, benches, standards, onOpene
   });
 
   const set = (field: keyof ReturnType<typeof blank>, value: string) => {
-    setDraft((d) => ({ ...d, [field]: value }));
+    setDraft((d) => {
+      const next = { ...d, [field]: value };
+      if (field === 'standardId') return next;
+      const preselected = preselectedStandard(benches, next.benchId, standards)?.id;
+      if (field === 'benchId' && !standardChosen && preselected) next.standardId = preselected;
+      if (field === 'kind' && CALIBRATION_RUN_KINDS.includes(value as RunKind) && !next.standardId && preselected) next.standardId = preselected;
+      return next;
+    });
+    if (field === 'standardId') setStandardChosen(true);
     setProblem(null);
   };
+  const needsStandard = CALIBRATION_RUN_KINDS.includes(draft.kind as RunKind);
+  const preselected = preselectedStandard(benches, draft.benchId, standards);
 
   const error = openRun.error;
   const conflict = error instanceof ApiError && error.status === 409 ? error.message : null;
@@ -80,6 +109,7 @@ export function OpenRunDialog({ jobId, role, ranges, benches, standards, onOpene
     const volts = draft.supplyVoltage.trim() === '' ? null : Number(draft.supplyVoltage.replace(',', '.'));
     if (volts !== null && !(volts >= 0)) return setProblem('The supply voltage is a number of volts');
     const reason = draft.overrideReason.trim();
+    if (needsStandard && !draft.standardId) return setProblem('Choose the reference standard: as-found and as-left results are stated against it');
     if (askReason && reason.length < MIN_OVERRIDE_REASON) return setProblem(`Write why the lapsed standard is used (at least ${MIN_OVERRIDE_REASON} characters)`);
     const body: CreateRunRequest = {
       rangeId: Number(draft.rangeId),
@@ -105,6 +135,7 @@ export function OpenRunDialog({ jobId, role, ranges, benches, standards, onOpene
         onClick={() => {
           openRun.reset();
           setDraft(blank());
+          setStandardChosen(false);
           setProblem(null);
           setOpen(true);
         }}
@@ -161,11 +192,20 @@ export function OpenRunDialog({ jobId, role, ranges, benches, standards, onOpene
               <TextField
                 select
                 label="Reference standard"
+                required={needsStandard}
                 value={draft.standardId}
                 onChange={(e) => set('standardId', e.target.value)}
-                helperText={draft.benchId ? 'Empty: the bench’s default standard' : 'The counter or reference measured against'}
+                helperText={
+                  preselected && preselected.id === draft.standardId
+                    ? `${preselected.bench}’s default standard${needsStandard ? ' (as-found and as-left runs need one)' : ''}`
+                    : needsStandard
+                      ? 'Required: as-found and as-left results are stated against it'
+                      : draft.benchId
+                        ? 'Empty: the bench’s default standard'
+                        : 'The counter or reference measured against'
+                }
               >
-                <MenuItem value="">{draft.benchId ? 'The bench’s default' : 'None'}</MenuItem>
+                {!needsStandard && <MenuItem value="">{draft.benchId ? 'The bench’s default' : 'None'}</MenuItem>}
                 {standards.map((s) => (
                   <MenuItem key={s.value} value={s.value}>
                     {s.label}

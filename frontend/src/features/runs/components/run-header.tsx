@@ -8,15 +8,23 @@ import type { Run } from '@kilocycle/common/types';
 import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 import { Num } from '@/components/ui/num';
 import { instrumentPath, jobPath } from '@/config/paths';
+import { useCurrentUser } from '@/lib/auth';
 import { formatDateTime } from '@/utils/format';
 import { useUpdateRun } from '../api/update-run';
+import { CORRECTABLE_JOB_STATUSES, CorrectRunDialog } from './correct-run-dialog';
+import { RunCorrections } from './run-corrections';
 import { RUN_KIND_LABELS, RunKindChip, RunStatusChip } from './run-labels';
 
 type RunHeaderProps = { run: Run; canWrite: boolean; extra?: ReactNode };
 
-/** Title, where the run belongs, and "Close run" for whoever may write to it. */
+/**
+ * Title, where the run belongs, "Close run" and "Correct run details" for whoever may write to it
+ * (corrections only while the job is open), and the run's corrections from the audit trail.
+ */
 export function RunHeader({ run, canWrite, extra }: RunHeaderProps) {
+  const user = useCurrentUser();
   const [closing, setClosing] = useState(false);
+  const mayCorrect = canWrite && CORRECTABLE_JOB_STATUSES.includes(run.jobStatus);
   const update = useUpdateRun({ onSuccess: () => setClosing(false) });
   return (
     <Box sx={{ mb: 2 }}>
@@ -28,6 +36,7 @@ export function RunHeader({ run, canWrite, extra }: RunHeaderProps) {
         <RunStatusChip status={run.status} />
         <Box sx={{ flex: 1 }} />
         {extra}
+        {mayCorrect && <CorrectRunDialog run={run} role={user.role} />}
         {canWrite && run.status === 'open' && (
           <Button variant="outlined" onClick={() => setClosing(true)}>
             Close run
@@ -68,6 +77,12 @@ export function RunHeader({ run, canWrite, extra }: RunHeaderProps) {
           Lapsed standard used by a lead’s override: {run.standardOverrideReason}
         </Typography>
       )}
+      {run.standardId === null && (run.kind === 'as_found' || run.kind === 'as_left') && (
+        <Typography variant="body2" color="warning.main">
+          No reference standard: set it with “Correct run details” before the job is submitted for review.
+        </Typography>
+      )}
+      {user.role !== 'client' && <RunCorrections runId={run.id} />}
       <ConfirmDialog
         open={closing}
         title="Close this run?"

@@ -86,4 +86,58 @@ describe('<ReadingEntry>', () => {
     expect(counter.value).toBe('1,735.5 kHz');
     expect(fetchMock).not.toHaveBeenCalled();
   });
+
+  it('should show the server\'s refusal of a reading outside the span and store it as typed on one more Enter, with confirmed', async () => {
+    signInAs({ role: 'technician' });
+    const slip = '1900 read as 1.900 kHz, outside this range (1 750–2 000 kHz) by more than 10 % of its span; did you mean 1 900 kHz?';
+    const stored = createReading({ seq: 1, dial: 1900, frequency: 1900 });
+    // The first answer is the refusal; once it is taken, the second (the confirmed reading stored).
+    const routes = [
+      { method: 'POST', path: '/api/runs/7/readings', status: 422, body: { statusCode: 422, error: 'Unprocessable Entity', message: [`readings[0].frequency: ${slip}`] } },
+      { method: 'POST', path: '/api/runs/7/readings', status: 201, body: createAppendAnswer([stored]) },
+    ];
+    const { requests } = mockFetch(routes);
+    const { dial, counter, form, onSaved } = renderEntry();
+
+    fireEvent.change(dial, { target: { value: '1900' } });
+    fireEvent.change(counter, { target: { value: '1900' } });
+    // The early warning, from the same rule the server applies.
+    expect(screen.getByTestId('counter-understood').textContent).toContain('did you mean 1 900.000 kHz?');
+    fireEvent.submit(form);
+
+    const prompt = await screen.findByTestId('confirm-reading');
+    expect(prompt.textContent).toContain(`Not saved — ${slip}`);
+    expect(prompt.textContent).toContain('Press Enter again to store it as typed, or Esc to correct it.');
+    const store = screen.getByRole('button', { name: 'Store as typed' });
+    await waitFor(() => expect(document.activeElement).toBe(store));
+    expect(onSaved).not.toHaveBeenCalled();
+    routes.shift();
+
+    // Enter on the focused button is its click: one keystroke.
+    fireEvent.click(store);
+    await waitFor(() => expect(onSaved).toHaveBeenCalledOnce());
+    expect(requests.map((r) => r.body)).toEqual([
+      { readings: [{ dial: 1900, frequency: '1900' }] },
+      { readings: [{ dial: 1900, frequency: '1900', confirmed: true }] },
+    ]);
+    expect(screen.queryByTestId('confirm-reading')).toBeNull();
+    expect(dial.value).toBe('');
+  });
+
+  it('should go back to the counter with its text selected on Escape, and send nothing', async () => {
+    signInAs({ role: 'technician' });
+    const { requests } = mockFetch([
+      { method: 'POST', path: '/api/runs/7/readings', status: 422, body: { statusCode: 422, error: 'Unprocessable Entity', message: ['readings[0].frequency: 1900 read as 1.900 kHz, outside this range'] } },
+    ]);
+    const { dial, counter, form } = renderEntry();
+    fireEvent.change(dial, { target: { value: '1900' } });
+    fireEvent.change(counter, { target: { value: '1900' } });
+    fireEvent.submit(form);
+    const prompt = await screen.findByTestId('confirm-reading');
+    fireEvent.keyDown(prompt, { key: 'Escape' });
+    await waitFor(() => expect(document.activeElement).toBe(counter));
+    expect(screen.queryByTestId('confirm-reading')).toBeNull();
+    expect(counter.value).toBe('1900');
+    expect(requests).toHaveLength(1);
+  });
 });
