@@ -5,11 +5,12 @@ import { CertificatesController, PublicCertificatesController, SettingsControlle
 import { CertificatesService } from './certificates.service.js';
 import { CheckUploadMiddleware } from './check-upload.middleware.js';
 import { Setting } from './setting.entity.js';
+import { SigningKeyCheck } from './signing-key-check.js';
 
 @Module({
   imports: [TypeOrmModule.forFeature([Certificate, Setting])],
   controllers: [CertificatesController, SettingsController, PublicCertificatesController],
-  providers: [CertificatesService],
+  providers: [CertificatesService, SigningKeyCheck],
   exports: [CertificatesService],
 })
 export class CertificatesModule implements NestModule {

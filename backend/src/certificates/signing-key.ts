@@ -6,6 +6,12 @@ export type SigningKey = { privateKey: KeyObject; publicKey: KeyObject; publicKe
 
 const cache = new Map<string, SigningKey>();
 
+/** Where the key lives: var/keys/certificate-signing.key.pem (private) and .pub.pem. */
+export function signingKeyPaths(varDir: string): { dir: string; privatePath: string; publicPath: string } {
+  const dir = join(varDir, 'keys');
+  return { dir, privatePath: join(dir, 'certificate-signing.key.pem'), publicPath: join(dir, 'certificate-signing.pub.pem') };
+}
+
 /**
  * The server's Ed25519 key for certificates, kept as PEM files under var/keys (never in git), created on
  * first use. keyId: the first 16 hex digits of the SHA-256 of the public key (DER), stored with each
@@ -14,9 +20,7 @@ const cache = new Map<string, SigningKey>();
 export function loadSigningKey(varDir: string): SigningKey {
   const cached = cache.get(varDir);
   if (cached) return cached;
-  const dir = join(varDir, 'keys');
-  const privatePath = join(dir, 'certificate-signing.key.pem');
-  const publicPath = join(dir, 'certificate-signing.pub.pem');
+  const { dir, privatePath, publicPath } = signingKeyPaths(varDir);
   if (!existsSync(privatePath)) {
     mkdirSync(dir, { recursive: true, mode: 0o700 });
     const pair = generateKeyPairSync('ed25519');
