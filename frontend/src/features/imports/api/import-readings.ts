@@ -6,6 +6,8 @@ export type ImportReadingsInput = {
   runId: number;
   file: File;
   mode: ImportMode;
+  /** Store rows outside the range's span as given instead of refusing them (the person has checked them). */
+  confirmed?: boolean;
   mapping: ImportMapping;
   /** Chosen here so the progress can be polled while the upload is still going. */
   importId: string;
@@ -33,11 +35,11 @@ export function newImportId(): string {
 }
 
 /** Uploads the file as multipart field `file`, with the chosen column mapping; bytes sent are reported as they go. */
-export async function importReadings({ runId, file, mode, mapping, importId, onUploadProgress, signal }: ImportReadingsInput): Promise<ImportOutcome> {
+export async function importReadings({ runId, file, mode, confirmed = false, mapping, importId, onUploadProgress, signal }: ImportReadingsInput): Promise<ImportOutcome> {
   const form = new FormData();
   form.append('mapping', JSON.stringify(mapping));
   form.append('file', file, file.name);
-  const params = new URLSearchParams({ mode, importId });
+  const params = new URLSearchParams({ mode, importId, ...(confirmed ? { confirmed: 'true' } : {}) });
   const result = await uploadWithProgress({ path: `/runs/${runId}/imports?${params.toString()}`, body: form, onUploadProgress, signal });
   if (result.ok && isReport(result.data)) return { ok: true, report: result.data };
   const error = toApiError(result.status, result.data);

@@ -3,6 +3,7 @@ import Alert from '@mui/material/Alert';
 import AlertTitle from '@mui/material/AlertTitle';
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
+import Checkbox from '@mui/material/Checkbox';
 import Dialog from '@mui/material/Dialog';
 import DialogActions from '@mui/material/DialogActions';
 import DialogContent from '@mui/material/DialogContent';
@@ -85,6 +86,8 @@ export function ImportReadings({ runId, needsTime, needsDial, disabled, refusal 
   const [readProblem, setReadProblem] = useState<string | null>(null);
   const [mapping, setMapping] = useState<ColumnMapping>({ time: '', dial: '', frequency: '', unit: '', aux: '' });
   const [mode, setMode] = useState<ImportMode>('all');
+  // Rows far outside the range's span are refused as probable unit slips unless the person says they are right.
+  const [confirmed, setConfirmed] = useState(false);
   const [showProblems, setShowProblems] = useState(false);
   const [importId, setImportId] = useState<string | null>(null);
   const [sent, setSent] = useState<{ loaded: number; total: number | null }>({ loaded: 0, total: null });
@@ -98,6 +101,7 @@ export function ImportReadings({ runId, needsTime, needsDial, disabled, refusal 
     setStep('choose');
     setFile(null);
     setPreview(null);
+    setConfirmed(false);
     setReadProblem(null);
     setOutcome(null);
     setImportId(null);
@@ -147,6 +151,7 @@ export function ImportReadings({ runId, needsTime, needsDial, disabled, refusal 
         runId,
         file,
         mode,
+        confirmed,
         mapping: toRequestMapping(mapping),
         importId: id,
         onUploadProgress: setSent,
@@ -284,6 +289,10 @@ export function ImportReadings({ runId, needsTime, needsDial, disabled, refusal 
                   />
                 </RadioGroup>
               </FormControl>
+              <FormControlLabel
+                control={<Checkbox size="small" checked={confirmed} onChange={(e) => setConfirmed(e.target.checked)} />}
+                label="Frequencies far outside the range (more than 10 % of its span) are right: store them as given"
+              />
             </Box>
           )}
 
