@@ -3,8 +3,9 @@ import { CreateLabRecords1764637200000 } from './1764637200000-CreateLabRecords.
 import { CreateCertificates1764643600000 } from './1764643600000-CreateCertificates.js';
 import { CreateStudiesAndAttachments1764654000000 } from './1764654000000-CreateStudiesAndAttachments.js';
 import { AddReadingSortIndexes1764660000000 } from './1764660000000-AddReadingSortIndexes.js';
+import { KeepSignedRecords1764700000000 } from './1764700000000-KeepSignedRecords.js';
 import { AddReadingAuthors1764730000000 } from './1764730000000-AddReadingAuthors.js';
 import { AddCertificateAsFoundDecision1764750000000 } from './1764750000000-AddCertificateAsFoundDecision.js';
 
 /** Every migration, oldest first. Listed as classes so jest (ESM) and the build load the same code. */
-export const MIGRATIONS = [CreateAccounts1764633600000, CreateLabRecords1764637200000, CreateCertificates1764643600000, CreateStudiesAndAttachments1764654000000, AddReadingSortIndexes1764660000000, AddReadingAuthors1764730000000, AddCertificateAsFoundDecision1764750000000];
+export const MIGRATIONS = [CreateAccounts1764633600000, CreateLabRecords1764637200000, CreateCertificates1764643600000, CreateStudiesAndAttachments1764654000000, AddReadingSortIndexes1764660000000, KeepSignedRecords1764700000000, AddReadingAuthors1764730000000, AddCertificateAsFoundDecision1764750000000];
