@@ -11,10 +11,10 @@
 // part of every Debian system (no new dependency in the lockfile), they stream a large dump without
 // holding it in memory, gzip's CRC refuses a damaged stream, and an operator can open the archive with
 // the same standard tools on any machine.
-import { execFileSync, spawnSync } from 'node:child_process';
+import { spawnSync } from 'node:child_process';
 import { createHash, createPublicKey } from 'node:crypto';
 import {
-  chmodSync, copyFileSync, cpSync, existsSync, lstatSync, mkdirSync, mkdtempSync, readdirSync, readFileSync,
+  chmodSync, closeSync, copyFileSync, cpSync, existsSync, lstatSync, mkdirSync, mkdtempSync, openSync, readdirSync, readFileSync,
   renameSync, rmSync, statSync, writeFileSync,
 } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -310,15 +310,22 @@ function restore(archive, { force, keysOnly }) {
     }
 
     sql(`DROP DATABASE IF EXISTS \`${DB_NAME}\`; CREATE DATABASE \`${DB_NAME}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;`);
-    const load = spawnSync('mariadb', ['--no-defaults', `--socket=${DB_SOCK}`, '-uroot', '--default-character-set=utf8mb4', DB_NAME], {
-      input: readFileSync(join(top, 'database.sql')),
-      encoding: 'utf8',
-      maxBuffer: 64 * 1024 * 1024,
-    });
+    // The dump goes to the client as a file on its standard input: streamed, whatever its size.
+    const dumpFd = openSync(join(top, 'database.sql'), 'r');
+    let load;
+    try {
+      load = spawnSync('mariadb', ['--no-defaults', `--socket=${DB_SOCK}`, '-uroot', '--default-character-set=utf8mb4', DB_NAME], {
+        stdio: [dumpFd, 'ignore', 'pipe'],
+        encoding: 'utf8',
+      });
+    } finally {
+      closeSync(dumpFd);
+    }
     if (load.status !== 0) {
       // Leave an empty database rather than half of one, so a retry needs no --force.
       sql(`DROP DATABASE IF EXISTS \`${DB_NAME}\`; CREATE DATABASE \`${DB_NAME}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;`);
-      throw new Stop(`loading the database failed, database ${DB_NAME} is left empty: ${(load.stderr || '').trim().split('\n')[0]}`);
+      const lines = (load.stderr || load.error?.message || '').split('\n').map((l) => l.trim()).filter((l) => l && !/^-+$/.test(l));
+      throw new Stop(`loading the database failed, database ${DB_NAME} is left empty: ${lines.find((l) => l.startsWith('ERROR')) ?? lines[0] ?? 'no message'}`);
     }
     for (const dir of RECORD_DIRS) placeDir(top, dir);
     if (existsSync(join(top, 'files', 'jwt-secret'))) {
