@@ -20,6 +20,11 @@ export class SigningKeyCheck implements OnModuleInit {
   ) {}
 
   async onModuleInit(): Promise<void> {
+    // A database not migrated yet holds no certificates (the health check may run on one).
+    const [table]: Array<{ n: string | number }> = await this.dataSource.query(
+      "SELECT COUNT(*) AS n FROM information_schema.tables WHERE table_schema = DATABASE() AND table_name = 'certificates'",
+    );
+    if (Number(table?.n ?? 0) === 0) return;
     const rows: { keyId: string | null; n: string | number }[] = await this.dataSource.query(
       'SELECT key_id AS keyId, COUNT(*) AS n FROM certificates WHERE signature IS NOT NULL GROUP BY key_id',
     );
