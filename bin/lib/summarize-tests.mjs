@@ -3,6 +3,10 @@ import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 
 const dir = process.argv[2];
+
+function formatSeconds(seconds) {
+  return seconds >= 60 ? `${Math.floor(seconds / 60)} min ${String(seconds % 60).padStart(2, '0')} s` : `${seconds} s`;
+}
 let passed = 0;
 let failed = 0;
 let skipped = 0;
@@ -21,10 +25,19 @@ for (const file of files) {
   const s = (report.numPendingTests ?? 0) + (report.numTodoTests ?? 0);
   // A test file that failed to load has no tests in it but still failed.
   const brokenFiles = (report.testResults ?? []).filter((r) => r.status === 'failed' && (r.assertionResults ?? []).length === 0).length;
-  console.log(`${file.replace(/\.json$/, '').padEnd(9)} ${p} passed, ${f + brokenFiles} failed, ${s} skipped`);
+  const suite = file.replace(/\.json$/, '');
+  const secondsFile = join(dir, `${suite}.seconds`);
+  const took = existsSync(secondsFile) ? `  (${formatSeconds(Number(readFileSync(secondsFile, 'utf8')))})` : '';
+  console.log(`${suite.padEnd(9)} ${p} passed, ${f + brokenFiles} failed, ${s} skipped${took}`);
   passed += p;
   failed += f + brokenFiles;
   skipped += s;
 }
+let total = 0;
+for (const suite of expected) {
+  const secondsFile = join(dir, `${suite}.seconds`);
+  if (existsSync(secondsFile)) total += Number(readFileSync(secondsFile, 'utf8'));
+}
+if (total > 0) console.log(`all suites took ${formatSeconds(total)}`);
 console.log(`${passed} passed, ${failed} failed, ${skipped} skipped`);
 process.exit(failed > 0 || passed === 0 ? 1 : 0);
