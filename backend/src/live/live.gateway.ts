@@ -53,10 +53,10 @@ export class LiveGateway implements OnGatewayInit, OnModuleDestroy {
     });
     // Fan-out after the commit: one encode per batch, whatever the number of watchers.
     this.subscriptions.push(
-      this.writer.stored$.subscribe(({ runId, readings }) => {
+      this.writer.stored$.subscribe(({ runId, author, readings }) => {
         // socket.io encodes a broadcast even for an empty room: skip runs nobody is watching.
         if (!nsp.adapter.rooms.get(runRoom(runId))?.size) return;
-        const event: LiveReadingsEvent = { runId, readings };
+        const event: LiveReadingsEvent = { runId, author, readings };
         nsp.to(runRoom(runId)).emit(LIVE_EVENTS.readings, event);
       }),
       this.writer.excluded$.subscribe(({ runId, reading }) => {

@@ -46,9 +46,11 @@ export type RunWriteContext = {
  */
 export type SpanConfirmation = 'each' | 'all' | 'none';
 
-export type StoredBatch = { runId: number; readings: ReadingView[] };
+/** A stored reading as the writer knows it: the batch's author is kept once, beside the readings. */
+export type StoredReading = Omit<ReadingView, 'author'>;
+export type StoredBatch = { runId: number; author: ReadingAuthor; readings: StoredReading[] };
 export type ExcludedReading = { runId: number; reading: ReadingView };
-export type AppendResult = IngestAck & { stored: ReadingView[] };
+export type AppendResult = IngestAck & { stored: StoredReading[] };
 /** For callers that write many batches as one (CSV import). */
 export type AppendOptions = {
   /** Write inside this transaction instead of one of its own; the caller commits (and pushes to stored$ if it wants). */
@@ -205,7 +207,7 @@ export class ReadingsWriter {
       return { accepted: 0, duplicates: 0, rejected, lastSeq: await this.lastSeq(ctx.runId, options.manager), stored: [] };
     }
     const needsNumbers = rows.some((r) => r.seq === null);
-    const write = async (manager: EntityManager): Promise<{ inserted: number; stored: ReadingView[] }> => {
+    const write = async (manager: EntityManager): Promise<{ inserted: number; stored: StoredReading[] }> => {
       if (needsNumbers) {
         await manager.query('SELECT id FROM runs WHERE id = ? FOR UPDATE', [ctx.runId]);
         const [{ last }] = await manager.query('SELECT COALESCE(MAX(seq), 0) AS last FROM readings WHERE run_id = ?', [ctx.runId]);
@@ -231,9 +233,10 @@ export class ReadingsWriter {
       for (const r of rows) if (!bySeq.has(r.seq!)) bySeq.set(r.seq!, r);
       const iso = receivedAt.toISOString();
       const stored = returned
-        .map(({ id, seq }): ReadingView => {
+        .map(({ id, seq }): StoredReading => {
           const r = bySeq.get(Number(seq))!;
-          return { id: Number(id), seq: Number(seq), t: r.t, dial: r.dial, frequency: r.frequency, aux: r.aux, source, receivedAt: iso, excluded: false, excludedReason: null, author };
+          // No author on each reading: the fan-out would encode it thousands of times a second.
+          return { id: Number(id), seq: Number(seq), t: r.t, dial: r.dial, frequency: r.frequency, aux: r.aux, source, receivedAt: iso, excluded: false, excludedReason: null };
         })
         .sort((a, b) => a.seq - b.seq);
       if (!options.callerAudits && stored.length > 0) {
@@ -250,7 +253,7 @@ export class ReadingsWriter {
     // The INSERT and its audit event commit together; a batch that stores nothing writes no event.
     const { inserted, stored } = options.manager ? await write(options.manager) : await this.dataSource.transaction(write);
     const lastSeq = await this.lastSeq(ctx.runId, options.manager);
-    if (!options.manager && stored.length > 0) this.stored$.next({ runId: ctx.runId, readings: stored });
+    if (!options.manager && stored.length > 0) this.stored$.next({ runId: ctx.runId, author, readings: stored });
     return { accepted: inserted, duplicates: rows.length - inserted, rejected, lastSeq, stored };
   }
 

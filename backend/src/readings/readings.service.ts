@@ -95,8 +95,9 @@ export class ReadingsService {
         rejected: problems,
       });
     }
-    const { stored, ...ack } = await this.writer.append(ctx, inputs, 'manual', { kind: 'user', id: actor.id, name: actor.name });
-    return { ...ack, stored };
+    const author = { kind: 'user' as const, id: actor.id, name: actor.name };
+    const { stored, ...ack } = await this.writer.append(ctx, inputs, 'manual', author);
+    return { ...ack, stored: stored.map((r) => ({ ...r, author })) };
   }
 
   /** Marks a reading as excluded, with the reason; the reading itself never changes. */

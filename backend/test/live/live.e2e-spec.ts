@@ -51,6 +51,9 @@ describe('/live namespace (e2e, MariaDB)', () => {
     const event = await arriving;
     expect(event.runId).toBe(saltmarshRun.runId);
     expect(event.readings.map((r) => [r.seq, r.t, r.frequency, r.source])).toEqual([[1, 1, 7_000_010, 'bridge'], [2, 2, 7_000_020, 'bridge']]);
+    // The batch's author (the bench) once, beside the readings, not on each one.
+    expect(event.author).toMatchObject({ kind: 'bench' });
+    expect(event.readings.every((r) => !('author' in r))).toBe(true);
     const [stored] = await t.dataSource.query('SELECT COUNT(*) AS n FROM readings WHERE run_id = ?', [saltmarshRun.runId]);
     expect(Number(stored.n)).toBe(2);
   });

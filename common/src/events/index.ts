@@ -1,4 +1,4 @@
-import type { DialUnit, IngestAck, Reading, ReadingInput, RunKind } from '../types/lab.js';
+import type { DialUnit, IngestAck, Reading, ReadingAuthor, ReadingInput, RunKind } from '../types/lab.js';
 
 /** Socket.io namespaces and event names shared by the server, the bridge and the browser. */
 export const NAMESPACES = { ingest: '/ingest', live: '/live' } as const;
@@ -101,8 +101,12 @@ export type JoinAck = { ok: true; runId: number; lastSeq: number };
 export type JoinReply = JoinAck | Refusal;
 export type LeaveReply = { ok: true; runId: number } | Refusal;
 
-/** Readings just stored in a run (in seq order), as the bench page and the study pages show them. */
-export type LiveReadingsEvent = { runId: number; readings: Reading[] };
+/**
+ * Readings just stored in a run (in seq order), as the bench page and the study pages show them. Every
+ * reading of a batch has the same author, sent once beside them (not on each of thousands of readings a
+ * second); the page puts it on each reading it keeps.
+ */
+export type LiveReadingsEvent = { runId: number; author: ReadingAuthor | null; readings: Array<Omit<Reading, 'author'>> };
 
 /** A reading just excluded (with its reason): the page marks it and refits without it. */
 export type LiveExclusionEvent = { runId: number; reading: Reading };

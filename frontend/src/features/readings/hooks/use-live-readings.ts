@@ -59,9 +59,11 @@ export function useLiveReadings(runId: number, { enabled = true, onReadings }: U
     });
     socket.on(LIVE_EVENTS.readings, (event: LiveReadingsEvent) => {
       if (event.runId !== runId || event.readings.length === 0) return;
-      queryClient.setQueryData<Reading[]>(key, (current) => mergeReadings(current, event.readings));
+      // The batch's author comes once beside its readings.
+      const readings: Reading[] = event.readings.map((r) => ({ ...r, author: event.author ?? null }));
+      queryClient.setQueryData<Reading[]>(key, (current) => mergeReadings(current, readings));
       setStatus((s) => ({ ...s, lastArrivalAt: Date.now() }));
-      callback.current?.(event.readings);
+      callback.current?.(readings);
     });
 
     return () => {
