@@ -39,6 +39,10 @@ export class User {
   @Column({ type: 'boolean', default: true })
   active: boolean;
 
+  /** Carried in each JWT; raising it ends every session of the user (auth/sessions.service.ts). */
+  @Column({ name: 'token_version', type: 'int', default: 0 })
+  tokenVersion: number;
+
   @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
   createdAt: Date;
 }
