@@ -11,11 +11,18 @@ export class IngestException extends Error {
   }
 }
 
-/** Any error as the refusal a client receives; unexpected errors become `server_error` (try again). */
+/**
+ * Any error as the refusal a client receives; unexpected errors become `server_error` (try again) with a
+ * plain sentence: their detail (a database address, SQL) stays in the server's log, see {@link errorDetail}.
+ */
 export function toRefusal(error: unknown): Refusal {
   if (error instanceof IngestException) return { ok: false, code: error.code, error: error.message };
-  const detail = error instanceof Error ? error.message : String(error);
-  return { ok: false, code: 'server_error', error: `the server could not handle this just now (${detail}); nothing was stored, send it again` };
+  return { ok: false, code: 'server_error', error: 'the server could not handle this just now; nothing was stored, send it again' };
+}
+
+/** What went wrong, for the server's log only. */
+export function errorDetail(error: unknown): string {
+  return error instanceof Error ? error.message : String(error);
 }
 
 /** Reads a socket payload: an object, or the same object as JSON text (some bench scripts send strings). */

@@ -11,7 +11,7 @@ import {
   type RefusedEvent,
 } from '@kilocycle/common/events';
 import { BenchesService, type BenchIdentity } from '../benches/benches.service.js';
-import { IngestException, toRefusal } from './ingest.exception.js';
+import { errorDetail, IngestException, toRefusal } from './ingest.exception.js';
 import { IngestService } from './ingest.service.js';
 
 type BenchSocketData = { bench: BenchIdentity; token: string; verifiedAt: number; runs: Set<number> };
@@ -57,7 +57,11 @@ export class IngestGateway implements OnGatewayInit, OnModuleDestroy {
           socket.data = data;
           next();
         })
-        .catch((error: unknown) => next(error instanceof Error ? error : new Error(String(error))));
+        .catch((error: unknown) => {
+          // The detail (a database address, SQL) is for the server's log, not for the bench.
+          this.logger.warn(`bench token check failed: ${errorDetail(error)}`);
+          next(connectError('the server could not check the bench token just now; try again in a moment', 'server_error'));
+        });
     });
     this.subscription = this.benches.credentialsChanged$.subscribe((benchId) => this.dropBench(benchId));
   }
@@ -103,7 +107,7 @@ export class IngestGateway implements OnGatewayInit, OnModuleDestroy {
 
   private refuse(socket: BenchSocket, request: RefusedEvent['request'], payload: unknown, error: unknown) {
     const refusal = toRefusal(error);
-    if (refusal.code === 'server_error') this.logger.warn(`bench "${socket.data.bench?.name}": ${request} failed: ${refusal.error}`);
+    if (refusal.code === 'server_error') this.logger.warn(`bench "${socket.data.bench?.name}": ${request} failed: ${errorDetail(error)}`);
     const runId = payload !== null && typeof payload === 'object' ? (payload as { runId?: unknown }).runId : undefined;
     const event: RefusedEvent = { request, runId: typeof runId === 'number' ? runId : null, code: refusal.code, reason: refusal.error };
     (socket as Socket).emit(INGEST_EVENTS.refused, event);

@@ -17,8 +17,10 @@ const BATCH_EXAMPLE = '{runId, readings: [{seq, t?, dial?, frequency, aux?}, …
 @Injectable()
 export class IngestService {
   /**
-   * The highest seq received per run in this process, counted before the commit, so a bridge that
-   * attaches while another is streaming numbers after the other's batches in flight as well.
+   * The highest seq stored per run by this process. It moves only from what the writer stored: a
+   * refused reading (seq 2147483647 with a bad frequency, say) must not push every later bridge on the
+   * run past the limit. A second bridge that numbers into a batch still in flight gets conflictSeqs
+   * back and renumbers.
    */
   private readonly highWater = new Map<number, number>();
 
@@ -76,23 +78,22 @@ export class IngestService {
     const inputs: ReadingInput[] = [];
     const indexOf: number[] = [];
     const rejected: IngestAck['rejected'] = [];
-    let highest = 0;
     readings.forEach((reading: unknown, index) => {
       const seq = reading !== null && typeof reading === 'object' ? (reading as { seq?: unknown }).seq : undefined;
       if (reading !== null && typeof reading === 'object' && (seq === undefined || seq === null)) {
         rejected.push({ seq: null, index, field: 'seq', reason: 'seq is required from a bench: number readings after the lastSeq the attach answered' });
         return;
       }
-      if (typeof seq === 'number' && Number.isInteger(seq) && seq > highest) highest = seq;
       inputs.push(reading as ReadingInput);
       indexOf.push(index);
     });
-    if (highest > (this.highWater.get(runId) ?? 0)) this.highWater.set(runId, highest);
     if (inputs.length === 0) {
       return { ok: true, runId, accepted: 0, duplicates: 0, rejected, lastSeq: await this.writer.lastSeq(runId), duplicateSeqs: [], conflictSeqs: [] };
     }
 
     const result = await this.appendRetrying(bench, ctx, inputs);
+    const storedTop = result.stored.reduce((top, r) => Math.max(top, r.seq), 0);
+    if (storedTop > (this.highWater.get(runId) ?? 0)) this.highWater.set(runId, storedTop);
     for (const r of result.rejected) rejected.push({ ...r, index: indexOf[r.index] ?? r.index });
     rejected.sort((a, b) => a.index - b.index);
     const { same, taken } = result.duplicates > 0 ? await this.sortDuplicates(runId, notStored(inputs, result.rejected, result.stored)) : { same: [], taken: [] };

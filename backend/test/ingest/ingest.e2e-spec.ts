@@ -1,5 +1,7 @@
 import type { Socket } from 'socket.io-client';
 import { INGEST_EVENTS, NAMESPACES, type AttachReply, type IngestBatchReply, type RefusedEvent } from '@kilocycle/common/events';
+import { jest } from '@jest/globals';
+import { ReadingsWriter } from '../../src/readings/readings-writer.service.js';
 import { DEMO_CUSTOMERS } from '../../src/seed/demo-seed.js';
 import { createTestApp, type TestApp } from '../support/test-app.js';
 import { connect, createBench, createRun, listen, organizationId, readingCount, request, type RunFixture } from './ingest-fixtures.js';
@@ -206,6 +208,48 @@ describe('/ingest namespace (e2e, MariaDB)', () => {
       }));
       for (const list of acks) expect(list.every((a) => a.ok && a.accepted === 200)).toBe(true);
       for (const { r } of runs) expect(await readingCount(t.dataSource, r.runId)).toBe(1000);
+    });
+  });
+
+  describe('refusals', () => {
+    it('should not let a refused reading with the largest seq move the numbering of later bridges', async () => {
+      const fresh = await createRun(t.dataSource, { organizationId: saltmarsh, benchId: bench.benchId });
+      const first = await attached(bench.token, fresh.runId);
+      // 2147483647 is the largest seq the column holds; the reading is refused for its frequency.
+      const refused = await send(first, { runId: fresh.runId, readings: [{ seq: 2_147_483_647, t: 1, frequency: -1 }] });
+      expect(refused).toMatchObject({ ok: true, accepted: 0, rejected: [{ seq: 2_147_483_647, field: 'frequency' }] });
+      first.disconnect();
+      // A later bridge on the same run is told nothing was stored and numbers from 1.
+      const later = await connect(url, NAMESPACES.ingest, bench.token, sockets);
+      expect(await request<AttachReply>(later, INGEST_EVENTS.attach, { runId: fresh.runId })).toMatchObject({ ok: true, lastSeq: 0 });
+      expect(await send(later, { runId: fresh.runId, readings: readings(1, 5) })).toEqual({
+        ok: true, runId: fresh.runId, accepted: 5, duplicates: 0, rejected: [], lastSeq: 5, duplicateSeqs: [], conflictSeqs: [],
+      });
+      const third = await connect(url, NAMESPACES.ingest, bench.token, sockets);
+      expect(await request<AttachReply>(third, INGEST_EVENTS.attach, { runId: fresh.runId })).toMatchObject({ ok: true, lastSeq: 5 });
+      expect(await readingCount(t.dataSource, fresh.runId)).toBe(5);
+    });
+
+    it('should refuse with a plain sentence when the database fails, keeping its address and SQL out of the answer', async () => {
+      const socket = await attached();
+      const events: RefusedEvent[] = [];
+      socket.on(INGEST_EVENTS.refused, (e: RefusedEvent) => events.push(e));
+      // What mysql2 says when the database is unreachable mid-batch.
+      const failure = Object.assign(new Error('connect ECONNREFUSED 127.0.0.1:3317 while running INSERT IGNORE INTO readings (run_id, seq) VALUES (1, 2)'), {
+        code: 'ECONNREFUSED', errno: -111, address: '127.0.0.1', port: 3317,
+      });
+      const writer = t.app.get(ReadingsWriter);
+      const spy = jest.spyOn(writer, 'append').mockRejectedValueOnce(failure);
+      try {
+        const reply = await send(socket, { runId: run.runId, readings: readings(900, 1) });
+        expect(reply).toMatchObject({ ok: false, code: 'server_error' });
+        const text = JSON.stringify([reply, events]);
+        expect(text).toContain('nothing was stored');
+        for (const leak of ['127.0.0.1', '3317', 'ECONNREFUSED', 'INSERT', 'readings (']) expect(text).not.toContain(leak);
+        expect(events).toHaveLength(1);
+      } finally {
+        spy.mockRestore();
+      }
     });
   });
 });

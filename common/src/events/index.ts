@@ -57,7 +57,7 @@ export type IngestErrorCode =
 export type Refusal = { ok: false; code: IngestErrorCode; error: string };
 
 /** `connect_error` data when a handshake is refused. */
-export type ConnectRefusal = { code: 'no_token' | 'bad_token' | 'bench_inactive' | 'bad_session' };
+export type ConnectRefusal = { code: 'no_token' | 'bad_token' | 'bench_inactive' | 'bad_session' | 'server_error' };
 
 export type AttachRequest = { runId: number };
 
