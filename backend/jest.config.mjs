@@ -9,6 +9,8 @@ export default {
     '^(\\.{1,2}/.*)\\.js$': '$1',
   },
   transform: { '^.+\\.ts$': ['ts-jest', { useESM: true, tsconfig: '<rootDir>/tsconfig.spec.json' }] },
+  // Answers @nestjs/throttler's one require of ESM-only @nestjs/common (see that file).
+  resolver: '<rootDir>/test/support/jest-resolver.cjs',
   testTimeout: 60000,
   maxWorkers: 1,
 };

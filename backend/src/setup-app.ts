@@ -1,17 +1,20 @@
 import { ValidationPipe, type INestApplication } from '@nestjs/common';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import { DocumentBuilder, SwaggerModule } from '@nestjs/swagger';
-import type { NextFunction, Request, Response } from 'express';
+import { json, urlencoded, type NextFunction, type Request, type Response } from 'express';
 import helmet from 'helmet';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import type { AppConfig } from './config/app-config.js';
 import { APP_VERSION } from './health/health.controller.js';
+import { MAX_JSON_BODY, verifyFormBody, verifyJsonBody } from './shared/json-body.js';
 
 /** Everything main.ts and the e2e tests both need: prefix, validation, headers, docs, the built frontend. */
 export function setupApp(app: INestApplication, config: AppConfig): void {
   const express = app as NestExpressApplication;
-  express.set('trust proxy', 'loopback');
+  // X-Forwarded-For only from the proxies named in KC_TRUSTED_PROXIES (none by default): otherwise any
+  // local client could rotate it and sidestep the per-address sign-in limits.
+  express.set('trust proxy', config.trustedProxies.length > 0 ? config.trustedProxies : false);
   app.setGlobalPrefix('api');
   app.useGlobalPipes(
     new ValidationPipe({ whitelist: true, forbidNonWhitelisted: true, transform: true, stopAtFirstError: false }),
@@ -28,6 +31,10 @@ export function setupApp(app: INestApplication, config: AppConfig): void {
       },
     }),
   );
+  // Our own parsers, after the headers: size, nesting depth and UTF-8 are checked before validation. Nest
+  // sees parsers named jsonParser/urlencodedParser already in place and does not add its defaults.
+  app.use(json({ limit: MAX_JSON_BODY, verify: verifyJsonBody }));
+  app.use(urlencoded({ limit: MAX_JSON_BODY, extended: true, verify: verifyFormBody }));
   const document = SwaggerModule.createDocument(
     app,
     new DocumentBuilder().setTitle('Kilocycle API').setVersion(APP_VERSION).addBearerAuth().build(),

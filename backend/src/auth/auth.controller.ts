@@ -1,10 +1,11 @@
-import { Body, Controller, Get, HttpCode, Ip, Post } from '@nestjs/common';
+import { Body, Controller, Get, HttpCode, Ip, Post, UseInterceptors } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { LoginResponse, SessionUser } from '@kilocycle/common/types';
 import type { AuthUser } from './auth-user.js';
 import { AuthService } from './auth.service.js';
 import { CurrentUser, Public } from './decorators.js';
 import { LoginDto } from './dto/login.dto.js';
+import { RetryAfterInterceptor } from './sign-in-throttle.js';
 
 @ApiTags('auth')
 @Controller('auth')
@@ -14,6 +15,7 @@ export class AuthController {
   @Public()
   @Post('login')
   @HttpCode(200)
+  @UseInterceptors(RetryAfterInterceptor)
   login(@Body() body: LoginDto, @Ip() address: string): Promise<LoginResponse> {
     return this.auth.login(body.email, body.password, address);
   }

@@ -8,17 +8,25 @@ import { AuthController } from './auth.controller.js';
 import { AuthGuard } from './auth.guard.js';
 import { AuthService } from './auth.service.js';
 import { RevokedToken } from './revoked-token.entity.js';
+import { SessionsService } from './sessions.service.js';
+import { SignInThrottleModule } from './sign-in-throttle.module.js';
 
 @Module({
   imports: [
     TypeOrmModule.forFeature([User, RevokedToken]),
+    SignInThrottleModule,
     JwtModule.registerAsync({
       inject: [APP_CONFIG],
-      useFactory: (config: AppConfig) => ({ secret: config.jwtSecret, signOptions: { algorithm: 'HS256' } }),
+      // The algorithm is pinned both ways: a token signed with any other (HS512, none) is refused.
+      useFactory: (config: AppConfig) => ({
+        secret: config.jwtSecret,
+        signOptions: { algorithm: 'HS256' },
+        verifyOptions: { algorithms: ['HS256'] },
+      }),
     }),
   ],
   controllers: [AuthController],
-  providers: [AuthService, { provide: APP_GUARD, useClass: AuthGuard }],
-  exports: [AuthService],
+  providers: [AuthService, SessionsService, { provide: APP_GUARD, useClass: AuthGuard }],
+  exports: [AuthService, SessionsService],
 })
 export class AuthModule {}

@@ -1,4 +1,4 @@
-import { HttpException, HttpStatus, Inject, Injectable, UnauthorizedException } from '@nestjs/common';
+import { Inject, Injectable, UnauthorizedException } from '@nestjs/common';
 import { JwtService } from '@nestjs/jwt';
 import { InjectRepository } from '@nestjs/typeorm';
 import bcrypt from 'bcryptjs';
@@ -9,8 +9,9 @@ import { AuditService } from '../audit/audit.service.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { User } from '../users/user.entity.js';
 import type { AuthUser, JwtClaims } from './auth-user.js';
-import { LoginThrottle } from './login-throttle.js';
 import { RevokedToken } from './revoked-token.entity.js';
+import { SessionsService } from './sessions.service.js';
+import { SignInThrottle, TooManyAttemptsException } from './sign-in-throttle.js';
 
 const BAD_CREDENTIALS = 'E-mail or password is not right';
 
@@ -26,7 +27,6 @@ export function toSessionUser(user: User): SessionUser {
 
 @Injectable()
 export class AuthService {
-  readonly throttle = new LoginThrottle();
   /**
    * When a throttled attempt was last audited, per e-mail and address: a flood of refused attempts
    * writes one event a minute for each pair, not one per request (the database is not the flood's target).
@@ -39,13 +39,18 @@ export class AuthService {
     private readonly jwt: JwtService,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
     private readonly audit: AuditService,
+    private readonly sessions: SessionsService,
+    private readonly throttle: SignInThrottle,
   ) {}
 
   async login(email: string, password: string, address: string): Promise<LoginResponse> {
-    const keys = [`account:${email.toLowerCase()}`, `address:${address}`];
-    if (this.throttle.isBlocked(keys)) {
-      if (this.firstThrottledThisMinute(email, address)) await this.refused(email, address, { reason: 'too many failed sign-ins', accountId: null });
-      throw new HttpException('Too many failed sign-ins; wait a minute and try again', HttpStatus.TOO_MANY_REQUESTS);
+    try {
+      await this.throttle.checkSignIn(email, address);
+    } catch (error) {
+      if (error instanceof TooManyAttemptsException && this.firstThrottledThisMinute(email, address)) {
+        await this.refused(email, address, { reason: 'too many failed sign-ins', accountId: null });
+      }
+      throw error;
     }
     const user = await this.users
       .createQueryBuilder('u')
@@ -56,11 +61,11 @@ export class AuthService {
       .getOne();
     const ok = await bcrypt.compare(password, user?.passwordHash ?? DUMMY_HASH);
     if (!user || !ok) {
-      this.throttle.recordFailure(keys);
+      await this.throttle.recordSignInFailure(email, address);
       await this.refused(email, address, user ? { reason: 'wrong password', accountId: user.id } : null);
       throw new UnauthorizedException(BAD_CREDENTIALS);
     }
-    const claims: JwtClaims = { sub: user.id, role: user.role, org: user.organizationId, jti: randomUUID() };
+    const claims: JwtClaims = { sub: user.id, role: user.role, org: user.organizationId, jti: randomUUID(), tv: user.tokenVersion };
     const accessToken = await this.jwt.signAsync(claims, { expiresIn: this.config.jwtTtlSeconds });
     await this.audit.record({ actorId: user.id, entity: 'user', entityId: user.id, action: 'sign_in', changes: { email: user.email, address } });
     return { accessToken, user: toSessionUser(user) };
@@ -93,7 +98,11 @@ export class AuthService {
     return true;
   }
 
-  /** Checks a bearer token and reloads the user, so deactivation and sign-out take effect at once. */
+  /**
+   * The one session check, for every REST request and every /live socket event: a valid HS256 token,
+   * not signed out, of an active user in an active organisation, whose token version is still current
+   * (one primary-key read of the user, joined to the organisation).
+   */
   async authenticate(token: string): Promise<AuthUser> {
     let claims: JwtClaims;
     try {
@@ -105,7 +114,7 @@ export class AuthService {
       this.users.findOne({ where: { id: claims.sub }, relations: { organization: true } }),
       this.revoked.existsBy({ jti: claims.jti }),
     ]);
-    if (!user || !user.active || !user.organization.active || revoked) {
+    if (!user || !user.active || !user.organization.active || revoked || user.tokenVersion !== claims.tv) {
       throw new UnauthorizedException('Session is not valid any more; sign in again');
     }
     return { ...toSessionUser(user), jti: claims.jti, exp: claims.exp ?? 0 };
@@ -122,6 +131,8 @@ export class AuthService {
         .execute();
       await this.audit.record({ actorId: user.id, entity: 'user', entityId: user.id, action: 'sign_out', changes: { email: user.email, address } }, manager);
     });
+    // This session only (other devices stay signed in); its sockets close now.
+    this.sessions.announce({ kind: 'token', jti: user.jti });
     await this.revoked.delete({ expiresAt: LessThan(new Date()) });
   }
 }

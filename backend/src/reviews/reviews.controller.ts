@@ -1,10 +1,12 @@
-import { Body, Controller, Get, HttpCode, Param, ParseIntPipe, Post } from '@nestjs/common';
+import { Body, Controller, Get, HttpCode, Post, UseInterceptors } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { CertificateDetail, JobReview } from '@kilocycle/common/types';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Roles } from '../auth/decorators.js';
+import { RetryAfterInterceptor } from '../auth/sign-in-throttle.js';
 import { ReturnJobDto, SignJobDto, SubmitJobDto } from './dto/review.dto.js';
 import { ReviewsService } from './reviews.service.js';
+import { IdParam } from '../shared/id-param.decorator.js';
 
 @ApiTags('reviews')
 @ApiBearerAuth()
@@ -14,28 +16,29 @@ export class ReviewsController {
 
   @Roles('admin', 'lead', 'technician', 'engineer')
   @Get('reviews/:jobId')
-  review(@CurrentUser() user: AuthUser, @Param('jobId', ParseIntPipe) jobId: number): Promise<JobReview> {
+  review(@CurrentUser() user: AuthUser, @IdParam('jobId') jobId: number): Promise<JobReview> {
     return this.reviews.review(user, jobId);
   }
 
   @Roles('technician', 'lead', 'admin')
   @Post('jobs/:id/submit')
   @HttpCode(200)
-  submit(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Body() body: SubmitJobDto): Promise<JobReview> {
+  submit(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Body() body: SubmitJobDto): Promise<JobReview> {
     return this.reviews.submit(user, id, body.comment ?? null);
   }
 
   @Roles('lead')
   @Post('jobs/:id/return')
   @HttpCode(200)
-  returnJob(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Body() body: ReturnJobDto): Promise<JobReview> {
+  returnJob(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Body() body: ReturnJobDto): Promise<JobReview> {
     return this.reviews.returnJob(user, id, body.comment);
   }
 
   @Roles('lead')
   @Post('jobs/:id/sign')
   @HttpCode(200)
-  sign(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Body() body: SignJobDto): Promise<CertificateDetail> {
+  @UseInterceptors(RetryAfterInterceptor)
+  sign(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Body() body: SignJobDto): Promise<CertificateDetail> {
     return this.reviews.sign(user, id, body.password, body.meaning);
   }
 }

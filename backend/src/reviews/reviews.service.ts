@@ -1,4 +1,4 @@
-import { BadRequestException, ConflictException, ForbiddenException, HttpException, HttpStatus, Inject, Injectable, Logger } from '@nestjs/common';
+import { BadRequestException, ConflictException, ForbiddenException, Inject, Injectable, Logger } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import bcrypt from 'bcryptjs';
 import type { DataSource, EntityManager } from 'typeorm';
@@ -6,7 +6,7 @@ import { SIGNING_MEANING, type RunKind, type CertificateDetail, type JobReview a
 import { selfSignRefusal } from '@kilocycle/common/rules';
 import { AuditService } from '../audit/audit.service.js';
 import type { AuthUser } from '../auth/auth-user.js';
-import { LoginThrottle } from '../auth/login-throttle.js';
+import { SignInThrottle } from '../auth/sign-in-throttle.js';
 import { findScopedJob } from '../budgets/job-access.js';
 import { computeJobResults } from '../budgets/job-results.js';
 import { Certificate } from '../certificates/certificate.entity.js';
@@ -30,15 +30,14 @@ const SUBMITTABLE = ['in_progress', 'returned'] as const;
 @Injectable()
 export class ReviewsService {
   private readonly logger = new Logger('Reviews');
-  /** Wrong passwords at signing, per lead: five a minute, then a pause. */
-  readonly signThrottle = new LoginThrottle(5, 60_000);
-
   constructor(
     @InjectDataSource() private readonly dataSource: DataSource,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
     private readonly audit: AuditService,
     private readonly mail: MailService,
     private readonly certificates: CertificatesService,
+    /** Wrong passwords at signing, per lead (numbers in sign-in-throttle.ts). */
+    private readonly signThrottle: SignInThrottle,
   ) {}
 
   private async changeStatus(manager: EntityManager, actor: AuthUser, job: Job, to: Job['status'], action: 'submit' | 'return', comment: string | null): Promise<void> {
@@ -130,13 +129,10 @@ export class ReviewsService {
   async sign(actor: AuthUser, jobId: number, password: string, meaning: string): Promise<CertificateDetail> {
     const job = await findScopedJob(this.dataSource.manager, actor, jobId);
     if (meaning !== SIGNING_MEANING) throw new BadRequestException(`meaning must be "${SIGNING_MEANING}"`);
-    const throttleKey = [`sign:${actor.id}`];
-    if (this.signThrottle.isBlocked(throttleKey)) {
-      throw new HttpException('Too many wrong passwords at signing; wait a minute and try again', HttpStatus.TOO_MANY_REQUESTS);
-    }
+    await this.signThrottle.checkSignOff(actor.id);
     const me = await this.dataSource.getRepository(User).createQueryBuilder('u').addSelect('u.passwordHash').where('u.id = :id', { id: actor.id }).getOne();
     if (!me || !(await bcrypt.compare(password, me.passwordHash))) {
-      this.signThrottle.recordFailure(throttleKey);
+      await this.signThrottle.recordSignOffFailure(actor.id);
       await this.refuse(actor, job, 'wrong password');
       throw new ForbiddenException('Password is not right: the job was not signed');
     }

@@ -54,24 +54,4 @@ describe('auth (e2e, MariaDB)', () => {
   });
 });
 
-describe('sign-in throttle (e2e)', () => {
-  let t: TestApp;
-  beforeAll(async () => {
-    t = await createTestApp({ reset: false });
-  });
-  afterAll(async () => {
-    await t.close();
-  });
-
-  it('should answer 429 after 10 failed tries in a minute, even with the right password', async () => {
-    for (let i = 0; i < 10; i += 1) {
-      const res = await t.http.post('/api/auth/login').send({ email: DEMO.engineer, password: `wrong-password-${i}` });
-      expect(res.status).toBe(401);
-    }
-    const blocked = await t.http.post('/api/auth/login').send({ email: DEMO.engineer, password: 'kilocycle-demo' });
-    expect(blocked.status).toBe(429);
-    // The address is blocked too (all test requests come from one address), so another account is refused.
-    const other = await t.http.post('/api/auth/login').send({ email: DEMO.lead, password: 'kilocycle-demo' });
-    expect(other.status).toBe(429);
-  });
-});
+// Throttling of sign-in and sign-off: sign-in-protection.e2e-spec.ts.
