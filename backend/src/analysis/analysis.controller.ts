@@ -1,4 +1,4 @@
-import { Controller, Get, Param, ParseIntPipe, Query, UseFilters } from '@nestjs/common';
+import { Controller, Get, Query, UseFilters } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { BandPlanResponse, RunAnalysis } from '@kilocycle/common/types';
 import type { AuthUser } from '../auth/auth-user.js';
@@ -8,6 +8,7 @@ import { AnalysisService } from './analysis.service.js';
 import { BandPlanService } from './band-plan.service.js';
 import { RunAnalysisQueryDto } from './dto/analysis-query.dto.js';
 import { MetrologyErrorFilter } from './metrology-error.filter.js';
+import { IdParam } from '../shared/id-param.decorator.js';
 
 @ApiTags('analysis')
 @ApiBearerAuth()
@@ -20,12 +21,12 @@ export class AnalysisController {
   ) {}
 
   @Get('runs/:id/analysis')
-  analyse(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Query() query: RunAnalysisQueryDto): Promise<RunAnalysis> {
+  analyse(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Query() query: RunAnalysisQueryDto): Promise<RunAnalysis> {
     return this.analysis.analyse(user, id, query);
   }
 
   @Get('instruments/:id/band-plan')
-  plan(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Query() query: BandPlanQueryDto): Promise<BandPlanResponse> {
+  plan(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Query() query: BandPlanQueryDto): Promise<BandPlanResponse> {
     return this.bandPlan.plan(user, id, query.region ?? 2, query.wantedHz);
   }
 }

@@ -1,4 +1,4 @@
-import { Controller, Delete, Get, HttpCode, Param, ParseIntPipe, Post, Query, Req, Res } from '@nestjs/common';
+import { Controller, Delete, Get, HttpCode, Post, Query, Req, Res } from '@nestjs/common';
 import { ApiBearerAuth, ApiConsumes, ApiTags } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import type { Attachment as AttachmentView, ListResponse } from '@kilocycle/common/types';
@@ -6,6 +6,7 @@ import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Roles } from '../auth/decorators.js';
 import { AttachmentsService } from './attachments.service.js';
 import { ServeAttachmentQueryDto } from './dto/attachment.dto.js';
+import { IdParam } from '../shared/id-param.decorator.js';
 
 @ApiTags('attachments')
 @ApiBearerAuth()
@@ -17,37 +18,37 @@ export class AttachmentsController {
   @Roles('admin', 'lead', 'technician')
   @ApiConsumes('multipart/form-data')
   @Post('instruments/:id/attachments')
-  attachToInstrument(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<AttachmentView> {
+  attachToInstrument(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<AttachmentView> {
     return this.attachments.upload(user, 'instrument', id, req, res);
   }
 
   @Roles('admin', 'lead', 'technician')
   @ApiConsumes('multipart/form-data')
   @Post('jobs/:id/attachments')
-  attachToJob(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<AttachmentView> {
+  attachToJob(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<AttachmentView> {
     return this.attachments.upload(user, 'job', id, req, res);
   }
 
   @Get('instruments/:id/attachments')
-  listForInstrument(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number): Promise<ListResponse<AttachmentView>> {
+  listForInstrument(@CurrentUser() user: AuthUser, @IdParam('id') id: number): Promise<ListResponse<AttachmentView>> {
     return this.attachments.list(user, 'instrument', id);
   }
 
   @Get('jobs/:id/attachments')
-  listForJob(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number): Promise<ListResponse<AttachmentView>> {
+  listForJob(@CurrentUser() user: AuthUser, @IdParam('id') id: number): Promise<ListResponse<AttachmentView>> {
     return this.attachments.list(user, 'job', id);
   }
 
   /** The bytes, with the type found at upload; ?download=true to save instead of show. */
   @Get('attachments/:id')
-  serve(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Query() query: ServeAttachmentQueryDto, @Res() res: Response): Promise<void> {
+  serve(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Query() query: ServeAttachmentQueryDto, @Res() res: Response): Promise<void> {
     return this.attachments.serve(user, id, query.download === true, res);
   }
 
   @Roles('admin', 'lead')
   @HttpCode(204)
   @Delete('attachments/:id')
-  remove(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number): Promise<void> {
+  remove(@CurrentUser() user: AuthUser, @IdParam('id') id: number): Promise<void> {
     return this.attachments.remove(user, id);
   }
 }

@@ -1,10 +1,11 @@
-import { Body, Controller, Delete, Get, HttpCode, Param, ParseIntPipe, Patch, Post, Query } from '@nestjs/common';
+import { Body, Controller, Delete, Get, HttpCode, Patch, Post, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { Bench as BenchView, BenchTokenResponse, ListResponse } from '@kilocycle/common/types';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Roles } from '../auth/decorators.js';
 import { BenchesService } from './benches.service.js';
 import { CreateBenchDto, ListBenchesQueryDto, UpdateBenchDto } from './dto/bench.dto.js';
+import { IdParam } from '../shared/id-param.decorator.js';
 
 @ApiTags('benches')
 @ApiBearerAuth()
@@ -20,7 +21,7 @@ export class BenchesController {
 
   @Roles('admin', 'lead', 'technician', 'engineer')
   @Get(':id')
-  get(@Param('id', ParseIntPipe) id: number): Promise<BenchView> {
+  get(@IdParam('id') id: number): Promise<BenchView> {
     return this.benches.get(id);
   }
 
@@ -32,21 +33,21 @@ export class BenchesController {
 
   @Roles('admin')
   @Patch(':id')
-  update(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Body() body: UpdateBenchDto): Promise<BenchView> {
+  update(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Body() body: UpdateBenchDto): Promise<BenchView> {
     return this.benches.update(user, id, body);
   }
 
   /** Issues a fresh bridge token; the answer is the only time it is shown. */
   @Roles('admin')
   @Post(':id/token')
-  issueToken(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number): Promise<BenchTokenResponse> {
+  issueToken(@CurrentUser() user: AuthUser, @IdParam('id') id: number): Promise<BenchTokenResponse> {
     return this.benches.issueToken(user, id);
   }
 
   @Roles('admin')
   @Delete(':id/token')
   @HttpCode(200)
-  revokeToken(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number): Promise<BenchView> {
+  revokeToken(@CurrentUser() user: AuthUser, @IdParam('id') id: number): Promise<BenchView> {
     return this.benches.revokeToken(user, id);
   }
 }

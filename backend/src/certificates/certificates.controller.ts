@@ -6,7 +6,6 @@ import {
   HttpCode,
   NotFoundException,
   Param,
-  ParseIntPipe,
   Patch,
   Post,
   Query,
@@ -29,9 +28,10 @@ import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Public, Roles } from '../auth/decorators.js';
 import { CertificatesService } from './certificates.service.js';
 import { AmendCertificateDto, ListCertificatesQueryDto, UpdateSettingsDto, WithdrawCertificateDto } from './dto/certificate.dto.js';
+import { IdParam } from '../shared/id-param.decorator.js';
 
 /** Anything but a whole number (a file name, a path) is simply not found. */
-const CertificateId = new ParseIntPipe({ exceptionFactory: () => new NotFoundException('Certificate not found') });
+const CertificateId = () => IdParam('id', { refuse: () => new NotFoundException('Certificate not found') });
 
 @ApiTags('certificates')
 @ApiBearerAuth()
@@ -46,12 +46,12 @@ export class CertificatesController {
   }
 
   @Get(':id')
-  get(@CurrentUser() user: AuthUser, @Param('id', CertificateId) id: number): Promise<CertificateDetail> {
+  get(@CurrentUser() user: AuthUser, @CertificateId() id: number): Promise<CertificateDetail> {
     return this.certificates.get(user, id);
   }
 
   @Get(':id/pdf')
-  async pdf(@CurrentUser() user: AuthUser, @Param('id', CertificateId) id: number, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
+  async pdf(@CurrentUser() user: AuthUser, @CertificateId() id: number, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
     const file = await this.certificates.pdf(user, id);
     res.set({
       'Content-Type': 'application/pdf',
@@ -64,14 +64,14 @@ export class CertificatesController {
   @Roles('lead')
   @Post(':id/amend')
   @HttpCode(200)
-  amend(@CurrentUser() user: AuthUser, @Param('id', CertificateId) id: number, @Body() body: AmendCertificateDto): Promise<CertificateDetail> {
+  amend(@CurrentUser() user: AuthUser, @CertificateId() id: number, @Body() body: AmendCertificateDto): Promise<CertificateDetail> {
     return this.certificates.amend(user, id, body);
   }
 
   @Roles('lead')
   @Post(':id/withdraw')
   @HttpCode(200)
-  withdraw(@CurrentUser() user: AuthUser, @Param('id', CertificateId) id: number, @Body() body: WithdrawCertificateDto): Promise<CertificateDetail> {
+  withdraw(@CurrentUser() user: AuthUser, @CertificateId() id: number, @Body() body: WithdrawCertificateDto): Promise<CertificateDetail> {
     return this.certificates.withdraw(user, id, body.reason);
   }
 }

@@ -11,6 +11,12 @@ const TOO_LARGE = {
   error: 'Payload Too Large',
 };
 
+const UNSUPPORTED = {
+  statusCode: 415,
+  message: 'Send the PDF as the request body (Content-Type: application/pdf) or as the multipart/form-data field "file"',
+  error: 'Unsupported Media Type',
+};
+
 /** Reads the raw body into memory, refusing more than MAX_CHECK_BYTES. */
 function raw(req: Request, _res: Response, done: (error?: unknown) => void): void {
   const chunks: Buffer[] = [];
@@ -62,6 +68,8 @@ export class CheckUploadMiddleware implements NestMiddleware {
       res.status(400).json({ statusCode: 400, message: `The upload could not be read: ${e.message ?? String(error)}`, error: 'Bad Request' });
     };
     if (req.is('multipart/form-data')) upload(req, res, done);
-    else raw(req, res, done);
+    else if (req.is(['application/pdf', 'application/octet-stream'])) raw(req, res, done);
+    // Anything else (JSON and forms are read by the body parsers before this runs) has nothing left to read.
+    else res.status(415).json(UNSUPPORTED);
   }
 }

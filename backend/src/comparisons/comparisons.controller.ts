@@ -1,4 +1,4 @@
-import { Body, Controller, Delete, Get, HttpCode, Param, ParseIntPipe, Patch, Post, Query, Res } from '@nestjs/common';
+import { Body, Controller, Delete, Get, HttpCode, Patch, Post, Query, Res } from '@nestjs/common';
 import { ApiBearerAuth, ApiProduces, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
 import type { ComparisonResult, InstrumentSensitivity, ListResponse, SavedComparison } from '@kilocycle/common/types';
@@ -8,6 +8,7 @@ import { attachmentDisposition } from '../exports/csv.js';
 import { comparisonCsv } from './comparison-csv.js';
 import { ComparisonsService } from './comparisons.service.js';
 import { ComputeComparisonDto, CreateComparisonDto, ListComparisonsQueryDto, UpdateComparisonDto } from './dto/comparison.dto.js';
+import { IdParam } from '../shared/id-param.decorator.js';
 
 const LAB = ['admin', 'lead', 'technician', 'engineer'] as const;
 const WRITERS = ['lead', 'engineer'] as const;
@@ -38,20 +39,20 @@ export class ComparisonsController {
   }
 
   @Get('comparisons/:id')
-  get(@Param('id', ParseIntPipe) id: number): Promise<SavedComparison> {
+  get(@IdParam('id') id: number): Promise<SavedComparison> {
     return this.comparisons.get(id);
   }
 
   /** A saved comparison computed now from its runs, labels and options. */
   @Get('comparisons/:id/result')
-  async result(@Param('id', ParseIntPipe) id: number): Promise<ComparisonResult> {
+  async result(@IdParam('id') id: number): Promise<ComparisonResult> {
     return (await this.comparisons.result(id)).result;
   }
 
   /** The comparison table as CSV (see COMPARISON_CSV_COLUMNS). */
   @ApiProduces('text/csv')
   @Get('comparisons/:id/export.csv')
-  async exportCsv(@Param('id', ParseIntPipe) id: number, @Res() res: Response): Promise<void> {
+  async exportCsv(@IdParam('id') id: number, @Res() res: Response): Promise<void> {
     const { saved, result } = await this.comparisons.result(id);
     const slug = saved.title.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'comparison';
     res.setHeader('Content-Type', 'text/csv; charset=utf-8');
@@ -62,20 +63,20 @@ export class ComparisonsController {
 
   @Roles(...WRITERS)
   @Patch('comparisons/:id')
-  update(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Body() body: UpdateComparisonDto): Promise<SavedComparison> {
+  update(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Body() body: UpdateComparisonDto): Promise<SavedComparison> {
     return this.comparisons.update(user, id, body);
   }
 
   @Roles(...WRITERS)
   @HttpCode(204)
   @Delete('comparisons/:id')
-  remove(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number): Promise<void> {
+  remove(@CurrentUser() user: AuthUser, @IdParam('id') id: number): Promise<void> {
     return this.comparisons.remove(user, id);
   }
 
   /** Supply sensitivity (Hz/V) and keying shift from the instrument's supply_sensitivity and keying runs. */
   @Get('instruments/:id/sensitivity')
-  sensitivity(@Param('id', ParseIntPipe) id: number): Promise<InstrumentSensitivity> {
+  sensitivity(@IdParam('id') id: number): Promise<InstrumentSensitivity> {
     return this.comparisons.sensitivity(id);
   }
 }

@@ -1,9 +1,10 @@
-import { Controller, Get, Param, ParseIntPipe, Res } from '@nestjs/common';
+import { Controller, Get, Res } from '@nestjs/common';
 import { ApiBearerAuth, ApiProduces, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser } from '../auth/decorators.js';
 import { ExportsService } from './exports.service.js';
+import { IdParam } from '../shared/id-param.decorator.js';
 
 @ApiTags('exports')
 @ApiBearerAuth()
@@ -14,14 +15,14 @@ export class ExportsController {
   /** seq, t_s, dial, frequency_hz, aux, source, received_at, excluded, excluded_reason — one line per reading. */
   @ApiProduces('text/csv')
   @Get('runs/:id/readings.csv')
-  readings(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Res() res: Response): Promise<void> {
+  readings(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Res() res: Response): Promise<void> {
     return this.exports.readings(user, id, res);
   }
 
   /** One line per calibration run and dial setting (see RESULTS_CSV_COLUMNS). */
   @ApiProduces('text/csv')
   @Get('jobs/:id/results.csv')
-  results(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Res() res: Response): Promise<void> {
+  results(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Res() res: Response): Promise<void> {
     return this.exports.results(user, id, res);
   }
 }

@@ -1,4 +1,4 @@
-import { Controller, Get, Param, ParseIntPipe, Post, Query, Req, Res } from '@nestjs/common';
+import { Controller, Get, Param, Post, Query, Req, Res } from '@nestjs/common';
 import { ApiBearerAuth, ApiConsumes, ApiTags } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import type { ImportProgress, ImportReport } from '@kilocycle/common/types';
@@ -7,6 +7,7 @@ import { CurrentUser, Roles } from '../auth/decorators.js';
 import { ImportQueryDto } from './dto/import-query.dto.js';
 import { ImportProgressStore } from './import-progress.store.js';
 import { ImportsService } from './imports.service.js';
+import { IdParam } from '../shared/id-param.decorator.js';
 
 @ApiTags('imports')
 @ApiBearerAuth()
@@ -23,7 +24,7 @@ export class ImportsController {
   @Post('runs/:id/imports')
   import(
     @CurrentUser() user: AuthUser,
-    @Param('id', ParseIntPipe) id: number,
+    @IdParam('id') id: number,
     @Query() query: ImportQueryDto,
     @Req() req: Request,
     @Res({ passthrough: true }) res: Response,

@@ -148,52 +148,58 @@ export class ImportsService implements OnModuleInit {
       tracker.update({ rowsRejected: report.rejectedCount });
     };
 
-    if (mode === 'all') {
-      // Pass 1: validate every row; nothing is written unless all are good.
-      const checked = await this.pass(file, columns, ctx, tracker, 'validating', async (batch) => {
-        record(sortByLine([...batch.rejected, ...this.locate(this.writer.validate(ctx, batch.inputs(), Date.now(), confirm).rejected, batch, columns)]));
-      });
-      report.rowCount = checked.rows;
-      if (report.rowCount === 0) throw refused(report, [{ line: 2, column: 'file', reason: 'the file has no readings under its header' }], 'the file has no readings under its header');
-      if (report.rejectedCount > 0) {
-        const rows = report.rejectedCount === 1 ? '1 row is' : `${report.rejectedCount} rows are`;
-        throw refused(report, null, `${rows} not valid: nothing was imported (fix them, or import only the valid rows with mode=valid)`);
+    // A file fault found past the header (a line that never ends) is the sender's, whichever phase meets it.
+    try {
+      if (mode === 'all') {
+        // Pass 1: validate every row; nothing is written unless all are good.
+        const checked = await this.pass(file, columns, ctx, tracker, 'validating', async (batch) => {
+          record(sortByLine([...batch.rejected, ...this.locate(this.writer.validate(ctx, batch.inputs(), Date.now(), confirm).rejected, batch, columns)]));
+        });
+        report.rowCount = checked.rows;
+        if (report.rowCount === 0) throw refused(report, [{ line: 2, column: 'file', reason: 'the file has no readings under its header' }], 'the file has no readings under its header');
+        if (report.rejectedCount > 0) {
+          const rows = report.rejectedCount === 1 ? '1 row is' : `${report.rejectedCount} rows are`;
+          throw refused(report, null, `${rows} not valid: nothing was imported (fix them, or import only the valid rows with mode=valid)`);
+        }
       }
-    }
 
-    // Every reading names the importing user; the import as a whole is one audit event (below).
-    const author = { kind: 'user' as const, id: actor.id, name: actor.name };
-    await this.dataSource.transaction(async (manager) => {
-      await this.lockRun(manager, ctx.runId);
-      const written = await this.pass(file, columns, ctx, tracker, 'writing', async (batch) => {
-        const result = batch.size === 0 ? null : await this.writer.append(ctx, batch.inputs(), 'import', author, { manager, skipReadBack: true, callerAudits: true, confirm });
-        const refusedNow = result ? this.locate(result.rejected, batch, columns) : [];
-        // Pass 1 passed every row; a refusal now means the rules changed underneath: roll everything back.
-        if (mode === 'all' && (refusedNow.length > 0 || batch.rejected.length > 0)) throw new ConflictException('a row changed between validating and writing; nothing was imported');
-        if (mode === 'valid') record(sortByLine([...batch.rejected, ...refusedNow]));
-        report.imported += result?.accepted ?? 0;
-        tracker.update({ imported: report.imported });
+      // Every reading names the importing user; the import as a whole is one audit event (below).
+      const author = { kind: 'user' as const, id: actor.id, name: actor.name };
+      await this.dataSource.transaction(async (manager) => {
+        await this.lockRun(manager, ctx.runId);
+        const written = await this.pass(file, columns, ctx, tracker, 'writing', async (batch) => {
+          const result = batch.size === 0 ? null : await this.writer.append(ctx, batch.inputs(), 'import', author, { manager, skipReadBack: true, callerAudits: true, confirm });
+          const refusedNow = result ? this.locate(result.rejected, batch, columns) : [];
+          // Pass 1 passed every row; a refusal now means the rules changed underneath: roll everything back.
+          if (mode === 'all' && (refusedNow.length > 0 || batch.rejected.length > 0)) throw new ConflictException('a row changed between validating and writing; nothing was imported');
+          if (mode === 'valid') record(sortByLine([...batch.rejected, ...refusedNow]));
+          report.imported += result?.accepted ?? 0;
+          tracker.update({ imported: report.imported });
+        });
+        report.rowCount = written.rows;
+        if (report.imported === 0) {
+          const reason = report.rowCount === 0 ? 'the file has no readings under its header' : 'no row of the file is valid: nothing was imported';
+          throw refused(report, report.rowCount === 0 ? [{ line: 2, column: 'file', reason }] : null, reason);
+        }
+        if (mode === 'valid' && report.rejectedCount > 0) {
+          await this.appendNotes(manager, actor, ctx.runId, file.name, report);
+          report.notesAppended = true;
+        }
+        await this.audit.record(
+          {
+            actorId: actor.id,
+            entity: 'run',
+            entityId: ctx.runId,
+            action: 'import',
+            changes: { file: file.name, bytes: file.size, mode, rows: report.rowCount, imported: report.imported, skipped: report.rejectedCount, importId, source: 'import', author },
+          },
+          manager,
+        );
       });
-      report.rowCount = written.rows;
-      if (report.imported === 0) {
-        const reason = report.rowCount === 0 ? 'the file has no readings under its header' : 'no row of the file is valid: nothing was imported';
-        throw refused(report, report.rowCount === 0 ? [{ line: 2, column: 'file', reason }] : null, reason);
-      }
-      if (mode === 'valid' && report.rejectedCount > 0) {
-        await this.appendNotes(manager, actor, ctx.runId, file.name, report);
-        report.notesAppended = true;
-      }
-      await this.audit.record(
-        {
-          actorId: actor.id,
-          entity: 'run',
-          entityId: ctx.runId,
-          action: 'import',
-          changes: { file: file.name, bytes: file.size, mode, rows: report.rowCount, imported: report.imported, skipped: report.rejectedCount, importId, source: 'import', author },
-        },
-        manager,
-      );
-    });
+    } catch (error) {
+      if (error instanceof ImportFileError) throw refused(report, null, error.message);
+      throw error;
+    }
     return report;
   }
 

@@ -1,10 +1,11 @@
-import { Body, Controller, Get, Param, ParseIntPipe, Patch, Post, Query } from '@nestjs/common';
+import { Body, Controller, Get, Patch, Post, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { Instrument as InstrumentView, ListResponse } from '@kilocycle/common/types';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Roles } from '../auth/decorators.js';
 import { CreateInstrumentDto, ListInstrumentsQueryDto, UpdateInstrumentDto } from './dto/instrument.dto.js';
 import { InstrumentsService } from './instruments.service.js';
+import { IdParam } from '../shared/id-param.decorator.js';
 
 @ApiTags('instruments')
 @ApiBearerAuth()
@@ -18,7 +19,7 @@ export class InstrumentsController {
   }
 
   @Get(':id')
-  get(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number): Promise<InstrumentView> {
+  get(@CurrentUser() user: AuthUser, @IdParam('id') id: number): Promise<InstrumentView> {
     return this.instruments.get(user, id);
   }
 
@@ -30,7 +31,7 @@ export class InstrumentsController {
 
   @Roles('admin', 'lead', 'technician')
   @Patch(':id')
-  update(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Body() body: UpdateInstrumentDto): Promise<InstrumentView> {
+  update(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Body() body: UpdateInstrumentDto): Promise<InstrumentView> {
     return this.instruments.update(user, id, body);
   }
 }

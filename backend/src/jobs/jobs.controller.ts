@@ -1,10 +1,11 @@
-import { Body, Controller, Get, Param, ParseIntPipe, Patch, Post, Query } from '@nestjs/common';
+import { Body, Controller, Get, Patch, Post, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { Job as JobView, ListResponse } from '@kilocycle/common/types';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Roles } from '../auth/decorators.js';
 import { CreateJobDto, ListJobsQueryDto, UpdateJobDto } from './dto/job.dto.js';
 import { JobsService } from './jobs.service.js';
+import { IdParam } from '../shared/id-param.decorator.js';
 
 @ApiTags('jobs')
 @ApiBearerAuth()
@@ -18,7 +19,7 @@ export class JobsController {
   }
 
   @Get(':id')
-  get(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number): Promise<JobView> {
+  get(@CurrentUser() user: AuthUser, @IdParam('id') id: number): Promise<JobView> {
     return this.jobs.get(user, id);
   }
 
@@ -30,7 +31,7 @@ export class JobsController {
 
   @Roles('admin', 'lead', 'technician')
   @Patch(':id')
-  update(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Body() body: UpdateJobDto): Promise<JobView> {
+  update(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Body() body: UpdateJobDto): Promise<JobView> {
     return this.jobs.update(user, id, body);
   }
 }

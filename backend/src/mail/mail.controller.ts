@@ -1,4 +1,4 @@
-import { Controller, Get, NotFoundException, Param, ParseIntPipe, Query, Res, StreamableFile } from '@nestjs/common';
+import { Controller, Get, NotFoundException, Query, Res, StreamableFile } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
@@ -9,6 +9,7 @@ import { likePattern, paginate } from '../shared/paginate.js';
 import { ListMailQueryDto } from './dto/mail.dto.js';
 import { MailMessage } from './mail-message.entity.js';
 import { parseMessage } from './mime.js';
+import { IdParam } from '../shared/id-param.decorator.js';
 
 function toSummary(m: MailMessage): MailMessageSummary {
   return {
@@ -45,7 +46,7 @@ export class MailController {
   }
 
   @Get(':id')
-  async get(@Param('id', ParseIntPipe) id: number): Promise<MailMessageView> {
+  async get(@IdParam('id') id: number): Promise<MailMessageView> {
     const m = await this.find(id);
     const parsed = parseMessage(m.raw);
     return {
@@ -60,7 +61,7 @@ export class MailController {
 
   /** The message as received (message/rfc822), for a mail program. */
   @Get(':id/raw')
-  async raw(@Param('id', ParseIntPipe) id: number, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
+  async raw(@IdParam('id') id: number, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
     const m = await this.find(id);
     res.set({ 'Content-Type': 'message/rfc822', 'Content-Disposition': `attachment; filename="message-${id}.eml"` });
     return new StreamableFile(Buffer.from(m.raw, 'utf8'));
@@ -69,8 +70,8 @@ export class MailController {
   /** One attachment, by its position in the list GET /api/mail/:id gives (0 first). */
   @Get(':id/attachments/:index')
   async attachment(
-    @Param('id', ParseIntPipe) id: number,
-    @Param('index', ParseIntPipe) index: number,
+    @IdParam('id') id: number,
+    @IdParam('index') index: number,
     @Res({ passthrough: true }) res: Response,
   ): Promise<StreamableFile> {
     const part = parseMessage((await this.find(id)).raw).attachments[index];

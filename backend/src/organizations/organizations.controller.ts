@@ -1,10 +1,11 @@
-import { Body, Controller, Get, Param, ParseIntPipe, Patch, Post, Query } from '@nestjs/common';
+import { Body, Controller, Get, Patch, Post, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { ListResponse, Organization as OrganizationView } from '@kilocycle/common/types';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Roles } from '../auth/decorators.js';
 import { CreateOrganizationDto, ListOrganizationsQueryDto, UpdateOrganizationDto } from './dto/organization.dto.js';
 import { OrganizationsService } from './organizations.service.js';
+import { IdParam } from '../shared/id-param.decorator.js';
 
 @ApiTags('organizations')
 @ApiBearerAuth()
@@ -18,7 +19,7 @@ export class OrganizationsController {
   }
 
   @Get(':id')
-  get(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number): Promise<OrganizationView> {
+  get(@CurrentUser() user: AuthUser, @IdParam('id') id: number): Promise<OrganizationView> {
     return this.organizations.get(user, id);
   }
 
@@ -30,7 +31,7 @@ export class OrganizationsController {
 
   @Roles('admin')
   @Patch(':id')
-  update(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Body() body: UpdateOrganizationDto): Promise<OrganizationView> {
+  update(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Body() body: UpdateOrganizationDto): Promise<OrganizationView> {
     return this.organizations.update(user, id, body);
   }
 }

@@ -1,10 +1,11 @@
-import { Body, Controller, Get, Param, ParseIntPipe, Post, Query } from '@nestjs/common';
+import { Body, Controller, Get, Post, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { AppendReadingsResponse, ListResponse, Reading as ReadingView } from '@kilocycle/common/types';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Roles } from '../auth/decorators.js';
 import { AppendReadingsDto, ExcludeReadingDto, ListReadingsQueryDto } from './dto/readings.dto.js';
 import { ReadingsService } from './readings.service.js';
+import { IdParam } from '../shared/id-param.decorator.js';
 
 // Readings are a record: there is deliberately no route to change or delete one; a wrong one is excluded.
 @ApiTags('readings')
@@ -14,13 +15,13 @@ export class ReadingsController {
   constructor(private readonly readings: ReadingsService) {}
 
   @Get()
-  list(@CurrentUser() user: AuthUser, @Param('runId', ParseIntPipe) runId: number, @Query() query: ListReadingsQueryDto): Promise<ListResponse<ReadingView>> {
+  list(@CurrentUser() user: AuthUser, @IdParam('runId') runId: number, @Query() query: ListReadingsQueryDto): Promise<ListResponse<ReadingView>> {
     return this.readings.list(user, runId, query);
   }
 
   @Roles('admin', 'lead', 'technician', 'engineer')
   @Post()
-  append(@CurrentUser() user: AuthUser, @Param('runId', ParseIntPipe) runId: number, @Body() body: AppendReadingsDto): Promise<AppendReadingsResponse> {
+  append(@CurrentUser() user: AuthUser, @IdParam('runId') runId: number, @Body() body: AppendReadingsDto): Promise<AppendReadingsResponse> {
     return this.readings.append(user, runId, body.readings);
   }
 
@@ -28,8 +29,8 @@ export class ReadingsController {
   @Post(':readingId/exclusion')
   exclude(
     @CurrentUser() user: AuthUser,
-    @Param('runId', ParseIntPipe) runId: number,
-    @Param('readingId', ParseIntPipe) readingId: number,
+    @IdParam('runId') runId: number,
+    @IdParam('readingId') readingId: number,
     @Body() body: ExcludeReadingDto,
   ): Promise<ReadingView> {
     return this.readings.exclude(user, runId, readingId, body.reason);

@@ -1,10 +1,11 @@
-import { Body, Controller, Get, Param, ParseIntPipe, Patch, Post, Query } from '@nestjs/common';
+import { Body, Controller, Get, Patch, Post, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { ListResponse, Run as RunView } from '@kilocycle/common/types';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Roles } from '../auth/decorators.js';
 import { CreateRunDto, ListRunsQueryDto, UpdateRunDto } from './dto/run.dto.js';
 import { RunsService } from './runs.service.js';
+import { IdParam } from '../shared/id-param.decorator.js';
 
 @ApiTags('runs')
 @ApiBearerAuth()
@@ -18,13 +19,13 @@ export class RunsController {
   }
 
   @Get(':id')
-  get(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number): Promise<RunView> {
+  get(@CurrentUser() user: AuthUser, @IdParam('id') id: number): Promise<RunView> {
     return this.runs.get(user, id);
   }
 
   @Roles('admin', 'lead', 'technician', 'engineer')
   @Patch(':id')
-  update(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Body() body: UpdateRunDto): Promise<RunView> {
+  update(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Body() body: UpdateRunDto): Promise<RunView> {
     return this.runs.update(user, id, body);
   }
 }
@@ -37,13 +38,13 @@ export class JobRunsController {
   constructor(private readonly runs: RunsService) {}
 
   @Get()
-  list(@CurrentUser() user: AuthUser, @Param('jobId', ParseIntPipe) jobId: number, @Query() query: ListRunsQueryDto): Promise<ListResponse<RunView>> {
+  list(@CurrentUser() user: AuthUser, @IdParam('jobId') jobId: number, @Query() query: ListRunsQueryDto): Promise<ListResponse<RunView>> {
     return this.runs.listForJob(user, jobId, query);
   }
 
   @Roles('admin', 'lead', 'technician', 'engineer')
   @Post()
-  open(@CurrentUser() user: AuthUser, @Param('jobId', ParseIntPipe) jobId: number, @Body() body: CreateRunDto): Promise<RunView> {
+  open(@CurrentUser() user: AuthUser, @IdParam('jobId') jobId: number, @Body() body: CreateRunDto): Promise<RunView> {
     return this.runs.open(user, jobId, body);
   }
 }

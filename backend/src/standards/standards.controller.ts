@@ -1,10 +1,11 @@
-import { Body, Controller, Get, Param, ParseIntPipe, Patch, Post, Query } from '@nestjs/common';
+import { Body, Controller, Get, Patch, Post, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { ListResponse, ReferenceStandard } from '@kilocycle/common/types';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Roles } from '../auth/decorators.js';
 import { CreateStandardDto, ListStandardsQueryDto, UpdateStandardDto } from './dto/standard.dto.js';
 import { StandardsService } from './standards.service.js';
+import { IdParam } from '../shared/id-param.decorator.js';
 
 // Standards are the lab's own equipment: customers do not see them here (their certificates name them).
 @ApiTags('standards')
@@ -21,7 +22,7 @@ export class StandardsController {
 
   @Roles('admin', 'lead', 'technician', 'engineer')
   @Get(':id')
-  get(@Param('id', ParseIntPipe) id: number): Promise<ReferenceStandard> {
+  get(@IdParam('id') id: number): Promise<ReferenceStandard> {
     return this.standards.get(id);
   }
 
@@ -33,7 +34,7 @@ export class StandardsController {
 
   @Roles('admin', 'lead')
   @Patch(':id')
-  update(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Body() body: UpdateStandardDto): Promise<ReferenceStandard> {
+  update(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Body() body: UpdateStandardDto): Promise<ReferenceStandard> {
     return this.standards.update(user, id, body);
   }
 }

@@ -1,10 +1,11 @@
-import { Body, Controller, Get, Param, ParseIntPipe, Patch, Post, Query } from '@nestjs/common';
+import { Body, Controller, Get, Patch, Post, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { ListResponse, User as UserView } from '@kilocycle/common/types';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Roles } from '../auth/decorators.js';
 import { CreateUserDto, ListUsersQueryDto, UpdateUserDto } from './dto/user.dto.js';
 import { UsersService } from './users.service.js';
+import { IdParam } from '../shared/id-param.decorator.js';
 
 @ApiTags('users')
 @ApiBearerAuth()
@@ -18,7 +19,7 @@ export class UsersController {
   }
 
   @Get(':id')
-  get(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number): Promise<UserView> {
+  get(@CurrentUser() user: AuthUser, @IdParam('id') id: number): Promise<UserView> {
     return this.users.get(user, id);
   }
 
@@ -30,7 +31,7 @@ export class UsersController {
 
   @Roles('admin')
   @Patch(':id')
-  update(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Body() body: UpdateUserDto): Promise<UserView> {
+  update(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Body() body: UpdateUserDto): Promise<UserView> {
     return this.users.update(user, id, body);
   }
 }

@@ -11,3 +11,6 @@ export type ListQuery = {
 };
 
 export const MAX_PAGE_SIZE = 500;
+
+/** Highest page number a list accepts (far past any lab's data; keeps OFFSET a plain integer). */
+export const MAX_PAGE = 100_000;

@@ -3,6 +3,7 @@ import { IsBoolean, IsInt, IsOptional, IsString, MaxLength, Min, MinLength, Vali
 import type { CreateBenchRequest, UpdateBenchRequest } from '@kilocycle/common/types';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
 import { SingleLine } from '../../shared/single-line.decorator.js';
+import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';
 
 const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 
@@ -30,7 +31,7 @@ export class CreateBenchDto implements CreateBenchRequest {
 }
 
 export class UpdateBenchDto implements UpdateBenchRequest {
-  @IsOptional()
+  @OptionalNotNull()
   @IsString()
   @Transform(trim)
   @MinLength(1, { message: 'name must not be empty' })
@@ -52,7 +53,7 @@ export class UpdateBenchDto implements UpdateBenchRequest {
   @Min(1)
   defaultStandardId?: number | null;
 
-  @IsOptional()
+  @OptionalNotNull()
   @IsBoolean()
   active?: boolean;
 }

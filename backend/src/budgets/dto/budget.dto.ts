@@ -28,6 +28,7 @@ import {
 } from '@kilocycle/common/types';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
 import { SingleLine } from '../../shared/single-line.decorator.js';
+import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';
 
 export class ExtraComponentDto implements ExtraComponent {
   @IsString()
@@ -46,7 +47,7 @@ export class ExtraComponentDto implements ExtraComponent {
   @IsIn(['Hz', 'ppm'], { message: 'unit must be Hz or ppm' })
   unit: 'Hz' | 'ppm';
 
-  @IsOptional()
+  @OptionalNotNull()
   @IsNumber({ allowNaN: false, allowInfinity: false })
   @Min(0.001)
   divisor?: number;
@@ -91,21 +92,21 @@ export class CreateProcedureDto implements CreateProcedureRequest {
   @Type(() => ExtraComponentDto)
   extraComponents: ExtraComponentDto[];
 
-  @IsOptional()
+  @OptionalNotNull()
   @IsBoolean()
   isDefault?: boolean;
 }
 
 export class UpdateProcedureDto implements UpdateProcedureRequest {
-  @IsOptional() @IsString() @MinLength(1) @MaxLength(120) @SingleLine() name?: string;
-  @IsOptional() @IsString() @MinLength(1) @MaxLength(4000) method?: string;
-  @IsOptional() @IsIn(DECISION_RULES, { message: `decisionRule must be one of: ${DECISION_RULES.join(', ')}` }) decisionRule?: DecisionRule;
-  @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) @Max(50) dialHalfDivisionPercentOfSpan?: number;
-  @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) driftPpm?: number;
-  @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) driftHz?: number;
-  @IsOptional() @IsArray() @ValidateNested({ each: true }) @Type(() => ExtraComponentDto) extraComponents?: ExtraComponentDto[];
-  @IsOptional() @IsBoolean() isDefault?: boolean;
-  @IsOptional() @IsBoolean() active?: boolean;
+  @OptionalNotNull() @IsString() @MinLength(1) @MaxLength(120) @SingleLine() name?: string;
+  @OptionalNotNull() @IsString() @MinLength(1) @MaxLength(4000) method?: string;
+  @OptionalNotNull() @IsIn(DECISION_RULES, { message: `decisionRule must be one of: ${DECISION_RULES.join(', ')}` }) decisionRule?: DecisionRule;
+  @OptionalNotNull() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) @Max(50) dialHalfDivisionPercentOfSpan?: number;
+  @OptionalNotNull() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) driftPpm?: number;
+  @OptionalNotNull() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) driftHz?: number;
+  @OptionalNotNull() @IsArray() @ValidateNested({ each: true }) @Type(() => ExtraComponentDto) extraComponents?: ExtraComponentDto[];
+  @OptionalNotNull() @IsBoolean() isDefault?: boolean;
+  @OptionalNotNull() @IsBoolean() active?: boolean;
 }
 
 export class ListProceduresQueryDto extends ListQueryDto implements ListProceduresQuery {

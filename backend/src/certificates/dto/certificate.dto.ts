@@ -8,6 +8,7 @@ import type {
 } from '@kilocycle/common/types';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
 import { SingleLine } from '../../shared/single-line.decorator.js';
+import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';
 
 const trim = () => Transform(({ value }) => (typeof value === 'string' ? value.trim() : value));
 
@@ -31,7 +32,7 @@ export class AmendCertificateDto implements AmendCertificateRequest {
   @MaxLength(2000)
   reason: string;
 
-  @IsOptional()
+  @OptionalNotNull()
   @IsBoolean()
   rework?: boolean;
 }
@@ -45,14 +46,14 @@ export class WithdrawCertificateDto implements WithdrawCertificateRequest {
 }
 
 export class UpdateSettingsDto implements UpdateCertificateSettingsRequest {
-  @IsOptional() @IsBoolean() allowSelfSign?: boolean;
+  @OptionalNotNull() @IsBoolean() allowSelfSign?: boolean;
 
-  @IsOptional()
+  @OptionalNotNull()
   @IsString()
   @Matches(/^[A-Z][A-Z0-9]{0,7}$/, { message: 'certificatePrefix must be 1 to 8 capital letters or digits, starting with a letter' })
   certificatePrefix?: string;
 
-  @IsOptional() @IsString() @trim() @MinLength(1) @MaxLength(500) labAddress?: string;
-  @IsOptional() @IsString() @trim() @MinLength(1) @MaxLength(300) @SingleLine() calibrationPlace?: string;
-  @IsOptional() @IsInt() @Min(1) @Max(365) recallNoticeDays?: number;
+  @OptionalNotNull() @IsString() @trim() @MinLength(1) @MaxLength(500) labAddress?: string;
+  @OptionalNotNull() @IsString() @trim() @MinLength(1) @MaxLength(300) @SingleLine() calibrationPlace?: string;
+  @OptionalNotNull() @IsInt() @Min(1) @Max(365) recallNoticeDays?: number;
 }

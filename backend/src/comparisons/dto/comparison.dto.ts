@@ -12,6 +12,7 @@ import {
 import { Trim } from '../../shared/dto-helpers.js';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
 import { SingleLine } from '../../shared/single-line.decorator.js';
+import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';
 
 const finite = { allowNaN: false, allowInfinity: false } as const;
 
@@ -23,13 +24,13 @@ export class ComputeComparisonDto implements ComputeComparisonRequest {
   runIds: number[];
 
   /** One per run, in the same order ("before: original regulator"); empty ones become "run <id>". */
-  @IsOptional() @IsArray() @IsString({ each: true }) @MaxLength(120, { each: true }) @SingleLine({ each: true })
+  @OptionalNotNull() @IsArray() @IsString({ each: true }) @MaxLength(120, { each: true }) @SingleLine({ each: true })
   labels?: string[];
 
-  @IsOptional() @IsNumber(finite, { message: 'withinHz must be a number of hertz' }) @Min(0.000001) @Max(1e9)
+  @OptionalNotNull() @IsNumber(finite, { message: 'withinHz must be a number of hertz' }) @Min(0.000001) @Max(1e9)
   withinHz?: number;
 
-  @IsOptional() @IsNumber(finite, { message: 'windowSeconds must be a number of seconds' }) @Min(1) @Max(31 * 86400)
+  @OptionalNotNull() @IsNumber(finite, { message: 'windowSeconds must be a number of seconds' }) @Min(1) @Max(31 * 86400)
   windowSeconds?: number;
 }
 
@@ -41,7 +42,8 @@ export class CreateComparisonDto extends ComputeComparisonDto implements CreateC
   notes?: string | null;
 }
 
-export class UpdateComparisonDto extends PartialType(OmitType(CreateComparisonDto, ['withinHz', 'windowSeconds'] as const)) implements UpdateComparisonRequest {
+// skipNullProperties: false — left out is fine, but null is checked (and refused) like any other value.
+export class UpdateComparisonDto extends PartialType(OmitType(CreateComparisonDto, ['withinHz', 'windowSeconds'] as const), { skipNullProperties: false }) implements UpdateComparisonRequest {
   @IsOptional() @ValidateIf((_o, v) => v !== null) @IsNumber(finite, { message: 'withinHz must be a number of hertz' }) @Min(0.000001) @Max(1e9)
   withinHz?: number | null;
 

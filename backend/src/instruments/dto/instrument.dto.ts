@@ -31,17 +31,18 @@ import {
 import { IsDateOnly, QueryBoolean, Trim } from '../../shared/dto-helpers.js';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
 import { SingleLine } from '../../shared/single-line.decorator.js';
+import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';
 
 export const MAX_RANGES = 32;
 const finite = { allowNaN: false, allowInfinity: false } as const;
 
 /** One range in an instrument's POST/PATCH; dialLaw and tolerance (unions) are checked by the service. */
 export class RangeInputDto implements RangeInput {
-  @IsOptional() @IsInt({ message: 'id must be a whole number' }) @Min(1)
+  @OptionalNotNull() @IsInt({ message: 'id must be a whole number' }) @Min(1)
   id?: number;
 
   /** Accepted so a range can be sent back as it was read; the order of the list decides the positions. */
-  @IsOptional() @IsInt({ message: 'position must be a whole number' })
+  @OptionalNotNull() @IsInt({ message: 'position must be a whole number' })
   position?: number;
 
   @IsString() @Trim() @MinLength(1, { message: 'label must not be empty' }) @MaxLength(60) @SingleLine()
@@ -96,13 +97,13 @@ export class CreateInstrumentDto implements CreateInstrumentRequest {
   @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
   description?: string | null;
 
-  @IsOptional() @IsInt({ message: 'recallIntervalMonths must be a whole number' }) @Min(1) @Max(120)
+  @OptionalNotNull() @IsInt({ message: 'recallIntervalMonths must be a whole number' }) @Min(1) @Max(120)
   recallIntervalMonths?: number;
 
   @IsOptional() @ValidateIf((_o, v) => v !== null) @IsDateOnly('nextDueDate')
   nextDueDate?: string | null;
 
-  @IsOptional()
+  @OptionalNotNull()
   @IsArray({ message: 'ranges must be a list' })
   @ArrayMaxSize(MAX_RANGES)
   @ValidateNested({ each: true })
@@ -111,13 +112,13 @@ export class CreateInstrumentDto implements CreateInstrumentRequest {
 }
 
 export class UpdateInstrumentDto implements UpdateInstrumentRequest {
-  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'make must not be empty' }) @MaxLength(120) @SingleLine()
+  @OptionalNotNull() @IsString() @Trim() @MinLength(1, { message: 'make must not be empty' }) @MaxLength(120) @SingleLine()
   make?: string;
 
-  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'model must not be empty' }) @MaxLength(120) @SingleLine()
+  @OptionalNotNull() @IsString() @Trim() @MinLength(1, { message: 'model must not be empty' }) @MaxLength(120) @SingleLine()
   model?: string;
 
-  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'serial must not be empty' }) @MaxLength(120) @SingleLine()
+  @OptionalNotNull() @IsString() @Trim() @MinLength(1, { message: 'serial must not be empty' }) @MaxLength(120) @SingleLine()
   serial?: string;
 
   @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @Trim() @MaxLength(120) @SingleLine()
@@ -126,14 +127,14 @@ export class UpdateInstrumentDto implements UpdateInstrumentRequest {
   @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
   description?: string | null;
 
-  @IsOptional() @IsInt({ message: 'recallIntervalMonths must be a whole number' }) @Min(1) @Max(120)
+  @OptionalNotNull() @IsInt({ message: 'recallIntervalMonths must be a whole number' }) @Min(1) @Max(120)
   recallIntervalMonths?: number;
 
   @IsOptional() @ValidateIf((_o, v) => v !== null) @IsDateOnly('nextDueDate')
   nextDueDate?: string | null;
 
   /** The whole set, in order: items with an id keep that range, items without are added, missing ones are removed. */
-  @IsOptional()
+  @OptionalNotNull()
   @IsArray({ message: 'ranges must be a list' })
   @ArrayMaxSize(MAX_RANGES)
   @ValidateNested({ each: true })

@@ -3,6 +3,7 @@ import { IsIn, IsInt, IsNumber, IsOptional, IsString, Matches, Max, MaxLength, M
 import { JOB_STATUSES, type CreateJobRequest, type JobStatus, type ListJobsQuery, type UpdateJobRequest } from '@kilocycle/common/types';
 import { IsDateOnly, Trim } from '../../shared/dto-helpers.js';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
+import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';
 
 const finite = { allowNaN: false, allowInfinity: false } as const;
 const statusMessage = `status must be one of: ${JOB_STATUSES.join(', ')}`;
@@ -31,7 +32,7 @@ export class CreateJobDto implements CreateJobRequest {
 }
 
 export class UpdateJobDto implements UpdateJobRequest {
-  @IsOptional() @IsDateOnly('receivedDate')
+  @OptionalNotNull() @IsDateOnly('receivedDate')
   receivedDate?: string;
 
   @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
@@ -49,11 +50,11 @@ export class UpdateJobDto implements UpdateJobRequest {
   @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
   notes?: string | null;
 
-  @IsOptional() @IsIn(JOB_STATUSES, { message: statusMessage })
+  @OptionalNotNull() @IsIn(JOB_STATUSES, { message: statusMessage })
   status?: JobStatus;
 
   /** Why the status changes; required when a lead returns a job for rework. */
-  @IsOptional() @IsString() @Trim() @MinLength(3, { message: 'comment must be at least 3 characters' }) @MaxLength(2000)
+  @OptionalNotNull() @IsString() @Trim() @MinLength(3, { message: 'comment must be at least 3 characters' }) @MaxLength(2000)
   comment?: string;
 }
 

@@ -8,6 +8,7 @@ import {
 } from '@kilocycle/common/types';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
 import { SingleLine } from '../../shared/single-line.decorator.js';
+import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';
 
 export class CreateOrganizationDto implements CreateOrganizationRequest {
   @IsString()
@@ -28,7 +29,7 @@ export class CreateOrganizationDto implements CreateOrganizationRequest {
 }
 
 export class UpdateOrganizationDto implements UpdateOrganizationRequest {
-  @IsOptional()
+  @OptionalNotNull()
   @IsString()
   @MinLength(1)
   @MaxLength(200)
@@ -41,7 +42,7 @@ export class UpdateOrganizationDto implements UpdateOrganizationRequest {
   @SingleLine()
   contactEmail?: string | null;
 
-  @IsOptional()
+  @OptionalNotNull()
   @IsBoolean()
   active?: boolean;
 }

@@ -1,12 +1,13 @@
 import { Transform } from 'class-transformer';
-import { IsOptional, IsString, MaxLength, MinLength } from 'class-validator';
+import { IsString, MaxLength, MinLength } from 'class-validator';
 import type { ReturnJobRequest, SignJobRequest, SubmitJobRequest } from '@kilocycle/common/types';
 import { SingleLine } from '../../shared/single-line.decorator.js';
+import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';
 
 const trim = () => Transform(({ value }) => (typeof value === 'string' ? value.trim() : value));
 
 export class SubmitJobDto implements SubmitJobRequest {
-  @IsOptional() @IsString() @trim() @MaxLength(2000) comment?: string;
+  @OptionalNotNull() @IsString() @trim() @MaxLength(2000) comment?: string;
 }
 
 export class ReturnJobDto implements ReturnJobRequest {

@@ -11,6 +11,7 @@ import {
 } from '@kilocycle/common/types';
 import { Trim } from '../../shared/dto-helpers.js';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
+import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';
 
 const finite = { allowNaN: false, allowInfinity: false } as const;
 const kindMessage = `kind must be one of: ${RUN_KINDS.join(', ')}`;
@@ -28,7 +29,7 @@ export class CreateRunDto implements CreateRunRequest {
   @IsOptional() @ValidateIf((_o, v) => v !== null) @IsInt({ message: 'standardId must be a whole number' }) @Min(1)
   standardId?: number | null;
 
-  @IsOptional() @IsString() @Trim() @MinLength(10, { message: 'standardOverrideReason must be at least 10 characters' }) @MaxLength(1000)
+  @OptionalNotNull() @IsString() @Trim() @MinLength(10, { message: 'standardOverrideReason must be at least 10 characters' }) @MaxLength(1000)
   standardOverrideReason?: string;
 
   @IsOptional() @ValidateIf((_o, v) => v !== null) @IsNumber(finite, { message: 'supplyVoltage must be a number' }) @Min(0) @Max(100000)
@@ -42,16 +43,16 @@ export class CreateRunDto implements CreateRunRequest {
 }
 
 export class UpdateRunDto implements UpdateRunRequest {
-  @IsOptional() @IsIn(['closed'], { message: 'status can only be set to closed (a closed run stays closed)' })
+  @OptionalNotNull() @IsIn(['closed'], { message: 'status can only be set to closed (a closed run stays closed)' })
   status?: 'closed';
 
   @IsOptional() @ValidateIf((_o, v) => v !== null) @IsInt({ message: 'standardId must be a whole number' }) @Min(1)
   standardId?: number | null;
 
-  @IsOptional() @IsString() @Trim() @MinLength(10, { message: 'standardOverrideReason must be at least 10 characters' }) @MaxLength(1000)
+  @OptionalNotNull() @IsString() @Trim() @MinLength(10, { message: 'standardOverrideReason must be at least 10 characters' }) @MaxLength(1000)
   standardOverrideReason?: string;
 
-  @IsOptional() @IsString({ message: 'reason must be text' }) @Trim() @MinLength(3, { message: 'reason must be at least 3 characters' }) @MaxLength(1000)
+  @OptionalNotNull() @IsString({ message: 'reason must be text' }) @Trim() @MinLength(3, { message: 'reason must be at least 3 characters' }) @MaxLength(1000)
   reason?: string;
 
   @IsOptional() @ValidateIf((_o, v) => v !== null) @IsNumber(finite, { message: 'supplyVoltage must be a number' }) @Min(0) @Max(100000)

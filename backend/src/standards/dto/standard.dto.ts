@@ -9,6 +9,7 @@ import {
 import { IsDateOnly, QueryBoolean, Trim } from '../../shared/dto-helpers.js';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
 import { SingleLine } from '../../shared/single-line.decorator.js';
+import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';
 
 const kindMessage = `kind must be one of: ${STANDARD_KINDS.join(', ')}`;
 
@@ -69,37 +70,37 @@ export class CreateStandardDto implements CreateStandardRequest {
 }
 
 export class UpdateStandardDto implements UpdateStandardRequest {
-  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'name must not be empty' }) @MaxLength(120) @SingleLine()
+  @OptionalNotNull() @IsString() @Trim() @MinLength(1, { message: 'name must not be empty' }) @MaxLength(120) @SingleLine()
   name?: string;
 
-  @IsOptional() @IsIn(STANDARD_KINDS, { message: kindMessage })
+  @OptionalNotNull() @IsIn(STANDARD_KINDS, { message: kindMessage })
   kind?: StandardKind;
 
-  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'makeModel must not be empty' }) @MaxLength(160) @SingleLine()
+  @OptionalNotNull() @IsString() @Trim() @MinLength(1, { message: 'makeModel must not be empty' }) @MaxLength(160) @SingleLine()
   makeModel?: string;
 
-  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'serial must not be empty' }) @MaxLength(120) @SingleLine()
+  @OptionalNotNull() @IsString() @Trim() @MinLength(1, { message: 'serial must not be empty' }) @MaxLength(120) @SingleLine()
   serial?: string;
 
-  @IsOptional() @IsString() @Trim() @MinLength(1, { message: 'certificateNumber must not be empty' }) @MaxLength(120) @SingleLine()
+  @OptionalNotNull() @IsString() @Trim() @MinLength(1, { message: 'certificateNumber must not be empty' }) @MaxLength(120) @SingleLine()
   certificateNumber?: string;
 
-  @IsOptional() @IsDateOnly('dueDate')
+  @OptionalNotNull() @IsDateOnly('dueDate')
   dueDate?: string;
 
-  @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) @Max(1000)
+  @OptionalNotNull() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) @Max(1000)
   timebaseAccuracyPpm?: number;
 
-  @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(1e-12, { message: 'resolutionHz must be greater than zero' }) @Max(1e6)
+  @OptionalNotNull() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(1e-12, { message: 'resolutionHz must be greater than zero' }) @Max(1e6)
   resolutionHz?: number;
 
-  @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) @Max(1000)
+  @OptionalNotNull() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) @Max(1000)
   calibrationUPpm?: number;
 
-  @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(1) @Max(10)
+  @OptionalNotNull() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(1) @Max(10)
   calibrationK?: number;
 
-  @IsOptional() @IsBoolean()
+  @OptionalNotNull() @IsBoolean()
   active?: boolean;
 }
 

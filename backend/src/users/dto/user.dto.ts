@@ -9,6 +9,7 @@ import {
 } from '@kilocycle/common/types';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
 import { SingleLine } from '../../shared/single-line.decorator.js';
+import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';
 
 const passwordMessage = `password must be at least ${MIN_PASSWORD_LENGTH} characters`;
 
@@ -39,22 +40,22 @@ export class CreateUserDto implements CreateUserRequest {
 }
 
 export class UpdateUserDto implements UpdateUserRequest {
-  @IsOptional()
+  @OptionalNotNull()
   @IsString()
   @MinLength(1)
   @MaxLength(200)
   @SingleLine()
   name?: string;
 
-  @IsOptional()
+  @OptionalNotNull()
   @IsIn(ROLES, { message: `role must be one of: ${ROLES.join(', ')}` })
   role?: Role;
 
-  @IsOptional()
+  @OptionalNotNull()
   @IsBoolean()
   active?: boolean;
 
-  @IsOptional()
+  @OptionalNotNull()
   @IsString()
   @MinLength(MIN_PASSWORD_LENGTH, { message: passwordMessage })
   @MaxLength(200)
