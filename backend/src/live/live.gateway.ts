@@ -14,17 +14,23 @@ import {
 } from '@kilocycle/common/events';
 import type { AuthUser } from '../auth/auth-user.js';
 import { AuthService } from '../auth/auth.service.js';
-import { toRefusal } from '../ingest/ingest.exception.js';
+import { SessionsService, type SessionsEnded } from '../auth/sessions.service.js';
+import { errorDetail, toRefusal } from '../ingest/ingest.exception.js';
 import { ReadingsWriter } from '../readings/readings-writer.service.js';
 import { LiveService } from './live.service.js';
 
-type LiveSocketData = { user: AuthUser; token: string };
+type LiveSocketData = { user: AuthUser; token: string; expiry?: NodeJS.Timeout };
 type LiveSocket = Socket<Record<string, never>, Record<string, never>, Record<string, never>, LiveSocketData>;
+
+/** setTimeout's limit (about 24.8 days); a longer session is re-armed when the timer fires. */
+const MAX_TIMER_MS = 2 ** 31 - 1;
 
 /**
  * `/live`: browsers authenticate with the session's JWT and join the room of each run they show;
  * every batch the write path commits (bridge, bench page or import) and every exclusion is pushed to
- * that run's room.
+ * that run's room. A socket lives only as long as its session: every incoming event checks the session
+ * again, an ended session (sign-out, deactivation, role or password change) closes its sockets at once,
+ * and each socket is closed when its token expires.
  */
 @WebSocketGateway({ namespace: NAMESPACES.live })
 export class LiveGateway implements OnGatewayInit, OnModuleDestroy {
@@ -35,6 +41,7 @@ export class LiveGateway implements OnGatewayInit, OnModuleDestroy {
     private readonly auth: AuthService,
     private readonly live: LiveService,
     private readonly writer: ReadingsWriter,
+    private readonly sessions: SessionsService,
   ) {}
 
   afterInit(nsp: Namespace): void {
@@ -51,8 +58,13 @@ export class LiveGateway implements OnGatewayInit, OnModuleDestroy {
         })
         .catch((error: unknown) => refuse(error instanceof Error ? error.message : 'the session is not valid; sign in again'));
     });
+    nsp.on('connection', (socket: LiveSocket) => {
+      this.closeAtExpiry(socket);
+      socket.on('disconnect', () => clearTimeout(socket.data.expiry));
+    });
     // Fan-out after the commit: one encode per batch, whatever the number of watchers.
     this.subscriptions.push(
+      this.sessions.ended$.subscribe((ended) => this.closeSessions(nsp, ended)),
       this.writer.stored$.subscribe(({ runId, author, readings }) => {
         // socket.io encodes a broadcast even for an empty room: skip runs nobody is watching.
         if (!nsp.adapter.rooms.get(runRoom(runId))?.size) return;
@@ -71,22 +83,48 @@ export class LiveGateway implements OnGatewayInit, OnModuleDestroy {
     for (const subscription of this.subscriptions) subscription.unsubscribe();
   }
 
+  private closeAtExpiry(socket: LiveSocket): void {
+    const left = socket.data.user.exp * 1000 - Date.now();
+    if (left <= 0) {
+      socket.disconnect(true);
+      return;
+    }
+    socket.data.expiry = setTimeout(() => (left > MAX_TIMER_MS ? this.closeAtExpiry(socket) : socket.disconnect(true)), Math.min(left, MAX_TIMER_MS));
+    socket.data.expiry.unref();
+  }
+
+  private closeSessions(nsp: Namespace, ended: SessionsEnded): void {
+    const users = new Set(ended.kind === 'users' ? ended.userIds : []);
+    const jti = ended.kind === 'token' ? ended.jti : null;
+    for (const socket of (nsp.sockets as Map<string, LiveSocket>).values()) {
+      const user = socket.data.user;
+      if (user && (users.has(user.id) || user.jti === jti)) socket.disconnect(true);
+    }
+  }
+
+  /** The session behind a socket, checked again for this event; an ended session closes the socket. */
+  private async session(socket: LiveSocket): Promise<AuthUser> {
+    try {
+      const user = await this.auth.authenticate(socket.data.token);
+      socket.data.user = user;
+      return user;
+    } catch (error) {
+      if (error instanceof UnauthorizedException) setImmediate(() => socket.disconnect(true));
+      throw error;
+    }
+  }
+
   @SubscribeMessage(LIVE_EVENTS.join)
   async join(@ConnectedSocket() socket: LiveSocket, @MessageBody() payload: unknown): Promise<JoinReply> {
     try {
-      // Checked again at each join, so a deactivated or signed-out user stops at once.
-      const user = await this.auth.authenticate(socket.data.token);
-      socket.data.user = user;
+      const user = await this.session(socket);
       const { runId, lastSeq } = await this.live.runFor(user, payload);
       await socket.join(runRoom(runId));
       return { ok: true, runId, lastSeq };
     } catch (error) {
-      if (error instanceof UnauthorizedException) {
-        setImmediate(() => socket.disconnect(true));
-        return { ok: false, code: 'forbidden', error: error.message };
-      }
+      if (error instanceof UnauthorizedException) return { ok: false, code: 'forbidden', error: error.message };
       const refusal = toRefusal(error);
-      if (refusal.code === 'server_error') this.logger.warn(`join failed: ${refusal.error}`);
+      if (refusal.code === 'server_error') this.logger.warn(`join failed: ${errorDetail(error)}`);
       return refusal;
     }
   }
@@ -95,7 +133,15 @@ export class LiveGateway implements OnGatewayInit, OnModuleDestroy {
   async leave(@ConnectedSocket() socket: LiveSocket, @MessageBody() payload: unknown): Promise<LeaveReply> {
     const runId = payload !== null && typeof payload === 'object' ? (payload as { runId?: unknown }).runId : undefined;
     if (typeof runId !== 'number' || !Number.isInteger(runId)) return { ok: false, code: 'bad_request', error: 'runId must be a whole number (the id of a run)' };
-    await socket.leave(runRoom(runId));
-    return { ok: true, runId };
+    try {
+      await this.session(socket);
+      await socket.leave(runRoom(runId));
+      return { ok: true, runId };
+    } catch (error) {
+      if (error instanceof UnauthorizedException) return { ok: false, code: 'forbidden', error: error.message };
+      const refusal = toRefusal(error);
+      if (refusal.code === 'server_error') this.logger.warn(`leave failed: ${refusal.error}`);
+      return refusal;
+    }
   }
 }

@@ -4,6 +4,8 @@ import type { DataSource, Repository } from 'typeorm';
 import type { ListResponse, Organization as OrganizationView } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
 import { organizationScope, type AuthUser } from '../auth/auth-user.js';
+import { SessionsService } from '../auth/sessions.service.js';
+import { User } from '../users/user.entity.js';
 import { likePattern, paginate } from '../shared/paginate.js';
 import type { CreateOrganizationDto, ListOrganizationsQueryDto, UpdateOrganizationDto } from './dto/organization.dto.js';
 import { Organization } from './organization.entity.js';
@@ -20,6 +22,7 @@ export class OrganizationsService {
     @InjectRepository(Organization) private readonly organizations: Repository<Organization>,
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly audit: AuditService,
+    private readonly sessions: SessionsService,
   ) {}
 
   list(actor: AuthUser, query: ListOrganizationsQueryDto): Promise<ListResponse<OrganizationView>> {
@@ -56,7 +59,7 @@ export class OrganizationsService {
   }
 
   async update(actor: AuthUser, id: number, body: UpdateOrganizationDto): Promise<OrganizationView> {
-    await this.dataSource.transaction(async (manager) => {
+    const ended = await this.dataSource.transaction(async (manager): Promise<number[]> => {
       const found = await manager.findOneBy(Organization, { id });
       if (!found) throw new NotFoundException(`Organisation ${id} not found`);
       if (found.kind === 'lab' && body.active === false) throw new BadRequestException('the lab organisation cannot be deactivated');
@@ -71,10 +74,16 @@ export class OrganizationsService {
           Object.assign(patch, { [key]: body[key] });
         }
       }
-      if (Object.keys(patch).length === 0) return;
+      if (Object.keys(patch).length === 0) return [];
       await manager.update(Organization, { id }, patch);
+      // Deactivating an organisation ends the sessions of all its users at once.
+      const userIds =
+        patch.active === false ? (await manager.find(User, { select: { id: true }, where: { organizationId: id } })).map((u) => u.id) : [];
+      await this.sessions.endAllSessions(manager, userIds);
       await this.audit.record({ actorId: actor.id, entity: 'organization', entityId: id, action: 'update', changes }, manager);
+      return userIds;
     });
+    this.sessions.announce({ kind: 'users', userIds: ended });
     return this.get(actor, id);
   }
 }

@@ -107,10 +107,12 @@ describe('/live namespace (e2e, MariaDB)', () => {
     expect(await excluded).toMatchObject({ runId: run.runId, reading: { seq: 1, excluded: true, excludedReason: 'counter gate left at 10 ms' } });
   });
 
-  it('should refuse a join once the user has signed out', async () => {
+  it('should close the socket at sign-out and refuse to connect with that token again', async () => {
     const token = await tokenFor(t.http, DEMO.lead);
     const page = await connect(url, NAMESPACES.live, token, sockets);
+    const closed = new Promise<string>((resolve) => page.once('disconnect', resolve));
     expect((await t.http.post('/api/auth/logout').set('Authorization', `Bearer ${token}`)).status).toBeLessThan(300);
-    expect(await request(page, LIVE_EVENTS.join, { runId: saltmarshRun.runId })).toMatchObject({ ok: false, code: 'forbidden' });
+    expect(await closed).toBe('io server disconnect');
+    await expect(connect(url, NAMESPACES.live, token, sockets)).rejects.toMatchObject({ data: { code: 'bad_session' } });
   });
 });
