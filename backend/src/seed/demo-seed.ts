@@ -3,6 +3,7 @@ import type { DataSource, EntityManager } from 'typeorm';
 import type { Role } from '@kilocycle/common/types';
 import type { AppConfig } from '../config/app-config.js';
 import { Organization } from '../organizations/organization.entity.js';
+import { passwordProblem } from '../users/password-policy.js';
 import { User } from '../users/user.entity.js';
 import { DEMO_EXTENSIONS } from './demo-extensions.js';
 
@@ -57,18 +58,23 @@ export async function seedDemo(dataSource: DataSource, config: Pick<AppConfig, '
   });
 }
 
+const ADMIN_NAME = 'Administrator';
+
 /** Production start: makes sure an admin exists, from KC_ADMIN_EMAIL / KC_ADMIN_PASSWORD. */
 export async function ensureAdmin(dataSource: DataSource, config: AppConfig, email: string): Promise<boolean> {
   if (!config.adminPassword) throw new Error('KC_ADMIN_PASSWORD must be set in production mode');
   return dataSource.transaction(async (manager) => {
     if (await manager.existsBy(User, { role: 'admin' })) return false;
+    // The same policy as every other account's password (the demo password is set directly and need not pass).
+    const problem = passwordProblem(config.adminPassword!, { name: ADMIN_NAME, email });
+    if (problem) throw new Error(`KC_ADMIN_PASSWORD is refused: ${problem}`);
     let lab = await manager.findOneBy(Organization, { kind: 'lab' });
     if (!lab) {
       const id = (await manager.insert(Organization, { name: process.env.KC_LAB_NAME ?? 'Calibration Lab', kind: 'lab', contactEmail: null })).identifiers[0].id as number;
       lab = await manager.findOneByOrFail(Organization, { id });
     }
     const passwordHash = await bcrypt.hash(config.adminPassword!, config.bcryptCost);
-    await manager.insert(User, { email: email.toLowerCase(), name: 'Administrator', role: 'admin', organizationId: lab.id, passwordHash });
+    await manager.insert(User, { email: email.toLowerCase(), name: ADMIN_NAME, role: 'admin', organizationId: lab.id, passwordHash });
     return true;
   });
 }

@@ -2,13 +2,15 @@ import { BadRequestException, ConflictException, Inject, Injectable, NotFoundExc
 import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import bcrypt from 'bcryptjs';
 import type { DataSource, Repository } from 'typeorm';
-import type { ListResponse, User as UserView } from '@kilocycle/common/types';
+import type { ListResponse, Role, User as UserView } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
 import { organizationScope, type AuthUser } from '../auth/auth-user.js';
+import { SessionsService } from '../auth/sessions.service.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { Organization } from '../organizations/organization.entity.js';
 import { likePattern, paginate } from '../shared/paginate.js';
 import type { CreateUserDto, ListUsersQueryDto, UpdateUserDto } from './dto/user.dto.js';
+import { assertPasswordAllowed } from './password-policy.js';
 import { User } from './user.entity.js';
 
 export function toUserView(user: User): UserView {
@@ -24,6 +26,16 @@ export function toUserView(user: User): UserView {
   };
 }
 
+/** A client belongs to a customer organisation; every other role to the lab (POST and PATCH alike). */
+function assertRoleFitsOrganization(role: Role, organization: Organization): void {
+  if (role === 'client' && organization.kind !== 'customer') {
+    throw new BadRequestException('a client must belong to a customer organisation');
+  }
+  if (role !== 'client' && organization.kind !== 'lab') {
+    throw new BadRequestException(`a ${role} must belong to the lab organisation (${organization.name} is a customer)`);
+  }
+}
+
 const SORTABLE = { id: 'u.id', email: 'u.email', name: 'u.name', role: 'u.role', createdAt: 'u.createdAt', organizationName: 'o.name' };
 
 @Injectable()
@@ -33,6 +45,7 @@ export class UsersService {
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly audit: AuditService,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
+    private readonly sessions: SessionsService,
   ) {}
 
   async list(actor: AuthUser, query: ListUsersQueryDto): Promise<ListResponse<UserView>> {
@@ -55,15 +68,11 @@ export class UsersService {
   }
 
   async create(actor: AuthUser, body: CreateUserDto): Promise<UserView> {
+    assertPasswordAllowed(body.password, body);
     const id = await this.dataSource.transaction(async (manager) => {
       const organization = await manager.findOneBy(Organization, { id: body.organizationId });
       if (!organization) throw new BadRequestException(`organizationId ${body.organizationId} does not exist`);
-      if (body.role === 'client' && organization.kind !== 'customer') {
-        throw new BadRequestException('a client must belong to a customer organisation');
-      }
-      if (body.role !== 'client' && organization.kind !== 'lab') {
-        throw new BadRequestException(`a ${body.role} must belong to the lab organisation`);
-      }
+      assertRoleFitsOrganization(body.role, organization);
       if (await manager.existsBy(User, { email: body.email })) {
         throw new ConflictException(`A user with e-mail ${body.email} already exists`);
       }
@@ -86,9 +95,12 @@ export class UsersService {
   }
 
   async update(actor: AuthUser, id: number, body: UpdateUserDto): Promise<UserView> {
-    await this.dataSource.transaction(async (manager) => {
-      const user = await manager.findOneBy(User, { id });
+    const endsSessions = await this.dataSource.transaction(async (manager) => {
+      const user = await manager.findOne(User, { where: { id }, relations: { organization: true } });
       if (!user) throw new NotFoundException(`User ${id} not found`);
+      // The same rule as on creation: lab roles stay in the lab, a client stays with its customer.
+      if (body.role !== undefined) assertRoleFitsOrganization(body.role, user.organization);
+      if (body.password) assertPasswordAllowed(body.password, { name: body.name ?? user.name, email: user.email });
       if (id === actor.id && (body.active === false || (body.role && body.role !== actor.role))) {
         throw new BadRequestException('you cannot deactivate yourself or change your own role');
       }
@@ -104,10 +116,15 @@ export class UsersService {
         patch.passwordHash = await bcrypt.hash(body.password, this.config.bcryptCost);
         changes.password = 'changed';
       }
-      if (Object.keys(patch).length === 0) return;
+      if (Object.keys(patch).length === 0) return false;
       await manager.update(User, { id }, patch);
+      // Deactivation, a new role or a new password ends every session the user has open.
+      const ends = patch.active === false || patch.role !== undefined || patch.passwordHash !== undefined;
+      if (ends) await this.sessions.endAllSessions(manager, [id]);
       await this.audit.record({ actorId: actor.id, entity: 'user', entityId: id, action: 'update', changes }, manager);
+      return ends;
     });
+    if (endsSessions) this.sessions.announce({ kind: 'users', userIds: [id] });
     return this.get(actor, id);
   }
 }

@@ -5,6 +5,8 @@ export type Role = (typeof ROLES)[number];
 export const LAB_ROLES: readonly Role[] = ['admin', 'lead', 'technician', 'engineer'];
 
 export const MIN_PASSWORD_LENGTH = 12;
+/** bcrypt hashes only the first 72 bytes of a password: longer ones are refused, not cut. */
+export const MAX_PASSWORD_BYTES = 72;
 
 export type LoginRequest = { email: string; password: string };
 
