@@ -374,6 +374,30 @@ describe('access matrix (e2e, MariaDB): every route × every role × own/other o
   const namesMissing = (rule: Rule) => Object.values(rule.ids ?? {}).some((kind) => kind === 'missing' || kind === 'importId');
   const isGuardRefusal = (status: number, body: { message?: unknown }) => status === 403 && String(body.message).startsWith('This needs one of the roles');
 
+  // Ids travel in queries too: a client filtering a list by the other side's organisation, instrument,
+  // job or run gets a refusal of the filter (400), an empty page or its own records — never theirs.
+  it("a client filtering any list by the other organisation's ids is shown none of its records", async () => {
+    const problems: string[] = [];
+    const lists = Object.entries(ACCESS_MATRIX).filter(([route, rule]) => route.startsWith('GET ') && rule.roles !== 'public' && rule.roles.includes('client') && !rule.ids);
+    expect(lists.length).toBeGreaterThanOrEqual(6);
+    for (const customer of ['northgate', 'saltmarsh'] as const) {
+      const other = facts.owned[OTHER[customer]];
+      const filters = { organizationId: other.organization, customerId: other.organization, instrumentId: other.instrument, jobId: other.job, runId: other.run };
+      for (const [route] of lists) {
+        for (const [name, value] of Object.entries(filters)) {
+          const path = `${route.slice(4)}?${name}=${value}`;
+          const res = await t.http.get(path).set(as(customer));
+          if (res.status !== 400 && (res.status < 200 || res.status > 299)) problems.push(`${customer} GET ${path}: expected 2xx or 400, got ${res.status}`);
+          if (res.status >= 200 && res.status <= 299) {
+            const leaked = foreignData(res, customer);
+            if (leaked.length) problems.push(`${customer} GET ${path}: 2xx body holds the other organisation's ${leaked.join(', ')}`);
+          }
+        }
+      }
+    }
+    expect(problems).toEqual([]);
+  });
+
   const atEnd: Array<() => Promise<void>> = [];
 
   describe.each(Object.keys(ACCESS_MATRIX))('%s', (route) => {
