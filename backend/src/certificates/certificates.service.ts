@@ -212,7 +212,6 @@ export class CertificatesService {
       issuedAt: latest.issuedAt?.toISOString() ?? null,
       sha256: latest.sha256,
       revisions: published.map((r) => ({ revision: r.revision, status: r.status, issuedAt: r.issuedAt?.toISOString() ?? null, sha256: r.sha256 })),
-      amendmentPending: rows.some((r) => r.status === 'draft'),
     };
   }
 

@@ -479,8 +479,7 @@ export type PublicCertificate = {
   sha256: string | null;
   /** Every revision of the number, newest first (no measurement data). */
   revisions: Array<{ revision: number; status: CertificateStatus; issuedAt: string | null; sha256: string | null }>;
-  /** True while an amendment of this number is being prepared. */
-  amendmentPending: boolean;
+  // Nothing about drafts: whether an amendment is being prepared is the lab's business, not an anonymous visitor's.
 };
 
 export type CertificateCheckResult = {

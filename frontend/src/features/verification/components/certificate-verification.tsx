@@ -68,7 +68,6 @@ function Details({ certificate }: { certificate: PublicCertificate }) {
           {words.label}: certificate {certificate.number}, revision {certificate.revision}
         </AlertTitle>
         {words.text}
-        {certificate.amendmentPending && ' An amendment of this certificate is being prepared.'}
       </Alert>
       <Paper variant="outlined" sx={{ p: 2.5, mb: 2 }}>
         <Box

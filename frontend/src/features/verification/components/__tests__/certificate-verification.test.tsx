@@ -16,7 +16,6 @@ const issued: PublicCertificate = {
   issuedAt: '2026-11-25T11:20:00.000Z',
   sha256: HASH,
   revisions: [{ revision: 1, status: 'issued', issuedAt: '2026-11-25T11:20:00.000Z', sha256: HASH }],
-  amendmentPending: false,
 };
 
 function setup(check: CertificateCheckResult) {
