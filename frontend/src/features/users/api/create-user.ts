@@ -1,5 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { MIN_PASSWORD_LENGTH, type CreateUserRequest, type User } from '@kilocycle/common/types';
+import { utf8Length } from '@kilocycle/common/rules';
+import { MAX_PASSWORD_BYTES, MIN_PASSWORD_LENGTH, type CreateUserRequest, type User } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
 import { looksLikeEmail } from '@/utils/validation';
 import { getUsersQueryOptions } from './get-users';
@@ -14,6 +15,9 @@ export function validateCreateUser(input: CreateUserRequest): CreateUserErrors {
   if (!input.organizationId) errors.organizationId = 'Choose an organisation';
   if (input.password.length < MIN_PASSWORD_LENGTH)
     errors.password = `At least ${MIN_PASSWORD_LENGTH} characters (now ${input.password.length})`;
+  // The same byte rule as the server's (bcrypt uses only the first 72 bytes); guessability is judged there.
+  else if (utf8Length(input.password) > MAX_PASSWORD_BYTES)
+    errors.password = `At most ${MAX_PASSWORD_BYTES} bytes (now ${utf8Length(input.password)}): longer passwords are not used in full`;
   return errors;
 }
 

@@ -10,6 +10,7 @@ import TextField from '@mui/material/TextField';
 import { useId, useState, type FormEvent } from 'react';
 import {
   LAB_ROLES,
+  MAX_PASSWORD_BYTES,
   MIN_PASSWORD_LENGTH,
   ROLES,
   type CreateUserRequest,
@@ -33,8 +34,17 @@ function organisationsFor(role: Role, organizations: readonly Organization[]) {
 }
 
 function serverMessages(error: unknown) {
-  if (error instanceof ApiError) return error.messages;
+  if (error instanceof ApiError) return error.messages.filter((m) => !isPasswordMessage(m));
   return error ? ['The account could not be created. Try again.'] : [];
+}
+
+// The server's password refusals ("password is too easy to guess: …", "… at most 72 bytes …") go under the field.
+const isPasswordMessage = (message: string) => message.startsWith('password ');
+
+function serverPasswordMessage(error: unknown): string | undefined {
+  if (!(error instanceof ApiError)) return undefined;
+  const found = error.messages.find(isPasswordMessage);
+  return found && `${found.charAt(0).toUpperCase()}${found.slice(1)}`;
 }
 
 type CreateUserProps = { organizations: readonly Organization[]; organizationsLoading?: boolean };
@@ -52,6 +62,7 @@ export function CreateUser({ organizations, organizationsLoading }: CreateUserPr
   });
 
   const choices = organisationsFor(draft.role, organizations);
+  const passwordRefusal = serverPasswordMessage(createUser.error);
 
   function close() {
     setOpen(false);
@@ -71,6 +82,8 @@ export function CreateUser({ organizations, organizationsLoading }: CreateUserPr
       return next;
     });
     setErrors((current) => ({ ...current, [field]: undefined }));
+    // A new password answers the server's refusal of the old one.
+    if (field === 'password' && createUser.error) createUser.reset();
   };
 
   const submit = (event: FormEvent<HTMLFormElement>) => {
@@ -161,8 +174,12 @@ export function CreateUser({ organizations, organizationsLoading }: CreateUserPr
                 autoComplete="new-password"
                 value={draft.password}
                 onChange={(e) => set('password', e.target.value)}
-                error={Boolean(errors.password)}
-                helperText={errors.password ?? `At least ${MIN_PASSWORD_LENGTH} characters. Pass it on privately.`}
+                error={Boolean(errors.password ?? passwordRefusal)}
+                helperText={
+                  errors.password ??
+                  passwordRefusal ??
+                  `At least ${MIN_PASSWORD_LENGTH} characters, at most ${MAX_PASSWORD_BYTES} bytes; not a common password, the person’s name or e-mail. Pass it on privately.`
+                }
               />
             </Stack>
           </DialogContent>

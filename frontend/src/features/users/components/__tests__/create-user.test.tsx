@@ -93,6 +93,48 @@ describe('<CreateUser>', () => {
     expect(fetchMock).not.toHaveBeenCalled();
   });
 
+  it('refuses a password over 72 bytes before sending, counting bytes not characters', async () => {
+    signInAs({ role: 'admin' });
+    const { fetchMock } = mockFetch([]);
+    renderWithApp(<CreateUser organizations={[lab]} />);
+    const dialog = openDialog();
+
+    fill(dialog, /^name/i, 'Long Password');
+    fill(dialog, /e-mail/i, 'long@kilocycle.test');
+    choose(dialog, /organisation/i, 'Quarry Lane Frequency Lab');
+    // 25 characters of 3 bytes each in UTF-8: 75 bytes.
+    fill(dialog, /initial password/i, '周'.repeat(25));
+    fireEvent.click(within(dialog).getByRole('button', { name: 'Create user' }));
+
+    expect(await within(dialog).findByText('At most 72 bytes (now 75): longer passwords are not used in full')).toBeTruthy();
+    expect(fetchMock).not.toHaveBeenCalled();
+  });
+
+  it("shows the server's refusal of a guessable password under the password field, and clears it on a new one", async () => {
+    signInAs({ role: 'admin' });
+    mockFetch([
+      {
+        method: 'POST',
+        path: '/api/users',
+        status: 400,
+        body: { statusCode: 400, message: ['password is too easy to guess: This is a commonly used password.'], error: 'Bad Request' },
+      },
+    ]);
+    renderWithApp(<CreateUser organizations={[lab]} />);
+    const dialog = openDialog();
+
+    fill(dialog, /^name/i, 'Weak Password');
+    fill(dialog, /e-mail/i, 'weak@kilocycle.test');
+    choose(dialog, /organisation/i, 'Quarry Lane Frequency Lab');
+    fill(dialog, /initial password/i, '123456789012');
+    fireEvent.click(within(dialog).getByRole('button', { name: 'Create user' }));
+
+    expect(await within(dialog).findByText('Password is too easy to guess: This is a commonly used password.')).toBeTruthy();
+    expect(within(dialog).queryByRole('alert')).toBeNull();
+    fill(dialog, /initial password/i, '123456789012x');
+    expect(within(dialog).queryByText(/too easy to guess/)).toBeNull();
+  });
+
   it('closes and refreshes the user list after creating the account', async () => {
     signInAs({ role: 'admin' });
     const created = createUser({ name: 'New Technician', role: 'technician' });
