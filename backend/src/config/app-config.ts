@@ -2,6 +2,9 @@ import { randomBytes } from 'node:crypto';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { checkEnvironment, ConfigError } from './env-schema.js';
+
+export { ConfigError } from './env-schema.js';
 
 export type AppMode = 'demo' | 'production';
 
@@ -17,22 +20,15 @@ export type AppConfig = {
   jwtTtlSeconds: number;
   adminPassword: string | null;
   bcryptCost: number;
+  /** The daily recall reminder: off with KC_RECALL_DISABLED, first run KC_RECALL_DELAY_MS after start. */
+  recall: { disabled: boolean; delayMs: number };
+  /** Proxies whose X-Forwarded-For is believed (KC_TRUSTED_PROXIES); empty: the socket's address is the client's. */
+  trustedProxies: string[];
 };
 
 const here = dirname(fileURLToPath(import.meta.url));
 /** The repository root: backend/dist/config or backend/src/config → ../../.. */
 export const REPO_ROOT = resolve(here, '..', '..', '..');
-
-function intFromEnv(env: NodeJS.ProcessEnv, key: string, fallback: number, problems: string[]): number {
-  const raw = env[key];
-  if (raw === undefined || raw === '') return fallback;
-  const value = Number(raw);
-  if (!Number.isInteger(value) || value <= 0 || value > 65535) {
-    problems.push(`${key} must be a whole number from 1 to 65535 (got "${raw}")`);
-    return fallback;
-  }
-  return value;
-}
 
 /** Reads a secret from the environment, else from a file under var/, creating it on first use. */
 function secretFromFile(varDir: string, fileName: string): string {
@@ -45,44 +41,44 @@ function secretFromFile(varDir: string, fileName: string): string {
 }
 
 /**
- * Builds the configuration from the environment, with defaults for a bench machine.
- * Throws one error listing every bad key, so a misconfigured start fails at once and says why.
+ * Builds the configuration from the environment, with defaults for a bench machine. Every KC_* value
+ * goes through the one schema (env-schema.ts); a bad one throws a ConfigError listing every bad key,
+ * so a misconfigured start fails at once and says why.
  */
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
-  const problems: string[] = [];
-  const mode = (env.KC_MODE ?? 'demo') as AppMode;
-  if (mode !== 'demo' && mode !== 'production') problems.push(`KC_MODE must be demo or production (got "${mode}")`);
-  const varDir = resolve(env.KC_VAR_DIR ?? join(REPO_ROOT, 'var'));
-  const port = intFromEnv(env, 'KC_PORT', 5180, problems);
-  const host = env.KC_HOST ?? '127.0.0.1';
-  const dbPort = intFromEnv(env, 'KC_DB_PORT', 3317, problems);
-  const adminPassword = env.KC_ADMIN_PASSWORD ?? null;
-  if (mode === 'production' && (!adminPassword || adminPassword.length < 12)) {
-    problems.push('KC_ADMIN_PASSWORD (12 characters or more) must be set in production mode');
-  }
+  const { values: v, problems } = checkEnvironment(env);
+  if (problems.length > 0) throw new ConfigError(problems);
+  const mode = v.KC_MODE ?? 'demo';
+  const varDir = resolve(v.KC_VAR_DIR ?? join(REPO_ROOT, 'var'));
+  const port = v.KC_PORT ?? 5180;
   const dbPasswordFile = join(varDir, 'db-password');
-  const dbPassword =
-    env.KC_DB_PASSWORD ?? (existsSync(dbPasswordFile) ? readFileSync(dbPasswordFile, 'utf8').trim() : '');
-  if (problems.length > 0) throw new Error(`Configuration problems: ${problems.join('; ')}`);
+  const dbPassword = v.KC_DB_PASSWORD ?? (existsSync(dbPasswordFile) ? readFileSync(dbPasswordFile, 'utf8').trim() : '');
   return {
     mode,
-    host,
+    host: v.KC_HOST ?? '127.0.0.1',
     port,
-    publicUrl: (env.KC_PUBLIC_URL ?? `http://127.0.0.1:${port}`).replace(/\/$/, ''),
+    publicUrl: (v.KC_PUBLIC_URL ?? `http://127.0.0.1:${port}`).replace(/\/$/, ''),
     varDir,
-    frontendDist: resolve(env.KC_FRONTEND_DIST ?? join(REPO_ROOT, 'frontend', 'dist')),
+    frontendDist: resolve(v.KC_FRONTEND_DIST ?? join(REPO_ROOT, 'frontend', 'dist')),
     db: {
-      host: env.KC_DB_HOST ?? '127.0.0.1',
-      port: dbPort,
-      name: env.KC_DB_NAME ?? 'kilocycle',
-      user: env.KC_DB_USER ?? 'kilocycle',
+      host: v.KC_DB_HOST ?? '127.0.0.1',
+      port: v.KC_DB_PORT ?? 3317,
+      name: v.KC_DB_NAME ?? 'kilocycle',
+      user: v.KC_DB_USER ?? 'kilocycle',
       password: dbPassword,
     },
-    jwtSecret: env.KC_JWT_SECRET ?? secretFromFile(varDir, 'jwt-secret'),
-    jwtTtlSeconds: intFromEnv(env, 'KC_JWT_TTL', 8 * 3600, problems),
-    adminPassword,
+    jwtSecret: v.KC_JWT_SECRET ?? secretFromFile(varDir, 'jwt-secret'),
+    jwtTtlSeconds: v.KC_JWT_TTL ?? 8 * 3600,
+    adminPassword: v.KC_ADMIN_PASSWORD ?? null,
     bcryptCost: 10,
+    recall: { disabled: v.KC_RECALL_DISABLED ?? false, delayMs: v.KC_RECALL_DELAY_MS ?? 60_000 },
+    trustedProxies: v.KC_TRUSTED_PROXIES ?? [],
   };
+}
+
+/** KC_* names in the environment that no part of Kilocycle reads (printed as warnings at start). */
+export function configWarnings(env: NodeJS.ProcessEnv = process.env): string[] {
+  return checkEnvironment(env).warnings;
 }
 
 export const APP_CONFIG = Symbol('APP_CONFIG');

@@ -1,5 +1,6 @@
 import nodemailer, { type Transporter } from 'nodemailer';
 import type { DataSource } from 'typeorm';
+import { checkEnvironment, ConfigError } from '../config/env-schema.js';
 import { MailMessage } from './mail-message.entity.js';
 import { parseMessage } from './mime.js';
 import { SmtpFake, type CapturedMail } from './smtp-fake.js';
@@ -27,17 +28,19 @@ export type MailSettings = {
 
 /** KC_SMTP_HOST/PORT/USER/PASSWORD/FROM/SECURE; without KC_SMTP_HOST the fake on 127.0.0.1:KC_SMTP_PORT (default 2526). */
 export function mailSettingsFromEnv(env: NodeJS.ProcessEnv = process.env): MailSettings {
-  const host = env.KC_SMTP_HOST?.trim() || null;
-  const rawPort = env.KC_SMTP_PORT ?? (host ? '587' : env.NODE_ENV === 'test' ? '0' : '2526');
-  const port = Number(rawPort);
-  if (!Number.isInteger(port) || port < 0 || port > 65535) throw new Error(`KC_SMTP_PORT must be a port number (got "${rawPort}")`);
+  // Read through the one settings schema: KC_SMTP_SECURE=1/yes/on count as on, a bad port is refused there.
+  const { values: v, problems } = checkEnvironment(env);
+  const bad = problems.filter((p) => p.key.startsWith('KC_SMTP_'));
+  if (bad.length > 0) throw new ConfigError(bad);
+  const host = v.KC_SMTP_HOST?.trim() || null;
+  const port = v.KC_SMTP_PORT ?? (host ? 587 : env.NODE_ENV === 'test' ? 0 : 2526);
   return {
     host,
     port,
-    secure: env.KC_SMTP_SECURE === 'true' || (host !== null && port === 465),
-    user: env.KC_SMTP_USER || null,
-    password: env.KC_SMTP_PASSWORD || null,
-    from: env.KC_SMTP_FROM || 'Kilocycle <no-reply@kilocycle.local>',
+    secure: v.KC_SMTP_SECURE ?? (host !== null && port === 465),
+    user: v.KC_SMTP_USER || null,
+    password: v.KC_SMTP_PASSWORD || null,
+    from: v.KC_SMTP_FROM || 'Kilocycle <no-reply@kilocycle.local>',
   };
 }
 

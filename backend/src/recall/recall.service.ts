@@ -24,9 +24,9 @@ export class RecallService implements OnApplicationBootstrap, OnApplicationShutd
   ) {}
 
   onApplicationBootstrap(): void {
-    // Off in tests (they call run()) and when KC_RECALL_DISABLED is set.
-    if (process.env.NODE_ENV === 'test' || process.env.KC_RECALL_DISABLED === 'true') return;
-    const delay = Number(process.env.KC_RECALL_DELAY_MS ?? 60_000);
+    // Off when KC_RECALL_DISABLED is on (the test app sets it; tests call run()).
+    if (this.config.recall.disabled) return;
+    const delay = this.config.recall.delayMs;
     const tick = () => {
       this.run(null).catch((error: unknown) => this.logger.error(`recall reminder failed: ${error instanceof Error ? error.message : String(error)}`));
     };
@@ -35,7 +35,7 @@ export class RecallService implements OnApplicationBootstrap, OnApplicationShutd
       const daily = setInterval(tick, DAY_MS);
       daily.unref();
       this.timers.push(daily);
-    }, Number.isFinite(delay) && delay >= 0 ? delay : 60_000);
+    }, delay);
     first.unref();
     this.timers.push(first);
   }

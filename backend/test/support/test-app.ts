@@ -10,6 +10,9 @@ import { typeormOptions } from '../../src/database/typeorm-options.js';
 import { DEMO_PASSWORD, seedDemo } from '../../src/seed/demo-seed.js';
 import { setupApp } from '../../src/setup-app.js';
 
+// The daily recall timer stays off in tests unless a test turns it on (they call run() instead).
+process.env.KC_RECALL_DISABLED ??= '1';
+
 export type TestApp = { app: NestExpressApplication; http: ReturnType<typeof request>; dataSource: DataSource; close: () => Promise<void> };
 
 /** Empties the test database (KC_DB_NAME, kilocycle_test under bin/kilocycle test), migrates and loads the demo data. */

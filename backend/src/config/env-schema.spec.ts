@@ -1,0 +1,104 @@
+import { loadConfig } from './app-config.js';
+import { checkEnvironment, ConfigError, validateEnvironment } from './env-schema.js';
+
+// Ranges are the ones the README's configuration table states; TCP ports run 1..65535 (RFC 793,
+// port 0 is reserved); the switch words are the usual shell ones (common practice, no published source).
+const SECRET = { KC_JWT_SECRET: 'a-test-secret' };
+
+describe('the settings schema', () => {
+  it('should list every bad key at once, each with its value and what it must be', () => {
+    const env = {
+      ...SECRET,
+      KC_PORT: '70000',
+      KC_DB_PORT: 'abc',
+      KC_JWT_TTL: '30',
+      KC_MODE: 'staging',
+      KC_RECALL_DISABLED: 'maybe',
+      KC_RECALL_DELAY_MS: '-5',
+      KC_IMPORT_MAX_MB: 'lots',
+      KC_PUBLIC_URL: 'ftp://lab.example',
+      KC_ADMIN_EMAIL: 'not an address',
+      KC_SMTP_FROM: 'Lab <nobody>',
+      KC_CERT_PREFIX: 'ql',
+      KC_HOST: 'bad host!',
+    };
+    const { problems } = checkEnvironment(env);
+    expect(problems.map((p) => p.key)).toEqual([
+      'KC_ADMIN_EMAIL', 'KC_CERT_PREFIX', 'KC_DB_PORT', 'KC_HOST', 'KC_IMPORT_MAX_MB', 'KC_JWT_TTL', 'KC_MODE',
+      'KC_PORT', 'KC_PUBLIC_URL', 'KC_RECALL_DELAY_MS', 'KC_RECALL_DISABLED', 'KC_SMTP_FROM',
+    ]);
+    let thrown: unknown;
+    try {
+      loadConfig(env);
+    } catch (error) {
+      thrown = error;
+    }
+    expect(thrown).toBeInstanceOf(ConfigError);
+    const message = (thrown as Error).message;
+    expect(message).toContain('Configuration problems (12)');
+    expect(message).toContain('KC_PORT must be a whole number from 1 to 65535 (got "70000")');
+    expect(message).toContain('KC_DB_PORT must be a whole number from 1 to 65535 (got "abc")');
+    expect(message).toContain('KC_JWT_TTL must be a number of seconds from 60 to 2592000 (got "30")');
+    expect(message).toContain('KC_MODE must be demo or production (got "staging")');
+    expect(message).toContain('KC_RECALL_DISABLED must be 1, true, yes or on to turn it on; 0, false, no or off to turn it off (got "maybe")');
+    expect(() => validateEnvironment(env)).toThrow(ConfigError);
+  });
+
+  it('should hide secrets in the message', () => {
+    const error = (() => {
+      try {
+        loadConfig({ KC_MODE: 'production', KC_ADMIN_PASSWORD: 'short', KC_JWT_SECRET: 'tiny' });
+      } catch (e) {
+        return e as Error;
+      }
+      throw new Error('no error');
+    })();
+    expect(error.message).toContain('KC_ADMIN_PASSWORD must be a password of 12 characters or more (got "(hidden)")');
+    expect(error.message).toContain('KC_JWT_SECRET must be 32 characters or more in production mode');
+    expect(error.message).not.toContain('short');
+    expect(error.message).not.toContain('tiny');
+  });
+
+  it.each([
+    ['1', true], ['true', true], ['TRUE', true], ['yes', true], ['Yes', true], ['on', true], [' on ', true],
+    ['0', false], ['false', false], ['False', false], ['no', false], ['NO', false], ['off', false],
+  ])('should read the switch KC_RECALL_DISABLED=%j as %s', (word, on) => {
+    expect(loadConfig({ ...SECRET, KC_RECALL_DISABLED: word }).recall.disabled).toBe(on);
+  });
+
+  it('should leave recall on by default, with the first run a minute after start', () => {
+    expect(loadConfig(SECRET).recall).toEqual({ disabled: false, delayMs: 60_000 });
+    expect(loadConfig({ ...SECRET, KC_RECALL_DELAY_MS: '250' }).recall.delayMs).toBe(250);
+  });
+
+  it('should honour a session of a day (KC_JWT_TTL=86400) and thirty days, and refuse more or less', () => {
+    expect(loadConfig({ ...SECRET, KC_JWT_TTL: '86400' }).jwtTtlSeconds).toBe(86_400);
+    expect(loadConfig({ ...SECRET, KC_JWT_TTL: '2592000' }).jwtTtlSeconds).toBe(30 * 86_400);
+    expect(loadConfig(SECRET).jwtTtlSeconds).toBe(8 * 3600);
+    for (const bad of ['59', '2592001', '1.5', '0x100', '8h']) expect(checkEnvironment({ KC_JWT_TTL: bad }).problems.map((p) => p.key)).toEqual(['KC_JWT_TTL']);
+  });
+
+  it('should take ports 1 and 65535 and refuse 0, 65536, hex and fractions', () => {
+    expect(loadConfig({ ...SECRET, KC_PORT: '1', KC_DB_PORT: '65535' })).toMatchObject({ port: 1, db: { port: 65535 } });
+    for (const bad of ['0', '65536', '0x50', '80.5', '-1']) expect(checkEnvironment({ KC_PORT: bad }).problems.map((p) => p.key)).toEqual(['KC_PORT']);
+  });
+
+  it('should check sizes, addresses and names by their own rules', () => {
+    expect(checkEnvironment({ KC_IMPORT_MAX_MB: '0.5', KC_ATTACHMENT_MAX_MB: '15', KC_PUBLIC_URL: 'https://lab.example/kc', KC_SMTP_FROM: 'Lab <lab@example.test>', KC_ADMIN_EMAIL: 'admin@localhost', KC_CERT_PREFIX: 'QL2', KC_DB_HOST: 'db.internal', KC_HOST: '::' }).problems).toEqual([]);
+    const bad = checkEnvironment({ KC_IMPORT_MAX_MB: '0', KC_ATTACHMENT_MAX_MB: '2000', KC_DB_NAME: 'kc; DROP', KC_SMTP_PORT: '99999', KC_SMTP_SECURE: 'sometimes' });
+    expect(bad.problems.map((p) => p.key)).toEqual(['KC_ATTACHMENT_MAX_MB', 'KC_DB_NAME', 'KC_IMPORT_MAX_MB', 'KC_SMTP_PORT', 'KC_SMTP_SECURE']);
+  });
+
+  it('should treat an empty value as unset', () => {
+    expect(loadConfig({ ...SECRET, KC_PORT: '', KC_RECALL_DISABLED: '' })).toMatchObject({ port: 5180, recall: { disabled: false } });
+  });
+
+  it('should warn about unknown KC_ names and not about the tooling ones', () => {
+    const { problems, warnings } = checkEnvironment({ KC_PROT: '5180', KC_RECAL_DISABLED: '1', KC_E2E_PORT: '5190', KC_SUITES: 'backend', PATH: '/bin' });
+    expect(problems).toEqual([]);
+    expect(warnings).toEqual([
+      'KC_PROT is not a Kilocycle setting and is ignored (a misspelling?)',
+      'KC_RECAL_DISABLED is not a Kilocycle setting and is ignored (a misspelling?)',
+    ]);
+  });
+});
