@@ -1,6 +1,6 @@
 import { useCallback, useMemo } from 'react';
 import { useSearchParams } from 'react-router-dom';
-import { MAX_PAGE_SIZE } from '@kilocycle/common/types';
+import { MAX_PAGE, MAX_PAGE_SIZE } from '@kilocycle/common/types';
 
 type ListDefaults = {
   pageSize: number;
@@ -34,7 +34,7 @@ export function useListSearchParams<F extends string = never>(defaults: ListDefa
     const filters = {} as Record<F, string>;
     for (const key of filterKeys) filters[key] = params.get(key) ?? '';
     return {
-      page: positiveInt(params.get('page'), 1),
+      page: positiveInt(params.get('page'), 1, MAX_PAGE),
       pageSize: positiveInt(params.get('pageSize'), defaults.pageSize, MAX_PAGE_SIZE),
       sort: allowedSort(params.get('sort'), defaults),
       q: params.get('q') ?? '',
