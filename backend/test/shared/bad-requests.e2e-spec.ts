@@ -118,6 +118,12 @@ describe('bad requests answer 4xx and change nothing (e2e, MariaDB)', () => {
       expect(res.status).toBe(400);
       expect(text(res)).toMatch(/pageSize/);
     });
+    it.each(['1e20', '100001', '0x2'])("a run's readings, ?page=%s, answers 400 naming page", async (page) => {
+      const [run] = await t.dataSource.query('SELECT id FROM runs ORDER BY id LIMIT 1');
+      const res = await t.http.get(`/api/runs/${run.id}/readings`).query({ page }).set(as('lead'));
+      expect(res.status).toBe(400);
+      expect(text(res)).toMatch(/^page /);
+    });
     it('the largest page is still a plain answer', async () => {
       const res = await t.http.get('/api/instruments').query({ page: '100000', pageSize: '500' }).set(as('lead'));
       expect(res.status).toBe(200);

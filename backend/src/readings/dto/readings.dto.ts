@@ -1,7 +1,7 @@
-import { Type } from 'class-transformer';
 import { ArrayMaxSize, ArrayMinSize, IsArray, IsBoolean, IsInt, IsOptional, IsString, Matches, Max, MaxLength, Min, MinLength } from 'class-validator';
-import { MAX_PAGE_SIZE, type AppendReadingsRequest, type ExcludeReadingRequest, type ListReadingsQuery, type ReadingInput } from '@kilocycle/common/types';
+import { MAX_PAGE, MAX_PAGE_SIZE, type AppendReadingsRequest, type ExcludeReadingRequest, type ListReadingsQuery, type ReadingInput } from '@kilocycle/common/types';
 import { QueryBoolean, Trim } from '../../shared/dto-helpers.js';
+import { DecimalInteger } from '../../shared/list-query.dto.js';
 import { MAX_BATCH } from '../readings-writer.service.js';
 
 /** Each reading is checked by ReadingsWriter (the one write path), which names the field that is wrong. */
@@ -21,10 +21,11 @@ export class ExcludeReadingDto implements ExcludeReadingRequest {
 }
 
 export class ListReadingsQueryDto implements ListReadingsQuery {
-  @IsOptional() @Type(() => Number) @IsInt() @Min(1)
+  // The same bounds as every other list (ListQueryDto): ?page=1e20 was a SQL error here too.
+  @IsOptional() @DecimalInteger() @IsInt() @Min(1) @Max(MAX_PAGE)
   page?: number;
 
-  @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(MAX_PAGE_SIZE)
+  @IsOptional() @DecimalInteger() @IsInt() @Min(1) @Max(MAX_PAGE_SIZE)
   pageSize?: number;
 
   @IsOptional() @IsString() @Matches(/^-?[a-zA-Z]+$/, { message: 'sort must be a field name, optionally preceded by - for descending' })
