@@ -38,7 +38,7 @@ async function main(command: string | undefined): Promise<void> {
       if (config.mode === 'demo') {
         console.log((await seedDemo(dataSource, config)) ? 'Demo data loaded' : 'Demo data already present');
       } else {
-        const email = process.env.KC_ADMIN_EMAIL ?? 'admin@localhost';
+        const email = config.adminEmail;
         console.log((await ensureAdmin(dataSource, config, email)) ? `Admin ${email} created` : 'An admin exists');
       }
     } else {

@@ -1,13 +1,16 @@
 import type { EntityManager } from 'typeorm';
 import type { CertificateSettings } from '@kilocycle/common/types';
+import { checkEnvironment } from '../config/env-schema.js';
 import { Setting } from './setting.entity.js';
 
 /** Defaults until an admin changes them; the first three may come from the environment. */
 export function defaultSettings(env: NodeJS.ProcessEnv = process.env): CertificateSettings {
+  // Through the settings schema: a prefix or address it refuses stopped the start already.
+  const { values } = checkEnvironment(env);
   return {
     allowSelfSign: false,
-    certificatePrefix: env.KC_CERT_PREFIX ?? 'QL',
-    labAddress: env.KC_LAB_ADDRESS ?? 'Address not set: an admin enters it under Settings',
+    certificatePrefix: values.KC_CERT_PREFIX ?? 'QL',
+    labAddress: values.KC_LAB_ADDRESS ?? 'Address not set: an admin enters it under Settings',
     calibrationPlace: "At the laboratory's permanent premises",
     recallNoticeDays: 30,
   };

@@ -19,6 +19,8 @@ export type AppConfig = {
   jwtSecret: string;
   jwtTtlSeconds: number;
   adminPassword: string | null;
+  /** The first admin's address in production mode (KC_ADMIN_EMAIL). */
+  adminEmail: string;
   bcryptCost: number;
   /** The daily recall reminder: off with KC_RECALL_DISABLED, first run KC_RECALL_DELAY_MS after start. */
   recall: { disabled: boolean; delayMs: number };
@@ -70,6 +72,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     jwtSecret: v.KC_JWT_SECRET ?? secretFromFile(varDir, 'jwt-secret'),
     jwtTtlSeconds: v.KC_JWT_TTL ?? 8 * 3600,
     adminPassword: v.KC_ADMIN_PASSWORD ?? null,
+    adminEmail: v.KC_ADMIN_EMAIL ?? 'admin@localhost',
     bcryptCost: 10,
     recall: { disabled: v.KC_RECALL_DISABLED ?? false, delayMs: v.KC_RECALL_DELAY_MS ?? 60_000 },
     trustedProxies: v.KC_TRUSTED_PROXIES ?? [],

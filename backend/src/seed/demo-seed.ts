@@ -2,6 +2,7 @@ import bcrypt from 'bcryptjs';
 import type { DataSource, EntityManager } from 'typeorm';
 import type { Role } from '@kilocycle/common/types';
 import type { AppConfig } from '../config/app-config.js';
+import { checkEnvironment } from '../config/env-schema.js';
 import { Organization } from '../organizations/organization.entity.js';
 import { passwordProblem } from '../users/password-policy.js';
 import { User } from '../users/user.entity.js';
@@ -70,7 +71,7 @@ export async function ensureAdmin(dataSource: DataSource, config: AppConfig, ema
     if (problem) throw new Error(`KC_ADMIN_PASSWORD is refused: ${problem}`);
     let lab = await manager.findOneBy(Organization, { kind: 'lab' });
     if (!lab) {
-      const id = (await manager.insert(Organization, { name: process.env.KC_LAB_NAME ?? 'Calibration Lab', kind: 'lab', contactEmail: null })).identifiers[0].id as number;
+      const id = (await manager.insert(Organization, { name: checkEnvironment(process.env).values.KC_LAB_NAME ?? 'Calibration Lab', kind: 'lab', contactEmail: null })).identifiers[0].id as number;
       lab = await manager.findOneByOrFail(Organization, { id });
     }
     const passwordHash = await bcrypt.hash(config.adminPassword!, config.bcryptCost);
