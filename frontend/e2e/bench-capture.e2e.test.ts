@@ -1,7 +1,7 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Instrument, Job, ListResponse } from '@kilocycle/common/types';
-import { keepScreenshot, launchBrowser, newPage, signIn } from './support/browser';
+import { keepScreenshot, launchBrowser, onNewPage, signIn } from './support/browser';
 import { apiGet, apiRequest, sessionToken } from './support/lab';
 
 // Journey 1 (PRODUCT.md §4): a technician opens a job, starts an as-found run on range 1, types ten dial/counter
@@ -47,15 +47,7 @@ describe('bench capture: journey 1 (browser)', () => {
   });
 
   it('should capture ten typed readings, fit them as they come, exclude one and keep it all over a reload', async () => {
-    const page = await newPage(browser);
-    try {
-      await journey(page);
-    } catch (error) {
-      await keepScreenshot(page, 'bench-capture-failure').catch(() => undefined);
-      throw error;
-    } finally {
-      await page.context().close();
-    }
+    await onNewPage(browser, 'bench-capture', journey);
   });
 });
 

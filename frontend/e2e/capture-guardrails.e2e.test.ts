@@ -1,7 +1,7 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Bench, Instrument, Job, ListResponse, Organization, Reading, Run } from '@kilocycle/common/types';
-import { keepScreenshot, launchBrowser, newPage, signIn } from './support/browser';
+import { keepScreenshot, launchBrowser, onNewPage, signIn } from './support/browser';
 import { apiGet, apiRequest, sessionToken } from './support/lab';
 
 // Issue 12, guardrails at capture: the new-run dialog pre-selects the bench's default standard and offers
@@ -21,15 +21,7 @@ describe('capture guardrails (browser)', () => {
   });
 
   it('pre-selects the bench standard, refuses the 1900 slip with its reason, stores it on one keystroke, and shows a correction', async () => {
-    const page = await newPage(browser);
-    try {
-      await guardrails(page);
-    } catch (error) {
-      await keepScreenshot(page, 'capture-guardrails-failure').catch(() => undefined);
-      throw error;
-    } finally {
-      await page.context().close();
-    }
+    await onNewPage(browser, 'capture-guardrails', guardrails);
   });
 });
 

@@ -30,3 +30,19 @@ export async function keepScreenshot(page: Page, name: string): Promise<void> {
   mkdirSync(SCREENSHOTS, { recursive: true });
   await page.screenshot({ path: join(SCREENSHOTS, `${name}.png`), fullPage: true });
 }
+
+/**
+ * Runs one journey on a fresh page of its own: on failure a screenshot named `<failureShot>-failure`
+ * is kept for a person to look at, and the page's context is closed either way.
+ */
+export async function onNewPage(browser: Browser, failureShot: string, journey: (page: Page) => Promise<void>): Promise<void> {
+  const page = await newPage(browser);
+  try {
+    await journey(page);
+  } catch (error) {
+    await keepScreenshot(page, `${failureShot}-failure`).catch(() => undefined);
+    throw error;
+  } finally {
+    await page.context().close();
+  }
+}
