@@ -52,6 +52,12 @@ export function useLiveReadings(runId: number, { enabled = true, onReadings }: U
       });
     });
     socket.on('disconnect', (reason) => {
+      // The server closes a socket whose session ended (sign-out, password or role change, deactivation)
+      // or expired; socket.io does not reconnect then, so the page must not say it will.
+      if (reason === 'io server disconnect') {
+        setStatus((s) => ({ ...s, state: 'refused', message: 'The live feed was closed because your session ended. Sign in again to follow the run live.' }));
+        return;
+      }
       setStatus((s) => ({ ...s, state: 'offline', message: reason === 'io client disconnect' ? null : 'Connection lost; reconnecting…' }));
     });
     socket.on('connect_error', (error: Error) => {
