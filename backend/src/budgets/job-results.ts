@@ -30,6 +30,7 @@ import type {
   Tolerance,
 } from '@kilocycle/common/types';
 import type { EntityManager } from 'typeorm';
+import { jsonColumn } from '../shared/json-column.js';
 
 /** Order of severity: the worst decision of a set is the one latest in this list. */
 const DECISION_ORDER: readonly Decision[] = ['pass', 'conditional_pass', 'conditional_fail', 'fail'];
@@ -122,9 +123,6 @@ export type CalibrationRunRow = {
 };
 type ReadingRow = { id: number; runId: number; seq: number; dial: number | null; frequency: number; excludedReason: string | null };
 
-function json<T>(value: unknown): T {
-  return (typeof value === 'string' ? JSON.parse(value) : value) as T;
-}
 
 /** The procedure a job uses: its chosen one, else the default, else the first active one. */
 export async function loadJobProcedure(manager: EntityManager, jobId: number): Promise<ProcedureFigures> {
@@ -144,7 +142,7 @@ export async function loadJobProcedure(manager: EntityManager, jobId: number): P
     dialHalfDivisionPercentOfSpan: Number(row.dial_half_division_pct),
     driftPpm: Number(row.drift_ppm),
     driftHz: Number(row.drift_hz),
-    extraComponents: json<ExtraComponent[]>(row.extra_components) ?? [],
+    extraComponents: jsonColumn<ExtraComponent[]>(row.extra_components) ?? [],
   };
 }
 
@@ -192,7 +190,7 @@ export async function loadCalibrationRuns(manager: EntityManager, jobId: number)
             driftPpm: num(row.drift_ppm),
             driftHz: num(row.drift_hz),
             counterResolutionHz: num(row.counter_resolution_hz),
-            extraComponents: row.extra_components === null ? null : json<ExtraComponent[]>(row.extra_components),
+            extraComponents: row.extra_components === null ? null : jsonColumn<ExtraComponent[]>(row.extra_components),
           },
   }));
 }
@@ -298,12 +296,12 @@ export async function computeJobResults(manager: EntityManager, jobId: number): 
     position: Number(r.position),
     label: String(r.label),
     dialUnit: r.dial_unit as DialUnit,
-    dialLaw: json<DialLaw>(r.dial_law),
+    dialLaw: jsonColumn<DialLaw>(r.dial_law),
     dialMin: Number(r.dial_min),
     dialMax: Number(r.dial_max),
     freqMinHz: Number(r.freq_min_hz),
     freqMaxHz: Number(r.freq_max_hz),
-    tolerance: json<Tolerance>(r.tolerance),
+    tolerance: jsonColumn<Tolerance>(r.tolerance),
   }));
   const readings: ReadingRow[] =
     runs.length === 0

@@ -2,6 +2,7 @@ import type { EntityManager } from 'typeorm';
 import { withOutcomes } from '@kilocycle/common/math';
 import type { CertificateStatus, JobResults, JobStatus, SignedRecord } from '@kilocycle/common/types';
 import { SIGNED_JOB_STATUSES } from '../reviews/job-guards.js';
+import { jsonColumn } from '../shared/json-column.js';
 
 export type SignedRecordRow = {
   certificateId: number;
@@ -14,9 +15,6 @@ export type SignedRecordRow = {
   results: JobResults;
 };
 
-function json<T>(value: unknown): T {
-  return (typeof value === 'string' ? JSON.parse(value) : value) as T;
-}
 
 /**
  * The record a signed job was signed with (its newest issued, superseded or withdrawn revision), or null
@@ -33,11 +31,11 @@ export async function loadSignedRecord(manager: EntityManager, jobId: number): P
     [jobId, SIGNED_JOB_STATUSES],
   );
   if (!row) return null;
-  const record = row.record === null ? null : json<SignedRecord>(row.record);
+  const record = row.record === null ? null : jsonColumn<SignedRecord>(row.record);
   const jobStatus = row.job_status as JobStatus;
   // The results as signed; only the job's status is today's. Results signed before the two outcomes were
   // kept get them derived from their own points.
-  const results = withOutcomes({ ...(record?.results ?? json<JobResults>(row.results)), jobStatus });
+  const results = withOutcomes({ ...(record?.results ?? jsonColumn<JobResults>(row.results)), jobStatus });
   return {
     certificateId: Number(row.id),
     number: String(row.number),

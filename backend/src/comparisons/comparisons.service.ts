@@ -10,12 +10,10 @@ import { likePattern } from '../shared/paginate.js';
 import { ComparisonEngine } from './comparison-engine.service.js';
 import { Comparison } from './comparison.entity.js';
 import type { ComputeComparisonDto, CreateComparisonDto, ListComparisonsQueryDto, UpdateComparisonDto } from './dto/comparison.dto.js';
+import { jsonColumn } from '../shared/json-column.js';
 
 const SORTABLE = { id: 'c.id', title: 'c.title', createdAt: 'c.createdAt', updatedAt: 'c.updatedAt' };
 
-function json<T>(value: unknown): T {
-  return (typeof value === 'string' ? JSON.parse(value) : value) as T;
-}
 
 export function toSavedComparison(c: Comparison): SavedComparison {
   return {
@@ -25,8 +23,8 @@ export function toSavedComparison(c: Comparison): SavedComparison {
     instrumentId: c.instrumentId,
     instrumentLabel: c.instrument ? instrumentLabel(c.instrument) : '',
     kind: c.kind,
-    runIds: json<number[]>(c.runIds),
-    labels: json<string[]>(c.labels),
+    runIds: jsonColumn<number[]>(c.runIds),
+    labels: jsonColumn<string[]>(c.labels),
     withinHz: c.withinHz,
     windowSeconds: c.windowSeconds,
     createdById: c.createdById,

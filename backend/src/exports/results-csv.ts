@@ -2,10 +2,8 @@ import type { EntityManager } from 'typeorm';
 import { analyseCalibration, MetrologyError } from '@kilocycle/common/math';
 import { RESULTS_CSV_COLUMNS, type DialLaw, type RunKind, type Tolerance } from '@kilocycle/common/types';
 import { csvLine } from './csv.js';
+import { jsonColumn } from '../shared/json-column.js';
 
-function json<T>(value: unknown): T {
-  return (typeof value === 'string' ? JSON.parse(value) : value) as T;
-}
 
 /**
  * A job's results as CSV: per calibration run (as-found, as-left) and dial setting, the nominal, the mean
@@ -36,7 +34,7 @@ export async function resultsCsv(manager: EntityManager, jobId: number, jobNumbe
       continue;
     }
     try {
-      const analysis = analyseCalibration({ law: json<DialLaw>(run.dial_law), tolerance: json<Tolerance>(run.tolerance), readings: usable });
+      const analysis = analyseCalibration({ law: jsonColumn<DialLaw>(run.dial_law), tolerance: jsonColumn<Tolerance>(run.tolerance), readings: usable });
       for (const p of analysis.points) {
         body += csvLine([
           job.number, Number(run.id), run.kind, run.label, p.dial, run.dial_unit, p.nominal, p.measured, p.n, p.sd,
