@@ -120,9 +120,9 @@ describe('comparisons (e2e, MariaDB)', () => {
     // Fit-based quantities carry ν = n − 3.
     expect(row('tau').values[0]!.df).toBe(717);
 
-    expect(row('tau').differences[1]!.sentence).toMatch(/^after: OA2 regulator: time constant τ lower by [\d.]+ s, 95 % interval [\d.]+ to [\d.]+$/);
+    expect(row('tau').differences[1]!.sentence).toMatch(/^after: OA2 regulator: time constant τ lower by [\d.]+ s \(95 % interval [\d.]+ to [\d.]+ s lower\)$/);
     expect(row('settlingTime').name).toBe('settling time (within 5 Hz)');
-    expect(row('settledDriftRate').differences[1]!.sentence).toMatch(/^after: OA2 regulator: settled drift rate (lower|higher) by [\d.]+ Hz\/min, 95 % interval/);
+    expect(row('settledDriftRate').differences[1]!.sentence).toMatch(/^after: OA2 regulator: settled drift rate (lower|higher) by [\d.]+ Hz\/min \(95 % interval [\d.]+( Hz\/min (lower|higher))? to [\d.]+ Hz\/min (lower|higher)/);
     expect(row('adev10s').differences[1]!.sentence).toMatch(/Allan deviation at 10 s (lower|higher|unchanged).* × 10⁻\S+/);
   });
 
@@ -172,7 +172,7 @@ describe('comparisons (e2e, MariaDB)', () => {
     expect(adev1.values[0]!.value).toBeGreaterThan(1.7e-9);
     expect(adev1.values[0]!.value).toBeLessThan(2.3e-9);
     expect(adev1.values[0]!.low).toBeLessThan(adev1.values[0]!.value);
-    expect(adev1.differences[1]!.sentence).toMatch(/^run \d+: Allan deviation at 1 s higher by [\d.]+ × 10⁻⁹, 95 % interval/);
+    expect(adev1.differences[1]!.sentence).toMatch(/^run \d+: Allan deviation at 1 s higher by [\d.]+ × 10⁻⁹ \(95 % interval [\d.]+ to [\d.]+ × 10⁻⁹ higher\)$/);
     expect(result.runs[0]!.fitProblem).toContain('not fitted');
     expect(result.runs[0]!.stability!.adev[0]!.tau).toBe(1);
   });

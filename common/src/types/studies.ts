@@ -56,7 +56,7 @@ export type ComparisonDifference = {
   /** Student-t quantile used. */
   t: number;
   confidence: number;
-  /** e.g. "after: settled drift rate lower by 4.1 Hz/min, 95 % interval 2.9 to 5.3". */
+  /** e.g. "after: settled drift rate lower by 4.1 Hz/min (95 % interval 2.9 to 5.3 Hz/min lower)". */
   sentence: string;
 };
 

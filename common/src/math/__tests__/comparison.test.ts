@@ -56,19 +56,36 @@ function jstat_variance(values: readonly number[]): number {
 }
 
 describe('describeDifference()', () => {
-  test('the wording of PRODUCT §5.5', () => {
+  // Closed cases: each end of the interval is stated with its unit and its own direction (b − a < 0 is "lower").
+  test('the wording of PRODUCT §5.5: a decrease whose interval lies wholly below zero', () => {
     expect(describeDifference('after', 'settled drift rate', 'Hz/min', { difference: -4.1, low: -5.3, high: -2.9 })).toBe(
-      'after: settled drift rate lower by 4.1 Hz/min, 95 % interval 2.9 to 5.3',
+      'after: settled drift rate lower by 4.1 Hz/min (95 % interval 2.9 to 5.3 Hz/min lower)',
+    );
+  });
+  test('a decrease whose interval straddles zero keeps sign and unit on both ends', () => {
+    expect(describeDifference('after', 'Allan deviation at 1 s', '× 10⁻⁹', { difference: -40, low: -82, high: 3 })).toBe(
+      'after: Allan deviation at 1 s lower by 40 × 10⁻⁹ (95 % interval 82 × 10⁻⁹ lower to 3 × 10⁻⁹ higher, so it includes no change)',
     );
   });
   test('an increase, and an interval that includes no change', () => {
     expect(describeDifference('after', 'τ', 's', { difference: 12.34, low: -3.21, high: 27.89, confidence: 0.95 })).toBe(
-      'after: τ higher by 12 s, 95 % interval -3 to 28 (the interval includes no change)',
+      'after: τ higher by 12 s (95 % interval 3 s lower to 28 s higher, so it includes no change)',
+    );
+  });
+  test('an increase wholly above zero, with no unit', () => {
+    expect(describeDifference('run 2', 'ratio', '', { difference: 0.5, low: 0.25, high: 0.75 })).toBe('run 2: ratio higher by 0.50 (95 % interval 0.25 to 0.75 higher)');
+  });
+  test('an end that rounds to zero reads "no change"', () => {
+    expect(describeDifference('after', 'f∞', 'Hz', { difference: -5, low: -10, high: -0.001 })).toBe('after: f∞ lower by 5.0 Hz (95 % interval 10.0 Hz lower to no change)');
+  });
+  test('no difference at all', () => {
+    expect(describeDifference('after', 'τ', 's', { difference: 0, low: -2, high: 2, confidence: 0.9 })).toBe(
+      'after: τ unchanged (90 % interval 2.0 s lower to 2.0 s higher, so it includes no change)',
     );
   });
   test('from a Welch result', () => {
     const text = describeDifference('after', 'frequency', 'Hz', welchFromSamples(before, after));
-    expect(text).toBe('after: frequency lower by 4.21 Hz, 95 % interval 3.67 to 4.75');
+    expect(text).toBe('after: frequency lower by 4.21 Hz (95 % interval 3.67 to 4.75 Hz lower)');
   });
   test('bad input', () => {
     expect(errorCode(() => describeDifference('a', 'b', 'c', { difference: Number.NaN, low: 0, high: 1 }))).toBe('not_finite');
