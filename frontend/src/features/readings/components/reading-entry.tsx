@@ -180,12 +180,16 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
     send(confirming !== null && confirming.dial === dial && confirming.counter === counter);
   };
 
-  // Enter on the dial moves on to the counter while the counter is still empty.
+  // Enter on the dial moves on to the counter while the counter is still empty, but only with a dial it can
+  // read: a dial it cannot read (`abc`) keeps the cursor where the fix is needed, with the reason.
   const onDialKey = (event: KeyboardEvent<HTMLInputElement>) => {
-    if (event.key === 'Enter' && !counter.trim() && dial.trim()) {
-      event.preventDefault();
-      counterRef.current?.focus();
+    if (event.key !== 'Enter' || counter.trim() || !dial.trim()) return;
+    event.preventDefault();
+    if (dialValue === null) {
+      setProblem({ field: 'dial', message: `Not a dial setting — ${dialError ?? 'type a number'}` });
+      return;
     }
+    counterRef.current?.focus();
   };
 
   const mono = { fontFamily: numberSx.fontFamily, fontSize: '1.125rem' };

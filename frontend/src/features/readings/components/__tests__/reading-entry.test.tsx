@@ -140,4 +140,20 @@ describe('<ReadingEntry>', () => {
     expect(counter.value).toBe('1900');
     expect(requests).toHaveLength(1);
   });
+
+  it('should keep the cursor on the dial with the reason when Enter follows a dial it cannot read, and move on after a number', () => {
+    signInAs({ role: 'technician' });
+    const { requests } = mockFetch([]);
+    const { dial, counter } = renderEntry();
+    dial.focus();
+    fireEvent.change(dial, { target: { value: 'abc' } });
+    fireEvent.keyDown(dial, { key: 'Enter' });
+    expect(document.activeElement).toBe(dial);
+    expect(screen.getByRole('alert').textContent).toContain('Not a dial setting');
+    expect(requests).toHaveLength(0);
+
+    fireEvent.change(dial, { target: { value: '1800' } });
+    fireEvent.keyDown(dial, { key: 'Enter' });
+    expect(document.activeElement).toBe(counter);
+  });
 });
