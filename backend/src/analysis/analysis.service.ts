@@ -13,19 +13,20 @@ import {
   MetrologyError,
   modifiedAdev,
   overlappingAdev,
-  settlingTime,
   supplySensitivity,
+  warmupSettling,
   warmupSummary,
   type CalibrationPoint,
   type DriftWindow,
 } from '@kilocycle/common/math';
 import {
   MAX_SERIES_POINTS,
-  type AnalysisBasis,
+  type ReadyAnalysisBasis,
   type CalibrationRunAnalysis,
   type KeyingRunAnalysis,
   type RunAlignment,
   type RunAnalysis,
+  type RunKind,
   type StabilityRunAnalysis,
   type SupplySensitivityRunAnalysis,
   type WarmupRunAnalysis,
@@ -81,37 +82,38 @@ export class AnalysisService {
       // Readings that arrived while loading make a newer series; cache it under its own counts only.
       if (series.count === counts.readingCount && countExcluded(series) === counts.excludedCount) this.series.set(seriesKey, series);
     }
-    const basis = (used: number): AnalysisBasis => ({
+    const basis = (used: number): ReadyAnalysisBasis => ({
       runId,
       runKind: run.kind,
       readingCount: series.count,
       excludedCount: countExcluded(series),
       usedCount: used,
+      state: 'ready',
     });
-    let result: RunAnalysis;
-    switch (run.kind) {
-      case 'as_found':
-      case 'as_left':
-        result = this.calibration(run.range, series, basis, query);
-        break;
-      case 'warmup':
-        result = this.warmup(series, basis, query);
-        break;
-      case 'stability':
-        result = this.stability(series, basis, query);
-        break;
-      case 'supply_sensitivity':
-        result = this.supply(series, basis);
-        break;
-      case 'keying':
-        result = this.keying(series, basis);
-        break;
-    }
+    // No included reading yet (a run just opened, or every reading excluded) is a state, not an error: say so for every kind.
+    const result: RunAnalysis =
+      series.count === countExcluded(series) ? { ...basis(0), state: 'empty', analysis: 'none' } : this.byKind(run.kind, run.range, series, basis, query);
     if (series.count === counts.readingCount && countExcluded(series) === counts.excludedCount) this.results.set(resultKey, result);
     return result;
   }
 
-  private calibration(range: InstrumentRange, series: RunSeries, basis: (used: number) => AnalysisBasis, query: RunAnalysisQueryDto): CalibrationRunAnalysis {
+  private byKind(kind: RunKind, range: InstrumentRange, series: RunSeries, basis: (used: number) => ReadyAnalysisBasis, query: RunAnalysisQueryDto): RunAnalysis {
+    switch (kind) {
+      case 'as_found':
+      case 'as_left':
+        return this.calibration(range, series, basis, query);
+      case 'warmup':
+        return this.warmup(series, basis, query);
+      case 'stability':
+        return this.stability(series, basis, query);
+      case 'supply_sensitivity':
+        return this.supply(series, basis);
+      case 'keying':
+        return this.keying(series, basis);
+    }
+  }
+
+  private calibration(range: InstrumentRange, series: RunSeries, basis: (used: number) => ReadyAnalysisBasis, query: RunAnalysisQueryDto): CalibrationRunAnalysis {
     const readings: Array<{ dial: number; frequency: number; excluded: boolean }> = [];
     for (let i = 0; i < series.count; i++) {
       if (Number.isNaN(series.dial[i]!)) continue;
@@ -176,7 +178,7 @@ export class AnalysisService {
     }
   }
 
-  private warmup(series: RunSeries, basis: (used: number) => AnalysisBasis, query: RunAnalysisQueryDto): WarmupRunAnalysis {
+  private warmup(series: RunSeries, basis: (used: number) => ReadyAnalysisBasis, query: RunAnalysisQueryDto): WarmupRunAnalysis {
     const { t, frequency } = includedByTime(series);
     const fit = fitWarmup(t, frequency, { linearTerm: query.linear === true });
     const withinHz = query.withinHz ?? DEFAULT_SETTLING_WITHIN_HZ;
@@ -195,18 +197,13 @@ export class AnalysisService {
       analysis: 'warmup',
       fit,
       summary: warmupSummary(t, frequency, fit, { kind: 'within_hz', hz: withinHz }),
-      settling: {
-        withinHz,
-        withinSeconds: settlingTime(fit, { kind: 'within_hz', hz: withinHz }),
-        rateHzPerMin,
-        rateSeconds: settlingTime(fit, { kind: 'rate_below', hzPerMin: rateHzPerMin }),
-      },
+      settling: warmupSettling(t, fit, { withinHz, rateHzPerMin }),
       drift: { windowSeconds, windows },
       series: { t: shown.x, frequency: shown.y, fitted: shown.x.map((time) => evaluateWarmup(fit, time)) },
     };
   }
 
-  private stability(series: RunSeries, basis: (used: number) => AnalysisBasis, query: RunAnalysisQueryDto): StabilityRunAnalysis {
+  private stability(series: RunSeries, basis: (used: number) => ReadyAnalysisBasis, query: RunAnalysisQueryDto): StabilityRunAnalysis {
     const { t, frequency } = includedByTime(series);
     if (t.length < 3) throw new MetrologyError('too_few_points', `a stability analysis requires at least 3 data points (the run has ${t.length})`);
     // The basic interval is the median spacing; gaps are then judged against it.
@@ -228,7 +225,7 @@ export class AnalysisService {
     };
   }
 
-  private supply(series: RunSeries, basis: (used: number) => AnalysisBasis): SupplySensitivityRunAnalysis {
+  private supply(series: RunSeries, basis: (used: number) => ReadyAnalysisBasis): SupplySensitivityRunAnalysis {
     const { t, frequency, aux } = includedByTime(series);
     const volts: number[] = [];
     const frequencies: number[] = [];
@@ -247,7 +244,7 @@ export class AnalysisService {
     };
   }
 
-  private keying(series: RunSeries, basis: (used: number) => AnalysisBasis): KeyingRunAnalysis {
+  private keying(series: RunSeries, basis: (used: number) => ReadyAnalysisBasis): KeyingRunAnalysis {
     const { t, frequency, aux } = includedByTime(series);
     const up: number[] = [];
     const down: number[] = [];

@@ -37,7 +37,7 @@ describe('run analysis (e2e, MariaDB)', () => {
       await postReadings(t, as('tech'), runId, dials.flatMap((dial) => [{ dial, frequency: measured(dial) }, { dial, frequency: measured(dial) }]));
       const res = await analysis(runId);
       expect(res.status).toBe(200);
-      expect(res.body).toMatchObject({ analysis: 'calibration', runKind: 'as_found', readingCount: 18, excludedCount: 0, usedCount: 18 });
+      expect(res.body).toMatchObject({ state: 'ready', analysis: 'calibration', runKind: 'as_found', readingCount: 18, excludedCount: 0, usedCount: 18 });
       relClose(res.body.fit.offsetHz, offset, 1e-6);
       relClose(res.body.fit.slope, slope, 1e-9);
       expect(res.body.fit.r2).toBeCloseTo(1, 12);
@@ -95,12 +95,13 @@ describe('run analysis (e2e, MariaDB)', () => {
       relClose(cleaned.body.fit.slope, slope, 1e-9);
     });
 
-    it('should answer 422 with the reason when there is nothing to analyse', async () => {
+    it('should give the first reading its error at once, with no fit before there are three settings', async () => {
       const runId = await freshRun('as_found');
+      await postReadings(t, as('tech'), runId, [{ dial: 1000, frequency: measured(1000) }]);
       const res = await analysis(runId);
-      expect(res.status).toBe(422);
-      expect(res.body).toMatchObject({ code: 'too_few_points' });
-      expect(res.body.message).toContain('requires at least 1 data point');
+      expect(res.status).toBe(200);
+      expect(res.body).toMatchObject({ state: 'ready', analysis: 'calibration', usedCount: 1, fit: null, tracking: null });
+      relClose(res.body.points[0].errorHz, offset + slope * 1e6, 1e-9);
     });
 
     it('should show the demo as-found error of about −0.9 % at the low end and an as-left within tolerance', async () => {
@@ -114,6 +115,34 @@ describe('run analysis (e2e, MariaDB)', () => {
       const after = await t.http.get(`/api/runs/${left.id}/analysis`).set(as('northgate'));
       for (const p of after.body.points as Array<{ errorHz: number; toleranceHz: number }>) expect(Math.abs(p.errorHz)).toBeLessThan(p.toleranceHz / 10);
       expect((await t.http.get(`/api/runs/${left.id}/analysis`).set(as('saltmarsh'))).status).toBe(404);
+    });
+  });
+
+  describe('runs with no readings yet', () => {
+    // A run just opened has nothing to compute: that is a state of the run (200, state "empty"), not an error.
+    it.each(['as_found', 'as_left', 'warmup', 'stability', 'supply_sensitivity', 'keying'])('should answer 200 with state "empty" for a new %s run', async (kind) => {
+      const runId = await freshRun(kind);
+      const res = await analysis(runId);
+      expect(res.status).toBe(200);
+      expect(res.body).toEqual({ runId, runKind: kind, readingCount: 0, excludedCount: 0, usedCount: 0, state: 'empty', analysis: 'none' });
+    });
+
+    it('should answer "empty" once every reading is excluded, and the analysis again when readings arrive', async () => {
+      const runId = await freshRun('as_found');
+      await postReadings(t, as('tech'), runId, [{ dial: 1000, frequency: 999_000 }]);
+      const list = await t.http.get(`/api/runs/${runId}/readings`).set(as('tech'));
+      await t.http.post(`/api/runs/${runId}/readings/${list.body.items[0].id}/exclusion`).set(as('tech')).send({ reason: 'Wrong range selected' });
+      const excluded = await analysis(runId);
+      expect(excluded.status).toBe(200);
+      expect(excluded.body).toMatchObject({ state: 'empty', analysis: 'none', readingCount: 1, excludedCount: 1, usedCount: 0 });
+      await postReadings(t, as('tech'), runId, [1000, 1500, 2000].map((dial) => ({ dial, frequency: dial * 1e3 + 100 })));
+      const ready = await analysis(runId);
+      expect(ready.body).toMatchObject({ state: 'ready', analysis: 'calibration', readingCount: 4, excludedCount: 1, usedCount: 3 });
+    });
+
+    it('should still hide another organisation\'s empty run (404)', async () => {
+      const runId = await freshRun('warmup');
+      expect((await t.http.get(`/api/runs/${runId}/analysis`).set(as('saltmarsh'))).status).toBe(404);
     });
   });
 
@@ -136,7 +165,8 @@ describe('run analysis (e2e, MariaDB)', () => {
       // Within 5 Hz: t = τ·ln(A/5); rate below 1 Hz/min: (A/τ)·e^(−t/τ) = 1/60 ⇒ t = τ·ln(60·A/τ).
       relClose(res.body.settling.withinSeconds, tau * Math.log(amplitude / 5), 1e-3);
       relClose(res.body.settling.rateSeconds, tau * Math.log((60 * amplitude) / tau), 1e-3);
-      expect(res.body.settling).toMatchObject({ withinHz: 5, rateHzPerMin: 1 });
+      // Both times (≈ 4 932 s and 3 944 s) lie inside the record, which ends at 4 × 2 699 = 10 796 s.
+      expect(res.body.settling).toMatchObject({ withinHz: 5, rateHzPerMin: 1, withinExtrapolated: false, rateExtrapolated: false, lastReadingSeconds: 10_796 });
       // Ten-minute windows: the record ends at 10 796 s, so 17 whole windows; the first is falling fastest.
       expect(res.body.drift.windowSeconds).toBe(600);
       expect(res.body.drift.windows).toHaveLength(17);
@@ -157,6 +187,16 @@ describe('run analysis (e2e, MariaDB)', () => {
       expect((await analysis(runId, '?withinHz=-1')).status).toBe(400);
     });
 
+
+    it('should mark a settling time beyond the last reading as extrapolated (18 s recorded of a τ = 20 s warm-up)', async () => {
+      const runId = await freshRun('warmup');
+      // f = 7 MHz + 1 200 Hz·e^(−t/20 s), a reading every 2 s up to 18 s: within 5 Hz only at 20·ln(240) ≈ 110 s.
+      await postReadings(t, as('tech'), runId, Array.from({ length: 10 }, (_, i) => ({ t: 2 * i, frequency: fInf + amplitude * Math.exp((-2 * i) / 20) })));
+      const res = await analysis(runId);
+      expect(res.status).toBe(200);
+      relClose(res.body.settling.withinSeconds, 20 * Math.log(amplitude / 5), 1e-3);
+      expect(res.body.settling).toMatchObject({ withinExtrapolated: true, rateExtrapolated: true, lastReadingSeconds: 18 });
+    });
     it('should answer 422 for a warm-up with too few readings', async () => {
       const runId = await freshRun('warmup');
       await postReadings(t, as('tech'), runId, [0, 10, 20, 30].map((time) => ({ t: time, frequency: fInf + 10 - time / 10 })));

@@ -4,8 +4,10 @@ import type { GapReport } from '../math/detect-gaps.js';
 import type { DialLaw } from '../math/dial-law.js';
 import type { DriftWindow } from '../math/drift-rate-windows.js';
 import type { WarmupFit } from '../math/fit-warmup.js';
+import type { WarmupSettling } from '../math/warmup-settling.js';
 import type { KeyingShift } from '../math/keying-shift.js';
 import type { StabilityPoint } from '../math/overlapping-adev.js';
+import type { AmateurBand, ItuRegion } from '../math/amateur-bands.js';
 import type { BandPlanRow } from '../math/plan-bands.js';
 import type { Tolerance } from '../math/tolerance.js';
 import type { WarmupSummary } from '../math/warmup-summary.js';
@@ -331,6 +333,15 @@ export type AnalysisBasis = {
   usedCount: number;
 };
 
+/** An analysis that was worked out from the run's readings. */
+export type ReadyAnalysisBasis = AnalysisBasis & { state: 'ready' };
+
+/**
+ * A run with no included reading yet (none recorded, or every one excluded): nothing to compute, which is a
+ * state of the run and not an error. Every run kind answers this way; readingCount and excludedCount say which.
+ */
+export type EmptyRunAnalysis = AnalysisBasis & { state: 'empty'; analysis: 'none' };
+
 /** A time series for a chart, LTTB-downsampled on the server to at most MAX_SERIES_POINTS points. */
 export type AnalysisSeries = { t: number[]; frequency: number[] };
 export const MAX_SERIES_POINTS = 2000;
@@ -338,7 +349,7 @@ export const MAX_SERIES_POINTS = 2000;
 export type AlignmentEnd = { dial: number; target: number; measured: number };
 export type RunAlignment = AlignLCResult & { low: AlignmentEnd; high: AlignmentEnd; mid: AlignmentEnd | null };
 
-export type CalibrationRunAnalysis = AnalysisBasis & {
+export type CalibrationRunAnalysis = ReadyAnalysisBasis & {
   analysis: 'calibration';
   range: Pick<InstrumentRange, 'id' | 'label' | 'dialUnit' | 'dialMin' | 'dialMax' | 'freqMinHz' | 'freqMaxHz' | 'tolerance'>;
   points: CalibrationPoint[];
@@ -352,17 +363,18 @@ export type CalibrationRunAnalysis = AnalysisBasis & {
   alignmentNote: string | null;
 };
 
-export type WarmupRunAnalysis = AnalysisBasis & {
+export type WarmupRunAnalysis = ReadyAnalysisBasis & {
   analysis: 'warmup';
   fit: WarmupFit;
   summary: WarmupSummary;
-  settling: { withinHz: number; withinSeconds: number | null; rateHzPerMin: number; rateSeconds: number | null };
+  /** Both settling times, each marked when it lies beyond the last reading (an extrapolation of the fit). */
+  settling: WarmupSettling;
   drift: { windowSeconds: number; windows: DriftWindow[] };
   /** Readings (downsampled) and the fitted curve at the same times. */
   series: AnalysisSeries & { fitted: number[] };
 };
 
-export type StabilityRunAnalysis = AnalysisBasis & {
+export type StabilityRunAnalysis = ReadyAnalysisBasis & {
   analysis: 'stability';
   /** Basic interval τ0 (s): the median spacing of the readings. */
   tau0: number;
@@ -373,13 +385,13 @@ export type StabilityRunAnalysis = AnalysisBasis & {
   series: AnalysisSeries;
 };
 
-export type SupplySensitivityRunAnalysis = AnalysisBasis & {
+export type SupplySensitivityRunAnalysis = ReadyAnalysisBasis & {
   analysis: 'supply_sensitivity';
   sensitivity: { hzPerVolt: number; seHzPerVolt: number; n: number };
   series: AnalysisSeries;
 };
 
-export type KeyingRunAnalysis = AnalysisBasis & {
+export type KeyingRunAnalysis = ReadyAnalysisBasis & {
   analysis: 'keying';
   shift: KeyingShift;
   series: AnalysisSeries;
@@ -390,11 +402,12 @@ export type RunAnalysis =
   | WarmupRunAnalysis
   | StabilityRunAnalysis
   | SupplySensitivityRunAnalysis
-  | KeyingRunAnalysis;
+  | KeyingRunAnalysis
+  | EmptyRunAnalysis;
 
 // ---- Band planner (GET /api/instruments/:id/band-plan?region=2&wantedHz=…) ----
 
-export type BandPlanQuery = { region?: 1 | 2 | 3; wantedHz?: number };
+export type BandPlanQuery = { region?: ItuRegion; wantedHz?: number };
 export type BandPlanSetting = {
   rangeId: number;
   rangeLabel: string;
@@ -409,7 +422,13 @@ export type BandPlanSetting = {
 };
 export type BandPlanResponse = {
   instrumentId: number;
-  region: 1 | 2 | 3;
+  region: ItuRegion;
+  /** The region's band table the rows were planned against, with each band's status and note. */
+  bands: AmateurBand[];
+  /** Where the band edges come from (AMATEUR_BANDS_SOURCE). */
+  source: string;
+  /** Said beside the bands: national allocations differ (NATIONAL_RULES_NOTE). */
+  nationalNote: string;
   rows: Array<BandPlanRow & { rangeId: number }>;
   /** Present when wantedHz was given: every range × multiplier that reaches it. */
   wanted: { outputHz: number; settings: BandPlanSetting[] } | null;
