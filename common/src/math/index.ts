@@ -24,7 +24,9 @@ export { alignLC, frequencyWithPadder, paddingForShift, type AlignLCInput, type 
 export { evaluateWarmup, fitWarmup, WARMUP_MAX_FIT_POINTS, type WarmupFit } from './fit-warmup.js';
 export { driftRateWindows, type DriftWindow } from './drift-rate-windows.js';
 export { settlingTime, type SettlingCriterion } from './settling-time.js';
+export { counterSettled, type CounterSettle } from './counter-settled.js';
 export { warmupSummary, type WarmupSummary } from './warmup-summary.js';
+export { warmupSettling, type WarmupSettling } from './warmup-settling.js';
 
 // Stability (§5.4)
 export { fractionalFrequency } from './fractional-frequency.js';
@@ -59,7 +61,18 @@ export { decide, TUR_FLAG_BELOW, type Decision, type DecisionResult, type Decisi
 export { jobOutcomes, withOutcomes } from './job-outcomes.js';
 
 // Band planner (§5.7)
-export { AMATEUR_BANDS_REGION2, bandsForRegion, US_60M_CHANNELS_HZ, type AmateurBand, type ItuRegion } from './amateur-bands.js';
+export {
+  AMATEUR_BANDS_BY_REGION,
+  AMATEUR_BANDS_SOURCE,
+  bandsForRegion,
+  ITU_REGION_NAMES,
+  ITU_REGIONS_WITH_BANDS,
+  NATIONAL_RULES_NOTE,
+  US_60M_CHANNELS_HZ,
+  type AmateurBand,
+  type AmateurBandStatus,
+  type ItuRegion,
+} from './amateur-bands.js';
 export { dialForOutput, planBands, type BandPlanRow } from './plan-bands.js';
 
 // Charts
