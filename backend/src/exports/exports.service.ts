@@ -105,8 +105,15 @@ export class ExportsService {
   }
 }
 
+/**
+ * A stored double as the figure it was entered as: rounded to 15 significant digits (DBL_DIG, the most a
+ * double carries for any decimal), which drops the noise of unit arithmetic (1820.7497 kHz × 1000 is
+ * stored as 1820749.7000000002) and keeps every digit a counter, a person or a file gave.
+ */
 function num(value: RowCell): number | null {
-  return value === null ? null : Number(value);
+  if (value === null) return null;
+  const n = Number(value);
+  return Number.isFinite(n) ? Number(n.toPrecision(15)) : n;
 }
 
 function toIso(value: RowCell): string | null {

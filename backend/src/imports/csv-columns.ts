@@ -185,6 +185,9 @@ export function convertRow(cells: readonly string[], columns: ResolvedColumns, r
   const timeText = cell('time');
   if (timeText === '') {
     if (needsTime(run.kind)) return { column: 'time', reason: `no time given (a ${run.kind} run needs the time of each reading)` };
+    // The file does not say when: t = 0, not the seconds from the run's start to the upload (which
+    // read as "30 h 26 min" for a file imported a day later). The readings table shows it as "—".
+    input.t = 0;
   } else if (ISO_TIME.test(timeText)) {
     const zoned = /(Z|[+-]\d{2}:?\d{2})$/i.test(timeText) ? timeText : `${timeText.replace(' ', 'T')}Z`;
     const at = Date.parse(zoned.replace(' ', 'T'));

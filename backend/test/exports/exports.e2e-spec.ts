@@ -56,6 +56,21 @@ describe('CSV exports (e2e, MariaDB)', () => {
     expect(new Date(lines[1]![6]!).toISOString()).toBe(lines[1]![6]);
   });
 
+  it('writes each number as entered, without the float noise of unit arithmetic', async () => {
+    const run = await createRun(t.dataSource, { organizationId: saltmarsh, benchId: null, kind: 'as_found' });
+    // "1820.7497 kHz" in hertz is 1820749.7000000002 as a double; 0.1 + 0.2 s is 0.30000000000000004.
+    await insertReadings(run.runId, [[0.1 + 0.2, 1820.7, 1820.7497 * 1000], [12.5, 1850, 1_850_003.125], [60, 1900.05, 1_900_049.999_999]]);
+    const res = await t.http.get(`/api/runs/${run.runId}/readings.csv`).set(auth('tech'));
+    expect(res.status).toBe(200);
+    const lines = parse(res.text);
+    expect(lines.slice(1).map((line) => line.slice(1, 4))).toEqual([
+      ['0.3', '1820.7', '1820749.7'],
+      ['12.5', '1850', '1850003.125'],
+      ['60', '1900.05', '1900049.999999'],
+    ]);
+    expect(res.text).not.toMatch(/\d{16}/);
+  });
+
   it('an exported file imports again into another run as it was', async () => {
     const source = await createRun(t.dataSource, { organizationId: saltmarsh, benchId: null, kind: 'warmup' });
     await insertReadings(source.runId, [[0, 7000, 7_000_010.25], [10, 7000, 7_000_005.5], [20, 7000, 7_000_003.125]]);

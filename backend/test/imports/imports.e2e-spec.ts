@@ -147,6 +147,18 @@ describe('CSV import (e2e, MariaDB)', () => {
     expect(await readingCount(t.dataSource, run.runId)).toBe(0);
   });
 
+  it('a calibration file with no time column stores no invented elapsed time (t = 0, not the time since the run started)', async () => {
+    const started = new Date(Date.now() - (30 * 3600 + 26 * 60) * 1000);
+    const calibration = await newRun('as_found', { startedAt: started });
+    const res = await upload('tech', calibration.runId, Buffer.from('dial,frequency\n7000,7000 kHz\n7100,7100.5 kHz\n'), 'untimed.csv');
+    expect(res.status).toBe(201);
+    expect(res.body).toMatchObject({ imported: 2, columns: { time: null } });
+    expect((await readings(calibration.runId)).map((r) => [Number(r.t_s), Number(r.dial), Number(r.frequency_hz)])).toEqual([
+      [0, 7000, 7_000_000],
+      [0, 7100, 7_100_500],
+    ]);
+  });
+
   it('a run that takes no readings answers 409: closed, or its job signed', async () => {
     const closed = await newRun('warmup', { status: 'closed' });
     expect((await upload('tech', closed.runId, MIXED, 'x.csv', { mode: 'valid' })).status).toBe(409);
