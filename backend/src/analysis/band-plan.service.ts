@@ -1,7 +1,17 @@
 import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import type { DataSource } from 'typeorm';
-import { analyseCalibration, dialForFrequency, dialForOutput, MetrologyError, planBands, type ItuRegion } from '@kilocycle/common/math';
+import {
+  AMATEUR_BANDS_SOURCE,
+  analyseCalibration,
+  bandsForRegion,
+  dialForFrequency,
+  dialForOutput,
+  MetrologyError,
+  NATIONAL_RULES_NOTE,
+  planBands,
+  type ItuRegion,
+} from '@kilocycle/common/math';
 import type { BandPlanResponse, BandPlanSetting } from '@kilocycle/common/types';
 import { unitMultiplier } from '@kilocycle/common/units';
 import type { AuthUser } from '../auth/auth-user.js';
@@ -27,7 +37,8 @@ export class BandPlanService {
     // planBands answers one row per range and multiplier, in the order given.
     const rangeOfRow = ranges.flatMap((r) => r.multipliers.map(() => r.id));
     const rows = planned.map((row, index) => ({ ...row, rangeId: rangeOfRow[index]! }));
-    if (wantedHz === undefined) return { instrumentId, region, rows, wanted: null };
+    const table = { bands: [...bandsForRegion(region)], source: AMATEUR_BANDS_SOURCE, nationalNote: NATIONAL_RULES_NOTE };
+    if (wantedHz === undefined) return { instrumentId, region, ...table, rows, wanted: null };
 
     const settings: BandPlanSetting[] = [];
     for (const range of ranges) {
@@ -58,7 +69,7 @@ export class BandPlanService {
         });
       }
     }
-    return { instrumentId, region, rows, wanted: { outputHz: wantedHz, settings } };
+    return { instrumentId, region, ...table, rows, wanted: { outputHz: wantedHz, settings } };
   }
 
   /** Averaged measured points of the range's latest calibration run that has at least two settings. */

@@ -214,11 +214,45 @@ describe('instruments and ranges (e2e, MariaDB)', () => {
       expect(Math.abs(byHand - 1850)).toBeGreaterThan(0.01);
     });
 
-    it('should answer 422 for a region without a sourced band table', async () => {
+    // Band edges: ITU Radio Regulations, Article 5 (edition 2020, entered from memory; fixtures/radio/amateur_hf_bands_itu_rr_art5.csv).
+    // Range A of N-1187 is 1750-2000 kHz at ×1, ×2, ×4: 1.75-2.0, 3.5-4.0 and 7.0-8.0 MHz.
+    it.each([
+      [1, { '160 m': [1.81e6, 1.85e6], '80 m': [3.5e6, 3.8e6], '40 m': [7.0e6, 7.2e6] }],
+      [2, { '160 m': [1.8e6, 2.0e6], '80 m': [3.5e6, 4.0e6], '40 m': [7.0e6, 7.3e6] }],
+      [3, { '160 m': [1.8e6, 2.0e6], '80 m': [3.5e6, 3.9e6], '40 m': [7.0e6, 7.2e6] }],
+    ] as const)('should plan against the bands of ITU Region %i, with the source and the national note', async (region, edges) => {
+      const generator = await bySerial('N-1187');
+      const res = await t.http.get(`/api/instruments/${generator.id}/band-plan?region=${region}`).set(as('tech'));
+      expect(res.status).toBe(200);
+      expect(res.body.region).toBe(region);
+      expect(res.body.source).toMatch(/^ITU Radio Regulations, Article 5/);
+      expect(res.body.nationalNote).toMatch(/check your licence/);
+      type Band = { name: string; lowHz: number; highHz: number; status: string };
+      expect(res.body.bands.map((b: Band) => b.name)).toEqual(['160 m', '80 m', '60 m', '40 m', '30 m', '20 m', '17 m', '15 m', '12 m', '10 m']);
+      expect(res.body.bands.find((b: Band) => b.name === '60 m')).toMatchObject({ lowHz: 5_351_500, highHz: 5_366_500, status: 'secondary' });
+      const rangeA = res.body.rows.filter((r: { rangeId: number }) => r.rangeId === generator.ranges[0]!.id);
+      type Covered = { name: string; coveredLowHz: number; coveredHighHz: number; full: boolean };
+      expect(rangeA.map((r: { bands: Covered[] }) => r.bands.map((b) => [b.name, b.coveredLowHz, b.coveredHighHz, b.full]))).toEqual([
+        [['160 m', ...edges['160 m'], true]],
+        [['80 m', ...edges['80 m'], true]],
+        [['40 m', ...edges['40 m'], true]],
+      ]);
+    });
+
+    it('should give a dial setting for a wanted frequency in Region 1, where the demo lab is', async () => {
       const generator = await bySerial('N-1041');
-      const res = await t.http.get(`/api/instruments/${generator.id}/band-plan?region=1`).set(as('tech'));
-      expect(res.status).toBe(422);
-      expect(res.body.message).toContain('Region 1');
+      const res = await t.http.get(`/api/instruments/${generator.id}/band-plan?region=1&wantedHz=3700000`).set(as('tech'));
+      expect(res.status).toBe(200);
+      expect(res.body.wanted.settings.find((s: { rangeId: number }) => s.rangeId === generator.ranges[0]!.id)).toMatchObject({ multiplier: 2, fundamentalHz: 1_850_000 });
+    });
+
+    it('should refuse a region that is not an ITU region with a band table, naming the problem', async () => {
+      const generator = await bySerial('N-1041');
+      for (const region of ['4', '0', 'one']) {
+        const res = await t.http.get(`/api/instruments/${generator.id}/band-plan?region=${region}`).set(as('tech'));
+        expect(res.status).toBe(400);
+        expect(res.body.message).toEqual(['region must be an ITU region with a band table: 1, 2, 3']);
+      }
     });
   });
 });

@@ -19,7 +19,7 @@ export type BandPlanRow = {
  * ITU region it overlaps (an overlap of positive width; touching at one edge does not count).
  *
  * @param ranges ranges with label, span in Hz and the multipliers the owner uses
- * @param region ITU region (only 2 is available, see bandsForRegion)
+ * @param region ITU region (see bandsForRegion)
  * @returns one row per range and multiplier, in input order
  * @throws {MetrologyError} 'bad_frequency' (span ≤ 0 or reversed), 'bad_argument' (multiplier ≤ 0),
  *   'region_not_available'

@@ -28,6 +28,7 @@ import {
   type Tolerance,
   type UpdateInstrumentRequest,
 } from '@kilocycle/common/types';
+import { ITU_REGIONS_WITH_BANDS, type ItuRegion } from '@kilocycle/common/math';
 import { IsDateOnly, QueryBoolean, Trim } from '../../shared/dto-helpers.js';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
 import { SingleLine } from '../../shared/single-line.decorator.js';
@@ -154,8 +155,8 @@ export class ListInstrumentsQueryDto extends ListQueryDto implements ListInstrum
 }
 
 export class BandPlanQueryDto implements BandPlanQuery {
-  @IsOptional() @Type(() => Number) @IsIn([1, 2, 3], { message: 'region must be 1, 2 or 3' })
-  region?: 1 | 2 | 3;
+  @IsOptional() @Type(() => Number) @IsIn([...ITU_REGIONS_WITH_BANDS], { message: `region must be an ITU region with a band table: ${ITU_REGIONS_WITH_BANDS.join(', ')}` })
+  region?: ItuRegion;
 
   @IsOptional() @Type(() => Number) @IsNumber(finite, { message: 'wantedHz must be a number in Hz' }) @Min(1, { message: 'wantedHz must be greater than zero' }) @Max(1e11)
   wantedHz?: number;
