@@ -7,6 +7,7 @@ import Typography from '@mui/material/Typography';
 import { Link as RouterLink } from 'react-router-dom';
 import { LAB_ROLES } from '@kilocycle/common/types';
 import { Num } from '@/components/ui/num';
+import { useOrganization } from '@/features/organizations/api/get-organization';
 import { navItemsFor } from '@/config/navigation';
 import { paths } from '@/config/paths';
 import { ROLE_DUTIES, ROLE_LABELS } from '@/config/roles';
@@ -22,6 +23,7 @@ export function WelcomePanel() {
   const user = useCurrentUser();
   const pages = navItemsFor(user.role).filter((item) => item.path !== paths.home);
   const labStaff = LAB_ROLES.includes(user.role);
+  const organization = useOrganization({ id: user.organizationId });
 
   return (
     <Box sx={{ maxWidth: 880 }}>
@@ -47,8 +49,8 @@ export function WelcomePanel() {
           <dt>Role</dt>
           <dd>{ROLE_LABELS[user.role]}</dd>
           <dt>Organisation</dt>
-          <dd>
-            <Num>#{user.organizationId}</Num>
+          <dd data-testid="organization-name">
+            {organization.data ? organization.data.name : organization.isError ? <Num>#{user.organizationId}</Num> : '…'}
           </dd>
         </Box>
         <Typography>{ROLE_DUTIES[user.role]}</Typography>
