@@ -3,6 +3,7 @@
 import { driftRateWindows } from '../drift-rate-windows.js';
 import { evaluateWarmup, fitWarmup } from '../fit-warmup.js';
 import { settlingTime } from '../settling-time.js';
+import { warmupSettling } from '../warmup-settling.js';
 import { warmupSummary } from '../warmup-summary.js';
 import { errorCode, expectRelative, seededGaussian } from './helpers.js';
 
@@ -171,5 +172,39 @@ describe('warmupSummary()', () => {
     const summary = warmupSummary(t, f, fitWarmup(t, f), { kind: 'within_hz', hz: 1 });
     expect(summary.firstHourCovered).toBe(false);
     expect(summary.driftPer10MinAfterSettlingHz).toBeNull();
+  });
+});
+
+describe('warmupSettling()', () => {
+  // Closed forms for A = −100 Hz, τ = 600 s, no linear term: within 1 Hz at τ·ln(100) ≈ 2 763 s;
+  // |df/dt| = (|A|/τ)·e^(−t/τ) = 10 Hz/min at t = 0, so below 1 Hz/min from τ·ln(10) ≈ 1 382 s.
+  const model = { amplitude: -100, tau: 600, linear: null };
+  const criteria = { withinHz: 1, rateHzPerMin: 1 };
+
+  test('a record of 14 s marks both settling times as beyond the last reading', () => {
+    const s = warmupSettling([0, 7, 14], model, criteria);
+    expectRelative(s.withinSeconds!, 600 * Math.log(100), 1e-14, 'within 1 Hz');
+    expectRelative(s.rateSeconds!, 600 * Math.log(10), 1e-14, 'below 1 Hz/min');
+    expect(s).toMatchObject({ withinExtrapolated: true, rateExtrapolated: true, lastReadingSeconds: 14, withinHz: 1, rateHzPerMin: 1 });
+  });
+  test('a record between the two times marks only the later one; readings out of order still give the last time', () => {
+    const s = warmupSettling([2000, 0, 1000], model, criteria);
+    expect(s).toMatchObject({ rateExtrapolated: false, withinExtrapolated: true, lastReadingSeconds: 2000 });
+  });
+  test('a record past both times marks neither; a settling time at the last reading itself is inside the record', () => {
+    expect(warmupSettling([0, 3000], model, criteria)).toMatchObject({ withinExtrapolated: false, rateExtrapolated: false });
+    // Within 100 Hz at t = 0 (|A| = 100): settled from power-on, inside any record.
+    expect(warmupSettling([0], model, { withinHz: 100, rateHzPerMin: 10 })).toMatchObject({ withinSeconds: 0, withinExtrapolated: false, rateSeconds: 0, rateExtrapolated: false });
+  });
+  test('a rule never met is null and not an extrapolation', () => {
+    // A linear drift of 0.02 Hz/s = 1.2 Hz/min never falls below 1 Hz/min.
+    const s = warmupSettling([0, 14], { ...model, linear: 0.02 }, criteria);
+    expect(s.rateSeconds).toBeNull();
+    expect(s.rateExtrapolated).toBe(false);
+  });
+  test('no readings, a non-finite time or a bad criterion is refused', () => {
+    expect(errorCode(() => warmupSettling([], model, criteria))).toBe('too_few_points');
+    expect(errorCode(() => warmupSettling([0, Number.NaN], model, criteria))).toBe('not_finite');
+    expect(errorCode(() => warmupSettling([0, 1], model, { withinHz: 0, rateHzPerMin: 1 }))).toBe('bad_argument');
   });
 });

@@ -30,17 +30,25 @@ import { Figure, Figures } from './figures';
 
 const tickStyle = { fontFamily: MONO_FONT, fontSize: 11 };
 
+/** Under a settling time: "never" when the rule is never met, and plainly when the time lies beyond the record (the fit's prediction). */
+export function settlingDetail(seconds: number | null, extrapolated: boolean, lastReadingSeconds: number): string | undefined {
+  if (seconds === null) return 'never, by this rule';
+  return extrapolated ? `extrapolated beyond the ${formatDuration(lastReadingSeconds)} recorded` : undefined;
+}
+
 type WarmupViewProps = {
   analysis: WarmupRunAnalysis | null;
   /** Why there is no fit yet (too few readings, no curvature yet…). */
   problem: string | null;
+  /** Said instead of a fit when the run has no included reading yet ("No readings yet."). */
+  empty?: string | null;
   /** The newest readings, live; shown beyond what the last analysis covered. */
   latest: readonly Reading[];
   skipAnimation?: boolean;
 };
 
 /** Frequency against time since power-on, with the fitted f∞ + A·e^(−t/τ) curve and its figures. */
-export function WarmupView({ analysis, problem, latest, skipAnimation }: WarmupViewProps) {
+export function WarmupView({ analysis, problem, empty = null, latest, skipAnimation }: WarmupViewProps) {
   const theme = useTheme();
   const fit = analysis?.fit ?? null;
   const [view, setView] = useState<'frequency' | 'residual'>('frequency');
@@ -161,9 +169,9 @@ export function WarmupView({ analysis, problem, latest, skipAnimation }: WarmupV
         <Typography variant="h3" component="h2" sx={{ mb: 1 }}>
           Warm-up fit
         </Typography>
-        {problem && !analysis && (
+        {!analysis && (empty || problem) && (
           <Alert severity="info" sx={{ mb: 1 }}>
-            No fit yet: {problem}
+            {empty ? `${empty} The fit appears as readings arrive.` : `No fit yet: ${problem}`}
           </Alert>
         )}
         {analysis && (
@@ -184,12 +192,14 @@ export function WarmupView({ analysis, problem, latest, skipAnimation }: WarmupV
               <Figure
                 label={`Settled within ${analysis.settling.withinHz} Hz`}
                 value={analysis.settling.withinSeconds === null ? '—' : formatDuration(analysis.settling.withinSeconds)}
-                detail={analysis.settling.withinSeconds === null ? 'never, by this rule' : undefined}
+                detail={settlingDetail(analysis.settling.withinSeconds, analysis.settling.withinExtrapolated, analysis.settling.lastReadingSeconds)}
+                testId="settled-within"
               />
               <Figure
                 label={`Drift below ${analysis.settling.rateHzPerMin} Hz/min`}
                 value={analysis.settling.rateSeconds === null ? '—' : formatDuration(analysis.settling.rateSeconds)}
-                detail={analysis.settling.rateSeconds === null ? 'never, by this rule' : undefined}
+                detail={settlingDetail(analysis.settling.rateSeconds, analysis.settling.rateExtrapolated, analysis.settling.lastReadingSeconds)}
+                testId="settled-rate"
               />
               <Figure
                 label="Drift, first hour"
