@@ -12,6 +12,7 @@ import Tooltip from '@mui/material/Tooltip';
 import Typography from '@mui/material/Typography';
 import { useId, useState } from 'react';
 import { numberSx } from '@/components/ui/num';
+import { SafetyCaution } from '@/features/runs/components/safety-caution';
 import { notify } from '@/lib/notifications';
 
 /** The command that streams a counter into a run with this token. */
@@ -83,6 +84,7 @@ export function BenchTokenDialog({ benchName, token, onClose }: BenchTokenDialog
               <TextField label="Source" value={source} onChange={(e) => setSource(e.target.value.trim())} helperText="scpi://host:5025, serial:/dev/ttyUSB0?baud=9600, stdin or simulate:warmup" />
             </Box>
             <CopyBox label="Command" text={bridgeCommand({ server, token, run, source })} />
+            <SafetyCaution />
           </Box>
         )}
       </DialogContent>

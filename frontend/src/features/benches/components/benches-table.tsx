@@ -126,8 +126,18 @@ export function BenchesTable({ isAdmin }: { isAdmin: boolean }) {
       >
         {confirm && (
           <>
-            The bridge on <strong>{confirm.bench.name}</strong> stops being accepted at once
-            {confirm.action === 'issue' ? ' until it is given the new token.' : '. Readings it still holds stay in its spool file.'}
+            {confirm.action === 'issue' ? (
+              <>
+                <strong>{confirm.bench.name}</strong> already has a token. A new one replaces it: a bridge running with the
+                old token is cut off at once and refused until it is started again with the new one. Readings it still holds
+                stay in its spool file and are sent once it runs again.
+              </>
+            ) : (
+              <>
+                The bridge on <strong>{confirm.bench.name}</strong> is cut off at once and refused from then on. Readings it
+                still holds stay in its spool file.
+              </>
+            )}
           </>
         )}
       </ConfirmDialog>
