@@ -103,7 +103,13 @@ describe('client portal and public verification (browser)', () => {
     const result = page.getByTestId('check-result');
     await result.getByText('Not the issued certificate').waitFor({ timeout: 15_000 });
     expect(await result.innerText()).toMatch(new RegExp(`does not match any issued revision of certificate ${certificate.number}`));
+    // The banner at the top changes too: a valid certificate says nothing good about a copy that differs from it.
+    const status = await page.getByTestId('certificate-status').innerText();
+    expect(status).toMatch(new RegExp(`^Your file is not the issued certificate ${certificate.number}`));
+    expect(status).not.toMatch(/Valid/);
     await keepScreenshot(page, 'verify-refused');
+    await page.setViewportSize({ width: 390, height: 844 });
+    await keepScreenshot(page, 'verify-refused-390');
     await page.context().close();
   });
 });

@@ -59,16 +59,44 @@ function CheckOutcome({ number, result, fileName }: { number: string; result: Ce
   );
 }
 
-function Details({ certificate }: { certificate: PublicCertificate }) {
+type CheckedFile = { result: CertificateCheckResult; fileName: string };
+
+/**
+ * The banner at the top: the certificate's own status until a file is checked, then what matters to the person
+ * holding that file (a valid certificate says nothing about a copy that differs from it).
+ */
+function StatusBanner({ certificate, checked }: { certificate: PublicCertificate; checked: CheckedFile | null }) {
+  const words = STATUS_WORDS[certificate.status];
+  let severity = words.severity;
+  let title = `${words.label}: certificate ${certificate.number}, revision ${certificate.revision}`;
+  let text = words.text;
+  if (checked && !checked.result.match) {
+    severity = 'error';
+    title = `Your file is not the issued certificate ${certificate.number}`;
+    text = `“${checked.fileName}” differs from every revision the laboratory issued, so do not rely on it. The laboratory’s own record of revision ${certificate.revision} is ${words.label.toLowerCase()}.`;
+  } else if (checked && checked.result.signatureValid === false) {
+    severity = 'error';
+    title = `Your file matches revision ${checked.result.revision}, but its signature did not verify`;
+    text = 'Ask the laboratory to confirm this certificate before relying on it.';
+  } else if (checked && checked.result.status) {
+    const revisionWords = STATUS_WORDS[checked.result.status];
+    severity = revisionWords.severity;
+    title = `${revisionWords.label}: your file is certificate ${certificate.number}, revision ${checked.result.revision}`;
+    text = revisionWords.text;
+  }
+  return (
+    <Alert severity={severity} variant="filled" sx={{ mb: 2 }} data-testid="certificate-status">
+      <AlertTitle sx={{ mb: 0 }}>{title}</AlertTitle>
+      {text}
+    </Alert>
+  );
+}
+
+function Details({ certificate, checked }: { certificate: PublicCertificate; checked: CheckedFile | null }) {
   const words = STATUS_WORDS[certificate.status];
   return (
     <>
-      <Alert severity={words.severity} variant="filled" sx={{ mb: 2 }} data-testid="certificate-status">
-        <AlertTitle sx={{ mb: 0 }}>
-          {words.label}: certificate {certificate.number}, revision {certificate.revision}
-        </AlertTitle>
-        {words.text}
-      </Alert>
+      <StatusBanner certificate={certificate} checked={checked} />
       <Paper variant="outlined" sx={{ p: 2.5, mb: 2 }}>
         <Box
           component="dl"
@@ -164,7 +192,7 @@ export function CertificateVerification({ number, onOtherNumber }: CertificateVe
       <Typography variant="h1" sx={{ mb: 2 }}>
         Certificate {certificate.data.number}
       </Typography>
-      <Details certificate={certificate.data} />
+      <Details certificate={certificate.data} checked={check.data && !check.isPending ? { result: check.data, fileName } : null} />
       <Paper variant="outlined" sx={{ p: 2.5, mb: 2 }}>
         <Typography variant="h2" sx={{ mb: 0.5 }}>
           Is your copy the issued one?

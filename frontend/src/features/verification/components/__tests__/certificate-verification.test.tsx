@@ -63,6 +63,38 @@ describe('<CertificateVerification>', () => {
     expect(within(result).getByText('Not the issued certificate')).toBeTruthy();
     expect(result.textContent).toMatch(/“altered.pdf” does not match any issued revision of certificate QL-2026-0001/);
     expect(result.textContent).toMatch(/Do not rely on it/);
+    // The banner at the top no longer says "Valid" once the file in hand has failed the check.
+    const status = screen.getByTestId('certificate-status');
+    expect(status.textContent).not.toMatch(/Valid/);
+    expect(status.textContent).toMatch(/^Your file is not the issued certificate QL-2026-0001/);
+    expect(status.className).toMatch(/Error/);
+  });
+
+  it('keeps the banner valid, naming the file, when the file is the current revision', async () => {
+    setup({ match: true, revision: 1, status: 'issued', sha256: HASH, signatureValid: true });
+    await upload('QL-2026-0001-rev1.pdf');
+    await screen.findByTestId('check-result');
+    const status = screen.getByTestId('certificate-status');
+    expect(status.textContent).toMatch(/^Valid: your file is certificate QL-2026-0001, revision 1/);
+    expect(status.className).toMatch(/Success/);
+  });
+
+  it('warns at the top when the file is a superseded revision', async () => {
+    setup({ match: true, revision: 1, status: 'superseded', sha256: HASH, signatureValid: true });
+    await upload('QL-2026-0001-rev1.pdf');
+    await screen.findByTestId('check-result');
+    const status = screen.getByTestId('certificate-status');
+    expect(status.textContent).toMatch(/^Superseded: your file is certificate QL-2026-0001, revision 1A later revision replaces this one/);
+    expect(status.className).toMatch(/Warning/);
+  });
+
+  it('says at the top when the file matches but its signature does not verify', async () => {
+    setup({ match: true, revision: 1, status: 'issued', sha256: HASH, signatureValid: false });
+    await upload('QL-2026-0001-rev1.pdf');
+    await screen.findByTestId('check-result');
+    const status = screen.getByTestId('certificate-status');
+    expect(status.textContent).toMatch(/its signature did not verify/);
+    expect(status.className).toMatch(/Error/);
   });
 
   it('says when there is no certificate of that number', async () => {
