@@ -20,6 +20,9 @@ number, so a second bridge on the same run carries on where the first stopped. E
 until the server acknowledges it; while the server is unreachable readings go to an append-only
 spool file and are sent again on reconnect, so each reading is stored exactly once.
 
+Caution: the equipment under test often holds hundreds of volts, also after switch-off. Follow your
+local electrical codes and licensed practice; Kilocycle does not judge whether a procedure is safe.
+
 Sources:
   scpi://HOST[:PORT]        a counter on a raw SCPI socket (port 5025 if left out); the bridge
                             sends --query every --interval and reads one answer line

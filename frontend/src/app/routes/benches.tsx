@@ -1,6 +1,8 @@
+import Box from '@mui/material/Box';
 import { PageHeader } from '@/components/ui/page-header';
 import { CreateBench } from '@/features/benches/components/create-bench';
 import { BenchesTable } from '@/features/benches/components/benches-table';
+import { SafetyCaution } from '@/features/runs/components/safety-caution';
 import { useStandards } from '@/features/standards/api/get-standards';
 import { useCurrentUser } from '@/lib/auth';
 import { formatDate } from '@/utils/format';
@@ -20,6 +22,9 @@ export default function BenchesRoute() {
         description="Measurement stations. A bench’s bridge streams its counter into the run it is given; an administrator issues the bridge token, which is shown once."
         actions={isAdmin ? <CreateBench standards={standardOptions} /> : undefined}
       />
+      <Box sx={{ mb: 2 }}>
+        <SafetyCaution compact>A bench joins a counter to the equipment under test, often a live valve set.</SafetyCaution>
+      </Box>
       <BenchesTable isAdmin={isAdmin} />
     </>
   );

@@ -9,6 +9,7 @@ import type { CalibrationRunAnalysis } from '@kilocycle/common/types';
 import { parseNumber } from '@kilocycle/common/units';
 import { Num, numberSx } from '@/components/ui/num';
 import { formatHz, formatNumber, formatSignedHz } from '@/utils/frequency';
+import { SafetyCaution } from '../safety-caution';
 
 function Row({ label, children }: { label: string; children: ReactNode }) {
   return (
@@ -55,6 +56,9 @@ export function AlignmentPanel({ analysis }: { analysis: CalibrationRunAnalysis 
       <Typography variant="h3" component="h2" sx={{ mb: 1 }}>
         Alignment
       </Typography>
+      <Box sx={{ mb: 1.5 }}>
+        <SafetyCaution compact>Alignment is done inside a working set, with the high tension on: use an insulated trimming tool.</SafetyCaution>
+      </Box>
       {!alignment ? (
         <Typography variant="body2" color="text.secondary">
           {analysis.alignmentNote ?? 'Measure both ends of the range to work out the alignment.'}

@@ -9,6 +9,7 @@ import type { FrequencyUnit } from '@kilocycle/common/types';
 import { parseFrequency, parseNumber } from '@kilocycle/common/units';
 import { Num, numberSx } from '@/components/ui/num';
 import { formatHz, formatNumber } from '@/utils/frequency';
+import { SafetyCaution } from '../safety-caution';
 
 const mono = { style: { fontFamily: numberSx.fontFamily } };
 
@@ -41,6 +42,9 @@ export function PaddingCalculator({ unit = 'kHz' }: { unit?: FrequencyUnit }) {
       <Typography variant="h3" component="h2" sx={{ mb: 1 }}>
         Padding calculator
       </Typography>
+      <Box sx={{ mb: 1.5 }}>
+        <SafetyCaution compact>Fit or change a padder with the set switched off, unplugged and its capacitors discharged.</SafetyCaution>
+      </Box>
       <Box sx={{ display: 'grid', gridTemplateColumns: '1fr 1fr', gap: 1.5 }}>
         <TextField label="Frequency now (f1)" value={f1} onChange={(e) => setF1(e.target.value)} slotProps={{ htmlInput: mono }} />
         <TextField label="Wanted (f2)" value={f2} onChange={(e) => setF2(e.target.value)} slotProps={{ htmlInput: mono }} />
