@@ -1,12 +1,16 @@
 import AddIcon from '@mui/icons-material/Add';
+import DeleteOutlined from '@mui/icons-material/DeleteOutlined';
+import EditOutlined from '@mui/icons-material/EditOutlined';
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
+import IconButton from '@mui/material/IconButton';
 import Paper from '@mui/material/Paper';
 import Table from '@mui/material/Table';
 import TableBody from '@mui/material/TableBody';
 import TableCell from '@mui/material/TableCell';
 import TableHead from '@mui/material/TableHead';
 import TableRow from '@mui/material/TableRow';
+import Tooltip from '@mui/material/Tooltip';
 import Typography from '@mui/material/Typography';
 import { useState } from 'react';
 import type { Instrument, InstrumentRange, RangeInput } from '@kilocycle/common/types';
@@ -76,7 +80,8 @@ export function RangesEditor({ instrument, canEdit }: RangesEditorProps) {
         </Typography>
       ) : (
         <Box sx={{ overflowX: 'auto' }}>
-          <Table size="small" aria-label="Ranges" sx={{ '& td, & th': { whiteSpace: 'nowrap' } }}>
+          {/* Figures stay on one line; the label and the law may wrap, so the row fits and its actions stay in view. */}
+          <Table size="small" aria-label="Ranges" sx={{ '& td, & th': { whiteSpace: 'nowrap' }, '& td.wraps': { whiteSpace: 'pre-wrap', minWidth: 96 } }}>
             <TableHead>
               <TableRow>
                 <TableCell>#</TableCell>
@@ -86,7 +91,14 @@ export function RangesEditor({ instrument, canEdit }: RangesEditorProps) {
                 <TableCell>Frequency span</TableCell>
                 <TableCell>Tolerance</TableCell>
                 <TableCell>Multipliers</TableCell>
-                {canEdit && <TableCell />}
+                {canEdit && (
+                  <TableCell align="right">
+                    {/* Named for screen readers; the icons below say it to the eye. */}
+                    <Box component="span" sx={{ position: 'absolute', width: 1, height: 1, overflow: 'hidden', clip: 'rect(0 0 0 0)', whiteSpace: 'nowrap' }}>
+                      Actions
+                    </Box>
+                  </TableCell>
+                )}
               </TableRow>
             </TableHead>
             <TableBody>
@@ -95,11 +107,11 @@ export function RangesEditor({ instrument, canEdit }: RangesEditorProps) {
                   <TableCell>
                     <Num>{range.position}</Num>
                   </TableCell>
-                  <TableCell sx={{ whiteSpace: 'pre' }}>{range.label}</TableCell>
+                  <TableCell className="wraps">{range.label}</TableCell>
                   <TableCell>
                     <Num>{describeDialSpan(range)}</Num>
                   </TableCell>
-                  <TableCell>{describeLaw(range)}</TableCell>
+                  <TableCell className="wraps">{describeLaw(range)}</TableCell>
                   <TableCell>
                     <Num>
                       {formatHz(range.freqMinHz)} – {formatHz(range.freqMaxHz)}
@@ -112,20 +124,24 @@ export function RangesEditor({ instrument, canEdit }: RangesEditorProps) {
                     <Num>{range.multipliers.map((m) => `×${m}`).join(' ')}</Num>
                   </TableCell>
                   {canEdit && (
-                    <TableCell align="right" sx={{ whiteSpace: 'nowrap' }}>
-                      <Button
-                        size="small"
-                        aria-label={`Edit range ${range.label}`}
-                        onClick={() => {
-                          update.reset();
-                          setEditing({ draft: toDraft(range), index });
-                        }}
-                      >
-                        Edit
-                      </Button>
-                      <Button size="small" color="error" aria-label={`Remove range ${range.label}`} onClick={() => setRemoving(range)}>
-                        Remove
-                      </Button>
+                    <TableCell align="right" sx={{ py: 0, width: '1%' }}>
+                      <Tooltip title="Edit range">
+                        <IconButton
+                          size="small"
+                          aria-label={`Edit range ${range.label}`}
+                          onClick={() => {
+                            update.reset();
+                            setEditing({ draft: toDraft(range), index });
+                          }}
+                        >
+                          <EditOutlined fontSize="small" />
+                        </IconButton>
+                      </Tooltip>
+                      <Tooltip title="Remove range">
+                        <IconButton size="small" color="error" aria-label={`Remove range ${range.label}`} onClick={() => setRemoving(range)}>
+                          <DeleteOutlined fontSize="small" />
+                        </IconButton>
+                      </Tooltip>
                     </TableCell>
                   )}
                 </TableRow>
