@@ -1,5 +1,4 @@
 import Box from '@mui/material/Box';
-import Paper from '@mui/material/Paper';
 import Typography from '@mui/material/Typography';
 import type { AuditEventView } from '@kilocycle/common/types';
 import { Num } from '@/components/ui/num';
@@ -30,14 +29,21 @@ export function correctionChanges(event: AuditEventView): Change[] {
   });
 }
 
-/** The run's corrections from the audit trail: who, when, what from → to, and why. Nothing when there are none. */
-export function RunCorrections({ runId }: { runId: number }) {
+/**
+ * The run's corrections from the audit trail: who, when, what from → to, and why. Nothing when there are none.
+ * `embedded` renders it as a part of another panel (the run's Notes) instead of a panel of its own.
+ */
+export function RunCorrections({ runId, embedded = false }: { runId: number; embedded?: boolean }) {
   const corrections = useRunCorrections({ runId });
   const items = corrections.data?.items ?? [];
   if (items.length === 0) return null;
   return (
-    <Paper variant="outlined" sx={{ p: 1.5, mt: 1.5 }} aria-label="Corrections of this run" component="section">
-      <Typography variant="subtitle2" component="h2" sx={{ mb: 0.5 }}>
+    <Box
+      component="section"
+      aria-label="Corrections of this run"
+      sx={embedded ? { mt: 1 } : { p: 1.5, mt: 1.5, border: 1, borderColor: 'divider', borderRadius: 1, bgcolor: 'background.paper' }}
+    >
+      <Typography variant="subtitle2" component={embedded ? 'h3' : 'h2'} sx={{ mb: 0.5 }}>
         Corrections of this run
       </Typography>
       <Box component="ul" sx={{ m: 0, pl: 2.5, display: 'grid', gap: 0.75 }}>
@@ -58,6 +64,6 @@ export function RunCorrections({ runId }: { runId: number }) {
           </Typography>
         ))}
       </Box>
-    </Paper>
+    </Box>
   );
 }

@@ -12,14 +12,14 @@ import { useCurrentUser } from '@/lib/auth';
 import { formatDateTime } from '@/utils/format';
 import { useUpdateRun } from '../api/update-run';
 import { CORRECTABLE_JOB_STATUSES, CorrectRunDialog } from './correct-run-dialog';
-import { RunCorrections } from './run-corrections';
+import { RunNotes } from './run-notes';
 import { RUN_KIND_LABELS, RunKindChip, RunStatusChip } from './run-labels';
 
 type RunHeaderProps = { run: Run; canWrite: boolean; extra?: ReactNode };
 
 /**
  * Title, where the run belongs, "Close run" and "Correct run details" for whoever may write to it
- * (corrections only while the job is open), and the run's corrections from the audit trail.
+ * (corrections only while the job is open), and, for lab staff, the run's Notes: its notes, imports and corrections.
  */
 export function RunHeader({ run, canWrite, extra }: RunHeaderProps) {
   const user = useCurrentUser();
@@ -82,7 +82,7 @@ export function RunHeader({ run, canWrite, extra }: RunHeaderProps) {
           No reference standard: set it with “Correct run details” before the job is submitted for review.
         </Typography>
       )}
-      {user.role !== 'client' && <RunCorrections runId={run.id} />}
+      {user.role !== 'client' && <RunNotes run={run} />}
       <ConfirmDialog
         open={closing}
         title="Close this run?"
