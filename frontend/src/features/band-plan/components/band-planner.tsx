@@ -12,16 +12,16 @@ import TableRow from '@mui/material/TableRow';
 import TextField from '@mui/material/TextField';
 import Typography from '@mui/material/Typography';
 import { useState } from 'react';
-import { Link as RouterLink } from 'react-router-dom';
+import { Link as RouterLink, useSearchParams } from 'react-router-dom';
+import { ITU_REGION_NAMES, ITU_REGIONS_WITH_BANDS, type ItuRegion } from '@kilocycle/common/math';
 import { parseFrequency } from '@kilocycle/common/units';
 import { Num, numberSx } from '@/components/ui/num';
 import { runPath } from '@/config/paths';
 import { useDebouncedValue } from '@/hooks/use-debounced-value';
 import { ApiError } from '@/lib/api-client';
 import { formatHz, formatHzShort, formatNumber } from '@/utils/frequency';
+import type { BandPlanResponse } from '@kilocycle/common/types';
 import { useBandPlan } from '../api/get-band-plan';
-
-type Region = 1 | 2 | 3;
 
 function readWanted(text: string): { hz: number | null; error: string | null } {
   if (!text.trim()) return { hz: null, error: null };
@@ -34,7 +34,19 @@ function readWanted(text: string): { hz: number | null; error: string | null } {
 
 /** An instrument's ranges × output multipliers against the amateur bands, and the dial setting for a wanted frequency. */
 export function BandPlanner({ instrumentId, dialUnits }: { instrumentId: number; dialUnits: Record<number, string> }) {
-  const [region, setRegion] = useState<Region>(2);
+  // The regions offered are the ones with a band table; the choice stays in the address (?region=1).
+  const [params, setParams] = useSearchParams();
+  const asked = Number(params.get('region'));
+  const region: ItuRegion = ITU_REGIONS_WITH_BANDS.find((r) => r === asked) ?? (ITU_REGIONS_WITH_BANDS.includes(2) ? 2 : ITU_REGIONS_WITH_BANDS[0]!);
+  const setRegion = (next: ItuRegion) =>
+    setParams(
+      (current) => {
+        const updated = new URLSearchParams(current);
+        updated.set('region', String(next));
+        return updated;
+      },
+      { replace: true },
+    );
   const [wantedText, setWantedText] = useState('');
   const wanted = readWanted(useDebouncedValue(wantedText, 300));
   const typed = readWanted(wantedText);
@@ -49,14 +61,16 @@ export function BandPlanner({ instrumentId, dialUnits }: { instrumentId: number;
             select
             label="ITU region"
             value={region}
-            onChange={(e) => setRegion(Number(e.target.value) as Region)}
+            onChange={(e) => setRegion(Number(e.target.value) as ItuRegion)}
             fullWidth={false}
-            sx={{ width: 220 }}
-            helperText="Region 2 is the band table on file"
+            sx={{ width: { xs: '100%', sm: 340 } }}
+            helperText="Band edges of the ITU table for this region"
           >
-            <MenuItem value={1}>Region 1</MenuItem>
-            <MenuItem value={2}>Region 2 (the Americas)</MenuItem>
-            <MenuItem value={3}>Region 3</MenuItem>
+            {ITU_REGIONS_WITH_BANDS.map((r) => (
+              <MenuItem key={r} value={r}>
+                {ITU_REGION_NAMES[r]}
+              </MenuItem>
+            ))}
           </TextField>
           <TextField
             label="Wanted output frequency"
@@ -64,7 +78,7 @@ export function BandPlanner({ instrumentId, dialUnits }: { instrumentId: number;
             value={wantedText}
             onChange={(e) => setWantedText(e.target.value)}
             fullWidth={false}
-            sx={{ width: 320 }}
+            sx={{ width: { xs: '100%', sm: 320 } }}
             error={Boolean(typed.error)}
             helperText={typed.error ?? (typed.hz ? `= ${formatHz(typed.hz)}` : 'With its unit: 14.2 MHz, 7050 kHz; a bare number is Hz')}
             slotProps={{ htmlInput: { style: { fontFamily: numberSx.fontFamily } } }}
@@ -75,6 +89,10 @@ export function BandPlanner({ instrumentId, dialUnits }: { instrumentId: number;
             {problem}
           </Alert>
         )}
+        <Alert severity="info" role="note" aria-label="About the band edges" sx={{ mt: 1.5 }}>
+          Band edges are a reference: what you may transmit, and where, depends on your licence and your local rules.
+          {plan.data && <> Source: {plan.data.source}.</>}
+        </Alert>
       </Paper>
 
       {plan.data?.wanted && (
@@ -197,6 +215,55 @@ export function BandPlanner({ instrumentId, dialUnits }: { instrumentId: number;
           </Table>
         )}
       </Paper>
+
+      {plan.data && <RegionBands region={plan.data.region} bands={plan.data.bands} nationalNote={plan.data.nationalNote} />}
     </Box>
+  );
+}
+
+/** Band edges as the ITU table prints them: kHz, a decimal only where there is one (5 351.5). */
+const kHz = (hz: number) => formatNumber(hz / 1000, Number.isInteger(hz / 1000) ? 0 : 1);
+
+/** The region's band table the plan used: edges, the amateur service's status and the allocation's note. */
+function RegionBands({ region, bands, nationalNote }: { region: ItuRegion; bands: BandPlanResponse['bands']; nationalNote: string }) {
+  return (
+    <Paper variant="outlined" sx={{ p: 2 }}>
+      <Typography variant="h3" component="h2" sx={{ mb: 0.5 }}>
+        Amateur bands, ITU Region {region}
+      </Typography>
+      <Typography variant="body2" color="text.secondary" sx={{ mb: 1 }}>
+        {nationalNote}
+      </Typography>
+      <Box sx={{ overflowX: 'auto' }}>
+        <Table size="small" aria-label={`Amateur bands of ITU Region ${region}`}>
+          <TableHead>
+            <TableRow>
+              <TableCell>Band</TableCell>
+              <TableCell align="right">Edges</TableCell>
+              <TableCell>Amateur service</TableCell>
+              <TableCell>Note</TableCell>
+            </TableRow>
+          </TableHead>
+          <TableBody>
+            {bands.map((band) => (
+              <TableRow key={band.name}>
+                <TableCell sx={{ whiteSpace: 'nowrap' }}>{band.name}</TableCell>
+                <TableCell align="right" sx={{ whiteSpace: 'nowrap' }}>
+                  <Num>
+                    {kHz(band.lowHz)} – {kHz(band.highHz)} kHz
+                  </Num>
+                </TableCell>
+                <TableCell>{band.status}</TableCell>
+                <TableCell>
+                  <Typography variant="body2" component="span" color={band.note ? 'text.primary' : 'text.secondary'}>
+                    {band.note ?? '—'}
+                  </Typography>
+                </TableCell>
+              </TableRow>
+            ))}
+          </TableBody>
+        </Table>
+      </Box>
+    </Paper>
   );
 }
