@@ -1,6 +1,7 @@
 import { Suspense } from 'react';
 import { Outlet } from 'react-router-dom';
 import { AppLayout } from '@/components/layouts/app-layout';
+import { DismissNoticesOnNavigation } from '@/components/notifications';
 import { FullPageSpinner } from '@/components/ui/full-page-spinner';
 import { RequireAuth } from '@/lib/auth';
 
@@ -8,6 +9,7 @@ import { RequireAuth } from '@/lib/auth';
 export function AppRoot() {
   return (
     <RequireAuth>
+      <DismissNoticesOnNavigation />
       <AppLayout>
         <Suspense fallback={<FullPageSpinner />}>
           <Outlet />
