@@ -29,14 +29,13 @@ export function ComparisonResultView({ result, fileTitle }: { result: Comparison
           <AdevChart result={result} fileTitle={fileTitle} />
         </ErrorBoundary>
       </Box>
-      <Box sx={{ display: 'grid', gridTemplateColumns: { xs: '1fr', lg: '3fr 1.2fr' }, gap: 2, alignItems: 'start' }}>
-        <ErrorBoundary>
-          <ComparisonTable result={result} fileTitle={fileTitle} />
-        </ErrorBoundary>
-        <ErrorBoundary>
-          <SensitivityPanel sensitivity={result.sensitivity} />
-        </ErrorBoundary>
-      </Box>
+      {/* The differences table takes the page's width: its columns (each run, each difference and its interval) need it. */}
+      <ErrorBoundary>
+        <ComparisonTable result={result} fileTitle={fileTitle} />
+      </ErrorBoundary>
+      <ErrorBoundary>
+        <SensitivityPanel sensitivity={result.sensitivity} />
+      </ErrorBoundary>
     </Box>
   );
 }

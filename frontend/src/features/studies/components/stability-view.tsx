@@ -15,12 +15,14 @@ import { ChartsLegend } from '@mui/x-charts/ChartsLegend';
 import { ChartsSurface } from '@mui/x-charts/ChartsSurface';
 import { ChartsTooltip } from '@mui/x-charts/ChartsTooltip';
 import { ChartsWrapper } from '@mui/x-charts/ChartsWrapper';
-import { useXScale, useYScale } from '@mui/x-charts/hooks';
 import { LinePlot, MarkPlot } from '@mui/x-charts/LineChart';
 import type { StabilityRunAnalysis } from '@kilocycle/common/types';
+import { ConfidenceBars } from '@/components/charts/confidence-bars';
 import { Num } from '@/components/ui/num';
 import { MONO_FONT } from '@/lib/theme';
 import { formatDuration, formatHzTo, formatNumber } from '@/utils/frequency';
+import { formatAxisNumber, logTicks } from '@/utils/log-axis';
+import { formatCount } from '@/utils/measurement';
 import { Figure, Figures } from './figures';
 
 const tickStyle = { fontFamily: MONO_FONT, fontSize: 11 };
@@ -35,38 +37,14 @@ export function formatDeviation(value: number | null | undefined, digits = 3): s
   return `${mantissa.toFixed(digits - 1)}×10${superscript}`;
 }
 
-type Bar = { tau: number; low: number; high: number };
-
-/** Confidence bars drawn on the chart's own log scales: a vertical line from the low to the high bound, with caps. */
-function ConfidenceBars({ bars, color }: { bars: readonly Bar[]; color: string }) {
-  const x = useXScale<'log'>();
-  const y = useYScale<'log'>();
-  return (
-    <g data-testid="adev-confidence-bars" stroke={color} strokeWidth={1.25}>
-      {bars.map((bar) => {
-        const cx = x(bar.tau);
-        const top = y(bar.high);
-        const bottom = y(bar.low);
-        if (![cx, top, bottom].every((v) => typeof v === 'number' && Number.isFinite(v))) return null;
-        return (
-          <g key={bar.tau}>
-            <line x1={cx} x2={cx} y1={top} y2={bottom} />
-            <line x1={cx - 4} x2={cx + 4} y1={top} y2={top} />
-            <line x1={cx - 4} x2={cx + 4} y1={bottom} y2={bottom} />
-          </g>
-        );
-      })}
-    </g>
-  );
-}
-
-type StabilityViewProps = { analysis: StabilityRunAnalysis | null; problem: string | null; skipAnimation?: boolean };
+/** empty: said instead of the analysis when the run has no included reading yet. */
+type StabilityViewProps = { analysis: StabilityRunAnalysis | null; problem: string | null; empty?: string | null; skipAnimation?: boolean };
 
 /** Overlapping Allan deviation against averaging time, log-log, with its confidence intervals and any gaps. */
-export function StabilityView({ analysis, problem, skipAnimation }: StabilityViewProps) {
+export function StabilityView({ analysis, problem, empty = null, skipAnimation }: StabilityViewProps) {
   const theme = useTheme();
   if (!analysis) {
-    return <Alert severity="info">{problem ? `No stability analysis yet: ${problem}` : 'Loading the analysis…'}</Alert>;
+    return <Alert severity="info">{empty ?? (problem ? `No stability analysis yet: ${problem}` : 'Loading the analysis…')}</Alert>;
   }
   const adev = analysis.adev.filter((p) => p.deviation > 0);
   const mdev = analysis.mdev.filter((p) => p.deviation > 0);
@@ -77,17 +55,9 @@ export function StabilityView({ analysis, problem, skipAnimation }: StabilityVie
   const all = [...adev.map((p) => p.deviation), ...mdev.map((p) => p.deviation), ...lows, ...highs];
   const yMin = all.length ? Math.min(...all) / 1.5 : undefined;
   const yMax = all.length ? Math.max(...all) * 1.5 : undefined;
-  // Label decades (and 2 and 5 between them when the plot spans under two decades), not every minor tick.
-  const yTicks: number[] = [];
-  if (yMin !== undefined && yMax !== undefined) {
-    const steps = Math.log10(yMax / yMin) < 2 ? [1, 2, 5] : [1];
-    for (let e = Math.floor(Math.log10(yMin)); e <= Math.ceil(Math.log10(yMax)); e++) {
-      for (const m of steps) {
-        const v = m * 10 ** e;
-        if (v >= yMin && v <= yMax) yTicks.push(v);
-      }
-    }
-  }
+  // Decades, with 2 and 5 between them where there is room: never every octave, whose labels collide.
+  const yTicks = yMin !== undefined && yMax !== undefined ? logTicks(yMin, yMax, 8) : [];
+  const xTicks = taus.length ? logTicks(taus[0]!, taus[taus.length - 1]!, 7) : [];
 
   const series = [
     {
@@ -139,9 +109,9 @@ export function StabilityView({ analysis, problem, skipAnimation }: StabilityVie
                   data: taus,
                   label: 'Averaging time τ (s)',
                   height: 50,
-                  tickInterval: taus,
+                  tickInterval: xTicks.length >= 2 ? xTicks : 'auto',
                   tickLabelStyle: tickStyle,
-                  valueFormatter: (v: number) => (v >= 1 ? formatNumber(v, 0) : String(v)),
+                  valueFormatter: (v: number) => formatAxisNumber(v),
                 },
               ]}
               yAxis={[
@@ -154,7 +124,7 @@ export function StabilityView({ analysis, problem, skipAnimation }: StabilityVie
                   max: yMax,
                   tickInterval: yTicks.length >= 2 ? yTicks : 'auto',
                   tickLabelStyle: tickStyle,
-                  valueFormatter: (v: number) => formatDeviation(v, 1),
+                  valueFormatter: (v: number, context) => (context.location === 'tick' ? formatAxisNumber(v) : formatDeviation(v)),
                 },
               ]}
             >
@@ -163,7 +133,7 @@ export function StabilityView({ analysis, problem, skipAnimation }: StabilityVie
                 <ChartsSurface>
                   <ChartsGrid horizontal vertical />
                   <LinePlot />
-                  <ConfidenceBars bars={adev.map((p) => ({ tau: p.tau, low: p.ciLow, high: p.ciHigh }))} color={theme.palette.primary.dark} />
+                  <ConfidenceBars testId="adev-confidence-bars" bars={adev.map((p) => ({ x: p.tau, low: p.ciLow, high: p.ciHigh }))} color={theme.palette.primary.dark} />
                   <MarkPlot />
                   <ChartsAxis />
                 </ChartsSurface>
@@ -179,7 +149,7 @@ export function StabilityView({ analysis, problem, skipAnimation }: StabilityVie
           Record
         </Typography>
         <Figures>
-          <Figure label="Readings used" value={analysis.usedCount} detail={`${analysis.excludedCount} excluded`} />
+          <Figure label="Readings used" value={formatCount(analysis.usedCount)} detail={`${formatCount(analysis.excludedCount)} excluded`} />
           <Figure label="Basic interval τ0" value={`${formatNumber(analysis.tau0, analysis.tau0 < 1 ? 3 : 1)} s`} />
           <Figure label="Reference f_ref" value={formatHzTo(analysis.referenceHz, 0.0001)} />
           <Figure label="σy at τ0" value={formatDeviation(adev[0]?.deviation)} />
@@ -232,7 +202,7 @@ export function StabilityView({ analysis, problem, skipAnimation }: StabilityVie
             {analysis.adev.map((p) => (
               <TableRow key={p.tau}>
                 <TableCell align="right">
-                  <Num>{formatNumber(p.tau, p.tau < 1 ? 3 : 0)}</Num>
+                  <Num>{formatAxisNumber(p.tau)}</Num>
                 </TableCell>
                 <TableCell align="right">
                   <Num>{formatDeviation(p.deviation)}</Num>
