@@ -17,6 +17,7 @@ import { ScatterPlot } from '@mui/x-charts/ScatterChart';
 import { useMemo, useState } from 'react';
 import type { CalibrationRunAnalysis } from '@kilocycle/common/types';
 import { MONO_FONT } from '@/lib/theme';
+import { yAxisWidth } from '@/utils/chart-layout';
 import { formatNumber } from '@/utils/frequency';
 
 export type ErrorUnit = 'hz' | 'percent';
@@ -59,6 +60,15 @@ export function ErrorChart({ analysis, skipAnimation, height = 320 }: ErrorChart
   const decimals = unit === 'hz' ? 1 : 4;
   const format = (v: number | null) => (v === null ? '' : `${formatNumber(v, decimals, true)} ${unitLabel}`);
   const dialLabel = `Dial setting (${range.dialUnit})`;
+  const tickFormat = (v: number) => formatNumber(v, unit === 'hz' ? 0 : 3);
+  // Room for the widest tick label the plotted values bring (an outlier of −9 400 Hz prints "-10 000").
+  const plotted = [
+    ...data.inliers.map((p) => p.y),
+    ...data.outliers.map((p) => p.y),
+    ...(data.fitLine ?? []),
+    ...data.tolLow.flatMap((t) => (t === null ? [] : [t, -t])),
+  ];
+  const yWidth = yAxisWidth(plotted, tickFormat, { fontSize: tickStyle.fontSize, min: 64 });
 
   const series = [
     ...(data.hasTolerance
@@ -160,9 +170,9 @@ export function ErrorChart({ analysis, skipAnimation, height = 320 }: ErrorChart
               {
                 id: 'error',
                 label: `Error (${unitLabel})`,
-                width: 80,
+                width: yWidth,
                 tickLabelStyle: tickStyle,
-                valueFormatter: (v: number) => formatNumber(v, unit === 'hz' ? 0 : 3),
+                valueFormatter: tickFormat,
               },
             ]}
           >
