@@ -1,4 +1,4 @@
-import { formatSignificant } from './frequency';
+import { formatNumber, formatSignificant } from './frequency';
 
 /** As formatSignificant, without trailing zeros after the point (`1.000` → `1`, `0.090 00` → `0.09`). */
 export function formatCompact(value: number | null | undefined, digits = 4): string {
@@ -6,6 +6,11 @@ export function formatCompact(value: number | null | undefined, digits = 4): str
   if (text.includes('\u00d7') || !text.includes('.')) return text;
   // Digit groups after the point are separated by spaces, so strip zeros and those spaces together.
   return text.replace(/\.?[0 ]+$/, '');
+}
+
+/** A count for people, digits grouped as every other number of the app: `25 000` readings. */
+export function formatCount(count: number | null | undefined): string {
+  return formatNumber(count, 0);
 }
 
 /** A byte count for people: `812 B`, `4.2 kB`, `18.6 MB`. */

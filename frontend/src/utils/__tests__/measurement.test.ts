@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatBytes, formatCompact } from '../measurement';
+import { formatBytes, formatCompact, formatCount } from '../measurement';
 
 describe('formatCompact()', () => {
   it('drops trailing zeros and the digit-group spaces between them', () => {
@@ -12,6 +12,15 @@ describe('formatCompact()', () => {
   it('leaves exponent forms and missing values alone', () => {
     expect(formatCompact(2.5e-9)).toMatch(/^2\.500×10⁻⁹$/);
     expect(formatCompact(null)).toBe('—');
+  });
+});
+
+describe('formatCount()', () => {
+  it('groups digits in threes with a space, as every number of the app', () => {
+    expect(formatCount(25_000)).toBe('25 000');
+    expect(formatCount(400_001)).toBe('400 001');
+    expect(formatCount(999)).toBe('999');
+    expect(formatCount(null)).toBe('—');
   });
 });
 

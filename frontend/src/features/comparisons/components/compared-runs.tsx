@@ -10,6 +10,7 @@ import type { ComparisonResult } from '@kilocycle/common/types';
 import { numberSx } from '@/components/ui/num';
 import { formatDateTime } from '@/utils/format';
 import { formatDuration, formatHzTo } from '@/utils/frequency';
+import { formatCount } from '@/utils/measurement';
 import { runColor } from '../utils/comparison-format';
 
 /** Which runs are compared: where they come from, how they were set up, and how much of each was used. */
@@ -62,7 +63,7 @@ export function ComparedRuns({ result }: { result: ComparisonResult }) {
                   )}
                 </TableCell>
                 <TableCell sx={{ ...numberSx, textAlign: 'right' }}>
-                  {run.usedCount} of {run.readingCount}
+                  {formatCount(run.usedCount)} of {formatCount(run.readingCount)}
                 </TableCell>
                 <TableCell sx={{ ...numberSx, textAlign: 'right' }}>{run.fit ? formatHzTo(run.fit.fInf, 0.1) : '—'}</TableCell>
                 <TableCell sx={{ ...numberSx, textAlign: 'right' }}>

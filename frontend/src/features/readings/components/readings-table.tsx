@@ -17,6 +17,7 @@ import { ApiError } from '@/lib/api-client';
 import { toSortParam } from '@/lib/data-grid';
 import { formatDateTime } from '@/utils/format';
 import { formatDuration, formatHz, formatHzTo, formatNumber } from '@/utils/frequency';
+import { formatCount } from '@/utils/measurement';
 import { useExcludeReading } from '../api/exclude-reading';
 import { useReadings } from '../api/get-readings';
 
@@ -122,13 +123,22 @@ export function ReadingsTable({ runId, unit, resolutionHz = 0.1, showDial = true
   const columns = useMemo<GridColDef<Reading>[]>(() => {
     const struck = (row: Reading) => (row.excluded ? { textDecoration: 'line-through', color: 'text.disabled' } : undefined);
     return [
-      { field: 'seq', headerName: '#', width: 70, renderCell: ({ row }) => <Num sx={struck(row)}>{row.seq}</Num> },
+      // Up to seven digits: a bridge at ten readings a second reaches 1 000 000 in a day. Sequence numbers are names, not grouped.
+      { field: 'seq', headerName: '#', width: 96, align: 'right', headerAlign: 'right', renderCell: ({ row }) => <Num sx={struck(row)}>{row.seq}</Num> },
       {
         field: 't',
         headerName: 'Time',
         width: 120,
-        // Tenths of a second while it matters (a fast bridge), then minutes and hours.
-        renderCell: ({ row }) => <Num sx={struck(row)}>{row.t < 60 ? `${formatNumber(row.t, 1)} s` : formatDuration(row.t)}</Num>,
+        // Tenths of a second while it matters (a fast bridge), then minutes and hours. A calibration file
+        // imported without a time column stores t = 0: the time is not known, so it says so.
+        renderCell: ({ row }) =>
+          showDial && row.source === 'import' && row.t === 0 ? (
+            <Box component="span" title="The imported file gave no time" sx={{ color: 'text.secondary' }}>
+              —
+            </Box>
+          ) : (
+            <Num sx={struck(row)}>{row.t < 60 ? `${formatNumber(row.t, 1)} s` : formatDuration(row.t)}</Num>
+          ),
       },
       ...(showDial
         ? [
@@ -208,7 +218,7 @@ export function ReadingsTable({ runId, unit, resolutionHz = 0.1, showDial = true
           Readings
         </Typography>
         <Typography variant="body2" color="text.secondary" data-testid="readings-count">
-          <Num>{readings.data?.total ?? 0}</Num> in this run
+          <Num>{formatCount(readings.data?.total ?? 0)}</Num> in this run
         </Typography>
       </Box>
       <Box sx={{ height }}>

@@ -10,6 +10,7 @@ import type { Run } from '@kilocycle/common/types';
 import { Num } from '@/components/ui/num';
 import { jobPath, runPath } from '@/config/paths';
 import { formatDateTime } from '@/utils/format';
+import { formatCount } from '@/utils/measurement';
 import { RunKindChip, RunStatusChip } from './run-labels';
 
 type RunsTableProps = { runs: readonly Run[]; showJob?: boolean; emptyText?: string; label?: string };
@@ -74,8 +75,8 @@ export function RunsTable({ runs, showJob = false, emptyText = 'No runs yet.', l
             </TableCell>
             <TableCell align="right">
               <Num>
-                {run.readingCount}
-                {run.excludedCount > 0 ? ` (${run.excludedCount} excl.)` : ''}
+                {formatCount(run.readingCount)}
+                {run.excludedCount > 0 ? ` (${formatCount(run.excludedCount)} excl.)` : ''}
               </Num>
             </TableCell>
             <TableCell>

@@ -5,6 +5,7 @@ import { useEffect, useState } from 'react';
 import type { Reading } from '@kilocycle/common/types';
 import { Num } from '@/components/ui/num';
 import { formatDuration, formatHzTo } from '@/utils/frequency';
+import { formatCount } from '@/utils/measurement';
 
 export type LiveFeedState = 'connecting' | 'live' | 'offline' | 'refused' | 'closed';
 
@@ -36,7 +37,7 @@ export function LiveStatus({ state, message, readingCount, last, lastArrivalAt }
     <Box sx={{ display: 'flex', alignItems: 'center', gap: 1.5, flexWrap: 'wrap' }} data-testid="live-status" aria-live="polite">
       <Chip size="small" color={COLORS[state]} variant={state === 'live' ? 'filled' : 'outlined'} label={LABELS[state]} />
       <Typography variant="body2">
-        <Num>{readingCount}</Num> readings
+        <Num>{formatCount(readingCount)}</Num> readings
       </Typography>
       {last && (
         <Typography variant="body2" color="text.secondary">

@@ -26,6 +26,7 @@ import type { Reading, WarmupRunAnalysis } from '@kilocycle/common/types';
 import { Num } from '@/components/ui/num';
 import { MONO_FONT } from '@/lib/theme';
 import { formatDuration, formatHzTo, formatNumber, formatSignedHz, formatSignificant } from '@/utils/frequency';
+import { formatCount } from '@/utils/measurement';
 import { Figure, Figures } from './figures';
 
 const tickStyle = { fontFamily: MONO_FONT, fontSize: 11 };
@@ -188,7 +189,7 @@ export function WarmupView({ analysis, problem, empty = null, latest, skipAnimat
               {analysis.fit.linear !== null && (
                 <Figure label="Linear term" value={`${formatNumber(analysis.fit.linear * 60, 3, true)} Hz/min`} />
               )}
-              <Figure label="Residual SD" value={`${formatNumber(analysis.fit.residualSd, 2)} Hz`} detail={`${analysis.usedCount} readings`} />
+              <Figure label="Residual SD" value={`${formatNumber(analysis.fit.residualSd, 2)} Hz`} detail={`${formatCount(analysis.usedCount)} readings`} />
               <Figure
                 label={`Settled within ${analysis.settling.withinHz} Hz`}
                 value={analysis.settling.withinSeconds === null ? '—' : formatDuration(analysis.settling.withinSeconds)}

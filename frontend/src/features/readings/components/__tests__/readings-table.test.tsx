@@ -1,0 +1,26 @@
+import { screen, waitFor, within } from '@testing-library/react';
+import { describe, expect, it } from 'vitest';
+import { createReading } from '@/testing/lab-generators';
+import { mockFetch } from '@/testing/fetch-mock';
+import { renderWithApp, signInAs } from '@/testing/test-utils';
+import { ReadingsTable } from '../readings-table';
+
+describe('<ReadingsTable>', () => {
+  it('should group the count, show a six-digit sequence number whole, and show no invented time for an untimed imported row', async () => {
+    signInAs({ role: 'technician' });
+    const untimed = createReading({ seq: 400_001, t: 0, source: 'import', dial: 1800, frequency: 1_820_749.7 });
+    const typed = createReading({ seq: 400_000, t: 95, source: 'manual', dial: 1750, frequency: 1_735_000 });
+    mockFetch([{ method: 'GET', path: '/api/runs/7/readings', body: { items: [untimed, typed], total: 400_001, page: 1, pageSize: 50 } }]);
+    renderWithApp(<ReadingsTable runId={7} canExclude={false} />, { path: '/runs/7' });
+
+    await waitFor(() => expect(screen.getByTestId('readings-count').textContent).toBe('400 001 in this run'));
+    const grid = screen.getByRole('grid', { name: 'Readings' });
+    const rows = await within(grid).findAllByRole('row');
+    const untimedRow = rows.find((row) => row.textContent?.includes('400001'));
+    const typedRow = rows.find((row) => row.textContent?.includes('400000'));
+    expect(untimedRow, 'the six-digit sequence number is printed whole').toBeDefined();
+    // The file gave no time: a dash, not the seconds from the run's start to the upload.
+    expect(within(untimedRow!).getByTitle('The imported file gave no time').textContent).toBe('—');
+    expect(typedRow!.textContent).toContain('1 min 35 s');
+  });
+});
