@@ -15,7 +15,7 @@ export {
   type CalibrationReading,
   type TrackingSummary,
 } from './analyse-calibration.js';
-export { dialForFrequency } from './dial-for-frequency.js';
+export { dialForFrequency, dialForFrequencyEstimate, type DialEstimate } from './dial-for-frequency.js';
 
 // Alignment and padding (§5.2)
 export { alignLC, frequencyWithPadder, paddingForShift, type AlignLCInput, type AlignLCResult } from './align-lc.js';

@@ -2,7 +2,7 @@
 // independent check of the studentised residuals, trade facts and properties.
 import fc from 'fast-check';
 import { analyseCalibration } from '../analyse-calibration.js';
-import { dialForFrequency } from '../dial-for-frequency.js';
+import { dialForFrequency, dialForFrequencyEstimate } from '../dial-for-frequency.js';
 import { dialToNominal, type DialLaw } from '../dial-law.js';
 import { fitLine } from '../fit-line.js';
 import { toleranceHz } from '../tolerance.js';
@@ -179,5 +179,36 @@ describe('dialForFrequency()', () => {
     expect(errorCode(() => dialForFrequency([{ dial: 0, measured: 1 }, { dial: 1, measured: 3 }, { dial: 2, measured: 2 }], 2.5))).toBe('not_monotonic');
     expect(errorCode(() => dialForFrequency([{ dial: 0, measured: 1 }], 1))).toBe('too_few_points');
     expect(errorCode(() => dialForFrequency([{ dial: 0, measured: 1 }, { dial: 0, measured: 2 }], 1))).toBe('bad_dial');
+  });
+});
+
+describe('dialForFrequencyEstimate()', () => {
+  const points = Object.freeze([
+    { dial: 2000, measured: 1_990_000 },
+    { dial: 1750, measured: 1_735_000 },
+    { dial: 1875, measured: 1_861_000 },
+  ]);
+  test('inside the measured span: the interpolation, not marked', () => {
+    expect(dialForFrequencyEstimate(points, 1_798_000)).toEqual({ dial: 1812.5, extrapolated: false, measuredFrom: 1750, measuredTo: 2000 });
+  });
+  test('beyond either end: the straight line through the two end points, marked as extrapolated (closed form)', () => {
+    // Low end: 1750 + (1 700 000 − 1 735 000)·125/126 000 = 1750 − 4375/126.
+    const low = dialForFrequencyEstimate(points, 1_700_000);
+    expectRelative(low.dial, 1750 - 4375 / 126, 1e-14, 'low end');
+    expect(low.extrapolated).toBe(true);
+    // High end: 2000 + (2 000 000 − 1 990 000)·125/129 000 = 2000 + 1250/129.
+    const high = dialForFrequencyEstimate(points, 2_000_000);
+    expectRelative(high.dial, 2000 + 1250 / 129, 1e-14, 'high end');
+    expect(high.extrapolated).toBe(true);
+    // A dial whose frequency falls as it rises: beyond its high-frequency end lies below its lowest dial.
+    const falling = dialForFrequencyEstimate([{ dial: 0, measured: 2e6 }, { dial: 100, measured: 1e6 }], 2.5e6);
+    expect(falling).toEqual({ dial: -50, extrapolated: true, measuredFrom: 0, measuredTo: 100 });
+  });
+  test('refuses a setting beyond the dial span, and keeps every other refusal of dialForFrequency', () => {
+    expect(errorCode(() => dialForFrequencyEstimate(points, 2_000_000, { min: 1700, max: 2005 }))).toBe('outside_span');
+    expect(dialForFrequencyEstimate(points, 2_000_000, { min: 1700, max: 2020 }).extrapolated).toBe(true);
+    expect(errorCode(() => dialForFrequencyEstimate([{ dial: 0, measured: 1 }, { dial: 1, measured: 3 }, { dial: 2, measured: 2 }], 4))).toBe('not_monotonic');
+    expect(errorCode(() => dialForFrequencyEstimate([{ dial: 0, measured: 1 }], 2))).toBe('too_few_points');
+    expect(errorCode(() => dialForFrequencyEstimate(points, Number.NaN))).toBe('not_finite');
   });
 });
