@@ -35,7 +35,7 @@ log(`database ${process.env.KC_DB_NAME}: migrated and seeded in ${ms(t0).toFixed
 
 t0 = process.hrtime.bigint();
 const makers = ['Ashby', 'Brookfield', 'Calder', 'Dunmore', 'Elstow', 'Fairlie', 'Garrow', 'Hollins', 'Ixworth', 'Jessop'];
-const models = ['SG-2 signal generator', 'VFO-7 oscillator', 'GDO-1 dip meter', 'RX-9 receiver', 'TX-40 transmitter'];
+const models = ['SG-2 signal generator', 'VFO-7 oscillator', 'GDO-1 dip meter', 'RX-9 receiver', 'TX-6 transmitter'];
 const random = seededRandom(7);
 const today = Date.now();
 const isoDay = (offsetDays) => new Date(today + offsetDays * 86_400_000).toISOString().slice(0, 10);

@@ -38,14 +38,14 @@ describe('comparison of warm-up studies (browser)', () => {
     await page.getByLabel(`Compare run ${before!.id}`).check();
     await page.getByLabel(`Compare run ${after!.id}`).check();
     await page.getByLabel(`Label of run ${before!.id}`).fill('before: original unregulated HT');
-    await page.getByLabel(`Label of run ${after!.id}`).fill('after: OA2 regulator fitted');
+    await page.getByLabel(`Label of run ${after!.id}`).fill('after: gas regulator valve fitted');
     await page.getByRole('button', { name: 'Compare', exact: true }).click();
 
     const sentences = page.getByTestId('comparison-sentence');
     await sentences.first().waitFor({ timeout: 30_000 });
     const said = await sentences.allInnerTexts();
     expect(said.length).toBeGreaterThanOrEqual(4);
-    expect(said.some((s) => /^after: OA2 regulator fitted: time constant τ (lower|higher) by .*, 95 % interval /.test(s))).toBe(true);
+    expect(said.some((s) => /^after: gas regulator valve fitted: time constant τ (lower|higher) by .* \(95 % interval /.test(s))).toBe(true);
     expect(said.some((s) => /settled drift rate .*95 % interval/.test(s))).toBe(true);
     await page.getByRole('region', { name: 'Drift from power-on' }).locator('svg path[data-series^="fit-"]').first().waitFor();
     await page.getByRole('region', { name: 'Allan deviation' }).locator('svg path[data-series^="adev-"]').first().waitFor();

@@ -8,7 +8,7 @@ import { Bench } from './bench.entity.js';
 
 export const DEMO_BENCHES = { main: 'Bench 1', cage: 'Bench 2 (screened room)' } as const;
 /** The instrument whose open warm-up run on Bench 1 takes the live demo (journey 2). */
-export const DEMO_LIVE_INSTRUMENT = { make: 'Kestrel', model: 'VFO-40 variable frequency oscillator', serial: 'KV40-0288' } as const;
+export const DEMO_LIVE_INSTRUMENT = { make: 'Brackwell', model: 'BV-12 variable frequency oscillator', serial: 'BV12-0288' } as const;
 
 /**
  * Two benches (Bench 1 with the in-date counter as its default standard, no tokens yet: an admin
@@ -31,7 +31,7 @@ export async function seedDemoBenches({ manager, customerIds, userIds }: DemoCon
       organizationId: customerIds.northgate,
       ...DEMO_LIVE_INSTRUMENT,
       assetTag: 'NRC-19',
-      description: 'The club transmitter’s valve VFO (6AG7 Clapp), kHz dial; members report it drifts for the first half hour.',
+      description: 'The club transmitter’s valve VFO (a pentode Clapp oscillator), kHz dial; members report it drifts for the first half hour.',
       recallIntervalMonths: 12,
       nextDueDate: null,
     })

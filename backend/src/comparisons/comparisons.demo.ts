@@ -17,12 +17,12 @@ export async function seedDemoComparisons({ manager, customerIds, userIds }: Dem
   const engineer = userIds['engineer@kilocycle.test'];
   if (pair.length < 2 || engineer === undefined) return;
   await manager.insert(Comparison, {
-    title: 'CR-7 local oscillator warm-up: before and after the OA2 regulator',
+    title: 'CR-7 local oscillator warm-up: before and after the gas regulator valve',
     notes: 'Both cold starts after 12 h off, dial at 7.000 MHz, BFO off. The regulator holds the oscillator HT steady while the rectifier and filter warm up.',
     instrumentId: Number(first!.instrument_id),
     kind: 'warmup',
     runIds: pair.map((r) => Number(r.id)),
-    labels: ['before: original unregulated HT', 'after: OA2 regulator on the oscillator HT'],
+    labels: ['before: original unregulated HT', 'after: gas regulator valve on the oscillator HT'],
     withinHz: null,
     windowSeconds: null,
     createdById: engineer,

@@ -112,7 +112,7 @@ export async function seedDemoLabRecords({ manager, labId, customerIds, userIds 
     configuration: 'Dial at 7.000 MHz, BFO off, cold start after 12 h off; original unregulated HT', notes: 'Before the regulator change.' });
   await insertReadings(manager, before.id, before.startedAt, warmupReadings(warmupCurve(7_453_820, 2_350, 840), 2.0, 21));
   const after = await insertRun(manager, { job: job3, range: band3, kind: 'warmup', standardId: counterA.id, createdBy: engineer, startedAt: day(-6, 8, 30), minutes: 120,
-    configuration: 'Dial at 7.000 MHz, BFO off, cold start after 12 h off; OA2 regulator fitted on the oscillator HT', notes: 'After the regulator change.' });
+    configuration: 'Dial at 7.000 MHz, BFO off, cold start after 12 h off; gas regulator valve fitted on the oscillator HT', notes: 'After the regulator change.' });
   await insertReadings(manager, after.id, after.startedAt, warmupReadings(warmupCurve(7_453_905, 900, 520), 2.0, 22));
 
   // 4. The lab's own reference: a one-hour stability run at one reading a second.

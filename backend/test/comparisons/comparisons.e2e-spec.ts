@@ -67,7 +67,7 @@ describe('comparisons (e2e, MariaDB)', () => {
   let afterId: number;
   const tokens: Partial<Record<keyof typeof DEMO, string>> = {};
   const auth = (who: keyof typeof DEMO) => ({ Authorization: `Bearer ${tokens[who]}` });
-  const labels = ['before: original regulator', 'after: OA2 regulator'];
+  const labels = ['before: original regulator', 'after: gas regulator valve'];
 
   beforeAll(async () => {
     t = await createTestApp();
@@ -120,23 +120,23 @@ describe('comparisons (e2e, MariaDB)', () => {
     // Fit-based quantities carry ν = n − 3.
     expect(row('tau').values[0]!.df).toBe(717);
 
-    expect(row('tau').differences[1]!.sentence).toMatch(/^after: OA2 regulator: time constant τ lower by [\d.]+ s \(95 % interval [\d.]+ to [\d.]+ s lower\)$/);
+    expect(row('tau').differences[1]!.sentence).toMatch(/^after: gas regulator valve: time constant τ lower by [\d.]+ s \(95 % interval [\d.]+ to [\d.]+ s lower\)$/);
     expect(row('settlingTime').name).toBe('settling time (within 5 Hz)');
-    expect(row('settledDriftRate').differences[1]!.sentence).toMatch(/^after: OA2 regulator: settled drift rate (lower|higher) by [\d.]+ Hz\/min \(95 % interval [\d.]+( Hz\/min (lower|higher))? to [\d.]+ Hz\/min (lower|higher)/);
+    expect(row('settledDriftRate').differences[1]!.sentence).toMatch(/^after: gas regulator valve: settled drift rate (lower|higher) by [\d.]+ Hz\/min \(95 % interval [\d.]+( Hz\/min (lower|higher))? to [\d.]+ Hz\/min (lower|higher)/);
     expect(row('adev10s').differences[1]!.sentence).toMatch(/Allan deviation at 10 s (lower|higher|unchanged).* × 10⁻\S+/);
   });
 
   it("the demo has the Saltmarsh receiver's before/after warm-ups saved as a comparison, which computes in full", async () => {
-    const list = await t.http.get('/api/comparisons').query({ q: 'OA2' }).set(auth('engineer'));
+    const list = await t.http.get('/api/comparisons').query({ q: 'gas regulator valve' }).set(auth('engineer'));
     expect(list.body.total).toBe(1);
     const demo = list.body.items[0] as SavedComparison;
-    expect(demo).toMatchObject({ kind: 'warmup', instrumentLabel: 'Marlow & Reade CR-7 communications receiver s/n CR7-5520', labels: ['before: original unregulated HT', 'after: OA2 regulator on the oscillator HT'] });
+    expect(demo).toMatchObject({ kind: 'warmup', instrumentLabel: 'Marlow & Reade CR-7 communications receiver s/n CR7-5520', labels: ['before: original unregulated HT', 'after: gas regulator valve on the oscillator HT'] });
     const res = await t.http.get(`/api/comparisons/${demo.id}/result`).set(auth('engineer'));
     expect(res.status).toBe(200);
     const result = res.body as ComparisonResult;
     expect(result.runs.map((r) => r.fitProblem)).toEqual([null, null]);
     const sentences = result.rows.map((r) => r.differences[1]?.sentence ?? r.problems[1]);
-    expect(sentences.filter((s) => s?.startsWith('after: OA2 regulator on the oscillator HT: ')).length).toBeGreaterThanOrEqual(6);
+    expect(sentences.filter((s) => s?.startsWith('after: gas regulator valve on the oscillator HT: ')).length).toBeGreaterThanOrEqual(6);
     expect(result.rows.find((r) => r.quantity === 'settledDriftRate')!.differences[1]).not.toBeNull();
   });
 
@@ -223,7 +223,7 @@ describe('comparisons (e2e, MariaDB)', () => {
     const lines = Papa.parse<string[]>(csv.text.trim()).data;
     expect(lines[0]!.slice(0, 5)).toEqual(['quantity', 'unit', 'run_id', 'label', 'value']);
     const tauAfter = lines.find((l) => l[0] === 'time constant τ' && l[2] === String(afterId))!;
-    expect(tauAfter[13]).toMatch(/^after: OA2 regulator: time constant τ lower by/);
+    expect(tauAfter[13]).toMatch(/^after: gas regulator valve: time constant τ lower by/);
     expect(lines.filter((l) => l[0] === 'keying shift (key down − key up)')).toHaveLength(1);
 
     const patched = await t.http.patch(`/api/comparisons/${saved.id}`).set(auth('lead')).send({ title: 'Regulator change', labels: ['before', 'after'], windowSeconds: null });

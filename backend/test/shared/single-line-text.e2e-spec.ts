@@ -77,7 +77,7 @@ describe('single-line text fields (e2e, MariaDB)', () => {
     const valid = {
       name: 'Reference SL-1',
       kind: 'reference',
-      makeModel: 'Ashdown RB-10 rubidium standard',
+      makeModel: 'Fellgate RS-3 rubidium standard',
       serial: 'RB10-SL1',
       certificateNumber: 'WRL-25-SL1',
       dueDate: '2099-06-30',

@@ -13,7 +13,7 @@ describe('reference standards (e2e, MariaDB)', () => {
   const valid = {
     name: 'Rubidium reference R1',
     kind: 'reference',
-    makeModel: 'Ashdown RB-10 rubidium standard',
+    makeModel: 'Fellgate RS-3 rubidium standard',
     serial: 'RB10-0091',
     certificateNumber: 'WRL-25-00310',
     dueDate: '2099-06-30',

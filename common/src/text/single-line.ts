@@ -15,7 +15,7 @@ const LINE_BREAKS = /\r\n|[\r\n\v\f\u0085\u2028\u2029]/g;
  *
  * @param value the text
  * @returns true when it holds none of {@link CONTROL_CHARACTER}
- * @example isSingleLineText('HP 5245L'); // => true
+ * @example isSingleLineText('HR 3318L'); // => true
  * @example isSingleLineText('SN 1234\r\nPASS'); // => false
  */
 export function isSingleLineText(value: string): boolean {

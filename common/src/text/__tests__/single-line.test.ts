@@ -31,7 +31,7 @@ describe('isSingleLineText()', () => {
     expect(isSingleLineText(text)).toBe(false);
   });
 
-  test.each(['HP 5245L', 'Marconi TF 144H/4S', 'Ångström & Söhne — Schwebungssummer', '短波受信機', 'R-390A/URR 📻', 'a@b.example', ''])(
+  test.each(['HR 3318L', 'Harwick Radio SG 144H/4S', 'Ångström & Söhne — Schwebungssummer', '短波受信機', 'RX-9A/LAB 📻', 'a@b.example', ''])(
     'accepts ordinary text: %s',
     (text) => {
       expect(isSingleLineText(text)).toBe(true);
