@@ -8,7 +8,7 @@ import TableRow from '@mui/material/TableRow';
 import TextField from '@mui/material/TextField';
 import Typography from '@mui/material/Typography';
 import { useMemo, useState } from 'react';
-import { dialForFrequency } from '@kilocycle/common/math';
+import { dialForFrequencyEstimate, MetrologyError } from '@kilocycle/common/math';
 import type { CalibrationRunAnalysis, FrequencyUnit } from '@kilocycle/common/types';
 import { parseFrequency } from '@kilocycle/common/units';
 import { Num, numberSx } from '@/components/ui/num';
@@ -31,24 +31,37 @@ export function CorrectionTable({ analysis }: { analysis: CalibrationRunAnalysis
     if (!wanted.trim()) return null;
     try {
       const hz = parseFrequency(wanted, unit);
-      const dial = dialForFrequency(analysis.points, hz);
-      return { ok: true as const, text: `Set the dial to ${formatNumber(dial, decimals + 2)} ${analysis.range.dialUnit} for ${formatHz(hz)}` };
+      const { dialMin, dialMax, dialUnit } = analysis.range;
+      try {
+        const estimate = dialForFrequencyEstimate(analysis.points, hz, { min: dialMin, max: dialMax });
+        const text = `Set the dial to ${formatNumber(estimate.dial, decimals + 2)} ${dialUnit} for ${formatHz(hz)}`;
+        if (!estimate.extrapolated) return { ok: true as const, text };
+        // Beyond the measured settings the figure is the end segment's line carried on: say so.
+        const measured = `${formatNumber(estimate.measuredFrom, decimals)} to ${formatNumber(estimate.measuredTo, decimals)} ${dialUnit}`;
+        return { ok: true as const, text: `${text}, extrapolated beyond the settings measured (dial ${measured})` };
+      } catch (error) {
+        if (error instanceof MetrologyError && error.code === 'outside_span') {
+          return { ok: false as const, text: `${formatHz(hz)} lies beyond this range’s dial (${formatNumber(dialMin, decimals)} to ${formatNumber(dialMax, decimals)} ${dialUnit})` };
+        }
+        throw error;
+      }
     } catch (error) {
       return { ok: false as const, text: error instanceof Error ? error.message : String(error) };
     }
-  }, [wanted, unit, analysis.points, analysis.range.dialUnit, decimals]);
+  }, [wanted, unit, analysis.points, analysis.range, decimals]);
 
   return (
     <Paper variant="outlined" sx={{ p: 2 }}>
       <Typography variant="h3" component="h2" sx={{ mb: 1 }}>
         Corrections
       </Typography>
+      {/* The scrolling box below takes the keyboard focus, so it scrolls with the arrow keys too (WCAG 2.1.1). */}
       {rows.length === 0 ? (
         <Typography variant="body2" color="text.secondary">
           None yet.
         </Typography>
       ) : (
-        <Box sx={{ maxHeight: 300, overflow: 'auto' }}>
+        <Box tabIndex={0} role="region" aria-label="Corrections, scrollable" sx={{ maxHeight: 300, overflow: 'auto' }}>
           <Table size="small" stickyHeader aria-label="Correction table">
             <TableHead>
               <TableRow>
@@ -86,7 +99,7 @@ export function CorrectionTable({ analysis }: { analysis: CalibrationRunAnalysis
         onChange={(e) => setWanted(e.target.value)}
         sx={{ mt: 2 }}
         error={inverse !== null && !inverse.ok}
-        helperText={inverse?.text ?? 'A wanted frequency: the dial setting that gives it, from the measured points'}
+        helperText={inverse?.text ?? 'A wanted frequency: the dial setting that gives it, from the measured points (marked when extrapolated beyond them)'}
         slotProps={{ htmlInput: { style: { fontFamily: numberSx.fontFamily } } }}
       />
     </Paper>
