@@ -2,7 +2,7 @@ import type { JobOutcomes } from '@kilocycle/common/types';
 import type { OutgoingMail } from './mailer.js';
 import { printableMailInput } from './mail-text.js';
 
-const SIGN_OFF = '\n\n-- \nThis message was sent by Kilocycle for the laboratory named above. Replies reach the laboratory.';
+// The sign-off (where replies go) and the HTML part are added by Mailer.send, which knows the lab's contact address.
 
 export function certificateIssuedMail(raw: {
   to: string[];
@@ -35,8 +35,8 @@ export function certificateIssuedMail(raw: {
       `Hello,\n\n${input.labName} has issued calibration certificate ${input.number}, ${revisionText}, ` +
       `for ${input.instrument} (${input.customer}). The signed PDF is attached.\n\n` +
       `Results: ${input.outcomes.summary}${foundOut}\n\n` +
-      `Anyone can check that a copy is the one issued, and whether it is still valid, at:\n${input.verifyUrl}` +
-      SIGN_OFF,
+      `Anyone can check that a copy is the one issued, and whether it is still valid, at:\n${input.verifyUrl}`,
+    links: [input.verifyUrl],
     attachments: [{ filename: input.fileName, content: input.pdf, contentType: 'application/pdf' }],
   };
 }
@@ -49,8 +49,8 @@ export function jobReturnedMail(raw: { to: string; technician: string; lead: str
     subject: `Job ${input.jobNumber} returned for rework`,
     text:
       `Hello ${input.technician},\n\n${input.lead} has returned job ${input.jobNumber} (${input.instrument}) for rework:\n\n` +
-      `${input.comment.split('\n').map((l) => `  ${l}`).join('\n')}\n\nOpen the job: ${input.jobUrl}` +
-      SIGN_OFF,
+      `${input.comment.split('\n').map((l) => `  ${l}`).join('\n')}\n\nOpen the job: ${input.jobUrl}`,
+    links: [input.jobUrl],
   };
 }
 
@@ -67,7 +67,7 @@ export function recallReminderMail(raw: { to: string[]; labName: string; custome
     text:
       `Hello,\n\nThis is a reminder from ${input.labName} that the calibration of the following ` +
       `${input.instruments.length === 1 ? 'instrument' : 'instruments'} of ${input.customer} falls due soon:\n\n${lines}\n\n` +
-      `To book it in, reply to this message. Your instruments and certificates: ${input.portalUrl}` +
-      SIGN_OFF,
+      `To book it in, write to the laboratory (see below). Your instruments and certificates: ${input.portalUrl}`,
+    links: [input.portalUrl],
   };
 }

@@ -2,6 +2,7 @@ import nodemailer, { type Transporter } from 'nodemailer';
 import type { DataSource } from 'typeorm';
 import { checkEnvironment, ConfigError } from '../config/env-schema.js';
 import { MailMessage } from './mail-message.entity.js';
+import { mailSignOff, mailTextToHtml } from './mail-text.js';
 import { parseMessage } from './mime.js';
 import { SmtpFake, type CapturedMail } from './smtp-fake.js';
 
@@ -13,6 +14,8 @@ export type OutgoingMail = {
   subject: string;
   text: string;
   html?: string;
+  /** The URLs the template wrote itself: the only text that becomes a link in the HTML part. */
+  links?: string[];
   attachments?: Array<{ filename: string; content: Buffer; contentType: string }>;
 };
 
@@ -97,15 +100,29 @@ export class Mailer {
     }
   }
 
+  /** The lab's name and contact address (its organisation record): where replies to any mail should go. */
+  async labContact(): Promise<{ name: string; email: string | null }> {
+    const [lab] = await this.dataSource.query("SELECT name, contact_email FROM organizations WHERE kind = 'lab' ORDER BY id LIMIT 1");
+    return { name: lab?.name ?? 'the laboratory', email: lab?.contact_email || null };
+  }
+
+  /**
+   * Sends one mail: the sign-off says truthfully where a reply goes (Reply-To is the lab's contact address when
+   * it has one), and an HTML part is made from the text (escaped; only the template's own links are links).
+   */
   async send(mail: OutgoingMail): Promise<string> {
     if (mail.to.length === 0) throw new Error('a mail needs at least one recipient');
     await this.start();
+    const lab = await this.labContact();
+    const fromAddress = /<([^>]+)>\s*$/.exec(this.settings.from)?.[1] ?? this.settings.from.trim();
+    const text = mail.text + mailSignOff(lab, fromAddress);
     const info = await this.transport!.sendMail({
       from: this.settings.from,
+      ...(lab.email ? { replyTo: { name: lab.name, address: lab.email } } : {}),
       to: mail.to,
       subject: mail.subject,
-      text: mail.text,
-      html: mail.html,
+      text,
+      html: mail.html ?? mailTextToHtml(text, mail.links),
       headers: { 'X-Kilocycle-Kind': mail.kind },
       attachments: mail.attachments,
     });

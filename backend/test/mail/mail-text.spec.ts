@@ -1,7 +1,7 @@
 // E-mails built from stored values: a single-line value with a line break cannot add a line of its own to
 // the message (no fake link, no fake sentence); a multi-line comment keeps its lines; control characters go.
 import { jobReturnedMail, recallReminderMail } from '../../src/mail/mail-templates.js';
-import { printableMailInput } from '../../src/mail/mail-text.js';
+import { mailSignOff, mailTextToHtml, printableMailInput } from '../../src/mail/mail-text.js';
 
 const lines = (text: string) => text.split('\n');
 
@@ -41,5 +41,23 @@ describe('e-mail text', () => {
     expect(safe.pdf).toBe(pdf);
     expect(safe.revision).toBe(2);
     expect(safe.name).toBe('a b');
+  });
+});
+
+// Where a reply goes, said truthfully whatever the settings: the lab's address (sent as Reply-To), or the sender.
+describe('mail sign-off', () => {
+  test('names the lab\'s contact address when there is one', () => {
+    expect(mailSignOff({ name: 'Fenwick Lab', email: 'desk@fenwick.test' }, 'no-reply@fenwick.test')).toBe(
+      '\n\n-- \nSent by Kilocycle for Fenwick Lab. Replies to this message go to Fenwick Lab at desk@fenwick.test.',
+    );
+  });
+  test('says a no-reply sender is not read, and names any other sender as where replies go', () => {
+    expect(mailSignOff({ name: 'Fenwick Lab', email: null }, 'noreply@fenwick.test')).toContain('from an address that is not read: to answer, contact Fenwick Lab directly.');
+    expect(mailSignOff({ name: 'Fenwick Lab', email: null }, 'office@fenwick.test')).toContain('Replies to this message go to office@fenwick.test.');
+  });
+  test('the HTML part sets the signature apart and keeps line breaks', () => {
+    const html = mailTextToHtml('Hello,\n\nLine one\nline two\n\n-- \nSent by Kilocycle.');
+    expect(html).toContain('<p style="margin:0 0 12px">Line one<br>\nline two</p>');
+    expect(html).toMatch(/<hr[^>]*>\n<p[^>]*>Sent by Kilocycle\.<\/p>/);
   });
 });

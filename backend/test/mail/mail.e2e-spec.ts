@@ -1,5 +1,6 @@
 import { createServer, type Server } from 'node:net';
 import type { MailMessageView } from '@kilocycle/common/types';
+import { jobReturnedMail } from '../../src/mail/mail-templates.js';
 import { Mailer } from '../../src/mail/mailer.js';
 import { parseMessage } from '../../src/mail/mime.js';
 import { MailService } from '../../src/mail/mail.service.js';
@@ -67,6 +68,55 @@ describe('mail: the local SMTP fake and the outbox (e2e, MariaDB)', () => {
       await mailer.stop();
       blocker.close();
     }
+  });
+
+  describe('where replies go, and the HTML part', () => {
+    // The demo lab's organisation record carries its contact address; the sender is the configured From.
+    const LAB = 'Quarry Lane Frequency Lab';
+    const LAB_EMAIL = 'bench@quarrylane.test';
+    // SMTP carries CRLF line ends; the footer is compared line by line.
+    const lf = (text: string) => text.replace(/\r\n/g, '\n').trimEnd();
+    const header = (view: MailMessageView, name: string) => view.headers.filter((h) => h.name.toLowerCase() === name.toLowerCase()).map((h) => h.value);
+    const sendReturned = async (subjectTag: string) => {
+      const mail = jobReturnedMail({
+        to: 'tech@kilocycle.test',
+        technician: 'Tess Tech',
+        lead: 'Lee Lead',
+        jobNumber: `J-2026-${subjectTag}`,
+        instrument: 'Test Works TG-1',
+        comment: 'Repeat dial 1900 <script>alert(1)</script> & see Pay now at http://pay.invalid/',
+        jobUrl: 'http://127.0.0.1:5180/jobs/77',
+      });
+      await t.app.get(MailService).mailer.send(mail);
+      const list = await t.http.get(`/api/mail?q=J-2026-${subjectTag}`).set(admin);
+      expect(list.body.total).toBe(1);
+      return (await t.http.get(`/api/mail/${list.body.items[0].id}`).set(admin)).body as MailMessageView;
+    };
+
+    it('should set Reply-To to the lab\'s contact address and say so in the footer, text and HTML alike', async () => {
+      const view = await sendReturned('9101');
+      expect(header(view, 'Reply-To')).toEqual([`${LAB} <${LAB_EMAIL}>`]);
+      expect(view.from).toMatch(/no-reply@/);
+      expect(lf(view.text!).endsWith(`-- \nSent by Kilocycle for ${LAB}. Replies to this message go to ${LAB} at ${LAB_EMAIL}.`)).toBe(true);
+      expect(view.text).not.toMatch(/Replies reach the laboratory/);
+      // The HTML part: present, every stored character escaped, only the template's own link a link.
+      expect(view.html).toContain(`Replies to this message go to ${LAB} at ${LAB_EMAIL}.`);
+      expect(view.html).toContain('Repeat dial 1900 &lt;script&gt;alert(1)&lt;/script&gt; &amp; see Pay now at http://pay.invalid/');
+      expect(view.html).not.toMatch(/<script/i);
+      expect(view.html).toContain('<a href="http://127.0.0.1:5180/jobs/77">http://127.0.0.1:5180/jobs/77</a>');
+      expect(view.html).not.toContain('href="http://pay.invalid');
+    });
+
+    it('should set no Reply-To when the lab has no contact address, and then not promise that replies are read', async () => {
+      await t.dataSource.query("UPDATE organizations SET contact_email = NULL WHERE kind = 'lab'");
+      try {
+        const view = await sendReturned('9102');
+        expect(header(view, 'Reply-To')).toEqual([]);
+        expect(lf(view.text!).endsWith(`-- \nSent by Kilocycle for ${LAB} from an address that is not read: to answer, contact ${LAB} directly.`)).toBe(true);
+      } finally {
+        await t.dataSource.query("UPDATE organizations SET contact_email = ? WHERE kind = 'lab'", [LAB_EMAIL]);
+      }
+    });
   });
 
   it('should read quoted-printable parts and encoded words', () => {

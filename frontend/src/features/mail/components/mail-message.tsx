@@ -37,8 +37,20 @@ async function save(path: string, name: string) {
 }
 
 /**
+ * Put first in the frame's document: nothing is fetched from anywhere (no tracking pixel, no remote style),
+ * only inline styles and embedded images show.
+ */
+export const MAIL_FRAME_POLICY = `<meta http-equiv="Content-Security-Policy" content="default-src 'none'; style-src 'unsafe-inline'; img-src data:">`;
+
+/** The policy goes after any doctype (a tag before it would put the page in quirks mode), so it lands in the head. */
+export function withFramePolicy(html: string): string {
+  const doctype = /^\s*<!doctype[^>]*>/i.exec(html);
+  return doctype ? doctype[0] + MAIL_FRAME_POLICY + html.slice(doctype[0].length) : MAIL_FRAME_POLICY + html;
+}
+
+/**
  * The HTML body in a sandboxed frame: no scripts, no forms, no same-origin access, and links cannot
- * navigate this page. The message is shown, never trusted.
+ * navigate this page; a content policy lets it load nothing. The message is shown, never trusted.
  */
 function HtmlBody({ html }: { html: string }) {
   return (
@@ -46,7 +58,7 @@ function HtmlBody({ html }: { html: string }) {
       component="iframe"
       title="Message body (HTML)"
       sandbox=""
-      srcDoc={html}
+      srcDoc={withFramePolicy(html)}
       referrerPolicy="no-referrer"
       sx={{ width: '100%', height: 520, border: 1, borderColor: 'divider', borderRadius: 1, bgcolor: '#fff' }}
     />
@@ -58,11 +70,18 @@ function Body({ message }: { message: MailMessageView }) {
   return (
     <Paper variant="outlined" sx={{ p: 2 }}>
       <Tabs value={view} onChange={(_e, v: View) => setView(v)} sx={{ mb: 1.5 }}>
-        <Tab value="html" label="HTML" disabled={!message.html} />
-        <Tab value="text" label="Plain text" disabled={!message.text} />
+        <Tab value="html" label="HTML" />
+        <Tab value="text" label="Plain text" />
         <Tab value="headers" label="Headers" />
       </Tabs>
-      {view === 'html' && message.html && <HtmlBody html={message.html} />}
+      {view === 'html' &&
+        (message.html ? (
+          <HtmlBody html={message.html} />
+        ) : (
+          <Typography variant="body2" color="text.secondary">
+            This message has no HTML part; its plain text is under Plain text.
+          </Typography>
+        ))}
       {view === 'text' && (
         <Box component="pre" sx={{ ...numberSx, whiteSpace: 'pre-wrap', wordBreak: 'break-word', m: 0, fontSize: '0.85rem' }}>
           {message.text ?? '(no plain-text part)'}
