@@ -15,13 +15,15 @@ type AuxViewProps = {
   kind: 'supply_sensitivity' | 'keying';
   analysis: SupplySensitivityRunAnalysis | KeyingRunAnalysis | null;
   problem: string | null;
+  /** Said instead of the figure when the run has no included reading yet. */
+  empty?: string | null;
   /** Included readings that carry an aux value (supply volts, or key state 0 up / 1 down). */
   points: ReadonlyArray<{ t: number; aux: number; frequency: number }>;
   skipAnimation?: boolean;
 };
 
 /** Frequency against supply voltage or key state, with the sensitivity or keying shift from the analysis. */
-export function AuxView({ kind, analysis, problem, points, skipAnimation }: AuxViewProps) {
+export function AuxView({ kind, analysis, problem, empty = null, points, skipAnimation }: AuxViewProps) {
   const theme = useTheme();
   const supply = kind === 'supply_sensitivity';
   // Supply: frequency against volts. Keying: frequency against time, key-down readings in their own colour.
@@ -61,7 +63,7 @@ export function AuxView({ kind, analysis, problem, points, skipAnimation }: AuxV
           {supply ? 'Supply sensitivity' : 'Keying shift'}
         </Typography>
         {!analysis ? (
-          <Alert severity="info">{problem ? `Not worked out yet: ${problem}` : 'Loading…'}</Alert>
+          <Alert severity="info">{empty ?? (problem ? `Not worked out yet: ${problem}` : 'Loading…')}</Alert>
         ) : analysis.analysis === 'supply_sensitivity' ? (
           <Figures>
             <Figure
