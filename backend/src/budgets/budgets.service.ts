@@ -7,6 +7,7 @@ import type {
   Procedure as ProcedureView,
   RunBudget as RunBudgetView,
 } from '@kilocycle/common/types';
+import { CAPTURE_DEFAULTS } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
 import type { AuthUser } from '../auth/auth-user.js';
 import { loadSignedRecord } from '../certificates/signed-record.js';
@@ -31,6 +32,10 @@ export function toProcedureView(p: Procedure): ProcedureView {
     driftPpm: p.driftPpm,
     driftHz: p.driftHz,
     extraComponents: p.extraComponents ?? [],
+    captureSettleCount: p.captureSettleCount,
+    captureToleranceHz: p.captureToleranceHz,
+    captureTimeoutS: p.captureTimeoutS,
+    dialMarks: p.dialMarks ?? [],
     isDefault: p.isDefault,
     active: p.active,
     updatedAt: p.updatedAt.toISOString(),
@@ -39,6 +44,7 @@ export function toProcedureView(p: Procedure): ProcedureView {
 }
 
 const SORTABLE = { id: 'p.id', name: 'p.name', decisionRule: 'p.decisionRule', updatedAt: 'p.updatedAt' };
+const CAPTURE_SETTING_KEYS: readonly string[] = Object.keys(CAPTURE_DEFAULTS);
 
 @Injectable()
 export class BudgetsService {
@@ -93,7 +99,8 @@ export class BudgetsService {
       if (Object.keys(patch).length === 0) return;
       // A change to what the procedure computes or prints is a new version: jobs signed earlier keep theirs.
       // Which procedure is the default, or whether it is offered, is not part of a version.
-      const versioned = Object.keys(patch).some((key) => key !== 'isDefault' && key !== 'active');
+      // Nor are the counter-assisted capture settings: they change how readings are taken, not what is computed.
+      const versioned = Object.keys(patch).some((key) => key !== 'isDefault' && key !== 'active' && !CAPTURE_SETTING_KEYS.includes(key));
       const version = versioned ? found.version + 1 : found.version;
       await manager.update(Procedure, { id }, { ...patch, version });
       if (versioned) {

@@ -319,6 +319,21 @@ export async function computeJobResults(manager: EntityManager, jobId: number): 
           frequency: Number(r.frequency_hz),
           excludedReason: (r.reason as string | null) ?? null,
         }));
+  // A setting taken with the counter's help is one reading (the mean) linked to the counter readings behind
+  // it: the budget's repeatability takes their spread (s/√n over those n), not that of the one mean.
+  const counterSamples = new Map<number, number[]>();
+  if (runs.length > 0) {
+    const linked = (await manager.query(
+      `SELECT c.reading_id, s.frequency_hz FROM counter_captures c
+         JOIN counter_capture_samples cs ON cs.capture_id = c.id JOIN readings s ON s.id = cs.reading_id
+        WHERE c.run_id IN (?) ORDER BY s.seq`,
+      [runs.map((r) => r.id)],
+    )) as Array<{ reading_id: number | string; frequency_hz: number }>;
+    for (const row of linked) {
+      const id = Number(row.reading_id);
+      counterSamples.set(id, [...(counterSamples.get(id) ?? []), Number(row.frequency_hz)]);
+    }
+  }
   const readingsByRun = new Map<number, ReadingRow[]>();
   for (const reading of readings) {
     const list = readingsByRun.get(reading.runId) ?? [];
@@ -386,7 +401,7 @@ export async function computeJobResults(manager: EntityManager, jobId: number): 
       for (const r of runReadings) {
         if (r.excludedReason !== null) continue;
         const key = r.dial === 0 ? 0 : r.dial!;
-        samples.set(key, [...(samples.get(key) ?? []), r.frequency]);
+        samples.set(key, [...(samples.get(key) ?? []), ...(counterSamples.get(r.id) ?? [r.frequency])]);
       }
       const figures = effectiveFigures(procedure, run.overrides, span);
       const points = new Map<number, MeasuredPoint>();

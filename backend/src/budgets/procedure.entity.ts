@@ -35,6 +35,22 @@ export class Procedure {
   @Column({ type: 'boolean', default: true })
   active: boolean;
 
+  /** Counter-assisted capture: N consecutive counter readings that must agree … */
+  @Column({ name: 'capture_settle_count', type: 'int', default: 5 })
+  captureSettleCount: number;
+
+  /** … within this band (max − min), Hz … */
+  @Column({ name: 'capture_tolerance_hz', type: 'double', default: 5 })
+  captureToleranceHz: number;
+
+  /** … before this many seconds pass. */
+  @Column({ name: 'capture_timeout_s', type: 'int', default: 30 })
+  captureTimeoutS: number;
+
+  /** Dial marks in the order the procedure takes them (null: none listed). */
+  @Column({ name: 'dial_marks', type: 'json', nullable: true })
+  dialMarks: number[] | null;
+
   /** 1 when created, +1 at every edit; procedure_versions keeps each one. */
   @Column({ type: 'int', default: 1 })
   version: number;

@@ -4,6 +4,7 @@ import { RevokedToken } from '../auth/revoked-token.entity.js';
 import { Bench } from '../benches/bench.entity.js';
 import { InstrumentRange } from '../instruments/instrument-range.entity.js';
 import { Instrument } from '../instruments/instrument.entity.js';
+import { CounterCaptureRow, CounterCaptureSample } from '../ingest/counter-capture.entity.js';
 import { Job } from '../jobs/job.entity.js';
 import { JobProcedure } from '../budgets/job-procedure.entity.js';
 import { Procedure } from '../budgets/procedure.entity.js';
@@ -31,5 +32,5 @@ export const ENTITIES = [
   Organization, User, AuditEvent, RevokedToken,
   Instrument, InstrumentRange, Standard, Bench, Job, Run, Reading, ReadingExclusion,
   StandardVersionRow, Procedure, ProcedureVersionRow, JobProcedure, RunBudget, JobReview, Setting, Certificate, MailMessage, RecallNotice,
-  Comparison, Attachment,
+  Comparison, Attachment, CounterCaptureRow, CounterCaptureSample,
 ];

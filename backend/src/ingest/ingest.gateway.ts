@@ -1,5 +1,5 @@
 import { Logger, type OnModuleDestroy } from '@nestjs/common';
-import { ConnectedSocket, MessageBody, SubscribeMessage, WebSocketGateway, WebSocketServer, type OnGatewayInit } from '@nestjs/websockets';
+import { ConnectedSocket, MessageBody, SubscribeMessage, WebSocketGateway, WebSocketServer, type OnGatewayDisconnect, type OnGatewayInit } from '@nestjs/websockets';
 import type { Subscription } from 'rxjs';
 import type { Namespace, Socket } from 'socket.io';
 import {
@@ -11,6 +11,7 @@ import {
   type RefusedEvent,
 } from '@kilocycle/common/events';
 import { BenchesService, type BenchIdentity } from '../benches/benches.service.js';
+import { BridgePresence } from './bridge-presence.js';
 import { errorDetail, IngestException, toRefusal } from './ingest.exception.js';
 import { IngestService } from './ingest.service.js';
 
@@ -30,7 +31,7 @@ function connectError(message: string, code: ConnectRefusal['code']): Error {
  * instead of acknowledging); every refusal is also emitted as `refused` for clients that send without one.
  */
 @WebSocketGateway({ namespace: NAMESPACES.ingest })
-export class IngestGateway implements OnGatewayInit, OnModuleDestroy {
+export class IngestGateway implements OnGatewayInit, OnGatewayDisconnect, OnModuleDestroy {
   private readonly logger = new Logger('IngestGateway');
   private subscription: Subscription | null = null;
 
@@ -40,6 +41,7 @@ export class IngestGateway implements OnGatewayInit, OnModuleDestroy {
   constructor(
     private readonly ingest: IngestService,
     private readonly benches: BenchesService,
+    private readonly presence: BridgePresence,
   ) {}
 
   afterInit(nsp: Namespace): void {
@@ -70,12 +72,18 @@ export class IngestGateway implements OnGatewayInit, OnModuleDestroy {
     this.subscription?.unsubscribe();
   }
 
+  /** The runs this bridge fed see it go offline (the live pages' chips, a setting waiting for the counter). */
+  handleDisconnect(socket: BenchSocket): void {
+    this.presence.disconnected(socket.id);
+  }
+
   @SubscribeMessage(INGEST_EVENTS.attach)
   async attach(@ConnectedSocket() socket: BenchSocket, @MessageBody() payload: unknown): Promise<AttachReply> {
     try {
       await this.recheck(socket, true);
       const ack = await this.ingest.attach(socket.data.bench, payload);
       socket.data.runs.add(ack.runId);
+      if (socket.connected) this.presence.attached(ack.runId, socket.id);
       return ack;
     } catch (error) {
       return this.refuse(socket, 'attach', payload, error);

@@ -6,6 +6,7 @@ import type { DialUnit, IngestAck, ReadingInput } from '@kilocycle/common/types'
 import { parseFrequency, parseNumber } from '@kilocycle/common/units';
 import type { BenchIdentity } from '../benches/benches.service.js';
 import { ReadingsWriter, refusalReason, type RunWriteContext } from '../readings/readings-writer.service.js';
+import { CounterCaptureService } from './counter-capture.service.js';
 import { IngestException, payloadObject, runIdOf } from './ingest.exception.js';
 
 const BATCH_EXAMPLE = '{runId, readings: [{seq, t?, dial?, frequency, aux?}, …]}';
@@ -27,6 +28,7 @@ export class IngestService {
   constructor(
     private readonly writer: ReadingsWriter,
     @InjectDataSource() private readonly dataSource: DataSource,
+    private readonly captures: CounterCaptureService,
   ) {}
 
   async attach(bench: BenchIdentity, payload: unknown): Promise<AttachAck> {
@@ -116,7 +118,9 @@ export class IngestService {
   private async appendRetrying(bench: BenchIdentity, ctx: RunWriteContext, inputs: readonly ReadingInput[]) {
     for (let attempt = 1; ; attempt++) {
       try {
-        return await this.writer.append(ctx, inputs, 'bridge', { kind: 'bench', id: bench.id, name: bench.name });
+        // While a setting waits for the counter, a reading without a dial is a counter reading for it.
+        const counterReadings = this.captures.isWaiting(ctx.runId);
+        return await this.writer.append(ctx, inputs, 'bridge', { kind: 'bench', id: bench.id, name: bench.name }, { counterReadings });
       } catch (error) {
         const errno = (error as { driverError?: { errno?: number }; errno?: number }).driverError?.errno ?? (error as { errno?: number }).errno;
         if (attempt >= 4 || (errno !== ER_LOCK_DEADLOCK && errno !== ER_LOCK_WAIT_TIMEOUT)) throw error;

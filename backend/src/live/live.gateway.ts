@@ -9,12 +9,16 @@ import {
   type ConnectRefusal,
   type JoinReply,
   type LeaveReply,
+  type LiveBridgeEvent,
+  type LiveCaptureEvent,
   type LiveExclusionEvent,
   type LiveReadingsEvent,
 } from '@kilocycle/common/events';
 import type { AuthUser } from '../auth/auth-user.js';
 import { AuthService } from '../auth/auth.service.js';
 import { SessionsService, type SessionsEnded } from '../auth/sessions.service.js';
+import { BridgePresence } from '../ingest/bridge-presence.js';
+import { CounterCaptureService } from '../ingest/counter-capture.service.js';
 import { errorDetail, toRefusal } from '../ingest/ingest.exception.js';
 import { ReadingsWriter } from '../readings/readings-writer.service.js';
 import { LiveService } from './live.service.js';
@@ -42,6 +46,8 @@ export class LiveGateway implements OnGatewayInit, OnModuleDestroy {
     private readonly live: LiveService,
     private readonly writer: ReadingsWriter,
     private readonly sessions: SessionsService,
+    private readonly presence: BridgePresence,
+    private readonly captures: CounterCaptureService,
   ) {}
 
   afterInit(nsp: Namespace): void {
@@ -75,6 +81,16 @@ export class LiveGateway implements OnGatewayInit, OnModuleDestroy {
         if (!nsp.adapter.rooms.get(runRoom(runId))?.size) return;
         const event: LiveExclusionEvent = { runId, reading };
         nsp.to(runRoom(runId)).emit(LIVE_EVENTS.excluded, event);
+      }),
+      this.presence.changes$.subscribe(({ runId, connected, since }) => {
+        if (!nsp.adapter.rooms.get(runRoom(runId))?.size) return;
+        const event: LiveBridgeEvent = { runId, connected, since: since.toISOString() };
+        nsp.to(runRoom(runId)).emit(LIVE_EVENTS.bridge, event);
+      }),
+      this.captures.events$.subscribe((capture) => {
+        if (!nsp.adapter.rooms.get(runRoom(capture.runId))?.size) return;
+        const event: LiveCaptureEvent = { runId: capture.runId, capture, sentAt: new Date().toISOString() };
+        nsp.to(runRoom(capture.runId)).emit(LIVE_EVENTS.capture, event);
       }),
     );
   }

@@ -61,6 +61,11 @@ export type AppendOptions = {
   callerAudits?: boolean;
   /** Default: 'each' for typed readings (source manual), 'none' otherwise. */
   confirm?: SpanConfirmation;
+  /**
+   * A counter-assisted setting is waiting on this run: a bridge reading without a dial is a counter reading
+   * for it and is stored without one (a calibration run otherwise needs a dial on every reading).
+   */
+  counterReadings?: boolean;
 };
 
 type Row = { seq: number | null; t: number; dial: number | null; frequency: number; aux: number | null };
@@ -126,10 +131,16 @@ export class ReadingsWriter {
    * frequency outside the range's span by more than SPAN_MARGIN of it (a unit slip, usually) is refused
    * with what it was read as and what was probably meant, unless `confirm` lets it through.
    */
-  validate(ctx: RunWriteContext, inputs: readonly ReadingInput[], now = Date.now(), confirm: SpanConfirmation = 'none'): { rows: Row[]; rejected: IngestAck['rejected'] } {
+  validate(
+    ctx: RunWriteContext,
+    inputs: readonly ReadingInput[],
+    now = Date.now(),
+    confirm: SpanConfirmation = 'none',
+    counterReadings = false,
+  ): { rows: Row[]; rejected: IngestAck['rejected'] } {
     const rows: Row[] = [];
     const rejected: IngestAck['rejected'] = [];
-    const needsDial = CALIBRATION_RUN_KINDS.includes(ctx.kind);
+    const needsDial = CALIBRATION_RUN_KINDS.includes(ctx.kind) && !counterReadings;
     const span = ctx.dialMax - ctx.dialMin;
     const dialLow = ctx.dialMin - DIAL_MARGIN * span;
     const dialHigh = ctx.dialMax + DIAL_MARGIN * span;
@@ -202,7 +213,7 @@ export class ReadingsWriter {
    */
   async append(ctx: RunWriteContext, inputs: readonly ReadingInput[], source: ReadingSource, author: ReadingAuthor, options: AppendOptions = {}): Promise<AppendResult> {
     const columns = authorColumns(source, author);
-    const { rows, rejected } = this.validate(ctx, inputs, Date.now(), options.confirm ?? (source === 'manual' ? 'each' : 'none'));
+    const { rows, rejected } = this.validate(ctx, inputs, Date.now(), options.confirm ?? (source === 'manual' ? 'each' : 'none'), options.counterReadings === true && source === 'bridge');
     if (rows.length === 0) {
       return { accepted: 0, duplicates: 0, rejected, lastSeq: await this.lastSeq(ctx.runId, options.manager), stored: [] };
     }

@@ -1,10 +1,11 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import type { DataSource, EntityManager, Repository } from 'typeorm';
-import { CALIBRATION_RUN_KINDS, RUN_CORRECTABLE_FIELDS, type ListResponse, type Run as RunView } from '@kilocycle/common/types';
+import { CALIBRATION_RUN_KINDS, RUN_CORRECTABLE_FIELDS, type ListResponse, type Run as RunView, type RunBridge } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
 import { organizationScope, type AuthUser } from '../auth/auth-user.js';
 import { Bench } from '../benches/bench.entity.js';
+import { BridgePresence } from '../ingest/bridge-presence.js';
 import { InstrumentRange } from '../instruments/instrument-range.entity.js';
 import { instrumentLabel } from '../instruments/instruments.service.js';
 import { OPEN_JOB_STATUSES, LOCKED_JOB_STATUSES } from '../jobs/job-status-rules.js';
@@ -19,7 +20,7 @@ import type { CreateRunDto, ListRunsQueryDto, UpdateRunDto } from './dto/run.dto
 import { assertMayWriteRun, runKindWords } from './run-rules.js';
 import { Run } from './run.entity.js';
 
-type RunCounts = { readingCount: number; excludedCount: number; lastSeq: number };
+type RunCounts = { readingCount: number; excludedCount: number; lastSeq: number; bridge: RunBridge };
 
 export function toRunView(r: Run, counts: RunCounts): RunView {
   return {
@@ -69,6 +70,7 @@ export class RunsService {
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly audit: AuditService,
     private readonly jobs: JobsService,
+    private readonly presence: BridgePresence,
   ) {}
 
   list(actor: AuthUser, query: ListRunsQueryDto): Promise<ListResponse<RunView>> {
@@ -299,9 +301,39 @@ export class RunsService {
       ]);
     const readingBy = new Map(readings.map((row) => [Number(row.run_id), row]));
     const excludedBy = new Map(exclusions.map((row) => [Number(row.run_id), Number(row.n)]));
+    // The newest reading of each run (by the (run_id, seq) index): how old it is, and whether a bridge sent it.
+    const withReadings = readings.filter((row) => row.last !== null);
+    const newest: Array<{ run_id: number; received_at: string; source: string }> =
+      withReadings.length === 0
+        ? []
+        : await this.dataSource.query(
+            `SELECT r.run_id, r.received_at, r.source FROM readings r
+               JOIN (SELECT run_id, MAX(seq) AS seq FROM readings WHERE run_id IN (?) GROUP BY run_id) m ON m.run_id = r.run_id AND m.seq = r.seq`,
+            [withReadings.map((row) => Number(row.run_id))],
+          );
+    const newestBy = new Map(newest.map((row) => [Number(row.run_id), row]));
     return found.map((r) => {
       const row = readingBy.get(r.id);
-      return toRunView(r, { readingCount: row ? Number(row.n) : 0, excludedCount: excludedBy.get(r.id) ?? 0, lastSeq: row?.last ? Number(row.last) : 0 });
+      const last = newestBy.get(r.id);
+      return toRunView(r, {
+        readingCount: row ? Number(row.n) : 0,
+        excludedCount: excludedBy.get(r.id) ?? 0,
+        lastSeq: row?.last ? Number(row.last) : 0,
+        bridge: this.bridgeOf(r.id, last ? { at: new Date(last.received_at), source: last.source } : null),
+      });
     });
+  }
+
+  /**
+   * Live only while a bridge is attached (this process's presence). A run no bridge has attached to since
+   * the server started but whose newest reading came from a bridge shows it offline since that reading;
+   * any other run shows no bridge at all (typed or imported readings only).
+   */
+  private bridgeOf(runId: number, last: { at: Date; source: string } | null): RunBridge {
+    const lastReadingAt = last ? last.at.toISOString() : null;
+    const state = this.presence.state(runId);
+    if (state) return { connected: state.connected, since: state.since.toISOString(), lastReadingAt };
+    if (last?.source === 'bridge') return { connected: false, since: lastReadingAt, lastReadingAt };
+    return { connected: false, since: null, lastReadingAt };
   }
 }

@@ -114,6 +114,10 @@ export const ACCESS_MATRIX: Record<string, Rule> = {
   'GET /api/runs/{runId}/readings': { roles: ALL, ids: { runId: 'run' } },
   'POST /api/runs/{runId}/readings': { roles: CAPTURE, ids: { runId: 'run' } },
   'POST /api/runs/{runId}/readings/{readingId}/exclusion': { roles: CAPTURE, ids: { runId: 'run', readingId: 'reading' } },
+  // Counter-assisted capture: the bench's work, lab staff only (a client sees stored readings, not the bench at work).
+  'GET /api/runs/{runId}/capture': { roles: CAPTURE, ids: { runId: 'run' } },
+  'POST /api/runs/{runId}/capture': { roles: CAPTURE, ids: { runId: 'run' } },
+  'DELETE /api/runs/{runId}/capture': { roles: CAPTURE, ids: { runId: 'missing' }, body: 'none' },
   'POST /api/runs/{id}/imports': { roles: CAPTURE, ids: { id: 'run' }, body: 'multipart' },
   'GET /api/imports/{importId}/progress': { roles: CAPTURE, ids: { importId: 'importId' } },
 

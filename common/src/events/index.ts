@@ -1,3 +1,4 @@
+import type { CounterCapture } from '../types/captures.js';
 import type { DialUnit, IngestAck, Reading, ReadingAuthor, ReadingInput, RunKind } from '../types/lab.js';
 
 /** Socket.io namespaces and event names shared by the server, the bridge and the browser. */
@@ -34,6 +35,10 @@ export const LIVE_EVENTS = {
   readings: 'readings',
   /** server → browser: {@link LiveExclusionEvent}, when a reading of the run is excluded. */
   excluded: 'excluded',
+  /** server → browser: {@link LiveBridgeEvent}, when the run's first bridge attaches or its last one drops. */
+  bridge: 'bridge',
+  /** server → browser: {@link LiveCaptureEvent}, as a counter-assisted setting takes readings, settles or ends. */
+  capture: 'capture',
 } as const;
 
 /** The socket.io room a run's live readings go to. */
@@ -110,3 +115,9 @@ export type LiveReadingsEvent = { runId: number; author: ReadingAuthor | null; r
 
 /** A reading just excluded (with its reason): the page marks it and refits without it. */
 export type LiveExclusionEvent = { runId: number; reading: Reading };
+
+/** A bridge for the run came online (since = when it attached) or went offline (since = when it dropped). */
+export type LiveBridgeEvent = { runId: number; connected: boolean; since: string };
+
+/** A counter-assisted setting's progress or end (types/captures.ts); `sentAt` is the server's time of sending. */
+export type LiveCaptureEvent = { runId: number; capture: CounterCapture; sentAt: string };

@@ -8,6 +8,10 @@ declare module 'jstat' {
     studentt: Distribution;
     chisquare: Distribution;
     normal: Distribution;
+    /** Arithmetic mean (tests use it as an independent check). */
+    mean(values: readonly number[]): number;
+    /** Standard deviation; `sample` true divides by n − 1. */
+    stdev(values: readonly number[], sample?: boolean): number;
   };
   export default jstat;
 }

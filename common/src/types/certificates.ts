@@ -1,5 +1,6 @@
 import type { CalibrationFit, TrackingSummary } from '../math/analyse-calibration.js';
 import type { Decision, DecisionRule } from '../math/decide.js';
+import type { CaptureSettings } from './captures.js';
 import type { DialUnit, InstrumentRange, JobStatus, RunKind, Tolerance } from './lab.js';
 import type { ListQuery } from './list.js';
 
@@ -50,8 +51,11 @@ export type Procedure = BudgetDefaults & {
   updatedAt: string;
   /** 1 when created; every edit makes the next version (jobs signed earlier keep the one they used). */
   version: number;
-};
-export type CreateProcedureRequest = Omit<Procedure, 'id' | 'active' | 'updatedAt' | 'isDefault' | 'version'> & { isDefault?: boolean };
+} & CaptureSettings;
+/** The counter-assisted capture settings may be left out: CAPTURE_DEFAULTS then apply. */
+export type CreateProcedureRequest = Omit<Procedure, 'id' | 'active' | 'updatedAt' | 'isDefault' | 'version' | keyof CaptureSettings> & {
+  isDefault?: boolean;
+} & Partial<CaptureSettings>;
 export type UpdateProcedureRequest = Partial<CreateProcedureRequest> & { active?: boolean };
 export type ListProceduresQuery = ListQuery & { active?: boolean };
 

@@ -6,3 +6,4 @@ export * from './list.js';
 export * from './organizations.js';
 export * from './users.js';
 export * from './studies.js';
+export * from './captures.js';

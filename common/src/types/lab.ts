@@ -2,6 +2,7 @@ import type { AlignLCResult } from '../math/align-lc.js';
 import type { CalibrationFit, CalibrationPoint, TrackingSummary } from '../math/analyse-calibration.js';
 import type { GapReport } from '../math/detect-gaps.js';
 import type { DialLaw } from '../math/dial-law.js';
+import type { RunBridge } from './captures.js';
 import type { DriftWindow } from '../math/drift-rate-windows.js';
 import type { WarmupFit } from '../math/fit-warmup.js';
 import type { WarmupSettling } from '../math/warmup-settling.js';
@@ -176,6 +177,8 @@ export type Run = {
   lastSeq: number;
   /** Why the run takes no readings now (closed, job in review…), null when it does. */
   refusal: string | null;
+  /** Whether a bench bridge feeds the run now (types/captures.ts). */
+  bridge: RunBridge;
 };
 export type CreateRunRequest = {
   rangeId: number;

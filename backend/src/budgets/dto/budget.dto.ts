@@ -1,5 +1,6 @@
 import { Transform, Type } from 'class-transformer';
 import {
+  ArrayMaxSize,
   IsArray,
   IsBoolean,
   IsIn,
@@ -15,6 +16,7 @@ import {
   ValidateNested,
 } from 'class-validator';
 import {
+  CAPTURE_LIMITS,
   COMPONENT_DISTRIBUTIONS,
   DECISION_RULES,
   type ComponentDistribution,
@@ -95,6 +97,11 @@ export class CreateProcedureDto implements CreateProcedureRequest {
   @OptionalNotNull()
   @IsBoolean()
   isDefault?: boolean;
+
+  @OptionalNotNull() @IsInt() @Min(CAPTURE_LIMITS.settleCount.min) @Max(CAPTURE_LIMITS.settleCount.max) captureSettleCount?: number;
+  @OptionalNotNull() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(CAPTURE_LIMITS.toleranceHz.min) @Max(CAPTURE_LIMITS.toleranceHz.max) captureToleranceHz?: number;
+  @OptionalNotNull() @IsInt() @Min(CAPTURE_LIMITS.timeoutS.min) @Max(CAPTURE_LIMITS.timeoutS.max) captureTimeoutS?: number;
+  @OptionalNotNull() @IsArray() @ArrayMaxSize(CAPTURE_LIMITS.dialMarks.max) @IsNumber({ allowNaN: false, allowInfinity: false }, { each: true }) @Min(-1e9, { each: true }) @Max(1e9, { each: true }) dialMarks?: number[];
 }
 
 export class UpdateProcedureDto implements UpdateProcedureRequest {
@@ -107,6 +114,10 @@ export class UpdateProcedureDto implements UpdateProcedureRequest {
   @OptionalNotNull() @IsArray() @ValidateNested({ each: true }) @Type(() => ExtraComponentDto) extraComponents?: ExtraComponentDto[];
   @OptionalNotNull() @IsBoolean() isDefault?: boolean;
   @OptionalNotNull() @IsBoolean() active?: boolean;
+  @OptionalNotNull() @IsInt() @Min(CAPTURE_LIMITS.settleCount.min) @Max(CAPTURE_LIMITS.settleCount.max) captureSettleCount?: number;
+  @OptionalNotNull() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(CAPTURE_LIMITS.toleranceHz.min) @Max(CAPTURE_LIMITS.toleranceHz.max) captureToleranceHz?: number;
+  @OptionalNotNull() @IsInt() @Min(CAPTURE_LIMITS.timeoutS.min) @Max(CAPTURE_LIMITS.timeoutS.max) captureTimeoutS?: number;
+  @OptionalNotNull() @IsArray() @ArrayMaxSize(CAPTURE_LIMITS.dialMarks.max) @IsNumber({ allowNaN: false, allowInfinity: false }, { each: true }) @Min(-1e9, { each: true }) @Max(1e9, { each: true }) dialMarks?: number[];
 }
 
 export class ListProceduresQueryDto extends ListQueryDto implements ListProceduresQuery {

@@ -1,7 +1,9 @@
 import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
-import type { CalibrationRunAnalysis, Role, Run } from '@kilocycle/common/types';
+import { useState } from 'react';
+import type { CalibrationRunAnalysis, CounterCapture, Role, Run } from '@kilocycle/common/types';
 import { useInstrument } from '@/features/instruments/api/get-instrument';
+import { useCaptureState } from '@/features/readings/api/counter-capture';
 import { ReadingEntry } from '@/features/readings/components/reading-entry';
 import { useRefreshReadings } from '@/features/readings/api/get-readings';
 import { ReadingsTable } from '@/features/readings/components/readings-table';
@@ -14,9 +16,10 @@ import { ErrorChart } from '@/features/runs/components/calibration/error-chart';
 import { FitSummary } from '@/features/runs/components/calibration/fit-summary';
 import { PaddingCalculator } from '@/features/runs/components/calibration/padding-calculator';
 import { RunDataTransfer } from '@/features/imports/components/run-data-transfer';
+import { BridgeChip } from '@/features/runs/components/bridge-chip';
 import { RunHeader } from '@/features/runs/components/run-header';
 import { SafetyCaution } from '@/features/runs/components/safety-caution';
-import { analysisProblem, mayWriteRun, skipChartAnimation } from './run-access';
+import { analysisProblem, mayWriteRun, noReadingsNotice, skipChartAnimation } from './run-access';
 
 /** The bench page of an as-found or as-left run: typed readings on the left, the fit updating beside them. */
 export function CalibrationRun({ run, role }: { run: Run; role: Role }) {
@@ -25,10 +28,15 @@ export function CalibrationRun({ run, role }: { run: Run; role: Role }) {
   // A run on a bench may also be fed by its bridge (a dial sweep): follow it live like a study.
   const refreshReadings = useRefreshReadings(run.id);
   const throttledRefresh = useThrottledRefreshRun(run.id, 500, refreshReadings);
-  useLiveReadings(run.id, { enabled: run.status === 'open' && run.benchId !== null, onReadings: throttledRefresh });
+  // Counter-assisted capture: the setting waiting for the counter, as pushed live (else as loaded).
+  const [capture, setCapture] = useState<CounterCapture | null>(null);
+  const live = useLiveReadings(run.id, { enabled: run.status === 'open' && run.benchId !== null, onReadings: throttledRefresh, onCapture: (event) => setCapture(event.capture) });
   const canWrite = mayWriteRun(role, run.kind);
+  const captureState = useCaptureState({ runId: run.id, enabled: canWrite && run.benchId !== null && run.status === 'open' });
+  const bridgeLive = live.bridge ? live.bridge.connected : run.bridge.connected;
   const data = analysis.data?.analysis === 'calibration' ? (analysis.data as CalibrationRunAnalysis) : null;
   const problem = analysisProblem(analysis.error);
+  const empty = noReadingsNotice(analysis.data, analysis.error);
   // The range as the instrument defines it, so the entry form knows its units before the first reading.
   const instrument = useInstrument({ id: run.instrumentId });
   const range = instrument.data?.ranges.find((r) => r.id === run.rangeId) ?? data?.range ?? null;
@@ -37,6 +45,11 @@ export function CalibrationRun({ run, role }: { run: Run; role: Role }) {
   return (
     <>
       <RunHeader run={run} canWrite={canWrite} extra={<RunDataTransfer run={run} role={role} />} />
+      {run.status === 'open' && (run.bridge.since !== null || live.bridge) && (
+        <Box sx={{ mb: 2 }}>
+          <BridgeChip bridge={run.bridge} change={live.bridge} lastArrivalAt={live.lastArrivalAt} />
+        </Box>
+      )}
       {canWrite && (
         <Box sx={{ mb: 2 }}>
           <SafetyCaution />
@@ -52,9 +65,22 @@ export function CalibrationRun({ run, role }: { run: Run; role: Role }) {
               freqMaxHz={range.freqMaxHz}
               refusal={run.refusal}
               onSaved={() => void refresh()}
+              counter={
+                run.benchId === null
+                  ? undefined
+                  : {
+                      bridgeLive,
+                      capture: capture ?? captureState.data?.capture ?? null,
+                      nextMark: captureState.data?.nextMark ?? null,
+                      onSettled: () => {
+                        void refresh();
+                        void captureState.refetch();
+                      },
+                    }
+              }
             />
           )}
-          {data ? <FitSummary analysis={data} /> : <Alert severity="info">{run.readingCount === 0 ? 'The fit appears with the first readings.' : (problem ?? 'Loading the analysis…')}</Alert>}
+          {data ? <FitSummary analysis={data} /> : <Alert severity="info">{empty ? `${empty} The fit appears with the first readings.` : (problem ?? 'Loading the analysis…')}</Alert>}
           {data && <CorrectionTable analysis={data} />}
         </Box>
         <Box sx={{ display: 'grid', gap: 2, minWidth: 0 }}>

@@ -14,7 +14,7 @@ import { AuxView } from '@/features/studies/components/aux-view';
 import { LiveStatus } from '@/features/studies/components/live-status';
 import { StabilityView } from '@/features/studies/components/stability-view';
 import { WarmupView } from '@/features/studies/components/warmup-view';
-import { analysisProblem, mayWriteRun, skipChartAnimation } from './run-access';
+import { analysisProblem, mayWriteRun, noReadingsNotice, skipChartAnimation } from './run-access';
 
 function pick<K extends RunAnalysis['analysis']>(data: RunAnalysis | undefined, kind: K): Extract<RunAnalysis, { analysis: K }> | null {
   return data && data.analysis === kind ? (data as Extract<RunAnalysis, { analysis: K }>) : null;
@@ -34,6 +34,7 @@ export function TimeSeriesRun({ run, role }: { run: Run; role: Role }) {
   const tail = latest.data ?? [];
   const arrivedSince = tail.filter((r) => r.seq > run.lastSeq).length;
   const problem = analysisProblem(analysis.error);
+  const empty = noReadingsNotice(analysis.data, analysis.error);
 
   return (
     <>
@@ -50,12 +51,14 @@ export function TimeSeriesRun({ run, role }: { run: Run; role: Role }) {
           readingCount={run.readingCount + arrivedSince}
           last={tail[tail.length - 1] ?? null}
           lastArrivalAt={live.lastArrivalAt}
+          bridge={run.bridge}
+          bridgeChange={live.bridge}
         />
       </Box>
       {run.kind === 'warmup' ? (
-        <WarmupView analysis={pick(analysis.data, 'warmup')} problem={problem} latest={tail} skipAnimation={skipChartAnimation} />
+        <WarmupView analysis={pick(analysis.data, 'warmup')} problem={problem} empty={empty} latest={tail} skipAnimation={skipChartAnimation} />
       ) : (
-        <StabilityView analysis={pick(analysis.data, 'stability')} problem={problem} skipAnimation={skipChartAnimation} />
+        <StabilityView analysis={pick(analysis.data, 'stability')} problem={problem} empty={empty} skipAnimation={skipChartAnimation} />
       )}
       <Box sx={{ mt: 2 }}>
         <ReadingsTable
@@ -91,7 +94,7 @@ export function AuxRun({ run, role }: { run: Run; role: Role }) {
           <SafetyCaution />
         </Box>
       )}
-      <AuxView kind={kind} analysis={data} problem={analysisProblem(analysis.error)} points={points} skipAnimation={skipChartAnimation} />
+      <AuxView kind={kind} analysis={data} problem={analysisProblem(analysis.error)} empty={noReadingsNotice(analysis.data, analysis.error)} points={points} skipAnimation={skipChartAnimation} />
       <Box sx={{ mt: 2 }}>
         <ReadingsTable
           runId={run.id}

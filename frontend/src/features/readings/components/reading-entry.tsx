@@ -1,16 +1,19 @@
 import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
+import FormControlLabel from '@mui/material/FormControlLabel';
 import Paper from '@mui/material/Paper';
+import Switch from '@mui/material/Switch';
 import TextField from '@mui/material/TextField';
 import Typography from '@mui/material/Typography';
 import { useEffect, useRef, useState, type FormEvent, type KeyboardEvent } from 'react';
-import type { AppendReadingsResponse, DialUnit } from '@kilocycle/common/types';
+import type { AppendReadingsResponse, CounterCapture, DialUnit } from '@kilocycle/common/types';
 import { checkFrequencySpan, parseFrequency, parseNumber } from '@kilocycle/common/units';
 import { Num, numberSx } from '@/components/ui/num';
 import { ApiError } from '@/lib/api-client';
 import { formatHz, formatNumber } from '@/utils/frequency';
 import { useAppendReadings } from '../api/append-readings';
+import { useAbandonCapture, useStartCapture } from '../api/counter-capture';
 
 type Field = 'dial' | 'frequency';
 type Problem = { field: Field | null; message: string };
@@ -24,7 +27,25 @@ type ReadingEntryProps = {
   /** Why the run takes no readings now; the form is then read-only. */
   refusal?: string | null;
   onSaved?: (answer: AppendReadingsResponse) => void;
+  /** Counter-assisted capture, on a run with a bench: offered whenever the run has one, on by default while its bridge is live. */
+  counter?: CounterAssist;
 };
+
+export type CounterAssist = {
+  bridgeLive: boolean;
+  /** The latest state of the run's setting waiting for the counter (from the live feed, or as loaded). */
+  capture: CounterCapture | null;
+  /** The procedure's next dial mark, proposed in the dial field. */
+  nextMark: number | null;
+  /** Called when a setting settled (the page refreshes its fit and the next mark). */
+  onSettled?: (capture: CounterCapture) => void;
+};
+
+/** The waiting line: how many counter readings so far and their spread against the procedure's band. */
+function waitingText(c: CounterCapture): string {
+  const spread = c.spreadHz === null ? 'no reading yet' : `spread ${formatNumber(c.spreadHz, c.spreadHz < 10 ? 2 : 0)} Hz over the last ${Math.min(c.count, c.settleCount)}`;
+  return `Waiting for the counter to settle at dial ${formatNumber(c.dial, Number.isInteger(c.dial) ? 0 : 3)}: ${c.count} reading${c.count === 1 ? '' : 's'}, ${spread} (needs ${c.settleCount} within ${formatNumber(c.toleranceHz, c.toleranceHz < 10 ? 2 : 0)} Hz, up to ${c.timeoutS} s). Esc abandons it.`;
+}
 
 type Understood = { ok: true; hz: number; text: string; far: boolean; probableHz: number | null } | { ok: false; text: string } | null;
 /** A reading the server refused only for lying outside the range's span: stored as typed if the person confirms. */
@@ -68,7 +89,7 @@ function toProblem(error: unknown): Problem {
  * Keyboard-only capture at the bench: dial, Tab, counter as typed (`1735 kHz`, `1.735 MHz`, `1735000`), Enter.
  * A saved pair clears and the cursor goes back to the dial; a refused pair stays, with the reason.
  */
-export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, onSaved }: ReadingEntryProps) {
+export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, onSaved, counter: assist }: ReadingEntryProps) {
   const dialRef = useRef<HTMLInputElement>(null);
   const counterRef = useRef<HTMLInputElement>(null);
   const [dial, setDial] = useState('');
@@ -81,6 +102,46 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
   useEffect(() => {
     if (confirming) confirmRef.current?.focus();
   }, [confirming]);
+  // Counter-assisted capture: on by default whenever the bridge comes online; the person may turn it off.
+  const bridgeLive = assist?.bridgeLive ?? false;
+  const [fromCounter, setFromCounter] = useState(bridgeLive);
+  useEffect(() => {
+    if (bridgeLive) setFromCounter(true);
+  }, [bridgeLive]);
+  const counterMode = Boolean(assist) && fromCounter;
+  const startCapture = useStartCapture();
+  const abandonCapture = useAbandonCapture();
+  const capture = assist?.capture ?? null;
+  const waiting = capture?.status === 'waiting' ? capture : null;
+  const seenCapture = useRef<CounterCapture | null>(null);
+  // A setting's end arrives on the live feed: settled (the mean is stored) or ended with the server's reason.
+  useEffect(() => {
+    if (!capture || seenCapture.current === capture) return;
+    seenCapture.current = capture;
+    if (capture.status === 'settled' && capture.reading) {
+      const r = capture.reading;
+      setLast(
+        `Saved #${r.seq}: dial ${formatNumber(capture.dial, Number.isInteger(capture.dial) ? 0 : 3)} ${dialUnit} → ${formatHz(r.frequency)} (mean of ${capture.n}, s = ${capture.sd === null ? '—' : `${formatNumber(capture.sd, capture.sd < 10 ? 2 : 1)} Hz`})`,
+      );
+      setProblem(null);
+      setDial('');
+      dialRef.current?.focus();
+      assist?.onSettled?.(capture);
+    } else if (capture.status === 'timed_out' || capture.status === 'failed') {
+      setProblem({ field: 'dial', message: `Not taken — ${capture.message ?? 'the setting ended'}` });
+    } else if (capture.status === 'abandoned') {
+      setProblem(null);
+      setLast(`Abandoned dial ${formatNumber(capture.dial, Number.isInteger(capture.dial) ? 0 : 3)}: nothing was stored for it.`);
+    }
+  }, [capture, dialUnit, assist]);
+  // The procedure's next mark is proposed (selected, so typing replaces it) while the dial is empty.
+  const nextMark = assist?.nextMark ?? null;
+  useEffect(() => {
+    if (!counterMode || nextMark === null || waiting) return;
+    setDial((current) => (current.trim() === '' ? String(nextMark) : current));
+    requestAnimationFrame(() => dialRef.current?.select());
+  }, [counterMode, nextMark, waiting]);
+
   // What was sent: on success only these are cleared, so anything typed meanwhile stays.
   const sent = useRef<{ dial: string; counter: string } | null>(null);
   const append = useAppendReadings({
@@ -154,9 +215,45 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
     });
   };
 
+  /** Counter mode: Enter sends only the dial; the server takes the counter readings that follow. */
+  const takeFromCounter = () => {
+    if (dialValue === null) {
+      setProblem({ field: 'dial', message: dialError ? `Not a dial setting — ${dialError}` : 'Enter the dial setting first.' });
+      dialRef.current?.focus();
+      return;
+    }
+    if (waiting || startCapture.isPending) {
+      setProblem({ field: null, message: 'A setting is still waiting for the counter; press Esc to abandon it first.' });
+      return;
+    }
+    setProblem(null);
+    setLast(null);
+    startCapture.mutate(
+      { runId, body: { dial: dialValue } },
+      {
+        onError: (error) => {
+          setProblem({ field: 'dial', message: `Not taken — ${error instanceof ApiError ? error.messages.join('; ') : 'the server could not be reached; press Enter to try again.'}` });
+          dialRef.current?.focus();
+        },
+      },
+    );
+  };
+
+  const abandon = () => {
+    if (!waiting || abandonCapture.isPending) return;
+    abandonCapture.mutate(
+      { runId },
+      { onError: (error) => setProblem({ field: null, message: `Not abandoned — ${error instanceof ApiError ? error.messages.join('; ') : 'the server could not be reached'}` }) },
+    );
+  };
+
   const submit = (event: FormEvent<HTMLFormElement>) => {
     event.preventDefault();
     if (readOnly) return;
+    if (counterMode) {
+      takeFromCounter();
+      return;
+    }
     if (append.isPending) {
       setProblem({ field: null, message: 'Still saving the previous reading; press Enter again in a moment.' });
       return;
@@ -183,6 +280,13 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
   // Enter on the dial moves on to the counter while the counter is still empty, but only with a dial it can
   // read: a dial it cannot read (`abc`) keeps the cursor where the fix is needed, with the reason.
   const onDialKey = (event: KeyboardEvent<HTMLInputElement>) => {
+    if (counterMode) {
+      if (event.key === 'Escape' && waiting) {
+        event.preventDefault();
+        abandon();
+      }
+      return; // Enter submits the form: the dial alone
+    }
     if (event.key !== 'Enter' || counter.trim() || !dial.trim()) return;
     event.preventDefault();
     if (dialValue === null) {
@@ -203,13 +307,31 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
         <Alert severity="info" sx={{ mb: 1 }}>
           This run takes no readings now: {refusal}.
         </Alert>
+      ) : counterMode ? (
+        <Typography variant="body2" color="text.secondary" sx={{ mb: 1.5 }}>
+          Set the dial, type it and press <kbd>Enter</kbd>: the counter fills the reading once it settles. <kbd>Esc</kbd> abandons a setting.
+          {!bridgeLive && ' No bridge is live for this run now.'}
+        </Typography>
       ) : (
         <Typography variant="body2" color="text.secondary" sx={{ mb: 1.5 }}>
           Dial, <kbd>Tab</kbd>, counter as shown (<Num>1735 kHz</Num>, <Num>1.7352 MHz</Num> or <Num>1735200</Num> in Hz),{' '}
           <kbd>Enter</kbd>. Repeat a setting as often as you like.
         </Typography>
       )}
-      <Box component="form" noValidate onSubmit={submit} aria-label="Reading entry" sx={{ display: 'grid', gridTemplateColumns: { xs: 'minmax(0, 1fr)', sm: 'minmax(0, 1fr) minmax(0, 2fr) auto' }, gap: 1.5, alignItems: 'start' }}>
+      {assist && !readOnly && (
+        <FormControlLabel
+          sx={{ mb: 1 }}
+          control={<Switch size="small" checked={fromCounter} onChange={(e) => setFromCounter(e.target.checked)} disabled={Boolean(waiting)} />}
+          label="Counter fills the reading"
+        />
+      )}
+      <Box
+        component="form"
+        noValidate
+        onSubmit={submit}
+        aria-label="Reading entry"
+        sx={{ display: 'grid', gridTemplateColumns: { xs: 'minmax(0, 1fr)', sm: counterMode ? 'minmax(0, 1fr) auto' : 'minmax(0, 1fr) minmax(0, 2fr) auto' }, gap: 1.5, alignItems: 'start' }}
+      >
         <TextField
           label={`Dial (${dialUnit})`}
           value={dial}
@@ -226,38 +348,49 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
           helperText={dialError ?? (dialValue !== null ? `dial ${formatNumber(dialValue, Number.isInteger(dialValue) ? 0 : 3)}` : ' ')}
           slotProps={{ htmlInput: { inputMode: 'decimal', readOnly, style: mono } }}
         />
-        <TextField
-          label="Counter"
-          value={counter}
-          onChange={(e) => {
-            setCounter(e.target.value);
-            setConfirming(null);
-            if (problem?.field === 'frequency') setProblem(null);
-          }}
-          inputRef={counterRef}
-          autoComplete="off"
-          error={(frequency !== null && !frequency.ok) || problem?.field === 'frequency'}
-          helperText={
-            frequency === null ? (
-              'Understood as: —'
-            ) : frequency.ok ? (
-              <Box component="span" data-testid="counter-understood" sx={{ color: frequency.far ? 'warning.main' : undefined }}>
-                <Num>{frequency.text}</Num>
-                {frequency.far &&
-                  ` — far outside this range (${formatHz(freqMinHz)} – ${formatHz(freqMaxHz)}); ${frequency.probableHz !== null ? `did you mean ${formatHz(frequency.probableHz)}?` : 'check the unit'}`}
-              </Box>
-            ) : (
-              frequency.text
-            )
-          }
-          slotProps={{ htmlInput: { readOnly, style: mono } }}
-        />
-        <Button type="submit" variant="contained" disabled={readOnly} sx={{ mt: 0.5, minWidth: 96 }} tabIndex={-1}>
-          {append.isPending ? 'Saving…' : 'Save'}
+        {!counterMode && (
+          <TextField
+            label="Counter"
+            value={counter}
+            onChange={(e) => {
+              setCounter(e.target.value);
+              setConfirming(null);
+              if (problem?.field === 'frequency') setProblem(null);
+            }}
+            inputRef={counterRef}
+            autoComplete="off"
+            error={(frequency !== null && !frequency.ok) || problem?.field === 'frequency'}
+            helperText={
+              frequency === null ? (
+                'Understood as: —'
+              ) : frequency.ok ? (
+                <Box component="span" data-testid="counter-understood" sx={{ color: frequency.far ? 'warning.main' : undefined }}>
+                  <Num>{frequency.text}</Num>
+                  {frequency.far &&
+                    ` — far outside this range (${formatHz(freqMinHz)} – ${formatHz(freqMaxHz)}); ${frequency.probableHz !== null ? `did you mean ${formatHz(frequency.probableHz)}?` : 'check the unit'}`}
+                </Box>
+              ) : (
+                frequency.text
+              )
+            }
+            slotProps={{ htmlInput: { readOnly, style: mono } }}
+          />
+        )}
+        <Button type="submit" variant="contained" disabled={readOnly || Boolean(waiting)} sx={{ mt: 0.5, minWidth: 96 }} tabIndex={-1}>
+          {counterMode ? (startCapture.isPending ? 'Sending…' : 'Take') : append.isPending ? 'Saving…' : 'Save'}
         </Button>
       </Box>
       <Box aria-live="polite" sx={{ minHeight: 24, mt: 0.5 }}>
-        {confirming ? (
+        {waiting && counterMode ? (
+          <Box sx={{ display: 'flex', gap: 1, alignItems: 'center', flexWrap: 'wrap' }}>
+            <Typography variant="body2" data-testid="capture-waiting" sx={{ flex: '1 1 16rem' }}>
+              <Num>{waitingText(waiting)}</Num>
+            </Typography>
+            <Button size="small" color="inherit" onClick={abandon} disabled={abandonCapture.isPending}>
+              Abandon (Esc)
+            </Button>
+          </Box>
+        ) : confirming ? (
           <Alert
             severity="warning"
             role="alert"
@@ -290,7 +423,7 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
           </Alert>
         ) : (
           last && (
-            <Typography variant="body2" color="success.main" data-testid="last-saved">
+            <Typography variant="body2" color="success.main" data-testid="last-saved" data-settled-at={capture?.status === 'settled' ? (capture.settledAt ?? undefined) : undefined}>
               <Num>{last}</Num>
             </Typography>
           )

@@ -1,37 +1,47 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
 import { io } from 'socket.io-client';
-import { LIVE_EVENTS, NAMESPACES, type JoinReply, type LiveReadingsEvent } from '@kilocycle/common/events';
+import { LIVE_EVENTS, NAMESPACES, type JoinReply, type LiveBridgeEvent, type LiveCaptureEvent, type LiveReadingsEvent } from '@kilocycle/common/events';
 import type { Reading } from '@kilocycle/common/types';
 import { getSession } from '@/lib/session';
+import { getRunQueryOptions } from '@/features/runs/api/get-run';
 import { getLatestReadingsQueryOptions, mergeReadings } from '../api/get-latest-readings';
 
 export type LiveState = 'connecting' | 'live' | 'offline' | 'refused';
-export type LiveStatus = { state: LiveState; message: string | null; lastArrivalAt: number | null };
+/**
+ * `state` is this page's own feed (its socket), not the bench: `bridge` is the latest bridge online/offline
+ * event the server pushed for the run (null until one arrives: the run's own `bridge` field holds until then).
+ */
+export type LiveStatus = { state: LiveState; message: string | null; lastArrivalAt: number | null; bridge: RunBridgeChange | null };
+export type RunBridgeChange = { connected: boolean; since: string };
 
 type UseLiveReadingsOptions = {
   enabled?: boolean;
   /** Called with each batch the server stored, after the cache has it. */
   onReadings?: (readings: Reading[]) => void;
+  /** Called with each change of a counter-assisted setting (progress, settled, ended). */
+  onCapture?: (event: LiveCaptureEvent) => void;
 };
 
 /**
  * Follows a run live over socket.io (`/live`, signed in with the session's token): stored readings are merged
  * into the run's latest-readings query, so pages read them from React Query like any other server data.
  */
-export function useLiveReadings(runId: number, { enabled = true, onReadings }: UseLiveReadingsOptions = {}): LiveStatus {
+export function useLiveReadings(runId: number, { enabled = true, onReadings, onCapture }: UseLiveReadingsOptions = {}): LiveStatus {
   const queryClient = useQueryClient();
-  const [status, setStatus] = useState<LiveStatus>({ state: 'connecting', message: null, lastArrivalAt: null });
+  const [status, setStatus] = useState<LiveStatus>({ state: 'connecting', message: null, lastArrivalAt: null, bridge: null });
   const callback = useRef(onReadings);
+  const captureCallback = useRef(onCapture);
   useEffect(() => {
     callback.current = onReadings;
-  }, [onReadings]);
+    captureCallback.current = onCapture;
+  }, [onReadings, onCapture]);
 
   useEffect(() => {
     if (!enabled) return;
     const token = getSession()?.accessToken;
     if (!token) {
-      setStatus({ state: 'refused', message: 'Sign in again to follow the run live.', lastArrivalAt: null });
+      setStatus({ state: 'refused', message: 'Sign in again to follow the run live.', lastArrivalAt: null, bridge: null });
       return;
     }
     const key = getLatestReadingsQueryOptions(runId).queryKey;
@@ -43,8 +53,11 @@ export function useLiveReadings(runId: number, { enabled = true, onReadings }: U
       socket.emit(LIVE_EVENTS.join, { runId }, (reply: JoinReply) => {
         if (reply.ok) {
           setStatus((s) => ({ ...s, state: 'live', message: null }));
-          // After a reconnection, whatever arrived while away is fetched once.
-          if (joinedBefore) void queryClient.invalidateQueries({ queryKey: key });
+          // After a reconnection, whatever arrived while away is fetched once (the run too: its bridge may have changed).
+          if (joinedBefore) {
+            void queryClient.invalidateQueries({ queryKey: key });
+            void queryClient.invalidateQueries({ queryKey: getRunQueryOptions(runId).queryKey });
+          }
           joinedBefore = true;
         } else {
           setStatus((s) => ({ ...s, state: 'refused', message: reply.error }));
@@ -70,6 +83,14 @@ export function useLiveReadings(runId: number, { enabled = true, onReadings }: U
       queryClient.setQueryData<Reading[]>(key, (current) => mergeReadings(current, readings));
       setStatus((s) => ({ ...s, lastArrivalAt: Date.now() }));
       callback.current?.(readings);
+    });
+
+    socket.on(LIVE_EVENTS.bridge, (event: LiveBridgeEvent) => {
+      if (event.runId !== runId) return;
+      setStatus((s) => ({ ...s, bridge: { connected: event.connected, since: event.since } }));
+    });
+    socket.on(LIVE_EVENTS.capture, (event: LiveCaptureEvent) => {
+      if (event.runId === runId) captureCallback.current?.(event);
     });
 
     return () => {

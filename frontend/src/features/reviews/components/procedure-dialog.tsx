@@ -10,7 +10,7 @@ import Switch from '@mui/material/Switch';
 import TextField from '@mui/material/TextField';
 import Typography from '@mui/material/Typography';
 import { useId, useState, type FormEvent } from 'react';
-import { DECISION_RULES, type CreateProcedureRequest, type DecisionRule, type Procedure } from '@kilocycle/common/types';
+import { CAPTURE_DEFAULTS, CAPTURE_LIMITS, DECISION_RULES, type CreateProcedureRequest, type DecisionRule, type Procedure } from '@kilocycle/common/types';
 import { FormErrors } from '@/components/ui/form-errors';
 import { ApiError } from '@/lib/api-client';
 import { notify } from '@/lib/notifications';
@@ -28,7 +28,18 @@ type Draft = {
   extras: ExtraComponentDraft[];
   isDefault: boolean;
   active: boolean;
+  captureSettleCount: string;
+  captureToleranceHz: string;
+  captureTimeoutS: string;
+  dialMarks: string;
 };
+
+/** Dial marks as typed: numbers separated by commas, semicolons or spaces (a decimal point, not a comma). */
+export function parseDialMarks(text: string): number[] | null {
+  const parts = text.split(/[\s,;]+/).filter((part) => part !== '');
+  const marks = parts.map(Number);
+  return marks.every((m) => Number.isFinite(m)) ? marks : null;
+}
 
 function toDraft(p: Procedure | null): Draft {
   return {
@@ -41,6 +52,10 @@ function toDraft(p: Procedure | null): Draft {
     extras: toDrafts(p?.extraComponents ?? []),
     isDefault: p?.isDefault ?? false,
     active: p?.active ?? true,
+    captureSettleCount: String(p?.captureSettleCount ?? CAPTURE_DEFAULTS.captureSettleCount),
+    captureToleranceHz: String(p?.captureToleranceHz ?? CAPTURE_DEFAULTS.captureToleranceHz),
+    captureTimeoutS: String(p?.captureTimeoutS ?? CAPTURE_DEFAULTS.captureTimeoutS),
+    dialMarks: (p?.dialMarks ?? []).join(', '),
   };
 }
 
@@ -70,6 +85,20 @@ export function ProcedureDialog({ procedure, canEdit, onClose }: ProcedureDialog
     if (numbers.dialHalfDivisionPercentOfSpan > 50) return setProblem('Half a dial division cannot be more than 50 % of the span');
     const extras = fromDrafts(draft.extras);
     if ('problem' in extras) return setProblem(extras.problem);
+    const capture = { captureSettleCount: Number(draft.captureSettleCount), captureToleranceHz: Number(draft.captureToleranceHz), captureTimeoutS: Number(draft.captureTimeoutS) };
+    const { settleCount, toleranceHz, timeoutS } = CAPTURE_LIMITS;
+    if (!Number.isInteger(capture.captureSettleCount) || capture.captureSettleCount < settleCount.min || capture.captureSettleCount > settleCount.max) {
+      return setProblem(`Readings that must agree: a whole number from ${settleCount.min} to ${settleCount.max}`);
+    }
+    if (!Number.isFinite(capture.captureToleranceHz) || capture.captureToleranceHz < toleranceHz.min || capture.captureToleranceHz > toleranceHz.max) {
+      return setProblem(`Settle band: a number of Hz from ${toleranceHz.min} to ${toleranceHz.max}`);
+    }
+    if (!Number.isInteger(capture.captureTimeoutS) || capture.captureTimeoutS < timeoutS.min || capture.captureTimeoutS > timeoutS.max) {
+      return setProblem(`Timeout: a whole number of seconds from ${timeoutS.min} to ${timeoutS.max}`);
+    }
+    const dialMarks = parseDialMarks(draft.dialMarks);
+    if (!dialMarks) return setProblem('Dial marks: numbers separated by commas or spaces (a decimal point, e.g. 1750, 1800.5)');
+    if (dialMarks.length > CAPTURE_LIMITS.dialMarks.max) return setProblem(`Dial marks: at most ${CAPTURE_LIMITS.dialMarks.max}`);
     setProblem(null);
     const body: CreateProcedureRequest = {
       name: draft.name.trim(),
@@ -78,6 +107,8 @@ export function ProcedureDialog({ procedure, canEdit, onClose }: ProcedureDialog
       ...numbers,
       extraComponents: extras.components,
       isDefault: draft.isDefault,
+      ...capture,
+      dialMarks,
     };
     if (procedure) save.mutate({ id: procedure.id, changes: { ...body, active: draft.active } });
     else save.mutate({ id: null, changes: body });
@@ -135,6 +166,31 @@ export function ProcedureDialog({ procedure, canEdit, onClose }: ProcedureDialog
               standard; these figures and the extra components below are added to them.
             </Typography>
             <ExtraComponentsEditor value={draft.extras} onChange={(extras) => set('extras', extras)} disabled={disabled} />
+            <Typography variant="h4" component="h3">
+              Counter-assisted capture
+            </Typography>
+            <Box sx={{ display: 'grid', gridTemplateColumns: { xs: '1fr', sm: 'repeat(3, 1fr)' }, gap: 2 }}>
+              <TextField
+                label="Readings that must agree (N)"
+                inputMode="numeric"
+                value={draft.captureSettleCount}
+                onChange={(e) => set('captureSettleCount', e.target.value)}
+                disabled={disabled}
+              />
+              <TextField label="Settle band (Hz)" inputMode="decimal" value={draft.captureToleranceHz} onChange={(e) => set('captureToleranceHz', e.target.value)} disabled={disabled} />
+              <TextField label="Timeout (s)" inputMode="numeric" value={draft.captureTimeoutS} onChange={(e) => set('captureTimeoutS', e.target.value)} disabled={disabled} />
+            </Box>
+            <TextField
+              label="Dial marks, in order"
+              value={draft.dialMarks}
+              onChange={(e) => set('dialMarks', e.target.value)}
+              helperText="Proposed one after another on the capture form, e.g. 1750, 1800, 1850; leave empty for none"
+              disabled={disabled}
+            />
+            <Typography variant="body2" color="text.secondary">
+              With a bridge live, the technician types only the dial: the setting is stored once the last N counter readings lie within the
+              band, as their mean, with their spread feeding the repeatability.
+            </Typography>
             <Box sx={{ display: 'flex', gap: 3 }}>
               <FormControlLabel
                 control={<Switch checked={draft.isDefault} onChange={(e) => set('isDefault', e.target.checked)} disabled={disabled} />}

@@ -1,8 +1,9 @@
 import Box from '@mui/material/Box';
 import Chip from '@mui/material/Chip';
 import Typography from '@mui/material/Typography';
-import { useEffect, useState } from 'react';
-import type { Reading } from '@kilocycle/common/types';
+import type { Reading, RunBridge } from '@kilocycle/common/types';
+import type { RunBridgeChange } from '@/features/readings/hooks/use-live-readings';
+import { BridgeChip } from '@/features/runs/components/bridge-chip';
 import { Num } from '@/components/ui/num';
 import { formatDuration, formatHzTo } from '@/utils/frequency';
 import { formatCount } from '@/utils/measurement';
@@ -24,30 +25,40 @@ const COLORS: Record<LiveFeedState, 'default' | 'success' | 'warning' | 'error'>
   closed: 'default',
 };
 
-type LiveStatusProps = { state: LiveFeedState; message?: string | null; readingCount: number; last: Reading | null; lastArrivalAt: number | null };
+type LiveStatusProps = {
+  state: LiveFeedState;
+  message?: string | null;
+  readingCount: number;
+  last: Reading | null;
+  lastArrivalAt: number | null;
+  /** The run's bench bridge (as loaded, then as pushed live): the chip says Live only while one is connected. */
+  bridge: RunBridge;
+  bridgeChange: RunBridgeChange | null;
+};
 
-/** Whether the page follows the run, how many readings it holds and the newest one. */
-export function LiveStatus({ state, message, readingCount, last, lastArrivalAt }: LiveStatusProps) {
-  const [now, setNow] = useState(() => Date.now());
-  useEffect(() => {
-    const timer = setInterval(() => setNow(Date.now()), 1000);
-    return () => clearInterval(timer);
-  }, []);
+/**
+ * Whether a bench bridge feeds the run (the chip), how many readings the page holds and the newest one. The
+ * page's own feed (its socket) speaks only when something is wrong with it, in the message.
+ */
+export function LiveStatus({ state, message, readingCount, last, lastArrivalAt, bridge, bridgeChange }: LiveStatusProps) {
   return (
     <Box sx={{ display: 'flex', alignItems: 'center', gap: 1.5, flexWrap: 'wrap' }} data-testid="live-status" aria-live="polite">
-      <Chip size="small" color={COLORS[state]} variant={state === 'live' ? 'filled' : 'outlined'} label={LABELS[state]} />
+      {state === 'closed' ? (
+        <Chip size="small" color={COLORS[state]} variant="outlined" label={LABELS[state]} />
+      ) : (
+        <BridgeChip bridge={bridge} change={bridgeChange} lastArrivalAt={lastArrivalAt} />
+      )}
+      {(state === 'connecting' || state === 'offline' || state === 'refused') && !message && (
+        <Typography variant="body2" color="text.secondary">
+          Live feed: {LABELS[state].toLowerCase()}
+        </Typography>
+      )}
       <Typography variant="body2">
         <Num>{formatCount(readingCount)}</Num> readings
       </Typography>
       {last && (
         <Typography variant="body2" color="text.secondary">
           last <Num>{formatHzTo(last.frequency, 0.01)}</Num> at <Num>{formatDuration(last.t)}</Num>
-          {lastArrivalAt && (
-            <>
-              {' '}
-              (<Num>{formatDuration((now - lastArrivalAt) / 1000)}</Num> ago)
-            </>
-          )}
         </Typography>
       )}
       {message && (

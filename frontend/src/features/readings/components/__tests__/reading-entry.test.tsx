@@ -157,3 +157,56 @@ describe('<ReadingEntry>', () => {
     expect(document.activeElement).toBe(counter);
   });
 });
+
+describe('<ReadingEntry> with the counter filling the reading', () => {
+  const waiting = {
+    runId: 7,
+    dial: 1800,
+    status: 'waiting' as const,
+    startedAt: '2026-12-03T10:00:00.000Z',
+    count: 3,
+    spreadHz: 4.2,
+    lastHz: 1_800_120,
+    settleCount: 5,
+    toleranceHz: 5,
+    timeoutS: 30,
+    reading: null,
+    mean: null,
+    n: null,
+    sd: null,
+    settledAt: null,
+    message: null,
+  };
+
+  it('should send only the dial on Enter while the bridge is live, and show the server\'s refusal when it has none', async () => {
+    signInAs({ role: 'technician' });
+    const { requests } = mockFetch([
+      { method: 'POST', path: '/api/runs/7/capture', status: 409, body: { statusCode: 409, error: 'Conflict', message: 'no bridge is connected for run 7 (offline since 10:02:03 UTC): start the bridge' } },
+    ]);
+    renderWithApp(<ReadingEntry runId={7} dialUnit="kHz" freqMinHz={1_750_000} freqMaxHz={2_000_000} counter={{ bridgeLive: true, capture: null, nextMark: null }} />, { path: '/runs/7' });
+    expect(screen.queryByLabelText('Counter')).toBeNull();
+    const dial = screen.getByLabelText('Dial (kHz)') as HTMLInputElement;
+    fireEvent.change(dial, { target: { value: '1800' } });
+    fireEvent.submit(screen.getByRole('form', { name: 'Reading entry' }));
+    await waitFor(() => expect(screen.getByRole('alert').textContent).toContain('Not taken — no bridge is connected for run 7'));
+    expect(requests[0]!.body).toEqual({ dial: 1800 });
+    expect(document.activeElement).toBe(dial);
+  });
+
+  it('should show the waiting line with the spread so far, and abandon the setting on Esc', async () => {
+    signInAs({ role: 'technician' });
+    const { requests } = mockFetch([{ method: 'DELETE', path: '/api/runs/7/capture', status: 200, body: { ...waiting, status: 'abandoned', message: 'abandoned' } }]);
+    renderWithApp(<ReadingEntry runId={7} dialUnit="kHz" freqMinHz={1_750_000} freqMaxHz={2_000_000} counter={{ bridgeLive: true, capture: waiting, nextMark: null }} />, { path: '/runs/7' });
+    expect(screen.getByTestId('capture-waiting').textContent).toContain('Waiting for the counter to settle at dial 1 800: 3 readings, spread 4.20 Hz over the last 3 (needs 5 within 5.00 Hz');
+    fireEvent.keyDown(screen.getByLabelText('Dial (kHz)'), { key: 'Escape' });
+    await waitFor(() => expect(requests).toHaveLength(1));
+    expect(requests[0]!.method).toBe('DELETE');
+  });
+
+  it('should propose the procedure\'s next dial mark in the dial field', () => {
+    signInAs({ role: 'technician' });
+    mockFetch([]);
+    renderWithApp(<ReadingEntry runId={7} dialUnit="kHz" freqMinHz={1_750_000} freqMaxHz={2_000_000} counter={{ bridgeLive: true, capture: null, nextMark: 1900 }} />, { path: '/runs/7' });
+    expect((screen.getByLabelText('Dial (kHz)') as HTMLInputElement).value).toBe('1900');
+  });
+});

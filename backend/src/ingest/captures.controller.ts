@@ -1,0 +1,34 @@
+import { Body, Controller, Delete, Get, Post } from '@nestjs/common';
+import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
+import type { CaptureState, CounterCapture } from '@kilocycle/common/types';
+import type { AuthUser } from '../auth/auth-user.js';
+import { CurrentUser, Roles } from '../auth/decorators.js';
+import { IdParam } from '../shared/id-param.decorator.js';
+import { CounterCaptureService } from './counter-capture.service.js';
+import { StartCaptureDto } from './dto/start-capture.dto.js';
+
+/** Counter-assisted capture on a run: the setting waiting for the counter (one at a time per run). */
+@ApiTags('readings')
+@ApiBearerAuth()
+@Controller('runs/:runId/capture')
+export class CapturesController {
+  constructor(private readonly captures: CounterCaptureService) {}
+
+  @Roles('admin', 'lead', 'technician', 'engineer')
+  @Get()
+  current(@CurrentUser() user: AuthUser, @IdParam('runId') runId: number): Promise<CaptureState> {
+    return this.captures.current(user, runId);
+  }
+
+  @Roles('admin', 'lead', 'technician', 'engineer')
+  @Post()
+  start(@CurrentUser() user: AuthUser, @IdParam('runId') runId: number, @Body() body: StartCaptureDto): Promise<CounterCapture> {
+    return this.captures.start(user, runId, body.dial);
+  }
+
+  @Roles('admin', 'lead', 'technician', 'engineer')
+  @Delete()
+  abandon(@CurrentUser() user: AuthUser, @IdParam('runId') runId: number): Promise<CounterCapture> {
+    return this.captures.abandon(user, runId);
+  }
+}
