@@ -54,7 +54,7 @@ export function BandPlanner({ instrumentId, dialUnits }: { instrumentId: number;
   const problem = plan.error instanceof ApiError ? plan.error.message : plan.error ? 'The band plan could not be loaded.' : null;
 
   return (
-    <Box sx={{ display: 'grid', gap: 2 }}>
+    <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: 'minmax(0, 1fr)' }}>
       <Paper variant="outlined" sx={{ p: 2 }}>
         <Box sx={{ display: 'flex', gap: 2, flexWrap: 'wrap', alignItems: 'flex-start' }}>
           <TextField
@@ -105,52 +105,54 @@ export function BandPlanner({ instrumentId, dialUnits }: { instrumentId: number;
               No range and multiplier of this instrument reaches that frequency.
             </Typography>
           ) : (
-            <Table size="small" aria-label="Dial settings for the wanted frequency">
-              <TableHead>
-                <TableRow>
-                  <TableCell>Range</TableCell>
-                  <TableCell align="right">Multiplier</TableCell>
-                  <TableCell align="right">Fundamental</TableCell>
-                  <TableCell align="right">Dial by its marks</TableCell>
-                  <TableCell align="right">Corrected dial</TableCell>
-                  <TableCell>From</TableCell>
-                </TableRow>
-              </TableHead>
-              <TableBody>
-                {plan.data.wanted.settings.map((s) => (
-                  <TableRow key={`${s.rangeId}-${s.multiplier}`}>
-                    <TableCell sx={{ whiteSpace: 'pre' }}>{s.rangeLabel}</TableCell>
-                    <TableCell align="right">
-                      <Num>×{s.multiplier}</Num>
-                    </TableCell>
-                    <TableCell align="right">
-                      <Num>{formatHz(s.fundamentalHz)}</Num>
-                    </TableCell>
-                    <TableCell align="right">
-                      <Num>
-                        {formatNumber(s.nominalDial, 3)} {dialUnits[s.rangeId] ?? ''}
-                      </Num>
-                    </TableCell>
-                    <TableCell align="right">
-                      <Num sx={{ fontWeight: 600 }}>
-                        {s.correctedDial === null ? '—' : `${formatNumber(s.correctedDial, 3)} ${dialUnits[s.rangeId] ?? ''}`}
-                      </Num>
-                    </TableCell>
-                    <TableCell>
-                      {s.correctionRunId ? (
-                        <Link component={RouterLink} to={runPath(s.correctionRunId)}>
-                          measured points of run #{s.correctionRunId}
-                        </Link>
-                      ) : (
-                        <Typography variant="body2" color="text.secondary" component="span">
-                          no calibration run covers it
-                        </Typography>
-                      )}
-                    </TableCell>
+            <Box sx={{ overflowX: 'auto' }}>
+              <Table size="small" aria-label="Dial settings for the wanted frequency">
+                <TableHead>
+                  <TableRow>
+                    <TableCell>Range</TableCell>
+                    <TableCell align="right">Multiplier</TableCell>
+                    <TableCell align="right">Fundamental</TableCell>
+                    <TableCell align="right">Dial by its marks</TableCell>
+                    <TableCell align="right">Corrected dial</TableCell>
+                    <TableCell>From</TableCell>
                   </TableRow>
-                ))}
-              </TableBody>
-            </Table>
+                </TableHead>
+                <TableBody>
+                  {plan.data.wanted.settings.map((s) => (
+                    <TableRow key={`${s.rangeId}-${s.multiplier}`}>
+                      <TableCell sx={{ whiteSpace: 'pre' }}>{s.rangeLabel}</TableCell>
+                      <TableCell align="right">
+                        <Num>×{s.multiplier}</Num>
+                      </TableCell>
+                      <TableCell align="right">
+                        <Num>{formatHz(s.fundamentalHz)}</Num>
+                      </TableCell>
+                      <TableCell align="right">
+                        <Num>
+                          {formatNumber(s.nominalDial, 3)} {dialUnits[s.rangeId] ?? ''}
+                        </Num>
+                      </TableCell>
+                      <TableCell align="right">
+                        <Num sx={{ fontWeight: 600 }}>
+                          {s.correctedDial === null ? '—' : `${formatNumber(s.correctedDial, 3)} ${dialUnits[s.rangeId] ?? ''}`}
+                        </Num>
+                      </TableCell>
+                      <TableCell>
+                        {s.correctionRunId ? (
+                          <Link component={RouterLink} to={runPath(s.correctionRunId)}>
+                            measured points of run #{s.correctionRunId}
+                          </Link>
+                        ) : (
+                          <Typography variant="body2" color="text.secondary" component="span">
+                            no calibration run covers it
+                          </Typography>
+                        )}
+                      </TableCell>
+                    </TableRow>
+                  ))}
+                </TableBody>
+              </Table>
+            </Box>
           )}
         </Paper>
       )}
@@ -168,51 +170,53 @@ export function BandPlanner({ instrumentId, dialUnits }: { instrumentId: number;
             The instrument has no ranges yet.
           </Typography>
         ) : (
-          <Table size="small" aria-label="Band plan">
-            <TableHead>
-              <TableRow>
-                <TableCell>Range</TableCell>
-                <TableCell align="right">Multiplier</TableCell>
-                <TableCell align="right">Output span</TableCell>
-                <TableCell>Amateur bands covered</TableCell>
-              </TableRow>
-            </TableHead>
-            <TableBody>
-              {plan.data.rows.map((row) => (
-                <TableRow key={`${row.rangeId}-${row.multiplier}`} hover>
-                  <TableCell sx={{ whiteSpace: 'pre' }}>{row.rangeLabel}</TableCell>
-                  <TableCell align="right">
-                    <Num>×{row.multiplier}</Num>
-                  </TableCell>
-                  <TableCell align="right">
-                    <Num>
-                      {formatHz(row.outLowHz)} – {formatHz(row.outHighHz)}
-                    </Num>
-                  </TableCell>
-                  <TableCell>
-                    {row.bands.length === 0 ? (
-                      <Typography variant="body2" color="text.secondary" component="span">
-                        none
-                      </Typography>
-                    ) : (
-                      <Box sx={{ display: 'flex', gap: 0.5, flexWrap: 'wrap' }}>
-                        {row.bands.map((band) => (
-                          <Chip
-                            key={band.name}
-                            size="small"
-                            color={band.full ? 'success' : 'default'}
-                            variant={band.full ? 'filled' : 'outlined'}
-                            label={band.full ? `${band.name} whole band` : `${band.name} part: ${formatHzShort(band.coveredLowHz)} – ${formatHzShort(band.coveredHighHz)}`}
-                            sx={{ height: 22, fontSize: '0.75rem', fontFamily: numberSx.fontFamily }}
-                          />
-                        ))}
-                      </Box>
-                    )}
-                  </TableCell>
+          <Box sx={{ overflowX: 'auto' }}>
+            <Table size="small" aria-label="Band plan">
+              <TableHead>
+                <TableRow>
+                  <TableCell>Range</TableCell>
+                  <TableCell align="right">Multiplier</TableCell>
+                  <TableCell align="right">Output span</TableCell>
+                  <TableCell>Amateur bands covered</TableCell>
                 </TableRow>
-              ))}
-            </TableBody>
-          </Table>
+              </TableHead>
+              <TableBody>
+                {plan.data.rows.map((row) => (
+                  <TableRow key={`${row.rangeId}-${row.multiplier}`} hover>
+                    <TableCell sx={{ whiteSpace: 'pre' }}>{row.rangeLabel}</TableCell>
+                    <TableCell align="right">
+                      <Num>×{row.multiplier}</Num>
+                    </TableCell>
+                    <TableCell align="right">
+                      <Num>
+                        {formatHz(row.outLowHz)} – {formatHz(row.outHighHz)}
+                      </Num>
+                    </TableCell>
+                    <TableCell>
+                      {row.bands.length === 0 ? (
+                        <Typography variant="body2" color="text.secondary" component="span">
+                          none
+                        </Typography>
+                      ) : (
+                        <Box sx={{ display: 'flex', gap: 0.5, flexWrap: 'wrap' }}>
+                          {row.bands.map((band) => (
+                            <Chip
+                              key={band.name}
+                              size="small"
+                              color={band.full ? 'success' : 'default'}
+                              variant={band.full ? 'filled' : 'outlined'}
+                              label={band.full ? `${band.name} whole band` : `${band.name} part: ${formatHzShort(band.coveredLowHz)} – ${formatHzShort(band.coveredHighHz)}`}
+                              sx={{ height: 22, fontSize: '0.75rem', fontFamily: numberSx.fontFamily }}
+                            />
+                          ))}
+                        </Box>
+                      )}
+                    </TableCell>
+                  </TableRow>
+                ))}
+              </TableBody>
+            </Table>
+          </Box>
         )}
       </Paper>
 
@@ -220,6 +224,9 @@ export function BandPlanner({ instrumentId, dialUnits }: { instrumentId: number;
     </Box>
   );
 }
+
+/** Columns shown from the small breakpoint up; on a phone their content folds into the first cell. */
+const wide = { display: { xs: 'none', sm: 'table-cell' } } as const;
 
 /** Band edges as the ITU table prints them: kHz, a decimal only where there is one (5 351.5). */
 const kHz = (hz: number) => formatNumber(hz / 1000, Number.isInteger(hz / 1000) ? 0 : 1);
@@ -240,21 +247,30 @@ function RegionBands({ region, bands, nationalNote }: { region: ItuRegion; bands
             <TableRow>
               <TableCell>Band</TableCell>
               <TableCell align="right">Edges</TableCell>
-              <TableCell>Amateur service</TableCell>
-              <TableCell>Note</TableCell>
+              <TableCell sx={wide}>Amateur service</TableCell>
+              <TableCell sx={wide}>Note</TableCell>
             </TableRow>
           </TableHead>
           <TableBody>
             {bands.map((band) => (
               <TableRow key={band.name}>
-                <TableCell sx={{ whiteSpace: 'nowrap' }}>{band.name}</TableCell>
-                <TableCell align="right" sx={{ whiteSpace: 'nowrap' }}>
+                <TableCell>
+                  <Box component="span" sx={{ whiteSpace: 'nowrap' }}>
+                    {band.name}
+                  </Box>
+                  {/* On a phone the status and the note fold under the band's name. */}
+                  <Typography variant="caption" color="text.secondary" component="span" sx={{ display: { xs: 'block', sm: 'none' } }}>
+                    {band.status}
+                    {band.note ? ` · ${band.note}` : ''}
+                  </Typography>
+                </TableCell>
+                <TableCell align="right" sx={{ whiteSpace: 'nowrap', verticalAlign: 'top' }}>
                   <Num>
                     {kHz(band.lowHz)} – {kHz(band.highHz)} kHz
                   </Num>
                 </TableCell>
-                <TableCell>{band.status}</TableCell>
-                <TableCell>
+                <TableCell sx={wide}>{band.status}</TableCell>
+                <TableCell sx={wide}>
                   <Typography variant="body2" component="span" color={band.note ? 'text.primary' : 'text.secondary'}>
                     {band.note ?? '—'}
                   </Typography>
