@@ -217,7 +217,7 @@ export function StabilityView({ analysis, problem, empty = null, skipAnimation }
                   <Num>{formatDeviation(mdevByTau.get(p.tau))}</Num>
                 </TableCell>
                 <TableCell align="right">
-                  <Num>{p.n}</Num>
+                  <Num>{formatCount(p.n)}</Num>
                 </TableCell>
                 <TableCell align="right">
                   <Num>{formatNumber(p.edf, 1)}</Num>
