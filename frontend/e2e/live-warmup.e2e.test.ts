@@ -1,10 +1,12 @@
 import { spawn, type ChildProcess } from 'node:child_process';
-import { existsSync, mkdtempSync, readFileSync } from 'node:fs';
+import { existsSync, mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+import { pathToFileURL } from 'node:url';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Bench, BenchTokenResponse, ListResponse, Run } from '@kilocycle/common/types';
+import { coverageFactor } from '@kilocycle/common/math';
+import type { Bench, BenchTokenResponse, ListResponse, Run, RunAnalysis, WarmupRunAnalysis } from '@kilocycle/common/types';
 import { BASE_URL, DEMO_PASSWORD, keepScreenshot, launchBrowser, newPage, signIn } from './support/browser';
 import { apiGet, apiLogin, apiRequest } from './support/lab';
 
@@ -17,8 +19,18 @@ const ROOT = resolve(process.cwd(), '..');
 // server has no place in the middle of a test.
 const BRIDGE = join(ROOT, 'backend', 'dist', 'bridge', 'bridge-cli.js');
 const COUNTER_SIM = join(ROOT, 'backend', 'dist', 'bridge', 'counter-sim-cli.js');
-const hasBridge =
-  existsSync(BRIDGE) && existsSync(COUNTER_SIM) && /counter-sim\)/.test(readFileSync(join(ROOT, 'bin', 'kilocycle'), 'utf8'));
+// The simulator's own model: its warm-up time constant, in simulated seconds.
+const OSCILLATOR_MODEL = join(ROOT, 'backend', 'dist', 'bridge', 'oscillator-model.js');
+/** Simulated seconds per real second: τ = 420 s simulated becomes 7 s of real time, so two τ take 14 s. */
+const SPEED = 60;
+
+/** A missing build is a failure of this test, never a reason to skip it: the journey cannot be shown without the bridge. */
+function assertBuilt() {
+  const missing = [BRIDGE, COUNTER_SIM, OSCILLATOR_MODEL].filter((file) => !existsSync(file));
+  if (missing.length > 0) {
+    throw new Error(`the bridge and counter simulator are not built (missing ${missing.join(', ')}): run \`bin/kilocycle test browser\`, which builds them first, or \`npm run build\``);
+  }
+}
 
 type Child = { process: ChildProcess; output: () => string };
 
@@ -48,9 +60,13 @@ async function until<T>(what: string, check: () => T | null | undefined, timeout
   }
 }
 
+/** The count in "1 234 readings" (digit-grouped with spaces). */
+function countIn(text: string): number {
+  return Number(/(\d[\d\s\u00a0\u2009\u202f]*)readings/.exec(text)?.[1]?.replace(/\D/g, '') ?? 0);
+}
+
 async function readingCount(page: Page) {
-  const text = await page.getByTestId('live-status').innerText();
-  return Number(/(\d+)\s+readings/.exec(text)?.[1] ?? 0);
+  return countIn(await page.getByTestId('live-status').innerText());
 }
 
 describe('live warm-up: journey 2 (browser)', () => {
@@ -59,7 +75,7 @@ describe('live warm-up: journey 2 (browser)', () => {
   let bridge: Child | null = null;
 
   beforeAll(async () => {
-    if (hasBridge) browser = await launchBrowser();
+    browser = await launchBrowser();
   });
   afterAll(async () => {
     await stop(bridge, 'SIGINT');
@@ -67,56 +83,88 @@ describe('live warm-up: journey 2 (browser)', () => {
     await browser?.close();
   });
 
-  it.skipIf(!hasBridge)('should show the bridge’s readings and the fitted τ on the warm-up page as they arrive', async () => {
-    // An administrator issues Bench 1 a token; the demo has an open warm-up run on Bench 1.
-    const admin = await apiLogin('admin@kilocycle.test', DEMO_PASSWORD);
-    const benches = await apiGet<ListResponse<Bench>>(admin, `/benches?q=${encodeURIComponent('Bench 1')}`);
-    const bench = benches.items.find((b) => b.name === 'Bench 1');
-    if (!bench) throw new Error('the demo has no Bench 1: reseed the database');
-    const runs = await apiGet<ListResponse<Run>>(admin, `/runs?benchId=${bench.id}&kind=warmup&status=open`);
-    const run = runs.items[0];
-    if (!run) throw new Error('the demo has no open warm-up run on Bench 1: reseed the database');
-    const { token } = await apiRequest<BenchTokenResponse>(admin, 'POST', `/benches/${bench.id}/token`);
+  it('should show the bridge’s readings and a fitted τ that matches the simulator’s own τ within the fit’s interval', async () => {
+    assertBuilt();
+    const { WARMUP_TAU_S } = (await import(pathToFileURL(OSCILLATOR_MODEL).href)) as { WARMUP_TAU_S: number };
+    expect(WARMUP_TAU_S).toBeGreaterThan(0);
+    const expectedTau = WARMUP_TAU_S / SPEED; // the bridge stamps readings in real seconds
 
-    // The simulated counter on a free port, warming up at 60 simulated seconds a second (τ about 7 s of real time).
-    counter = start(COUNTER_SIM, ['--port', '0', '--profile', 'warmup', '--speed', '60', '--seed', '7']);
-    const port = await until('the counter simulator to listen', () => /answering SCPI on [\d.]+:(\d+)/.exec(counter!.output())?.[1]);
+    // The administrator sets up a bench of its own for this test and issues its token; the engineer opens a warm-up run
+    // on it in the demo's live job, so the fit sees the simulator's readings only (a bench takes one open run at a time).
+    const admin = await apiLogin('admin@kilocycle.test', DEMO_PASSWORD);
+    const engineer = await apiLogin('engineer@kilocycle.test', DEMO_PASSWORD);
+    const benches = await apiGet<ListResponse<Bench>>(admin, `/benches?q=${encodeURIComponent('Bench 1')}`);
+    const demoBench = benches.items.find((b) => b.name === 'Bench 1');
+    if (!demoBench) throw new Error('the demo has no Bench 1: reseed the database');
+    const runs = await apiGet<ListResponse<Run>>(admin, `/runs?benchId=${demoBench.id}&kind=warmup&status=open`);
+    const demoRun = runs.items[0];
+    if (!demoRun) throw new Error('the demo has no open warm-up run on Bench 1: reseed the database');
+    const bench = await apiRequest<Bench>(admin, 'POST', '/benches', {
+      name: `Live warm-up test bench ${Date.now().toString(36)}`, location: 'Browser test', defaultStandardId: demoBench.defaultStandardId,
+    });
+    const { token } = await apiRequest<BenchTokenResponse>(admin, 'POST', `/benches/${bench.id}/token`);
+    const run = await apiRequest<Run>(engineer, 'POST', `/jobs/${demoRun.jobId}/runs`, {
+      rangeId: demoRun.rangeId, kind: 'warmup', benchId: bench.id, configuration: 'Browser test: simulated counter over SCPI',
+      notes: 'Cold start; counter on a 1 s gate. Started by the live warm-up browser test.',
+    });
 
     const page = await newPage(browser);
     try {
       await signIn(page, 'engineer@kilocycle.test');
       await page.goto(`/runs/${run.id}`);
       await page.getByRole('heading', { name: new RegExp(`Warm-up run #${run.id}`) }).waitFor();
-      await page.getByTestId('live-status').filter({ hasText: 'Live' }).waitFor({ timeout: 15_000 });
-      const before = await readingCount(page);
+      expect(await readingCount(page)).toBe(0);
 
+      // The simulated counter on a free port, started just before the bridge so the record begins early in the warm-up.
+      counter = start(COUNTER_SIM, ['--port', '0', '--profile', 'warmup', '--speed', String(SPEED), '--seed', '7']);
+      const port = await until('the counter simulator to listen', () => /answering SCPI on [\d.]+:(\d+)/.exec(counter!.output())?.[1]);
       const spool = join(mkdtempSync(join(tmpdir(), 'kc-spool-')), 'run.jsonl');
       bridge = start(BRIDGE, [
         '--server', BASE_URL, '--token', token, '--run', String(run.id), '--source', `scpi://127.0.0.1:${port}`,
         '--interval', '150', '--time-zero', 'now', '--spool', spool, '--status-every', '1000',
       ]);
 
-      // Points arrive without a reload, and the count follows them.
+      // The page says Live while the bridge feeds it; points arrive without a reload, and the count follows them.
+      await page.getByTestId('live-status').filter({ hasText: 'Live' }).waitFor({ timeout: 20_000 });
       await page.getByTestId('warmup-chart').waitFor({ timeout: 20_000 });
       await page.waitForFunction((n) => {
         const text = document.querySelector('[data-testid="live-status"]')?.textContent ?? '';
-        return Number(/(\d+)\s+readings/.exec(text)?.[1] ?? 0) >= n;
-      }, before + 30, { timeout: 30_000 });
+        return Number(/(\d[\d\s\u00a0\u2009\u202f]*)readings/.exec(text)?.[1]?.replace(/\D/g, '') ?? 0) >= n;
+      }, 30, { timeout: 30_000 });
 
       // The fit appears once the readings show the curve, and keeps up as more come in.
       const tau = page.getByTestId('fit-tau');
       await tau.waitFor({ timeout: 40_000 });
       const tauText = await tau.innerText();
-      const tauSeconds = Number(/([\d\s]+(?:\.\d+)?)\s*s/.exec(tauText)?.[1]?.replace(/\s/g, ''));
-      expect(tauSeconds).toBeGreaterThan(0);
+      expect(Number(/([\d\s]+(?:\.\d+)?)\s*s/.exec(tauText)?.[1]?.replace(/\s/g, ''))).toBeGreaterThan(0);
       expect(await page.getByTestId('fit-finf').innerText()).toMatch(/kHz|MHz/);
       const chartLabel = (await page.getByTestId('warmup-chart').getAttribute('aria-label')) ?? '';
       expect(Number(/(\d+) points/.exec(chartLabel)?.[1])).toBeGreaterThanOrEqual(30);
-      expect(await readingCount(page)).toBeGreaterThan(before);
+
+      // About two simulated time constants of record (14 s), then the fit the page shows, from the analysis API (which
+      // gives τ's standard error): the simulator's τ lies within the fit's 95 % interval τ ± k·u(τ), k from Student's t.
+      await page.waitForFunction((n) => {
+        const text = document.querySelector('[data-testid="live-status"]')?.textContent ?? '';
+        return Number(/(\d[\d\s\u00a0\u2009\u202f]*)readings/.exec(text)?.[1]?.replace(/\D/g, '') ?? 0) >= n;
+      }, Math.ceil((2 * expectedTau) / 0.15), { timeout: 40_000 });
+      const analysis = await apiGet<RunAnalysis>(engineer, `/runs/${run.id}/analysis`);
+      if (analysis.analysis !== 'warmup') throw new Error(`the run's analysis is not a warm-up fit: ${JSON.stringify(analysis).slice(0, 300)}`);
+      const fit = (analysis as WarmupRunAnalysis).fit;
+      const k = coverageFactor(fit.n - 3, 0.95);
+      console.log(`live warm-up: fitted τ = ${fit.tau.toFixed(3)} s ± ${(k * fit.seTau).toFixed(3)} s (k = ${k.toFixed(2)}, n = ${fit.n}); simulator τ = ${WARMUP_TAU_S} s / ${SPEED} = ${expectedTau.toFixed(3)} s`);
+      expect(fit.seTau).toBeGreaterThan(0);
+      expect(Math.abs(fit.tau - expectedTau)).toBeLessThanOrEqual(k * fit.seTau);
+      expect(await readingCount(page)).toBeGreaterThanOrEqual(fit.n);
+      // 14 s into a warm-up that settles within 5 Hz only after τ·ln(|A|/5 Hz) ≈ 38 s: the page says that lies beyond the record.
+      expect(await page.getByTestId('settled-within').innerText()).toMatch(/extrapolated beyond the \d+\s+s recorded/);
+      // The run's notes show in its Notes panel.
+      expect(await page.getByTestId('run-notes-text').innerText()).toContain('Started by the live warm-up browser test.');
       await keepScreenshot(page, 'live-warmup');
+      await page.setViewportSize({ width: 390, height: 844 });
+      await keepScreenshot(page, 'live-warmup-390');
     } catch (error) {
       await keepScreenshot(page, 'live-warmup-failure').catch(() => undefined);
-      throw new Error(`${(error as Error).message}\nbridge: ${bridge?.output().slice(-800) ?? ''}\ncounter: ${counter.output().slice(-400)}`);
+      throw new Error(`${(error as Error).message}\nbridge: ${bridge?.output().slice(-800) ?? ''}\ncounter: ${counter?.output().slice(-400) ?? ''}`);
     } finally {
       await page.context().close();
     }

@@ -24,9 +24,9 @@ export type OscillatorOptions = {
   sweepPoints?: number;
 };
 
-/** Warm-up amplitude as a fraction of frequency (the oscillator starts low and rises) and its time constant. */
-const WARMUP_FRACTION = -180e-6;
-const WARMUP_TAU_S = 420;
+/** Warm-up amplitude as a fraction of frequency (the oscillator starts low and rises) and its time constant (simulated seconds; the live browser test checks the fitted τ against it). */
+export const WARMUP_FRACTION = -180e-6;
+export const WARMUP_TAU_S = 420;
 /** A slow residual drift after warm-up, fraction per second. */
 const AGING_PER_S = 2e-11;
 /** Dial error: scale error, offset and a mid-range bow, as fractions of the nominal frequency. */

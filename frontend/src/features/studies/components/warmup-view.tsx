@@ -34,7 +34,8 @@ const tickStyle = { fontFamily: MONO_FONT, fontSize: 11 };
 /** Under a settling time: "never" when the rule is never met, and plainly when the time lies beyond the record (the fit's prediction). */
 export function settlingDetail(seconds: number | null, extrapolated: boolean, lastReadingSeconds: number): string | undefined {
   if (seconds === null) return 'never, by this rule';
-  return extrapolated ? `extrapolated beyond the ${formatDuration(lastReadingSeconds)} recorded` : undefined;
+  // The duration never breaks between number and unit ("14 s" stays on one line in the narrow figure column).
+  return extrapolated ? `extrapolated beyond the ${formatDuration(lastReadingSeconds).replace(/ /g, '\u00a0')} recorded` : undefined;
 }
 
 type WarmupViewProps = {

@@ -24,8 +24,8 @@ describe('<WarmupView> settling times', () => {
     renderWithApp(<WarmupView analysis={analysis({})} problem={null} latest={[]} skipAnimation />);
     const within = screen.getByTestId('settled-within');
     expect(within.textContent).toContain('3 min 47 s');
-    expect(within.textContent).toContain('extrapolated beyond the 14 s recorded');
-    expect(screen.getByTestId('settled-rate').textContent).toContain('extrapolated beyond the 14 s recorded');
+    expect(within.textContent).toContain('extrapolated beyond the 14\u00a0s recorded');
+    expect(screen.getByTestId('settled-rate').textContent).toContain('extrapolated beyond the 14\u00a0s recorded');
   });
 
   it('says nothing of the kind once the record reaches the settling time, and "never" when the rule is never met', () => {
