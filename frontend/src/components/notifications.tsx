@@ -29,7 +29,8 @@ export function Notifications() {
         if (reason !== 'clickaway') close();
       }}
       anchorOrigin={wide ? { vertical: 'top', horizontal: 'center' } : { vertical: 'bottom', horizontal: 'center' }}
-      sx={wide ? { top: { md: 4 }, maxWidth: 640 } : undefined}
+      // Between the logo and the account buttons (about 300 px each side); one line for the usual message.
+      sx={wide ? { top: { md: 4 }, maxWidth: 'min(880px, calc(100vw - 600px))' } : undefined}
       data-testid="notice"
     >
       <Alert severity={current.severity} variant="filled" onClose={close} sx={{ width: '100%', ...(wide ? { py: 0, alignItems: 'center' } : {}) }}>

@@ -108,6 +108,7 @@ export function MailMessage({ id, outboxPath }: { id: number; outboxPath: string
   if (message.isPending) return <FullPageSpinner label="Opening the message" />;
   if (message.isError) return <Alert severity="error">The message could not be opened: {message.error.message}</Alert>;
   const m = message.data;
+  const replyTo = m.headers.find((h) => h.name.toLowerCase() === 'reply-to')?.value ?? null;
   return (
     <Box sx={{ maxWidth: 1100 }}>
       <Button component={RouterLink} to={outboxPath} size="small" startIcon={<ArrowBackOutlined />} sx={{ mb: 1 }}>
@@ -123,6 +124,12 @@ export function MailMessage({ id, outboxPath }: { id: number; outboxPath: string
         >
           <dt>From</dt>
           <dd>{m.from}</dd>
+          {replyTo && (
+            <>
+              <dt>Reply-To</dt>
+              <dd>{replyTo}</dd>
+            </>
+          )}
           <dt>To</dt>
           <dd>{m.to.join(', ')}</dd>
           <dt>Sent</dt>

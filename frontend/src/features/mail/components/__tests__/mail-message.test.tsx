@@ -53,9 +53,11 @@ describe('<MailMessage>', () => {
     expect(screen.queryByTitle('Message body (HTML)')).toBeNull();
   });
 
-  it('shows the Reply-To header among the headers', async () => {
+  it('shows where replies go beside the sender, and the Reply-To header among the headers', async () => {
     show(message({ id: 43 }));
+    const replyTo = await screen.findByText('Reply-To', { selector: 'dt' });
+    expect(replyTo.nextElementSibling?.textContent).toBe('Quarry Lane Frequency Lab <bench@quarrylane.test>');
     fireEvent.click(await screen.findByRole('tab', { name: 'Headers' }));
-    expect(screen.getByText('Quarry Lane Frequency Lab <bench@quarrylane.test>')).toBeTruthy();
+    expect(screen.getByRole('cell', { name: 'Quarry Lane Frequency Lab <bench@quarrylane.test>' })).toBeTruthy();
   });
 });
