@@ -141,7 +141,7 @@ async function journey(page: Page) {
       if (index === 4) {
         await page.getByTestId('fit-summary').filter({ hasText: '5 used' }).waitFor();
         fitAfterFive = await page.getByTestId('fit-summary').innerText();
-        expect(fitAfterFive).toMatch(/Offset/);
+        expect(fitAfterFive).toMatch(/Error at mid-span/);
         expect(fitAfterFive).toMatch(/R²/);
       }
     }

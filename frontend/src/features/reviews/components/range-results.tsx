@@ -113,7 +113,7 @@ function FitSummary({ title, summary }: { title: string; summary: RunFitSummary 
           component="dl"
           sx={{ display: 'grid', gridTemplateColumns: 'max-content 1fr', columnGap: 2, rowGap: 0.25, m: 0, '& dt': { color: 'text.secondary' }, '& dd': { m: 0, ...numberSx } }}
         >
-          <dt>Offset</dt>
+          <dt>Intercept at 0 Hz</dt>
           <dd>
             {formatNumber(fit.offsetHz, 1)} ± {formatSignificant(fit.seOffset, 2)} Hz
           </dd>
@@ -219,7 +219,8 @@ export function RangeResults({ range }: RangeResultsProps) {
         <Table size="small" aria-label={`Results, range ${range.label}`} sx={{ '& td, & th': { py: 0.5, px: 1 } }}>
           <TableHead>
             <TableRow>
-              <TableCell colSpan={dialIsNominal ? 2 : 3} />
+              {/* The corner above the setting columns heads nothing: a plain cell, not an empty header. */}
+              <TableCell component="td" colSpan={dialIsNominal ? 2 : 3} />
               <TableCell colSpan={4} sx={{ ...groupStart, fontWeight: 600 }}>
                 As found
               </TableCell>

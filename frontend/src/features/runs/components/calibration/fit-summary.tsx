@@ -4,7 +4,8 @@ import Typography from '@mui/material/Typography';
 import type { ReactNode } from 'react';
 import type { CalibrationRunAnalysis } from '@kilocycle/common/types';
 import { Num } from '@/components/ui/num';
-import { formatNumber, formatSignedHz } from '@/utils/frequency';
+import { formatHz, formatNumber, formatSignedHz } from '@/utils/frequency';
+import { formatCount } from '@/utils/measurement';
 
 function Figure({ label, value, detail }: { label: string; value: ReactNode; detail?: ReactNode }) {
   return (
@@ -24,9 +25,18 @@ function Figure({ label, value, detail }: { label: string; value: ReactNode; det
   );
 }
 
-/** Offset, scale error, residual spread, R² and tracking error of the run, as the server computed them. */
+function lineAtMidSpan(fit: { offsetHz: number; slope: number }, points: ReadonlyArray<{ nominal: number }>) {
+  const nominals = points.map((p) => p.nominal);
+  const nominal = (Math.min(...nominals) + Math.max(...nominals)) / 2;
+  return { nominal, errorHz: fit.offsetHz + fit.slope * nominal };
+}
+
+/** Error at mid-span, intercept, scale error, residual spread, R² and tracking error of the run, as the server computed them. */
 export function FitSummary({ analysis }: { analysis: CalibrationRunAnalysis }) {
   const { fit, tracking, outliers, points } = analysis;
+  // The line's value at the centre of the measured span: the error a person would expect there, unlike the
+  // intercept, which lies at 0 Hz, far outside any range, and can have the opposite sign of every error measured.
+  const midSpan = fit && points.length > 0 ? lineAtMidSpan(fit, points) : null;
   return (
     <Paper variant="outlined" sx={{ p: 2 }} data-testid="fit-summary">
       <Typography variant="h3" component="h2" sx={{ mb: 1 }}>
@@ -35,12 +45,17 @@ export function FitSummary({ analysis }: { analysis: CalibrationRunAnalysis }) {
       <Box component="dl" sx={{ display: 'grid', gridTemplateColumns: 'auto 1fr', columnGap: 2, rowGap: 0.5, m: 0 }}>
         <Figure
           label="Readings"
-          value={`${analysis.usedCount} used`}
-          detail={`${analysis.readingCount} taken, ${analysis.excludedCount} excluded, ${points.length} settings`}
+          value={`${formatCount(analysis.usedCount)} used`}
+          detail={`${formatCount(analysis.readingCount)} taken, ${formatCount(analysis.excludedCount)} excluded, ${points.length} settings`}
         />
-        {fit ? (
+        {fit && midSpan ? (
           <>
-            <Figure label="Offset" value={formatSignedHz(fit.offsetHz)} detail={`± ${formatNumber(fit.seOffset, 1)} Hz`} />
+            <Figure label="Error at mid-span" value={formatSignedHz(midSpan.errorHz)} detail={`the line's value at ${formatHz(midSpan.nominal)}, mid-way across the settings measured`} />
+            <Figure
+              label="Intercept at 0 Hz"
+              value={formatSignedHz(fit.offsetHz)}
+              detail={`± ${formatNumber(fit.seOffset, 1)} Hz; the line's value at 0 Hz (error = intercept + scale error × nominal)`}
+            />
             <Figure
               label="Scale error"
               value={`${formatNumber(fit.slope * 1e6, 1, true)} ppm`}
