@@ -50,11 +50,11 @@ export function FitSummary({ analysis }: { analysis: CalibrationRunAnalysis }) {
         />
         {fit && midSpan ? (
           <>
-            <Figure label="Error at mid-span" value={formatSignedHz(midSpan.errorHz)} detail={`the line's value at ${formatHz(midSpan.nominal)}, mid-way across the settings measured`} />
+            <Figure label="Error at mid-span" value={formatSignedHz(midSpan.errorHz)} detail={`the line at ${formatHz(midSpan.nominal)}, mid-way across the settings`} />
             <Figure
               label="Intercept at 0 Hz"
               value={formatSignedHz(fit.offsetHz)}
-              detail={`± ${formatNumber(fit.seOffset, 1)} Hz; the line's value at 0 Hz (error = intercept + scale error × nominal)`}
+              detail={`± ${formatNumber(fit.seOffset, 1)} Hz, where error = intercept + scale error × nominal`}
             />
             <Figure
               label="Scale error"
