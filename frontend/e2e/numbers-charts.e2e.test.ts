@@ -46,13 +46,16 @@ async function labelsInside(chart: Locator): Promise<string[]> {
   });
 }
 
-async function bothWidths(page: Page, name: string): Promise<void> {
+/** Screenshots at 1440 and 390 px; answers how wide the page is at 390 px (wider means it scrolls sideways). */
+async function bothWidths(page: Page, name: string): Promise<number> {
   await keepScreenshot(page, `${name}-1440`);
   await page.setViewportSize({ width: 390, height: 844 });
   await page.waitForTimeout(300);
   await keepScreenshot(page, `${name}-390`);
+  const width = await page.evaluate(() => document.documentElement.scrollWidth);
   await page.setViewportSize({ width: 1440, height: 900 });
   await page.waitForTimeout(300);
+  return width;
 }
 
 describe('numbers and charts (browser)', () => {
@@ -145,7 +148,7 @@ describe('numbers and charts (browser)', () => {
       // Octaves of τ0 = 0.1 s: 0.1, 0.2, 0.4, … 1.6, 3.2 … 102.4 (three significant digits: 102).
       expect(taus.slice(0, 8)).toEqual(['0.1', '0.2', '0.4', '0.8', '1.6', '3.2', '6.4', '12.8']);
       expect(taus).toContain('102');
-      await bothWidths(page, 'numbers-stability');
+      expect(await bothWidths(page, 'numbers-stability')).toBeLessThanOrEqual(390);
     } catch (error) {
       await keepScreenshot(page, 'numbers-failure').catch(() => undefined);
       throw error;
@@ -229,7 +232,8 @@ describe('numbers and charts (browser)', () => {
         // Both ends of the interval carry the unit and their own direction: no bare "−3 to 82".
         expect(sentence).toMatch(/\(95 % interval .+ (lower|higher)(, so it includes no change)?\)\.$/);
       }
-      await bothWidths(page, 'numbers-comparison');
+      // At 390 px the wide tables scroll inside their panels; the page itself does not scroll sideways.
+      expect(await bothWidths(page, 'numbers-comparison')).toBeLessThanOrEqual(390);
     } catch (error) {
       await keepScreenshot(page, 'numbers-failure').catch(() => undefined);
       throw error;

@@ -12,7 +12,8 @@ import { SensitivityPanel } from './sensitivity-panel';
 /** A computed comparison: the runs, the two plots, the table of differences and the instrument's sensitivities. */
 export function ComparisonResultView({ result, fileTitle }: { result: ComparisonResult; fileTitle: string }) {
   return (
-    <Box sx={{ display: 'grid', gap: 2 }}>
+    // minmax(0, 1fr): a wide table scrolls inside its own panel instead of widening the page.
+    <Box sx={{ display: 'grid', gridTemplateColumns: 'minmax(0, 1fr)', gap: 2 }}>
       <Typography variant="body2" color="text.secondary">
         {result.instrumentLabel} · {result.kind === 'warmup' ? 'warm-up' : 'stability'} runs aligned at power-on · settled when within{' '}
         {result.options.withinHz} Hz of f∞ · settled drift rate over {formatDuration(result.options.windowSeconds)} windows · intervals at{' '}
@@ -21,7 +22,7 @@ export function ComparisonResultView({ result, fileTitle }: { result: Comparison
       <ErrorBoundary>
         <ComparedRuns result={result} />
       </ErrorBoundary>
-      <Box sx={{ display: 'grid', gridTemplateColumns: { xs: '1fr', xl: '1fr 1fr' }, gap: 2 }}>
+      <Box sx={{ display: 'grid', gridTemplateColumns: { xs: 'minmax(0, 1fr)', xl: 'repeat(2, minmax(0, 1fr))' }, gap: 2 }}>
         <ErrorBoundary>
           <DriftChart result={result} fileTitle={fileTitle} />
         </ErrorBoundary>
