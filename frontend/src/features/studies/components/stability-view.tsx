@@ -31,10 +31,10 @@ const tickStyle = { fontFamily: MONO_FONT, fontSize: 11 };
 export function formatDeviation(value: number | null | undefined, digits = 3): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return '—';
   if (value === 0) return '0';
-  const exponent = Math.floor(Math.log10(Math.abs(value)));
-  const mantissa = value / 10 ** exponent;
-  const superscript = String(exponent).replace(/[-0-9]/g, (c) => '⁻⁰¹²³⁴⁵⁶⁷⁸⁹'['-0123456789'.indexOf(c)] ?? c);
-  return `${mantissa.toFixed(digits - 1)}×10${superscript}`;
+  // toExponential rounds mantissa and exponent together: 9.999e-10 reads 1.00×10⁻⁹, never 10.00×10⁻¹⁰.
+  const [mantissa = '', exponent = ''] = value.toExponential(digits - 1).split('e');
+  const superscript = exponent.replace('+', '').replace(/[-0-9]/g, (c) => '⁻⁰¹²³⁴⁵⁶⁷⁸⁹'['-0123456789'.indexOf(c)] ?? c);
+  return `${mantissa}×10${superscript}`;
 }
 
 /** empty: said instead of the analysis when the run has no included reading yet. */
