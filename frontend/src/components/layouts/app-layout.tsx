@@ -7,6 +7,7 @@ import Divider from '@mui/material/Divider';
 import Drawer from '@mui/material/Drawer';
 import IconButton from '@mui/material/IconButton';
 import List from '@mui/material/List';
+import ListItem from '@mui/material/ListItem';
 import ListItemButton from '@mui/material/ListItemButton';
 import ListItemIcon from '@mui/material/ListItemIcon';
 import ListItemText from '@mui/material/ListItemText';
@@ -28,20 +29,16 @@ function MainNavigation({ onNavigate }: { onNavigate?: () => void }) {
   return (
     <Box component="nav" aria-label="Main" sx={{ p: 1 }}>
       <List disablePadding dense>
+        {/* Each link sits in its own list item: a list may hold only list items (WCAG 1.3.1). */}
         {items.map(({ label, path, icon: Icon }) => (
-          <ListItemButton
-            key={path}
-            component={NavLink}
-            to={path}
-            end={path === paths.home}
-            onClick={onNavigate}
-            sx={{ mb: 0.25 }}
-          >
-            <ListItemIcon sx={{ minWidth: 36 }}>
-              <Icon fontSize="small" />
-            </ListItemIcon>
-            <ListItemText primary={label} />
-          </ListItemButton>
+          <ListItem key={path} disablePadding sx={{ mb: 0.25 }}>
+            <ListItemButton component={NavLink} to={path} end={path === paths.home} onClick={onNavigate}>
+              <ListItemIcon sx={{ minWidth: 36 }}>
+                <Icon fontSize="small" />
+              </ListItemIcon>
+              <ListItemText primary={label} />
+            </ListItemButton>
+          </ListItem>
         ))}
       </List>
     </Box>

@@ -16,7 +16,8 @@ export function AuthLayout({ title, children }: { title: string; children: React
         background: (t) => `linear-gradient(160deg, ${t.palette.primary.dark} 0%, ${t.palette.primary.main} 55%, #2b3a3f 100%)`,
       }}
     >
-      <Box sx={{ width: '100%', maxWidth: 400 }}>
+      {/* The page's one main landmark holds everything, so nothing sits outside a landmark. */}
+      <Box component="main" sx={{ width: '100%', maxWidth: 400 }}>
         <Box sx={{ mb: 2, display: 'flex', justifyContent: 'center' }}>
           <Logo color="#ffffff" />
         </Box>

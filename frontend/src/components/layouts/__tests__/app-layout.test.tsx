@@ -15,6 +15,9 @@ describe('<AppLayout>', () => {
     const links = within(nav).getAllByRole('link').map((link) => link.textContent);
     expect(links).toEqual(['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches', 'Certificates', 'Outbox', 'Users', 'Organisations']);
     expect(within(nav).getByRole('link', { name: 'Users' }).getAttribute('href')).toBe('/admin/users');
+    // A list holds only list items (axe's "list" rule): one item per link.
+    expect(within(nav).getAllByRole('listitem')).toHaveLength(links.length);
+    expect(within(nav).getByRole('list').querySelectorAll(':scope > :not(li)')).toHaveLength(0);
     expect(screen.getByText('Kilocycle')).toBeTruthy();
     expect(screen.getByText('Ada Quarry')).toBeTruthy();
     expect(screen.getByText('Administrator')).toBeTruthy();

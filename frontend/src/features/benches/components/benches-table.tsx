@@ -6,6 +6,7 @@ import type { GridColDef } from '@mui/x-data-grid';
 import { useMemo, useState } from 'react';
 import type { Bench } from '@kilocycle/common/types';
 import { ConfirmDialog } from '@/components/ui/confirm-dialog';
+import { unlabelledHeader } from '@/components/ui/hidden-label';
 import { Num } from '@/components/ui/num';
 import { SearchField } from '@/components/ui/search-field';
 import { ServerDataGrid } from '@/components/ui/server-data-grid';
@@ -66,7 +67,7 @@ export function BenchesTable({ isAdmin }: { isAdmin: boolean }) {
         ? [
             {
               field: 'actions',
-              headerName: '',
+              ...unlabelledHeader('Actions'),
               width: 260,
               sortable: false,
               disableColumnMenu: true,

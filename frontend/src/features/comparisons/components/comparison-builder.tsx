@@ -28,9 +28,11 @@ import {
   type Run,
   type SavedComparison,
 } from '@kilocycle/common/types';
+import { HiddenLabel } from '@/components/ui/hidden-label';
 import { numberSx } from '@/components/ui/num';
 import { ApiError } from '@/lib/api-client';
 import { formatDateTime } from '@/utils/format';
+import { formatCount } from '@/utils/measurement';
 import { useComputeComparison } from '../api/compute-comparison';
 import { useComparableInstruments } from '../api/get-instruments';
 import { useStudyRuns } from '../api/get-study-runs';
@@ -163,7 +165,9 @@ export function ComparisonBuilder({ existing, canSave, onSaved }: ComparisonBuil
               <Table size="small" aria-label="Runs to compare" sx={{ '& td, & th': { py: 0.25, px: 1 } }}>
                 <TableHead>
                   <TableRow>
-                    <TableCell padding="checkbox" />
+                    <TableCell padding="checkbox">
+                      <HiddenLabel>Compare</HiddenLabel>
+                    </TableCell>
                     <TableCell>Run</TableCell>
                     <TableCell>Started</TableCell>
                     <TableCell>Set-up</TableCell>
@@ -201,7 +205,7 @@ export function ComparisonBuilder({ existing, canSave, onSaved }: ComparisonBuil
                             </Typography>
                           )}
                         </TableCell>
-                        <TableCell sx={{ ...numberSx, textAlign: 'right' }}>{run.readingCount}</TableCell>
+                        <TableCell sx={{ ...numberSx, textAlign: 'right' }}>{formatCount(run.readingCount)}</TableCell>
                         <TableCell>
                           {selected && (
                             <TextField

@@ -6,6 +6,7 @@ import type { GridColDef } from '@mui/x-data-grid';
 import { useMemo } from 'react';
 import { Link as RouterLink } from 'react-router-dom';
 import type { MailMessageSummary } from '@kilocycle/common/types';
+import { unlabelledHeader } from '@/components/ui/hidden-label';
 import { Num } from '@/components/ui/num';
 import { SearchField } from '@/components/ui/search-field';
 import { SelectFilter } from '@/components/ui/select-filter';
@@ -45,7 +46,7 @@ export function OutboxTable({ messagePath }: { messagePath: (id: number) => stri
       { field: 'to', headerName: 'To', flex: 1, minWidth: 200, sortable: false, valueFormatter: (value: string[]) => value.join(', ') },
       {
         field: 'attachmentCount',
-        headerName: '',
+        ...unlabelledHeader('Attachments'),
         width: 56,
         sortable: false,
         renderCell: ({ row }) =>

@@ -7,6 +7,7 @@ import type { GridColDef } from '@mui/x-data-grid';
 import { useMemo, useState } from 'react';
 import { ORGANIZATION_KINDS, type Organization, type OrganizationKind } from '@kilocycle/common/types';
 import { ConfirmDialog } from '@/components/ui/confirm-dialog';
+import { unlabelledHeader } from '@/components/ui/hidden-label';
 import { Num } from '@/components/ui/num';
 import { SearchField } from '@/components/ui/search-field';
 import { SelectFilter } from '@/components/ui/select-filter';
@@ -90,7 +91,7 @@ export function OrganizationsTable() {
       },
       {
         field: 'actions',
-        headerName: '',
+        ...unlabelledHeader('Actions'),
         width: 130,
         sortable: false,
         filterable: false,

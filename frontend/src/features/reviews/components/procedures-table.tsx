@@ -11,6 +11,7 @@ import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
 import { useState } from 'react';
 import type { Procedure } from '@kilocycle/common/types';
+import { HiddenLabel } from '@/components/ui/hidden-label';
 import { ActiveChip } from '@/components/ui/status-chip';
 import { numberSx } from '@/components/ui/num';
 import { formatDateTime } from '@/utils/format';
@@ -43,7 +44,9 @@ export function ProceduresTable({ canEdit }: { canEdit: boolean }) {
               <TableCell>Extra components</TableCell>
               <TableCell>Status</TableCell>
               <TableCell>Changed</TableCell>
-              <TableCell />
+              <TableCell>
+                <HiddenLabel>Actions</HiddenLabel>
+              </TableCell>
             </TableRow>
           </TableHead>
           <TableBody>

@@ -13,8 +13,10 @@ import Typography from '@mui/material/Typography';
 import { useState } from 'react';
 import { Link as RouterLink } from 'react-router-dom';
 import { CALIBRATION_RUN_KINDS, type ReviewRun } from '@kilocycle/common/types';
+import { HiddenLabel } from '@/components/ui/hidden-label';
 import { numberSx } from '@/components/ui/num';
 import { formatDate, formatDateTime } from '@/utils/format';
+import { formatCount } from '@/utils/measurement';
 import { RUN_KIND_LABELS } from '../utils/results-format';
 import { RunBudgetDialog } from './run-budget-dialog';
 
@@ -40,7 +42,9 @@ export function ReviewRuns({ runs, canEditBudgets, rangeUnits, runPath }: Review
               <TableCell>Started</TableCell>
               <TableCell sx={{ textAlign: 'right' }}>Readings</TableCell>
               <TableCell sx={{ textAlign: 'right' }}>Excluded</TableCell>
-              <TableCell />
+              <TableCell>
+                <HiddenLabel>Actions</HiddenLabel>
+              </TableCell>
             </TableRow>
           </TableHead>
           <TableBody>
@@ -81,13 +85,13 @@ export function ReviewRuns({ runs, canEditBudgets, rangeUnits, runPath }: Review
                   </TableCell>
                   <TableCell>{run.createdByName}</TableCell>
                   <TableCell sx={numberSx}>{formatDateTime(run.startedAt)}</TableCell>
-                  <TableCell sx={{ ...numberSx, textAlign: 'right' }}>{run.readingCount}</TableCell>
+                  <TableCell sx={{ ...numberSx, textAlign: 'right' }}>{formatCount(run.readingCount)}</TableCell>
                   <TableCell sx={{ ...numberSx, textAlign: 'right', color: run.excludedCount > 0 ? 'warning.dark' : undefined }}>
-                    {run.excludedCount}
+                    {formatCount(run.excludedCount)}
                   </TableCell>
                   <TableCell sx={{ textAlign: 'right' }}>
                     {calibration && (
-                      <Button size="small" onClick={() => setBudgetRun(run)} aria-label={`Budget of run ${run.id}`}>
+                      <Button size="small" onClick={() => setBudgetRun(run)} aria-label={`${canEditBudgets ? 'Edit budget' : 'Budget'} of run ${run.id}`}>
                         {canEditBudgets ? 'Edit budget' : 'Budget'}
                       </Button>
                     )}

@@ -8,6 +8,7 @@ import type { GridColDef } from '@mui/x-data-grid';
 import { useMemo, useState } from 'react';
 import { STANDARD_KINDS, type ListStandardsQuery, type ReferenceStandard, type StandardKind } from '@kilocycle/common/types';
 import { DueChip } from '@/components/ui/due-chip';
+import { unlabelledHeader } from '@/components/ui/hidden-label';
 import { Num } from '@/components/ui/num';
 import { SearchField } from '@/components/ui/search-field';
 import { SelectFilter } from '@/components/ui/select-filter';
@@ -97,7 +98,7 @@ export function StandardsTable({ canEdit }: { canEdit: boolean }) {
         ? [
             {
               field: 'actions',
-              headerName: '',
+              ...unlabelledHeader('Actions'),
               width: 80,
               sortable: false,
               disableColumnMenu: true,

@@ -6,6 +6,7 @@ import type { GridColDef } from '@mui/x-data-grid';
 import { useMemo, useState } from 'react';
 import { ROLES, type Organization, type Role, type User } from '@kilocycle/common/types';
 import { ConfirmDialog } from '@/components/ui/confirm-dialog';
+import { unlabelledHeader } from '@/components/ui/hidden-label';
 import { Num } from '@/components/ui/num';
 import { SearchField } from '@/components/ui/search-field';
 import { SelectFilter } from '@/components/ui/select-filter';
@@ -84,7 +85,7 @@ export function UsersTable({ organizations }: UsersTableProps) {
       },
       {
         field: 'actions',
-        headerName: '',
+        ...unlabelledHeader('Actions'),
         width: 110,
         sortable: false,
         filterable: false,

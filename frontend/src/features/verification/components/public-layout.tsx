@@ -10,7 +10,7 @@ export function PublicLayout({ children, homePath }: { children: ReactNode; home
   return (
     <Box sx={{ minHeight: '100vh', bgcolor: 'background.default', display: 'flex', flexDirection: 'column' }}>
       <Box component="header" sx={{ bgcolor: 'primary.main', color: 'primary.contrastText', px: 3, py: 1.5 }}>
-        <Link component={RouterLink} to={homePath} color="inherit" underline="none" aria-label="Certificate verification">
+        <Link component={RouterLink} to={homePath} color="inherit" underline="none" aria-label="Kilocycle certificate verification">
           <Logo />
         </Link>
       </Box>
