@@ -6,15 +6,15 @@ import Menu from '@mui/material/Menu';
 import MenuItem from '@mui/material/MenuItem';
 import Paper from '@mui/material/Paper';
 import Tooltip from '@mui/material/Tooltip';
-import useMediaQuery from '@mui/material/useMediaQuery';
-import { useTheme } from '@mui/material/styles';
 import { DataGrid, type GridColDef, type GridPaginationModel, type GridSortModel } from '@mui/x-data-grid';
 import { useMemo, useState } from 'react';
 import { Link as RouterLink } from 'react-router-dom';
 import { CERTIFICATE_STATUSES, type Certificate, type ListCertificatesQuery } from '@kilocycle/common/types';
 import { CERTIFICATE_STATUS_LABELS, CertificateStatusChip } from '@/components/ui/certificate-status-chip';
-import { DecisionChip } from '@/components/ui/decision-chip';
+import { DECISION_LABELS, DecisionChip } from '@/components/ui/decision-chip';
+import { unlabelledHeader } from '@/components/ui/hidden-label';
 import { Num } from '@/components/ui/num';
+import { usePhoneColumns, type PhoneLayout } from '@/components/ui/phone-columns';
 import { SearchField } from '@/components/ui/search-field';
 import { SelectFilter } from '@/components/ui/select-filter';
 import { useListSearchParams } from '@/hooks/use-list-search-params';
@@ -74,8 +74,6 @@ function Table({ shape, embedded, verifyPath, jobPath, height }: { shape: Shape 
   const user = useCurrentUser();
   const isClient = user.role === 'client';
   const isLead = user.role === 'lead';
-  // On a phone the revision gives way, so the as-found outcome is in view beside the number and status.
-  const narrow = useMediaQuery(useTheme().breakpoints.down('sm'));
   const certificates = useCertificates({ query: shape.query });
   const [menu, setMenu] = useState<{ anchor: HTMLElement; certificate: Certificate } | null>(null);
   const [pending, setPending] = useState<{ certificate: Certificate; action: 'amend' | 'withdraw' } | null>(null);
@@ -86,8 +84,9 @@ function Table({ shape, embedded, verifyPath, jobPath, height }: { shape: Shape 
         field: 'number',
         headerName: 'Certificate',
         width: 130,
+        // describeChild: the tooltip describes the link, whose name stays the number it shows.
         renderCell: ({ row }) => (
-          <Tooltip title="Public verification page">
+          <Tooltip title="Public verification page" describeChild>
             <Link component={RouterLink} to={verifyPath(row.number)}>
               <Num>{row.number}</Num>
             </Link>
@@ -159,7 +158,7 @@ function Table({ shape, embedded, verifyPath, jobPath, height }: { shape: Shape 
       { field: 'issuedAt', headerName: 'Issued', width: 110, renderCell: ({ row }) => <Num>{formatDate(row.issuedAt)}</Num> },
       {
         field: 'actions',
-        headerName: '',
+        ...unlabelledHeader('Actions'),
         width: isLead ? 120 : 90,
         sortable: false,
         disableColumnMenu: true,
@@ -178,20 +177,42 @@ function Table({ shape, embedded, verifyPath, jobPath, height }: { shape: Shape 
     ],
     [isClient, isLead, embedded, verifyPath, jobPath],
   );
+  // On a phone the number, status, final decision and PDF stay in view; the as-found outcome and the rest read
+  // on a second line under the number.
+  const phoneLayout = useMemo<PhoneLayout<Certificate>>(
+    () => ({
+      keep: { number: 'fill', status: 80, decision: 68, actions: isLead ? 90 : 60 },
+      secondLine: (row) => [
+        `Rev. ${row.revision}`,
+        row.status !== 'draft' && `as found: ${row.asFoundDecision ? DECISION_LABELS[row.asFoundDecision].toLowerCase() : 'not decided'}`,
+        row.instrumentLabel,
+        !isClient && row.organizationName,
+        `job ${row.jobNumber}`,
+        row.issuedAt && `issued ${formatDate(row.issuedAt)}`,
+      ],
+    }),
+    [isClient, isLead],
+  );
+  const layout = usePhoneColumns(columns, phoneLayout);
 
   return (
     <>
       <Paper
         variant="outlined"
-        // Embedded, the grid is as tall as its rows (a customer has a handful of certificates); on its own page it fills the screen.
-        sx={{ height: height ?? (embedded ? Math.min(Math.max(certificates.data?.items.length ?? 1, 1), 10) * 36 + 100 : 'calc(100vh - 240px)'), minHeight: embedded ? 0 : 300 }}
+        // Embedded, the grid is as tall as its rows (a customer has a handful of certificates; two lines each on a
+        // phone); on its own page it fills the screen.
+        sx={{
+          height: height ?? (embedded ? Math.min(Math.max(certificates.data?.items.length ?? 1, 1), 10) * (layout.phone ? 150 : 36) + 100 : 'calc(100vh - 240px)'),
+          minHeight: embedded ? 0 : 300,
+        }}
       >
         <DataGrid
           aria-label="Certificates"
           rows={certificates.data?.items ?? []}
           rowCount={certificates.data?.total ?? 0}
-          columns={columns}
-          columnVisibilityModel={narrow ? { revision: false } : {}}
+          columns={layout.columns}
+          columnVisibilityModel={layout.columnVisibilityModel}
+          getRowHeight={layout.getRowHeight}
           loading={certificates.isFetching}
           paginationMode="server"
           sortingMode="server"
@@ -204,7 +225,7 @@ function Table({ shape, embedded, verifyPath, jobPath, height }: { shape: Shape 
           onSortModelChange={shape.onSort}
           sortingOrder={['asc', 'desc']}
           localeText={{ noRowsLabel: certificates.isError ? 'The certificates could not be loaded.' : 'No certificates yet.' }}
-          sx={{ border: 0 }}
+          sx={[{ border: 0 }, layout.sx]}
         />
       </Paper>
       <Menu anchorEl={menu?.anchor} open={menu !== null} onClose={() => setMenu(null)}>

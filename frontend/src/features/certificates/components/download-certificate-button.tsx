@@ -31,6 +31,8 @@ export function DownloadCertificateButton({ certificate, label = 'PDF' }: Downlo
       onClick={() => void download()}
       disabled={busy}
       aria-label={`Download ${certificate.number} revision ${certificate.revision} as PDF`}
+      // As narrow as its icon and word, so it keeps its place in a list on a phone.
+      sx={{ minWidth: 0 }}
     >
       {busy ? '…' : label}
     </Button>

@@ -6,6 +6,7 @@ import { useMemo } from 'react';
 import { Link as RouterLink } from 'react-router-dom';
 import { JOB_STATUSES, type Job, type ListJobsQuery } from '@kilocycle/common/types';
 import { Num } from '@/components/ui/num';
+import { usePhoneColumns, type PhoneLayout } from '@/components/ui/phone-columns';
 import { SearchField } from '@/components/ui/search-field';
 import { SelectFilter, type FilterOption } from '@/components/ui/select-filter';
 import { ServerDataGrid } from '@/components/ui/server-data-grid';
@@ -24,6 +25,18 @@ const STATUS_OPTIONS: FilterOption[] = [
 ];
 
 type JobsTableProps = { customers?: readonly FilterOption[] };
+
+// On a phone the job number and its status stay; the rest reads on a second line under the number.
+const PHONE_LAYOUT: PhoneLayout<Job> = {
+  keep: { number: 'fill', status: 140 },
+  secondLine: (job) => [
+    job.instrumentLabel,
+    job.organizationName,
+    `received ${formatDate(job.receivedDate)}`,
+    job.technicianName,
+    `${job.runCount} ${job.runCount === 1 ? 'run' : 'runs'}`,
+  ],
+};
 
 export function JobsTable({ customers = [] }: JobsTableProps) {
   const list = useListSearchParams({ pageSize: 25, sort: '-receivedDate', sortFields: SORT_FIELDS }, FILTER_KEYS);
@@ -67,6 +80,7 @@ export function JobsTable({ customers = [] }: JobsTableProps) {
     ],
     [],
   );
+  const layout = usePhoneColumns(columns, PHONE_LAYOUT);
 
   return (
     <>
@@ -90,7 +104,10 @@ export function JobsTable({ customers = [] }: JobsTableProps) {
           result={jobs}
           list={list}
           emptyText="No jobs match these filters."
-          columns={columns}
+          columns={layout.columns}
+          columnVisibilityModel={layout.columnVisibilityModel}
+          getRowHeight={layout.getRowHeight}
+          sx={layout.sx}
         />
       </Paper>
     </>

@@ -12,6 +12,7 @@ import type { ReactNode } from 'react';
 import type { JobStatus } from '@kilocycle/common/types';
 import { ErrorBoundary } from '@/components/errors/error-boundary';
 import { numberSx } from '@/components/ui/num';
+import { HIDE_ON_PHONE, PhoneSecondLine } from '@/components/ui/phone-columns';
 import { useCurrentUser } from '@/lib/auth';
 import { formatDate } from '@/utils/format';
 import { usePortalInstruments } from '../api/get-portal-instruments';
@@ -38,7 +39,7 @@ function Due({ date }: { date: string | null }) {
   const days = daysUntil(date);
   const note = days < 0 ? `overdue by ${-days} d` : days <= 30 ? `due in ${days} d` : null;
   return (
-    <Box component="span" sx={{ display: 'inline-flex', gap: 1, alignItems: 'center' }}>
+    <Box component="span" sx={{ display: 'inline-flex', flexWrap: 'wrap', gap: 0.5, columnGap: 1, alignItems: 'center' }}>
       <Box component="span" sx={numberSx}>
         {formatDate(date)}
       </Box>
@@ -69,10 +70,10 @@ function InstrumentsPanel() {
         <TableHead>
           <TableRow>
             <TableCell>Instrument</TableCell>
-            <TableCell>Serial</TableCell>
-            <TableCell>Asset tag</TableCell>
-            <TableCell sx={{ textAlign: 'right' }}>Ranges</TableCell>
-            <TableCell sx={{ textAlign: 'right' }}>Interval</TableCell>
+            <TableCell sx={HIDE_ON_PHONE}>Serial</TableCell>
+            <TableCell sx={HIDE_ON_PHONE}>Asset tag</TableCell>
+            <TableCell sx={{ ...HIDE_ON_PHONE, textAlign: 'right' }}>Ranges</TableCell>
+            <TableCell sx={{ ...HIDE_ON_PHONE, textAlign: 'right' }}>Interval</TableCell>
             <TableCell>Next calibration due</TableCell>
           </TableRow>
         </TableHead>
@@ -81,11 +82,14 @@ function InstrumentsPanel() {
             <TableRow key={i.id}>
               <TableCell>
                 {i.make} {i.model}
+                <PhoneSecondLine
+                  parts={[`s/n ${i.serial}`, i.assetTag && `asset ${i.assetTag}`, `${i.ranges.length} ${i.ranges.length === 1 ? 'range' : 'ranges'}`, `every ${i.recallIntervalMonths} months`]}
+                />
               </TableCell>
-              <TableCell sx={numberSx}>{i.serial}</TableCell>
-              <TableCell sx={numberSx}>{i.assetTag ?? '—'}</TableCell>
-              <TableCell sx={{ ...numberSx, textAlign: 'right' }}>{i.ranges.length}</TableCell>
-              <TableCell sx={{ ...numberSx, textAlign: 'right' }}>{i.recallIntervalMonths} months</TableCell>
+              <TableCell sx={{ ...numberSx, ...HIDE_ON_PHONE }}>{i.serial}</TableCell>
+              <TableCell sx={{ ...numberSx, ...HIDE_ON_PHONE }}>{i.assetTag ?? '—'}</TableCell>
+              <TableCell sx={{ ...numberSx, ...HIDE_ON_PHONE, textAlign: 'right' }}>{i.ranges.length}</TableCell>
+              <TableCell sx={{ ...numberSx, ...HIDE_ON_PHONE, textAlign: 'right' }}>{i.recallIntervalMonths} months</TableCell>
               <TableCell>
                 <Due date={i.nextDueDate} />
               </TableCell>
@@ -108,8 +112,8 @@ function JobsPanel() {
         <TableHead>
           <TableRow>
             <TableCell>Job</TableCell>
-            <TableCell>Instrument</TableCell>
-            <TableCell>Received</TableCell>
+            <TableCell sx={HIDE_ON_PHONE}>Instrument</TableCell>
+            <TableCell sx={HIDE_ON_PHONE}>Received</TableCell>
             <TableCell>Where it stands</TableCell>
           </TableRow>
         </TableHead>
@@ -118,9 +122,14 @@ function JobsPanel() {
             const words = JOB_STATUS_WORDS[j.status];
             return (
               <TableRow key={j.id}>
-                <TableCell sx={numberSx}>{j.number}</TableCell>
-                <TableCell>{j.instrumentLabel}</TableCell>
-                <TableCell sx={numberSx}>{formatDate(j.receivedDate)}</TableCell>
+                <TableCell>
+                  <Box component="span" sx={numberSx}>
+                    {j.number}
+                  </Box>
+                  <PhoneSecondLine parts={[j.instrumentLabel, `received ${formatDate(j.receivedDate)}`]} />
+                </TableCell>
+                <TableCell sx={HIDE_ON_PHONE}>{j.instrumentLabel}</TableCell>
+                <TableCell sx={{ ...numberSx, ...HIDE_ON_PHONE }}>{formatDate(j.receivedDate)}</TableCell>
                 <TableCell>
                   <Chip size="small" color={words.color} variant="outlined" label={words.label} sx={{ height: 20 }} />
                 </TableCell>

@@ -13,6 +13,7 @@ import { useId, useMemo, useState, type FormEvent } from 'react';
 import type { FrequencyUnit, Reading } from '@kilocycle/common/types';
 import { FormErrors } from '@/components/ui/form-errors';
 import { Num } from '@/components/ui/num';
+import { usePhoneColumns, type PhoneLayout } from '@/components/ui/phone-columns';
 import { ApiError } from '@/lib/api-client';
 import { toSortParam } from '@/lib/data-grid';
 import { formatDateTime } from '@/utils/format';
@@ -210,6 +211,23 @@ export function ReadingsTable({ runId, unit, resolutionHz = 0.1, showDial = true
       },
     ];
   }, [showDial, showAux, resolutionHz, canExclude]);
+  // On a phone the dial, the frequency and the exclusion stay; the sequence number, time and who entered it read
+  // on a second line under the frequency.
+  const phoneLayout = useMemo<PhoneLayout<Reading>>(
+    () => ({
+      keep: { ...(showDial ? { dial: 72 } : {}), frequency: 'fill', excludedReason: 84 },
+      secondLine: (row) => [
+        `#${row.seq}`,
+        showDial && row.source === 'import' && row.t === 0 ? null : row.t < 60 ? `${formatNumber(row.t, 1)} s` : formatDuration(row.t),
+        showAux && row.aux !== null && `${showAux} ${row.aux}`,
+        SOURCE_LABELS[row.source],
+        row.author && (row.author.kind === 'bench' ? `Bench ${row.author.name}` : row.author.name),
+        row.excluded && `excluded: ${row.excludedReason ?? ''}`,
+      ],
+    }),
+    [showDial, showAux],
+  );
+  const layout = usePhoneColumns(columns, phoneLayout);
 
   return (
     <Paper variant="outlined" sx={{ p: 2 }}>
@@ -226,7 +244,9 @@ export function ReadingsTable({ runId, unit, resolutionHz = 0.1, showDial = true
           aria-label="Readings"
           rows={readings.data?.items ?? []}
           rowCount={readings.data?.total ?? 0}
-          columns={columns}
+          columns={layout.columns}
+          columnVisibilityModel={layout.columnVisibilityModel}
+          getRowHeight={layout.getRowHeight}
           loading={readings.isFetching && !readings.data}
           paginationMode="server"
           sortingMode="server"
@@ -240,7 +260,7 @@ export function ReadingsTable({ runId, unit, resolutionHz = 0.1, showDial = true
           sortingOrder={['desc', 'asc']}
           getRowClassName={({ row }) => (row.excluded ? 'kc-excluded' : '')}
           localeText={{ noRowsLabel: readings.isError ? 'The readings could not be loaded.' : 'No readings yet.' }}
-          sx={{ border: 0, '& .kc-excluded': { bgcolor: 'action.hover' } }}
+          sx={[{ border: 0, '& .kc-excluded': { bgcolor: 'action.hover' } }, layout.sx]}
         />
       </Box>
       <ExcludeDialog runId={runId} reading={excluding} unit={unit} onClose={() => setExcluding(null)} onExcluded={onExcluded} />

@@ -12,6 +12,7 @@ import { dialForFrequencyEstimate, MetrologyError } from '@kilocycle/common/math
 import type { CalibrationRunAnalysis, FrequencyUnit } from '@kilocycle/common/types';
 import { parseFrequency } from '@kilocycle/common/units';
 import { Num, numberSx } from '@/components/ui/num';
+import { HIDE_ON_PHONE, PhoneSecondLine } from '@/components/ui/phone-columns';
 import { formatHz, formatNumber } from '@/utils/frequency';
 
 function dialDecimals(values: readonly number[]) {
@@ -66,7 +67,9 @@ export function CorrectionTable({ analysis }: { analysis: CalibrationRunAnalysis
             <TableHead>
               <TableRow>
                 <TableCell align="right">Dial ({analysis.range.dialUnit})</TableCell>
-                <TableCell align="right">Nominal ({unit})</TableCell>
+                <TableCell align="right" sx={HIDE_ON_PHONE}>
+                  Nominal ({unit})
+                </TableCell>
                 <TableCell align="right">Measured ({unit})</TableCell>
                 <TableCell align="right">Correction (Hz)</TableCell>
               </TableRow>
@@ -76,8 +79,10 @@ export function CorrectionTable({ analysis }: { analysis: CalibrationRunAnalysis
                 <TableRow key={row.dial}>
                   <TableCell align="right">
                     <Num>{formatNumber(row.dial, decimals)}</Num>
+                    {/* On a phone the nominal frequency reads under the dial setting. */}
+                    <PhoneSecondLine parts={[`nominal ${formatNumber(row.nominal / perUnit, unitDecimals)} ${unit}`]} />
                   </TableCell>
-                  <TableCell align="right">
+                  <TableCell align="right" sx={HIDE_ON_PHONE}>
                     <Num>{formatNumber(row.nominal / perUnit, unitDecimals)}</Num>
                   </TableCell>
                   <TableCell align="right">
