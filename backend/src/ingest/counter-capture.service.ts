@@ -27,6 +27,8 @@ const DIAL_MARGIN = 0.1;
 type Sample = { id: number; frequency: number };
 type Waiting = {
   runId: number;
+  /** The run as it was when the dial was typed; every batch that feeds the setting passed the ingest path's own check just before. */
+  ctx: RunWriteContext;
   dial: number;
   startedAt: Date;
   startedBy: number;
@@ -118,6 +120,7 @@ export class CounterCaptureService implements OnModuleDestroy {
     if (this.waiting.has(runId)) throw new ConflictException(`dial ${this.waiting.get(runId)!.dial} is still waiting for the counter; abandon it (Esc) first`);
     const w: Waiting = {
       runId,
+      ctx,
       dial,
       startedAt: new Date(),
       startedBy: user.id,
@@ -168,9 +171,9 @@ export class CounterCaptureService implements OnModuleDestroy {
     const { mean, sd, spreadHz, window } = w.state;
     const samples = w.samples.slice(-window);
     try {
-      const ctx = await this.writer.loadContext(w.runId);
-      const refusal = ctx ? refusalReason(ctx) : `run ${w.runId} no longer exists`;
-      if (!ctx || refusal) throw new CaptureFailure(`${refusal}; nothing was stored for dial ${w.dial}`);
+      // No fresh look at the run here: the batch that settled it was accepted by the ingest path a moment ago,
+      // which checks that the run is open and its job unlocked, and every round trip here delays the page.
+      const ctx = w.ctx;
       const bench = w.bench!;
       const reading = await this.dataSource.transaction(async (manager) => {
         const result = await this.writer.append(ctx, [{ dial: w.dial, frequency: mean! }], 'bridge', bench, { manager, callerAudits: true });
@@ -204,9 +207,10 @@ export class CounterCaptureService implements OnModuleDestroy {
         );
         return stored;
       });
-      // The write path pushes only what it commits itself; this reading was committed here.
-      this.writer.stored$.next({ runId: w.runId, author: bench, readings: [reading] });
+      // The page waits for this event first; then the reading goes out as any stored reading does (the write
+      // path pushes only what it commits itself, and this one was committed here).
       this.end(w, 'settled', null, { ...reading, author: bench }, settledAt);
+      this.writer.stored$.next({ runId: w.runId, author: bench, readings: [reading] });
     } catch (error) {
       if (!(error instanceof CaptureFailure)) this.logger.warn(`run ${w.runId}: storing dial ${w.dial} failed: ${error instanceof Error ? error.message : String(error)}`);
       this.end(w, 'failed', error instanceof CaptureFailure ? error.message : `the settled reading could not be stored just now; nothing was stored for dial ${w.dial}, press Enter to take it again`);

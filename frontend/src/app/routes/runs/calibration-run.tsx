@@ -1,12 +1,13 @@
 import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
-import { useState } from 'react';
-import type { CalibrationRunAnalysis, CounterCapture, Role, Run } from '@kilocycle/common/types';
+import { useCallback, useState } from 'react';
+import type { CalibrationRunAnalysis, Reading, Role, Run } from '@kilocycle/common/types';
 import { useInstrument } from '@/features/instruments/api/get-instrument';
 import { useCaptureState } from '@/features/readings/api/counter-capture';
 import { ReadingEntry } from '@/features/readings/components/reading-entry';
 import { useRefreshReadings } from '@/features/readings/api/get-readings';
 import { ReadingsTable } from '@/features/readings/components/readings-table';
+import { createCaptureFeed } from '@/features/readings/hooks/capture-feed';
 import { useLiveReadings } from '@/features/readings/hooks/use-live-readings';
 import { useRunAnalysis } from '@/features/runs/api/get-run-analysis';
 import { useRefreshRun, useThrottledRefreshRun } from '@/features/runs/api/use-refresh-run';
@@ -28,9 +29,17 @@ export function CalibrationRun({ run, role }: { run: Run; role: Role }) {
   // A run on a bench may also be fed by its bridge (a dial sweep): follow it live like a study.
   const refreshReadings = useRefreshReadings(run.id);
   const throttledRefresh = useThrottledRefreshRun(run.id, 500, refreshReadings);
-  // Counter-assisted capture: the setting waiting for the counter, as pushed live (else as loaded).
-  const [capture, setCapture] = useState<CounterCapture | null>(null);
-  const live = useLiveReadings(run.id, { enabled: run.status === 'open' && run.benchId !== null, onReadings: throttledRefresh, onCapture: (event) => setCapture(event.capture) });
+  // Counter-assisted capture: the setting waiting for the counter as pushed live, for the entry form alone.
+  const [captureFeed] = useState(createCaptureFeed);
+  // Counter readings (no dial) feed a waiting setting, not the fit: only readings at a setting refresh the page, so the
+  // stream of counter readings does not keep the browser busy while the setting settles.
+  const onReadings = useCallback(
+    (readings: Reading[]) => {
+      if (readings.some((r) => r.dial !== null)) throttledRefresh();
+    },
+    [throttledRefresh],
+  );
+  const live = useLiveReadings(run.id, { enabled: run.status === 'open' && run.benchId !== null, onReadings, onCapture: captureFeed.push });
   const canWrite = mayWriteRun(role, run.kind);
   const captureState = useCaptureState({ runId: run.id, enabled: canWrite && run.benchId !== null && run.status === 'open' });
   const bridgeLive = live.bridge ? live.bridge.connected : run.bridge.connected;
@@ -55,8 +64,9 @@ export function CalibrationRun({ run, role }: { run: Run; role: Role }) {
           <SafetyCaution />
         </Box>
       )}
+      {/* Every track is minmax(0, …): a wide table inside scrolls in its own box instead of widening the page on a phone. */}
       <Box sx={{ display: 'grid', gridTemplateColumns: { xs: 'minmax(0, 1fr)', lg: 'minmax(0, 5fr) minmax(0, 7fr)' }, gap: 2, alignItems: 'start' }}>
-        <Box sx={{ display: 'grid', gap: 2, minWidth: 0 }}>
+        <Box sx={{ display: 'grid', gridTemplateColumns: 'minmax(0, 1fr)', gap: 2, minWidth: 0 }}>
           {canWrite && range && (
             <ReadingEntry
               runId={run.id}
@@ -70,7 +80,8 @@ export function CalibrationRun({ run, role }: { run: Run; role: Role }) {
                   ? undefined
                   : {
                       bridgeLive,
-                      capture: capture ?? captureState.data?.capture ?? null,
+                      capture: captureState.data?.capture ?? null,
+                      feed: captureFeed,
                       nextMark: captureState.data?.nextMark ?? null,
                       onSettled: () => {
                         void refresh();
@@ -83,12 +94,12 @@ export function CalibrationRun({ run, role }: { run: Run; role: Role }) {
           {data ? <FitSummary analysis={data} /> : <Alert severity="info">{empty ? `${empty} The fit appears with the first readings.` : (problem ?? 'Loading the analysis…')}</Alert>}
           {data && <CorrectionTable analysis={data} />}
         </Box>
-        <Box sx={{ display: 'grid', gap: 2, minWidth: 0 }}>
+        <Box sx={{ display: 'grid', gridTemplateColumns: 'minmax(0, 1fr)', gap: 2, minWidth: 0 }}>
           {data && <ErrorChart analysis={data} skipAnimation={skipChartAnimation} />}
         </Box>
       </Box>
       {data && run.kind === 'as_found' && (
-        <Box sx={{ display: 'grid', gridTemplateColumns: { xs: '1fr', md: '1fr 1fr' }, gap: 2, alignItems: 'start', mt: 2 }}>
+        <Box sx={{ display: 'grid', gridTemplateColumns: { xs: 'minmax(0, 1fr)', md: 'minmax(0, 1fr) minmax(0, 1fr)' }, gap: 2, alignItems: 'start', mt: 2 }}>
           <AlignmentPanel analysis={data} />
           <PaddingCalculator unit={unit} />
         </Box>

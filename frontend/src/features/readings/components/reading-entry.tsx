@@ -14,6 +14,7 @@ import { ApiError } from '@/lib/api-client';
 import { formatHz, formatNumber } from '@/utils/frequency';
 import { useAppendReadings } from '../api/append-readings';
 import { useAbandonCapture, useStartCapture } from '../api/counter-capture';
+import { useCaptureFeed, type CaptureFeed } from '../hooks/capture-feed';
 
 type Field = 'dial' | 'frequency';
 type Problem = { field: Field | null; message: string };
@@ -33,8 +34,10 @@ type ReadingEntryProps = {
 
 export type CounterAssist = {
   bridgeLive: boolean;
-  /** The latest state of the run's setting waiting for the counter (from the live feed, or as loaded). */
+  /** The run's setting waiting for the counter as loaded with the page (null when none). */
   capture: CounterCapture | null;
+  /** Its changes as the live feed pushes them (win over `capture`). */
+  feed?: CaptureFeed;
   /** The procedure's next dial mark, proposed in the dial field. */
   nextMark: number | null;
   /** Called when a setting settled (the page refreshes its fit and the next mark). */
@@ -111,7 +114,8 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
   const counterMode = Boolean(assist) && fromCounter;
   const startCapture = useStartCapture();
   const abandonCapture = useAbandonCapture();
-  const capture = assist?.capture ?? null;
+  const liveCapture = useCaptureFeed(assist?.feed);
+  const capture = liveCapture?.capture ?? assist?.capture ?? null;
   const waiting = capture?.status === 'waiting' ? capture : null;
   const seenCapture = useRef<CounterCapture | null>(null);
   // A setting's end arrives on the live feed: settled (the mean is stored) or ended with the server's reason.
@@ -126,7 +130,8 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
       setProblem(null);
       setDial('');
       dialRef.current?.focus();
-      assist?.onSettled?.(capture);
+      // After the saved line is on the screen: the page's refresh (fit, charts, next mark) must not hold it up.
+      setTimeout(() => assist?.onSettled?.(capture), 0);
     } else if (capture.status === 'timed_out' || capture.status === 'failed') {
       setProblem({ field: 'dial', message: `Not taken — ${capture.message ?? 'the setting ended'}` });
     } else if (capture.status === 'abandoned') {
@@ -232,7 +237,10 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
       { runId, body: { dial: dialValue } },
       {
         onError: (error) => {
-          setProblem({ field: 'dial', message: `Not taken — ${error instanceof ApiError ? error.messages.join('; ') : 'the server could not be reached; press Enter to try again.'}` });
+          const reason = error instanceof ApiError ? error.messages.join('; ') : 'the server could not be reached; press Enter to try again.';
+          // No bridge live: the person can still type the counter reading, with the switch off.
+          const hint = error instanceof ApiError && error.status === 409 && /no bridge/.test(reason) ? ' Turn off “Counter fills the reading” to type the counter yourself.' : '';
+          setProblem({ field: 'dial', message: `Not taken — ${reason}.${hint}`.replace('..', '.') });
           dialRef.current?.focus();
         },
       },
@@ -383,8 +391,8 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
       <Box aria-live="polite" sx={{ minHeight: 24, mt: 0.5 }}>
         {waiting && counterMode ? (
           <Box sx={{ display: 'flex', gap: 1, alignItems: 'center', flexWrap: 'wrap' }}>
-            <Typography variant="body2" data-testid="capture-waiting" sx={{ flex: '1 1 16rem' }}>
-              <Num>{waitingText(waiting)}</Num>
+            <Typography variant="body2" data-testid="capture-waiting" sx={{ flex: '1 1 16rem', minWidth: 0, overflowWrap: 'anywhere', fontVariantNumeric: 'tabular-nums' }}>
+              {waitingText(waiting)}
             </Typography>
             <Button size="small" color="inherit" onClick={abandon} disabled={abandonCapture.isPending}>
               Abandon (Esc)
@@ -423,8 +431,15 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
           </Alert>
         ) : (
           last && (
-            <Typography variant="body2" color="success.main" data-testid="last-saved" data-settled-at={capture?.status === 'settled' ? (capture.settledAt ?? undefined) : undefined}>
-              <Num>{last}</Num>
+            <Typography
+              variant="body2"
+              color="success.main"
+              data-testid="last-saved"
+              data-settled-at={capture?.status === 'settled' ? (capture.settledAt ?? undefined) : undefined}
+              data-sent-at={capture?.status === 'settled' ? liveCapture?.sentAt : undefined}
+              sx={{ overflowWrap: 'anywhere' }}
+            >
+              <Num sx={{ whiteSpace: 'normal' }}>{last}</Num>
             </Typography>
           )
         )}
