@@ -202,7 +202,7 @@ function Table({ shape, embedded, verifyPath, jobPath, height }: { shape: Shape 
         // Embedded, the grid is as tall as its rows (a customer has a handful of certificates; two lines each on a
         // phone); on its own page it fills the screen.
         sx={{
-          height: height ?? (embedded ? Math.min(Math.max(certificates.data?.items.length ?? 1, 1), 10) * (layout.phone ? 150 : 36) + 100 : 'calc(100vh - 240px)'),
+          height: height ?? (embedded ? Math.min(Math.max(certificates.data?.items.length ?? 1, 1), 10) * (layout.phone ? 200 : 36) + 100 : 'calc(100vh - 240px)'),
           minHeight: embedded ? 0 : 300,
         }}
       >
