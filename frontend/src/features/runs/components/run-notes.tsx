@@ -46,7 +46,9 @@ export function RunNotes({ run }: { run: Run }) {
           variant="body2"
           component="div"
           data-testid="run-notes-text"
+          // A long list of skipped rows scrolls: the box takes the focus so the keyboard scrolls it too.
           tabIndex={0}
+          role="region"
           aria-label="Run notes"
           sx={{ whiteSpace: 'pre-wrap', overflowWrap: 'anywhere', maxHeight: 220, overflow: 'auto' }}
         >
