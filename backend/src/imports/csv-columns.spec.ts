@@ -69,8 +69,8 @@ describe('convertRow()', () => {
     expect(convertRow(['2025-02-28T08:00:00Z', '7e6', '', ''], columns, run)).toEqual({ column: 'time', reason: expect.stringContaining('before the run started') });
   });
 
-  test('a calibration run may leave the time out', () => {
-    expect(convertRow(['', '1735 kHz', '', '1735'], columns, { ...run, kind: 'as_found' })).toEqual({ input: { frequency: 1_735_000, dial: 1735 } });
+  test('a calibration run may leave the time out, and the reading then has t = 0, not the time since the run began', () => {
+    expect(convertRow(['', '1735 kHz', '', '1735'], columns, { ...run, kind: 'as_found' })).toEqual({ input: { frequency: 1_735_000, dial: 1735, t: 0 } });
   });
 });
 
