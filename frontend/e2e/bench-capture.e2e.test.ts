@@ -2,7 +2,7 @@ import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Instrument, Job, ListResponse } from '@kilocycle/common/types';
 import { keepScreenshot, launchBrowser, onNewPage, signIn } from './support/browser';
-import { apiGet, apiRequest, sessionToken } from './support/lab';
+import { apiGet, apiRequest, createTestInstrument, sessionToken } from './support/lab';
 
 // Journey 1 (PRODUCT.md §4): a technician opens a job, starts an as-found run on range 1, types ten dial/counter
 // pairs with the keyboard alone, watches the chart and the fit follow, excludes one reading, reloads and finds
@@ -65,25 +65,7 @@ async function journey(page: Page) {
     const instrument =
       free.find((i) => i.serial === 'N-0952') ??
       free[0] ??
-      (await apiRequest<Instrument>(token, 'POST', '/instruments', {
-        organizationId: instruments.items[0]!.organizationId,
-        make: 'Harwick Radio',
-        model: 'VFO-3 variable frequency oscillator',
-        serial: `E2E-${Date.now()}`,
-        ranges: [
-          {
-            label: '1.75–2.0 MHz',
-            dialUnit: 'kHz',
-            dialLaw: { kind: 'direct', unit: 'kHz' },
-            dialMin: 1750,
-            dialMax: 2000,
-            freqMinHz: 1_750_000,
-            freqMaxHz: 2_000_000,
-            tolerance: { kind: 'percent', percent: 0.25 },
-            multipliers: [1],
-          },
-        ],
-      }));
+      (await createTestInstrument(token, { organizationId: instruments.items[0]!.organizationId, make: 'Harwick Radio', model: 'VFO-3 variable frequency oscillator', serial: `E2E-${Date.now()}`, label: '1.75–2.0 MHz', tolerancePercent: 0.25 }));
     const range = instrument.ranges[0]!;
 
     // 1. A new job through the New job dialog.

@@ -1,50 +1,18 @@
-import { spawn, type ChildProcess } from 'node:child_process';
-import { existsSync, mkdtempSync } from 'node:fs';
+import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
+import { join } from 'node:path';
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Bench, BenchTokenResponse, Instrument, ListResponse, Run } from '@kilocycle/common/types';
 import { BASE_URL, DEMO_PASSWORD, keepScreenshot, launchBrowser, newPage, signIn } from './support/browser';
+import { assertBridgeBuilt, BRIDGE, COUNTER_SIM, simulatorPort, startNode, stopChild, type Child } from './support/bench-processes';
 import { apiGet, apiLogin, apiRequest } from './support/lab';
 
 // Journey 6 (PRODUCT.md §4): with the bridge live on the bench's counter (the SCPI simulator here), the technician
 // types only the dial and presses Enter; the settled counter reading fills in, with its n and SD.
 
-const ROOT = resolve(process.cwd(), '..');
-// Run directly, as in the live warm-up test: `bin/kilocycle test browser` has just built them.
-const BRIDGE = join(ROOT, 'backend', 'dist', 'bridge', 'bridge-cli.js');
-const COUNTER_SIM = join(ROOT, 'backend', 'dist', 'bridge', 'counter-sim-cli.js');
-/** The issue's limit: the page shows the stored setting within 300 ms of the settle condition being met. */
+/** The target: the page shows the stored setting within 300 ms of the settle condition being met. */
 const SETTLE_TO_SHOWN_LIMIT_MS = 300;
-
-type Child = { process: ChildProcess; output: () => string };
-
-function start(file: string, args: string[]): Child {
-  const child = spawn(process.execPath, [file, ...args], { env: { ...process.env, NODE_OPTIONS: '' }, stdio: ['ignore', 'pipe', 'pipe'] });
-  let output = '';
-  child.stdout!.setEncoding('utf8').on('data', (d: string) => (output += d));
-  child.stderr!.setEncoding('utf8').on('data', (d: string) => (output += d));
-  return { process: child, output: () => output };
-}
-
-async function stop(child: Child | null, signal: NodeJS.Signals = 'SIGTERM') {
-  if (!child || child.process.exitCode !== null || child.process.signalCode !== null) return;
-  const exited = new Promise((done) => child.process.once('exit', done));
-  child.process.kill(signal);
-  await Promise.race([exited, new Promise((done) => setTimeout(done, 12_000))]);
-  if (child.process.exitCode === null && child.process.signalCode === null) child.process.kill('SIGKILL');
-}
-
-async function until<T>(what: string, check: () => T | null | undefined, timeoutMs = 15_000): Promise<T> {
-  const deadline = Date.now() + timeoutMs;
-  for (;;) {
-    const value = check();
-    if (value !== null && value !== undefined) return value;
-    if (Date.now() > deadline) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((done) => setTimeout(done, 100));
-  }
-}
 
 describe('counter-assisted capture: journey 6 (browser)', () => {
   let browser: Browser;
@@ -55,15 +23,14 @@ describe('counter-assisted capture: journey 6 (browser)', () => {
     browser = await launchBrowser();
   });
   afterAll(async () => {
-    await stop(bridge, 'SIGINT');
-    await stop(counter);
+    await stopChild(bridge, 'SIGINT');
+    await stopChild(counter);
     await browser?.close();
   });
 
   it('should take a typed dial from the settled counter, abandon one on Esc, and refuse once the bridge stops', async () => {
     // A missing build fails the test: the journey cannot be shown without the bridge and the simulator.
-    const missing = [BRIDGE, COUNTER_SIM].filter((file) => !existsSync(file));
-    if (missing.length > 0) throw new Error(`the bridge and counter simulator are not built (missing ${missing.join(', ')}): run \`bin/kilocycle test browser\`, which builds them`);
+    assertBridgeBuilt();
 
     // Set-up through the API: a bench of its own (so no other test's bridge is cut by a new token), and a fresh as-found
     // run on it, on the range of an open demo job.
@@ -92,10 +59,10 @@ describe('counter-assisted capture: journey 6 (browser)', () => {
       // mid-range; the simulator's own dial error stays); the bridge polls it four times a second.
       const perDial = range.dialUnit === 'kHz' ? 1e3 : range.dialUnit === 'MHz' ? 1e6 : null;
       const mid = Math.min(range.freqMaxHz, Math.max(range.freqMinHz, perDial ? dials[0]! * perDial : (range.freqMinHz + range.freqMaxHz) / 2));
-      counter = start(COUNTER_SIM, ['--port', '0', '--profile', 'stable', '--span', `${range.freqMinHz}-${range.freqMaxHz}`, '--frequency', String(mid), '--seed', '11']);
-      const port = await until('the counter simulator to listen', () => /answering SCPI on [\d.]+:(\d+)/.exec(counter!.output())?.[1]);
+      counter = startNode(COUNTER_SIM, ['--port', '0', '--profile', 'stable', '--span', `${range.freqMinHz}-${range.freqMaxHz}`, '--frequency', String(mid), '--seed', '11']);
+      const port = await simulatorPort(counter);
       const spool = join(mkdtempSync(join(tmpdir(), 'kc-spool-')), 'run.jsonl');
-      bridge = start(BRIDGE, ['--server', BASE_URL, '--token', token, '--run', String(run.id), '--source', `scpi://127.0.0.1:${port}`, '--interval', '250', '--spool', spool, '--status-every', '1000']);
+      bridge = startNode(BRIDGE, ['--server', BASE_URL, '--token', token, '--run', String(run.id), '--source', `scpi://127.0.0.1:${port}`, '--interval', '250', '--spool', spool, '--status-every', '1000']);
 
       // Live only once the bridge is attached; the counter-assisted switch turns on with it.
       await page.getByTestId('bridge-chip').filter({ hasText: 'Live' }).waitFor({ timeout: 20_000 });
@@ -150,7 +117,7 @@ describe('counter-assisted capture: journey 6 (browser)', () => {
       expect(after.items.filter((r) => r.dial === dials[1])).toHaveLength(0);
 
       // The bridge stops: the chip says since when it is offline, and the form refuses with the server's reason.
-      await stop(bridge, 'SIGINT');
+      await stopChild(bridge, 'SIGINT');
       bridge = null;
       await page.getByTestId('bridge-chip').filter({ hasText: /Bridge offline since \d\d:\d\d:\d\d/ }).waitFor({ timeout: 10_000 });
       await dial.fill(String(dials[2]));

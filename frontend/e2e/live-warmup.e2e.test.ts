@@ -1,64 +1,20 @@
-import { spawn, type ChildProcess } from 'node:child_process';
-import { existsSync, mkdtempSync } from 'node:fs';
+import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
+import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { coverageFactor } from '@kilocycle/common/math';
 import type { Bench, BenchTokenResponse, ListResponse, Run, RunAnalysis, WarmupRunAnalysis } from '@kilocycle/common/types';
 import { BASE_URL, DEMO_PASSWORD, keepScreenshot, launchBrowser, newPage, signIn } from './support/browser';
+import { OSCILLATOR_MODEL, assertBridgeBuilt, BRIDGE, COUNTER_SIM, simulatorPort, startNode, stopChild, type Child } from './support/bench-processes';
 import { apiGet, apiLogin, apiRequest } from './support/lab';
 
 // Journey 2 (PRODUCT.md §4): the bridge reads a (simulated) counter over SCPI/TCP and streams a warm-up into a run;
 // the run's page shows the points and the fitted τ as they arrive, without a reload.
 
-const ROOT = resolve(process.cwd(), '..');
-// bin/kilocycle bridge and counter-sim exec exactly these files after making sure they are built. The test runs them
-// directly: `bin/kilocycle test browser` has just built them, and a set-up step that may rebuild under the running
-// server has no place in the middle of a test.
-const BRIDGE = join(ROOT, 'backend', 'dist', 'bridge', 'bridge-cli.js');
-const COUNTER_SIM = join(ROOT, 'backend', 'dist', 'bridge', 'counter-sim-cli.js');
-// The simulator's own model: its warm-up time constant, in simulated seconds.
-const OSCILLATOR_MODEL = join(ROOT, 'backend', 'dist', 'bridge', 'oscillator-model.js');
 /** Simulated seconds per real second: τ = 420 s simulated becomes 7 s of real time, so two τ take 14 s. */
 const SPEED = 60;
-
-/** A missing build is a failure of this test, never a reason to skip it: the journey cannot be shown without the bridge. */
-function assertBuilt() {
-  const missing = [BRIDGE, COUNTER_SIM, OSCILLATOR_MODEL].filter((file) => !existsSync(file));
-  if (missing.length > 0) {
-    throw new Error(`the bridge and counter simulator are not built (missing ${missing.join(', ')}): run \`bin/kilocycle test browser\`, which builds them first, or \`npm run build\``);
-  }
-}
-
-type Child = { process: ChildProcess; output: () => string };
-
-function start(file: string, args: string[]): Child {
-  const child = spawn(process.execPath, [file, ...args], { env: { ...process.env, NODE_OPTIONS: '' }, stdio: ['ignore', 'pipe', 'pipe'] });
-  let output = '';
-  child.stdout!.setEncoding('utf8').on('data', (d: string) => (output += d));
-  child.stderr!.setEncoding('utf8').on('data', (d: string) => (output += d));
-  return { process: child, output: () => output };
-}
-
-async function stop(child: Child | null, signal: NodeJS.Signals = 'SIGTERM') {
-  if (!child || child.process.exitCode !== null || child.process.signalCode !== null) return;
-  const exited = new Promise((done) => child.process.once('exit', done));
-  child.process.kill(signal);
-  await Promise.race([exited, new Promise((done) => setTimeout(done, 12_000))]);
-  if (child.process.exitCode === null && child.process.signalCode === null) child.process.kill('SIGKILL');
-}
-
-async function until<T>(what: string, check: () => T | null | undefined, timeoutMs = 15_000): Promise<T> {
-  const deadline = Date.now() + timeoutMs;
-  for (;;) {
-    const value = check();
-    if (value !== null && value !== undefined) return value;
-    if (Date.now() > deadline) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((done) => setTimeout(done, 100));
-  }
-}
 
 /** The count in "1 234 readings" (digit-grouped with spaces). */
 function countIn(text: string): number {
@@ -78,13 +34,13 @@ describe('live warm-up: journey 2 (browser)', () => {
     browser = await launchBrowser();
   });
   afterAll(async () => {
-    await stop(bridge, 'SIGINT');
-    await stop(counter);
+    await stopChild(bridge, 'SIGINT');
+    await stopChild(counter);
     await browser?.close();
   });
 
   it('should show the bridge’s readings and a fitted τ that matches the simulator’s own τ within the fit’s interval', async () => {
-    assertBuilt();
+    assertBridgeBuilt([OSCILLATOR_MODEL]);
     const { WARMUP_TAU_S } = (await import(pathToFileURL(OSCILLATOR_MODEL).href)) as { WARMUP_TAU_S: number };
     expect(WARMUP_TAU_S).toBeGreaterThan(0);
     const expectedTau = WARMUP_TAU_S / SPEED; // the bridge stamps readings in real seconds
@@ -118,10 +74,10 @@ describe('live warm-up: journey 2 (browser)', () => {
       expect(await page.getByTestId('bridge-chip').count()).toBe(0);
 
       // The simulated counter on a free port, started just before the bridge so the record begins early in the warm-up.
-      counter = start(COUNTER_SIM, ['--port', '0', '--profile', 'warmup', '--speed', String(SPEED), '--seed', '7']);
-      const port = await until('the counter simulator to listen', () => /answering SCPI on [\d.]+:(\d+)/.exec(counter!.output())?.[1]);
+      counter = startNode(COUNTER_SIM, ['--port', '0', '--profile', 'warmup', '--speed', String(SPEED), '--seed', '7']);
+      const port = await simulatorPort(counter);
       const spool = join(mkdtempSync(join(tmpdir(), 'kc-spool-')), 'run.jsonl');
-      bridge = start(BRIDGE, [
+      bridge = startNode(BRIDGE, [
         '--server', BASE_URL, '--token', token, '--run', String(run.id), '--source', `scpi://127.0.0.1:${port}`,
         '--interval', '150', '--time-zero', 'now', '--spool', spool, '--status-every', '1000',
       ]);
@@ -168,7 +124,7 @@ describe('live warm-up: journey 2 (browser)', () => {
       await keepScreenshot(page, 'live-warmup-390');
 
       // Once the bridge stops, the chip says so instead of staying Live.
-      await stop(bridge, 'SIGINT');
+      await stopChild(bridge, 'SIGINT');
       await page.getByTestId('bridge-chip').filter({ hasText: /Bridge offline since \d\d:\d\d:\d\d/ }).waitFor({ timeout: 20_000 });
       expect(await page.getByTestId('bridge-chip').innerText()).not.toContain('Live');
     } catch (error) {

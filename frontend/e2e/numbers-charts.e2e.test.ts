@@ -1,8 +1,8 @@
 import type { Browser, Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Bench, Instrument, Job, ListResponse, Organization, Run } from '@kilocycle/common/types';
+import type { Bench, ListResponse, Organization, Run } from '@kilocycle/common/types';
 import { BASE_URL, DEMO_PASSWORD, keepScreenshot, launchBrowser, signIn } from './support/browser';
-import { apiGet, apiLogin, apiRequest } from './support/lab';
+import { apiGet, apiLogin, apiRequest, createTestInstrument, openJob } from './support/lab';
 import { findDemoRecords, waitForPageSettled, type DemoRecords } from './support/main-pages';
 import { patientPage } from './support/patient-page';
 
@@ -71,27 +71,9 @@ describe('numbers and charts (browser)', () => {
     const engineer = await apiLogin('engineer@kilocycle.test', DEMO_PASSWORD);
     const orgs = await apiGet<ListResponse<Organization>>(tech, '/organizations?pageSize=100');
     const customer = orgs.items.find((o) => o.name === 'Northgate Radio Club') ?? orgs.items[0]!;
-    const instrument = await apiRequest<Instrument>(tech, 'POST', '/instruments', {
-      organizationId: customer.id,
-      make: 'Harwick Radio',
-      model: 'SG-4 signal generator',
-      serial: `E2E-N-${Date.now()}`,
-      ranges: [
-        {
-          label: 'A  1750–2000 kHz',
-          dialUnit: 'kHz',
-          dialLaw: { kind: 'direct', unit: 'kHz' },
-          dialMin: 1750,
-          dialMax: 2000,
-          freqMinHz: 1_750_000,
-          freqMaxHz: 2_000_000,
-          tolerance: { kind: 'percent', percent: 0.5 },
-          multipliers: [1],
-        },
-      ],
-    });
+    const instrument = await createTestInstrument(tech, { organizationId: customer.id, make: 'Harwick Radio', model: 'SG-4 signal generator', serial: `E2E-N-${Date.now()}` });
     const rangeId = instrument.ranges[0]!.id;
-    const job = await apiRequest<Job>(tech, 'POST', '/jobs', { instrumentId: instrument.id, receivedDate: new Date().toISOString().slice(0, 10) });
+    const job = await openJob(tech, instrument.id);
 
     // A calibration file without a time column, with one reading 9.4 kHz off (an outlier that widens the error axis).
     const benches = await apiGet<ListResponse<Bench>>(tech, '/benches?active=true&sort=name&pageSize=200');

@@ -1,9 +1,9 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Instrument, Job, ListResponse, ReferenceStandard, Run } from '@kilocycle/common/types';
+import type { Job, ListResponse, ReferenceStandard, Run } from '@kilocycle/common/types';
 import { expectNoSeriousViolations } from './support/axe';
 import { keepScreenshot, launchBrowser, onNewPage, signIn } from './support/browser';
-import { apiGet, apiRequest, sessionToken } from './support/lab';
+import { apiGet, apiRequest, createTestInstrument, openJob, sessionToken } from './support/lab';
 import { DEMO_ACCOUNTS, findDemoRecords, waitForPageSettled, type DemoRecords } from './support/main-pages';
 
 // Issue #14, item 4: at 390 × 844 (a phone) the capture page, the client's portal and certificate list and the
@@ -184,26 +184,8 @@ async function openCaptureRun(token: string): Promise<Run> {
   const organisations = await apiGet<ListResponse<{ id: number; kind: string }>>(token, '/organizations?pageSize=50');
   // The lab's own instrument: no customer sees it in their portal, whatever other browser tests look for there.
   const lab = organisations.items.find((o) => o.kind === 'lab') ?? organisations.items[0]!;
-  const instrument = await apiRequest<Instrument>(token, 'POST', '/instruments', {
-    organizationId: lab.id,
-    make: 'Wrenfield',
-    model: 'LO-7 test oscillator',
-    serial: `PHONE-${Date.now()}`,
-    ranges: [
-      {
-        label: 'B 1750–2000 kHz',
-        dialUnit: 'kHz',
-        dialLaw: { kind: 'direct', unit: 'kHz' },
-        dialMin: 1750,
-        dialMax: 2000,
-        freqMinHz: 1_750_000,
-        freqMaxHz: 2_000_000,
-        tolerance: { kind: 'percent', percent: 0.5 },
-        multipliers: [1],
-      },
-    ],
-  });
-  const job = await apiRequest<Job>(token, 'POST', '/jobs', { instrumentId: instrument.id, receivedDate: new Date().toISOString().slice(0, 10) });
+  const instrument = await createTestInstrument(token, { organizationId: lab.id, make: 'Wrenfield', model: 'LO-7 test oscillator', serial: `PHONE-${Date.now()}`, label: 'B 1750–2000 kHz' });
+  const job = await openJob(token, instrument.id);
   const standards = await apiGet<ListResponse<ReferenceStandard>>(token, '/standards');
   const standard = standards.items.find((s) => s.active && !s.overdue);
   expect(standard, 'the demo holds an in-date reference standard').toBeDefined();

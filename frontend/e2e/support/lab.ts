@@ -1,4 +1,5 @@
 import type { Page } from 'playwright-core';
+import type { Instrument, Job } from '@kilocycle/common/types';
 import { BASE_URL } from './browser';
 
 /** The signed-in page's session token, to set up or check data through the same API the page uses. */
@@ -26,3 +27,35 @@ export async function apiLogin(email: string, password: string): Promise<string>
   const answer = await apiRequest<{ accessToken: string }>('', 'POST', '/auth/login', { email, password });
   return answer.accessToken;
 }
+
+type TestInstrument = { organizationId: number; make: string; model: string; serial: string; label?: string; tolerancePercent?: number };
+
+/**
+ * An invented instrument with one direct-reading 1750–2000 kHz range, for a test's own records (the browser tests
+ * share the demo ones, so a test that writes readings or changes state works on its own).
+ */
+export function createTestInstrument(token: string, { organizationId, make, model, serial, label = 'A  1750–2000 kHz', tolerancePercent = 0.5 }: TestInstrument) {
+  return apiRequest<Instrument>(token, 'POST', '/instruments', {
+    organizationId,
+    make,
+    model,
+    serial,
+    ranges: [
+      {
+        label,
+        dialUnit: 'kHz',
+        dialLaw: { kind: 'direct', unit: 'kHz' },
+        dialMin: 1750,
+        dialMax: 2000,
+        freqMinHz: 1_750_000,
+        freqMaxHz: 2_000_000,
+        tolerance: { kind: 'percent', percent: tolerancePercent },
+        multipliers: [1],
+      },
+    ],
+  });
+}
+
+/** A job for the instrument, received today. */
+export const openJob = (token: string, instrumentId: number) =>
+  apiRequest<Job>(token, 'POST', '/jobs', { instrumentId, receivedDate: new Date().toISOString().slice(0, 10) });
