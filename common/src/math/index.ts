@@ -4,6 +4,7 @@ export type { FrequencyUnit } from '../units/frequency-unit.js';
 
 // Calibration error per range (§5.1)
 export { fitLine, type LineFit } from './fit-line.js';
+export { lineAtMidSpan } from './line-at-mid-span.js';
 export { dialToNominal, TABLE_EXTRAPOLATION_FRACTION, type DialLaw } from './dial-law.js';
 export { toleranceHz, type Tolerance } from './tolerance.js';
 export {

@@ -2,6 +2,7 @@ import Box from '@mui/material/Box';
 import Paper from '@mui/material/Paper';
 import Typography from '@mui/material/Typography';
 import type { ReactNode } from 'react';
+import { lineAtMidSpan } from '@kilocycle/common/math';
 import type { CalibrationRunAnalysis } from '@kilocycle/common/types';
 import { Num } from '@/components/ui/num';
 import { formatHz, formatNumber, formatSignedHz } from '@/utils/frequency';
@@ -25,18 +26,12 @@ function Figure({ label, value, detail }: { label: string; value: ReactNode; det
   );
 }
 
-function lineAtMidSpan(fit: { offsetHz: number; slope: number }, points: ReadonlyArray<{ nominal: number }>) {
-  const nominals = points.map((p) => p.nominal);
-  const nominal = (Math.min(...nominals) + Math.max(...nominals)) / 2;
-  return { nominal, errorHz: fit.offsetHz + fit.slope * nominal };
-}
-
 /** Error at mid-span, intercept, scale error, residual spread, R² and tracking error of the run, as the server computed them. */
 export function FitSummary({ analysis }: { analysis: CalibrationRunAnalysis }) {
   const { fit, tracking, outliers, points } = analysis;
   // The line's value at the centre of the measured span: the error a person would expect there, unlike the
   // intercept, which lies at 0 Hz, far outside any range, and can have the opposite sign of every error measured.
-  const midSpan = fit && points.length > 0 ? lineAtMidSpan(fit, points) : null;
+  const midSpan = fit && points.length > 0 ? lineAtMidSpan(fit, points.map((p) => p.nominal)) : null;
   return (
     <Paper variant="outlined" sx={{ p: 2 }} data-testid="fit-summary">
       <Typography variant="h3" component="h2" sx={{ mb: 1 }}>
@@ -50,7 +45,7 @@ export function FitSummary({ analysis }: { analysis: CalibrationRunAnalysis }) {
         />
         {fit && midSpan ? (
           <>
-            <Figure label="Error at mid-span" value={formatSignedHz(midSpan.errorHz)} detail={`the line at ${formatHz(midSpan.nominal)}, mid-way across the settings`} />
+            <Figure label="Error at mid-span" value={formatSignedHz(midSpan.errorHz)} detail={`the line at ${formatHz(midSpan.nominalHz)}, mid-way across the settings`} />
             <Figure
               label="Intercept at 0 Hz"
               value={formatSignedHz(fit.offsetHz)}
