@@ -167,6 +167,18 @@ describe('phone layout at 390 × 844 (browser)', () => {
       await keepScreenshot(page, 'phone-jobs-1440');
     });
   });
+
+  it('should show the lead a job’s review page (charts, fits and results) without sideways scrolling', async () => {
+    await onNewPage(browser, 'phone-review', async (page) => {
+      await signInOnPhone(page, DEMO_ACCOUNTS.lead);
+      await page.goto(`/reviews/${records.reviewJobId}`);
+      await waitForPageSettled(page);
+      await page.getByRole('table', { name: /^Results, range / }).first().waitFor();
+      // Wide result tables may scroll inside their own box; the page itself (charts and fit summaries) may not.
+      await expectNoSidewaysScroll(page, 'review page', { lists: false });
+      await keepScreenshot(page, 'phone-review-390');
+    });
+  });
 });
 
 async function expectCertificateRowInView(page: Page, grid: ReturnType<Page['locator']>, number: string): Promise<void> {

@@ -1,8 +1,12 @@
 import Box from '@mui/material/Box';
 import type { GridColDef, GridValidRowModel } from '@mui/x-data-grid';
 
-// The usual visually-hidden pattern: out of sight, still read by screen readers.
+// The usual visually-hidden pattern: out of sight, still read by screen readers. Pinned to its containing block's
+// corner: left where it falls, inside a table that scrolls in its own box it would escape that box (the box is not
+// its containing block) and make the whole page scroll sideways on a phone.
 const VISUALLY_HIDDEN = {
+  left: 0,
+  top: 0,
   border: 0,
   clip: 'rect(0 0 0 0)',
   height: '1px',

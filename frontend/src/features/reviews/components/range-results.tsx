@@ -111,7 +111,7 @@ function FitSummary({ title, summary }: { title: string; summary: RunFitSummary 
       {fit ? (
         <Box
           component="dl"
-          sx={{ display: 'grid', gridTemplateColumns: 'max-content 1fr', columnGap: 2, rowGap: 0.25, m: 0, '& dt': { color: 'text.secondary' }, '& dd': { m: 0, ...numberSx } }}
+          sx={{ display: 'grid', gridTemplateColumns: { xs: 'minmax(0, 1fr)', sm: 'max-content minmax(0, 1fr)' }, columnGap: 2, rowGap: 0.25, m: 0, '& dt': { color: 'text.secondary' }, '& dd': { m: 0, ...numberSx } }}
         >
           <dt>Intercept at 0 Hz</dt>
           <dd>
@@ -208,7 +208,7 @@ export function RangeResults({ range }: RangeResultsProps) {
           {problem}
         </Alert>
       ))}
-      <Box sx={{ display: 'grid', gridTemplateColumns: { xs: '1fr', lg: '3fr 2fr' }, gap: 2, alignItems: 'start' }}>
+      <Box sx={{ display: 'grid', gridTemplateColumns: { xs: 'minmax(0, 1fr)', lg: 'minmax(0, 3fr) minmax(0, 2fr)' }, gap: 2, alignItems: 'start' }}>
         <ErrorChart range={range} />
         <Box sx={{ display: 'grid', gap: 1.5 }}>
           <FitSummary title="As found" summary={range.asFoundFit} />
