@@ -60,11 +60,8 @@ export function FitSummary({ analysis }: { analysis: CalibrationRunAnalysis }) {
             <Figure label="R²" value={formatNumber(fit.r2, 5)} />
           </>
         ) : (
-          <Box sx={{ gridColumn: '1 / -1' }}>
-            <Typography variant="body2" color="text.secondary">
-              The line needs readings at three or more settings.
-            </Typography>
-          </Box>
+          // A name-value pair like the others: a definition list holds only term and description groups.
+          <Figure label="Line" value="not fitted yet" detail="needs readings at three or more settings" />
         )}
         {tracking && (
           <>
