@@ -8,7 +8,7 @@ import { Roles } from '../auth/decorators.js';
 import { likePattern, paginate } from '../shared/paginate.js';
 import { ListMailQueryDto } from './dto/mail.dto.js';
 import { MailMessage } from './mail-message.entity.js';
-import { parseMessage } from './mime.js';
+import { parseMessage } from './read-message.js';
 import { IdParam } from '../shared/id-param.decorator.js';
 
 function toSummary(m: MailMessage): MailMessageSummary {
@@ -48,7 +48,7 @@ export class MailController {
   @Get(':id')
   async get(@IdParam('id') id: number): Promise<MailMessageView> {
     const m = await this.find(id);
-    const parsed = parseMessage(m.raw);
+    const parsed = await parseMessage(m.raw);
     return {
       ...toSummary(m),
       messageId: parsed.messageId,
@@ -74,7 +74,7 @@ export class MailController {
     @IdParam('index') index: number,
     @Res({ passthrough: true }) res: Response,
   ): Promise<StreamableFile> {
-    const part = parseMessage((await this.find(id)).raw).attachments[index];
+    const part = (await parseMessage((await this.find(id)).raw)).attachments[index];
     if (!part) throw new NotFoundException(`Message ${id} has no attachment ${index}`);
     const name = (part.filename ?? `attachment-${index}`).replace(/[^\w.\- ]/g, '_');
     res.set({ 'Content-Type': part.contentType, 'Content-Disposition': `attachment; filename="${name}"` });

@@ -3,7 +3,7 @@ import type { DataSource } from 'typeorm';
 import { checkEnvironment, ConfigError } from '../config/env-schema.js';
 import { MailMessage } from './mail-message.entity.js';
 import { mailSignOff, mailTextToHtml } from './mail-text.js';
-import { parseMessage } from './mime.js';
+import { parseMessage } from './read-message.js';
 import { SmtpFake, type CapturedMail } from './smtp-fake.js';
 
 export type MailKind = 'certificate_issued' | 'job_returned' | 'recall_reminder' | 'other';
@@ -49,7 +49,7 @@ export function mailSettingsFromEnv(env: NodeJS.ProcessEnv = process.env): MailS
 
 /** Stores one captured message in mail_messages (the admin outbox). */
 export async function storeCapturedMail(dataSource: DataSource, mail: CapturedMail): Promise<void> {
-  const parsed = parseMessage(mail.raw);
+  const parsed = await parseMessage(mail.raw);
   await dataSource.getRepository(MailMessage).insert({
     messageId: parsed.messageId?.slice(0, 255) ?? null,
     kind: parsed.kind.slice(0, 32),

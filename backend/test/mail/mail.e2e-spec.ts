@@ -2,7 +2,7 @@ import { createServer, type Server } from 'node:net';
 import type { MailMessageView } from '@kilocycle/common/types';
 import { jobReturnedMail } from '../../src/mail/mail-templates.js';
 import { Mailer } from '../../src/mail/mailer.js';
-import { parseMessage } from '../../src/mail/mime.js';
+import { parseMessage } from '../../src/mail/read-message.js';
 import { MailService } from '../../src/mail/mail.service.js';
 import { createTestApp, DEMO, tokenFor, type TestApp } from '../support/test-app.js';
 
@@ -119,7 +119,7 @@ describe('mail: the local SMTP fake and the outbox (e2e, MariaDB)', () => {
     });
   });
 
-  it('should read quoted-printable parts and encoded words', () => {
+  it('should read quoted-printable parts and encoded words', async () => {
     const raw = [
       'From: a@example.test',
       'Subject: =?UTF-8?Q?Kalibrierschein_f=C3=BCr?= =?UTF-8?B?IE7DpGNoc3Rl?=',
@@ -130,7 +130,7 @@ describe('mail: the local SMTP fake and the outbox (e2e, MariaDB)', () => {
       'f=C3=BCnf =',
       'Zeilen',
     ].join('\r\n');
-    const parsed = parseMessage(raw);
+    const parsed = await parseMessage(raw);
     expect(parsed.subject).toBe('Kalibrierschein für Nächste');
     expect(parsed.kind).toBe('recall_reminder');
     expect(parsed.text).toBe('fünf Zeilen');
