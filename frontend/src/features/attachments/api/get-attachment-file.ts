@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Attachment } from '@kilocycle/common/types';
-import { fetchFile } from '@/lib/file-transfer';
+import { fetchFile } from '@/lib/api-client';
 
 /** The bytes of an attachment, fetched with the session's token (the file URL is behind sign-in). */
 export function getAttachmentFile(attachment: Pick<Attachment, 'url'>): Promise<Blob> {

@@ -1,7 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { Attachment, AttachmentOwner } from '@kilocycle/common/types';
-import { toApiError } from '@/lib/api-client';
-import { uploadWithProgress, type UploadProgress } from '@/lib/file-transfer';
+import { toApiError, uploadWithProgress, type UploadProgress } from '@/lib/api-client';
 import { attachmentsPath, getAttachmentsQueryOptions } from './get-attachments';
 
 export type UploadAttachmentInput = {

@@ -1,6 +1,5 @@
 import type { ImportMapping, ImportMode, ImportReport } from '@kilocycle/common/types';
-import { toApiError } from '@/lib/api-client';
-import { uploadWithProgress, type UploadProgress } from '@/lib/file-transfer';
+import { toApiError, uploadWithProgress, type UploadProgress } from '@/lib/api-client';
 
 export type ImportReadingsInput = {
   runId: number;

@@ -1,6 +1,6 @@
 import { useMutation } from '@tanstack/react-query';
 import type { CertificateCheckResult } from '@kilocycle/common/types';
-import { postFile } from '@/lib/file-transfer';
+import { postFile } from '@/lib/api-client';
 
 export type CheckCertificateInput = { number: string; file: File };
 
