@@ -1,5 +1,6 @@
 import { dialToNominal, type DialLaw } from './dial-law.js';
 import { fitLine } from './fit-line.js';
+import { hzToPpm } from './hz-to-ppm.js';
 import { assertFinite } from './guards.js';
 import { MetrologyError } from './metrology-error.js';
 import { toleranceHz, type Tolerance } from './tolerance.js';
@@ -122,7 +123,7 @@ export function analyseCalibration(input: {
         n,
         sd,
         errorHz,
-        errorPpm: (errorHz / nominal) * 1e6,
+        errorPpm: hzToPpm(errorHz, nominal),
         errorPercent: (errorHz / nominal) * 100,
         toleranceHz: input.tolerance === undefined ? null : toleranceHz(input.tolerance, nominal),
       };

@@ -17,6 +17,11 @@ export {
   type TrackingSummary,
 } from './analyse-calibration.js';
 export { dialForFrequency, dialForFrequencyEstimate, type DialEstimate } from './dial-for-frequency.js';
+export { dialSlope } from './dial-slope.js';
+export { ppmToHz } from './ppm-to-hz.js';
+export { hzToPpm } from './hz-to-ppm.js';
+export { sampleMean } from './sample-mean.js';
+export { meanEstimate } from './mean-estimate.js';
 
 // Alignment and padding (§5.2)
 export { alignLC, frequencyWithPadder, paddingForShift, type AlignLCInput, type AlignLCResult } from './align-lc.js';

@@ -1,7 +1,7 @@
 import { assertFiniteArray, assertPositive } from './guards.js';
 import { MetrologyError } from './metrology-error.js';
 import { phaseFromFrequency, type StabilityOptions, type StabilityPoint } from './overlapping-adev.js';
-import { adevEdf, chiSquaredInterval } from './stability-confidence.js';
+import { overlappingAdevKernel } from './overlapping-adev-kernel.js';
 
 /** Averaging times this close (relative) to a whole multiple of τ0 count as that multiple. */
 const WHOLE_MULTIPLE_TOLERANCE = 1e-6;
@@ -39,15 +39,6 @@ export function overlappingAdevAt(y: ArrayLike<number>, tau0: number, taus: read
     const m = Math.round(ratio);
     if (m < 1 || Math.abs(ratio - m) > WHOLE_MULTIPLE_TOLERANCE * ratio) return null;
     if (2 * m > N - 1) return null;
-    const terms = N - 2 * m;
-    let sum = 0;
-    for (let i = 0; i < terms; i++) {
-      const secondDifference = x[i + 2 * m]! - 2 * x[i + m]! + x[i]!;
-      sum += secondDifference * secondDifference;
-    }
-    const deviation = Math.sqrt(sum / (2 * m * m * terms));
-    const edf = adevEdf(N, m, noise);
-    const [ciLow, ciHigh] = chiSquaredInterval(deviation, edf, confidence);
-    return { m, tau: m * tau0, deviation, n: terms, edf, ciLow, ciHigh };
+    return overlappingAdevKernel(x, m, tau0, noise, confidence);
   });
 }

@@ -1,6 +1,7 @@
 import { assertFiniteArray, assertPositive } from './guards.js';
 import { MetrologyError } from './metrology-error.js';
-import { adevEdf, chiSquaredInterval, type NoiseType } from './stability-confidence.js';
+import { overlappingAdevKernel } from './overlapping-adev-kernel.js';
+import type { NoiseType } from './stability-confidence.js';
 
 /** One averaging time of a stability analysis. */
 export type StabilityPoint = {
@@ -102,16 +103,5 @@ export function overlappingAdev(y: ArrayLike<number>, tau0: number, opts: Stabil
   const x = phaseFromFrequency(y);
   const N = x.length;
   const limit = Math.min(Math.floor((N - 1) / 2), opts.maxM ?? Number.POSITIVE_INFINITY);
-  return octaves(limit).map((m) => {
-    const terms = N - 2 * m;
-    let sum = 0;
-    for (let i = 0; i < terms; i++) {
-      const secondDifference = x[i + 2 * m]! - 2 * x[i + m]! + x[i]!;
-      sum += secondDifference * secondDifference;
-    }
-    const deviation = Math.sqrt(sum / (2 * m * m * terms));
-    const edf = adevEdf(N, m, noise);
-    const [ciLow, ciHigh] = chiSquaredInterval(deviation, edf, confidence);
-    return { m, tau: m * tau0, deviation, n: terms, edf, ciLow, ciHigh };
-  });
+  return octaves(limit).map((m) => overlappingAdevKernel(x, m, tau0, noise, confidence));
 }
