@@ -1,12 +1,12 @@
 import { Module } from '@nestjs/common';
-import { IngestModule } from '../ingest/ingest.module.js';
+import { ReadingsModule } from '../readings/readings.module.js';
 import { ImportProgressStore } from './import-progress.store.js';
 import { ImportsController } from './imports.controller.js';
 import { ImportsService } from './imports.service.js';
 
-/** CSV/TSV import of readings into a run, through the one ReadingsWriter (which IngestModule provides). */
+/** CSV/TSV import of readings into a run, through the one ReadingsWriter (which ReadingsModule provides). */
 @Module({
-  imports: [IngestModule],
+  imports: [ReadingsModule],
   controllers: [ImportsController],
   providers: [ImportsService, ImportProgressStore],
 })

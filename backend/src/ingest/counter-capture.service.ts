@@ -19,7 +19,7 @@ import { organizationScope, type AuthUser } from '../auth/auth-user.js';
 import { ReadingsWriter, refusalReason, type RunWriteContext, type StoredBatch } from '../readings/readings-writer.service.js';
 import { assertMayWriteRun, runKindWords } from '../runs/run-rules.js';
 import { jsonColumn } from '../shared/json-column.js';
-import { BridgePresence } from './bridge-presence.js';
+import { BridgePresence } from '../shared/bridge-presence.js';
 
 /** A dial typed at most this far outside the range's dial span (as a fraction of it) is refused, as the write path does. */
 const DIAL_MARGIN = 0.1;

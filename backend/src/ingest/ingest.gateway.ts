@@ -11,8 +11,8 @@ import {
   type RefusedEvent,
 } from '@kilocycle/common/events';
 import { BenchesService, type BenchIdentity } from '../benches/benches.service.js';
-import { BridgePresence } from './bridge-presence.js';
-import { errorDetail, IngestException, toRefusal } from './ingest.exception.js';
+import { BridgePresence } from '../shared/bridge-presence.js';
+import { errorDetail, IngestException, toRefusal } from '../shared/socket-refusal.js';
 import { IngestService } from './ingest.service.js';
 
 type BenchSocketData = { bench: BenchIdentity; token: string; verifiedAt: number; runs: Set<number> };

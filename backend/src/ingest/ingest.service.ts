@@ -7,7 +7,7 @@ import { parseFrequency, parseNumber } from '@kilocycle/common/units';
 import type { BenchIdentity } from '../benches/benches.service.js';
 import { ReadingsWriter, refusalReason, type RunWriteContext } from '../readings/readings-writer.service.js';
 import { CounterCaptureService } from './counter-capture.service.js';
-import { IngestException, payloadObject, runIdOf } from './ingest.exception.js';
+import { IngestException, payloadObject, runIdOf } from '../shared/socket-refusal.js';
 
 const BATCH_EXAMPLE = '{runId, readings: [{seq, t?, dial?, frequency, aux?}, …]}';
 

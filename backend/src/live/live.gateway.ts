@@ -17,9 +17,9 @@ import {
 import type { AuthUser } from '../auth/auth-user.js';
 import { AuthService } from '../auth/auth.service.js';
 import { SessionsService, type SessionsEnded } from '../auth/sessions.service.js';
-import { BridgePresence } from '../ingest/bridge-presence.js';
+import { BridgePresence } from '../shared/bridge-presence.js';
 import { CounterCaptureService } from '../ingest/counter-capture.service.js';
-import { errorDetail, toRefusal } from '../ingest/ingest.exception.js';
+import { errorDetail, toRefusal } from '../shared/socket-refusal.js';
 import { ReadingsWriter } from '../readings/readings-writer.service.js';
 import { LiveService } from './live.service.js';
 

@@ -2,7 +2,7 @@ import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import type { DataSource } from 'typeorm';
 import { organizationScope, type AuthUser } from '../auth/auth-user.js';
-import { IngestException, payloadObject, runIdOf } from '../ingest/ingest.exception.js';
+import { IngestException, payloadObject, runIdOf } from '../shared/socket-refusal.js';
 
 @Injectable()
 export class LiveService {

@@ -1,18 +1,20 @@
 import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
-import { IngestModule } from '../ingest/ingest.module.js';
 import { ReadingExclusion } from './reading-exclusion.entity.js';
 import { Reading } from './reading.entity.js';
 import { ReadingsController } from './readings.controller.js';
+import { ReadingsWriter } from './readings-writer.service.js';
 import { ReadingsService } from './readings.service.js';
 
 /**
- * Readings typed at the bench, listed and excluded. The write path itself (ReadingsWriter) comes from
- * IngestModule so that there is one instance: the live gateway pushes what either path stores.
+ * Readings typed at the bench, listed and excluded, and the one write path (ReadingsWriter) that the
+ * bench page, CSV import and the bridge share: ingest, imports and live import this module to get the
+ * same instance, so the live gateway pushes what any path stores.
  */
 @Module({
-  imports: [TypeOrmModule.forFeature([Reading, ReadingExclusion]), IngestModule],
+  imports: [TypeOrmModule.forFeature([Reading, ReadingExclusion])],
   controllers: [ReadingsController],
-  providers: [ReadingsService],
+  providers: [ReadingsService, ReadingsWriter],
+  exports: [ReadingsWriter],
 })
 export class ReadingsModule {}

@@ -5,10 +5,10 @@ import { CALIBRATION_RUN_KINDS, RUN_CORRECTABLE_FIELDS, type ListResponse, type 
 import { AuditService } from '../audit/audit.service.js';
 import { organizationScope, type AuthUser } from '../auth/auth-user.js';
 import { Bench } from '../benches/bench.entity.js';
-import { BridgePresence } from '../ingest/bridge-presence.js';
+import { BridgePresence } from '../shared/bridge-presence.js';
 import { InstrumentRange } from '../instruments/instrument-range.entity.js';
 import { instrumentLabel } from '../instruments/instruments.service.js';
-import { OPEN_JOB_STATUSES, LOCKED_JOB_STATUSES } from '../jobs/job-status-rules.js';
+import { OPEN_JOB_STATUSES, LOCKED_JOB_STATUSES } from '@kilocycle/common/rules';
 import { Job } from '../jobs/job.entity.js';
 import { JobsService } from '../jobs/jobs.service.js';
 import { refusalReason } from '../readings/readings-writer.service.js';

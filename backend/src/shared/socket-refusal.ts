@@ -1,6 +1,6 @@
 import type { IngestErrorCode, Refusal } from '@kilocycle/common/events';
 
-/** A refused socket request; the gateways turn it into a {@link Refusal} acknowledgement. */
+/** A refused socket request (the ingest and live gateways share it); the gateways turn it into a {@link Refusal} acknowledgement. */
 export class IngestException extends Error {
   constructor(
     readonly code: IngestErrorCode,
