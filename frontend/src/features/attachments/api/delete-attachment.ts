@@ -2,6 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { Attachment } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
 import { getAttachmentsQueryOptions } from './get-attachments';
+import { getAttachmentFileQueryOptions } from './get-attachment-file';
 
 export function deleteAttachment(attachment: Attachment): Promise<void> {
   return api.delete<void>(`/attachments/${attachment.id}`, { notify: false });
@@ -12,7 +13,7 @@ export function useDeleteAttachment({ onSuccess }: { onSuccess?: () => void } = 
   return useMutation({
     mutationFn: deleteAttachment,
     onSuccess: async (_data, attachment) => {
-      queryClient.removeQueries({ queryKey: ['attachments', 'file', attachment.id] });
+      queryClient.removeQueries({ queryKey: getAttachmentFileQueryOptions(attachment).queryKey });
       await queryClient.invalidateQueries({ queryKey: getAttachmentsQueryOptions(attachment.owner, (attachment.owner === 'instrument' ? attachment.instrumentId : attachment.jobId) ?? 0).queryKey });
       onSuccess?.();
     },

@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { AmendCertificateRequest, CertificateDetail } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { sharedQueryKeys } from '@/lib/query-keys';
 import { getCertificatesQueryOptions } from './get-certificates';
 
 export type AmendCertificateInput = { id: number } & AmendCertificateRequest;
@@ -17,8 +18,8 @@ export function useAmendCertificate({ onSuccess }: { onSuccess?: (certificate: C
     onSuccess: async (certificate) => {
       await queryClient.invalidateQueries({ queryKey: getCertificatesQueryOptions().queryKey });
       // The job went back to work or to review: any cached job or review is out of date.
-      await queryClient.invalidateQueries({ queryKey: ['jobs'] });
-      await queryClient.invalidateQueries({ queryKey: ['reviews'] });
+      await queryClient.invalidateQueries({ queryKey: sharedQueryKeys.jobs });
+      await queryClient.invalidateQueries({ queryKey: sharedQueryKeys.reviews });
       onSuccess?.(certificate);
     },
   });

@@ -1,6 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { Certificate, ListCertificatesQuery, ListResponse } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { sharedQueryKeys } from '@/lib/query-keys';
 
 /** The server scopes the list: a client gets its own organisation's certificates only. */
 export function getCertificates(query: ListCertificatesQuery = {}): Promise<ListResponse<Certificate>> {
@@ -9,7 +10,7 @@ export function getCertificates(query: ListCertificatesQuery = {}): Promise<List
 
 export const getCertificatesQueryOptions = (query?: ListCertificatesQuery) =>
   queryOptions({
-    queryKey: query ? ['certificates', 'list', query] : ['certificates'],
+    queryKey: query ? [...sharedQueryKeys.certificates, 'list', query] : sharedQueryKeys.certificates,
     queryFn: () => getCertificates(query),
   });
 

@@ -18,8 +18,8 @@ import { ApiError } from '@/lib/api-client';
 import { notify } from '@/lib/notifications';
 import { formatDateTime } from '@/utils/format';
 import { useDeleteComparison } from '../api/delete-comparison';
-import { useComparison } from '../api/get-comparison';
-import { useComparisonResult } from '../api/get-comparison-result';
+import { getComparisonQueryOptions, useComparison } from '../api/get-comparison';
+import { getComparisonResultQueryOptions, useComparisonResult } from '../api/get-comparison-result';
 import { useSaveComparison } from '../api/save-comparison';
 import { ComparisonBuilder } from './comparison-builder';
 import { ComparisonResultView } from './comparison-result';
@@ -34,8 +34,8 @@ export function SavedComparison({ id, listPath, canEdit, onDeleted }: SavedCompa
   const result = useComparisonResult(id);
   const [mode, setMode] = useState<'view' | 'runs' | 'text' | 'delete'>('view');
   const afterSave = async (changed: Saved) => {
-    queryClient.setQueryData(['comparisons', 'saved', changed.id], changed);
-    await queryClient.invalidateQueries({ queryKey: ['comparisons', 'saved', changed.id, 'result'] });
+    queryClient.setQueryData(getComparisonQueryOptions(changed.id).queryKey, changed);
+    await queryClient.invalidateQueries({ queryKey: getComparisonResultQueryOptions(changed.id).queryKey });
     notify('success', `“${changed.title}” saved.`);
     setMode('view');
   };

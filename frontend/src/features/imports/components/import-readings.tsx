@@ -22,6 +22,7 @@ import { useId, useRef, useState } from 'react';
 import { DEFAULT_IMPORT_MAX_MB, IMPORT_COLUMNS, type ImportColumn, type ImportMapping, type ImportMode, type ImportReport } from '@kilocycle/common/types';
 import { numberSx } from '@/components/ui/num';
 import { formatBytes } from '@/utils/measurement';
+import { sharedQueryKeys } from '@/lib/query-keys';
 import { useImportProgress } from '../api/get-import-progress';
 import { importReadings, newImportId, type ImportOutcome } from '../api/import-readings';
 import { guessMapping, previewFile, type ColumnMapping, type CsvPreview } from '../utils/csv-preview';
@@ -160,8 +161,8 @@ export function ImportReadings({ runId, needsTime, needsDial, disabled, refusal 
       setOutcome(result);
       if (result.ok) {
         // The run's readings, counts, analysis and notes all changed.
-        await queryClient.invalidateQueries({ queryKey: ['runs'] });
-        await queryClient.invalidateQueries({ queryKey: ['readings'] });
+        await queryClient.invalidateQueries({ queryKey: sharedQueryKeys.runs });
+        await queryClient.invalidateQueries({ queryKey: sharedQueryKeys.readings });
       }
     } catch (error) {
       setOutcome({

@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { AuditEventView, ListResponse } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { sharedQueryKeys } from '@/lib/query-keys';
 
 /** A job's audit trail with its runs and reading exclusions, newest first (lab staff only). */
 export function getJobHistory(jobId: number): Promise<ListResponse<AuditEventView>> {
@@ -9,7 +10,7 @@ export function getJobHistory(jobId: number): Promise<ListResponse<AuditEventVie
 
 export const getJobHistoryQueryOptions = (jobId: number) =>
   queryOptions({
-    queryKey: ['jobs', 'history', jobId],
+    queryKey: [...sharedQueryKeys.jobs, 'history', jobId],
     queryFn: () => getJobHistory(jobId),
   });
 

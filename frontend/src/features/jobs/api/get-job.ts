@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Job } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { sharedQueryKeys } from '@/lib/query-keys';
 
 export function getJob(id: number): Promise<Job> {
   return api.get<Job>(`/jobs/${id}`, { notify: false });
@@ -8,7 +9,7 @@ export function getJob(id: number): Promise<Job> {
 
 export const getJobQueryOptions = (id: number) =>
   queryOptions({
-    queryKey: ['jobs', 'detail', id],
+    queryKey: [...sharedQueryKeys.jobs, 'detail', id],
     queryFn: () => getJob(id),
   });
 

@@ -1,6 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { Job, ListJobsQuery, ListResponse } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { sharedQueryKeys } from '@/lib/query-keys';
 
 export function getJobs(query: ListJobsQuery = {}): Promise<ListResponse<Job>> {
   return api.get<ListResponse<Job>>('/jobs', { params: query });
@@ -8,7 +9,7 @@ export function getJobs(query: ListJobsQuery = {}): Promise<ListResponse<Job>> {
 
 export const getJobsQueryOptions = (query?: ListJobsQuery) =>
   queryOptions({
-    queryKey: query ? ['jobs', query] : ['jobs'],
+    queryKey: query ? [...sharedQueryKeys.jobs, query] : sharedQueryKeys.jobs,
     queryFn: () => getJobs(query),
   });
 

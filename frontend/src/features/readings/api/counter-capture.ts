@@ -1,13 +1,14 @@
 import { queryOptions, useMutation, useQuery } from '@tanstack/react-query';
 import type { CaptureState, CounterCapture, StartCaptureRequest } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { sharedQueryKeys } from '@/lib/query-keys';
 
 /** GET /api/runs/:id/capture: the setting waiting for the counter, the next dial mark and the procedure's rule. */
 export function getCaptureState(runId: number): Promise<CaptureState> {
   return api.get<CaptureState>(`/runs/${runId}/capture`);
 }
 
-export const getCaptureStateQueryOptions = (runId: number) => queryOptions({ queryKey: ['runs', runId, 'capture'], queryFn: () => getCaptureState(runId) });
+export const getCaptureStateQueryOptions = (runId: number) => queryOptions({ queryKey: [...sharedQueryKeys.runs, runId, 'capture'], queryFn: () => getCaptureState(runId) });
 
 export function useCaptureState({ runId, enabled = true }: { runId: number; enabled?: boolean }) {
   return useQuery({ ...getCaptureStateQueryOptions(runId), enabled });

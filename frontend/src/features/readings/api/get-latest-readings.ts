@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { ListResponse, Reading } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { sharedQueryKeys } from '@/lib/query-keys';
 
 /** How many of a run's newest readings the live pages keep at hand. */
 export const LATEST_READINGS = 500;
@@ -13,7 +14,7 @@ export async function getLatestReadings(runId: number): Promise<Reading[]> {
 
 export const getLatestReadingsQueryOptions = (runId: number) =>
   queryOptions({
-    queryKey: ['readings', runId, 'latest'],
+    queryKey: [...sharedQueryKeys.readings, runId, 'latest'],
     queryFn: () => getLatestReadings(runId),
     // Kept current by the live stream, not by refetching.
     staleTime: Infinity,

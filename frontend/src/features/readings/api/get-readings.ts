@@ -2,6 +2,7 @@ import { keepPreviousData, queryOptions, useQuery, useQueryClient } from '@tanst
 import { useCallback } from 'react';
 import type { ListReadingsQuery, ListResponse, Reading } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { sharedQueryKeys } from '@/lib/query-keys';
 
 export function getReadings(runId: number, query: ListReadingsQuery = {}): Promise<ListResponse<Reading>> {
   return api.get<ListResponse<Reading>>(`/runs/${runId}/readings`, { params: query });
@@ -9,7 +10,7 @@ export function getReadings(runId: number, query: ListReadingsQuery = {}): Promi
 
 export const getReadingsQueryOptions = (runId: number, query?: ListReadingsQuery) =>
   queryOptions({
-    queryKey: query ? ['readings', runId, query] : ['readings', runId],
+    queryKey: query ? [...sharedQueryKeys.readings, runId, query] : [...sharedQueryKeys.readings, runId],
     queryFn: () => getReadings(runId, query),
   });
 

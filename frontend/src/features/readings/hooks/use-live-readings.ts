@@ -4,7 +4,7 @@ import { io } from 'socket.io-client';
 import { LIVE_EVENTS, NAMESPACES, type JoinReply, type LiveBridgeEvent, type LiveCaptureEvent, type LiveReadingsEvent } from '@kilocycle/common/events';
 import type { Reading } from '@kilocycle/common/types';
 import { getSession } from '@/lib/session';
-import { getRunQueryOptions } from '@/features/runs/api/get-run';
+import { runDetailQueryKey } from '@/lib/query-keys';
 import { getLatestReadingsQueryOptions, mergeReadings } from '../api/get-latest-readings';
 
 export type LiveState = 'connecting' | 'live' | 'offline' | 'refused';
@@ -56,7 +56,7 @@ export function useLiveReadings(runId: number, { enabled = true, onReadings, onC
           // After a reconnection, whatever arrived while away is fetched once (the run too: its bridge may have changed).
           if (joinedBefore) {
             void queryClient.invalidateQueries({ queryKey: key });
-            void queryClient.invalidateQueries({ queryKey: getRunQueryOptions(runId).queryKey });
+            void queryClient.invalidateQueries({ queryKey: runDetailQueryKey(runId) });
           }
           joinedBefore = true;
         } else {

@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Certificate, ListResponse } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { sharedQueryKeys } from '@/lib/query-keys';
 
 export function getJobCertificates(jobId: number): Promise<ListResponse<Certificate>> {
   return api.get<ListResponse<Certificate>>('/certificates', { params: { jobId, sort: '-revision' } });
@@ -9,7 +10,7 @@ export function getJobCertificates(jobId: number): Promise<ListResponse<Certific
 // Kept under the certificates key, so signing, amending or withdrawing anywhere refreshes it.
 export const getJobCertificatesQueryOptions = (jobId: number) =>
   queryOptions({
-    queryKey: ['certificates', 'job', jobId],
+    queryKey: [...sharedQueryKeys.certificates, 'job', jobId],
     queryFn: () => getJobCertificates(jobId),
   });
 

@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { JobResults } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { sharedQueryKeys } from '@/lib/query-keys';
 
 export function getJobResults(jobId: number): Promise<JobResults> {
   return api.get<JobResults>(`/jobs/${jobId}/results`);
@@ -8,7 +9,7 @@ export function getJobResults(jobId: number): Promise<JobResults> {
 
 export const getJobResultsQueryOptions = (jobId: number) =>
   queryOptions({
-    queryKey: ['reviews', 'results', jobId],
+    queryKey: [...sharedQueryKeys.reviews, 'results', jobId],
     queryFn: () => getJobResults(jobId),
   });
 

@@ -9,9 +9,12 @@ export function getProcedures(query: ListProceduresQuery = {}): Promise<ListResp
 // A lab has a handful of procedures: one page holds them all.
 const ALL: ListProceduresQuery = { pageSize: MAX_PAGE_SIZE, sort: 'name' };
 
+/** The root of every procedures query, whatever its filters. */
+export const proceduresQueryKey = ['procedures'] as const;
+
 export const getProceduresQueryOptions = (query: ListProceduresQuery = ALL) =>
   queryOptions({
-    queryKey: ['procedures', query],
+    queryKey: [...proceduresQueryKey, query],
     queryFn: () => getProcedures(query),
   });
 

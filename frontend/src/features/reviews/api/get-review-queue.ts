@@ -1,6 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { Job, ListJobsQuery, ListResponse } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { sharedQueryKeys } from '@/lib/query-keys';
 
 // The lead's queue: jobs the technicians have submitted, oldest first so nothing waits longest.
 export type ReviewQueueQuery = Omit<ListJobsQuery, 'status'>;
@@ -11,7 +12,7 @@ export function getReviewQueue(query: ReviewQueueQuery = {}): Promise<ListRespon
 
 export const getReviewQueueQueryOptions = (query?: ReviewQueueQuery) =>
   queryOptions({
-    queryKey: query ? ['reviews', 'queue', query] : ['reviews', 'queue'],
+    queryKey: query ? [...sharedQueryKeys.reviews, 'queue', query] : [...sharedQueryKeys.reviews, 'queue'],
     queryFn: () => getReviewQueue(query),
   });
 

@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { JobReview } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { sharedQueryKeys } from '@/lib/query-keys';
 
 export function getReview(jobId: number): Promise<JobReview> {
   return api.get<JobReview>(`/reviews/${jobId}`);
@@ -8,7 +9,7 @@ export function getReview(jobId: number): Promise<JobReview> {
 
 export const getReviewQueryOptions = (jobId: number) =>
   queryOptions({
-    queryKey: ['reviews', 'job', jobId],
+    queryKey: [...sharedQueryKeys.reviews, 'job', jobId],
     queryFn: () => getReview(jobId),
   });
 

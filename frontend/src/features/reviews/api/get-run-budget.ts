@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { RunBudget } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { sharedQueryKeys } from '@/lib/query-keys';
 
 export function getRunBudget(runId: number): Promise<RunBudget> {
   return api.get<RunBudget>(`/runs/${runId}/budget`);
@@ -8,7 +9,7 @@ export function getRunBudget(runId: number): Promise<RunBudget> {
 
 export const getRunBudgetQueryOptions = (runId: number) =>
   queryOptions({
-    queryKey: ['reviews', 'run-budget', runId],
+    queryKey: [...sharedQueryKeys.reviews, 'run-budget', runId],
     queryFn: () => getRunBudget(runId),
   });
 

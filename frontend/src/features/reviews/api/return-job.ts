@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { JobReview, ReturnJobRequest } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { getReviewQueryOptions } from './get-review';
 import { invalidateJobEverywhere } from './invalidate-job';
 
 export type ReturnJobInput = { jobId: number } & ReturnJobRequest;
@@ -17,7 +18,7 @@ export function useReturnJob({ onSuccess }: { onSuccess?: (review: JobReview) =>
   return useMutation({
     mutationFn: returnJob,
     onSuccess: async (review, { jobId }) => {
-      queryClient.setQueryData(['reviews', 'job', jobId], review);
+      queryClient.setQueryData(getReviewQueryOptions(jobId).queryKey, review);
       await invalidateJobEverywhere(queryClient, jobId);
       onSuccess?.(review);
     },

@@ -1,6 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { CreateProcedureRequest, Procedure, UpdateProcedureRequest } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { sharedQueryKeys } from '@/lib/query-keys';
+import { proceduresQueryKey } from './get-procedures';
 
 export type SaveProcedureInput = { id: null; changes: CreateProcedureRequest } | { id: number; changes: UpdateProcedureRequest };
 
@@ -16,8 +18,8 @@ export function useSaveProcedure({ onSuccess }: { onSuccess?: (procedure: Proced
     mutationFn: saveProcedure,
     onSuccess: async (procedure) => {
       // Every procedure list, and every result computed from a procedure's defaults.
-      await queryClient.invalidateQueries({ queryKey: ['procedures'] });
-      await queryClient.invalidateQueries({ queryKey: ['reviews'] });
+      await queryClient.invalidateQueries({ queryKey: proceduresQueryKey });
+      await queryClient.invalidateQueries({ queryKey: sharedQueryKeys.reviews });
       onSuccess?.(procedure);
     },
   });

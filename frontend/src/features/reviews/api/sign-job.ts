@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { SIGNING_MEANING, type CertificateDetail } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { sharedQueryKeys } from '@/lib/query-keys';
 import { getReviewQueryOptions } from './get-review';
 import { invalidateJobEverywhere } from './invalidate-job';
 
@@ -25,7 +26,7 @@ export function useSignJob({ onSuccess }: { onSuccess?: (certificate: Certificat
     onSuccess: async (certificate, { jobId }) => {
       await invalidateJobEverywhere(queryClient, jobId);
       // The certificate lists (another feature's cache) start with the same key.
-      await queryClient.invalidateQueries({ queryKey: ['certificates'] });
+      await queryClient.invalidateQueries({ queryKey: sharedQueryKeys.certificates });
       onSuccess?.(certificate);
     },
     // A refused signature is recorded in the job's history: show it.

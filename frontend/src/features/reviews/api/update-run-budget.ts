@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { RunBudget, UpdateRunBudgetRequest } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { sharedQueryKeys } from '@/lib/query-keys';
 import { getRunBudgetQueryOptions } from './get-run-budget';
 
 export type UpdateRunBudgetInput = { runId: number; changes: UpdateRunBudgetRequest };
@@ -16,7 +17,7 @@ export function useUpdateRunBudget({ onSuccess }: { onSuccess?: (budget: RunBudg
     onSuccess: async (budget) => {
       queryClient.setQueryData(getRunBudgetQueryOptions(budget.runId).queryKey, budget);
       // Every review and result figure may have moved with the budget.
-      await queryClient.invalidateQueries({ queryKey: ['reviews'] });
+      await queryClient.invalidateQueries({ queryKey: sharedQueryKeys.reviews });
       onSuccess?.(budget);
     },
   });

@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { AuditEventView, ListResponse } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { sharedQueryKeys } from '@/lib/query-keys';
 
 /** Corrections of a run's details (audit action update on the run), newest first (lab staff only). */
 export function getRunCorrections(runId: number): Promise<ListResponse<AuditEventView>> {
@@ -9,7 +10,7 @@ export function getRunCorrections(runId: number): Promise<ListResponse<AuditEven
 
 export const getRunCorrectionsQueryOptions = (runId: number) =>
   queryOptions({
-    queryKey: ['runs', 'corrections', runId],
+    queryKey: [...sharedQueryKeys.runs, 'corrections', runId],
     queryFn: () => getRunCorrections(runId),
   });
 

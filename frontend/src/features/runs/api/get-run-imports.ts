@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { AuditEventView, ListResponse } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { sharedQueryKeys } from '@/lib/query-keys';
 
 /** The run's file imports (audit action import on the run: file, mode, rows, imported, skipped), newest first (lab staff only). */
 export function getRunImports(runId: number): Promise<ListResponse<AuditEventView>> {
@@ -10,7 +11,7 @@ export function getRunImports(runId: number): Promise<ListResponse<AuditEventVie
 // Under ['runs', …] so that an import, which refreshes ['runs'], refreshes this list too.
 export const getRunImportsQueryOptions = (runId: number) =>
   queryOptions({
-    queryKey: ['runs', 'imports', runId],
+    queryKey: [...sharedQueryKeys.runs, 'imports', runId],
     queryFn: () => getRunImports(runId),
   });
 

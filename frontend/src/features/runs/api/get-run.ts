@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Run } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { runDetailQueryKey } from '@/lib/query-keys';
 
 export function getRun(id: number): Promise<Run> {
   return api.get<Run>(`/runs/${id}`, { notify: false });
@@ -8,7 +9,7 @@ export function getRun(id: number): Promise<Run> {
 
 export const getRunQueryOptions = (id: number) =>
   queryOptions({
-    queryKey: ['runs', 'detail', id],
+    queryKey: runDetailQueryKey(id),
     queryFn: () => getRun(id),
   });
 

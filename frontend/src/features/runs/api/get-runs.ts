@@ -1,6 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { ListResponse, ListRunsQuery, Run } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { sharedQueryKeys } from '@/lib/query-keys';
 
 export function getRuns(query: ListRunsQuery = {}): Promise<ListResponse<Run>> {
   return api.get<ListResponse<Run>>('/runs', { params: query });
@@ -8,7 +9,7 @@ export function getRuns(query: ListRunsQuery = {}): Promise<ListResponse<Run>> {
 
 export const getRunsQueryOptions = (query?: ListRunsQuery) =>
   queryOptions({
-    queryKey: query ? ['runs', 'list', query] : ['runs', 'list'],
+    queryKey: query ? [...sharedQueryKeys.runs, 'list', query] : [...sharedQueryKeys.runs, 'list'],
     queryFn: () => getRuns(query),
   });
 

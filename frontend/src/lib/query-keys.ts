@@ -1,0 +1,21 @@
+/**
+ * The roots of the query keys that more than one feature touches. Features never import each other, so a
+ * feature whose action changes another feature's data invalidates through these roots; the owning feature
+ * builds its own keys (in its `api/get-*.ts` query options) on the same roots, so the two cannot drift apart.
+ * Keys a single feature alone uses stay in that feature's query options.
+ */
+export const sharedQueryKeys = {
+  /** Job lists, a job, its history (jobs feature). */
+  jobs: ['jobs'],
+  /** A job's review, results, run budgets and the review queue (reviews feature). */
+  reviews: ['reviews'],
+  /** Certificate lists and a job's certificates. */
+  certificates: ['certificates'],
+  /** Run lists, a run, its analysis, corrections, imports and capture state. */
+  runs: ['runs'],
+  /** A run's readings (the table and the latest ones). */
+  readings: ['readings'],
+} as const;
+
+/** One run (runs feature's `getRunQueryOptions`); the live readings refresh it after a reconnection. */
+export const runDetailQueryKey = (runId: number) => [...sharedQueryKeys.runs, 'detail', runId] as const;
