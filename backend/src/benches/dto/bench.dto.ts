@@ -4,6 +4,7 @@ import type { CreateBenchRequest, UpdateBenchRequest } from '@kilocycle/common/t
 import { ListQueryDto } from '../../shared/list-query.dto.js';
 import { SingleLine } from '../../shared/single-line.decorator.js';
 import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';
+import { PartialUpdateType } from '../../shared/partial-update-type.js';
 
 const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 
@@ -30,29 +31,7 @@ export class CreateBenchDto implements CreateBenchRequest {
   defaultStandardId?: number | null;
 }
 
-export class UpdateBenchDto implements UpdateBenchRequest {
-  @OptionalNotNull()
-  @IsString()
-  @Transform(trim)
-  @MinLength(1, { message: 'name must not be empty' })
-  @MaxLength(120)
-  @SingleLine()
-  name?: string;
-
-  @IsOptional()
-  @ValidateIf((_o, v) => v !== null)
-  @IsString()
-  @Transform(trim)
-  @MaxLength(200)
-  @SingleLine()
-  location?: string | null;
-
-  @IsOptional()
-  @ValidateIf((_o, v) => v !== null)
-  @IsInt({ message: 'defaultStandardId must be the id of a reference standard' })
-  @Min(1)
-  defaultStandardId?: number | null;
-
+export class UpdateBenchDto extends PartialUpdateType(CreateBenchDto) implements UpdateBenchRequest {
   @OptionalNotNull()
   @IsBoolean()
   active?: boolean;

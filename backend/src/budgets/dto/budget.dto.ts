@@ -31,6 +31,7 @@ import {
 import { ListQueryDto } from '../../shared/list-query.dto.js';
 import { SingleLine } from '../../shared/single-line.decorator.js';
 import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';
+import { PartialUpdateType } from '../../shared/partial-update-type.js';
 
 export class ExtraComponentDto implements ExtraComponent {
   @IsString()
@@ -104,20 +105,8 @@ export class CreateProcedureDto implements CreateProcedureRequest {
   @OptionalNotNull() @IsArray() @ArrayMaxSize(CAPTURE_LIMITS.dialMarks.max) @IsNumber({ allowNaN: false, allowInfinity: false }, { each: true }) @Min(-1e9, { each: true }) @Max(1e9, { each: true }) dialMarks?: number[];
 }
 
-export class UpdateProcedureDto implements UpdateProcedureRequest {
-  @OptionalNotNull() @IsString() @MinLength(1) @MaxLength(120) @SingleLine() name?: string;
-  @OptionalNotNull() @IsString() @MinLength(1) @MaxLength(4000) method?: string;
-  @OptionalNotNull() @IsIn(DECISION_RULES, { message: `decisionRule must be one of: ${DECISION_RULES.join(', ')}` }) decisionRule?: DecisionRule;
-  @OptionalNotNull() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) @Max(50) dialHalfDivisionPercentOfSpan?: number;
-  @OptionalNotNull() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) driftPpm?: number;
-  @OptionalNotNull() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) driftHz?: number;
-  @OptionalNotNull() @IsArray() @ValidateNested({ each: true }) @Type(() => ExtraComponentDto) extraComponents?: ExtraComponentDto[];
-  @OptionalNotNull() @IsBoolean() isDefault?: boolean;
+export class UpdateProcedureDto extends PartialUpdateType(CreateProcedureDto) implements UpdateProcedureRequest {
   @OptionalNotNull() @IsBoolean() active?: boolean;
-  @OptionalNotNull() @IsInt() @Min(CAPTURE_LIMITS.settleCount.min) @Max(CAPTURE_LIMITS.settleCount.max) captureSettleCount?: number;
-  @OptionalNotNull() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(CAPTURE_LIMITS.toleranceHz.min) @Max(CAPTURE_LIMITS.toleranceHz.max) captureToleranceHz?: number;
-  @OptionalNotNull() @IsInt() @Min(CAPTURE_LIMITS.timeoutS.min) @Max(CAPTURE_LIMITS.timeoutS.max) captureTimeoutS?: number;
-  @OptionalNotNull() @IsArray() @ArrayMaxSize(CAPTURE_LIMITS.dialMarks.max) @IsNumber({ allowNaN: false, allowInfinity: false }, { each: true }) @Min(-1e9, { each: true }) @Max(1e9, { each: true }) dialMarks?: number[];
 }
 
 export class ListProceduresQueryDto extends ListQueryDto implements ListProceduresQuery {

@@ -1,3 +1,4 @@
+import { OmitType } from '@nestjs/mapped-types';
 import { Type } from 'class-transformer';
 import {
   ArrayMaxSize,
@@ -33,6 +34,7 @@ import { IsDateOnly, QueryBoolean, Trim } from '../../shared/dto-helpers.js';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
 import { SingleLine } from '../../shared/single-line.decorator.js';
 import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';
+import { PartialUpdateType } from '../../shared/partial-update-type.js';
 
 export const MAX_RANGES = 32;
 const finite = { allowNaN: false, allowInfinity: false } as const;
@@ -112,36 +114,8 @@ export class CreateInstrumentDto implements CreateInstrumentRequest {
   ranges?: RangeInputDto[];
 }
 
-export class UpdateInstrumentDto implements UpdateInstrumentRequest {
-  @OptionalNotNull() @IsString() @Trim() @MinLength(1, { message: 'make must not be empty' }) @MaxLength(120) @SingleLine()
-  make?: string;
-
-  @OptionalNotNull() @IsString() @Trim() @MinLength(1, { message: 'model must not be empty' }) @MaxLength(120) @SingleLine()
-  model?: string;
-
-  @OptionalNotNull() @IsString() @Trim() @MinLength(1, { message: 'serial must not be empty' }) @MaxLength(120) @SingleLine()
-  serial?: string;
-
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @Trim() @MaxLength(120) @SingleLine()
-  assetTag?: string | null;
-
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
-  description?: string | null;
-
-  @OptionalNotNull() @IsInt({ message: 'recallIntervalMonths must be a whole number' }) @Min(1) @Max(120)
-  recallIntervalMonths?: number;
-
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsDateOnly('nextDueDate')
-  nextDueDate?: string | null;
-
-  /** The whole set, in order: items with an id keep that range, items without are added, missing ones are removed. */
-  @OptionalNotNull()
-  @IsArray({ message: 'ranges must be a list' })
-  @ArrayMaxSize(MAX_RANGES)
-  @ValidateNested({ each: true })
-  @Type(() => RangeInputDto)
-  ranges?: RangeInputDto[];
-}
+/** ranges, when sent, is the whole set, in order: items with an id keep that range, items without are added, missing ones are removed. */
+export class UpdateInstrumentDto extends PartialUpdateType(OmitType(CreateInstrumentDto, ['organizationId'] as const)) implements UpdateInstrumentRequest {}
 
 export class ListInstrumentsQueryDto extends ListQueryDto implements ListInstrumentsQuery {
   @IsOptional() @Type(() => Number) @IsInt({ message: 'organizationId must be a whole number' }) @Min(1)

@@ -1,9 +1,11 @@
+import { OmitType } from '@nestjs/mapped-types';
 import { Type } from 'class-transformer';
 import { IsIn, IsInt, IsNumber, IsOptional, IsString, Matches, Max, MaxLength, Min, MinLength, ValidateIf } from 'class-validator';
 import { JOB_STATUSES, type CreateJobRequest, type JobStatus, type ListJobsQuery, type UpdateJobRequest } from '@kilocycle/common/types';
 import { IsDateOnly, Trim } from '../../shared/dto-helpers.js';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
 import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';
+import { PartialUpdateType } from '../../shared/partial-update-type.js';
 
 const finite = { allowNaN: false, allowInfinity: false } as const;
 const statusMessage = `status must be one of: ${JOB_STATUSES.join(', ')}`;
@@ -31,25 +33,7 @@ export class CreateJobDto implements CreateJobRequest {
   notes?: string | null;
 }
 
-export class UpdateJobDto implements UpdateJobRequest {
-  @OptionalNotNull() @IsDateOnly('receivedDate')
-  receivedDate?: string;
-
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
-  conditionReceived?: string | null;
-
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsInt({ message: 'technicianId must be a whole number' }) @Min(1)
-  technicianId?: number | null;
-
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsNumber(finite, { message: 'ambientTempC must be a number' }) @Min(-40) @Max(80)
-  ambientTempC?: number | null;
-
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsNumber(finite, { message: 'humidityPct must be a number' }) @Min(0) @Max(100)
-  humidityPct?: number | null;
-
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
-  notes?: string | null;
-
+export class UpdateJobDto extends PartialUpdateType(OmitType(CreateJobDto, ['instrumentId'] as const)) implements UpdateJobRequest {
   @OptionalNotNull() @IsIn(JOB_STATUSES, { message: statusMessage })
   status?: JobStatus;
 

@@ -1,3 +1,4 @@
+import { OmitType } from '@nestjs/mapped-types';
 import { Transform } from 'class-transformer';
 import { IsBoolean, IsEmail, IsIn, IsOptional, IsString, MaxLength, MinLength, ValidateIf } from 'class-validator';
 import {
@@ -9,6 +10,7 @@ import {
 import { ListQueryDto } from '../../shared/list-query.dto.js';
 import { SingleLine } from '../../shared/single-line.decorator.js';
 import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';
+import { PartialUpdateType } from '../../shared/partial-update-type.js';
 
 export class CreateOrganizationDto implements CreateOrganizationRequest {
   @IsString()
@@ -28,20 +30,7 @@ export class CreateOrganizationDto implements CreateOrganizationRequest {
   contactEmail?: string | null;
 }
 
-export class UpdateOrganizationDto implements UpdateOrganizationRequest {
-  @OptionalNotNull()
-  @IsString()
-  @MinLength(1)
-  @MaxLength(200)
-  @SingleLine()
-  name?: string;
-
-  @IsOptional()
-  @ValidateIf((_o, v) => v !== null)
-  @IsEmail({}, { message: 'contactEmail must be an e-mail address' })
-  @SingleLine()
-  contactEmail?: string | null;
-
+export class UpdateOrganizationDto extends PartialUpdateType(OmitType(CreateOrganizationDto, ['kind'] as const)) implements UpdateOrganizationRequest {
   @OptionalNotNull()
   @IsBoolean()
   active?: boolean;

@@ -1,3 +1,4 @@
+import { OmitType } from '@nestjs/mapped-types';
 import { Type } from 'class-transformer';
 import { IsIn, IsInt, IsNumber, IsOptional, IsString, Max, MaxLength, Min, MinLength, ValidateIf } from 'class-validator';
 import {
@@ -12,6 +13,7 @@ import {
 import { Trim } from '../../shared/dto-helpers.js';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
 import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';
+import { PartialUpdateType } from '../../shared/partial-update-type.js';
 
 const finite = { allowNaN: false, allowInfinity: false } as const;
 const kindMessage = `kind must be one of: ${RUN_KINDS.join(', ')}`;
@@ -42,27 +44,12 @@ export class CreateRunDto implements CreateRunRequest {
   notes?: string | null;
 }
 
-export class UpdateRunDto implements UpdateRunRequest {
+export class UpdateRunDto extends PartialUpdateType(OmitType(CreateRunDto, ['rangeId', 'kind', 'benchId'] as const)) implements UpdateRunRequest {
   @OptionalNotNull() @IsIn(['closed'], { message: 'status can only be set to closed (a closed run stays closed)' })
   status?: 'closed';
 
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsInt({ message: 'standardId must be a whole number' }) @Min(1)
-  standardId?: number | null;
-
-  @OptionalNotNull() @IsString() @Trim() @MinLength(10, { message: 'standardOverrideReason must be at least 10 characters' }) @MaxLength(1000)
-  standardOverrideReason?: string;
-
   @OptionalNotNull() @IsString({ message: 'reason must be text' }) @Trim() @MinLength(3, { message: 'reason must be at least 3 characters' }) @MaxLength(1000)
   reason?: string;
-
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsNumber(finite, { message: 'supplyVoltage must be a number' }) @Min(0) @Max(100000)
-  supplyVoltage?: number | null;
-
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
-  configuration?: string | null;
-
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
-  notes?: string | null;
 }
 
 export class ListRunsQueryDto extends ListQueryDto implements ListRunsQuery {

@@ -10,6 +10,7 @@ import { IsDateOnly, QueryBoolean, Trim } from '../../shared/dto-helpers.js';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
 import { SingleLine } from '../../shared/single-line.decorator.js';
 import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';
+import { PartialUpdateType } from '../../shared/partial-update-type.js';
 
 const kindMessage = `kind must be one of: ${STANDARD_KINDS.join(', ')}`;
 
@@ -69,37 +70,7 @@ export class CreateStandardDto implements CreateStandardRequest {
   calibrationK: number;
 }
 
-export class UpdateStandardDto implements UpdateStandardRequest {
-  @OptionalNotNull() @IsString() @Trim() @MinLength(1, { message: 'name must not be empty' }) @MaxLength(120) @SingleLine()
-  name?: string;
-
-  @OptionalNotNull() @IsIn(STANDARD_KINDS, { message: kindMessage })
-  kind?: StandardKind;
-
-  @OptionalNotNull() @IsString() @Trim() @MinLength(1, { message: 'makeModel must not be empty' }) @MaxLength(160) @SingleLine()
-  makeModel?: string;
-
-  @OptionalNotNull() @IsString() @Trim() @MinLength(1, { message: 'serial must not be empty' }) @MaxLength(120) @SingleLine()
-  serial?: string;
-
-  @OptionalNotNull() @IsString() @Trim() @MinLength(1, { message: 'certificateNumber must not be empty' }) @MaxLength(120) @SingleLine()
-  certificateNumber?: string;
-
-  @OptionalNotNull() @IsDateOnly('dueDate')
-  dueDate?: string;
-
-  @OptionalNotNull() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) @Max(1000)
-  timebaseAccuracyPpm?: number;
-
-  @OptionalNotNull() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(1e-12, { message: 'resolutionHz must be greater than zero' }) @Max(1e6)
-  resolutionHz?: number;
-
-  @OptionalNotNull() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(0) @Max(1000)
-  calibrationUPpm?: number;
-
-  @OptionalNotNull() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(1) @Max(10)
-  calibrationK?: number;
-
+export class UpdateStandardDto extends PartialUpdateType(CreateStandardDto) implements UpdateStandardRequest {
   @OptionalNotNull() @IsBoolean()
   active?: boolean;
 }

@@ -1,3 +1,4 @@
+import { OmitType } from '@nestjs/mapped-types';
 import { Transform, Type } from 'class-transformer';
 import { IsBoolean, IsEmail, IsIn, IsInt, IsOptional, IsString, MaxLength, Min, MinLength } from 'class-validator';
 import {
@@ -10,6 +11,7 @@ import {
 import { ListQueryDto } from '../../shared/list-query.dto.js';
 import { SingleLine } from '../../shared/single-line.decorator.js';
 import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';
+import { PartialUpdateType } from '../../shared/partial-update-type.js';
 
 const passwordMessage = `password must be at least ${MIN_PASSWORD_LENGTH} characters`;
 
@@ -39,27 +41,10 @@ export class CreateUserDto implements CreateUserRequest {
   password: string;
 }
 
-export class UpdateUserDto implements UpdateUserRequest {
-  @OptionalNotNull()
-  @IsString()
-  @MinLength(1)
-  @MaxLength(200)
-  @SingleLine()
-  name?: string;
-
-  @OptionalNotNull()
-  @IsIn(ROLES, { message: `role must be one of: ${ROLES.join(', ')}` })
-  role?: Role;
-
+export class UpdateUserDto extends PartialUpdateType(OmitType(CreateUserDto, ['email', 'organizationId'] as const)) implements UpdateUserRequest {
   @OptionalNotNull()
   @IsBoolean()
   active?: boolean;
-
-  @OptionalNotNull()
-  @IsString()
-  @MinLength(MIN_PASSWORD_LENGTH, { message: passwordMessage })
-  @MaxLength(200)
-  password?: string;
 }
 
 export class ListUsersQueryDto extends ListQueryDto {
