@@ -1,2 +1,12 @@
 export { describeSignerDeeds, selfSignRefusal } from './signer-deeds.js';
 export { passwordShapeProblem, utf8Length } from './password.js';
+export { FIELD_LIMITS } from './field-limits.js';
+export { LAB_ROLES } from './lab-roles.js';
+export { BENCH_ROLES } from './bench-roles.js';
+export { MANAGER_ROLES } from './manager-roles.js';
+export { BUDGET_ROLES } from './budget-roles.js';
+export { STUDY_ROLES } from './study-roles.js';
+export { OPEN_JOB_STATUSES } from './open-job-statuses.js';
+export { ACTIVE_JOB_STATUSES } from './active-job-statuses.js';
+export { LOCKED_JOB_STATUSES } from './locked-job-statuses.js';
+export { JOB_TRANSITIONS, jobTransitionRefusal, type JobTransitionRefusal } from './job-transitions.js';
