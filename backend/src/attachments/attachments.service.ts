@@ -24,10 +24,10 @@ import {
 import { AuditService } from '../audit/audit.service.js';
 import { organizationScope, type AuthUser } from '../auth/auth-user.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
-import { attachmentDisposition } from '../exports/csv.js';
-import { megabytesFromEnv, readHead, receiveUpload, removeQuietly } from '../imports/multipart-upload.js';
+import { attachmentDisposition } from '../shared/csv.js';
+import { megabytesFromEnv, readHead, receiveUpload, removeQuietly } from '../shared/multipart-upload.js';
 import { Attachment } from './attachment.entity.js';
-import { sniffContent } from './content-sniffer.js';
+import { sniffContent } from '../shared/content-sniffer.js';
 
 const MAX_CAPTION = 500;
 const ACCEPTED_WORDS = 'JPEG, PNG, GIF or WebP images, PDF documents or plain text';

@@ -1,5 +1,5 @@
 import type { ComparisonResult } from '@kilocycle/common/types';
-import { csvLine } from '../exports/csv.js';
+import { csvLine } from '../shared/csv.js';
 
 export const COMPARISON_CSV_COLUMNS = [
   'quantity', 'unit', 'run_id', 'label', 'value', 'standard_error', 'df', 'low_95', 'high_95',

@@ -2,20 +2,19 @@ import { Body, Controller, Delete, Get, HttpCode, Patch, Post, Query, Res } from
 import { ApiBearerAuth, ApiProduces, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
 import type { ComparisonResult, InstrumentSensitivity, ListResponse, SavedComparison } from '@kilocycle/common/types';
+import { LAB_ROLES, STUDY_ROLES } from '@kilocycle/common/rules';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Roles } from '../auth/decorators.js';
-import { attachmentDisposition } from '../exports/csv.js';
+import { attachmentDisposition } from '../shared/csv.js';
 import { comparisonCsv } from './comparison-csv.js';
 import { ComparisonsService } from './comparisons.service.js';
 import { ComputeComparisonDto, CreateComparisonDto, ListComparisonsQueryDto, UpdateComparisonDto } from './dto/comparison.dto.js';
 import { IdParam } from '../shared/id-param.decorator.js';
 
-const LAB = ['admin', 'lead', 'technician', 'engineer'] as const;
-const WRITERS = ['lead', 'engineer'] as const;
 
 @ApiTags('comparisons')
 @ApiBearerAuth()
-@Roles(...LAB)
+@Roles(...LAB_ROLES)
 @Controller()
 export class ComparisonsController {
   constructor(private readonly comparisons: ComparisonsService) {}
@@ -32,7 +31,7 @@ export class ComparisonsController {
     return this.comparisons.list(query);
   }
 
-  @Roles(...WRITERS)
+  @Roles(...STUDY_ROLES)
   @Post('comparisons')
   create(@CurrentUser() user: AuthUser, @Body() body: CreateComparisonDto): Promise<SavedComparison> {
     return this.comparisons.create(user, body);
@@ -61,13 +60,13 @@ export class ComparisonsController {
     res.send(comparisonCsv(result));
   }
 
-  @Roles(...WRITERS)
+  @Roles(...STUDY_ROLES)
   @Patch('comparisons/:id')
   update(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Body() body: UpdateComparisonDto): Promise<SavedComparison> {
     return this.comparisons.update(user, id, body);
   }
 
-  @Roles(...WRITERS)
+  @Roles(...STUDY_ROLES)
   @HttpCode(204)
   @Delete('comparisons/:id')
   remove(@CurrentUser() user: AuthUser, @IdParam('id') id: number): Promise<void> {

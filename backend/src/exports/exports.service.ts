@@ -5,7 +5,7 @@ import type { DataSource } from 'typeorm';
 import { READINGS_CSV_COLUMNS } from '@kilocycle/common/types';
 import { organizationScope, type AuthUser } from '../auth/auth-user.js';
 import { loadSignedRecord } from '../certificates/signed-record.js';
-import { attachmentDisposition, csvLine } from './csv.js';
+import { attachmentDisposition, csvLine } from '../shared/csv.js';
 import { resultsCsv } from './results-csv.js';
 
 // The part of a mysql2 (callback API) pool connection the export streams with.

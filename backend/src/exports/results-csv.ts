@@ -1,7 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import { analyseCalibration, MetrologyError } from '@kilocycle/common/math';
 import { RESULTS_CSV_COLUMNS, type DialLaw, type RunKind, type Tolerance } from '@kilocycle/common/types';
-import { csvLine } from './csv.js';
+import { csvLine } from '../shared/csv.js';
 import { jsonColumn } from '../shared/json-column.js';
 
 

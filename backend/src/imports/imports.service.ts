@@ -26,7 +26,7 @@ import {
   type ImportRejection,
   type ImportReport,
 } from '@kilocycle/common/types';
-import { sniffContent } from '../attachments/content-sniffer.js';
+import { sniffContent } from '../shared/content-sniffer.js';
 import { AuditService } from '../audit/audit.service.js';
 import { organizationScope, type AuthUser } from '../auth/auth-user.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
@@ -36,7 +36,7 @@ import { convertRow, detectDelimiter, detectNewline, ImportFileError, lastRecord
 import type { ImportQueryDto } from './dto/import-query.dto.js';
 import { ImportProgressStore, type ImportTracker } from './import-progress.store.js';
 import { ReadingBatch } from './reading-batch.js';
-import { megabytesFromEnv, readHead, receiveUpload, removeQuietly, removeStaleUploads, type ReceivedUpload } from './multipart-upload.js';
+import { megabytesFromEnv, readHead, receiveUpload, removeQuietly, removeStaleUploads, type ReceivedUpload } from '../shared/multipart-upload.js';
 
 /** How much of the run's notes the list of skipped rows may take (the column is TEXT, 64 KB). */
 const NOTES_LIMIT = 60_000;

@@ -5,7 +5,7 @@ import { randomBytes } from 'node:crypto';
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { open, readdir, stat, unlink } from 'node:fs/promises';
-import { SNIFF_BYTES } from '../attachments/content-sniffer.js';
+import { SNIFF_BYTES } from './content-sniffer.js';
 
 /** A file received to disk, with the multipart text fields that came with it. */
 export type ReceivedUpload = { path: string; originalName: string; size: number; fields: Record<string, string> };
