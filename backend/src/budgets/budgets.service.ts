@@ -17,7 +17,7 @@ import { User } from '../users/user.entity.js';
 import type { CreateProcedureDto, ListProceduresQueryDto, UpdateProcedureDto, UpdateRunBudgetDto } from './dto/budget.dto.js';
 import { findScopedJob, findScopedRun } from './job-access.js';
 import { JobProcedure } from './job-procedure.entity.js';
-import { computeJobResults, effectiveFigures, loadJobProcedure } from './job-results.js';
+import { effectiveFigures, JobResultsService } from './job-results.service.js';
 import { recordProcedureVersion } from './procedure-versions.js';
 import { Procedure } from './procedure.entity.js';
 import { RunBudget } from './run-budget.entity.js';
@@ -51,6 +51,7 @@ export class BudgetsService {
   constructor(
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly audit: AuditService,
+    private readonly jobResults: JobResultsService,
   ) {}
 
   listProcedures(query: ListProceduresQueryDto): Promise<ListResponse<ProcedureView>> {
@@ -114,7 +115,7 @@ export class BudgetsService {
 
   async jobProcedure(user: AuthUser, jobId: number): Promise<ProcedureView> {
     await findScopedJob(this.dataSource.manager, user, jobId);
-    const figures = await loadJobProcedure(this.dataSource.manager, jobId);
+    const figures = await this.jobResults.procedure(jobId);
     return this.getProcedure(figures.id);
   }
 
@@ -136,7 +137,7 @@ export class BudgetsService {
 
   async runBudget(user: AuthUser, runId: number, manager: EntityManager = this.dataSource.manager): Promise<RunBudgetView> {
     const { run, job } = await findScopedRun(manager, user, runId);
-    const procedure = await loadJobProcedure(manager, job.id);
+    const procedure = await this.jobResults.procedure(job.id, manager);
     const row = await manager.findOneBy(RunBudget, { runId });
     const overrides = row
       ? { dialHalfDivision: row.dialHalfDivision, driftPpm: row.driftPpm, driftHz: row.driftHz, counterResolutionHz: row.counterResolutionHz, extraComponents: row.extraComponents, note: row.note }
@@ -176,6 +177,6 @@ export class BudgetsService {
   async results(user: AuthUser, jobId: number): Promise<JobResults> {
     await findScopedJob(this.dataSource.manager, user, jobId);
     const signed = await loadSignedRecord(this.dataSource.manager, jobId);
-    return signed ? signed.results : computeJobResults(this.dataSource.manager, jobId);
+    return signed ? signed.results : this.jobResults.compute(jobId);
   }
 }

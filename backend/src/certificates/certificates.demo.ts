@@ -2,6 +2,7 @@ import type { DialLaw, Tolerance } from '@kilocycle/common/types';
 import { Procedure } from '../budgets/procedure.entity.js';
 import { recordProcedureVersion } from '../budgets/procedure-versions.js';
 import { JobProcedure } from '../budgets/job-procedure.entity.js';
+import { JobResultsService } from '../budgets/job-results.service.js';
 import { loadConfig } from '../config/app-config.js';
 import { InstrumentRange } from '../instruments/instrument-range.entity.js';
 import { Instrument } from '../instruments/instrument.entity.js';
@@ -140,5 +141,5 @@ export async function seedDemoCertificates({ manager, customerIds, userIds }: De
     }
   }
   await manager.insert(JobReview, { jobId, action: 'submit', actorId: tech, comment: 'All three ranges aligned; as-found range 3 was well out.', at: at(-7, 16) });
-  await issueCertificate(manager, { config }, { jobId, signerId: lead, now: at(-6, 11, 20) });
+  await issueCertificate(manager, { config, results: JobResultsService.over(manager.connection) }, { jobId, signerId: lead, now: at(-6, 11, 20) });
 }

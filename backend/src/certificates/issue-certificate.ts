@@ -6,7 +6,7 @@ import { In, type DataSource, type EntityManager } from 'typeorm';
 import { SIGNING_MEANING, type JobOutcomes, type JobResults, type SignedRecord } from '@kilocycle/common/types';
 import type { AuditEntry } from '../audit/audit.service.js';
 import { AuditEvent } from '../audit/audit-event.entity.js';
-import { computeJobResults, loadJobProcedure } from '../budgets/job-results.js';
+import type { JobResultsService } from '../budgets/job-results.service.js';
 import type { AppConfig } from '../config/app-config.js';
 import { resultsCsv } from '../exports/results-csv.js';
 import { InstrumentRange } from '../instruments/instrument-range.entity.js';
@@ -25,7 +25,7 @@ import { loadSigningKey, sha256Hex, signCertificate } from './signing-key.js';
 
 export const SIGNATORY_ROLE = 'Calibration lead (authorised signatory)';
 
-export type IssueDeps = { config: Pick<AppConfig, 'varDir' | 'publicUrl'> };
+export type IssueDeps = { config: Pick<AppConfig, 'varDir' | 'publicUrl'>; results: JobResultsService };
 export type IssueInput = { jobId: number; signerId: number; meaning?: string; now?: Date };
 export type IssueOutcome = {
   certificateId: number;
@@ -102,7 +102,7 @@ export async function issueCertificate(manager: EntityManager, deps: IssueDeps, 
   const draft = existing.find((c) => c.status === 'draft') ?? null;
   if (!draft && existing.some((c) => c.status === 'issued')) throw new ConflictException(`job ${job.number} already has an issued certificate`);
 
-  const results = await computeJobResults(manager, job.id);
+  const results = await deps.results.compute(job.id, manager);
   const blocking = blockers(results);
   if (blocking.length > 0) throw new ConflictException(`job ${job.number} cannot be signed: ${blocking.join('; ')}`);
 
@@ -138,6 +138,7 @@ export async function issueCertificate(manager: EntityManager, deps: IssueDeps, 
 
   // Everything the signature covers, read in this transaction: every later view of the job reads it.
   const record = await captureRecord(manager, {
+    jobResults: deps.results,
     job,
     instrument,
     customer,
@@ -258,6 +259,7 @@ export async function issueCertificate(manager: EntityManager, deps: IssueDeps, 
 
 type CaptureInput = {
   job: Job;
+  jobResults: JobResultsService;
   instrument: Instrument;
   customer: Organization;
   lab: SignedRecord['lab'];
@@ -278,7 +280,7 @@ type CaptureInput = {
 async function captureRecord(manager: EntityManager, input: CaptureInput): Promise<SignedRecord> {
   const { job, instrument, customer, results, now } = input;
   const [procedure, ranges, technician, csv] = await Promise.all([
-    loadJobProcedure(manager, job.id),
+    input.jobResults.procedure(job.id, manager),
     manager.find(InstrumentRange, { where: { instrumentId: instrument.id }, order: { position: 'ASC' } }),
     job.technicianId ? manager.findOneBy(User, { id: job.technicianId }) : Promise.resolve(null),
     resultsCsv(manager, job.id, job.number),

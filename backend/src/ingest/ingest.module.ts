@@ -2,12 +2,14 @@ import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { BenchesModule } from '../benches/benches.module.js';
 import { ReadingsModule } from '../readings/readings.module.js';
+import { RunsModule } from '../runs/runs.module.js';
 import { BridgePresenceModule } from '../shared/bridge-presence.module.js';
 import { CapturesController } from './captures.controller.js';
 import { CounterCaptureRow, CounterCaptureSample } from './counter-capture.entity.js';
 import { CounterCaptureService } from './counter-capture.service.js';
 import { IngestGateway } from './ingest.gateway.js';
 import { IngestService } from './ingest.service.js';
+import { CaptureResultsReader } from './capture-results.reader.js';
 
 /**
  * The bench side: the `/ingest` gateway, which runs a bridge feeds (BridgePresence, one interface so the
@@ -15,9 +17,9 @@ import { IngestService } from './ingest.service.js';
  * Readings are stored through ReadingsModule's ReadingsWriter.
  */
 @Module({
-  imports: [BenchesModule, ReadingsModule, BridgePresenceModule, TypeOrmModule.forFeature([CounterCaptureRow, CounterCaptureSample])],
+  imports: [BenchesModule, ReadingsModule, RunsModule, BridgePresenceModule, TypeOrmModule.forFeature([CounterCaptureRow, CounterCaptureSample])],
   controllers: [CapturesController],
-  providers: [IngestService, IngestGateway, CounterCaptureService],
-  exports: [CounterCaptureService],
+  providers: [IngestService, IngestGateway, CounterCaptureService, CaptureResultsReader],
+  exports: [CounterCaptureService, CaptureResultsReader],
 })
 export class IngestModule {}

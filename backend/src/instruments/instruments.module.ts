@@ -4,11 +4,12 @@ import { InstrumentRange } from './instrument-range.entity.js';
 import { Instrument } from './instrument.entity.js';
 import { InstrumentsController } from './instruments.controller.js';
 import { InstrumentsService } from './instruments.service.js';
+import { RangeResultsReader } from './range-results.reader.js';
 
 @Module({
   imports: [TypeOrmModule.forFeature([Instrument, InstrumentRange])],
   controllers: [InstrumentsController],
-  providers: [InstrumentsService],
-  exports: [InstrumentsService],
+  providers: [InstrumentsService, RangeResultsReader],
+  exports: [InstrumentsService, RangeResultsReader],
 })
 export class InstrumentsModule {}

@@ -1,10 +1,14 @@
-import { Module } from '@nestjs/common';
+import { Global, Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
+import { RunsModule } from '../runs/runs.module.js';
+import { RunReadingStatsSource } from '../shared/run-reading-stats.js';
 import { ReadingExclusion } from './reading-exclusion.entity.js';
 import { Reading } from './reading.entity.js';
+import { ReadingResultsReader } from './reading-results.reader.js';
 import { ReadingsController } from './readings.controller.js';
 import { ReadingsWriter } from './readings-writer.service.js';
 import { ReadingsService } from './readings.service.js';
+import { RunReadingsReader } from './run-readings.reader.js';
 
 /**
  * Readings typed at the bench, listed and excluded, and the one write path (ReadingsWriter) that the
@@ -14,7 +18,7 @@ import { ReadingsService } from './readings.service.js';
 @Module({
   imports: [TypeOrmModule.forFeature([Reading, ReadingExclusion])],
   controllers: [ReadingsController],
-  providers: [ReadingsService, ReadingsWriter],
-  exports: [ReadingsWriter],
+  providers: [ReadingsService, ReadingsWriter, ReadingResultsReader],
+  exports: [ReadingsWriter, ReadingResultsReader],
 })
 export class ReadingsModule {}

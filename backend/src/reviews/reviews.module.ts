@@ -1,13 +1,14 @@
 import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { SignInThrottleModule } from '../auth/sign-in-throttle.module.js';
+import { BudgetsModule } from '../budgets/budgets.module.js';
 import { CertificatesModule } from '../certificates/certificates.module.js';
 import { JobReview } from './job-review.entity.js';
 import { ReviewsController } from './reviews.controller.js';
 import { ReviewsService } from './reviews.service.js';
 
 @Module({
-  imports: [TypeOrmModule.forFeature([JobReview]), CertificatesModule, SignInThrottleModule],
+  imports: [TypeOrmModule.forFeature([JobReview]), CertificatesModule, SignInThrottleModule, BudgetsModule],
   controllers: [ReviewsController],
   providers: [ReviewsService],
 })

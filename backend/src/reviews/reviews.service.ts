@@ -8,7 +8,7 @@ import { AuditService } from '../audit/audit.service.js';
 import type { AuthUser } from '../auth/auth-user.js';
 import { SignInThrottle } from '../auth/sign-in-throttle.js';
 import { findScopedJob } from '../budgets/job-access.js';
-import { computeJobResults } from '../budgets/job-results.js';
+import { JobResultsService } from '../budgets/job-results.service.js';
 import { Certificate } from '../certificates/certificate.entity.js';
 import { readSettings } from '../certificates/certificate-settings.js';
 import { CertificatesService } from '../certificates/certificates.service.js';
@@ -38,6 +38,7 @@ export class ReviewsService {
     private readonly certificates: CertificatesService,
     /** Wrong passwords at signing, per lead (numbers in sign-in-throttle.ts). */
     private readonly signThrottle: SignInThrottle,
+    private readonly jobResults: JobResultsService,
   ) {}
 
   private async changeStatus(manager: EntityManager, actor: AuthUser, job: Job, to: Job['status'], action: 'submit' | 'return', comment: string | null): Promise<void> {
@@ -62,7 +63,7 @@ export class ReviewsService {
       if (missing) {
         throw new ConflictException(`job ${job.number} cannot go to review: ${missing}. Set the standard with "Correct run details" on the run's page.`);
       }
-      const results = await computeJobResults(manager, job.id);
+      const results = await this.jobResults.compute(job.id, manager);
       if (results.flags.some((f) => f.kind === 'no_calibration_run')) {
         throw new ConflictException(`job ${job.number} has no as-found or as-left run with readings: nothing to review yet`);
       }
@@ -142,7 +143,7 @@ export class ReviewsService {
       await this.refuse(actor, job, captured);
       throw new ForbiddenException(`${captured.charAt(0).toUpperCase()}${captured.slice(1)} (or an admin allows self-signing)`);
     }
-    const outcome = await withCertificateFile(this.dataSource, (manager) => issueCertificate(manager, { config: this.config }, { jobId: job.id, signerId: actor.id, meaning }),
+    const outcome = await withCertificateFile(this.dataSource, (manager) => issueCertificate(manager, { config: this.config, results: this.jobResults }, { jobId: job.id, signerId: actor.id, meaning }),
     );
     if (outcome.recipients.length === 0) {
       this.logger.warn(`certificate ${outcome.number} issued, but ${outcome.customer} has no contact address to mail`);
@@ -177,7 +178,7 @@ export class ReviewsService {
       manager.findOneByOrFail(Instrument, { id: job.instrumentId }),
       manager.findOneByOrFail(Organization, { id: job.organizationId }),
       job.technicianId ? manager.findOneBy(User, { id: job.technicianId }) : Promise.resolve(null),
-      signed ? Promise.resolve(signed.results) : computeJobResults(manager, job.id),
+      signed ? Promise.resolve(signed.results) : this.jobResults.compute(job.id, manager),
       readSettings(manager),
     ]);
     const signedStandards = new Map((frozen?.standards ?? []).map((s) => [s.id, s]));

@@ -2,14 +2,17 @@ import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { JobsModule } from '../jobs/jobs.module.js';
 import { BridgePresenceModule } from '../shared/bridge-presence.module.js';
+import { RunContextReader } from './run-context.reader.js';
+import { RunNotesWriter } from './run-notes.writer.js';
 import { Run } from './run.entity.js';
+import { RunResultsReader } from './run-results.reader.js';
 import { JobRunsController, RunsController } from './runs.controller.js';
 import { RunsService } from './runs.service.js';
 
 @Module({
   imports: [TypeOrmModule.forFeature([Run]), JobsModule, BridgePresenceModule],
   controllers: [RunsController, JobRunsController],
-  providers: [RunsService],
-  exports: [RunsService],
+  providers: [RunsService, RunResultsReader],
+  exports: [RunsService, RunResultsReader],
 })
 export class RunsModule {}

@@ -2,13 +2,14 @@ import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { StandardVersionRow } from './standard-version.entity.js';
 import { Standard } from './standard.entity.js';
+import { StandardResultsReader } from './standard-results.reader.js';
 import { StandardsController } from './standards.controller.js';
 import { StandardsService } from './standards.service.js';
 
 @Module({
   imports: [TypeOrmModule.forFeature([Standard, StandardVersionRow])],
   controllers: [StandardsController],
-  providers: [StandardsService],
-  exports: [StandardsService],
+  providers: [StandardsService, StandardResultsReader],
+  exports: [StandardsService, StandardResultsReader],
 })
 export class StandardsModule {}

@@ -1,0 +1,38 @@
+import { Injectable } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import type { DataSource, EntityManager } from 'typeorm';
+
+/** A reading with its exclusion reason (null when included). */
+export type ResultsReading = { id: number; runId: number; seq: number; dial: number | null; frequency: number; excludedReason: string | null };
+
+/** Readings as job results read them (inside the signing transaction when a manager is given). */
+@Injectable()
+export class ReadingResultsReader {
+  constructor(@InjectDataSource() private readonly dataSource: DataSource) {}
+
+  /** Every reading of these runs, by run and sequence. */
+  async readings(runIds: readonly number[], manager?: EntityManager): Promise<ResultsReading[]> {
+    if (runIds.length === 0) return [];
+    const rows: Array<Record<string, unknown>> = await (manager ?? this.dataSource.manager).query(
+      `SELECT r.id, r.run_id, r.seq, r.dial, r.frequency_hz, e.reason
+         FROM readings r LEFT JOIN reading_exclusions e ON e.reading_id = r.id
+        WHERE r.run_id IN (?) ORDER BY r.run_id, r.seq`,
+      [runIds],
+    );
+    return rows.map((r) => ({
+      id: Number(r.id),
+      runId: Number(r.run_id),
+      seq: Number(r.seq),
+      dial: r.dial === null ? null : Number(r.dial),
+      frequency: Number(r.frequency_hz),
+      excludedReason: (r.reason as string | null) ?? null,
+    }));
+  }
+
+  /** The frequencies of these readings in sequence order, with their ids. */
+  async frequencies(ids: readonly number[], manager?: EntityManager): Promise<Array<{ id: number; frequency: number }>> {
+    if (ids.length === 0) return [];
+    const rows: Array<Record<string, unknown>> = await (manager ?? this.dataSource.manager).query('SELECT id, frequency_hz FROM readings WHERE id IN (?) ORDER BY seq', [ids]);
+    return rows.map((r) => ({ id: Number(r.id), frequency: Number(r.frequency_hz) }));
+  }
+}

@@ -1,0 +1,37 @@
+import { Injectable } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import type { RunKind } from '@kilocycle/common/types';
+import type { DataSource, EntityManager } from 'typeorm';
+
+/** An as-found or as-left run as a job's results read it. */
+export type CalibrationRunHead = {
+  id: number;
+  kind: RunKind;
+  rangeId: number;
+  startedAt: Date;
+  standardId: number | null;
+  standardOverrideReason: string | null;
+};
+
+/** Runs as job results, reviews and certificates read them (inside the caller's transaction when a manager is given). */
+@Injectable()
+export class RunResultsReader {
+  constructor(@InjectDataSource() private readonly dataSource: DataSource) {}
+
+  /** The job's as-found and as-left runs, oldest first. */
+  async calibrationRuns(jobId: number, manager?: EntityManager): Promise<CalibrationRunHead[]> {
+    const rows: Array<Record<string, unknown>> = await (manager ?? this.dataSource.manager).query(
+      `SELECT id, kind, range_id, started_at, standard_id, standard_override_reason
+         FROM runs WHERE job_id = ? AND kind IN ('as_found', 'as_left') ORDER BY started_at, id`,
+      [jobId],
+    );
+    return rows.map((row) => ({
+      id: Number(row.id),
+      kind: row.kind as RunKind,
+      rangeId: Number(row.range_id),
+      startedAt: new Date(row.started_at as string),
+      standardId: row.standard_id === null ? null : Number(row.standard_id),
+      standardOverrideReason: (row.standard_override_reason as string | null) ?? null,
+    }));
+  }
+}
