@@ -1,3 +1,4 @@
+import { roundResultToUncertainty } from '@kilocycle/common/math';
 import type { ComparisonDifference, ComparisonEstimate, ComparisonResult } from '@kilocycle/common/types';
 import { formatNumber, formatSignificant } from '@/utils/frequency';
 
@@ -6,10 +7,10 @@ export const RUN_COLORS = ['#c98a1b', '#1f4e55', '#7b3f99', '#2e7d4f', '#b3261e'
 
 export const runColor = (index: number) => RUN_COLORS[index % RUN_COLORS.length]!;
 
-/** Decimals that show a standard error to two significant digits. */
+/** Decimals that show a standard error to two significant digits (common's rounding rule, GUM 7.2.6). */
 function decimalsFor(se: number): number {
   if (!Number.isFinite(se) || se <= 0) return 2;
-  return Math.min(6, Math.max(0, 1 - Math.floor(Math.log10(se))));
+  return Math.min(6, Math.max(0, roundResultToUncertainty(0, se).decimals));
 }
 
 /** A value in its unit; an Allan deviation (unitless) in significant figures. */

@@ -1,3 +1,4 @@
+import { roundResultToUncertainty } from '@kilocycle/common/math';
 import type { DecisionRule, DialUnit, FrequencyUnit, MeasuredPoint, RangeResult, RunKind, Tolerance } from '@kilocycle/common/types';
 import { bestUnit, formatNumber } from '@/utils/frequency';
 
@@ -42,11 +43,11 @@ export function formatError(point: Pick<MeasuredPoint, 'errorRounded' | 'decimal
   return `${formatNumber(point.errorRounded, Math.max(0, point.decimals))} Hz`;
 }
 
-/** Expanded uncertainty in Hz, with decimals to match its two significant digits. */
+/** Expanded uncertainty in Hz, rounded to two significant digits by common's rule (GUM 7.2.6). */
 export function formatUncertainty(u: number): string {
   if (!Number.isFinite(u) || u <= 0) return formatNumber(u, 0);
-  const decimals = Math.max(0, 1 - Math.floor(Math.log10(u)));
-  return `${formatNumber(u, decimals)} Hz`;
+  const { uncertainty, decimals } = roundResultToUncertainty(0, u);
+  return `${formatNumber(uncertainty, Math.max(0, decimals))} Hz`;
 }
 
 export function formatTur(tur: number | null): string {

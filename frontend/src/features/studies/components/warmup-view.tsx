@@ -21,7 +21,6 @@ import ToggleButton from '@mui/material/ToggleButton';
 import ToggleButtonGroup from '@mui/material/ToggleButtonGroup';
 import { ChartsReferenceLine } from '@mui/x-charts/ChartsReferenceLine';
 import { useMemo, useState } from 'react';
-import { evaluateWarmup } from '@kilocycle/common/math';
 import type { Reading, WarmupRunAnalysis } from '@kilocycle/common/types';
 import { Num } from '@/components/ui/num';
 import { MONO_FONT } from '@/lib/theme';
@@ -36,6 +35,41 @@ export function settlingDetail(seconds: number | null, extrapolated: boolean, la
   if (seconds === null) return 'never, by this rule';
   // The duration never breaks between number and unit ("14 s" stays on one line in the narrow figure column).
   return extrapolated ? `extrapolated beyond the ${formatDuration(lastReadingSeconds).replace(/ /g, '\u00a0')} recorded` : undefined;
+}
+
+/**
+ * What the chart draws: the analysed readings (downsampled by the server) followed by the live ones newer than the
+ * analysis, and either the frequencies with the server's fitted curve or the residuals from it.
+ */
+export function warmupChartData(analysis: WarmupRunAnalysis | null, latest: readonly Reading[], view: 'frequency' | 'residual') {
+  const t: number[] = [];
+  const f: number[] = [];
+  const seriesT = analysis?.series.t ?? [];
+  const seriesFitted = analysis?.series.fitted ?? [];
+  const seriesF = analysis?.series.frequency ?? [];
+  for (let i = 0; i < seriesT.length; i++) {
+    t.push(seriesT[i]!);
+    f.push(seriesF[i]!);
+  }
+  const after = t.length ? t[t.length - 1]! : -Infinity;
+  for (const r of latest) {
+    if (!r.excluded && r.t > after) {
+      t.push(r.t);
+      f.push(r.frequency);
+    }
+  }
+  // Seconds for a short record, minutes once it runs past five.
+  const perUnit = (t[t.length - 1] ?? 0) > 300 ? 60 : 1;
+  const xs = t.map((s) => s / perUnit);
+  // The fitted curve is the server's, at the analysed readings' times; a reading newer than the last analysis
+  // has no fitted value until the analysis is refreshed (a moment after it arrives), so the curve stops short.
+  const fitted: (number | null)[] | null = analysis?.fit ? t.map((_, i) => seriesFitted[i] ?? null) : null;
+  // Residuals from the fit show what the curve hides: noise, steps, a drift the model does not describe.
+  const residual = view === 'residual' && fitted !== null;
+  const points = residual
+    ? xs.flatMap((x, i) => (fitted[i] == null ? [] : [{ id: i, x, y: f[i]! - fitted[i]! }]))
+    : xs.map((x, i) => ({ id: i, x, y: f[i]! }));
+  return { xs, perUnit, points, fitted: residual ? null : fitted, residual };
 }
 
 type WarmupViewProps = {
@@ -55,38 +89,7 @@ export function WarmupView({ analysis, problem, empty = null, latest, skipAnimat
   const fit = analysis?.fit ?? null;
   const [view, setView] = useState<'frequency' | 'residual'>('frequency');
 
-  const chart = useMemo(() => {
-    const t: number[] = [];
-    const f: number[] = [];
-    const seriesT = analysis?.series.t ?? [];
-    const seriesF = analysis?.series.frequency ?? [];
-    for (let i = 0; i < seriesT.length; i++) {
-      t.push(seriesT[i]!);
-      f.push(seriesF[i]!);
-    }
-    const after = t.length ? t[t.length - 1]! : -Infinity;
-    for (const r of latest) {
-      if (!r.excluded && r.t > after) {
-        t.push(r.t);
-        f.push(r.frequency);
-      }
-    }
-    // Seconds for a short record, minutes once it runs past five.
-    const perUnit = (t[t.length - 1] ?? 0) > 300 ? 60 : 1;
-    const xs = t.map((s) => s / perUnit);
-    let fitted: number[] | null = null;
-    if (fit) {
-      try {
-        fitted = t.map((s) => evaluateWarmup(fit, s));
-      } catch {
-        fitted = null;
-      }
-    }
-    // Residuals from the fit show what the curve hides: noise, steps, a drift the model does not describe.
-    const residual = view === 'residual' && fitted !== null;
-    const points = xs.map((x, i) => ({ id: i, x, y: residual ? f[i]! - fitted![i]! : f[i]! }));
-    return { xs, perUnit, points, fitted: residual ? null : fitted, residual };
-  }, [analysis, latest, fit, view]);
+  const chart = useMemo(() => warmupChartData(analysis, latest, view), [analysis, latest, view]);
 
   const series = [
     {

@@ -1,8 +1,8 @@
 import { screen } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
-import type { WarmupRunAnalysis } from '@kilocycle/common/types';
+import type { Reading, WarmupRunAnalysis } from '@kilocycle/common/types';
 import { renderWithApp, signInAs } from '@/testing/test-utils';
-import { WarmupView } from '../warmup-view';
+import { warmupChartData, WarmupView } from '../warmup-view';
 
 // 14 s of a warm-up whose fit says "within 5 Hz at 3 min 47 s": the page must say that lies beyond the record.
 function analysis(settling: Partial<WarmupRunAnalysis['settling']>): WarmupRunAnalysis {
@@ -33,5 +33,30 @@ describe('<WarmupView> settling times', () => {
     renderWithApp(<WarmupView analysis={analysis({ withinExtrapolated: false, rateSeconds: null, rateExtrapolated: false, lastReadingSeconds: 600 })} problem={null} latest={[]} skipAnimation />);
     expect(screen.getByTestId('settled-within').textContent).not.toContain('extrapolated');
     expect(screen.getByTestId('settled-rate').textContent).toContain('never, by this rule');
+  });
+});
+
+describe('warmupChartData(): the curve drawn is the one the server sent', () => {
+  // The server's curve here is deliberately not f∞ + A·e^(−t/τ) of the fit beside it: only a chart that draws
+  // what was sent shows these values.
+  const sent = [7_049_600, 7_049_700, 7_049_750, 7_049_800, 7_049_850, 7_049_880, 7_049_900, 7_049_910];
+  const withSentCurve = (): WarmupRunAnalysis => {
+    const base = analysis({});
+    return { ...base, series: { t: base.series.t, frequency: sent.map((v) => v + 1), fitted: sent } };
+  };
+  const live = (seq: number, t: number, frequency: number): Reading => ({
+    id: 100 + seq, seq, t, dial: null, frequency, aux: null, source: 'bridge', receivedAt: '2026-01-01T00:00:00Z', excluded: false, excludedReason: null, author: null,
+  });
+
+  it('draws the server’s fitted values at the analysed times, and none yet for a reading newer than the analysis', () => {
+    const chart = warmupChartData(withSentCurve(), [live(9, 16, 7_049_920)], 'frequency');
+    expect(chart.fitted).toEqual([...sent, null]);
+    expect(chart.points.map((p) => p.y)).toEqual([...sent.map((v) => v + 1), 7_049_920]);
+  });
+
+  it('shows residuals from the server’s curve (here 1 Hz each), leaving out the reading it does not cover yet', () => {
+    const chart = warmupChartData(withSentCurve(), [live(9, 16, 7_049_920)], 'residual');
+    expect(chart.residual).toBe(true);
+    expect(chart.points.map((p) => p.y)).toEqual(sent.map(() => 1));
   });
 });
