@@ -2,6 +2,7 @@ import { Controller, Delete, Get, HttpCode, Post, Query, Req, Res } from '@nestj
 import { ApiBearerAuth, ApiConsumes, ApiTags } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import type { Attachment as AttachmentView, ListResponse } from '@kilocycle/common/types';
+import { BENCH_ROLES, MANAGER_ROLES } from '@kilocycle/common/rules';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Roles } from '../auth/decorators.js';
 import { AttachmentsService } from './attachments.service.js';
@@ -15,14 +16,14 @@ export class AttachmentsController {
   constructor(private readonly attachments: AttachmentsService) {}
 
   /** Multipart: field `file`, optional field `caption`. */
-  @Roles('admin', 'lead', 'technician')
+  @Roles(...BENCH_ROLES)
   @ApiConsumes('multipart/form-data')
   @Post('instruments/:id/attachments')
   attachToInstrument(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<AttachmentView> {
     return this.attachments.upload(user, 'instrument', id, req, res);
   }
 
-  @Roles('admin', 'lead', 'technician')
+  @Roles(...BENCH_ROLES)
   @ApiConsumes('multipart/form-data')
   @Post('jobs/:id/attachments')
   attachToJob(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<AttachmentView> {
@@ -45,7 +46,7 @@ export class AttachmentsController {
     return this.attachments.serve(user, id, query.download === true, res);
   }
 
-  @Roles('admin', 'lead')
+  @Roles(...MANAGER_ROLES)
   @HttpCode(204)
   @Delete('attachments/:id')
   remove(@CurrentUser() user: AuthUser, @IdParam('id') id: number): Promise<void> {

@@ -5,6 +5,7 @@ import { Type } from 'class-transformer';
 import { IsInt, IsOptional, IsString, Matches, MaxLength, Min } from 'class-validator';
 import type { DataSource } from 'typeorm';
 import type { AuditEventView, ListAuditQuery, ListResponse } from '@kilocycle/common/types';
+import { LAB_ROLES } from '@kilocycle/common/rules';
 import { Roles } from '../auth/decorators.js';
 import { ListQueryDto } from '../shared/list-query.dto.js';
 import { sortColumn } from '../shared/page-query.js';
@@ -33,7 +34,7 @@ const SORTABLE = { at: 'e.id', id: 'e.id', entity: 'e.entity', action: 'e.action
 export class AuditController {
   constructor(@InjectDataSource() private readonly dataSource: DataSource) {}
 
-  @Roles('admin', 'lead', 'technician', 'engineer')
+  @Roles(...LAB_ROLES)
   @Get()
   async list(@Query() query: ListAuditQueryDto): Promise<ListResponse<AuditEventView>> {
     const where: string[] = [];

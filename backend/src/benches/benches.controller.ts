@@ -1,6 +1,7 @@
 import { Body, Controller, Delete, Get, HttpCode, Patch, Post, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { Bench as BenchView, BenchTokenResponse, ListResponse } from '@kilocycle/common/types';
+import { LAB_ROLES } from '@kilocycle/common/rules';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Roles } from '../auth/decorators.js';
 import { BenchesService } from './benches.service.js';
@@ -13,13 +14,13 @@ import { IdParam } from '../shared/id-param.decorator.js';
 export class BenchesController {
   constructor(private readonly benches: BenchesService) {}
 
-  @Roles('admin', 'lead', 'technician', 'engineer')
+  @Roles(...LAB_ROLES)
   @Get()
   list(@Query() query: ListBenchesQueryDto): Promise<ListResponse<BenchView>> {
     return this.benches.list(query);
   }
 
-  @Roles('admin', 'lead', 'technician', 'engineer')
+  @Roles(...LAB_ROLES)
   @Get(':id')
   get(@IdParam('id') id: number): Promise<BenchView> {
     return this.benches.get(id);

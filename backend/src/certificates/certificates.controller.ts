@@ -24,6 +24,7 @@ import type {
   ListResponse,
   PublicCertificate,
 } from '@kilocycle/common/types';
+import { MANAGER_ROLES } from '@kilocycle/common/rules';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Public, Roles } from '../auth/decorators.js';
 import { CertificatesService } from './certificates.service.js';
@@ -82,7 +83,7 @@ export class CertificatesController {
 export class SettingsController {
   constructor(private readonly certificates: CertificatesService) {}
 
-  @Roles('admin', 'lead')
+  @Roles(...MANAGER_ROLES)
   @Get()
   get(): Promise<CertificateSettings> {
     return this.certificates.settings();

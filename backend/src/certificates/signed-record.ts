@@ -1,7 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import { withOutcomes } from '@kilocycle/common/math';
 import type { CertificateStatus, JobResults, JobStatus, SignedRecord } from '@kilocycle/common/types';
-import { SIGNED_JOB_STATUSES } from '../reviews/job-guards.js';
+import { LOCKED_JOB_STATUSES } from '@kilocycle/common/rules';
 import { jsonColumn } from '../shared/json-column.js';
 
 export type SignedRecordRow = {
@@ -28,7 +28,7 @@ export async function loadSignedRecord(manager: EntityManager, jobId: number): P
        FROM certificates c JOIN jobs j ON j.id = c.job_id
       WHERE c.job_id = ? AND j.status IN (?) AND c.status <> 'draft' AND c.results IS NOT NULL
       ORDER BY c.revision DESC LIMIT 1`,
-    [jobId, SIGNED_JOB_STATUSES],
+    [jobId, LOCKED_JOB_STATUSES],
   );
   if (!row) return null;
   const record = row.record === null ? null : jsonColumn<SignedRecord>(row.record);

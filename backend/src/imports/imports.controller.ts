@@ -2,6 +2,7 @@ import { Controller, Get, Param, Post, Query, Req, Res } from '@nestjs/common';
 import { ApiBearerAuth, ApiConsumes, ApiTags } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import type { ImportProgress, ImportReport } from '@kilocycle/common/types';
+import { LAB_ROLES } from '@kilocycle/common/rules';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Roles } from '../auth/decorators.js';
 import { ImportQueryDto } from './dto/import-query.dto.js';
@@ -19,7 +20,7 @@ export class ImportsController {
   ) {}
 
   /** Multipart field `file` (.csv or .tsv), optional field `mapping`; see ImportReport for the answer. */
-  @Roles('admin', 'lead', 'technician', 'engineer')
+  @Roles(...LAB_ROLES)
   @ApiConsumes('multipart/form-data')
   @Post('runs/:id/imports')
   import(
@@ -32,7 +33,7 @@ export class ImportsController {
     return this.imports.import(user, id, query, req, res);
   }
 
-  @Roles('admin', 'lead', 'technician', 'engineer')
+  @Roles(...LAB_ROLES)
   @Get('imports/:importId/progress')
   getProgress(@CurrentUser() user: AuthUser, @Param('importId') importId: string): ImportProgress {
     return this.progress.get(importId, user.id);

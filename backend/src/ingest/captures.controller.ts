@@ -1,6 +1,7 @@
 import { Body, Controller, Delete, Get, Post } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { CaptureState, CounterCapture } from '@kilocycle/common/types';
+import { LAB_ROLES } from '@kilocycle/common/rules';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Roles } from '../auth/decorators.js';
 import { IdParam } from '../shared/id-param.decorator.js';
@@ -14,19 +15,19 @@ import { StartCaptureDto } from './dto/start-capture.dto.js';
 export class CapturesController {
   constructor(private readonly captures: CounterCaptureService) {}
 
-  @Roles('admin', 'lead', 'technician', 'engineer')
+  @Roles(...LAB_ROLES)
   @Get()
   current(@CurrentUser() user: AuthUser, @IdParam('runId') runId: number): Promise<CaptureState> {
     return this.captures.current(user, runId);
   }
 
-  @Roles('admin', 'lead', 'technician', 'engineer')
+  @Roles(...LAB_ROLES)
   @Post()
   start(@CurrentUser() user: AuthUser, @IdParam('runId') runId: number, @Body() body: StartCaptureDto): Promise<CounterCapture> {
     return this.captures.start(user, runId, body.dial);
   }
 
-  @Roles('admin', 'lead', 'technician', 'engineer')
+  @Roles(...LAB_ROLES)
   @Delete()
   abandon(@CurrentUser() user: AuthUser, @IdParam('runId') runId: number): Promise<CounterCapture> {
     return this.captures.abandon(user, runId);

@@ -1,6 +1,7 @@
 import { Body, Controller, Get, Patch, Post, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { Instrument as InstrumentView, ListResponse } from '@kilocycle/common/types';
+import { BENCH_ROLES } from '@kilocycle/common/rules';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Roles } from '../auth/decorators.js';
 import { CreateInstrumentDto, ListInstrumentsQueryDto, UpdateInstrumentDto } from './dto/instrument.dto.js';
@@ -23,13 +24,13 @@ export class InstrumentsController {
     return this.instruments.get(user, id);
   }
 
-  @Roles('admin', 'lead', 'technician')
+  @Roles(...BENCH_ROLES)
   @Post()
   create(@CurrentUser() user: AuthUser, @Body() body: CreateInstrumentDto): Promise<InstrumentView> {
     return this.instruments.create(user, body);
   }
 
-  @Roles('admin', 'lead', 'technician')
+  @Roles(...BENCH_ROLES)
   @Patch(':id')
   update(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Body() body: UpdateInstrumentDto): Promise<InstrumentView> {
     return this.instruments.update(user, id, body);

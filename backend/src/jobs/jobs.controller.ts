@@ -1,6 +1,7 @@
 import { Body, Controller, Get, Patch, Post, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { Job as JobView, ListResponse } from '@kilocycle/common/types';
+import { BENCH_ROLES } from '@kilocycle/common/rules';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Roles } from '../auth/decorators.js';
 import { CreateJobDto, ListJobsQueryDto, UpdateJobDto } from './dto/job.dto.js';
@@ -23,13 +24,13 @@ export class JobsController {
     return this.jobs.get(user, id);
   }
 
-  @Roles('admin', 'lead', 'technician')
+  @Roles(...BENCH_ROLES)
   @Post()
   create(@CurrentUser() user: AuthUser, @Body() body: CreateJobDto): Promise<JobView> {
     return this.jobs.create(user, body);
   }
 
-  @Roles('admin', 'lead', 'technician')
+  @Roles(...BENCH_ROLES)
   @Patch(':id')
   update(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Body() body: UpdateJobDto): Promise<JobView> {
     return this.jobs.update(user, id, body);

@@ -11,7 +11,7 @@ import { paginateFlat } from '../shared/page-query.js';
 import { likePattern } from '../shared/paginate.js';
 import { User } from '../users/user.entity.js';
 import type { CreateJobDto, ListJobsQueryDto, UpdateJobDto } from './dto/job.dto.js';
-import { ACTIVE_JOB_STATUSES, LOCKED_JOB_STATUSES, transitionRefusal } from './job-status-rules.js';
+import { ACTIVE_JOB_STATUSES, BUDGET_ROLES, LOCKED_JOB_STATUSES, jobTransitionRefusal } from '@kilocycle/common/rules';
 import { Job } from './job.entity.js';
 
 type JobExtras = { runCount: number; returnComment: string | null };
@@ -144,7 +144,7 @@ export class JobsService {
 
   /** Moves a job along its workflow (also used when the first run opens); audited in the caller's transaction. */
   async changeStatus(manager: EntityManager, actor: Pick<AuthUser, 'id' | 'role'>, job: Job, to: JobStatus, comment?: string): Promise<void> {
-    const refusal = transitionRefusal(job.status, to, actor.role);
+    const refusal = jobTransitionRefusal(job.status, to, actor.role);
     if (refusal) {
       if (refusal.status === 403) throw new ForbiddenException(refusal.message);
       throw new ConflictException(`job ${job.number}: ${refusal.message}`);
@@ -199,7 +199,7 @@ export class JobsService {
 
   private async assertTechnician(manager: EntityManager, userId: number): Promise<void> {
     const user = await manager.findOneBy(User, { id: userId });
-    if (!user || !user.active || !['technician', 'lead'].includes(user.role)) {
+    if (!user || !user.active || !BUDGET_ROLES.includes(user.role)) {
       throw new BadRequestException(`technicianId: user ${userId} is not an active technician or lead`);
     }
   }

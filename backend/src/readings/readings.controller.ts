@@ -1,6 +1,7 @@
 import { Body, Controller, Get, Post, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { AppendReadingsResponse, ListResponse, Reading as ReadingView } from '@kilocycle/common/types';
+import { LAB_ROLES } from '@kilocycle/common/rules';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Roles } from '../auth/decorators.js';
 import { AppendReadingsDto, ExcludeReadingDto, ListReadingsQueryDto } from './dto/readings.dto.js';
@@ -19,13 +20,13 @@ export class ReadingsController {
     return this.readings.list(user, runId, query);
   }
 
-  @Roles('admin', 'lead', 'technician', 'engineer')
+  @Roles(...LAB_ROLES)
   @Post()
   append(@CurrentUser() user: AuthUser, @IdParam('runId') runId: number, @Body() body: AppendReadingsDto): Promise<AppendReadingsResponse> {
     return this.readings.append(user, runId, body.readings);
   }
 
-  @Roles('admin', 'lead', 'technician', 'engineer')
+  @Roles(...LAB_ROLES)
   @Post(':readingId/exclusion')
   exclude(
     @CurrentUser() user: AuthUser,

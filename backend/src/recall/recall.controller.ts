@@ -1,6 +1,7 @@
 import { Controller, Get, HttpCode, Post, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { ListResponse, RecallNotice, RecallRunResult } from '@kilocycle/common/types';
+import { MANAGER_ROLES } from '@kilocycle/common/rules';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Roles } from '../auth/decorators.js';
 import { ListQueryDto } from '../shared/list-query.dto.js';
@@ -13,7 +14,7 @@ export class RecallController {
   constructor(private readonly recall: RecallService) {}
 
   /** Reminders sent so far, newest first. */
-  @Roles('admin', 'lead')
+  @Roles(...MANAGER_ROLES)
   @Get('notices')
   list(@Query() query: ListQueryDto): Promise<ListResponse<RecallNotice>> {
     return this.recall.list(query.page, query.pageSize);

@@ -1,11 +1,10 @@
 import { ConflictException } from '@nestjs/common';
+import { LOCKED_JOB_STATUSES } from '@kilocycle/common/rules';
 import type { JobStatus } from '@kilocycle/common/types';
 
 /** Once signed (approved, then issued) a job's runs, readings, budgets and fields are fixed. */
-export const SIGNED_JOB_STATUSES: readonly JobStatus[] = ['approved', 'issued'];
-
 export function isJobSigned(status: JobStatus): boolean {
-  return SIGNED_JOB_STATUSES.includes(status);
+  return LOCKED_JOB_STATUSES.includes(status);
 }
 
 /**

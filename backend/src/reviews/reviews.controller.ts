@@ -1,6 +1,7 @@
 import { Body, Controller, Get, HttpCode, Post, UseInterceptors } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { CertificateDetail, JobReview } from '@kilocycle/common/types';
+import { BENCH_ROLES, LAB_ROLES } from '@kilocycle/common/rules';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Roles } from '../auth/decorators.js';
 import { RetryAfterInterceptor } from '../auth/sign-in-throttle.js';
@@ -14,13 +15,13 @@ import { IdParam } from '../shared/id-param.decorator.js';
 export class ReviewsController {
   constructor(private readonly reviews: ReviewsService) {}
 
-  @Roles('admin', 'lead', 'technician', 'engineer')
+  @Roles(...LAB_ROLES)
   @Get('reviews/:jobId')
   review(@CurrentUser() user: AuthUser, @IdParam('jobId') jobId: number): Promise<JobReview> {
     return this.reviews.review(user, jobId);
   }
 
-  @Roles('technician', 'lead', 'admin')
+  @Roles(...BENCH_ROLES)
   @Post('jobs/:id/submit')
   @HttpCode(200)
   submit(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Body() body: SubmitJobDto): Promise<JobReview> {

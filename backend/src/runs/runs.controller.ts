@@ -1,6 +1,7 @@
 import { Body, Controller, Get, Patch, Post, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { ListResponse, Run as RunView } from '@kilocycle/common/types';
+import { LAB_ROLES } from '@kilocycle/common/rules';
 import type { AuthUser } from '../auth/auth-user.js';
 import { CurrentUser, Roles } from '../auth/decorators.js';
 import { CreateRunDto, ListRunsQueryDto, UpdateRunDto } from './dto/run.dto.js';
@@ -23,7 +24,7 @@ export class RunsController {
     return this.runs.get(user, id);
   }
 
-  @Roles('admin', 'lead', 'technician', 'engineer')
+  @Roles(...LAB_ROLES)
   @Patch(':id')
   update(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Body() body: UpdateRunDto): Promise<RunView> {
     return this.runs.update(user, id, body);
@@ -42,7 +43,7 @@ export class JobRunsController {
     return this.runs.listForJob(user, jobId, query);
   }
 
-  @Roles('admin', 'lead', 'technician', 'engineer')
+  @Roles(...LAB_ROLES)
   @Post()
   open(@CurrentUser() user: AuthUser, @IdParam('jobId') jobId: number, @Body() body: CreateRunDto): Promise<RunView> {
     return this.runs.open(user, jobId, body);

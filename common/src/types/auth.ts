@@ -1,8 +1,8 @@
 export const ROLES = ['admin', 'lead', 'technician', 'engineer', 'client'] as const;
 export type Role = (typeof ROLES)[number];
 
-/** Roles that belong to the lab itself (everyone but a customer's client). */
-export const LAB_ROLES: readonly Role[] = ['admin', 'lead', 'technician', 'engineer'];
+/** Defined with the other role sets in rules/lab-roles.ts; re-exported here for older imports. */
+export { LAB_ROLES } from '../rules/lab-roles.js';
 
 export const MIN_PASSWORD_LENGTH = 12;
 /** bcrypt hashes only the first 72 bytes of a password: longer ones are refused, not cut. */

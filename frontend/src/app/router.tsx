@@ -4,7 +4,7 @@ import { FullPageSpinner } from '@/components/ui/full-page-spinner';
 import { rolesFor } from '@/config/navigation';
 import { paths } from '@/config/paths';
 import { RequireRole } from '@/lib/auth';
-import { LAB_ROLES } from '@kilocycle/common/types';
+import { LAB_ROLES } from '@kilocycle/common/rules';
 import { setNavigator } from '@/lib/navigator';
 import { AppRoot } from './routes/app-root';
 import { RouteError } from './routes/route-error';

@@ -11,7 +11,8 @@ import StackedLineChartOutlined from '@mui/icons-material/StackedLineChartOutlin
 import WorkspacePremiumOutlined from '@mui/icons-material/WorkspacePremiumOutlined';
 import SpaceDashboardOutlined from '@mui/icons-material/SpaceDashboardOutlined';
 import type SvgIcon from '@mui/material/SvgIcon';
-import { LAB_ROLES, ROLES, type Role } from '@kilocycle/common/types';
+import { LAB_ROLES, STUDY_ROLES } from '@kilocycle/common/rules';
+import { ROLES, type Role } from '@kilocycle/common/types';
 import { paths } from './paths';
 
 export type NavItem = {
@@ -30,7 +31,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { label: 'Benches', path: paths.benches, icon: BuildOutlined, roles: LAB_ROLES },
   { label: 'Review', path: paths.reviews, icon: RateReviewOutlined, roles: ['lead'] },
   { label: 'Certificates', path: paths.certificates, icon: WorkspacePremiumOutlined, roles: ROLES },
-  { label: 'Comparisons', path: paths.comparisons, icon: StackedLineChartOutlined, roles: ['engineer', 'lead'] },
+  { label: 'Comparisons', path: paths.comparisons, icon: StackedLineChartOutlined, roles: STUDY_ROLES },
   { label: 'Procedures', path: paths.procedures, icon: RuleOutlined, roles: ['lead'] },
   { label: 'Outbox', path: paths.adminOutbox, icon: OutboxOutlined, roles: ['admin'] },
   { label: 'Users', path: paths.adminUsers, icon: PeopleOutlined, roles: ['admin'] },

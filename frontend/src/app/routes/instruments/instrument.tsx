@@ -6,6 +6,7 @@ import Button from '@mui/material/Button';
 import Paper from '@mui/material/Paper';
 import Typography from '@mui/material/Typography';
 import { Link as RouterLink, useParams } from 'react-router-dom';
+import { BENCH_ROLES } from '@kilocycle/common/rules';
 import { FullPageSpinner } from '@/components/ui/full-page-spinner';
 import { PageHeader } from '@/components/ui/page-header';
 import { bandPlanPath, paths } from '@/config/paths';
@@ -21,7 +22,6 @@ import { RunsTable } from '@/features/runs/components/runs-table';
 import { ApiError } from '@/lib/api-client';
 import { useCurrentUser } from '@/lib/auth';
 
-const EDIT_ROLES = ['admin', 'lead', 'technician'];
 
 export default function InstrumentRoute() {
   const { instrumentId } = useParams();
@@ -37,7 +37,7 @@ export default function InstrumentRoute() {
     return <Alert severity={missing ? 'info' : 'error'}>{missing ? 'There is no such instrument, or it is not yours to see.' : instrument.error.message}</Alert>;
   }
   const i = instrument.data;
-  const canEdit = EDIT_ROLES.includes(user.role);
+  const canEdit = BENCH_ROLES.includes(user.role);
 
   return (
     <>

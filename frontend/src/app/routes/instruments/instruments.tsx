@@ -1,4 +1,5 @@
 import { MAX_PAGE_SIZE } from '@kilocycle/common/types';
+import { BENCH_ROLES } from '@kilocycle/common/rules';
 import { PageHeader } from '@/components/ui/page-header';
 import { CreateInstrument } from '@/features/instruments/components/instrument-form';
 import { InstrumentsTable } from '@/features/instruments/components/instruments-table';
@@ -6,7 +7,6 @@ import { useOrganizations } from '@/features/organizations/api/get-organizations
 import { useCurrentUser } from '@/lib/auth';
 
 const ALL_ORGANIZATIONS = { pageSize: MAX_PAGE_SIZE, sort: 'name' };
-const EDIT_ROLES = ['admin', 'lead', 'technician'];
 
 export default function InstrumentsRoute() {
   const user = useCurrentUser();
@@ -23,7 +23,7 @@ export default function InstrumentsRoute() {
             ? 'Your organisation’s instruments, with their ranges and when each is next due.'
             : 'Every unit the lab has seen: owner, identification, ranges and recall. Due dates within 30 days are flagged.'
         }
-        actions={EDIT_ROLES.includes(user.role) ? <CreateInstrument owners={owners} /> : undefined}
+        actions={BENCH_ROLES.includes(user.role) ? <CreateInstrument owners={owners} /> : undefined}
       />
       <InstrumentsTable owners={isClient ? [] : owners} />
     </>

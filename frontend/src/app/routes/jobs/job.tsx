@@ -7,7 +7,7 @@ import Paper from '@mui/material/Paper';
 import Typography from '@mui/material/Typography';
 import { useQueryClient } from '@tanstack/react-query';
 import { Link as RouterLink, useNavigate, useParams } from 'react-router-dom';
-import { LAB_ROLES } from '@kilocycle/common/types';
+import { BENCH_ROLES, LAB_ROLES, MANAGER_ROLES, OPEN_JOB_STATUSES } from '@kilocycle/common/rules';
 import { FullPageSpinner } from '@/components/ui/full-page-spinner';
 import { Num } from '@/components/ui/num';
 import { instrumentPath, paths, reviewPath, runPath } from '@/config/paths';
@@ -30,9 +30,6 @@ import { ApiError } from '@/lib/api-client';
 import { useCurrentUser } from '@/lib/auth';
 import { formatDate } from '@/utils/format';
 
-const EDIT_ROLES = ['admin', 'lead', 'technician'];
-const OPEN_STATUSES = ['received', 'in_progress', 'returned'];
-
 export default function JobRoute() {
   const { jobId } = useParams();
   const id = Number(jobId);
@@ -42,7 +39,7 @@ export default function JobRoute() {
   const isLab = LAB_ROLES.includes(user.role);
   const job = useJob({ id });
   const runs = useRuns({ query: { jobId: id, sort: '-startedAt', pageSize: 200 }, enabled: job.isSuccess });
-  const mayOpenRuns = isLab && kindsFor(user.role).length > 0 && OPEN_STATUSES.includes(job.data?.status ?? '');
+  const mayOpenRuns = isLab && kindsFor(user.role).length > 0 && job.data !== undefined && OPEN_JOB_STATUSES.includes(job.data.status);
   const instrument = useInstrument({ id: job.data?.instrumentId ?? 0, enabled: job.isSuccess });
   const benches = useBenches({ query: { active: true, pageSize: 200, sort: 'name' }, enabled: mayOpenRuns });
   const standards = useStandards({ query: { active: true, pageSize: 200, sort: 'name' }, enabled: mayOpenRuns });
@@ -84,7 +81,7 @@ export default function JobRoute() {
       <Box sx={{ display: 'grid', gap: 2 }}>
         <JobDetails
           job={j}
-          canEdit={EDIT_ROLES.includes(user.role)}
+          canEdit={BENCH_ROLES.includes(user.role)}
           technicians={(technicians.data?.items ?? []).map((t) => ({ value: String(t.id), label: t.name }))}
           instrumentLink={
             <Link component={RouterLink} to={instrumentPath(j.instrumentId)}>
@@ -123,7 +120,7 @@ export default function JobRoute() {
           <RunsTable runs={runs.data?.items ?? []} emptyText={runs.isPending ? 'Loading…' : 'No runs yet. Open one to start capturing readings.'} />
         </Paper>
         {runs.data?.items.some((r) => r.kind === 'as_found' || r.kind === 'as_left') && <JobResultsPanel jobId={j.id} />}
-        <AttachmentsPanel owner="job" ownerId={j.id} canUpload={EDIT_ROLES.includes(user.role)} canDelete={user.role === 'lead' || user.role === 'admin'} />
+        <AttachmentsPanel owner="job" ownerId={j.id} canUpload={BENCH_ROLES.includes(user.role)} canDelete={MANAGER_ROLES.includes(user.role)} />
         {isLab && <JobHistory jobId={j.id} />}
       </Box>
     </>

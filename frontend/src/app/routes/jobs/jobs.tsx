@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { BENCH_ROLES } from '@kilocycle/common/rules';
 import { MAX_PAGE_SIZE } from '@kilocycle/common/types';
 import { PageHeader } from '@/components/ui/page-header';
 import { useInstruments } from '@/features/instruments/api/get-instruments';
@@ -9,13 +10,12 @@ import { useUsers } from '@/features/users/api/get-users';
 import { useDebouncedValue } from '@/hooks/use-debounced-value';
 import { useCurrentUser } from '@/lib/auth';
 
-const CREATE_ROLES = ['admin', 'lead', 'technician'];
 const ALL_ORGANIZATIONS = { pageSize: MAX_PAGE_SIZE, sort: 'name' };
 
 export default function JobsRoute() {
   const user = useCurrentUser();
   const isClient = user.role === 'client';
-  const canCreate = CREATE_ROLES.includes(user.role);
+  const canCreate = BENCH_ROLES.includes(user.role);
   const [instrumentSearch, setInstrumentSearch] = useState('');
   const q = useDebouncedValue(instrumentSearch.trim(), 250);
   const instruments = useInstruments({ query: { q: q || undefined, pageSize: 50, sort: 'make' }, enabled: canCreate });

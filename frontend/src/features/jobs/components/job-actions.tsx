@@ -8,14 +8,13 @@ import DialogContentText from '@mui/material/DialogContentText';
 import DialogTitle from '@mui/material/DialogTitle';
 import TextField from '@mui/material/TextField';
 import { useId, useState, type ReactNode } from 'react';
+import { jobTransitionRefusal } from '@kilocycle/common/rules';
 import type { Job, Role } from '@kilocycle/common/types';
 import { FormErrors } from '@/components/ui/form-errors';
 import { ApiError } from '@/lib/api-client';
 import { notify } from '@/lib/notifications';
 import { useSubmitJob } from '../api/submit-job';
 import { useUpdateJob } from '../api/update-job';
-
-const BENCH_ROLES: readonly Role[] = ['admin', 'lead', 'technician'];
 
 function messagesOf(error: unknown) {
   return error instanceof ApiError ? error.messages : error ? ['That did not work. Try again.'] : [];
@@ -41,13 +40,13 @@ export function JobActions({ job, role, reviewLink }: JobActionsProps) {
       setComment('');
     },
   });
-  const atBench = BENCH_ROLES.includes(role);
+  const mayMoveTo = (to: Job['status']) => jobTransitionRefusal(job.status, to, role) === null;
 
   let actions: ReactNode = null;
   let note: ReactNode = null;
   if (role === 'client') {
     note = null;
-  } else if ((job.status === 'received' || job.status === 'returned') && atBench) {
+  } else if (mayMoveTo('in_progress')) {
     actions = (
       <>
         <Button variant="outlined" disabled={update.isPending} onClick={() => update.mutate({ id: job.id, changes: { status: 'in_progress' } })}>
@@ -60,7 +59,7 @@ export function JobActions({ job, role, reviewLink }: JobActionsProps) {
         )}
       </>
     );
-  } else if (job.status === 'in_progress' && atBench) {
+  } else if (mayMoveTo('in_review')) {
     actions = (
       <Button variant="contained" onClick={() => setSubmitting(true)}>
         Submit for review

@@ -12,6 +12,7 @@ import Stack from '@mui/material/Stack';
 import TextField from '@mui/material/TextField';
 import Typography from '@mui/material/Typography';
 import { useId, useState, type ReactNode } from 'react';
+import { LOCKED_JOB_STATUSES } from '@kilocycle/common/rules';
 import type { Job, UpdateJobRequest } from '@kilocycle/common/types';
 import { FormErrors } from '@/components/ui/form-errors';
 import { Num } from '@/components/ui/num';
@@ -121,7 +122,7 @@ type JobDetailsProps = {
 /** The job's customer, instrument, condition as received and environment. */
 export function JobDetails({ job, instrumentLink, canEdit, technicians = [] }: JobDetailsProps) {
   const [editing, setEditing] = useState(false);
-  const locked = job.status === 'approved' || job.status === 'issued';
+  const locked = LOCKED_JOB_STATUSES.includes(job.status);
   return (
     <Paper variant="outlined" sx={{ p: 2 }}>
       <Box sx={{ display: 'flex', alignItems: 'center', mb: 1 }}>

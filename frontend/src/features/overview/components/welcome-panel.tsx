@@ -5,7 +5,7 @@ import CardActionArea from '@mui/material/CardActionArea';
 import Paper from '@mui/material/Paper';
 import Typography from '@mui/material/Typography';
 import { Link as RouterLink } from 'react-router-dom';
-import { LAB_ROLES } from '@kilocycle/common/types';
+import { LAB_ROLES } from '@kilocycle/common/rules';
 import { Num } from '@/components/ui/num';
 import { useOrganization } from '@/features/organizations/api/get-organization';
 import { navItemsFor } from '@/config/navigation';

@@ -22,8 +22,6 @@ import { useUpdateRun } from '../api/update-run';
 
 const MIN_REASON = 3;
 const MIN_OVERRIDE_REASON = 10;
-/** The job states in which a run's details may still be corrected (the server says the same). */
-export const CORRECTABLE_JOB_STATUSES = ['received', 'in_progress', 'returned'];
 
 type Draft = { standardId: string; supplyVoltage: string; configuration: string; notes: string; reason: string; overrideReason: string };
 

@@ -4,6 +4,7 @@ import Link from '@mui/material/Link';
 import Typography from '@mui/material/Typography';
 import { useState, type ReactNode } from 'react';
 import { Link as RouterLink } from 'react-router-dom';
+import { OPEN_JOB_STATUSES } from '@kilocycle/common/rules';
 import type { Run } from '@kilocycle/common/types';
 import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 import { Num } from '@/components/ui/num';
@@ -11,7 +12,7 @@ import { instrumentPath, jobPath } from '@/config/paths';
 import { useCurrentUser } from '@/lib/auth';
 import { formatDateTime } from '@/utils/format';
 import { useUpdateRun } from '../api/update-run';
-import { CORRECTABLE_JOB_STATUSES, CorrectRunDialog } from './correct-run-dialog';
+import { CorrectRunDialog } from './correct-run-dialog';
 import { RunNotes } from './run-notes';
 import { RUN_KIND_LABELS, RunKindChip, RunStatusChip } from './run-labels';
 
@@ -24,7 +25,7 @@ type RunHeaderProps = { run: Run; canWrite: boolean; extra?: ReactNode };
 export function RunHeader({ run, canWrite, extra }: RunHeaderProps) {
   const user = useCurrentUser();
   const [closing, setClosing] = useState(false);
-  const mayCorrect = canWrite && CORRECTABLE_JOB_STATUSES.includes(run.jobStatus);
+  const mayCorrect = canWrite && OPEN_JOB_STATUSES.includes(run.jobStatus);
   const update = useUpdateRun({ onSuccess: () => setClosing(false) });
   return (
     <Box sx={{ mb: 2 }}>
