@@ -1,8 +1,17 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { FIELD_LIMITS } from '@kilocycle/common/rules';
 import type { AmendCertificateRequest, CertificateDetail } from '@kilocycle/common/types';
+import { z } from 'zod';
 import { api } from '@/lib/api-client';
 import { sharedQueryKeys } from '@/lib/query-keys';
 import { getCertificatesQueryOptions } from './get-certificates';
+
+const { reason: REASON } = FIELD_LIMITS.certificate;
+
+/** The written reason an amendment or a withdrawal carries (kept with the certificate and in the audit log). */
+export const certificateReasonSchema = z.object({
+  reason: z.string().trim().min(REASON.min, 'Give the reason in a few words').max(REASON.max, `At most ${REASON.max} characters`),
+});
 
 export type AmendCertificateInput = { id: number } & AmendCertificateRequest;
 

@@ -3,16 +3,10 @@ import Switch from '@mui/material/Switch';
 import Typography from '@mui/material/Typography';
 import { useState } from 'react';
 import type { Certificate } from '@kilocycle/common/types';
-import { ApiError } from '@/lib/api-client';
 import { notify } from '@/lib/notifications';
 import { useAmendCertificate } from '../api/amend-certificate';
 import { useWithdrawCertificate } from '../api/withdraw-certificate';
 import { ReasonDialog } from './reason-dialog';
-
-function messagesOf(error: unknown): string[] {
-  if (!error) return [];
-  return error instanceof ApiError ? error.messages : ['That did not work. Try again.'];
-}
 
 type CertificateActionsProps = { certificate: Certificate | null; action: 'amend' | 'withdraw' | null; onClose: () => void };
 
@@ -60,10 +54,9 @@ export function CertificateActions({ certificate, action, onClose }: Certificate
         reasonLabel="Reason for the amendment"
         confirmLabel={amend.isPending ? 'Reopening…' : 'Open a new revision'}
         busy={amend.isPending}
-        errors={messagesOf(amend.error)}
+        error={amend.error}
         extra={
           <FormControlLabel
-            sx={{ mt: 1 }}
             control={<Switch checked={rework} onChange={(e) => setRework(e.target.checked)} />}
             label={rework ? 'The job goes back to the technician for rework' : 'Straight back to review (no new measurements)'}
           />
@@ -84,7 +77,7 @@ export function CertificateActions({ certificate, action, onClose }: Certificate
         confirmLabel={withdraw.isPending ? 'Withdrawing…' : 'Withdraw certificate'}
         destructive
         busy={withdraw.isPending}
-        errors={messagesOf(withdraw.error)}
+        error={withdraw.error}
         onConfirm={(reason) => withdraw.mutate({ id: certificate.id, reason })}
         onClose={close}
       />

@@ -1,11 +1,18 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { FIELD_LIMITS } from '@kilocycle/common/rules';
 import { SIGNING_MEANING, type CertificateDetail } from '@kilocycle/common/types';
+import { z } from 'zod';
 import { api } from '@/lib/api-client';
 import { sharedQueryKeys } from '@/lib/query-keys';
 import { getReviewQueryOptions } from './get-review';
 import { invalidateJobEverywhere } from './invalidate-job';
 
 export type SignJobInput = { jobId: number; password: string };
+
+/** The signing form: the lead's password typed again (not trimmed: it is sent as typed). */
+export const signJobSchema = z.object({
+  password: z.string().min(1, 'Enter your password to sign').max(FIELD_LIMITS.review.password.max, `At most ${FIELD_LIMITS.review.password.max} characters`),
+});
 
 /**
  * Signs with the lead's password typed again. A refused password must not end the session, so neither 401
