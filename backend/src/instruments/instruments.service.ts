@@ -12,22 +12,9 @@ import type { CreateInstrumentDto, ListInstrumentsQueryDto, RangeInputDto, Updat
 import { InstrumentRange } from './instrument-range.entity.js';
 import { Instrument } from './instrument.entity.js';
 import { assertRanges, measurementFieldsDiffer } from './range-rules.js';
+import { toRangeView } from './range-view.js';
 
-export function toRangeView(r: InstrumentRange): RangeView {
-  return {
-    id: r.id,
-    position: r.position,
-    label: r.label,
-    dialUnit: r.dialUnit,
-    dialLaw: r.dialLaw,
-    dialMin: r.dialMin,
-    dialMax: r.dialMax,
-    freqMinHz: r.freqMinHz,
-    freqMaxHz: r.freqMaxHz,
-    tolerance: r.tolerance,
-    multipliers: r.multipliers,
-  };
-}
+export { toRangeView };
 
 export function toInstrumentView(i: Instrument, ranges: InstrumentRange[]): InstrumentView {
   return {

@@ -1,5 +1,5 @@
 import type { CounterCapture } from '../types/captures.js';
-import type { DialUnit, IngestAck, Reading, ReadingAuthor, ReadingInput, RunKind } from '../types/lab.js';
+import type { IngestAck, RangeSpan, Reading, ReadingAuthor, ReadingInput, RunKind } from '../types/lab.js';
 
 /** Socket.io namespaces and event names shared by the server, the bridge and the browser. */
 export const NAMESPACES = { ingest: '/ingest', live: '/live' } as const;
@@ -77,7 +77,7 @@ export type AttachAck = {
   startedAt: string;
   benchId: number;
   benchName: string;
-  range: { label: string; dialUnit: DialUnit; dialMin: number; dialMax: number; freqMinHz: number; freqMaxHz: number };
+  range: RangeSpan;
 };
 export type AttachReply = AttachAck | Refusal;
 

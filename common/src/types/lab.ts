@@ -37,6 +37,9 @@ export type InstrumentRange = {
 
 export type RangeInput = Omit<InstrumentRange, 'id' | 'position'> & { id?: number };
 
+/** What a bench or a capture needs to know of a range: its label, dial and frequency span. */
+export type RangeSpan = Pick<InstrumentRange, 'label' | 'dialUnit' | 'dialMin' | 'dialMax' | 'freqMinHz' | 'freqMaxHz'>;
+
 export type Instrument = {
   id: number;
   organizationId: number;

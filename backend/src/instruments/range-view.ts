@@ -1,0 +1,19 @@
+import type { InstrumentRange as RangeView } from '@kilocycle/common/types';
+import type { InstrumentRange } from './instrument-range.entity.js';
+
+/** The one mapping of a stored range to the range shape of `common` (the API, signed records, job results). */
+export function toRangeView(r: InstrumentRange): RangeView {
+  return {
+    id: r.id,
+    position: r.position,
+    label: r.label,
+    dialUnit: r.dialUnit,
+    dialLaw: r.dialLaw,
+    dialMin: r.dialMin,
+    dialMax: r.dialMax,
+    freqMinHz: r.freqMinHz,
+    freqMaxHz: r.freqMaxHz,
+    tolerance: r.tolerance,
+    multipliers: r.multipliers,
+  };
+}
