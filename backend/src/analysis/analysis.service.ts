@@ -13,6 +13,7 @@ import {
   MetrologyError,
   modifiedAdev,
   overlappingAdev,
+  sampleMean,
   supplySensitivity,
   warmupSettling,
   warmupSummary,
@@ -36,7 +37,7 @@ import type { InstrumentRange } from '../instruments/instrument-range.entity.js'
 import { RunsService } from '../runs/runs.service.js';
 import { LruCache } from './analysis-cache.js';
 import type { RunAnalysisQueryDto } from './dto/analysis-query.dto.js';
-import { includedByTime, RunSeriesLoader, type RunCounts, type RunSeries } from './run-series.loader.js';
+import { includedByTime, RunSeriesLoader, type RunCounts, type RunSeries, type SeriesColumns } from './run-series.loader.js';
 
 export const DEFAULT_SETTLING_WITHIN_HZ = 5;
 export const DEFAULT_SETTLING_RATE_HZ_PER_MIN = 1;
@@ -57,10 +58,7 @@ export class AnalysisService {
 
   async analyse(actor: AuthUser, runId: number, query: RunAnalysisQueryDto): Promise<RunAnalysis> {
     const run = await this.runs.findVisible(actor, runId);
-    const columns = {
-      dial: run.kind === 'as_found' || run.kind === 'as_left',
-      aux: run.kind === 'supply_sensitivity' || run.kind === 'keying',
-    };
+    const columns = seriesColumns(run.kind);
     // Nothing of this run is cached, so it must be read whatever it counts: read it while it is counted.
     const runPrefix = `${runId}|`;
     const early = this.results.hasPrefix(runPrefix) || this.series.hasPrefix(runPrefix) ? null : this.loader.load(runId, 0, columns);
@@ -95,6 +93,21 @@ export class AnalysisService {
       series.count === countExcluded(series) ? { ...basis(0), state: 'empty', analysis: 'none' } : this.byKind(run.kind, run.range, series, basis, query);
     if (series.count === counts.readingCount && countExcluded(series) === counts.excludedCount) this.results.set(resultKey, result);
     return result;
+  }
+
+  /**
+   * A run's included readings in time order, through the one loader and the same cache of the last series as
+   * analyse(): what comparisons study per run. The columns read follow the run's kind, as analyse() reads them.
+   */
+  async includedSeries(runId: number, kind: RunKind): Promise<{ readingCount: number; t: Float64Array; frequency: Float64Array; aux: Float64Array }> {
+    const counts = await this.loader.counts(runId);
+    const seriesKey = `${runId}|${counts.readingCount}|${counts.excludedCount}`;
+    let series = this.series.get(seriesKey);
+    if (!series) {
+      series = await this.loader.load(runId, counts.readingCount, seriesColumns(kind));
+      if (series.count === counts.readingCount && countExcluded(series) === counts.excludedCount) this.series.set(seriesKey, series);
+    }
+    return { readingCount: series.count, ...includedByTime(series) };
   }
 
   private byKind(kind: RunKind, range: InstrumentRange, series: RunSeries, basis: (used: number) => ReadyAnalysisBasis, query: RunAnalysisQueryDto): RunAnalysis {
@@ -210,7 +223,7 @@ export class AnalysisService {
     const tau0 = detectGaps(t, 1).medianInterval;
     if (!(tau0 > 0)) throw new MetrologyError('not_sorted', 'the readings of this run share one time stamp, so they have no interval');
     const gaps = detectGaps(t, tau0);
-    const referenceHz = query.referenceHz ?? mean(frequency);
+    const referenceHz = query.referenceHz ?? sampleMean(frequency);
     const y = fractionalFrequency(frequency, referenceHz);
     const shown = downsampleLttb(t, frequency, MAX_SERIES_POINTS);
     return {
@@ -227,13 +240,7 @@ export class AnalysisService {
 
   private supply(series: RunSeries, basis: (used: number) => ReadyAnalysisBasis): SupplySensitivityRunAnalysis {
     const { t, frequency, aux } = includedByTime(series);
-    const volts: number[] = [];
-    const frequencies: number[] = [];
-    for (let i = 0; i < t.length; i++) {
-      if (Number.isNaN(aux[i]!)) continue;
-      volts.push(aux[i]!);
-      frequencies.push(frequency[i]!);
-    }
+    const { volts, frequencies } = supplyPairs(frequency, aux);
     if (volts.length === 0) throw new UnprocessableEntityException('a supply-sensitivity run needs the supply voltage of each reading in aux');
     const shown = downsampleLttb(t, frequency, MAX_SERIES_POINTS);
     return {
@@ -246,12 +253,7 @@ export class AnalysisService {
 
   private keying(series: RunSeries, basis: (used: number) => ReadyAnalysisBasis): KeyingRunAnalysis {
     const { t, frequency, aux } = includedByTime(series);
-    const up: number[] = [];
-    const down: number[] = [];
-    for (let i = 0; i < t.length; i++) {
-      if (aux[i] === 0) up.push(frequency[i]!);
-      else if (aux[i] === 1) down.push(frequency[i]!);
-    }
+    const { up, down } = keyingSides(frequency, aux);
     if (up.length === 0 || down.length === 0) {
       throw new UnprocessableEntityException('a keying run needs readings with the key up (aux 0) and down (aux 1)');
     }
@@ -265,14 +267,36 @@ export class AnalysisService {
   }
 }
 
+/** The optional columns an analysis of this kind reads: the dial for a calibration, aux for supply and keying runs. */
+function seriesColumns(kind: RunKind): SeriesColumns {
+  return { dial: kind === 'as_found' || kind === 'as_left', aux: kind === 'supply_sensitivity' || kind === 'keying' };
+}
+
 function countExcluded(series: RunSeries): number {
   let n = 0;
   for (let i = 0; i < series.count; i++) n += series.excluded[i]!;
   return n;
 }
 
-function mean(values: Float64Array): number {
-  let sum = 0;
-  for (let i = 0; i < values.length; i++) sum += values[i]!;
-  return sum / values.length;
+/** The included readings that carry a supply voltage (aux), as voltage and frequency pairs. */
+export function supplyPairs(frequency: ArrayLike<number>, aux: ArrayLike<number>): { volts: number[]; frequencies: number[] } {
+  const volts: number[] = [];
+  const frequencies: number[] = [];
+  for (let i = 0; i < frequency.length; i++) {
+    if (Number.isNaN(aux[i]!)) continue;
+    volts.push(aux[i]!);
+    frequencies.push(frequency[i]!);
+  }
+  return { volts, frequencies };
+}
+
+/** The included readings with the key up (aux 0) and down (aux 1). */
+export function keyingSides(frequency: ArrayLike<number>, aux: ArrayLike<number>): { up: number[]; down: number[] } {
+  const up: number[] = [];
+  const down: number[] = [];
+  for (let i = 0; i < frequency.length; i++) {
+    if (aux[i] === 0) up.push(frequency[i]!);
+    else if (aux[i] === 1) down.push(frequency[i]!);
+  }
+  return { up, down };
 }

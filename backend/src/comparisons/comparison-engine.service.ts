@@ -1,6 +1,4 @@
 import { BadRequestException, Injectable, NotFoundException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import type { DataSource } from 'typeorm';
 import {
   adevEstimate,
   coverageFactor,
@@ -12,12 +10,13 @@ import {
   fitWarmup,
   fractionalFrequency,
   keyingShift,
+  meanEstimate,
   MetrologyError,
   overlappingAdev,
   overlappingAdevAt,
+  sampleMean,
   settlingTime,
   settlingTimeUncertainty,
-  summariseSample,
   supplySensitivity,
   warmupCovariance,
   welchFromEstimates,
@@ -48,8 +47,10 @@ import {
   type RunKind,
   type SupplySensitivityEntry,
 } from '@kilocycle/common/types';
-import { includedByTime, RunSeriesLoader } from '../analysis/run-series.loader.js';
-import { instrumentLabel } from '../instruments/instruments.service.js';
+import { AnalysisService, keyingSides, supplyPairs } from '../analysis/analysis.service.js';
+import { InstrumentComparisonReader } from '../instruments/instrument-comparison.reader.js';
+import { JobComparisonReader } from '../jobs/job-comparison.reader.js';
+import { RunComparisonReader, type ComparedRunRow } from '../runs/run-comparison.reader.js';
 import { ADEV_QUANTITY_TAU, COMPARISON_ROWS, engineeringExponent, powerOfTenText } from './comparison-rows.js';
 
 /** Points of the fitted curve drawn from power-on to the last reading. */
@@ -122,8 +123,10 @@ function interval(estimate: Estimate, confidence = COMPARISON_CONFIDENCE): Compa
 @Injectable()
 export class ComparisonEngine {
   constructor(
-    @InjectDataSource() private readonly dataSource: DataSource,
-    private readonly loader: RunSeriesLoader,
+    private readonly analysis: AnalysisService,
+    private readonly runs: RunComparisonReader,
+    private readonly jobs: JobComparisonReader,
+    private readonly instruments: InstrumentComparisonReader,
   ) {}
 
   /** Checks that the runs can be compared: 2–6 distinct, all found, one instrument, all warm-up or all stability. */
@@ -180,85 +183,45 @@ export class ComparisonEngine {
   async sensitivity(instrumentId: number, label?: string): Promise<InstrumentSensitivity> {
     let instrumentName = label;
     if (instrumentName === undefined) {
-      const [row] = await this.dataSource.query('SELECT make, model, serial FROM instruments WHERE id = ?', [instrumentId]);
-      if (!row) throw new NotFoundException(`Instrument ${instrumentId} not found`);
-      instrumentName = instrumentLabel(row);
+      instrumentName = (await this.instruments.labels([instrumentId])).get(instrumentId);
+      if (instrumentName === undefined) throw new NotFoundException(`Instrument ${instrumentId} not found`);
     }
-    const runs: Array<Record<string, unknown>> = await this.dataSource.query(
-      `SELECT r.id, r.kind, r.started_at, r.configuration, j.number, g.label
-         FROM runs r JOIN jobs j ON j.id = r.job_id JOIN instrument_ranges g ON g.id = r.range_id
-        WHERE j.instrument_id = ? AND r.kind IN ('supply_sensitivity', 'keying')
-        ORDER BY r.started_at DESC, r.id DESC`,
-      [instrumentId],
-    );
+    const jobs = await this.jobs.ofInstrument(instrumentId);
+    const runs = await this.runs.ofJobs([...jobs.keys()], ['supply_sensitivity', 'keying']);
+    const rangeLabels = await this.instruments.rangeLabels(runs.map((r) => r.rangeId));
     const supply: SupplySensitivityEntry[] = [];
     const keying: KeyingEntry[] = [];
     for (const run of runs) {
       const isSupply = run.kind === 'supply_sensitivity';
       if ((isSupply ? supply.length : keying.length) >= SENSITIVITY_RUNS) continue;
-      const runId = Number(run.id);
-      const base = { runId, jobNumber: String(run.number), rangeLabel: String(run.label), startedAt: new Date(run.started_at as string).toISOString(), configuration: (run.configuration as string | null) ?? null };
-      const counts = await this.loader.counts(runId);
-      const { frequency, aux } = includedByTime(await this.loader.load(runId, counts.readingCount));
-      if (isSupply) {
-        const volts: number[] = [];
-        const freqs: number[] = [];
-        for (let i = 0; i < frequency.length; i++) {
-          if (Number.isNaN(aux[i]!)) continue;
-          volts.push(aux[i]!);
-          freqs.push(frequency[i]!);
-        }
-        try {
-          supply.push({ ...base, ...supplySensitivity(volts, freqs), problem: null });
-        } catch (error) {
-          supply.push({ ...base, hzPerVolt: null, seHzPerVolt: null, n: volts.length, problem: `${problemText(error)} (each reading needs its supply voltage in aux)` });
-        }
-      } else {
-        const up: number[] = [];
-        const down: number[] = [];
-        for (let i = 0; i < frequency.length; i++) {
-          if (aux[i] === 0) up.push(frequency[i]!);
-          else if (aux[i] === 1) down.push(frequency[i]!);
-        }
-        try {
-          keying.push({ ...base, shift: keyingShift(up, down), problem: null });
-        } catch (error) {
-          keying.push({ ...base, shift: null, problem: `${problemText(error)} (readings need aux 0 with the key up and 1 with it down)` });
-        }
-      }
+      const base = { runId: run.id, jobNumber: jobs.get(run.jobId)!.number, rangeLabel: rangeLabels.get(run.rangeId) ?? '', startedAt: run.startedAt.toISOString(), configuration: run.configuration };
+      const { frequency, aux } = await this.analysis.includedSeries(run.id, run.kind);
+      if (isSupply) supply.push(supplyEntry(base, frequency, aux));
+      else keying.push(keyingEntry(base, frequency, aux));
     }
     return { instrumentId, instrumentLabel: instrumentName, supplySensitivity: supply, keying };
   }
 
+  /** The runs with their job, range and instrument, read from their owners (ids not found are absent). */
   private async metas(runIds: readonly number[]): Promise<RunMeta[]> {
-    const rows: Array<Record<string, unknown>> = await this.dataSource.query(
-      `SELECT r.id, r.kind, r.job_id, r.range_id, r.started_at, r.ended_at, r.configuration, r.notes, r.supply_voltage,
-              j.number AS job_number, j.instrument_id, g.label AS range_label, i.make, i.model, i.serial
-         FROM runs r JOIN jobs j ON j.id = r.job_id JOIN instrument_ranges g ON g.id = r.range_id JOIN instruments i ON i.id = j.instrument_id
-        WHERE r.id IN (?)`,
-      [runIds],
-    );
-    return rows.map((row) => ({
-      id: Number(row.id),
-      kind: row.kind as RunKind,
-      jobId: Number(row.job_id),
-      jobNumber: String(row.job_number),
-      instrumentId: Number(row.instrument_id),
-      instrumentLabel: instrumentLabel({ make: String(row.make), model: String(row.model), serial: String(row.serial) }),
-      rangeId: Number(row.range_id),
-      rangeLabel: String(row.range_label),
-      startedAt: new Date(row.started_at as string),
-      endedAt: row.ended_at === null ? null : new Date(row.ended_at as string),
-      configuration: (row.configuration as string | null) ?? null,
-      notes: (row.notes as string | null) ?? null,
-      supplyVoltage: row.supply_voltage === null ? null : Number(row.supply_voltage),
-    }));
+    const runs = await this.runs.runs(runIds);
+    const jobs = await this.jobs.jobs(runs.map((r) => r.jobId));
+    const rangeLabels = await this.instruments.rangeLabels(runs.map((r) => r.rangeId));
+    const instrumentLabels = await this.instruments.labels([...jobs.values()].map((j) => j.instrumentId));
+    return runs.map((run: ComparedRunRow) => {
+      const job = jobs.get(run.jobId)!;
+      return {
+        ...run,
+        jobNumber: job.number,
+        instrumentId: job.instrumentId,
+        instrumentLabel: instrumentLabels.get(job.instrumentId) ?? '',
+        rangeLabel: rangeLabels.get(run.rangeId) ?? '',
+      };
+    });
   }
 
   private async prepare(meta: RunMeta, label: string, kind: ComparableRunKind, withinHz: number): Promise<Prepared> {
-    const counts = await this.loader.counts(meta.id);
-    const series = await this.loader.load(meta.id, counts.readingCount, { dial: false, aux: false });
-    const { t, frequency } = includedByTime(series);
+    const { readingCount, t, frequency } = await this.analysis.includedSeries(meta.id, meta.kind);
     let fit: WarmupFit | null = null;
     let fitProblem: string | null = null;
     if (kind === 'warmup') {
@@ -280,7 +243,7 @@ export class ComparisonEngine {
       settledIndex = 0;
       while (settledIndex < t.length && t[settledIndex]! < settledFrom) settledIndex++;
     }
-    return { meta, label, withinHz, readingCount: series.count, t, f: frequency, fit, fitProblem, settledIndex, settledFrom };
+    return { meta, label, withinHz, readingCount, t, f: frequency, fit, fitProblem, settledIndex, settledFrom };
   }
 
   /** The default window: 600 s, or a third of the shortest settled part when that is under 30 min (whole seconds). */
@@ -294,89 +257,13 @@ export class ComparisonEngine {
     return Math.max(1, Math.floor(shortest / WINDOWS_WANTED));
   }
 
+  /** One run's estimates and curves: the warm-up fit's quantities, then the settled part's drift rate and Allan deviations. */
   private study(p: Prepared, kind: ComparableRunKind, windowSeconds: number): RunOutcome {
     const estimates: RunOutcome['estimates'] = {};
     const problems: RunOutcome['problems'] = {};
-    const { t, f, fit } = p;
-    const n = t.length;
-
-    if (fit) {
-      const df = fit.n - 3;
-      estimates.tau = interval({ value: fit.tau, se: fit.seTau, df });
-      estimates.amplitude = interval({ value: fit.amplitude, se: fit.seAmplitude, df });
-      estimates.fInf = interval({ value: fit.fInf, se: fit.seFInf, df });
-      try {
-        const settling = settlingTimeUncertainty(fit, warmupCovariance(t, fit), p.withinHz);
-        estimates.settlingTime = interval({ value: settling.seconds, se: settling.se, df: settling.df });
-      } catch (error) {
-        problems.settlingTime = problemText(error);
-      }
-    } else if (p.fitProblem) {
-      for (const q of ['tau', 'amplitude', 'fInf', 'settlingTime'] as const) problems[q] = p.fitProblem;
-    }
-
-    let driftWindows: DriftWindow[] = [];
-    let stability: ComparedRun['stability'] = null;
-    let stabilityProblem: string | null = null;
-    const notSettled = `the run does not settle within ${p.withinHz} Hz before its last reading`;
-    if (p.settledIndex === null || n - p.settledIndex < 3) {
-      const reason = p.settledIndex === null ? notSettled : 'fewer than 3 readings after settling';
-      problems.settledDriftRate = reason;
-      for (const q of ['adev1s', 'adev10s', 'adev100s'] as const) problems[q] = reason;
-      stabilityProblem = reason;
-    } else {
-      const ts = t.subarray(p.settledIndex);
-      const fs = f.subarray(p.settledIndex);
-      try {
-        driftWindows = driftRateWindows(ts, fs, windowSeconds);
-        if (driftWindows.length < 2) {
-          problems.settledDriftRate = `the settled part holds ${driftWindows.length} window of ${windowSeconds} s; a standard error needs two or more`;
-        } else {
-          const summary = summariseSample(driftWindows.map((w) => w.rateHzPerMin));
-          estimates.settledDriftRate = interval({ value: summary.mean, se: summary.sd / Math.sqrt(summary.n), df: summary.n - 1 });
-        }
-      } catch (error) {
-        problems.settledDriftRate = problemText(error);
-      }
-      try {
-        const tau0 = detectGaps(ts, 1).medianInterval;
-        if (!(tau0 > 0)) throw new MetrologyError('not_sorted', 'the settled readings share one time stamp, so they have no interval');
-        const gaps = detectGaps(ts, tau0);
-        let sum = 0;
-        for (let i = 0; i < fs.length; i++) sum += fs[i]!;
-        const referenceHz = sum / fs.length;
-        const y = fractionalFrequency(fs, referenceHz);
-        const options = { confidence: COMPARISON_CONFIDENCE };
-        stability = { tau0, fromSeconds: ts[0]!, referenceHz, gapCount: gaps.gaps.length, irregular: gaps.irregular, adev: overlappingAdev(y, tau0, options) };
-        const at = overlappingAdevAt(y, tau0, COMPARISON_ADEV_TAUS, options);
-        for (const quantity of ['adev1s', 'adev10s', 'adev100s'] as const) {
-          const tau = ADEV_QUANTITY_TAU[quantity]!;
-          const point = at[COMPARISON_ADEV_TAUS.indexOf(tau as (typeof COMPARISON_ADEV_TAUS)[number])];
-          if (!point) {
-            problems[quantity] = `the readings (every ${round(tau0)} s, ${round(ts[ts.length - 1]! - ts[0]!)} s settled) do not give τ = ${tau} s`;
-            continue;
-          }
-          estimates[quantity] = { ...adevEstimate(point), low: point.ciLow, high: point.ciHigh };
-        }
-      } catch (error) {
-        stabilityProblem = problemText(error);
-        for (const q of ['adev1s', 'adev10s', 'adev100s'] as const) problems[q] = stabilityProblem;
-      }
-    }
-
-    const reference: ComparedRun['reference'] = fit ? { kind: 'f_inf', hz: fit.fInf } : { kind: 'mean', hz: n > 0 ? mean(f) : 0 };
-    const curve = (x: ArrayLike<number>, y: ArrayLike<number>): ComparisonCurve => ({
-      t: Array.from(x),
-      frequency: Array.from(y),
-      deviation: Array.from(y, (v) => v - reference.hz),
-    });
-    const shown = n >= 3 ? downsampleLttb(t, f, MAX_SERIES_POINTS) : { x: Array.from(t), y: Array.from(f) };
-    let fitted: ComparisonCurve | null = null;
-    if (fit && n > 0) {
-      const last = t[n - 1]!;
-      const times = Array.from({ length: FITTED_POINTS }, (_, i) => (last * i) / (FITTED_POINTS - 1));
-      fitted = curve(times, times.map((time) => evaluateWarmup(fit, time)));
-    }
+    fitEstimates(p, estimates, problems);
+    const settled = settledEstimates(p, windowSeconds, estimates, problems);
+    const { reference, points, fitted } = runCurves(p);
     const meta = p.meta;
     return {
       estimates,
@@ -395,16 +282,14 @@ export class ComparisonEngine {
         notes: meta.notes,
         supplyVoltage: meta.supplyVoltage,
         readingCount: p.readingCount,
-        usedCount: n,
-        fit,
+        usedCount: p.t.length,
+        fit: p.fit,
         fitProblem: p.fitProblem,
         reference,
-        points: curve(shown.x, shown.y),
+        points,
         fitted,
         settledFromSeconds: p.settledFrom,
-        driftWindows,
-        stability,
-        stabilityProblem,
+        ...settled,
       },
     };
   }
@@ -436,10 +321,126 @@ export class ComparisonEngine {
   }
 }
 
-function mean(values: ArrayLike<number>): number {
-  let sum = 0;
-  for (let i = 0; i < values.length; i++) sum += values[i]!;
-  return sum / values.length;
+type Estimates = RunOutcome['estimates'];
+type Problems = RunOutcome['problems'];
+const ADEV_QUANTITIES = ['adev1s', 'adev10s', 'adev100s'] as const;
+
+/** τ, A, f∞ with the fit's standard errors (ν = n − 3), and the settling time by the delta method. */
+function fitEstimates(p: Prepared, estimates: Estimates, problems: Problems): void {
+  const { fit } = p;
+  if (!fit) {
+    if (p.fitProblem) for (const q of ['tau', 'amplitude', 'fInf', 'settlingTime'] as const) problems[q] = p.fitProblem;
+    return;
+  }
+  const df = fit.n - 3;
+  estimates.tau = interval({ value: fit.tau, se: fit.seTau, df });
+  estimates.amplitude = interval({ value: fit.amplitude, se: fit.seAmplitude, df });
+  estimates.fInf = interval({ value: fit.fInf, se: fit.seFInf, df });
+  try {
+    const settling = settlingTimeUncertainty(fit, warmupCovariance(p.t, fit), p.withinHz);
+    estimates.settlingTime = interval({ value: settling.seconds, se: settling.se, df: settling.df });
+  } catch (error) {
+    problems.settlingTime = problemText(error);
+  }
+}
+
+/** The settled part's drift windows and rate, and its Allan deviation; a run that does not settle has neither. */
+function settledEstimates(p: Prepared, windowSeconds: number, estimates: Estimates, problems: Problems): Pick<ComparedRun, 'driftWindows' | 'stability' | 'stabilityProblem'> {
+  const n = p.t.length;
+  if (p.settledIndex === null || n - p.settledIndex < 3) {
+    const reason = p.settledIndex === null ? `the run does not settle within ${p.withinHz} Hz before its last reading` : 'fewer than 3 readings after settling';
+    problems.settledDriftRate = reason;
+    for (const q of ADEV_QUANTITIES) problems[q] = reason;
+    return { driftWindows: [], stability: null, stabilityProblem: reason };
+  }
+  const ts = p.t.subarray(p.settledIndex);
+  const fs = p.f.subarray(p.settledIndex);
+  const driftWindows = driftEstimate(ts, fs, windowSeconds, estimates, problems);
+  try {
+    return { driftWindows, stability: adevEstimates(ts, fs, estimates, problems), stabilityProblem: null };
+  } catch (error) {
+    const stabilityProblem = problemText(error);
+    for (const q of ADEV_QUANTITIES) problems[q] = stabilityProblem;
+    return { driftWindows, stability: null, stabilityProblem };
+  }
+}
+
+/** The mean of the per-window rates over back-to-back windows, se = s/√k, ν = k − 1 (common's meanEstimate). */
+function driftEstimate(ts: Float64Array, fs: Float64Array, windowSeconds: number, estimates: Estimates, problems: Problems): DriftWindow[] {
+  try {
+    const windows = driftRateWindows(ts, fs, windowSeconds);
+    if (windows.length < 2) {
+      problems.settledDriftRate = `the settled part holds ${windows.length} window of ${windowSeconds} s; a standard error needs two or more`;
+    } else {
+      estimates.settledDriftRate = interval(meanEstimate(windows.map((w) => w.rateHzPerMin)));
+    }
+    return windows;
+  } catch (error) {
+    problems.settledDriftRate = problemText(error);
+    return [];
+  }
+}
+
+/** Allan deviation over the settled part at its octaves and at 1, 10 and 100 s (throws a MetrologyError when it has no interval). */
+function adevEstimates(ts: Float64Array, fs: Float64Array, estimates: Estimates, problems: Problems): NonNullable<ComparedRun['stability']> {
+  const tau0 = detectGaps(ts, 1).medianInterval;
+  if (!(tau0 > 0)) throw new MetrologyError('not_sorted', 'the settled readings share one time stamp, so they have no interval');
+  const gaps = detectGaps(ts, tau0);
+  const referenceHz = sampleMean(fs);
+  const y = fractionalFrequency(fs, referenceHz);
+  const options = { confidence: COMPARISON_CONFIDENCE };
+  const stability = { tau0, fromSeconds: ts[0]!, referenceHz, gapCount: gaps.gaps.length, irregular: gaps.irregular, adev: overlappingAdev(y, tau0, options) };
+  const at = overlappingAdevAt(y, tau0, COMPARISON_ADEV_TAUS, options);
+  for (const quantity of ADEV_QUANTITIES) {
+    const tau = ADEV_QUANTITY_TAU[quantity]!;
+    const point = at[COMPARISON_ADEV_TAUS.indexOf(tau as (typeof COMPARISON_ADEV_TAUS)[number])];
+    if (!point) {
+      problems[quantity] = `the readings (every ${round(tau0)} s, ${round(ts[ts.length - 1]! - ts[0]!)} s settled) do not give τ = ${tau} s`;
+      continue;
+    }
+    estimates[quantity] = { ...adevEstimate(point), low: point.ciLow, high: point.ciHigh };
+  }
+  return stability;
+}
+
+/** The run's readings (downsampled) and fitted curve as frequency and deviation from its reference (f∞, else the mean). */
+function runCurves(p: Prepared): Pick<ComparedRun, 'reference' | 'points' | 'fitted'> {
+  const { t, f, fit } = p;
+  const n = t.length;
+  const reference: ComparedRun['reference'] = fit ? { kind: 'f_inf', hz: fit.fInf } : { kind: 'mean', hz: n > 0 ? sampleMean(f) : 0 };
+  const curve = (x: ArrayLike<number>, y: ArrayLike<number>): ComparisonCurve => ({
+    t: Array.from(x),
+    frequency: Array.from(y),
+    deviation: Array.from(y, (v) => v - reference.hz),
+  });
+  const shown = n >= 3 ? downsampleLttb(t, f, MAX_SERIES_POINTS) : { x: Array.from(t), y: Array.from(f) };
+  let fitted: ComparisonCurve | null = null;
+  if (fit && n > 0) {
+    const last = t[n - 1]!;
+    const times = Array.from({ length: FITTED_POINTS }, (_, i) => (last * i) / (FITTED_POINTS - 1));
+    fitted = curve(times, times.map((time) => evaluateWarmup(fit, time)));
+  }
+  return { reference, points: curve(shown.x, shown.y), fitted };
+}
+
+type SensitivityBase = Omit<SupplySensitivityEntry, 'hzPerVolt' | 'seHzPerVolt' | 'n' | 'problem'>;
+
+function supplyEntry(base: SensitivityBase, frequency: Float64Array, aux: Float64Array): SupplySensitivityEntry {
+  const { volts, frequencies } = supplyPairs(frequency, aux);
+  try {
+    return { ...base, ...supplySensitivity(volts, frequencies), problem: null };
+  } catch (error) {
+    return { ...base, hzPerVolt: null, seHzPerVolt: null, n: volts.length, problem: `${problemText(error)} (each reading needs its supply voltage in aux)` };
+  }
+}
+
+function keyingEntry(base: SensitivityBase, frequency: Float64Array, aux: Float64Array): KeyingEntry {
+  const { up, down } = keyingSides(frequency, aux);
+  try {
+    return { ...base, shift: keyingShift(up, down), problem: null };
+  } catch (error) {
+    return { ...base, shift: null, problem: `${problemText(error)} (readings need aux 0 with the key up and 1 with it down)` };
+  }
 }
 
 function round(value: number): number {

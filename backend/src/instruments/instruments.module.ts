@@ -4,12 +4,13 @@ import { InstrumentRange } from './instrument-range.entity.js';
 import { Instrument } from './instrument.entity.js';
 import { InstrumentsController } from './instruments.controller.js';
 import { InstrumentsService } from './instruments.service.js';
+import { InstrumentComparisonReader } from './instrument-comparison.reader.js';
 import { RangeResultsReader } from './range-results.reader.js';
 
 @Module({
   imports: [TypeOrmModule.forFeature([Instrument, InstrumentRange])],
   controllers: [InstrumentsController],
-  providers: [InstrumentsService, RangeResultsReader],
-  exports: [InstrumentsService, RangeResultsReader],
+  providers: [InstrumentsService, RangeResultsReader, InstrumentComparisonReader],
+  exports: [InstrumentsService, RangeResultsReader, InstrumentComparisonReader],
 })
 export class InstrumentsModule {}

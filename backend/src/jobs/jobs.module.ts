@@ -1,6 +1,7 @@
 import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { Job } from './job.entity.js';
+import { JobComparisonReader } from './job-comparison.reader.js';
 import { JobResultsJobReader } from './job-results.reader.js';
 import { JobsController } from './jobs.controller.js';
 import { JobsService } from './jobs.service.js';
@@ -8,7 +9,7 @@ import { JobsService } from './jobs.service.js';
 @Module({
   imports: [TypeOrmModule.forFeature([Job])],
   controllers: [JobsController],
-  providers: [JobsService, JobResultsJobReader],
-  exports: [JobsService, JobResultsJobReader],
+  providers: [JobsService, JobResultsJobReader, JobComparisonReader],
+  exports: [JobsService, JobResultsJobReader, JobComparisonReader],
 })
 export class JobsModule {}
