@@ -17,5 +17,8 @@ export const sharedQueryKeys = {
   readings: ['readings'],
 } as const;
 
-/** One run (runs feature's `getRunQueryOptions`); the live readings refresh it after a reconnection. */
+/** One run (runs feature's `getRunQueryOptions`); the live feed refreshes it after a reconnection or an exclusion. */
 export const runDetailQueryKey = (runId: number) => [...sharedQueryKeys.runs, 'detail', runId] as const;
+
+/** A run's analysis, whatever its options (runs feature's `getRunAnalysisQueryOptions`); the live feed refreshes it. */
+export const runAnalysisQueryKey = (runId: number) => [...sharedQueryKeys.runs, 'analysis', runId] as const;

@@ -39,7 +39,8 @@ export function CalibrationRun({ run, role }: { run: Run; role: Role }) {
     },
     [throttledRefresh],
   );
-  const live = useLiveReadings(run.id, { enabled: run.status === 'open' && run.benchId !== null, onReadings, onCapture: captureFeed.push });
+  // Followed live whenever the run is open, bench or not: readings typed and exclusions made on another screen show at once.
+  const live = useLiveReadings(run.id, { enabled: run.status === 'open', onReadings, onCapture: captureFeed.push });
   const canWrite = mayWriteRun(role, run.kind);
   const captureState = useCaptureState({ runId: run.id, enabled: canWrite && run.benchId !== null && run.status === 'open' });
   const bridgeLive = live.bridge ? live.bridge.connected : run.bridge.connected;

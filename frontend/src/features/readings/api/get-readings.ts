@@ -1,4 +1,4 @@
-import { keepPreviousData, queryOptions, useQuery, useQueryClient } from '@tanstack/react-query';
+import { keepPreviousData, queryOptions, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { useCallback } from 'react';
 import type { ListReadingsQuery, ListResponse, Reading } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
@@ -15,16 +15,16 @@ export const getReadingsQueryOptions = (runId: number, query?: ListReadingsQuery
   });
 
 /** Fetches the run's reading lists again (not the live latest-readings entry, which the stream keeps current). */
+export function refreshReadingLists(queryClient: QueryClient, runId: number) {
+  return queryClient.invalidateQueries({
+    queryKey: getReadingsQueryOptions(runId).queryKey,
+    predicate: (query) => query.queryKey[2] !== 'latest',
+  });
+}
+
 export function useRefreshReadings(runId: number) {
   const queryClient = useQueryClient();
-  return useCallback(
-    () =>
-      queryClient.invalidateQueries({
-        queryKey: getReadingsQueryOptions(runId).queryKey,
-        predicate: (query) => query.queryKey[2] !== 'latest',
-      }),
-    [queryClient, runId],
-  );
+  return useCallback(() => refreshReadingLists(queryClient, runId), [queryClient, runId]);
 }
 
 export function useReadings({ runId, query, enabled = true }: { runId: number; query: ListReadingsQuery; enabled?: boolean }) {

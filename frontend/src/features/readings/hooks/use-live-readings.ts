@@ -1,11 +1,12 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
 import { io } from 'socket.io-client';
-import { LIVE_EVENTS, NAMESPACES, type JoinReply, type LiveBridgeEvent, type LiveCaptureEvent, type LiveReadingsEvent } from '@kilocycle/common/events';
+import { LIVE_EVENTS, NAMESPACES, type JoinReply, type LiveBridgeEvent, type LiveCaptureEvent, type LiveExclusionEvent, type LiveReadingsEvent } from '@kilocycle/common/events';
 import type { Reading } from '@kilocycle/common/types';
 import { getSession } from '@/lib/session';
-import { runDetailQueryKey } from '@/lib/query-keys';
+import { runAnalysisQueryKey, runDetailQueryKey } from '@/lib/query-keys';
 import { getLatestReadingsQueryOptions, mergeReadings } from '../api/get-latest-readings';
+import { refreshReadingLists } from '../api/get-readings';
 
 export type LiveState = 'connecting' | 'live' | 'offline' | 'refused';
 /**
@@ -25,7 +26,9 @@ type UseLiveReadingsOptions = {
 
 /**
  * Follows a run live over socket.io (`/live`, signed in with the session's token): stored readings are merged
- * into the run's latest-readings query, so pages read them from React Query like any other server data.
+ * into the run's latest-readings query, so pages read them from React Query like any other server data; an
+ * exclusion marks the reading there and refreshes the run's reading lists and analysis. Listens to every event
+ * the server emits on `/live` (LIVE_EVENTS: readings, excluded, bridge, capture).
  */
 export function useLiveReadings(runId: number, { enabled = true, onReadings, onCapture }: UseLiveReadingsOptions = {}): LiveStatus {
   const queryClient = useQueryClient();
@@ -85,6 +88,15 @@ export function useLiveReadings(runId: number, { enabled = true, onReadings, onC
       callback.current?.(readings);
     });
 
+    // A reading excluded here or on another screen: the latest readings mark it at once, and the reading
+    // tables, the run's counts and its analysis (the fit without it) are fetched again.
+    socket.on(LIVE_EVENTS.excluded, (event: LiveExclusionEvent) => {
+      if (event.runId !== runId) return;
+      queryClient.setQueryData<Reading[]>(key, (current) => current?.map((r) => (r.id === event.reading.id ? event.reading : r)));
+      void refreshReadingLists(queryClient, runId);
+      void queryClient.invalidateQueries({ queryKey: runDetailQueryKey(runId) });
+      void queryClient.invalidateQueries({ queryKey: runAnalysisQueryKey(runId) });
+    });
     socket.on(LIVE_EVENTS.bridge, (event: LiveBridgeEvent) => {
       if (event.runId !== runId) return;
       setStatus((s) => ({ ...s, bridge: { connected: event.connected, since: event.since } }));

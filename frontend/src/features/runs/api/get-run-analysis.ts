@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { RunAnalysis, RunAnalysisQuery } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
-import { sharedQueryKeys } from '@/lib/query-keys';
+import { runAnalysisQueryKey } from '@/lib/query-keys';
 
 /**
  * What common computes for the run's kind, from the full data on the server (the reference).
@@ -13,7 +13,7 @@ export function getRunAnalysis(id: number, query: RunAnalysisQuery = {}): Promis
 
 export const getRunAnalysisQueryOptions = (id: number, query?: RunAnalysisQuery) =>
   queryOptions({
-    queryKey: query ? [...sharedQueryKeys.runs, 'analysis', id, query] : [...sharedQueryKeys.runs, 'analysis', id],
+    queryKey: query ? [...runAnalysisQueryKey(id), query] : runAnalysisQueryKey(id),
     queryFn: () => getRunAnalysis(id, query),
   });
 
