@@ -25,10 +25,12 @@ export const requiredId = (message: string) =>
     .refine((id) => id !== '', message)
     .transform(Number);
 
-type NumberRule = { min?: number; max?: number; integer?: boolean; message: string };
+type NumberRule = { min?: number; max?: number; integer?: boolean; message: string; /** Accept "21,5" for 21.5. */ decimalComma?: boolean };
+
+const toNumber = (text: string, rule: NumberRule) => Number(rule.decimalComma ? text.replace(',', '.') : text);
 
 function checkNumber(text: string, rule: NumberRule) {
-  const value = Number(text);
+  const value = toNumber(text, rule);
   return (
     Number.isFinite(value) &&
     (rule.integer !== true || Number.isInteger(value)) &&
@@ -43,7 +45,7 @@ export const requiredNumber = (rule: NumberRule) =>
     .string()
     .trim()
     .refine((text) => text !== '' && checkNumber(text, rule), rule.message)
-    .transform(Number);
+    .transform((text) => toNumber(text, rule));
 
 /** A number that may be left empty (null). */
 export const optionalNumber = (rule: NumberRule) =>
@@ -51,4 +53,4 @@ export const optionalNumber = (rule: NumberRule) =>
     .string()
     .trim()
     .refine((text) => text === '' || checkNumber(text, rule), rule.message)
-    .transform((text) => (text === '' ? null : Number(text)));
+    .transform((text) => (text === '' ? null : toNumber(text, rule)));

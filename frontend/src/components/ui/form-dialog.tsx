@@ -29,11 +29,15 @@ import type { z } from 'zod';
 import { FormErrors } from '@/components/ui/form-errors';
 import { ApiError } from '@/lib/api-client';
 
-/** A react-hook-form form checked by a zod schema: the form holds the schema's input, submit gets its output. */
-export function useZodForm<S extends z.ZodType<unknown, FieldValues>>(schema: S, defaultValues: DefaultValues<z.input<S>>) {
+/**
+ * A react-hook-form form checked by a zod schema: the form holds the schema's input, submit gets its output.
+ * `values` (for edit forms) follows the record: when it changes, the form shows the new values.
+ */
+export function useZodForm<S extends z.ZodType<unknown, FieldValues>>(schema: S, defaultValues: DefaultValues<z.input<S>>, values?: z.input<S>) {
   return useForm<z.input<S>, unknown, z.output<S>>({
     resolver: zodResolver(schema as never) as never,
     defaultValues,
+    values,
     mode: 'onSubmit',
     reValidateMode: 'onChange',
   });

@@ -81,7 +81,7 @@ export function ComparisonBuilder({ existing, canSave, onSaved }: ComparisonBuil
     },
   });
 
-  const runList = runs.data?.items ?? [];
+  const runList = useMemo(() => runs.data?.items ?? [], [runs.data?.items]);
   const order = useMemo(() => new Map(runList.map((r, i) => [r.id, i])), [runList]);
 
   const request = (): ComputeComparisonRequest | null => {
@@ -112,7 +112,6 @@ export function ComparisonBuilder({ existing, canSave, onSaved }: ComparisonBuil
   const instrument = instruments.data?.items.find((i) => i.id === instrumentId) ?? null;
   const fileTitle = existing?.title ?? (instrument ? `${instrument.make} ${instrument.model} ${instrument.serial}` : 'comparison');
   const computeError = compute.error instanceof ApiError ? compute.error.messages : compute.error ? ['The comparison could not be computed.'] : [];
-  const saveErrors = save.error instanceof ApiError ? save.error.messages : save.error ? ['The comparison could not be saved.'] : [];
 
   return (
     <Box sx={{ display: 'grid', gap: 2 }}>
@@ -274,7 +273,7 @@ export function ComparisonBuilder({ existing, canSave, onSaved }: ComparisonBuil
         initialTitle={existing?.title ?? (instrument ? `${instrument.make} ${instrument.model}: ${chosen.map((c) => c.label).join(' vs ')}` : '')}
         initialNotes={existing?.notes ?? ''}
         busy={save.isPending}
-        errors={saveErrors}
+        error={save.error}
         onClose={() => {
           setSaving(false);
           save.reset();

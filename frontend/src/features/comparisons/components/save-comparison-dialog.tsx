@@ -1,12 +1,5 @@
-import Button from '@mui/material/Button';
-import Dialog from '@mui/material/Dialog';
-import DialogActions from '@mui/material/DialogActions';
-import DialogContent from '@mui/material/DialogContent';
-import DialogTitle from '@mui/material/DialogTitle';
-import Stack from '@mui/material/Stack';
-import TextField from '@mui/material/TextField';
-import { useId, useState, type FormEvent } from 'react';
-import { FormErrors } from '@/components/ui/form-errors';
+import { FormDialog, FormTextField, useZodForm } from '@/components/ui/form-dialog';
+import { comparisonTextSchema } from '../api/save-comparison';
 
 type SaveComparisonDialogProps = {
   open: boolean;
@@ -14,62 +7,41 @@ type SaveComparisonDialogProps = {
   initialTitle: string;
   initialNotes: string;
   busy: boolean;
-  errors: readonly string[];
+  error: unknown;
   onSave: (values: { title: string; notes: string | null }) => void;
   onClose: () => void;
 };
 
-export function SaveComparisonDialog({ open, heading, initialTitle, initialNotes, busy, errors, onSave, onClose }: SaveComparisonDialogProps) {
-  const titleId = useId();
-  const [title, setTitle] = useState(initialTitle);
-  const [notes, setNotes] = useState(initialNotes);
-  const [missing, setMissing] = useState(false);
-  const submit = (event: FormEvent<HTMLFormElement>) => {
-    event.preventDefault();
-    if (!title.trim()) {
-      setMissing(true);
-      return;
-    }
-    onSave({ title: title.trim(), notes: notes.trim() || null });
-  };
+export function SaveComparisonDialog({ open, heading, initialTitle, initialNotes, busy, error, onSave, onClose }: SaveComparisonDialogProps) {
+  const form = useZodForm(comparisonTextSchema, { title: initialTitle, notes: initialNotes });
   return (
-    <Dialog open={open} onClose={busy ? undefined : onClose} aria-labelledby={titleId}>
-      <form noValidate onSubmit={submit}>
-        <DialogTitle id={titleId}>{heading}</DialogTitle>
-        <DialogContent>
-          <FormErrors messages={errors} />
-          <Stack spacing={2} sx={{ pt: 1 }}>
-            <TextField
-              label="Title"
-              required
-              autoFocus
-              value={title}
-              onChange={(e) => {
-                setTitle(e.target.value);
-                setMissing(false);
-              }}
-              error={missing}
-              helperText={missing ? 'Give the comparison a title' : 'e.g. “VFO warm-up before and after the new regulator”'}
-            />
-            <TextField
-              label="Notes"
-              multiline
-              minRows={4}
-              value={notes}
-              onChange={(e) => setNotes(e.target.value)}
-              helperText="What changed between the runs, and anything a reader should know"
-            />
-          </Stack>
-        </DialogContent>
-        <DialogActions>
-          <Button onClick={onClose} disabled={busy}>
-            Cancel
-          </Button>
-          <Button type="submit" variant="contained" disabled={busy}>
-            {busy ? 'Saving…' : 'Save'}
-          </Button>
-        </DialogActions>
-      </form>
-    </Dialog>
+    <FormDialog
+      open={open}
+      title={heading}
+      form={form}
+      onSubmit={onSave}
+      onClose={onClose}
+      pending={busy}
+      error={error}
+      errorFallback="The comparison could not be saved."
+      submitLabel="Save"
+      pendingLabel="Saving…"
+    >
+      <FormTextField
+        control={form.control}
+        name="title"
+        label="Title"
+        required
+        helperText="e.g. “VFO warm-up before and after the new regulator”"
+      />
+      <FormTextField
+        control={form.control}
+        name="notes"
+        label="Notes"
+        multiline
+        minRows={4}
+        helperText="What changed between the runs, and anything a reader should know"
+      />
+    </FormDialog>
   );
 }

@@ -14,7 +14,6 @@ import type { SavedComparison as Saved } from '@kilocycle/common/types';
 import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 import { FullPageSpinner } from '@/components/ui/full-page-spinner';
 import { PageHeader } from '@/components/ui/page-header';
-import { ApiError } from '@/lib/api-client';
 import { notify } from '@/lib/notifications';
 import { formatDateTime } from '@/utils/format';
 import { useDeleteComparison } from '../api/delete-comparison';
@@ -98,7 +97,7 @@ export function SavedComparison({ id, listPath, canEdit, onDeleted }: SavedCompa
         initialTitle={comparison.title}
         initialNotes={comparison.notes ?? ''}
         busy={save.isPending}
-        errors={save.error instanceof ApiError ? save.error.messages : []}
+        error={save.error}
         onClose={() => setMode('view')}
         onSave={({ title, notes }) => save.mutate({ id, body: { title, notes } })}
       />

@@ -1,20 +1,32 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { FIELD_LIMITS } from '@kilocycle/common/rules';
 import type { CreateJobRequest, Job } from '@kilocycle/common/types';
+import { z } from 'zod';
 import { api } from '@/lib/api-client';
+import { optionalId, optionalNumber, optionalText } from '@/utils/form-schema';
 import { getJobsQueryOptions } from './get-jobs';
 
-export type CreateJobErrors = Partial<Record<keyof CreateJobRequest, string>>;
+const { job: LIMITS } = FIELD_LIMITS;
 
-export function validateCreateJob(input: CreateJobRequest): CreateJobErrors {
-  const errors: CreateJobErrors = {};
-  if (!input.instrumentId) errors.instrumentId = 'Choose the instrument received';
-  if (!/^\d{4}-\d{2}-\d{2}$/.test(input.receivedDate)) errors.receivedDate = 'Enter the date it came in';
-  const t = input.ambientTempC;
-  if (t !== null && t !== undefined && (!Number.isFinite(t) || t < -40 || t > 80)) errors.ambientTempC = 'A temperature from -40 to 80 °C';
-  const h = input.humidityPct;
-  if (h !== null && h !== undefined && (!Number.isFinite(h) || h < 0 || h > 100)) errors.humidityPct = 'A relative humidity from 0 to 100 %';
-  return errors;
-}
+/** The picked instrument (the picker's option) or none yet. */
+export type InstrumentChoice = { value: string | number; label: string } | null;
+
+/** Bench conditions at reception; the same bounds as the server's, in the words the forms show. */
+export const ambientTempSchema = optionalNumber({ ...LIMITS.ambientTempC, message: 'A temperature from -40 to 80 °C', decimalComma: true });
+export const humiditySchema = optionalNumber({ ...LIMITS.humidityPct, message: 'A relative humidity from 0 to 100 %', decimalComma: true });
+
+/** The new-job form: checked before sending; the server checks again and its messages are shown as they come. */
+export const createJobSchema = z
+  .object({
+    instrument: z.custom<InstrumentChoice>().refine((choice) => choice !== null, 'Choose the instrument received'),
+    receivedDate: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Enter the date it came in'),
+    conditionReceived: optionalText(FIELD_LIMITS.notes.max),
+    technicianId: optionalId,
+    ambientTempC: ambientTempSchema,
+    humidityPct: humiditySchema,
+    notes: optionalText(FIELD_LIMITS.notes.max),
+  })
+  .transform(({ instrument, ...rest }): CreateJobRequest => ({ instrumentId: Number(instrument?.value), ...rest }));
 
 export function createJob(body: CreateJobRequest): Promise<Job> {
   return api.post<Job>('/jobs', body, { notify: false });

@@ -1,19 +1,14 @@
 import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
-import Dialog from '@mui/material/Dialog';
-import DialogActions from '@mui/material/DialogActions';
-import DialogContent from '@mui/material/DialogContent';
-import DialogContentText from '@mui/material/DialogContentText';
-import DialogTitle from '@mui/material/DialogTitle';
-import TextField from '@mui/material/TextField';
-import { useId, useState, type ReactNode } from 'react';
+import { useState, type ReactNode } from 'react';
 import { jobTransitionRefusal } from '@kilocycle/common/rules';
 import type { Job, Role } from '@kilocycle/common/types';
+import { FormDialog, FormTextField, useZodForm } from '@/components/ui/form-dialog';
 import { FormErrors } from '@/components/ui/form-errors';
 import { ApiError } from '@/lib/api-client';
 import { notify } from '@/lib/notifications';
-import { useSubmitJob } from '../api/submit-job';
+import { submitJobSchema, useSubmitJob } from '../api/submit-job';
 import { useUpdateJob } from '../api/update-job';
 
 function messagesOf(error: unknown) {
@@ -29,15 +24,13 @@ type JobActionsProps = {
 
 /** The status moves open to this person now, as the API allows them; the rest is explained, not hidden. */
 export function JobActions({ job, role, reviewLink }: JobActionsProps) {
-  const titleId = useId();
   const [submitting, setSubmitting] = useState(false);
-  const [comment, setComment] = useState('');
+  const form = useZodForm(submitJobSchema, { comment: '' });
   const update = useUpdateJob({ onSuccess: (j) => notify('success', `Job ${j.number} is in progress.`) });
   const submit = useSubmitJob({
     onSuccess: () => {
       notify('success', `Job ${job.number} submitted for review.`);
       setSubmitting(false);
-      setComment('');
     },
   });
   const mayMoveTo = (to: Job['status']) => jobTransitionRefusal(job.status, to, role) === null;
@@ -89,28 +82,22 @@ export function JobActions({ job, role, reviewLink }: JobActionsProps) {
           </Box>
         )}
       </Box>
-      <Dialog open={submitting} onClose={submit.isPending ? undefined : () => setSubmitting(false)} aria-labelledby={titleId}>
-        <DialogTitle id={titleId}>Submit job {job.number} for review?</DialogTitle>
-        <DialogContent>
-          <FormErrors messages={messagesOf(submit.error)} />
-          <DialogContentText sx={{ mb: 2 }}>
-            The lead reviews the readings, fits and budget. Until the job comes back, its runs take no more readings.
-          </DialogContentText>
-          <TextField label="Note for the lead (optional)" multiline minRows={2} value={comment} onChange={(e) => setComment(e.target.value)} />
-        </DialogContent>
-        <DialogActions>
-          <Button onClick={() => setSubmitting(false)} disabled={submit.isPending}>
-            Cancel
-          </Button>
-          <Button
-            variant="contained"
-            disabled={submit.isPending}
-            onClick={() => submit.mutate({ id: job.id, body: comment.trim() ? { comment: comment.trim() } : {} })}
-          >
-            {submit.isPending ? 'Submitting…' : 'Submit for review'}
-          </Button>
-        </DialogActions>
-      </Dialog>
+      <FormDialog
+        open={submitting}
+        title={`Submit job ${job.number} for review?`}
+        intro="The lead reviews the readings, fits and budget. Until the job comes back, its runs take no more readings."
+        form={form}
+        onSubmit={(body) => submit.mutate({ id: job.id, body })}
+        onClose={() => setSubmitting(false)}
+        onExited={() => submit.reset()}
+        pending={submit.isPending}
+        error={submit.error}
+        errorFallback="That did not work. Try again."
+        submitLabel="Submit for review"
+        pendingLabel="Submitting…"
+      >
+        <FormTextField control={form.control} name="comment" label="Note for the lead (optional)" multiline minRows={2} />
+      </FormDialog>
     </Box>
   );
 }
