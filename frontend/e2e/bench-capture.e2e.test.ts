@@ -2,7 +2,7 @@ import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Instrument, Job, ListResponse } from '@kilocycle/common/types';
 import { keepScreenshot, launchBrowser, onNewPage, signIn } from './support/browser';
-import { apiGet, apiRequest, createTestInstrument, sessionToken } from './support/lab';
+import { apiGet, createTestInstrument, sessionToken } from './support/lab';
 
 // Journey 1 (PRODUCT.md §4): a technician opens a job, starts an as-found run on range 1, types ten dial/counter
 // pairs with the keyboard alone, watches the chart and the fit follow, excludes one reading, reloads and finds

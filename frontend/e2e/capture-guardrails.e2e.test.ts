@@ -2,7 +2,7 @@ import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Bench, ListResponse, Organization, Reading, Run } from '@kilocycle/common/types';
 import { keepScreenshot, launchBrowser, onNewPage, signIn } from './support/browser';
-import { apiGet, apiRequest, createTestInstrument, openJob, sessionToken } from './support/lab';
+import { apiGet, createTestInstrument, openJob, sessionToken } from './support/lab';
 
 // Issue 12, guardrails at capture: the new-run dialog pre-selects the bench's default standard and offers
 // no "None" for a calibration run; on a 1.75–2.0 MHz range, dial 1900 with counter `1900` (1.9 kHz) is

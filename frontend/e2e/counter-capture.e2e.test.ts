@@ -129,7 +129,9 @@ describe('counter-assisted capture: journey 6 (browser)', () => {
       await keepScreenshot(page, 'counter-capture-refused-390');
     } catch (error) {
       await keepScreenshot(page, 'counter-capture-failure').catch(() => undefined);
-      throw new Error(`${(error as Error).message}\nbridge: ${bridge?.output().slice(-800) ?? ''}\ncounter: ${counter?.output().slice(-400) ?? ''}`);
+      throw new Error(`${(error as Error).message}\nbridge: ${bridge?.output().slice(-800) ?? ''}\ncounter: ${counter?.output().slice(-400) ?? ''}`, {
+        cause: error,
+      });
     } finally {
       await page.context().close();
     }

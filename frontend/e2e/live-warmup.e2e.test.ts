@@ -129,7 +129,9 @@ describe('live warm-up: journey 2 (browser)', () => {
       expect(await page.getByTestId('bridge-chip').innerText()).not.toContain('Live');
     } catch (error) {
       await keepScreenshot(page, 'live-warmup-failure').catch(() => undefined);
-      throw new Error(`${(error as Error).message}\nbridge: ${bridge?.output().slice(-800) ?? ''}\ncounter: ${counter?.output().slice(-400) ?? ''}`);
+      throw new Error(`${(error as Error).message}\nbridge: ${bridge?.output().slice(-800) ?? ''}\ncounter: ${counter?.output().slice(-400) ?? ''}`, {
+        cause: error,
+      });
     } finally {
       await page.context().close();
     }

@@ -54,7 +54,7 @@ Options:
                             switching on as the bridge starts; a second bridge would start at 0 again)
   --batch N                 most readings a batch (default 200, at most ${MAX_INGEST_BATCH})
   --window N                batches sent and not yet acknowledged, at most (default 4)
-  --spool FILE              the spool file (default \$KC_VAR_DIR/spool/run-RUN_ID.jsonl, or ./spool/)
+  --spool FILE              the spool file (default $KC_VAR_DIR/spool/run-RUN_ID.jsonl, or ./spool/)
   --timeout MS              how long to wait for a counter's answer or the server's acknowledgement
                             (default 10000)
   --status-every MS         when stderr is not a terminal, print the status line this often (default 5000)

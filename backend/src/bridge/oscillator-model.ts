@@ -121,9 +121,9 @@ export class LcOscillator {
       this.spare = null;
       return s;
     }
-    let u = 0;
-    let v = 0;
-    let s = 0;
+    let u: number;
+    let v: number;
+    let s: number;
     do {
       u = 2 * this.uniform() - 1;
       v = 2 * this.uniform() - 1;

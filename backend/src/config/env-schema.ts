@@ -46,7 +46,6 @@ const toList = () =>
   );
 
 const SWITCH = '1, true, yes or on to turn it on; 0, false, no or off to turn it off';
-const PORT = 'a whole number from 1 to 65535';
 const HOST = 'a host name or an IP address';
 
 function between(min: number, max: number, what: string) {

@@ -1,9 +1,10 @@
+/* eslint-disable @typescript-eslint/no-unsafe-function-type -- class-validator's metadata and Nest's reflection hand classes around as Function */
 import { RequestMethod } from '@nestjs/common';
 import { ModulesContainer } from '@nestjs/core';
 import type { INestApplication } from '@nestjs/common';
 import { getMetadataStorage } from 'class-validator';
 import { ROLES, type Role } from '@kilocycle/common/types';
-import { IS_PUBLIC, ROLES_KEY } from '../../src/auth/decorators.js';
+import { IS_PUBLIC, ROLES_KEY } from '../../src/shared/decorators.js';
 
 // Nest's metadata keys (@nestjs/common/constants, not exported from the package root) and RouteParamtypes.BODY.
 const PATH_METADATA = 'path';

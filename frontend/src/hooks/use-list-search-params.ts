@@ -40,7 +40,7 @@ export function useListSearchParams<F extends string = never>(defaults: ListDefa
       q: params.get('q') ?? '',
       filters,
     };
-    // filterKeys is a constant list per page.
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- filterKeys is a constant list per page; defaults is read field by field.
   }, [params, defaults.pageSize, defaults.sort, defaults.sortFields]);
 
   const update = useCallback(

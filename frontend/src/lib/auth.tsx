@@ -6,7 +6,7 @@ import { Forbidden } from '@/components/errors/forbidden';
 import { FullPageSpinner } from '@/components/ui/full-page-spinner';
 import { signInPath } from '@/config/paths';
 import { api, ApiError } from './api-client';
-import { clearSession, getSession, setSession, subscribeSession, type Session } from './session';
+import { clearSession, getSession, setSession, subscribeSession } from './session';
 
 export function useSession() {
   const session = useSyncExternalStore(subscribeSession, getSession, getSession);

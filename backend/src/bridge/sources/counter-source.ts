@@ -36,14 +36,18 @@ export function parseReadingLine(line: string): Captured | null {
   try {
     frequency = parseFrequency(frequencyText, 'Hz');
   } catch (error) {
-    throw new Error(`"${frequencyText}" is not a frequency (${error instanceof Error ? error.message : String(error)})`);
+    throw new Error(`"${frequencyText}" is not a frequency (${error instanceof Error ? error.message : String(error)})`, {
+      cause: error,
+    });
   }
   if (parts.length === 1) return { frequency };
   const dialText = parts[0].trim();
   try {
     return { dial: parseNumber(dialText), frequency };
   } catch (error) {
-    throw new Error(`"${dialText}" is not a dial setting (${error instanceof Error ? error.message : String(error)})`);
+    throw new Error(`"${dialText}" is not a dial setting (${error instanceof Error ? error.message : String(error)})`, {
+      cause: error,
+    });
   }
 }
 

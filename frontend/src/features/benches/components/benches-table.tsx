@@ -94,7 +94,7 @@ export function BenchesTable({ isAdmin }: { isAdmin: boolean }) {
           ]
         : []),
     ],
-    // doIssue only uses the stable mutate and setters.
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- doIssue only uses the stable mutate and setters.
     [isAdmin],
   );
 

@@ -175,7 +175,7 @@ function Table({ shape, embedded, verifyPath, jobPath, height }: { shape: Shape 
         ),
       },
     ],
-    [isClient, isLead, embedded, verifyPath, jobPath],
+    [isClient, isLead, verifyPath, jobPath],
   );
   // On a phone the number, status, final decision and PDF stay in view; the as-found outcome and the rest read
   // on a second line under the number.

@@ -122,6 +122,7 @@ export function OrganizationsTable() {
         },
       },
     ],
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- the mutation object is new on every render; the fields read are listed.
     [me.organizationId, update.isPending, update.variables, update.mutate],
   );
 

@@ -114,7 +114,7 @@ export function UsersTable({ organizations }: UsersTableProps) {
         },
       },
     ],
-    // toggle only uses stable setters and the mutation's stable mutate.
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- toggle only uses stable setters and the mutation's stable mutate.
     [me.id, updateUser.isPending, updateUser.variables],
   );
 
