@@ -2,22 +2,14 @@ import AddIcon from '@mui/icons-material/Add';
 import EditOutlined from '@mui/icons-material/EditOutlined';
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
-import Dialog from '@mui/material/Dialog';
-import DialogActions from '@mui/material/DialogActions';
-import DialogContent from '@mui/material/DialogContent';
-import DialogTitle from '@mui/material/DialogTitle';
-import MenuItem from '@mui/material/MenuItem';
-import Stack from '@mui/material/Stack';
-import TextField from '@mui/material/TextField';
-import { useId, useState, type FormEvent } from 'react';
+import { useState } from 'react';
 import { useNavigate } from 'react-router-dom';
 import type { CreateInstrumentRequest, Instrument } from '@kilocycle/common/types';
-import { FormErrors } from '@/components/ui/form-errors';
+import { FormDialog, FormSelectField, FormTextField, useZodForm } from '@/components/ui/form-dialog';
 import type { FilterOption } from '@/components/ui/select-filter';
 import { instrumentPath } from '@/config/paths';
-import { ApiError } from '@/lib/api-client';
 import { notify } from '@/lib/notifications';
-import { useCreateInstrument, validateCreateInstrument, type CreateInstrumentErrors } from '../api/create-instrument';
+import { instrumentSchema, useCreateInstrument } from '../api/create-instrument';
 import { useUpdateInstrument } from '../api/update-instrument';
 
 type Draft = {
@@ -55,19 +47,6 @@ function fromInstrument(i: Instrument): Draft {
   };
 }
 
-function toRequest(d: Draft): CreateInstrumentRequest {
-  return {
-    organizationId: Number(d.organizationId) || 0,
-    make: d.make.trim(),
-    model: d.model.trim(),
-    serial: d.serial.trim(),
-    assetTag: d.assetTag.trim() || null,
-    description: d.description.trim() || null,
-    recallIntervalMonths: d.recallIntervalMonths.trim() === '' ? undefined : Number(d.recallIntervalMonths),
-    nextDueDate: d.nextDueDate || null,
-  };
-}
-
 type FormProps = {
   open: boolean;
   title: string;
@@ -81,117 +60,40 @@ type FormProps = {
 };
 
 function InstrumentFormDialog({ open, title, initial, owners, busy, error, submitLabel, onClose, onSubmit }: FormProps) {
-  const titleId = useId();
-  const [draft, setDraft] = useState<Draft>(initial);
-  const [errors, setErrors] = useState<CreateInstrumentErrors>({});
-  const [lastInitial, setLastInitial] = useState(initial);
-  if (initial !== lastInitial) {
-    setLastInitial(initial);
-    setDraft(initial);
-    setErrors({});
-  }
-
-  const set = (field: keyof Draft, value: string) => {
-    setDraft((current) => ({ ...current, [field]: value }));
-    setErrors((current) => ({ ...current, [field]: undefined }));
-  };
-
-  const submit = (event: FormEvent<HTMLFormElement>) => {
-    event.preventDefault();
-    const request = toRequest(draft);
-    const found = validateCreateInstrument(request);
-    setErrors(found);
-    if (Object.keys(found).length === 0) onSubmit(request);
-  };
-
-  const messages = error instanceof ApiError ? error.messages : error ? ['The instrument could not be saved. Try again.'] : [];
-
+  const form = useZodForm(instrumentSchema, initial, initial);
   return (
-    <Dialog open={open} onClose={busy ? undefined : onClose} aria-labelledby={titleId}>
-      <form noValidate onSubmit={submit}>
-        <DialogTitle id={titleId}>{title}</DialogTitle>
-        <DialogContent>
-          <FormErrors messages={messages} />
-          <Stack spacing={2} sx={{ pt: 1 }}>
-            {owners && (
-              <TextField
-                select
-                label="Owner"
-                required
-                value={draft.organizationId}
-                onChange={(e) => set('organizationId', e.target.value)}
-                error={Boolean(errors.organizationId)}
-                helperText={errors.organizationId ?? 'The customer (or the lab itself) the instrument belongs to'}
-              >
-                {owners.map((o) => (
-                  <MenuItem key={o.value} value={o.value}>
-                    {o.label}
-                  </MenuItem>
-                ))}
-              </TextField>
-            )}
-            <Box sx={{ display: 'grid', gridTemplateColumns: '1fr 1fr', gap: 2 }}>
-              <TextField
-                label="Make"
-                required
-                autoFocus
-                value={draft.make}
-                onChange={(e) => set('make', e.target.value)}
-                error={Boolean(errors.make)}
-                helperText={errors.make}
-              />
-              <TextField
-                label="Model"
-                required
-                value={draft.model}
-                onChange={(e) => set('model', e.target.value)}
-                error={Boolean(errors.model)}
-                helperText={errors.model}
-              />
-              <TextField
-                label="Serial number"
-                required
-                value={draft.serial}
-                onChange={(e) => set('serial', e.target.value)}
-                error={Boolean(errors.serial)}
-                helperText={errors.serial}
-              />
-              <TextField label="Asset tag" value={draft.assetTag} onChange={(e) => set('assetTag', e.target.value)} />
-              <TextField
-                label="Recall interval (months)"
-                value={draft.recallIntervalMonths}
-                onChange={(e) => set('recallIntervalMonths', e.target.value)}
-                error={Boolean(errors.recallIntervalMonths)}
-                helperText={errors.recallIntervalMonths}
-                slotProps={{ htmlInput: { inputMode: 'numeric' } }}
-              />
-              <TextField
-                label="Next due"
-                type="date"
-                value={draft.nextDueDate}
-                onChange={(e) => set('nextDueDate', e.target.value)}
-                slotProps={{ inputLabel: { shrink: true } }}
-              />
-            </Box>
-            <TextField
-              label="Description"
-              multiline
-              minRows={2}
-              value={draft.description}
-              onChange={(e) => set('description', e.target.value)}
-            />
-          </Stack>
-        </DialogContent>
-        <DialogActions>
-          <Button onClick={onClose} disabled={busy}>
-            Cancel
-          </Button>
-          <Button type="submit" variant="contained" disabled={busy}>
-            {busy ? 'Saving…' : submitLabel}
-          </Button>
-        </DialogActions>
-      </form>
-    </Dialog>
+    <FormDialog
+      open={open}
+      title={title}
+      form={form}
+      onSubmit={onSubmit}
+      onClose={onClose}
+      pending={busy}
+      error={error}
+      errorFallback="The instrument could not be saved. Try again."
+      submitLabel={submitLabel}
+      pendingLabel="Saving…"
+    >
+      {owners && (
+        <FormSelectField
+          control={form.control}
+          name="organizationId"
+          label="Owner"
+          required
+          helperText="The customer (or the lab itself) the instrument belongs to"
+          options={owners.map((o) => ({ value: String(o.value), label: o.label }))}
+        />
+      )}
+      <Box sx={{ display: 'grid', gridTemplateColumns: '1fr 1fr', gap: 2 }}>
+        <FormTextField control={form.control} name="make" label="Make" required />
+        <FormTextField control={form.control} name="model" label="Model" required />
+        <FormTextField control={form.control} name="serial" label="Serial number" required />
+        <FormTextField control={form.control} name="assetTag" label="Asset tag" />
+        <FormTextField control={form.control} name="recallIntervalMonths" label="Recall interval (months)" slotProps={{ htmlInput: { inputMode: 'numeric' } }} />
+        <FormTextField control={form.control} name="nextDueDate" label="Next due" type="date" slotProps={{ inputLabel: { shrink: true } }} />
+      </Box>
+      <FormTextField control={form.control} name="description" label="Description" multiline minRows={2} />
+    </FormDialog>
   );
 }
 
