@@ -153,8 +153,7 @@ export default {
       // composition roots, allowed every table. Modules' own `*.demo.ts` files are checked like the rest.
       return {};
     }
-    const owners =
-      options.tables || options.entities ? { tables: options.tables ?? {}, entities: options.entities ?? {} } : defaultOwners();
+    const owners = options.tables || options.entities ? { tables: options.tables ?? {}, entities: options.entities ?? {} } : defaultOwners();
     const hereLabel = here === '' ? 'backend/src' : `${here}/`;
 
     function checkTable(node, table) {

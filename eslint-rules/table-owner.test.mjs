@@ -136,10 +136,7 @@ describe('the owners map', () => {
   });
 
   it('finds the tables a statement names, not its columns or literals', () => {
-    expect(tablesInSql('SELECT COUNT(*) AS n FROM `jobs` j INNER JOIN runs r ON r.job_id = j.id WHERE j.number LIKE ?').sort()).toEqual([
-      'jobs',
-      'runs',
-    ]);
+    expect(tablesInSql('SELECT COUNT(*) AS n FROM `jobs` j INNER JOIN runs r ON r.job_id = j.id WHERE j.number LIKE ?').sort()).toEqual(['jobs', 'runs']);
     expect(tablesInSql('DELETE FROM reading_exclusions WHERE id = ?')).toEqual(['reading_exclusions']);
     expect(tablesInSql('SELECT 1')).toEqual([]);
   });
