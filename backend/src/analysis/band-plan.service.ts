@@ -1,6 +1,4 @@
 import { Injectable } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import type { DataSource } from 'typeorm';
 import {
   AMATEUR_BANDS_SOURCE,
   analyseCalibration,
@@ -14,9 +12,11 @@ import {
 } from '@kilocycle/common/math';
 import type { BandPlanResponse, BandPlanSetting } from '@kilocycle/common/types';
 import { unitMultiplier } from '@kilocycle/common/units';
-import type { AuthUser } from '../auth/auth-user.js';
+import type { AuthUser } from '../shared/auth-user.js';
 import type { InstrumentRange } from '../instruments/instrument-range.entity.js';
 import { InstrumentsService } from '../instruments/instruments.service.js';
+import { RunReadingsReader } from '../readings/run-readings.reader.js';
+import { RunContextReader } from '../runs/run-context.reader.js';
 
 type MeasuredPoints = { runId: number; points: Array<{ dial: number; measured: number }> };
 
@@ -24,7 +24,8 @@ type MeasuredPoints = { runId: number; points: Array<{ dial: number; measured: n
 export class BandPlanService {
   constructor(
     private readonly instruments: InstrumentsService,
-    @InjectDataSource() private readonly dataSource: DataSource,
+    private readonly runs: RunContextReader,
+    private readonly readings: RunReadingsReader,
   ) {}
 
   async plan(actor: AuthUser, instrumentId: number, region: ItuRegion, wantedHz: number | undefined): Promise<BandPlanResponse> {
@@ -74,23 +75,15 @@ export class BandPlanService {
 
   /** Averaged measured points of the range's latest calibration run that has at least two settings. */
   private async latestMeasuredPoints(range: InstrumentRange): Promise<MeasuredPoints | null> {
-    const runs: Array<{ id: number }> = await this.dataSource.query(
-      "SELECT id FROM runs WHERE range_id = ? AND kind IN ('as_found', 'as_left') ORDER BY started_at DESC, id DESC LIMIT 5",
-      [range.id],
-    );
-    for (const run of runs) {
-      const readings: Array<{ dial: number | null; frequency_hz: number; excluded: number | null }> = await this.dataSource.query(
-        `SELECT r.dial, r.frequency_hz, x.run_id AS excluded FROM readings r LEFT JOIN reading_exclusions x ON x.reading_id = r.id
-          WHERE r.run_id = ? AND r.dial IS NOT NULL`,
-        [run.id],
-      );
+    for (const runId of await this.runs.latestCalibrationRunIds(range.id, 5)) {
+      const readings = await this.readings.calibrationReadings(runId);
       if (readings.length < 2) continue;
       try {
         const analysis = analyseCalibration({
           law: range.dialLaw,
-          readings: readings.map((r) => ({ dial: Number(r.dial), frequency: Number(r.frequency_hz), excluded: r.excluded !== null })),
+          readings,
         });
-        if (analysis.points.length >= 2) return { runId: run.id, points: analysis.points.map((p) => ({ dial: p.dial, measured: p.measured })) };
+        if (analysis.points.length >= 2) return { runId, points: analysis.points.map((p) => ({ dial: p.dial, measured: p.measured })) };
       } catch (error) {
         if (!(error instanceof MetrologyError)) throw error;
       }

@@ -1,6 +1,5 @@
 import { Injectable } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import type { DataSource } from 'typeorm';
+import { RunReadingsReader, type SeriesColumns } from '../readings/run-readings.reader.js';
 
 /** A run's readings as columns, in seq order; NaN stands for an empty dial or aux. */
 export type RunSeries = {
@@ -15,74 +14,42 @@ export type RunSeries = {
 
 export type RunCounts = { readingCount: number; excludedCount: number };
 
-/** Which optional columns to read; a warm-up or stability analysis needs neither, so it streams less. */
-export type SeriesColumns = { dial: boolean; aux: boolean };
+export type { SeriesColumns };
 const ALL_COLUMNS: SeriesColumns = { dial: true, aux: true };
 
-// The part of a mysql2 (callback API) connection the loader uses.
-type RowCell = number | string | null;
-type StreamingQuery = {
-  on(event: 'result', listener: (row: RowCell[]) => void): StreamingQuery;
-  on(event: 'error', listener: (error: Error) => void): StreamingQuery;
-  on(event: 'end', listener: () => void): StreamingQuery;
-};
-type RawConnection = { execute(options: { sql: string; values: unknown[]; rowsAsArray: boolean }): StreamingQuery };
-
 /**
- * Reads a run's readings straight from the driver, row arrays into typed arrays: no entities, no
- * per-row objects. A prepared statement, so the doubles arrive in binary rather than as text to
- * parse: about 2.5 times faster than a plain query on this path.
+ * Reads a run's readings as the readings module streams them (row arrays straight from the driver, see
+ * RunReadingsReader.streamSeries) into typed arrays: no entities, no per-row objects.
  */
 @Injectable()
 export class RunSeriesLoader {
-  constructor(@InjectDataSource() private readonly dataSource: DataSource) {}
+  constructor(private readonly readings: RunReadingsReader) {}
 
-  async counts(runId: number): Promise<RunCounts> {
-    const [row] = await this.dataSource.query(
-      'SELECT (SELECT COUNT(*) FROM readings WHERE run_id = ?) AS n, (SELECT COUNT(*) FROM reading_exclusions WHERE run_id = ?) AS x',
-      [runId, runId],
-    );
-    return { readingCount: Number(row.n), excludedCount: Number(row.x) };
+  counts(runId: number): Promise<RunCounts> {
+    return this.readings.counts(runId);
   }
 
   /** Columns not asked for come back as NaN. */
   async load(runId: number, expected: number, columns: SeriesColumns = ALL_COLUMNS): Promise<RunSeries> {
-    const sql = `SELECT seq, t_s, ${columns.dial ? 'dial' : 'NULL'}, frequency_hz, ${columns.aux ? 'aux' : 'NULL'} FROM readings WHERE run_id = ? ORDER BY seq`;
-    const excludedSeqs = new Set<number>(
-      (await this.dataSource.query('SELECT r.seq FROM reading_exclusions x JOIN readings r ON r.id = x.reading_id WHERE x.run_id = ?', [runId])).map(
-        (row: { seq: number }) => Number(row.seq),
-      ),
-    );
+    const excludedSeqs = await this.readings.excludedSeqs(runId);
     let capacity = Math.max(expected, 16);
     let series = allocate(capacity);
     let count = 0;
-    const runner = this.dataSource.createQueryRunner();
-    try {
-      const connection = (await runner.connect()) as RawConnection;
-      await new Promise<void>((resolve, reject) => {
-        connection
-          .execute({ sql, values: [runId], rowsAsArray: true })
-          .on('result', (row) => {
-            // Readings may arrive while we read: grow rather than overrun.
-            if (count === capacity) {
-              capacity *= 2;
-              series = grow(series, capacity);
-            }
-            const seq = Number(row[0]);
-            series.seq[count] = seq;
-            series.t[count] = Number(row[1]);
-            series.dial[count] = row[2] === null ? Number.NaN : Number(row[2]);
-            series.frequency[count] = Number(row[3]);
-            series.aux[count] = row[4] === null ? Number.NaN : Number(row[4]);
-            series.excluded[count] = excludedSeqs.has(seq) ? 1 : 0;
-            count += 1;
-          })
-          .on('error', reject)
-          .on('end', resolve);
-      });
-    } finally {
-      await runner.release();
-    }
+    await this.readings.streamSeries(runId, columns, (row) => {
+      // Readings may arrive while we read: grow rather than overrun.
+      if (count === capacity) {
+        capacity *= 2;
+        series = grow(series, capacity);
+      }
+      const seq = Number(row[0]);
+      series.seq[count] = seq;
+      series.t[count] = Number(row[1]);
+      series.dial[count] = row[2] === null ? Number.NaN : Number(row[2]);
+      series.frequency[count] = Number(row[3]);
+      series.aux[count] = row[4] === null ? Number.NaN : Number(row[4]);
+      series.excluded[count] = excludedSeqs.has(seq) ? 1 : 0;
+      count += 1;
+    });
     return {
       count,
       seq: series.seq.subarray(0, count),

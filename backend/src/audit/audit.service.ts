@@ -9,6 +9,8 @@ export type AuditEntry = {
   entityId: string | number;
   action: string;
   changes?: Record<string, unknown> | null;
+  /** When it happened, for records written after the fact (the demo's history); default: now. */
+  at?: Date;
 };
 
 @Injectable()
@@ -21,13 +23,10 @@ export class AuditService {
    * trip on every write (the ingest path writes one event per batch).
    */
   async record(entry: AuditEntry, manager?: EntityManager): Promise<void> {
-    await (manager ?? this.events.manager).query('INSERT INTO audit_events (actor_id, entity, entity_id, action, changes) VALUES (?, ?, ?, ?, ?)', [
-      entry.actorId,
-      entry.entity,
-      String(entry.entityId),
-      entry.action,
-      entry.changes === null || entry.changes === undefined ? null : JSON.stringify(entry.changes),
-    ]);
+    const values = [entry.actorId, entry.entity, String(entry.entityId), entry.action, entry.changes === null || entry.changes === undefined ? null : JSON.stringify(entry.changes)];
+    const runner = manager ?? this.events.manager;
+    if (entry.at) await runner.query('INSERT INTO audit_events (actor_id, entity, entity_id, action, changes, at) VALUES (?, ?, ?, ?, ?, ?)', [...values, entry.at]);
+    else await runner.query('INSERT INTO audit_events (actor_id, entity, entity_id, action, changes) VALUES (?, ?, ?, ?, ?)', values);
   }
 
   async forEntity(entity: string, entityId: string | number): Promise<AuditEvent[]> {

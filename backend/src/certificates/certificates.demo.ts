@@ -6,7 +6,7 @@ import { JobResultsService } from '../budgets/job-results.service.js';
 import { loadConfig } from '../config/app-config.js';
 import { InstrumentRange } from '../instruments/instrument-range.entity.js';
 import { Instrument } from '../instruments/instrument.entity.js';
-import { addDays, lcOscillator, seededGaussian } from '../jobs/demo-signals.js';
+import { addDays, lcOscillator, seededGaussian } from '../shared/demo-signals.js';
 import { Job } from '../jobs/job.entity.js';
 import { JobReview } from '../reviews/job-review.entity.js';
 import { Run } from '../runs/run.entity.js';

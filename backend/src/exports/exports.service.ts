@@ -3,19 +3,15 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import type { Response } from 'express';
 import type { DataSource } from 'typeorm';
 import { READINGS_CSV_COLUMNS } from '@kilocycle/common/types';
-import { organizationScope, type AuthUser } from '../auth/auth-user.js';
+import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { loadSignedRecord } from '../certificates/signed-record.js';
+import { JobsService } from '../jobs/jobs.service.js';
+import { RunReadingsReader, type StreamedCell, type StreamFlow } from '../readings/run-readings.reader.js';
+import { RunContextReader } from '../runs/run-context.reader.js';
 import { attachmentDisposition, csvLine } from '../shared/csv.js';
 import { resultsCsv } from './results-csv.js';
 
-// The part of a mysql2 (callback API) pool connection the export streams with.
-type RowCell = number | string | Date | null;
-type StreamingQuery = {
-  on(event: 'result', listener: (row: RowCell[]) => void): StreamingQuery;
-  on(event: 'error', listener: (error: Error) => void): StreamingQuery;
-  on(event: 'end', listener: () => void): StreamingQuery;
-};
-type RawConnection = { query(options: { sql: string; values: unknown[]; rowsAsArray: boolean }): StreamingQuery; pause(): void; resume(): void };
+type RowCell = StreamedCell;
 
 /** Lines are gathered to about this many characters before each write to the response. */
 const CHUNK = 64 * 1024;
@@ -23,23 +19,27 @@ const CHUNK = 64 * 1024;
 /** CSV exports, in the same organisation scope as the pages: a client gets its own organisation's, anything else is 404. */
 @Injectable()
 export class ExportsService {
-  constructor(@InjectDataSource() private readonly dataSource: DataSource) {}
+  constructor(
+    @InjectDataSource() private readonly dataSource: DataSource,
+    private readonly runs: RunContextReader,
+    private readonly readingsOf: RunReadingsReader,
+    private readonly jobs: JobsService,
+  ) {}
 
   /**
    * Every reading of a run, excluded ones flagged with their reason, streamed from the database to the
    * response row by row (the driver is paused while the client catches up), never gathered in memory.
    */
   async readings(actor: AuthUser, runId: number, res: Response): Promise<void> {
-    const [run] = await this.dataSource.query('SELECT r.id, j.organization_id, j.number FROM runs r JOIN jobs j ON j.id = r.job_id WHERE r.id = ?', [runId]);
+    const run = await this.runs.scope(runId);
     const scope = organizationScope(actor);
-    if (!run || (scope !== null && Number(run.organization_id) !== scope)) throw new NotFoundException(`Run ${runId} not found`);
+    if (!run || (scope !== null && run.organizationId !== scope)) throw new NotFoundException(`Run ${runId} not found`);
     res.setHeader('Content-Type', 'text/csv; charset=utf-8');
-    res.setHeader('Content-Disposition', attachmentDisposition(`${run.number}-run-${runId}-readings.csv`));
+    res.setHeader('Content-Disposition', attachmentDisposition(`${run.jobNumber}-run-${runId}-readings.csv`));
     res.setHeader('Cache-Control', 'private, no-store');
     let buffer = csvLine(READINGS_CSV_COLUMNS);
-    const runner = this.dataSource.createQueryRunner();
     let gone = false;
-    let connection: RawConnection | null = null;
+    let connection: StreamFlow | null = null;
     // A client that leaves: keep draining the result so the connection goes back to the pool clean.
     const onClose = () => {
       gone = true;
@@ -48,34 +48,24 @@ export class ExportsService {
     const onDrain = () => connection?.resume();
     res.on('close', onClose);
     res.on('drain', onDrain);
+    const flush = () => {
+      if (!gone && !res.write(buffer)) connection?.pause();
+      buffer = '';
+    };
     try {
-      connection = (await runner.connect()) as RawConnection;
-      const raw = connection;
-      await new Promise<void>((resolve, reject) => {
-        const flush = () => {
-          if (!gone && !res.write(buffer)) raw.pause();
-          buffer = '';
-        };
-        raw
-          .query({
-            sql: `SELECT r.seq, r.t_s, r.dial, r.frequency_hz, r.aux, r.source, r.received_at, x.reason
-                    FROM readings r LEFT JOIN reading_exclusions x ON x.reading_id = r.id
-                   WHERE r.run_id = ? ORDER BY r.seq`,
-            values: [runId],
-            rowsAsArray: true,
-          })
-          .on('result', (row) => {
-            if (gone) return;
-            const [seq, t, dial, frequency, aux, source, receivedAt, reason] = row;
-            buffer += csvLine([num(seq), num(t), num(dial), num(frequency), num(aux), source, toIso(receivedAt), reason !== null, reason]);
-            if (buffer.length >= CHUNK) flush();
-          })
-          .on('error', reject)
-          .on('end', () => {
-            flush();
-            resolve();
-          });
-      });
+      await this.readingsOf.streamExport(
+        runId,
+        (row) => {
+          if (gone) return;
+          const [seq, t, dial, frequency, aux, source, receivedAt, reason] = row;
+          buffer += csvLine([num(seq), num(t), num(dial), num(frequency), num(aux), source, toIso(receivedAt), reason !== null, reason]);
+          if (buffer.length >= CHUNK) flush();
+        },
+        (flow) => {
+          connection = flow;
+        },
+      );
+      flush();
       res.end();
     } catch (error) {
       // Once lines are out, end the response as broken rather than answer twice.
@@ -84,7 +74,6 @@ export class ExportsService {
     } finally {
       res.off('close', onClose);
       res.off('drain', onDrain);
-      await runner.release();
     }
   }
 
@@ -93,9 +82,7 @@ export class ExportsService {
    * byte, whatever has been edited since.
    */
   async results(actor: AuthUser, jobId: number, res: Response): Promise<void> {
-    const [job] = await this.dataSource.query('SELECT id, number, organization_id FROM jobs WHERE id = ?', [jobId]);
-    const scope = organizationScope(actor);
-    if (!job || (scope !== null && Number(job.organization_id) !== scope)) throw new NotFoundException(`Job ${jobId} not found`);
+    const job = await this.jobs.findVisible(actor, jobId);
     const signed = await loadSignedRecord(this.dataSource.manager, jobId);
     const body = signed?.record?.resultsCsv ?? (await resultsCsv(this.dataSource.manager, jobId, String(job.number)));
     res.setHeader('Content-Type', 'text/csv; charset=utf-8');

@@ -28,9 +28,11 @@ import {
 } from '@kilocycle/common/types';
 import { sniffContent } from '../shared/content-sniffer.js';
 import { AuditService } from '../audit/audit.service.js';
-import { organizationScope, type AuthUser } from '../auth/auth-user.js';
+import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { MAX_BATCH, ReadingsWriter, refusalReason, type RunWriteContext, type SpanConfirmation } from '../readings/readings-writer.service.js';
+import { RunContextReader } from '../runs/run-context.reader.js';
+import { RunNotesWriter } from '../runs/run-notes.writer.js';
 import { assertMayWriteRun } from '../runs/run-rules.js';
 import { convertRow, detectDelimiter, detectNewline, ImportFileError, lastRecordEnd, needsTime, parseMapping, resolveColumns, type Delimiter, type Newline, type ResolvedColumns } from './csv-columns.js';
 import type { ImportQueryDto } from './dto/import-query.dto.js';
@@ -64,6 +66,8 @@ export class ImportsService implements OnModuleInit {
     private readonly writer: ReadingsWriter,
     private readonly audit: AuditService,
     private readonly progress: ImportProgressStore,
+    private readonly runs: RunContextReader,
+    private readonly notes: RunNotesWriter,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
   ) {}
 
@@ -205,8 +209,8 @@ export class ImportsService implements OnModuleInit {
 
   /** Locks the run (and its job) for the import's transaction and checks again that it takes readings. */
   private async lockRun(manager: EntityManager, runId: number): Promise<void> {
-    const [row] = await manager.query('SELECT r.status, j.status AS job_status FROM runs r JOIN jobs j ON j.id = r.job_id WHERE r.id = ? FOR UPDATE', [runId]);
-    const refusal = row ? refusalReason({ runId, status: row.status, jobStatus: row.job_status }) : `there is no run ${runId}`;
+    const row = await this.runs.lockStatus(runId, manager);
+    const refusal = row ? refusalReason({ runId, ...row }) : `there is no run ${runId}`;
     if (refusal) throw new ConflictException(refusal);
   }
 
@@ -330,8 +334,7 @@ export class ImportsService implements OnModuleInit {
 
   /** Appends the skipped rows to the run's notes (the first hundred listed, within the column's size). */
   private async appendNotes(manager: EntityManager, actor: AuthUser, runId: number, fileName: string, report: ImportReport): Promise<void> {
-    const [row] = await manager.query('SELECT notes FROM runs WHERE id = ?', [runId]);
-    const existing: string = row?.notes ?? '';
+    const existing = await this.notes.read(runId, manager);
     const when = new Date().toISOString().slice(0, 16).replace('T', ' ');
     const skipped = report.rejectedCount === 1 ? '1 row skipped' : `${report.rejectedCount} rows skipped`;
     const lines = [`Import of "${fileName}" on ${when} UTC by ${actor.name}: ${report.imported} readings imported, ${skipped}:`];
@@ -347,7 +350,7 @@ export class ImportsService implements OnModuleInit {
     if (listed < report.rejectedCount) lines.push(`- and ${report.rejectedCount - listed} more (the import report lists every row)`);
     const addition = lines.join('\n');
     const notes = existing.trim() === '' ? addition : `${existing.replace(/\s+$/, '')}\n\n${addition}`;
-    await manager.query('UPDATE runs SET notes = ? WHERE id = ?', [notes.slice(0, 65_000), runId]);
+    await this.notes.write(runId, notes, manager);
   }
 }
 

@@ -15,8 +15,9 @@ import {
 } from '@kilocycle/common/types';
 import { parseNumber } from '@kilocycle/common/units';
 import { AuditService } from '../audit/audit.service.js';
-import { organizationScope, type AuthUser } from '../auth/auth-user.js';
+import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { ReadingsWriter, refusalReason, type RunWriteContext, type StoredBatch } from '../readings/readings-writer.service.js';
+import { RunReadingsReader } from '../readings/run-readings.reader.js';
 import { assertMayWriteRun, runKindWords } from '../runs/run-rules.js';
 import { jsonColumn } from '../shared/json-column.js';
 import { BridgePresence } from '../shared/bridge-presence.js';
@@ -65,6 +66,7 @@ export class CounterCaptureService implements OnModuleDestroy {
   constructor(
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly writer: ReadingsWriter,
+    private readonly readings: RunReadingsReader,
     private readonly presence: BridgePresence,
     private readonly audit: AuditService,
   ) {
@@ -303,12 +305,7 @@ export class CounterCaptureService implements OnModuleDestroy {
   private async nextMark(ctx: RunWriteContext, settings: CaptureSettings): Promise<number | null> {
     const marks = settings.dialMarks.filter((m) => m >= ctx.dialMin && m <= ctx.dialMax);
     if (marks.length === 0) return null;
-    const rows = (await this.dataSource.query(
-      `SELECT DISTINCT r.dial FROM readings r LEFT JOIN reading_exclusions x ON x.reading_id = r.id
-        WHERE r.run_id = ? AND r.dial IS NOT NULL AND x.reading_id IS NULL`,
-      [ctx.runId],
-    )) as Array<{ dial: number }>;
-    const taken = new Set(rows.map((r) => Number(r.dial)));
+    const taken = await this.readings.includedDials(ctx.runId);
     return marks.find((m) => !taken.has(m)) ?? null;
   }
 }

@@ -1,11 +1,11 @@
 import { Injectable } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import type { DataSource } from 'typeorm';
 import { MAX_INGEST_BATCH, type AttachAck, type IngestBatchAck } from '@kilocycle/common/events';
-import type { DialUnit, IngestAck, ReadingInput } from '@kilocycle/common/types';
+import type { IngestAck, ReadingInput } from '@kilocycle/common/types';
 import { parseFrequency, parseNumber } from '@kilocycle/common/units';
 import type { BenchIdentity } from '../benches/benches.service.js';
 import { ReadingsWriter, refusalReason, type RunWriteContext } from '../readings/readings-writer.service.js';
+import { RunReadingsReader } from '../readings/run-readings.reader.js';
+import { RunContextReader } from '../runs/run-context.reader.js';
 import { CounterCaptureService } from './counter-capture.service.js';
 import { IngestException, payloadObject, runIdOf } from '../shared/socket-refusal.js';
 
@@ -27,21 +27,16 @@ export class IngestService {
 
   constructor(
     private readonly writer: ReadingsWriter,
-    @InjectDataSource() private readonly dataSource: DataSource,
+    private readonly readings: RunReadingsReader,
+    private readonly runs: RunContextReader,
     private readonly captures: CounterCaptureService,
   ) {}
 
   async attach(bench: BenchIdentity, payload: unknown): Promise<AttachAck> {
     const runId = runIdOf(payloadObject(payload, '{runId}'));
     const ctx = this.check(bench, runId, await this.writer.loadContext(runId));
-    const [[range], lastSeq] = await Promise.all([
-      this.dataSource.query(
-        `SELECT g.label, g.dial_unit, g.dial_min, g.dial_max, g.freq_min_hz, g.freq_max_hz
-           FROM runs r JOIN instrument_ranges g ON g.id = r.range_id WHERE r.id = ?`,
-        [runId],
-      ),
-      this.writer.lastSeq(runId),
-    ]);
+    const [range, lastSeq] = await Promise.all([this.runs.range(runId), this.writer.lastSeq(runId)]);
+    if (!range) throw new IngestException('run_not_found', `there is no run ${runId}`);
     return {
       ok: true,
       runId,
@@ -50,14 +45,7 @@ export class IngestService {
       startedAt: ctx.startedAt.toISOString(),
       benchId: bench.id,
       benchName: bench.name,
-      range: {
-        label: String(range.label),
-        dialUnit: range.dial_unit as DialUnit,
-        dialMin: Number(range.dial_min),
-        dialMax: Number(range.dial_max),
-        freqMinHz: Number(range.freq_min_hz),
-        freqMaxHz: Number(range.freq_max_hz),
-      },
+      range,
     };
   }
 
@@ -136,10 +124,7 @@ export class IngestService {
    */
   private async sortDuplicates(runId: number, candidates: ReadonlyArray<{ seq: number; input: ReadingInput }>): Promise<{ same: number[]; taken: number[] }> {
     if (candidates.length === 0) return { same: [], taken: [] };
-    const rows = (await this.dataSource.query('SELECT seq, t_s, dial, frequency_hz FROM readings WHERE run_id = ? AND seq IN (?)', [
-      runId,
-      candidates.map((c) => c.seq),
-    ])) as Array<{ seq: number; t_s: number; dial: number | null; frequency_hz: number }>;
+    const rows = await this.readings.atSeqs(runId, candidates.map((c) => c.seq));
     const bySeq = new Map(rows.map((r) => [Number(r.seq), r]));
     const same: number[] = [];
     const taken: number[] = [];

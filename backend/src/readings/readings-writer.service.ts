@@ -5,16 +5,17 @@ import type { DataSource, EntityManager } from 'typeorm';
 import {
   CALIBRATION_RUN_KINDS,
   type IngestAck,
-  type JobStatus,
   type Reading as ReadingView,
   type ReadingAuthor,
   type ReadingInput,
   type ReadingSource,
-  type RunKind,
-  type RunStatus,
 } from '@kilocycle/common/types';
 import { outsideSpan, parseFrequency, parseNumber, SPAN_MARGIN, spanLimits } from '@kilocycle/common/units';
 import { AuditService } from '../audit/audit.service.js';
+import { RunContextReader, type RunWriteContext } from '../runs/run-context.reader.js';
+import { refusalReason } from '../runs/run-rules.js';
+
+export { refusalReason, type RunWriteContext };
 
 export const MAX_BATCH = 1000;
 /** Frequencies above this are refused as implausible for the equipment a lab of this kind measures. */
@@ -22,22 +23,6 @@ export const MAX_FREQUENCY_HZ = 1e11;
 /** A reading's time since the run started may be at most 31 days. */
 export const MAX_T_SECONDS = 31 * 86400;
 const DIAL_MARGIN = 0.1;
-
-/** What the write path needs to know about a run; loaded in one query. */
-export type RunWriteContext = {
-  runId: number;
-  kind: RunKind;
-  status: RunStatus;
-  jobStatus: JobStatus;
-  benchId: number | null;
-  organizationId: number;
-  dialMin: number;
-  dialMax: number;
-  /** The range's nominal frequency span: readings far outside it are refused unless confirmed. */
-  freqMinHz: number;
-  freqMaxHz: number;
-  startedAt: Date;
-};
 
 /**
  * Which readings outside the range's span (by more than SPAN_MARGIN of it) are stored as given:
@@ -77,14 +62,6 @@ function authorColumns(source: ReadingSource, author: ReadingAuthor): { enteredB
   return author.kind === 'bench' ? { enteredBy: null, benchId: author.id } : { enteredBy: author.id, benchId: null };
 }
 
-/** Why a run takes no readings now, or null when it does. */
-export function refusalReason(ctx: Pick<RunWriteContext, 'runId' | 'status' | 'jobStatus'>): string | null {
-  if (ctx.status !== 'open') return `run ${ctx.runId} is closed`;
-  if (ctx.jobStatus === 'approved' || ctx.jobStatus === 'issued') return `run ${ctx.runId} belongs to a job that is ${ctx.jobStatus}`;
-  if (ctx.jobStatus === 'in_review') return `run ${ctx.runId} belongs to a job that is in review`;
-  return null;
-}
-
 /**
  * The one write path for readings: the bench page, CSV import and the bridge all come through here.
  * Each reading is validated on its own; the valid ones are stored with one multi-row INSERT IGNORE,
@@ -100,30 +77,12 @@ export class ReadingsWriter {
   constructor(
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly audit: AuditService,
+    private readonly runs: RunContextReader,
   ) {}
 
-  async loadContext(runId: number): Promise<RunWriteContext | null> {
-    const [row] = await this.dataSource.query(
-      `SELECT r.id, r.kind, r.status, r.bench_id, r.started_at, j.status AS job_status, j.organization_id,
-              g.dial_min, g.dial_max, g.freq_min_hz, g.freq_max_hz
-         FROM runs r JOIN jobs j ON j.id = r.job_id JOIN instrument_ranges g ON g.id = r.range_id
-        WHERE r.id = ?`,
-      [runId],
-    );
-    if (!row) return null;
-    return {
-      runId: row.id,
-      kind: row.kind,
-      status: row.status,
-      jobStatus: row.job_status,
-      benchId: row.bench_id,
-      organizationId: row.organization_id,
-      dialMin: Number(row.dial_min),
-      dialMax: Number(row.dial_max),
-      freqMinHz: Number(row.freq_min_hz),
-      freqMaxHz: Number(row.freq_max_hz),
-      startedAt: new Date(row.started_at),
-    };
+  /** The run as the write path needs it (from the runs module), or null when there is no such run. */
+  loadContext(runId: number): Promise<RunWriteContext | null> {
+    return this.runs.writeContext(runId);
   }
 
   /**
@@ -220,7 +179,7 @@ export class ReadingsWriter {
     const needsNumbers = rows.some((r) => r.seq === null);
     const write = async (manager: EntityManager): Promise<{ inserted: number; stored: StoredReading[] }> => {
       if (needsNumbers) {
-        await manager.query('SELECT id FROM runs WHERE id = ? FOR UPDATE', [ctx.runId]);
+        await this.runs.lock(ctx.runId, manager);
         const [{ last }] = await manager.query('SELECT COALESCE(MAX(seq), 0) AS last FROM readings WHERE run_id = ?', [ctx.runId]);
         let next = Number(last);
         for (const row of rows) if (row.seq === null) row.seq = ++next;

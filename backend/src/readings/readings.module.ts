@@ -13,12 +13,18 @@ import { RunReadingsReader } from './run-readings.reader.js';
 /**
  * Readings typed at the bench, listed and excluded, and the one write path (ReadingsWriter) that the
  * bench page, CSV import and the bridge share: ingest, imports and live import this module to get the
- * same instance, so the live gateway pushes what any path stores.
+ * same instance, so the live gateway pushes what any path stores. The readers answer what other modules
+ * ask about a run's readings.
+ *
+ * Global for one reason: runs (which this module imports for a run's write context) reads reading counts
+ * through the RunReadingStatsSource token declared in shared/, which this module provides; without
+ * importing readings, runs can only see it if the token is global. The dependency stays one way.
  */
+@Global()
 @Module({
-  imports: [TypeOrmModule.forFeature([Reading, ReadingExclusion])],
+  imports: [TypeOrmModule.forFeature([Reading, ReadingExclusion]), RunsModule],
   controllers: [ReadingsController],
-  providers: [ReadingsService, ReadingsWriter, ReadingResultsReader],
-  exports: [ReadingsWriter, ReadingResultsReader],
+  providers: [ReadingsService, ReadingsWriter, ReadingResultsReader, RunReadingsReader, { provide: RunReadingStatsSource, useExisting: RunReadingsReader }],
+  exports: [ReadingsWriter, ReadingResultsReader, RunReadingsReader, RunReadingStatsSource],
 })
 export class ReadingsModule {}

@@ -3,7 +3,7 @@ import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import type { DataSource, EntityManager, Repository } from 'typeorm';
 import { CALIBRATION_RUN_KINDS, RUN_CORRECTABLE_FIELDS, type ListResponse, type Run as RunView, type RunBridge } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
-import { organizationScope, type AuthUser } from '../auth/auth-user.js';
+import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { Bench } from '../benches/bench.entity.js';
 import { BridgePresence } from '../shared/bridge-presence.js';
 import { InstrumentRange } from '../instruments/instrument-range.entity.js';
@@ -11,13 +11,13 @@ import { instrumentLabel } from '../instruments/instruments.service.js';
 import { OPEN_JOB_STATUSES, LOCKED_JOB_STATUSES } from '@kilocycle/common/rules';
 import { Job } from '../jobs/job.entity.js';
 import { JobsService } from '../jobs/jobs.service.js';
-import { refusalReason } from '../readings/readings-writer.service.js';
 import { dateOnly, todayIso } from '../shared/dto-helpers.js';
 import { paginateFlat } from '../shared/page-query.js';
 import { likePattern } from '../shared/paginate.js';
 import { Standard } from '../standards/standard.entity.js';
 import type { CreateRunDto, ListRunsQueryDto, UpdateRunDto } from './dto/run.dto.js';
-import { assertMayWriteRun, runKindWords } from './run-rules.js';
+import { RunReadingStatsSource } from '../shared/run-reading-stats.js';
+import { assertMayWriteRun, refusalReason, runKindWords } from './run-rules.js';
 import { Run } from './run.entity.js';
 
 type RunCounts = { readingCount: number; excludedCount: number; lastSeq: number; bridge: RunBridge };
@@ -71,6 +71,7 @@ export class RunsService {
     private readonly audit: AuditService,
     private readonly jobs: JobsService,
     private readonly presence: BridgePresence,
+    private readonly readingStats: RunReadingStatsSource,
   ) {}
 
   list(actor: AuthUser, query: ListRunsQueryDto): Promise<ListResponse<RunView>> {
@@ -293,33 +294,14 @@ export class RunsService {
 
   private async toViews(found: Run[]): Promise<RunView[]> {
     if (found.length === 0) return [];
-    const ids = found.map((r) => r.id);
-    const [readings, exclusions]: [Array<{ run_id: number; n: string | number; last: number | null }>, Array<{ run_id: number; n: string | number }>] =
-      await Promise.all([
-        this.dataSource.query('SELECT run_id, COUNT(*) AS n, MAX(seq) AS last FROM readings WHERE run_id IN (?) GROUP BY run_id', [ids]),
-        this.dataSource.query('SELECT run_id, COUNT(*) AS n FROM reading_exclusions WHERE run_id IN (?) GROUP BY run_id', [ids]),
-      ]);
-    const readingBy = new Map(readings.map((row) => [Number(row.run_id), row]));
-    const excludedBy = new Map(exclusions.map((row) => [Number(row.run_id), Number(row.n)]));
-    // The newest reading of each run (by the (run_id, seq) index): how old it is, and whether a bridge sent it.
-    const withReadings = readings.filter((row) => row.last !== null);
-    const newest: Array<{ run_id: number; received_at: string; source: string }> =
-      withReadings.length === 0
-        ? []
-        : await this.dataSource.query(
-            `SELECT r.run_id, r.received_at, r.source FROM readings r
-               JOIN (SELECT run_id, MAX(seq) AS seq FROM readings WHERE run_id IN (?) GROUP BY run_id) m ON m.run_id = r.run_id AND m.seq = r.seq`,
-            [withReadings.map((row) => Number(row.run_id))],
-          );
-    const newestBy = new Map(newest.map((row) => [Number(row.run_id), row]));
+    const stats = await this.readingStats.statsFor(found.map((r) => r.id));
     return found.map((r) => {
-      const row = readingBy.get(r.id);
-      const last = newestBy.get(r.id);
+      const row = stats.get(r.id);
       return toRunView(r, {
-        readingCount: row ? Number(row.n) : 0,
-        excludedCount: excludedBy.get(r.id) ?? 0,
-        lastSeq: row?.last ? Number(row.last) : 0,
-        bridge: this.bridgeOf(r.id, last ? { at: new Date(last.received_at), source: last.source } : null),
+        readingCount: row?.readingCount ?? 0,
+        excludedCount: row?.excludedCount ?? 0,
+        lastSeq: row?.lastSeq ?? 0,
+        bridge: this.bridgeOf(r.id, row?.newest ? { at: row.newest.receivedAt, source: row.newest.source } : null),
       });
     });
   }

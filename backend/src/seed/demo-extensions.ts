@@ -1,9 +1,9 @@
-import { seedDemoBenches } from '../benches/benches.demo.js';
 import { seedDemoCertificates } from '../certificates/certificates.demo.js';
 import { seedDemoComparisons } from '../comparisons/comparisons.demo.js';
-import { seedDemoLabRecords } from '../jobs/jobs.demo.js';
 import { seedDemoStandards } from '../standards/standards.demo.js';
 import type { DemoExtension } from './demo-seed.js';
+import { seedDemoLabRecords } from './lab-records.demo.js';
+import { seedDemoBenches } from './live-run.demo.js';
 
 /**
  * Each module that brings demo records adds its `<module>.demo.ts` function here, in dependency order.

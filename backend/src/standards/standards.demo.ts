@@ -1,4 +1,4 @@
-import { addDays } from '../jobs/demo-signals.js';
+import { addDays } from '../shared/demo-signals.js';
 import type { DemoContext } from '../seed/demo-seed.js';
 import { recordStandardVersion } from './standard-versions.js';
 import { Standard } from './standard.entity.js';

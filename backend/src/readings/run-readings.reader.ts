@@ -1,0 +1,151 @@
+import { Injectable } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import type { DataSource, EntityManager } from 'typeorm';
+import type { ReadingSource } from '@kilocycle/common/types';
+import { RunReadingStatsSource, type RunReadingStats } from '../shared/run-reading-stats.js';
+
+/** One row of a streamed query, as the driver gives it (rowsAsArray). */
+export type StreamedCell = number | string | Date | null;
+/** Pauses and resumes a streamed query (the caller's output is full, or has drained). */
+export type StreamFlow = { pause(): void; resume(): void };
+
+// The part of a mysql2 (callback API) pool connection the streams use.
+type StreamingQuery = {
+  on(event: 'result', listener: (row: StreamedCell[]) => void): StreamingQuery;
+  on(event: 'error', listener: (error: Error) => void): StreamingQuery;
+  on(event: 'end', listener: () => void): StreamingQuery;
+};
+type QueryOptions = { sql: string; values: unknown[]; rowsAsArray: boolean };
+type RawConnection = StreamFlow & { query(options: QueryOptions): StreamingQuery; execute(options: QueryOptions): StreamingQuery };
+
+/** Which optional series columns to read; a warm-up or stability analysis needs neither, so it streams less. */
+export type SeriesColumns = { dial: boolean; aux: boolean };
+
+/** A reading as a calibration analysis takes it: the dial setting, the frequency and whether it is excluded. */
+export type CalibrationReading = { dial: number; frequency: number; excluded: boolean };
+
+/**
+ * The readings of runs as other modules ask for them most often (the runs list, analysis, band plan, job
+ * results, exports, ingest's duplicate check, counter capture): plain values, never entities. Methods that a
+ * transaction needs take the caller's EntityManager last.
+ */
+@Injectable()
+export class RunReadingsReader extends RunReadingStatsSource {
+  constructor(@InjectDataSource() private readonly dataSource: DataSource) {
+    super();
+  }
+
+  /**
+   * Reading count, exclusion count, last seq and the newest reading's receipt per run, for the runs list
+   * page: three grouped queries on the (run_id, seq) index, as the list has always made them.
+   */
+  async statsFor(runIds: readonly number[]): Promise<Map<number, RunReadingStats>> {
+    const out = new Map<number, RunReadingStats>();
+    if (runIds.length === 0) return out;
+    const [readings, exclusions]: [Array<{ run_id: number; n: string | number; last: number | null }>, Array<{ run_id: number; n: string | number }>] = await Promise.all([
+      this.dataSource.query('SELECT run_id, COUNT(*) AS n, MAX(seq) AS last FROM readings WHERE run_id IN (?) GROUP BY run_id', [runIds]),
+      this.dataSource.query('SELECT run_id, COUNT(*) AS n FROM reading_exclusions WHERE run_id IN (?) GROUP BY run_id', [runIds]),
+    ]);
+    const withReadings = readings.filter((row) => row.last !== null).map((row) => Number(row.run_id));
+    // The newest reading of each run (by the (run_id, seq) index): how old it is, and whether a bridge sent it.
+    const newest: Array<{ run_id: number; received_at: string; source: ReadingSource }> =
+      withReadings.length === 0
+        ? []
+        : await this.dataSource.query(
+            `SELECT r.run_id, r.received_at, r.source FROM readings r
+               JOIN (SELECT run_id, MAX(seq) AS seq FROM readings WHERE run_id IN (?) GROUP BY run_id) m ON m.run_id = r.run_id AND m.seq = r.seq`,
+            [withReadings],
+          );
+    const excludedBy = new Map(exclusions.map((row) => [Number(row.run_id), Number(row.n)]));
+    const newestBy = new Map(newest.map((row) => [Number(row.run_id), { receivedAt: new Date(row.received_at), source: row.source }]));
+    for (const id of runIds) out.set(id, { readingCount: 0, excludedCount: excludedBy.get(id) ?? 0, lastSeq: 0, newest: null });
+    for (const row of readings) {
+      const id = Number(row.run_id);
+      out.set(id, { readingCount: Number(row.n), excludedCount: excludedBy.get(id) ?? 0, lastSeq: row.last ? Number(row.last) : 0, newest: newestBy.get(id) ?? null });
+    }
+    return out;
+  }
+
+  async countFor(runIds: readonly number[], manager?: EntityManager): Promise<number> {
+    if (runIds.length === 0) return 0;
+    const [{ n }] = await (manager ?? this.dataSource).query('SELECT COUNT(*) AS n FROM readings WHERE run_id IN (?)', [runIds]);
+    return Number(n);
+  }
+
+  /** One run's reading and exclusion counts. */
+  async counts(runId: number): Promise<{ readingCount: number; excludedCount: number }> {
+    const [row] = await this.dataSource.query(
+      'SELECT (SELECT COUNT(*) FROM readings WHERE run_id = ?) AS n, (SELECT COUNT(*) FROM reading_exclusions WHERE run_id = ?) AS x',
+      [runId, runId],
+    );
+    return { readingCount: Number(row.n), excludedCount: Number(row.x) };
+  }
+
+  /** The seqs of the run's excluded readings. */
+  async excludedSeqs(runId: number): Promise<Set<number>> {
+    const rows: Array<{ seq: number }> = await this.dataSource.query('SELECT r.seq FROM reading_exclusions x JOIN readings r ON r.id = x.reading_id WHERE x.run_id = ?', [runId]);
+    return new Set(rows.map((row) => Number(row.seq)));
+  }
+
+  /** The run's readings that have a dial setting, in seq order, each flagged excluded or not (calibration analyses). */
+  async calibrationReadings(runId: number, manager?: EntityManager): Promise<CalibrationReading[]> {
+    const rows: Array<{ dial: number; frequency_hz: number; excluded: number }> = await (manager ?? this.dataSource).query(
+      `SELECT r.dial, r.frequency_hz, (x.reading_id IS NOT NULL) AS excluded
+         FROM readings r LEFT JOIN reading_exclusions x ON x.reading_id = r.id WHERE r.run_id = ? AND r.dial IS NOT NULL ORDER BY r.seq`,
+      [runId],
+    );
+    return rows.map((r) => ({ dial: Number(r.dial), frequency: Number(r.frequency_hz), excluded: Number(r.excluded) === 1 }));
+  }
+
+  /** The distinct dial settings of the run's included readings. */
+  async includedDials(runId: number): Promise<Set<number>> {
+    const rows: Array<{ dial: number }> = await this.dataSource.query(
+      `SELECT DISTINCT r.dial FROM readings r LEFT JOIN reading_exclusions x ON x.reading_id = r.id
+        WHERE r.run_id = ? AND r.dial IS NOT NULL AND x.reading_id IS NULL`,
+      [runId],
+    );
+    return new Set(rows.map((r) => Number(r.dial)));
+  }
+
+  /** The stored readings at these seqs (t, dial, frequency), to tell a resent batch from a conflicting one. */
+  async atSeqs(runId: number, seqs: readonly number[]): Promise<Array<{ seq: number; t_s: number; dial: number | null; frequency_hz: number }>> {
+    if (seqs.length === 0) return [];
+    return this.dataSource.query('SELECT seq, t_s, dial, frequency_hz FROM readings WHERE run_id = ? AND seq IN (?)', [runId, seqs]);
+  }
+
+  /**
+   * Streams the run's readings in seq order as row arrays [seq, t_s, dial, frequency_hz, aux] (columns not
+   * asked for are null) straight from the driver: no entities, no per-row objects. A prepared statement, so
+   * the doubles arrive in binary rather than as text to parse: about 2.5 times faster than a plain query.
+   */
+  streamSeries(runId: number, columns: SeriesColumns, onRow: (row: StreamedCell[]) => void): Promise<void> {
+    const sql = `SELECT seq, t_s, ${columns.dial ? 'dial' : 'NULL'}, frequency_hz, ${columns.aux ? 'aux' : 'NULL'} FROM readings WHERE run_id = ? ORDER BY seq`;
+    return this.stream((connection) => connection.execute({ sql, values: [runId], rowsAsArray: true }), onRow);
+  }
+
+  /**
+   * Streams every reading of the run in seq order for the readings CSV, as row arrays
+   * [seq, t_s, dial, frequency_hz, aux, source, received_at, exclusion reason or null]. `onFlow` receives
+   * the pause/resume handle as soon as the connection is open, so the caller can hold the rows back while
+   * its client catches up.
+   */
+  streamExport(runId: number, onRow: (row: StreamedCell[]) => void, onFlow: (flow: StreamFlow) => void): Promise<void> {
+    const sql = `SELECT r.seq, r.t_s, r.dial, r.frequency_hz, r.aux, r.source, r.received_at, x.reason
+                   FROM readings r LEFT JOIN reading_exclusions x ON x.reading_id = r.id
+                  WHERE r.run_id = ? ORDER BY r.seq`;
+    return this.stream((connection) => connection.query({ sql, values: [runId], rowsAsArray: true }), onRow, onFlow);
+  }
+
+  private async stream(start: (connection: RawConnection) => StreamingQuery, onRow: (row: StreamedCell[]) => void, onFlow?: (flow: StreamFlow) => void): Promise<void> {
+    const runner = this.dataSource.createQueryRunner();
+    try {
+      const connection = (await runner.connect()) as RawConnection;
+      onFlow?.(connection);
+      await new Promise<void>((resolve, reject) => {
+        start(connection).on('result', onRow).on('error', reject).on('end', resolve);
+      });
+    } finally {
+      await runner.release();
+    }
+  }
+}

@@ -1,0 +1,102 @@
+import { Injectable } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import type { DataSource, EntityManager } from 'typeorm';
+import type { DialUnit, JobStatus, RunKind, RunStatus } from '@kilocycle/common/types';
+
+/** What the readings write path needs to know about a run; loaded in one query. */
+export type RunWriteContext = {
+  runId: number;
+  kind: RunKind;
+  status: RunStatus;
+  jobStatus: JobStatus;
+  benchId: number | null;
+  organizationId: number;
+  dialMin: number;
+  dialMax: number;
+  /** The range's nominal frequency span: readings far outside it are refused unless confirmed. */
+  freqMinHz: number;
+  freqMaxHz: number;
+  startedAt: Date;
+};
+
+/** The range a bench attaches to, as the attach acknowledgement states it. */
+export type RunRangeSummary = { label: string; dialUnit: DialUnit; dialMin: number; dialMax: number; freqMinHz: number; freqMaxHz: number };
+
+/** A run's place: whose it is and which job it belongs to (for scope checks and file names). */
+export type RunScope = { runId: number; organizationId: number; jobNumber: string };
+
+/**
+ * A run as the modules that record into it (readings, ingest, imports, live, exports) need it, read by the
+ * module that owns the runs table. The write context joins the run's job and range in one query rather than
+ * three owner calls: it is loaded for every batch a bench sends (`npm run bench:ingest` measures that path).
+ */
+@Injectable()
+export class RunContextReader {
+  constructor(@InjectDataSource() private readonly dataSource: DataSource) {}
+
+  async writeContext(runId: number, manager?: EntityManager): Promise<RunWriteContext | null> {
+    const [row] = await (manager ?? this.dataSource).query(
+      `SELECT r.id, r.kind, r.status, r.bench_id, r.started_at, j.status AS job_status, j.organization_id,
+              g.dial_min, g.dial_max, g.freq_min_hz, g.freq_max_hz
+         FROM runs r JOIN jobs j ON j.id = r.job_id JOIN instrument_ranges g ON g.id = r.range_id
+        WHERE r.id = ?`,
+      [runId],
+    );
+    if (!row) return null;
+    return {
+      runId: row.id,
+      kind: row.kind,
+      status: row.status,
+      jobStatus: row.job_status,
+      benchId: row.bench_id,
+      organizationId: row.organization_id,
+      dialMin: Number(row.dial_min),
+      dialMax: Number(row.dial_max),
+      freqMinHz: Number(row.freq_min_hz),
+      freqMaxHz: Number(row.freq_max_hz),
+      startedAt: new Date(row.started_at),
+    };
+  }
+
+  /** Locks the run row (FOR UPDATE) in the caller's transaction: readings numbered after the run's last one wait here. */
+  async lock(runId: number, manager: EntityManager): Promise<void> {
+    await manager.query('SELECT id FROM runs WHERE id = ? FOR UPDATE', [runId]);
+  }
+
+  /** Locks the run and reads its status and its job's, in the caller's transaction; null when there is no such run. */
+  async lockStatus(runId: number, manager: EntityManager): Promise<{ status: RunStatus; jobStatus: JobStatus } | null> {
+    const [row] = await manager.query('SELECT r.status, j.status AS job_status FROM runs r JOIN jobs j ON j.id = r.job_id WHERE r.id = ? FOR UPDATE', [runId]);
+    return row ? { status: row.status as RunStatus, jobStatus: row.job_status as JobStatus } : null;
+  }
+
+  async range(runId: number): Promise<RunRangeSummary | null> {
+    const [row] = await this.dataSource.query(
+      `SELECT g.label, g.dial_unit, g.dial_min, g.dial_max, g.freq_min_hz, g.freq_max_hz
+         FROM runs r JOIN instrument_ranges g ON g.id = r.range_id WHERE r.id = ?`,
+      [runId],
+    );
+    if (!row) return null;
+    return {
+      label: String(row.label),
+      dialUnit: row.dial_unit as DialUnit,
+      dialMin: Number(row.dial_min),
+      dialMax: Number(row.dial_max),
+      freqMinHz: Number(row.freq_min_hz),
+      freqMaxHz: Number(row.freq_max_hz),
+    };
+  }
+
+  async scope(runId: number): Promise<RunScope | null> {
+    const [row] = await this.dataSource.query('SELECT r.id, j.organization_id, j.number FROM runs r JOIN jobs j ON j.id = r.job_id WHERE r.id = ?', [runId]);
+    return row ? { runId: Number(row.id), organizationId: Number(row.organization_id), jobNumber: String(row.number) } : null;
+  }
+
+  /** The newest calibration runs (as-found, as-left) on a range, newest first: at most `limit` ids. */
+  async latestCalibrationRunIds(rangeId: number, limit: number): Promise<number[]> {
+    const rows: Array<{ id: number }> = await this.dataSource.query(
+      "SELECT id FROM runs WHERE range_id = ? AND kind IN ('as_found', 'as_left') ORDER BY started_at DESC, id DESC LIMIT ?",
+      [rangeId, limit],
+    );
+    return rows.map((row) => Number(row.id));
+  }
+}
