@@ -9,10 +9,10 @@ import type {
 } from '@kilocycle/common/types';
 import { CAPTURE_DEFAULTS } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
-import type { AuthUser } from '../auth/auth-user.js';
-import { loadSignedRecord } from '../certificates/signed-record.js';
-import { assertJobEditable, isJobSigned } from '../reviews/job-guards.js';
+import type { AuthUser } from '../shared/auth-user.js';
+import { assertJobEditable, isJobSigned } from '../shared/job-guards.js';
 import { likePattern, paginate } from '../shared/paginate.js';
+import { SignedResultsSource } from '../shared/signed-results.js';
 import { User } from '../users/user.entity.js';
 import type { CreateProcedureDto, ListProceduresQueryDto, UpdateProcedureDto, UpdateRunBudgetDto } from './dto/budget.dto.js';
 import { findScopedJob, findScopedRun } from './job-access.js';
@@ -52,6 +52,7 @@ export class BudgetsService {
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly audit: AuditService,
     private readonly jobResults: JobResultsService,
+    private readonly signedResults: SignedResultsSource,
   ) {}
 
   listProcedures(query: ListProceduresQueryDto): Promise<ListResponse<ProcedureView>> {
@@ -176,7 +177,7 @@ export class BudgetsService {
   /** A signed job's results are the ones it was signed with; an open job's are computed now. */
   async results(user: AuthUser, jobId: number): Promise<JobResults> {
     await findScopedJob(this.dataSource.manager, user, jobId);
-    const signed = await loadSignedRecord(this.dataSource.manager, jobId);
-    return signed ? signed.results : this.jobResults.compute(jobId);
+    const signed = await this.signedResults.signedResults(jobId);
+    return signed ?? this.jobResults.compute(jobId);
   }
 }

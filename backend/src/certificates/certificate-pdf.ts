@@ -201,6 +201,38 @@ function fitText(doc: Doc, text: string, x: number, y: number, width: number, al
  */
 function resultsTable(layout: Layout, range: RangeResult, unit: FrequencyUnit): void {
   const doc = layout.doc;
+  const columns = resultsColumns(range, unit);
+  // A thin rule at the start of each side, from the header down to the segment's last row on this page.
+  const groupStarts = (['found', 'left'] as const).map((g) => MARGIN.left + columns.slice(0, columns.findIndex((c) => c.group === g)).reduce((w, c) => w + c.width, 0));
+  let segmentTop = 0;
+  const closeSegment = () => {
+    for (const gx of groupStarts) doc.moveTo(gx, segmentTop).lineTo(gx, doc.y - 1.5).lineWidth(0.5).strokeColor(RULE).stroke();
+  };
+  layout.ensure(RESULTS_HEADER_HEIGHT + RESULTS_ROW_HEIGHT * Math.min(4, range.points.length) + 4);
+  drawResultsHeader(doc, columns);
+  segmentTop = doc.y - 1.5;
+  range.points.forEach((p, index) => {
+    if (doc.y + RESULTS_ROW_HEIGHT > PAGE.height - MARGIN.bottom) {
+      closeSegment();
+      doc.addPage();
+      doc.y = MARGIN.top;
+      drawResultsHeader(doc, columns);
+      segmentTop = doc.y - 1.5;
+    }
+    drawResultsRow(doc, range, unit, columns, p, index);
+  });
+  closeSegment();
+  doc.moveTo(MARGIN.left, doc.y).lineTo(MARGIN.left + CONTENT_WIDTH, doc.y).lineWidth(0.4).strokeColor(RULE).stroke();
+  doc.y += 4;
+  doc.fillColor(INK);
+}
+
+const RESULTS_ROW_HEIGHT = 11.5;
+const RESULTS_GROUP_HEIGHT = 10;
+const RESULTS_HEADER_HEIGHT = RESULTS_GROUP_HEIGHT + 18;
+
+/** Setting, nominal and tolerance, then five columns as found and five as left; the tolerance takes the width left over. */
+function resultsColumns(range: RangeResult, unit: FrequencyUnit): Column[] {
   const side = (group: 'found' | 'left'): Column[] => [
     { title: `Measured (${unit})`, width: 53, align: 'right', group },
     { title: 'Error (Hz)', width: 41, align: 'right', group },
@@ -215,92 +247,76 @@ function resultsTable(layout: Layout, range: RangeResult, unit: FrequencyUnit): 
   ];
   const columns = [...fixed, ...side('found'), ...side('left')];
   fixed[2]!.width = CONTENT_WIDTH - columns.reduce((w, c) => w + c.width, 0);
-  const rowHeight = 11.5;
-  const groupHeight = 10;
-  const headerHeight = groupHeight + 18;
-  const drawHeader = () => {
-    const y = doc.y;
-    doc.rect(MARGIN.left, y, CONTENT_WIDTH, headerHeight).fill('#eef1f4');
-    let x = MARGIN.left;
-    for (const group of ['found', 'left'] as const) {
-      const start = MARGIN.left + columns.slice(0, columns.findIndex((c) => c.group === group)).reduce((w, c) => w + c.width, 0);
-      const width = columns.filter((c) => c.group === group).reduce((w, c) => w + c.width, 0);
-      doc.font('bold').fontSize(7).fillColor(group === 'found' ? FOUND : ACCENT);
-      doc.text(group === 'found' ? 'As found (before adjustment)' : 'As left (after adjustment)', start, y + 2.5, { width, align: 'center', lineBreak: false });
-      doc.moveTo(start + 4, y + groupHeight + 0.5).lineTo(start + width - 4, y + groupHeight + 0.5).lineWidth(0.5).strokeColor(group === 'found' ? FOUND : ACCENT).stroke();
-      doc.moveTo(start, y + 1).lineTo(start, y + headerHeight - 1).lineWidth(0.5).strokeColor(RULE).stroke();
+  return columns;
+}
+
+/** The shaded header: the two side titles over their columns, then every column's title. */
+function drawResultsHeader(doc: Doc, columns: readonly Column[]): void {
+  const y = doc.y;
+  doc.rect(MARGIN.left, y, CONTENT_WIDTH, RESULTS_HEADER_HEIGHT).fill('#eef1f4');
+  let x = MARGIN.left;
+  for (const group of ['found', 'left'] as const) {
+    const start = MARGIN.left + columns.slice(0, columns.findIndex((c) => c.group === group)).reduce((w, c) => w + c.width, 0);
+    const width = columns.filter((c) => c.group === group).reduce((w, c) => w + c.width, 0);
+    doc.font('bold').fontSize(7).fillColor(group === 'found' ? FOUND : ACCENT);
+    doc.text(group === 'found' ? 'As found (before adjustment)' : 'As left (after adjustment)', start, y + 2.5, { width, align: 'center', lineBreak: false });
+    doc.moveTo(start + 4, y + RESULTS_GROUP_HEIGHT + 0.5).lineTo(start + width - 4, y + RESULTS_GROUP_HEIGHT + 0.5).lineWidth(0.5).strokeColor(group === 'found' ? FOUND : ACCENT).stroke();
+    doc.moveTo(start, y + 1).lineTo(start, y + RESULTS_HEADER_HEIGHT - 1).lineWidth(0.5).strokeColor(RULE).stroke();
+  }
+  doc.font('medium').fontSize(6.6).fillColor(MUTED);
+  for (const c of columns) {
+    const top = c.group ? y + RESULTS_GROUP_HEIGHT + 2.5 : y + 5;
+    doc.text(c.title, x + 2.5, top, { width: c.width - 5, align: c.align, lineGap: 0 });
+    x += c.width;
+  }
+  doc.y = y + RESULTS_HEADER_HEIGHT + 1.5;
+}
+
+/** A side's five cells: measured, error, U, k and decision (or one "not measured" note). */
+function measuredCells(m: MeasuredPoint | null, unit: FrequencyUnit): string[] {
+  if (!m) return ['not measured', '', '', '', ''];
+  const d = decimalsOf(m);
+  return [
+    frequencyText(m.measured, unit, d),
+    signedHz(m.budget ? m.errorRounded : m.errorHz, d),
+    m.budget ? plainHz(m.budget.U, d) : '—',
+    m.budget ? m.budget.k.toFixed(2) : '—',
+    m.decision ? DECISION_WORDS[m.decision] : '—',
+  ];
+}
+
+/** One setting's row, every other one shaded; a non-conforming decision in bold red, a conditional pass in amber. */
+function drawResultsRow(doc: Doc, range: RangeResult, unit: FrequencyUnit, columns: readonly Column[], p: RangeResult['points'][number], index: number): void {
+  const decimals = decimalsOf(p.asLeft ?? p.asFound);
+  const y = doc.y;
+  if (index % 2 === 1) doc.rect(MARGIN.left, y - 1.5, CONTENT_WIDTH, RESULTS_ROW_HEIGHT).fill('#f7f8fa');
+  const cells = [
+    dialText(p.dial, range.dialUnit),
+    frequencyText(p.nominal, unit, decimals),
+    plainHz(p.toleranceHz, Math.max(0, decimals)),
+    ...measuredCells(p.asFound, unit),
+    ...measuredCells(p.asLeft, unit),
+  ];
+  const decisionOf = (i: number) => (i === 7 ? p.asFound?.decision : i === 12 ? p.asLeft?.decision : undefined);
+  let x = MARGIN.left;
+  cells.forEach((cell, i) => {
+    const c = columns[i]!;
+    const decision = decisionOf(i);
+    const isDecision = i === 7 || i === 12;
+    const bad = isDecision && (decision === 'fail' || decision === 'conditional_fail');
+    const conditional = isDecision && decision === 'conditional_pass';
+    if (cell === 'not measured') {
+      // One muted note across the side's five cells.
+      const width = columns.filter((col) => col.group === c.group).reduce((w, col) => w + col.width, 0);
+      const note = c.group === 'left' && range.asLeftRunId === null ? 'not adjusted: the as-found result is final' : 'not measured';
+      doc.font('sans').fontSize(7).fillColor(MUTED).text(note, x + 3, y, { width: width - 6, align: 'center', lineBreak: false });
+    } else if (cell !== '') {
+      doc.font(isDecision ? (bad ? 'bold' : conditional ? 'medium' : 'sans') : 'mono').fillColor(bad ? '#a3261b' : conditional ? FOUND : INK);
+      fitText(doc, cell, x + 2.5, y, c.width - 5, c.align, 7.2);
     }
-    doc.font('medium').fontSize(6.6).fillColor(MUTED);
-    for (const c of columns) {
-      const top = c.group ? y + groupHeight + 2.5 : y + 5;
-      doc.text(c.title, x + 2.5, top, { width: c.width - 5, align: c.align, lineGap: 0 });
-      x += c.width;
-    }
-    doc.y = y + headerHeight + 1.5;
-  };
-  // A thin rule at the start of each side, from the header down to the segment's last row on this page.
-  const groupStarts = (['found', 'left'] as const).map((g) => MARGIN.left + columns.slice(0, columns.findIndex((c) => c.group === g)).reduce((w, c) => w + c.width, 0));
-  let segmentTop = 0;
-  const closeSegment = () => {
-    for (const gx of groupStarts) doc.moveTo(gx, segmentTop).lineTo(gx, doc.y - 1.5).lineWidth(0.5).strokeColor(RULE).stroke();
-  };
-  layout.ensure(headerHeight + rowHeight * Math.min(4, range.points.length) + 4);
-  drawHeader();
-  segmentTop = doc.y - 1.5;
-  range.points.forEach((p, index) => {
-    if (doc.y + rowHeight > PAGE.height - MARGIN.bottom) {
-      closeSegment();
-      doc.addPage();
-      doc.y = MARGIN.top;
-      drawHeader();
-      segmentTop = doc.y - 1.5;
-    }
-    const decimals = decimalsOf(p.asLeft ?? p.asFound);
-    const y = doc.y;
-    if (index % 2 === 1) doc.rect(MARGIN.left, y - 1.5, CONTENT_WIDTH, rowHeight).fill('#f7f8fa');
-    const measuredCells = (m: MeasuredPoint | null): string[] => {
-      if (!m) return ['not measured', '', '', '', ''];
-      const d = decimalsOf(m);
-      return [
-        frequencyText(m.measured, unit, d),
-        signedHz(m.budget ? m.errorRounded : m.errorHz, d),
-        m.budget ? plainHz(m.budget.U, d) : '—',
-        m.budget ? m.budget.k.toFixed(2) : '—',
-        m.decision ? DECISION_WORDS[m.decision] : '—',
-      ];
-    };
-    const cells = [
-      dialText(p.dial, range.dialUnit),
-      frequencyText(p.nominal, unit, decimals),
-      plainHz(p.toleranceHz, Math.max(0, decimals)),
-      ...measuredCells(p.asFound),
-      ...measuredCells(p.asLeft),
-    ];
-    const decisionOf = (i: number) => (i === 7 ? p.asFound?.decision : i === 12 ? p.asLeft?.decision : undefined);
-    let x = MARGIN.left;
-    cells.forEach((cell, i) => {
-      const c = columns[i]!;
-      const decision = decisionOf(i);
-      const isDecision = i === 7 || i === 12;
-      const bad = isDecision && (decision === 'fail' || decision === 'conditional_fail');
-      const conditional = isDecision && decision === 'conditional_pass';
-      if (cell === 'not measured') {
-        // One muted note across the side's five cells.
-        const width = columns.filter((col) => col.group === c.group).reduce((w, col) => w + col.width, 0);
-        const note = c.group === 'left' && range.asLeftRunId === null ? 'not adjusted: the as-found result is final' : 'not measured';
-        doc.font('sans').fontSize(7).fillColor(MUTED).text(note, x + 3, y, { width: width - 6, align: 'center', lineBreak: false });
-      } else if (cell !== '') {
-        doc.font(isDecision ? (bad ? 'bold' : conditional ? 'medium' : 'sans') : 'mono').fillColor(bad ? '#a3261b' : conditional ? FOUND : INK);
-        fitText(doc, cell, x + 2.5, y, c.width - 5, c.align, 7.2);
-      }
-      x += c.width;
-    });
-    doc.y = y + rowHeight;
+    x += c.width;
   });
-  closeSegment();
-  doc.moveTo(MARGIN.left, doc.y).lineTo(MARGIN.left + CONTENT_WIDTH, doc.y).lineWidth(0.4).strokeColor(RULE).stroke();
-  doc.y += 4;
-  doc.fillColor(INK);
+  doc.y = y + RESULTS_ROW_HEIGHT;
 }
 
 function fitSentence(label: string, summary: RangeResult['asLeftFit']): string | null {
@@ -324,6 +340,22 @@ function errorPlot(layout: Layout, range: RangeResult, unit: FrequencyUnit): voi
   const box = { x: MARGIN.left + 44, y: doc.y + 14, w: CONTENT_WIDTH - 44 - 8, h: height - 26 };
   const points = range.points;
   if (points.length === 0) return;
+  const scale = plotScale(points, unit, box);
+  doc.save();
+  drawPlotAxes(doc, box, scale, unit);
+  drawPlotData(doc, box, points, scale);
+  drawPlotLegend(doc, box, range);
+  doc.restore();
+  doc.x = MARGIN.left;
+  doc.y = box.y + box.h + 22;
+  doc.fillColor(INK);
+}
+
+type PlotBox = { x: number; y: number; w: number; h: number };
+type PlotScale = { mult: number; xTicks: number[]; yTicks: number[]; yLo: number; yHi: number; px: (v: number) => number; py: (v: number) => number };
+
+/** The axes' ranges and ticks: nominal (in the display unit) with a little room at both ends, error over the tolerances and every U bar. */
+function plotScale(points: RangeResult['points'], unit: FrequencyUnit, box: PlotBox): PlotScale {
   const mult = 10 ** UNIT_DIGITS[unit];
   const xs = points.map((p) => p.nominal / mult);
   let xMin = Math.min(...xs);
@@ -348,8 +380,12 @@ function errorPlot(layout: Layout, range: RangeResult, unit: FrequencyUnit): voi
   const yHi = yTicks[yTicks.length - 1]!;
   const px = (v: number) => box.x + ((v - xMin) / (xMax - xMin)) * box.w;
   const py = (v: number) => box.y + box.h - ((v - yLo) / (yHi - yLo)) * box.h;
+  return { mult, xTicks, yTicks, yLo, yHi, px, py };
+}
 
-  doc.save();
+/** The frame, grid lines, tick labels and axis titles. */
+function drawPlotAxes(doc: Doc, box: PlotBox, scale: PlotScale, unit: FrequencyUnit): void {
+  const { mult, xTicks, yTicks, px, py } = scale;
   doc.rect(box.x, box.y, box.w, box.h).lineWidth(0.5).strokeColor(RULE).stroke();
   doc.font('mono').fontSize(6).fillColor(MUTED);
   for (const t of yTicks) {
@@ -368,7 +404,11 @@ function errorPlot(layout: Layout, range: RangeResult, unit: FrequencyUnit): voi
   doc.rotate(-90, { origin: [MARGIN.left + 4, box.y + box.h / 2] });
   doc.text('error (Hz)', MARGIN.left + 4 - 30, box.y + box.h / 2 - 3, { width: 60, align: 'center', lineBreak: false });
   doc.restore();
+}
 
+/** The zero line, the tolerance limits and the as-found and as-left points with their U bars. */
+function drawPlotData(doc: Doc, box: PlotBox, points: RangeResult['points'], scale: PlotScale): void {
+  const { mult, yLo, yHi, px, py } = scale;
   // zero line and tolerance limits (follow the nominal: the band widens with a percent tolerance)
   if (yLo < 0 && yHi > 0) doc.moveTo(box.x, py(0)).lineTo(box.x + box.w, py(0)).lineWidth(0.6).strokeColor(MUTED).stroke();
   for (const sign of [1, -1]) {
@@ -402,6 +442,10 @@ function errorPlot(layout: Layout, range: RangeResult, unit: FrequencyUnit): voi
       else doc.fillAndStroke('#ffffff', s.color);
     }
   }
+}
+
+/** The caption naming the range and the legend, above the plot's top right corner (never over the data). */
+function drawPlotLegend(doc: Doc, box: PlotBox, range: RangeResult): void {
   // legend, above the plot's top right corner (never over the data)
   const ly = box.y - 9;
   doc.font('sans').fontSize(6.2);
@@ -421,10 +465,6 @@ function errorPlot(layout: Layout, range: RangeResult, unit: FrequencyUnit): voi
     doc.fillColor(MUTED).text(label, lx + 12, ly, { lineBreak: false });
     lx += 12 + doc.widthOfString(label) + 12;
   }
-  doc.restore();
-  doc.x = MARGIN.left;
-  doc.y = box.y + box.h + 22;
-  doc.fillColor(INK);
 }
 
 function settingText(range: RangeResult, dial: number): string {
@@ -559,7 +599,19 @@ export async function renderCertificatePdf(input: CertificatePdfData): Promise<B
   // Results stored before the two outcomes were kept get them from their own points.
   const r = withOutcomes(data.results);
 
-  // ---- Title block ----
+  titleBlock(layout, data, r, qr);
+  identitySections(layout, data, r);
+  traceabilitySection(layout, r);
+  for (const range of r.ranges) rangeSection(layout, range);
+  statementSections(layout, data, r);
+  pageFrames(doc, data);
+  doc.end();
+  return finished;
+}
+
+/** The title, number and revision, the QR code to the verification page, and the outcome box. */
+function titleBlock(layout: Layout, data: CertificatePdfData, r: JobResults & { outcomes: JobOutcomes }, qr: Buffer): void {
+  const doc = layout.doc;
   const qrSize = 78;
   doc.image(qr, PAGE.width - MARGIN.right - qrSize, MARGIN.top - 4, { width: qrSize });
   doc.font('sans').fontSize(6).fillColor(MUTED).text('Scan to check this certificate', PAGE.width - MARGIN.right - qrSize - 10, MARGIN.top + qrSize - 2, { width: qrSize + 10, align: 'center' });
@@ -573,6 +625,10 @@ export async function renderCertificatePdf(input: CertificatePdfData): Promise<B
   doc.fillColor(INK);
   outcomeBox(layout, r.outcomes, RULE_SHORT[r.decisionRule]);
 
+}
+
+/** Laboratory and customer, the item calibrated, and the dates, method and conditions. */
+function identitySections(layout: Layout, data: CertificatePdfData, r: JobResults): void {
   layout.heading('Laboratory and customer', 90);
   layout.fields([
     ['Laboratory', `${data.lab.name}\n${data.lab.address}`],
@@ -606,6 +662,10 @@ export async function renderCertificatePdf(input: CertificatePdfData): Promise<B
     ['Environment', env.length > 0 ? env.join('; ') : 'not recorded'],
   ]);
 
+}
+
+/** The standards the results are traceable through. */
+function traceabilitySection(layout: Layout, r: JobResults): void {
   layout.heading('Metrological traceability', 70);
   if (r.standards.length === 0) layout.paragraph('No reference standard is recorded for the runs reported.');
   for (const s of r.standards) {
@@ -620,26 +680,31 @@ export async function renderCertificatePdf(input: CertificatePdfData): Promise<B
     8,
   );
 
-  // ---- Results ----
-  for (const range of r.ranges) {
-    const unit = displayUnit(range);
-    layout.heading(`Results, range ${range.position}: ${range.label}`, 200);
-    const span = `${compactFrequency(range.freqMinHz, unit)} to ${compactFrequency(range.freqMaxHz, unit)} ${unit}`;
-    const runs = [range.asFoundRunId ? `as found: run ${range.asFoundRunId}` : null, range.asLeftRunId ? `as left: run ${range.asLeftRunId}` : null].filter(Boolean).join(', ');
-    layout.paragraph(
-      `Span ${span}; tolerance ${toleranceWords(range.tolerance)}; ${runs}. Each row is the mean of the readings at that setting; ` +
-        'error = measured − nominal; U is the expanded uncertainty with its coverage factor k (coverage probability ≈ 95 %).',
-      7.8,
-    );
-    layout.paragraph(`This range: ${jobOutcomes([range]).summary}`, 7.8, 'medium');
-    resultsTable(layout, range, unit);
-    for (const sentence of [fitSentence('As-found fit', range.asFoundFit), fitSentence('As-left fit', range.asLeftFit)]) {
-      if (sentence) layout.paragraph(sentence, 7.6);
-    }
-    if (range.problems.length > 0) layout.paragraph(`Not evaluated: ${range.problems.join('; ')}`, 7.6);
-    errorPlot(layout, range, unit);
-  }
+}
 
+/** One range: its span and tolerance, the results table, the fitted lines and the error plot. */
+function rangeSection(layout: Layout, range: RangeResult): void {
+  const unit = displayUnit(range);
+  layout.heading(`Results, range ${range.position}: ${range.label}`, 200);
+  const span = `${compactFrequency(range.freqMinHz, unit)} to ${compactFrequency(range.freqMaxHz, unit)} ${unit}`;
+  const runs = [range.asFoundRunId ? `as found: run ${range.asFoundRunId}` : null, range.asLeftRunId ? `as left: run ${range.asLeftRunId}` : null].filter(Boolean).join(', ');
+  layout.paragraph(
+    `Span ${span}; tolerance ${toleranceWords(range.tolerance)}; ${runs}. Each row is the mean of the readings at that setting; ` +
+      'error = measured − nominal; U is the expanded uncertainty with its coverage factor k (coverage probability ≈ 95 %).',
+    7.8,
+  );
+  layout.paragraph(`This range: ${jobOutcomes([range]).summary}`, 7.8, 'medium');
+  resultsTable(layout, range, unit);
+  for (const sentence of [fitSentence('As-found fit', range.asFoundFit), fitSentence('As-left fit', range.asLeftFit)]) {
+    if (sentence) layout.paragraph(sentence, 7.6);
+  }
+  if (range.problems.length > 0) layout.paragraph(`Not evaluated: ${range.problems.join('; ')}`, 7.6);
+  errorPlot(layout, range, unit);
+}
+
+/** Uncertainty, the decision rule and conformity, remarks, an amendment, and the authorisation. */
+function statementSections(layout: Layout, data: CertificatePdfData, r: JobResults & { outcomes: JobOutcomes }): void {
+  const doc = layout.doc;
   // ---- Statements ----
   layout.heading('Measurement uncertainty', 80);
   const extra = new Set<string>();
@@ -683,6 +748,10 @@ export async function renderCertificatePdf(input: CertificatePdfData): Promise<B
   layout.ensure(20);
   doc.font('medium').fontSize(8).fillColor(MUTED).text(`— End of certificate ${data.number}, revision ${data.revision} —`, MARGIN.left, doc.y, { width: CONTENT_WIDTH, align: 'center' });
 
+}
+
+/** The header and footer on every page ("Page x of y" needs the page count, so they are drawn last). */
+function pageFrames(doc: Doc, data: CertificatePdfData): void {
   // ---- Header and footer on every page ----
   const range = doc.bufferedPageRange();
   for (let i = range.start; i < range.start + range.count; i++) {
@@ -706,6 +775,4 @@ export async function renderCertificatePdf(input: CertificatePdfData): Promise<B
     doc.font('mono').fontSize(6.5).fillColor(MUTED).text(`${data.number}/${data.revision} · ${page}/${range.count}`, PAGE.width - MARGIN.right - 110, fy + 5, { width: 110, align: 'right', lineBreak: false });
     doc.page.margins.bottom = bottom;
   }
-  doc.end();
-  return finished;
 }
