@@ -1,8 +1,8 @@
 import { Controller, Get, Query, UseFilters } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { BandPlanResponse, RunAnalysis } from '@kilocycle/common/types';
-import type { AuthUser } from '../auth/auth-user.js';
-import { CurrentUser } from '../auth/decorators.js';
+import type { AuthUser } from '../shared/auth-user.js';
+import { CurrentUser } from '../shared/decorators.js';
 import { BandPlanQueryDto } from '../instruments/dto/instrument.dto.js';
 import { AnalysisService } from './analysis.service.js';
 import { BandPlanService } from './band-plan.service.js';

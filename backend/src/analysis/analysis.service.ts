@@ -32,7 +32,7 @@ import {
   type SupplySensitivityRunAnalysis,
   type WarmupRunAnalysis,
 } from '@kilocycle/common/types';
-import type { AuthUser } from '../auth/auth-user.js';
+import type { AuthUser } from '../shared/auth-user.js';
 import type { InstrumentRange } from '../instruments/instrument-range.entity.js';
 import { RunsService } from '../runs/runs.service.js';
 import { LruCache } from './analysis-cache.js';

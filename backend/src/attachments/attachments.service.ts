@@ -22,7 +22,7 @@ import {
   type ListResponse,
 } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
-import { organizationScope, type AuthUser } from '../auth/auth-user.js';
+import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { attachmentDisposition } from '../shared/csv.js';
 import { megabytesFromEnv, readHead, receiveUpload, removeQuietly } from '../shared/multipart-upload.js';

@@ -1,9 +1,9 @@
 import { Body, Controller, Get, HttpCode, Ip, Post, UseInterceptors } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { LoginResponse, SessionUser } from '@kilocycle/common/types';
-import type { AuthUser } from './auth-user.js';
+import type { AuthUser } from '../shared/auth-user.js';
 import { AuthService } from './auth.service.js';
-import { CurrentUser, Public } from './decorators.js';
+import { CurrentUser, Public } from '../shared/decorators.js';
 import { LoginDto } from './dto/login.dto.js';
 import { RetryAfterInterceptor } from './sign-in-throttle.js';
 

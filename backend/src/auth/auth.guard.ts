@@ -1,9 +1,9 @@
 import { ForbiddenException, Injectable, UnauthorizedException, type CanActivate, type ExecutionContext } from '@nestjs/common';
 import { Reflector } from '@nestjs/core';
 import type { Role } from '@kilocycle/common/types';
-import type { AuthUser } from './auth-user.js';
+import type { AuthUser } from '../shared/auth-user.js';
 import { AuthService } from './auth.service.js';
-import { IS_PUBLIC, ROLES_KEY } from './decorators.js';
+import { IS_PUBLIC, ROLES_KEY } from '../shared/decorators.js';
 
 /** Global guard: every HTTP route needs a valid session unless marked @Public(); @Roles narrows it. */
 @Injectable()

@@ -3,17 +3,17 @@ import { APP_GUARD } from '@nestjs/core';
 import { JwtModule } from '@nestjs/jwt';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
-import { User } from '../users/user.entity.js';
+import { UsersModule } from '../users/users.module.js';
 import { AuthController } from './auth.controller.js';
 import { AuthGuard } from './auth.guard.js';
 import { AuthService } from './auth.service.js';
 import { RevokedToken } from './revoked-token.entity.js';
-import { SessionsService } from './sessions.service.js';
 import { SignInThrottleModule } from './sign-in-throttle.module.js';
 
 @Module({
   imports: [
-    TypeOrmModule.forFeature([User, RevokedToken]),
+    TypeOrmModule.forFeature([RevokedToken]),
+    UsersModule,
     SignInThrottleModule,
     JwtModule.registerAsync({
       inject: [APP_CONFIG],
@@ -26,7 +26,7 @@ import { SignInThrottleModule } from './sign-in-throttle.module.js';
     }),
   ],
   controllers: [AuthController],
-  providers: [AuthService, SessionsService, { provide: APP_GUARD, useClass: AuthGuard }],
-  exports: [AuthService, SessionsService],
+  providers: [AuthService, { provide: APP_GUARD, useClass: AuthGuard }],
+  exports: [AuthService],
 })
 export class AuthModule {}

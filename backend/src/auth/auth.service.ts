@@ -7,10 +7,10 @@ import { LessThan, type Repository } from 'typeorm';
 import type { LoginResponse, SessionUser } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
-import { User } from '../users/user.entity.js';
-import type { AuthUser, JwtClaims } from './auth-user.js';
+import { AccountsReader } from '../users/accounts.reader.js';
+import type { AuthUser, JwtClaims } from '../shared/auth-user.js';
 import { RevokedToken } from './revoked-token.entity.js';
-import { SessionsService } from './sessions.service.js';
+import { AccountSessions } from '../shared/account-sessions.js';
 import { SignInThrottle, TooManyAttemptsException } from './sign-in-throttle.js';
 
 const BAD_CREDENTIALS = 'E-mail or password is not right';
@@ -21,7 +21,7 @@ const DUMMY_HASH = bcrypt.hashSync('not-a-real-password-kc', 10);
 /** Why a sign-in was refused, as the audit trail records it (the answer to the client stays the same for all). */
 type RefusalReason = 'unknown e-mail' | 'wrong password' | 'account or organisation deactivated' | 'too many failed sign-ins';
 
-export function toSessionUser(user: User): SessionUser {
+export function toSessionUser(user: SessionUser): SessionUser {
   return { id: user.id, email: user.email, name: user.name, role: user.role, organizationId: user.organizationId };
 }
 
@@ -34,12 +34,12 @@ export class AuthService {
   private readonly throttledAudited = new Map<string, number>();
 
   constructor(
-    @InjectRepository(User) private readonly users: Repository<User>,
+    private readonly accounts: AccountsReader,
     @InjectRepository(RevokedToken) private readonly revoked: Repository<RevokedToken>,
     private readonly jwt: JwtService,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
     private readonly audit: AuditService,
-    private readonly sessions: SessionsService,
+    private readonly sessions: AccountSessions,
     private readonly throttle: SignInThrottle,
   ) {}
 
@@ -52,13 +52,7 @@ export class AuthService {
       }
       throw error;
     }
-    const user = await this.users
-      .createQueryBuilder('u')
-      .addSelect('u.passwordHash')
-      .innerJoin('u.organization', 'o')
-      .where('u.email = :email', { email: email.toLowerCase() })
-      .andWhere('u.active = 1 AND o.active = 1')
-      .getOne();
+    const user = await this.accounts.signInCandidate(email);
     const ok = await bcrypt.compare(password, user?.passwordHash ?? DUMMY_HASH);
     if (!user || !ok) {
       await this.throttle.recordSignInFailure(email, address);
@@ -79,9 +73,9 @@ export class AuthService {
     let reason = known?.reason ?? null;
     let accountId = known?.accountId ?? null;
     if (accountId === null) {
-      const account = await this.users.findOne({ where: { email: email.toLowerCase() }, relations: { organization: true } });
+      const account = await this.accounts.byEmail(email);
       accountId = account?.id ?? null;
-      reason ??= !account ? 'unknown e-mail' : !account.active || !account.organization.active ? 'account or organisation deactivated' : 'wrong password';
+      reason ??= !account ? 'unknown e-mail' : !account.active || !account.organizationActive ? 'account or organisation deactivated' : 'wrong password';
     }
     await this.audit.record({ actorId: null, entity: 'user', entityId: accountId ?? 'unknown', action: 'sign_in_refused', changes: { email, address, reason } });
   }
@@ -111,10 +105,10 @@ export class AuthService {
       throw new UnauthorizedException('Session is not valid or has expired; sign in again');
     }
     const [user, revoked] = await Promise.all([
-      this.users.findOne({ where: { id: claims.sub }, relations: { organization: true } }),
+      this.accounts.byId(claims.sub),
       this.revoked.existsBy({ jti: claims.jti }),
     ]);
-    if (!user || !user.active || !user.organization.active || revoked || user.tokenVersion !== claims.tv) {
+    if (!user || !user.active || !user.organizationActive || revoked || user.tokenVersion !== claims.tv) {
       throw new UnauthorizedException('Session is not valid any more; sign in again');
     }
     return { ...toSessionUser(user), jti: claims.jti, exp: claims.exp ?? 0 };

@@ -2,8 +2,8 @@ import { Body, Controller, Delete, Get, HttpCode, Patch, Post, Query } from '@ne
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { Bench as BenchView, BenchTokenResponse, ListResponse } from '@kilocycle/common/types';
 import { LAB_ROLES } from '@kilocycle/common/rules';
-import type { AuthUser } from '../auth/auth-user.js';
-import { CurrentUser, Roles } from '../auth/decorators.js';
+import type { AuthUser } from '../shared/auth-user.js';
+import { CurrentUser, Roles } from '../shared/decorators.js';
 import { BenchesService } from './benches.service.js';
 import { CreateBenchDto, ListBenchesQueryDto, UpdateBenchDto } from './dto/bench.dto.js';
 import { IdParam } from '../shared/id-param.decorator.js';

@@ -4,7 +4,7 @@ import { Subject } from 'rxjs';
 import type { DataSource, EntityManager, Repository } from 'typeorm';
 import type { Bench as BenchView, BenchTokenResponse, ListResponse } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
-import type { AuthUser } from '../auth/auth-user.js';
+import type { AuthUser } from '../shared/auth-user.js';
 import { likePattern, paginate } from '../shared/paginate.js';
 import { Standard } from '../standards/standard.entity.js';
 import { Bench } from './bench.entity.js';

@@ -1,6 +1,6 @@
 import { NotFoundException } from '@nestjs/common';
 import type { EntityManager } from 'typeorm';
-import { organizationScope, type AuthUser } from '../auth/auth-user.js';
+import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { Job } from '../jobs/job.entity.js';
 import { Run } from '../runs/run.entity.js';
 

@@ -25,8 +25,8 @@ import type {
   PublicCertificate,
 } from '@kilocycle/common/types';
 import { MANAGER_ROLES } from '@kilocycle/common/rules';
-import type { AuthUser } from '../auth/auth-user.js';
-import { CurrentUser, Public, Roles } from '../auth/decorators.js';
+import type { AuthUser } from '../shared/auth-user.js';
+import { CurrentUser, Public, Roles } from '../shared/decorators.js';
 import { CertificatesService } from './certificates.service.js';
 import { AmendCertificateDto, ListCertificatesQueryDto, UpdateSettingsDto, WithdrawCertificateDto } from './dto/certificate.dto.js';
 import { IdParam } from '../shared/id-param.decorator.js';

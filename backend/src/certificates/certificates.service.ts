@@ -14,7 +14,7 @@ import type {
 } from '@kilocycle/common/types';
 import { withOutcomes } from '@kilocycle/common/math';
 import { AuditService } from '../audit/audit.service.js';
-import { organizationScope, type AuthUser } from '../auth/auth-user.js';
+import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { Job } from '../jobs/job.entity.js';
 import { JobReview } from '../reviews/job-review.entity.js';

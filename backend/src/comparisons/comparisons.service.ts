@@ -3,7 +3,7 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import type { DataSource } from 'typeorm';
 import type { ComparisonResult, InstrumentSensitivity, ListResponse, SavedComparison } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
-import type { AuthUser } from '../auth/auth-user.js';
+import type { AuthUser } from '../shared/auth-user.js';
 import { instrumentLabel } from '../instruments/instruments.service.js';
 import { paginateFlat } from '../shared/page-query.js';
 import { likePattern } from '../shared/paginate.js';

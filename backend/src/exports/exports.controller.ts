@@ -1,8 +1,8 @@
 import { Controller, Get, Res } from '@nestjs/common';
 import { ApiBearerAuth, ApiProduces, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
-import type { AuthUser } from '../auth/auth-user.js';
-import { CurrentUser } from '../auth/decorators.js';
+import type { AuthUser } from '../shared/auth-user.js';
+import { CurrentUser } from '../shared/decorators.js';
 import { ExportsService } from './exports.service.js';
 import { IdParam } from '../shared/id-param.decorator.js';
 

@@ -4,7 +4,7 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import type { Response } from 'express';
 import type { DataSource } from 'typeorm';
 import type { HealthResponse } from '@kilocycle/common/types';
-import { Public } from '../auth/decorators.js';
+import { Public } from '../shared/decorators.js';
 
 export const APP_VERSION = '0.1.0';
 

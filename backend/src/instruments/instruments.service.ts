@@ -3,7 +3,7 @@ import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import { In, type DataSource, type EntityManager, type Repository } from 'typeorm';
 import type { Instrument as InstrumentView, InstrumentRange as RangeView, ListResponse, RangeInput } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
-import { organizationScope, type AuthUser } from '../auth/auth-user.js';
+import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { Organization } from '../organizations/organization.entity.js';
 import { dateOnly, todayIso } from '../shared/dto-helpers.js';
 import { paginateFlat } from '../shared/page-query.js';

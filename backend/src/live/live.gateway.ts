@@ -14,9 +14,9 @@ import {
   type LiveExclusionEvent,
   type LiveReadingsEvent,
 } from '@kilocycle/common/events';
-import type { AuthUser } from '../auth/auth-user.js';
+import type { AuthUser } from '../shared/auth-user.js';
 import { AuthService } from '../auth/auth.service.js';
-import { SessionsService, type SessionsEnded } from '../auth/sessions.service.js';
+import { AccountSessions, type SessionsEnded } from '../shared/account-sessions.js';
 import { BridgePresence } from '../shared/bridge-presence.js';
 import { CounterCaptureService } from '../ingest/counter-capture.service.js';
 import { errorDetail, toRefusal } from '../shared/socket-refusal.js';
@@ -45,7 +45,7 @@ export class LiveGateway implements OnGatewayInit, OnModuleDestroy {
     private readonly auth: AuthService,
     private readonly live: LiveService,
     private readonly writer: ReadingsWriter,
-    private readonly sessions: SessionsService,
+    private readonly sessions: AccountSessions,
     private readonly presence: BridgePresence,
     private readonly captures: CounterCaptureService,
   ) {}

@@ -4,7 +4,7 @@ import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
 import type { DataSource } from 'typeorm';
 import type { ListResponse, MailMessageSummary, MailMessageView } from '@kilocycle/common/types';
-import { Roles } from '../auth/decorators.js';
+import { Roles } from '../shared/decorators.js';
 import { likePattern, paginate } from '../shared/paginate.js';
 import { ListMailQueryDto } from './dto/mail.dto.js';
 import { MailMessage } from './mail-message.entity.js';

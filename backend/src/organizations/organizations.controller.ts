@@ -1,8 +1,8 @@
 import { Body, Controller, Get, Patch, Post, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { ListResponse, Organization as OrganizationView } from '@kilocycle/common/types';
-import type { AuthUser } from '../auth/auth-user.js';
-import { CurrentUser, Roles } from '../auth/decorators.js';
+import type { AuthUser } from '../shared/auth-user.js';
+import { CurrentUser, Roles } from '../shared/decorators.js';
 import { CreateOrganizationDto, ListOrganizationsQueryDto, UpdateOrganizationDto } from './dto/organization.dto.js';
 import { OrganizationsService } from './organizations.service.js';
 import { IdParam } from '../shared/id-param.decorator.js';

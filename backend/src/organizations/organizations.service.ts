@@ -3,9 +3,8 @@ import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import type { DataSource, Repository } from 'typeorm';
 import type { ListResponse, Organization as OrganizationView } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
-import { organizationScope, type AuthUser } from '../auth/auth-user.js';
-import { SessionsService } from '../auth/sessions.service.js';
-import { User } from '../users/user.entity.js';
+import { organizationScope, type AuthUser } from '../shared/auth-user.js';
+import { AccountSessions } from '../shared/account-sessions.js';
 import { likePattern, paginate } from '../shared/paginate.js';
 import type { CreateOrganizationDto, ListOrganizationsQueryDto, UpdateOrganizationDto } from './dto/organization.dto.js';
 import { Organization } from './organization.entity.js';
@@ -22,7 +21,7 @@ export class OrganizationsService {
     @InjectRepository(Organization) private readonly organizations: Repository<Organization>,
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly audit: AuditService,
-    private readonly sessions: SessionsService,
+    private readonly sessions: AccountSessions,
   ) {}
 
   list(actor: AuthUser, query: ListOrganizationsQueryDto): Promise<ListResponse<OrganizationView>> {
@@ -77,9 +76,7 @@ export class OrganizationsService {
       if (Object.keys(patch).length === 0) return [];
       await manager.update(Organization, { id }, patch);
       // Deactivating an organisation ends the sessions of all its users at once.
-      const userIds =
-        patch.active === false ? (await manager.find(User, { select: { id: true }, where: { organizationId: id } })).map((u) => u.id) : [];
-      await this.sessions.endAllSessions(manager, userIds);
+      const userIds = patch.active === false ? await this.sessions.endOrganizationSessions(manager, id) : [];
       await this.audit.record({ actorId: actor.id, entity: 'organization', entityId: id, action: 'update', changes }, manager);
       return userIds;
     });

@@ -3,7 +3,7 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import type { DataSource } from 'typeorm';
 import type { AppendReadingsResponse, ListResponse, Reading as ReadingView, ReadingInput } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
-import { organizationScope, type AuthUser } from '../auth/auth-user.js';
+import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { assertMayWriteRun } from '../runs/run-rules.js';
 import { sortColumn } from '../shared/page-query.js';
 import type { ListReadingsQueryDto } from './dto/readings.dto.js';

@@ -2,8 +2,8 @@ import { Controller, Get, HttpCode, Post, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { ListResponse, RecallNotice, RecallRunResult } from '@kilocycle/common/types';
 import { MANAGER_ROLES } from '@kilocycle/common/rules';
-import type { AuthUser } from '../auth/auth-user.js';
-import { CurrentUser, Roles } from '../auth/decorators.js';
+import type { AuthUser } from '../shared/auth-user.js';
+import { CurrentUser, Roles } from '../shared/decorators.js';
 import { ListQueryDto } from '../shared/list-query.dto.js';
 import { RecallService } from './recall.service.js';
 

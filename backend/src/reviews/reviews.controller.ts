@@ -2,8 +2,8 @@ import { Body, Controller, Get, HttpCode, Post, UseInterceptors } from '@nestjs/
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { CertificateDetail, JobReview } from '@kilocycle/common/types';
 import { BENCH_ROLES, LAB_ROLES } from '@kilocycle/common/rules';
-import type { AuthUser } from '../auth/auth-user.js';
-import { CurrentUser, Roles } from '../auth/decorators.js';
+import type { AuthUser } from '../shared/auth-user.js';
+import { CurrentUser, Roles } from '../shared/decorators.js';
 import { RetryAfterInterceptor } from '../auth/sign-in-throttle.js';
 import { ReturnJobDto, SignJobDto, SubmitJobDto } from './dto/review.dto.js';
 import { ReviewsService } from './reviews.service.js';

@@ -5,7 +5,7 @@ import type { DataSource, EntityManager } from 'typeorm';
 import { SIGNING_MEANING, type RunKind, type CertificateDetail, type JobReview as JobReviewView, type ReviewEvent, type ReviewFlag } from '@kilocycle/common/types';
 import { selfSignRefusal } from '@kilocycle/common/rules';
 import { AuditService } from '../audit/audit.service.js';
-import type { AuthUser } from '../auth/auth-user.js';
+import type { AuthUser } from '../shared/auth-user.js';
 import { SignInThrottle } from '../auth/sign-in-throttle.js';
 import { findScopedJob } from '../budgets/job-access.js';
 import { JobResultsService } from '../budgets/job-results.service.js';

@@ -3,7 +3,7 @@ import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import type { DataSource, Repository } from 'typeorm';
 import type { ListResponse, ReferenceStandard } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
-import type { AuthUser } from '../auth/auth-user.js';
+import type { AuthUser } from '../shared/auth-user.js';
 import { dateOnly, todayIso } from '../shared/dto-helpers.js';
 import { likePattern, paginate } from '../shared/paginate.js';
 import type { CreateStandardDto, ListStandardsQueryDto, UpdateStandardDto } from './dto/standard.dto.js';

@@ -39,7 +39,7 @@ export class User {
   @Column({ type: 'boolean', default: true })
   active: boolean;
 
-  /** Carried in each JWT; raising it ends every session of the user (auth/sessions.service.ts). */
+  /** Carried in each JWT; raising it ends every session of the user (users/sessions.service.ts). */
   @Column({ name: 'token_version', type: 'int', default: 0 })
   tokenVersion: number;
 

@@ -1,8 +1,8 @@
 import { Body, Controller, Get, Patch, Post, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { ListResponse, User as UserView } from '@kilocycle/common/types';
-import type { AuthUser } from '../auth/auth-user.js';
-import { CurrentUser, Roles } from '../auth/decorators.js';
+import type { AuthUser } from '../shared/auth-user.js';
+import { CurrentUser, Roles } from '../shared/decorators.js';
 import { CreateUserDto, ListUsersQueryDto, UpdateUserDto } from './dto/user.dto.js';
 import { UsersService } from './users.service.js';
 import { IdParam } from '../shared/id-param.decorator.js';
