@@ -1,3 +1,4 @@
+import { parseNumber } from '@kilocycle/common/units';
 import { z } from 'zod';
 
 /** Pieces the feature schemas are built from. Form fields hold strings; these turn them into the request's values. */
@@ -54,3 +55,24 @@ export const optionalNumber = (rule: NumberRule) =>
     .trim()
     .refine((text) => text === '' || checkNumber(text, rule), rule.message)
     .transform((text) => (text === '' ? null : toNumber(text, rule)));
+
+/**
+ * A number as people type it (common's `parseNumber`: spaces, a decimal comma), then `check` (a message or null).
+ * The parser's own message is shown when the text is not a number.
+ */
+export const typedNumber = (check: (value: number) => string | null) =>
+  z.string().transform((text, context) => {
+    let value: number;
+    try {
+      value = parseNumber(text);
+    } catch (error) {
+      context.addIssue({ code: 'custom', message: error instanceof Error ? error.message : 'Not a number' });
+      return z.NEVER;
+    }
+    const problem = check(value);
+    if (problem) context.addIssue({ code: 'custom', message: problem });
+    return value;
+  });
+
+/** A date typed in a date field (yyyy-mm-dd). */
+export const isoDate = (message: string) => z.string().regex(/^\d{4}-\d{2}-\d{2}$/, message);

@@ -115,6 +115,8 @@ function FormDialogBody<TIn extends FieldValues, TOut>(props: FormDialogProps<TI
     first?.focus();
   }, []);
   const messages = serverMessages(error, errorFallback ?? 'The request failed. Try again.', keepMessage);
+  // A problem with the form as a whole (the schema's issue at path ['root']), e.g. "Nothing is changed yet".
+  const formProblem = form.formState.errors.root?.message;
   return (
     <form ref={formRef} noValidate onSubmit={(event) => void form.handleSubmit(onSubmit)(event)}>
       <DialogTitle id={titleId}>{title}</DialogTitle>
@@ -124,7 +126,7 @@ function FormDialogBody<TIn extends FieldValues, TOut>(props: FormDialogProps<TI
             {intro}
           </DialogContentText>
         )}
-        <FormErrors messages={messages} />
+        <FormErrors messages={formProblem ? [formProblem, ...messages] : messages} />
         {props.layout === 'custom' ? (
           props.children
         ) : (

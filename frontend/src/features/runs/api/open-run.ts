@@ -1,7 +1,37 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { CreateRunRequest, Run } from '@kilocycle/common/types';
+import { FIELD_LIMITS } from '@kilocycle/common/rules';
+import { CALIBRATION_RUN_KINDS, RUN_KINDS, type CreateRunRequest, type Run } from '@kilocycle/common/types';
+import { z } from 'zod';
 import { api } from '@/lib/api-client';
+import { optionalId, optionalNumber, optionalText, requiredId } from '@/utils/form-schema';
 import { getRunsQueryOptions } from './get-runs';
+
+const { overrideReason: REASON, supplyVoltage: VOLTS } = FIELD_LIMITS.run;
+
+/**
+ * The open-run form. As-found and as-left runs need a standard; when `asksReason` says so for the chosen
+ * standard (a lead using a lapsed one), the written reason the server wants with it is required and sent.
+ */
+export function openRunSchema(asksReason: (standardId: number | null) => boolean) {
+  return z
+    .object({
+      rangeId: requiredId('Choose the range'),
+      kind: z.enum(RUN_KINDS),
+      benchId: optionalId,
+      standardId: optionalId,
+      supplyVoltage: optionalNumber({ ...VOLTS, message: 'The supply voltage is a number of volts', decimalComma: true }),
+      configuration: optionalText(FIELD_LIMITS.notes.max),
+      notes: optionalText(FIELD_LIMITS.notes.max),
+      overrideReason: z.string().trim().max(REASON.max, `At most ${REASON.max} characters`),
+    })
+    .superRefine((run, context) => {
+      if (CALIBRATION_RUN_KINDS.includes(run.kind) && run.standardId === null)
+        context.addIssue({ code: 'custom', path: ['standardId'], message: 'Choose the reference standard: as-found and as-left results are stated against it' });
+      if (asksReason(run.standardId) && run.overrideReason.length < REASON.min)
+        context.addIssue({ code: 'custom', path: ['overrideReason'], message: `Write why the lapsed standard is used (at least ${REASON.min} characters)` });
+    })
+    .transform(({ overrideReason, ...body }): CreateRunRequest => ({ ...body, ...(asksReason(body.standardId) ? { standardOverrideReason: overrideReason } : {}) }));
+}
 
 export type OpenRunInput = { jobId: number; body: CreateRunRequest };
 

@@ -2,23 +2,16 @@ import PlayArrowOutlined from '@mui/icons-material/PlayArrowOutlined';
 import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
-import Dialog from '@mui/material/Dialog';
-import DialogActions from '@mui/material/DialogActions';
-import DialogContent from '@mui/material/DialogContent';
-import DialogTitle from '@mui/material/DialogTitle';
 import InputAdornment from '@mui/material/InputAdornment';
 import MenuItem from '@mui/material/MenuItem';
-import Stack from '@mui/material/Stack';
-import TextField from '@mui/material/TextField';
-import { useId, useState, type FormEvent } from 'react';
-import { CALIBRATION_RUN_KINDS, RUN_KINDS, type CreateRunRequest, type Role, type Run, type RunKind } from '@kilocycle/common/types';
-import { FormErrors } from '@/components/ui/form-errors';
+import { useState } from 'react';
+import { CALIBRATION_RUN_KINDS, RUN_KINDS, type Role, type Run, type RunKind } from '@kilocycle/common/types';
+import { FormDialog, FormSelectField, FormTextField, useZodForm } from '@/components/ui/form-dialog';
 import { ApiError } from '@/lib/api-client';
-import { useOpenRun } from '../api/open-run';
+import { openRunSchema, useOpenRun } from '../api/open-run';
 import { RUN_KIND_LABELS } from './run-labels';
 
 const STUDY_KINDS: readonly RunKind[] = ['warmup', 'stability', 'supply_sensitivity', 'keying'];
-const MIN_OVERRIDE_REASON = 10;
 
 export type StandardChoice = { value: string; label: string; overdue: boolean };
 export type Choice = { value: string; label: string };
@@ -58,7 +51,6 @@ export function preselectedStandard(benches: readonly BenchChoice[], benchId: st
  * unless a lead gives a written reason.
  */
 export function OpenRunDialog({ jobId, role, ranges, benches, standards, onOpened }: OpenRunDialogProps) {
-  const titleId = useId();
   const kinds = kindsFor(role);
   const blank = () => ({
     rangeId: ranges[0]?.value ?? '',
@@ -71,8 +63,6 @@ export function OpenRunDialog({ jobId, role, ranges, benches, standards, onOpene
     overrideReason: '',
   });
   const [open, setOpen] = useState(false);
-  const [draft, setDraft] = useState(blank);
-  const [problem, setProblem] = useState<string | null>(null);
   // Once the person picks a standard, choosing a bench no longer replaces it with the bench's default.
   const [standardChosen, setStandardChosen] = useState(false);
   const openRun = useOpenRun({
@@ -82,49 +72,43 @@ export function OpenRunDialog({ jobId, role, ranges, benches, standards, onOpene
     },
   });
 
-  const set = (field: keyof ReturnType<typeof blank>, value: string) => {
-    setDraft((d) => {
-      const next = { ...d, [field]: value };
-      if (field === 'standardId') return next;
-      const preselected = preselectedStandard(benches, next.benchId, standards)?.id;
-      if (field === 'benchId' && !standardChosen && preselected) next.standardId = preselected;
-      if (field === 'kind' && CALIBRATION_RUN_KINDS.includes(value as RunKind) && !next.standardId && preselected) next.standardId = preselected;
-      return next;
-    });
-    if (field === 'standardId') setStandardChosen(true);
-    setProblem(null);
-  };
-  const needsStandard = CALIBRATION_RUN_KINDS.includes(draft.kind as RunKind);
-  const preselected = preselectedStandard(benches, draft.benchId, standards);
-
   const error = openRun.error;
   const conflict = error instanceof ApiError && error.status === 409 ? error.message : null;
-  const chosenStandard = standards.find((s) => s.value === draft.standardId);
-  const lapsed = Boolean(chosenStandard?.overdue) || Boolean(conflict && /due for calibration/i.test(conflict));
+  const lapsedStandard = (id: string) => Boolean(standards.find((s) => s.value === id)?.overdue) || Boolean(conflict && /due for calibration/i.test(conflict));
+  const form = useZodForm(
+    openRunSchema((id) => role === 'lead' && lapsedStandard(id === null ? '' : String(id))),
+    blank(),
+  );
+  const [kind, benchId, standardId] = form.watch(['kind', 'benchId', 'standardId']);
+  const needsStandard = CALIBRATION_RUN_KINDS.includes(kind);
+  const preselected = preselectedStandard(benches, benchId, standards);
+  const lapsed = lapsedStandard(standardId);
   const askReason = role === 'lead' && lapsed;
 
-  const submit = (event: FormEvent<HTMLFormElement>) => {
-    event.preventDefault();
-    if (!draft.rangeId) return setProblem('Choose the range');
-    const volts = draft.supplyVoltage.trim() === '' ? null : Number(draft.supplyVoltage.replace(',', '.'));
-    if (volts !== null && !(volts >= 0)) return setProblem('The supply voltage is a number of volts');
-    const reason = draft.overrideReason.trim();
-    if (needsStandard && !draft.standardId) return setProblem('Choose the reference standard: as-found and as-left results are stated against it');
-    if (askReason && reason.length < MIN_OVERRIDE_REASON) return setProblem(`Write why the lapsed standard is used (at least ${MIN_OVERRIDE_REASON} characters)`);
-    const body: CreateRunRequest = {
-      rangeId: Number(draft.rangeId),
-      kind: draft.kind as RunKind,
-      benchId: draft.benchId ? Number(draft.benchId) : null,
-      standardId: draft.standardId ? Number(draft.standardId) : null,
-      supplyVoltage: volts,
-      configuration: draft.configuration.trim() || null,
-      notes: draft.notes.trim() || null,
-      ...(askReason ? { standardOverrideReason: reason } : {}),
-    };
-    openRun.mutate({ jobId, body });
+  // A bench brings its default standard, unless one was picked; an as-found or as-left run gets it when none is set.
+  const benchChanged = (next: string) => {
+    const standard = preselectedStandard(benches, next, standards)?.id;
+    if (!standardChosen && standard) form.setValue('standardId', standard);
+  };
+  const kindChanged = (next: string) => {
+    const standard = preselectedStandard(benches, form.getValues('benchId'), standards)?.id;
+    if (CALIBRATION_RUN_KINDS.includes(next as RunKind) && !form.getValues('standardId') && standard) form.setValue('standardId', standard);
   };
 
   if (kinds.length === 0) return null;
+
+  const standardHelp =
+    preselected && preselected.id === standardId
+      ? `${preselected.bench}’s default standard${needsStandard ? ' (as-found and as-left runs need one)' : ''}`
+      : needsStandard
+        ? 'Required: as-found and as-left results are stated against it'
+        : benchId
+          ? 'Empty: the bench’s default standard'
+          : 'The counter or reference measured against';
+  const standardOptions = [
+    ...(needsStandard ? [] : [{ value: '', label: benchId ? 'The bench’s default' : 'None' }]),
+    ...standards.map((s) => ({ value: s.value, label: `${s.label}${s.overdue ? ' — calibration overdue' : ''}` })),
+  ];
 
   return (
     <>
@@ -134,118 +118,80 @@ export function OpenRunDialog({ jobId, role, ranges, benches, standards, onOpene
         disabled={ranges.length === 0}
         onClick={() => {
           openRun.reset();
-          setDraft(blank());
+          form.reset(blank());
           setStandardChosen(false);
-          setProblem(null);
           setOpen(true);
         }}
       >
         Open run
       </Button>
-      <Dialog open={open} onClose={openRun.isPending ? undefined : () => setOpen(false)} aria-labelledby={titleId}>
-        <form noValidate onSubmit={submit}>
-          <DialogTitle id={titleId}>Open a run</DialogTitle>
-          <DialogContent>
-            {conflict ? (
-              <Alert severity="warning" role="alert" sx={{ mb: 2 }}>
-                {conflict}
-              </Alert>
-            ) : (
-              <FormErrors messages={error instanceof ApiError ? error.messages : error ? ['The run could not be opened.'] : []} />
-            )}
-            {problem && (
-              <Alert severity="error" role="alert" sx={{ mb: 2 }}>
-                {problem}
-              </Alert>
-            )}
-            <Stack spacing={2} sx={{ pt: 1 }}>
-              <Box sx={{ display: 'grid', gridTemplateColumns: '2fr 1fr', gap: 2 }}>
-                <TextField select label="Range" required value={draft.rangeId} onChange={(e) => set('rangeId', e.target.value)}>
-                  {ranges.map((r) => (
-                    <MenuItem key={r.value} value={r.value} sx={{ whiteSpace: 'pre' }}>
-                      {r.label}
-                    </MenuItem>
-                  ))}
-                </TextField>
-                <TextField select label="Kind" required value={draft.kind} onChange={(e) => set('kind', e.target.value)}>
-                  {kinds.map((k) => (
-                    <MenuItem key={k} value={k}>
-                      {RUN_KIND_LABELS[k]}
-                    </MenuItem>
-                  ))}
-                </TextField>
-                <TextField select label="Bench" value={draft.benchId} onChange={(e) => set('benchId', e.target.value)} helperText="Needed to stream from the bridge">
-                  <MenuItem value="">No bench (typed readings)</MenuItem>
-                  {benches.map((b) => (
-                    <MenuItem key={b.value} value={b.value}>
-                      {b.label}
-                    </MenuItem>
-                  ))}
-                </TextField>
-                <TextField
-                  label="Supply voltage"
-                  value={draft.supplyVoltage}
-                  onChange={(e) => set('supplyVoltage', e.target.value)}
-                  slotProps={{ input: { endAdornment: <InputAdornment position="end">V</InputAdornment> }, htmlInput: { inputMode: 'decimal' } }}
-                />
-              </Box>
-              <TextField
-                select
-                label="Reference standard"
-                required={needsStandard}
-                value={draft.standardId}
-                onChange={(e) => set('standardId', e.target.value)}
-                helperText={
-                  preselected && preselected.id === draft.standardId
-                    ? `${preselected.bench}’s default standard${needsStandard ? ' (as-found and as-left runs need one)' : ''}`
-                    : needsStandard
-                      ? 'Required: as-found and as-left results are stated against it'
-                      : draft.benchId
-                        ? 'Empty: the bench’s default standard'
-                        : 'The counter or reference measured against'
-                }
-              >
-                {!needsStandard && <MenuItem value="">{draft.benchId ? 'The bench’s default' : 'None'}</MenuItem>}
-                {standards.map((s) => (
-                  <MenuItem key={s.value} value={s.value}>
-                    {s.label}
-                    {s.overdue ? ' — calibration overdue' : ''}
-                  </MenuItem>
-                ))}
-              </TextField>
-              {lapsed && role !== 'lead' && !conflict && (
-                <Alert severity="warning">This standard is past its due date: only a lead can use it, with a written reason.</Alert>
-              )}
-              {askReason && (
-                <TextField
-                  label="Why the lapsed standard is used"
-                  required
-                  multiline
-                  minRows={2}
-                  value={draft.overrideReason}
-                  onChange={(e) => set('overrideReason', e.target.value)}
-                  helperText="Kept in the audit log with your name"
-                />
-              )}
-              <TextField
-                label="Configuration"
-                value={draft.configuration}
-                onChange={(e) => set('configuration', e.target.value)}
-                helperText="In or out of its case, warm-up, load, gate time…"
-              />
-              <TextField label="Notes" value={draft.notes} onChange={(e) => set('notes', e.target.value)} />
-            </Stack>
-          </DialogContent>
-          <DialogActions>
-            <Button onClick={() => setOpen(false)} disabled={openRun.isPending}>
-              Cancel
-            </Button>
-            <Button type="submit" variant="contained" disabled={openRun.isPending}>
-              {openRun.isPending ? 'Opening…' : askReason ? 'Open with override' : 'Open run'}
-            </Button>
-          </DialogActions>
-        </form>
-      </Dialog>
+      <FormDialog
+        open={open}
+        title="Open a run"
+        form={form}
+        onSubmit={(body) => openRun.mutate({ jobId, body })}
+        onClose={() => setOpen(false)}
+        pending={openRun.isPending}
+        error={conflict ? null : error}
+        errorFallback="The run could not be opened."
+        submitLabel={askReason ? 'Open with override' : 'Open run'}
+        pendingLabel="Opening…"
+      >
+        {conflict && (
+          <Alert severity="warning" role="alert">
+            {conflict}
+          </Alert>
+        )}
+        <Box sx={{ display: 'grid', gridTemplateColumns: '2fr 1fr', gap: 2 }}>
+          <FormTextField control={form.control} name="rangeId" label="Range" required select>
+            {ranges.map((r) => (
+              <MenuItem key={r.value} value={r.value} sx={{ whiteSpace: 'pre' }}>
+                {r.label}
+              </MenuItem>
+            ))}
+          </FormTextField>
+          <FormSelectField control={form.control} name="kind" label="Kind" required options={kinds.map((k) => ({ value: k, label: RUN_KIND_LABELS[k] }))} onValueChange={kindChanged} />
+          <FormSelectField
+            control={form.control}
+            name="benchId"
+            label="Bench"
+            helperText="Needed to stream from the bridge"
+            options={[{ value: '', label: 'No bench (typed readings)' }, ...benches]}
+            onValueChange={benchChanged}
+          />
+          <FormTextField
+            control={form.control}
+            name="supplyVoltage"
+            label="Supply voltage"
+            slotProps={{ input: { endAdornment: <InputAdornment position="end">V</InputAdornment> }, htmlInput: { inputMode: 'decimal' } }}
+          />
+        </Box>
+        <FormSelectField
+          control={form.control}
+          name="standardId"
+          label="Reference standard"
+          required={needsStandard}
+          helperText={standardHelp}
+          options={standardOptions}
+          onValueChange={() => setStandardChosen(true)}
+        />
+        {lapsed && role !== 'lead' && !conflict && (
+          <Alert severity="warning">This standard is past its due date: only a lead can use it, with a written reason.</Alert>
+        )}
+        {askReason && (
+          <FormTextField
+            control={form.control}
+            name="overrideReason"
+            label="Why the lapsed standard is used"
+            required
+            multiline
+            minRows={2}
+            helperText="Kept in the audit log with your name"
+          />
+        )}
+        <FormTextField control={form.control} name="configuration" label="Configuration" helperText="In or out of its case, warm-up, load, gate time…" />
+        <FormTextField control={form.control} name="notes" label="Notes" />
+      </FormDialog>
     </>
   );
 }
