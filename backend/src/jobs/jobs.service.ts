@@ -3,7 +3,8 @@ import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import { In, type DataSource, type EntityManager, type Repository } from 'typeorm';
 import type { Job as JobView, JobStatus, ListResponse } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
-import { organizationScope, type AuthUser } from '../auth/auth-user.js';
+import { JobRunStatsSource } from '../shared/job-run-stats.js';
+import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { Instrument } from '../instruments/instrument.entity.js';
 import { instrumentLabel } from '../instruments/instruments.service.js';
 import { dateOnly } from '../shared/dto-helpers.js';
@@ -58,6 +59,7 @@ export class JobsService {
     @InjectRepository(Job) private readonly jobs: Repository<Job>,
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly audit: AuditService,
+    private readonly runStats: JobRunStatsSource,
   ) {}
 
   list(actor: AuthUser, query: ListJobsQueryDto): Promise<ListResponse<JobView>> {
@@ -151,11 +153,7 @@ export class JobsService {
     }
     if (to === 'returned' && !comment) throw new BadRequestException('comment: say what needs rework when returning a job');
     if (to === 'in_review') {
-      const [{ readings }] = await manager.query(
-        'SELECT COUNT(*) AS readings FROM readings WHERE run_id IN (SELECT id FROM runs WHERE job_id = ?)',
-        [job.id],
-      );
-      if (Number(readings) === 0) throw new ConflictException(`job ${job.number} has no readings yet: nothing to review`);
+      if ((await this.runStats.readingCount(job.id, manager)) === 0) throw new ConflictException(`job ${job.number} has no readings yet: nothing to review`);
     }
     await manager.update(Job, { id: job.id }, { status: to });
     await this.audit.record(
@@ -176,11 +174,7 @@ export class JobsService {
   private async toViews(found: Job[]): Promise<JobView[]> {
     if (found.length === 0) return [];
     const ids = found.map((j) => j.id);
-    const counts = new Map<number, number>(
-      (await this.dataSource.query('SELECT job_id, COUNT(*) AS n FROM runs WHERE job_id IN (?) GROUP BY job_id', [ids])).map(
-        (row: { job_id: number; n: number | string }) => [Number(row.job_id), Number(row.n)],
-      ),
-    );
+    const counts = await this.runStats.runCounts(ids);
     const returned = found.filter((j) => j.status === 'returned').map((j) => String(j.id));
     const comments = new Map<number, string | null>();
     if (returned.length > 0) {

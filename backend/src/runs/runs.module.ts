@@ -1,7 +1,9 @@
-import { Module } from '@nestjs/common';
+import { Global, Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { JobsModule } from '../jobs/jobs.module.js';
 import { BridgePresenceModule } from '../shared/bridge-presence.module.js';
+import { JobRunStatsSource } from '../shared/job-run-stats.js';
+import { JobRunsReader } from './job-runs.reader.js';
 import { RunContextReader } from './run-context.reader.js';
 import { RunNotesWriter } from './run-notes.writer.js';
 import { Run } from './run.entity.js';
@@ -10,10 +12,15 @@ import { RunResultsReader } from './run-results.reader.js';
 import { JobRunsController, RunsController } from './runs.controller.js';
 import { RunsService } from './runs.service.js';
 
+/**
+ * Global for one reason: jobs (which this module imports) reads run counts through the JobRunStatsSource
+ * token declared in shared/, which this module provides; the dependency stays one way, runs → jobs.
+ */
+@Global()
 @Module({
   imports: [TypeOrmModule.forFeature([Run]), JobsModule, BridgePresenceModule],
   controllers: [RunsController, JobRunsController],
-  providers: [RunsService, RunResultsReader, RunComparisonReader, RunContextReader, RunNotesWriter],
-  exports: [RunsService, RunResultsReader, RunComparisonReader, RunContextReader, RunNotesWriter],
+  providers: [RunsService, RunResultsReader, RunComparisonReader, RunContextReader, RunNotesWriter, JobRunsReader, { provide: JobRunStatsSource, useExisting: JobRunsReader }],
+  exports: [RunsService, RunResultsReader, RunComparisonReader, RunContextReader, RunNotesWriter, JobRunStatsSource],
 })
 export class RunsModule {}
