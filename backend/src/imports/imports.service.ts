@@ -48,6 +48,19 @@ const MAX_RECORD_CHARS = 4_000_000;
 
 type UploadedFile = { path: string; name: string; size: number; bomLength: number; delimiter: Delimiter; newline: Newline };
 type PassResult = { rows: number };
+/** One import as its steps share it: who, into which run, how, the file, its columns and the report being filled. */
+type ImportJob = {
+  actor: AuthUser;
+  ctx: RunWriteContext;
+  mode: ImportMode;
+  importId: string;
+  tracker: ImportTracker;
+  confirm: SpanConfirmation;
+  file: UploadedFile;
+  columns: ResolvedColumns;
+  report: ImportReport;
+  record: (rejected: ImportRejection[]) => void;
+};
 
 /**
  * CSV/TSV import into a run (POST /api/runs/:id/imports). The upload streams to a temporary file;
@@ -119,12 +132,37 @@ export class ImportsService implements OnModuleInit {
     tracker: ImportTracker,
     confirm: SpanConfirmation,
   ): Promise<ImportReport> {
+    const file = await this.openFile(upload);
+    const report: ImportReport = {
+      importId, runId: ctx.runId, mode, imported: 0, rejected: [], rejectedCount: 0, rowCount: 0,
+      columns: { time: null, dial: null, frequency: null, unit: null, aux: null }, delimiter: file.delimiter, notesAppended: false,
+    };
+    const columns = await this.readColumns(file, ctx, mappingText, report);
+    const record = (rejected: ImportRejection[]) => {
+      report.rejectedCount += rejected.length;
+      for (const r of rejected) if (report.rejected.length < MAX_REPORTED_REJECTIONS) report.rejected.push(r);
+      tracker.update({ rowsRejected: report.rejectedCount });
+    };
+    const job: ImportJob = { actor, ctx, mode, importId, tracker, confirm, file, columns, report, record };
+    // A file fault found past the header (a line that never ends) is the sender's, whichever phase meets it.
+    try {
+      if (mode === 'all') await this.validateAll(job);
+      await this.writeAll(job);
+    } catch (error) {
+      if (error instanceof ImportFileError) throw refused(report, null, error.message);
+      throw error;
+    }
+    return report;
+  }
+
+  /** The upload as a text file to parse: refused (415) unless it is CSV or TSV text; its newline and delimiter. */
+  private async openFile(upload: ReceivedUpload): Promise<UploadedFile> {
     const head = await readHead(upload.path);
     const sniffed = sniffContent(head);
     if (!sniffed.text) throw new UnsupportedMediaTypeException(`the file is not CSV or TSV text (it looks like ${sniffed.description})`);
     const headText = Buffer.from(head.subarray(sniffed.bomLength)).toString('utf8');
     const firstLine = headText.split(/\r?\n|\r/)[0] ?? '';
-    const file: UploadedFile = {
+    return {
       newline: detectNewline(headText),
       path: upload.path,
       name: upload.originalName,
@@ -132,79 +170,70 @@ export class ImportsService implements OnModuleInit {
       bomLength: sniffed.bomLength,
       delimiter: detectDelimiter(firstLine, upload.originalName),
     };
-    const report: ImportReport = {
-      importId, runId: ctx.runId, mode, imported: 0, rejected: [], rejectedCount: 0, rowCount: 0,
-      columns: { time: null, dial: null, frequency: null, unit: null, aux: null }, delimiter: file.delimiter, notesAppended: false,
-    };
-    let columns: ResolvedColumns;
+  }
+
+  /** The header's columns (with the mapping), checked against what the run's kind needs; a fault is refused as line 1. */
+  private async readColumns(file: UploadedFile, ctx: RunWriteContext, mappingText: string | undefined, report: ImportReport): Promise<ResolvedColumns> {
     try {
-      columns = resolveColumns(await this.header(file), parseMapping(mappingText));
+      const columns = resolveColumns(await this.header(file), parseMapping(mappingText));
       report.columns = columns.names;
       if (needsTime(ctx.kind) && columns.index.time === null) throw new ImportFileError(`no time column: a ${ctx.kind} run needs the time of each reading (name a column time, t or seconds, or give a mapping)`);
       if (CALIBRATION_RUN_KINDS.includes(ctx.kind) && columns.index.dial === null) throw new ImportFileError(`no dial column: an ${ctx.kind} run needs the dial setting of each reading (name a column dial or setting, or give a mapping)`);
+      return columns;
     } catch (error) {
       if (error instanceof ImportFileError) throw refused(report, [{ line: 1, column: 'header', reason: error.message }], error.message);
       throw error;
     }
-    const record = (rejected: ImportRejection[]) => {
-      report.rejectedCount += rejected.length;
-      for (const r of rejected) if (report.rejected.length < MAX_REPORTED_REJECTIONS) report.rejected.push(r);
-      tracker.update({ rowsRejected: report.rejectedCount });
-    };
+  }
 
-    // A file fault found past the header (a line that never ends) is the sender's, whichever phase meets it.
-    try {
-      if (mode === 'all') {
-        // Pass 1: validate every row; nothing is written unless all are good.
-        const checked = await this.pass(file, columns, ctx, tracker, 'validating', async (batch) => {
-          record(sortByLine([...batch.rejected, ...this.locate(this.writer.validate(ctx, batch.inputs(), Date.now(), confirm).rejected, batch, columns)]));
-        });
-        report.rowCount = checked.rows;
-        if (report.rowCount === 0) throw refused(report, [{ line: 2, column: 'file', reason: 'the file has no readings under its header' }], 'the file has no readings under its header');
-        if (report.rejectedCount > 0) {
-          const rows = report.rejectedCount === 1 ? '1 row is' : `${report.rejectedCount} rows are`;
-          throw refused(report, null, `${rows} not valid: nothing was imported (fix them, or import only the valid rows with mode=valid)`);
-        }
-      }
-
-      // Every reading names the importing user; the import as a whole is one audit event (below).
-      const author = { kind: 'user' as const, id: actor.id, name: actor.name };
-      await this.dataSource.transaction(async (manager) => {
-        await this.lockRun(manager, ctx.runId);
-        const written = await this.pass(file, columns, ctx, tracker, 'writing', async (batch) => {
-          const result = batch.size === 0 ? null : await this.writer.append(ctx, batch.inputs(), 'import', author, { manager, skipReadBack: true, callerAudits: true, confirm });
-          const refusedNow = result ? this.locate(result.rejected, batch, columns) : [];
-          // Pass 1 passed every row; a refusal now means the rules changed underneath: roll everything back.
-          if (mode === 'all' && (refusedNow.length > 0 || batch.rejected.length > 0)) throw new ConflictException('a row changed between validating and writing; nothing was imported');
-          if (mode === 'valid') record(sortByLine([...batch.rejected, ...refusedNow]));
-          report.imported += result?.accepted ?? 0;
-          tracker.update({ imported: report.imported });
-        });
-        report.rowCount = written.rows;
-        if (report.imported === 0) {
-          const reason = report.rowCount === 0 ? 'the file has no readings under its header' : 'no row of the file is valid: nothing was imported';
-          throw refused(report, report.rowCount === 0 ? [{ line: 2, column: 'file', reason }] : null, reason);
-        }
-        if (mode === 'valid' && report.rejectedCount > 0) {
-          await this.appendNotes(manager, actor, ctx.runId, file.name, report);
-          report.notesAppended = true;
-        }
-        await this.audit.record(
-          {
-            actorId: actor.id,
-            entity: 'run',
-            entityId: ctx.runId,
-            action: 'import',
-            changes: { file: file.name, bytes: file.size, mode, rows: report.rowCount, imported: report.imported, skipped: report.rejectedCount, importId, source: 'import', author },
-          },
-          manager,
-        );
-      });
-    } catch (error) {
-      if (error instanceof ImportFileError) throw refused(report, null, error.message);
-      throw error;
+  /** Pass 1 (mode all): validate every row; nothing is written unless all are good. */
+  private async validateAll({ file, columns, ctx, tracker, confirm, report, record }: ImportJob): Promise<void> {
+    const checked = await this.pass(file, columns, ctx, tracker, 'validating', async (batch) => {
+      record(sortByLine([...batch.rejected, ...this.locate(this.writer.validate(ctx, batch.inputs(), Date.now(), confirm).rejected, batch, columns)]));
+    });
+    report.rowCount = checked.rows;
+    if (report.rowCount === 0) throw refused(report, [{ line: 2, column: 'file', reason: 'the file has no readings under its header' }], 'the file has no readings under its header');
+    if (report.rejectedCount > 0) {
+      const rows = report.rejectedCount === 1 ? '1 row is' : `${report.rejectedCount} rows are`;
+      throw refused(report, null, `${rows} not valid: nothing was imported (fix them, or import only the valid rows with mode=valid)`);
     }
-    return report;
+  }
+
+  /** The writing pass, in one transaction with the notes of skipped rows and the import's one audit event. */
+  private async writeAll({ actor, ctx, mode, importId, tracker, confirm, file, columns, report, record }: ImportJob): Promise<void> {
+    // Every reading names the importing user; the import as a whole is one audit event (below).
+    const author = { kind: 'user' as const, id: actor.id, name: actor.name };
+    await this.dataSource.transaction(async (manager) => {
+      await this.lockRun(manager, ctx.runId);
+      const written = await this.pass(file, columns, ctx, tracker, 'writing', async (batch) => {
+        const result = batch.size === 0 ? null : await this.writer.append(ctx, batch.inputs(), 'import', author, { manager, skipReadBack: true, callerAudits: true, confirm });
+        const refusedNow = result ? this.locate(result.rejected, batch, columns) : [];
+        // Pass 1 passed every row; a refusal now means the rules changed underneath: roll everything back.
+        if (mode === 'all' && (refusedNow.length > 0 || batch.rejected.length > 0)) throw new ConflictException('a row changed between validating and writing; nothing was imported');
+        if (mode === 'valid') record(sortByLine([...batch.rejected, ...refusedNow]));
+        report.imported += result?.accepted ?? 0;
+        tracker.update({ imported: report.imported });
+      });
+      report.rowCount = written.rows;
+      if (report.imported === 0) {
+        const reason = report.rowCount === 0 ? 'the file has no readings under its header' : 'no row of the file is valid: nothing was imported';
+        throw refused(report, report.rowCount === 0 ? [{ line: 2, column: 'file', reason }] : null, reason);
+      }
+      if (mode === 'valid' && report.rejectedCount > 0) {
+        await this.appendNotes(manager, actor, ctx.runId, file.name, report);
+        report.notesAppended = true;
+      }
+      await this.audit.record(
+        {
+          actorId: actor.id,
+          entity: 'run',
+          entityId: ctx.runId,
+          action: 'import',
+          changes: { file: file.name, bytes: file.size, mode, rows: report.rowCount, imported: report.imported, skipped: report.rejectedCount, importId, source: 'import', author },
+        },
+        manager,
+      );
+    });
   }
 
   /** Locks the run (and its job) for the import's transaction and checks again that it takes readings. */
