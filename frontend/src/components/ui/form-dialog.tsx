@@ -70,6 +70,8 @@ type FormDialogProps<TIn extends FieldValues, TOut> = {
   submitLabel: string;
   pendingLabel: string;
   submitColor?: 'primary' | 'error' | 'warning';
+  /** Shown but not changeable (no submit button; Cancel reads Close). */
+  readOnly?: boolean;
   maxWidth?: DialogProps['maxWidth'];
   /** The fields; laid out in a column unless `layout="custom"` (grids and tables bring their own). */
   children: ReactNode;
@@ -137,11 +139,13 @@ function FormDialogBody<TIn extends FieldValues, TOut>(props: FormDialogProps<TI
       </DialogContent>
       <DialogActions>
         <Button onClick={onClose} disabled={pending}>
-          Cancel
+          {props.readOnly ? 'Close' : 'Cancel'}
         </Button>
-        <Button type="submit" variant="contained" color={props.submitColor ?? 'primary'} disabled={pending}>
-          {pending ? props.pendingLabel : props.submitLabel}
-        </Button>
+        {!props.readOnly && (
+          <Button type="submit" variant="contained" color={props.submitColor ?? 'primary'} disabled={pending}>
+            {pending ? props.pendingLabel : props.submitLabel}
+          </Button>
+        )}
       </DialogActions>
     </form>
   );

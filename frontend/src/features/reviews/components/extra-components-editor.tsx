@@ -8,14 +8,9 @@ import TextField from '@mui/material/TextField';
 import Typography from '@mui/material/Typography';
 import { COMPONENT_DISTRIBUTIONS, type ComponentDistribution, type ExtraComponent } from '@kilocycle/common/types';
 
-export type ExtraComponentDraft = {
-  name: string;
-  distribution: ComponentDistribution;
-  value: string;
-  unit: 'Hz' | 'ppm';
-  divisor: string;
-  dof: string;
-};
+import type { ExtraComponentDraft } from '../api/save-procedure';
+
+export type { ExtraComponentDraft };
 
 const DISTRIBUTION_LABELS: Record<ComponentDistribution, string> = {
   normal: 'Normal (quoted U with its k)',
@@ -35,40 +30,27 @@ export function toDrafts(components: readonly ExtraComponent[]): ExtraComponentD
   }));
 }
 
-/** The drafts as the API takes them, or the first problem found. */
-export function fromDrafts(drafts: readonly ExtraComponentDraft[]): { components: ExtraComponent[] } | { problem: string } {
-  const components: ExtraComponent[] = [];
-  for (const [index, d] of drafts.entries()) {
-    const where = `Extra component ${index + 1}`;
-    if (!d.name.trim()) return { problem: `${where}: give it a name` };
-    const value = Number(d.value);
-    if (d.value.trim() === '' || !Number.isFinite(value) || value < 0) return { problem: `${where}: the value must be a number of zero or more` };
-    const component: ExtraComponent = { name: d.name.trim(), distribution: d.distribution, value, unit: d.unit };
-    if (d.distribution === 'normal' && d.divisor.trim() !== '') {
-      const divisor = Number(d.divisor);
-      if (!Number.isFinite(divisor) || divisor < 0.001) return { problem: `${where}: the coverage factor must be a positive number` };
-      component.divisor = divisor;
-    }
-    if (d.dof.trim() !== '') {
-      const dof = Number(d.dof);
-      if (!Number.isFinite(dof) || dof < 1) return { problem: `${where}: degrees of freedom must be 1 or more (leave empty for infinite)` };
-      component.dof = dof;
-    }
-    components.push(component);
-  }
-  return { components };
-}
-
 const EMPTY: ExtraComponentDraft = { name: '', distribution: 'rectangular', value: '', unit: 'Hz', divisor: '', dof: '' };
 
-type ExtraComponentsEditorProps = { value: ExtraComponentDraft[]; onChange: (value: ExtraComponentDraft[]) => void; disabled?: boolean };
+type ExtraComponentsEditorProps = {
+  value: ExtraComponentDraft[];
+  onChange: (value: ExtraComponentDraft[]) => void;
+  disabled?: boolean;
+  /** The form's refusal of a row ("Extra component 2: …"). */
+  error?: string;
+};
 
 /** Budget lines beyond the standard six (cabling, loading…), each with its distribution and size. */
-export function ExtraComponentsEditor({ value, onChange, disabled }: ExtraComponentsEditorProps) {
+export function ExtraComponentsEditor({ value, onChange, disabled, error }: ExtraComponentsEditorProps) {
   const set = (index: number, changes: Partial<ExtraComponentDraft>) =>
     onChange(value.map((d, i) => (i === index ? { ...d, ...changes } : d)));
   return (
     <Box>
+      {error && (
+        <Typography variant="body2" color="error" role="alert" sx={{ mb: 1 }}>
+          {error}
+        </Typography>
+      )}
       {value.length === 0 && (
         <Typography variant="body2" color="text.secondary" sx={{ mb: 1 }}>
           No extra components.

@@ -2,7 +2,8 @@ import { fireEvent, screen, waitFor } from '@testing-library/react';
 import { describe, expect, it, vi } from 'vitest';
 import { mockFetch } from '@/testing/fetch-mock';
 import { renderWithApp, signInAs } from '@/testing/test-utils';
-import { ProcedureDialog, parseDialMarks } from '../procedure-dialog';
+import { parseDialMarks } from '../../api/save-procedure';
+import { ProcedureDialog } from '../procedure-dialog';
 
 describe('<ProcedureDialog>: counter-assisted capture settings', () => {
   it('should refuse N below 2 without sending, then send the settle rule and the dial marks in order', async () => {
