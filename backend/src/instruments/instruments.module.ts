@@ -6,11 +6,12 @@ import { InstrumentsController } from './instruments.controller.js';
 import { InstrumentsService } from './instruments.service.js';
 import { InstrumentComparisonReader } from './instrument-comparison.reader.js';
 import { RangeResultsReader } from './range-results.reader.js';
+import { RecallInstrumentsReader } from './recall-instruments.reader.js';
 
 @Module({
   imports: [TypeOrmModule.forFeature([Instrument, InstrumentRange])],
   controllers: [InstrumentsController],
-  providers: [InstrumentsService, RangeResultsReader, InstrumentComparisonReader],
-  exports: [InstrumentsService, RangeResultsReader, InstrumentComparisonReader],
+  providers: [InstrumentsService, RangeResultsReader, InstrumentComparisonReader, RecallInstrumentsReader],
+  exports: [InstrumentsService, RangeResultsReader, InstrumentComparisonReader, RecallInstrumentsReader],
 })
 export class InstrumentsModule {}

@@ -7,6 +7,7 @@ import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { Organization } from '../organizations/organization.entity.js';
 import { dateOnly, todayIso } from '../shared/dto-helpers.js';
 import { paginateFlat } from '../shared/page-query.js';
+import { RangeUseSource } from '../shared/range-use.js';
 import { likePattern } from '../shared/paginate.js';
 import type { CreateInstrumentDto, ListInstrumentsQueryDto, RangeInputDto, UpdateInstrumentDto } from './dto/instrument.dto.js';
 import { InstrumentRange } from './instrument-range.entity.js';
@@ -58,6 +59,7 @@ export class InstrumentsService {
     @InjectRepository(InstrumentRange) private readonly ranges: Repository<InstrumentRange>,
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly audit: AuditService,
+    private readonly rangeUse: RangeUseSource,
   ) {}
 
   list(actor: AuthUser, query: ListInstrumentsQueryDto): Promise<ListResponse<InstrumentView>> {
@@ -174,10 +176,9 @@ export class InstrumentsService {
       if (keptIds.has(r.id)) throw new BadRequestException(`ranges[${index}].id: range ${r.id} is listed twice`);
       keptIds.add(r.id);
     });
-    const used = new Set<number>(
-      existing.length === 0
-        ? []
-        : (await manager.query('SELECT DISTINCT range_id FROM runs WHERE range_id IN (?)', [existing.map((r) => r.id)])).map((row: { range_id: number }) => Number(row.range_id)),
+    const used = await this.rangeUse.rangesWithRuns(
+      existing.map((r) => r.id),
+      manager,
     );
     const removed = existing.filter((r) => !keptIds.has(r.id));
     const blocked = removed.filter((r) => used.has(r.id));

@@ -1,5 +1,6 @@
 import nodemailer, { type Transporter } from 'nodemailer';
 import type { DataSource } from 'typeorm';
+import { OrganizationsReader } from '../organizations/organizations.reader.js';
 import { checkEnvironment, ConfigError } from '../config/env-schema.js';
 import { MailMessage } from './mail-message.entity.js';
 import { mailSignOff, mailTextToHtml } from './mail-text.js';
@@ -102,8 +103,8 @@ export class Mailer {
 
   /** The lab's name and contact address (its organisation record): where replies to any mail should go. */
   async labContact(): Promise<{ name: string; email: string | null }> {
-    const [lab] = await this.dataSource.query("SELECT name, contact_email FROM organizations WHERE kind = 'lab' ORDER BY id LIMIT 1");
-    return { name: lab?.name ?? 'the laboratory', email: lab?.contact_email || null };
+    const lab = await new OrganizationsReader(this.dataSource).lab();
+    return { name: lab?.name ?? 'the laboratory', email: lab?.contactEmail || null };
   }
 
   /**

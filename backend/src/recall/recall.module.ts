@@ -1,11 +1,13 @@
 import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
+import { InstrumentsModule } from '../instruments/instruments.module.js';
+import { OrganizationsModule } from '../organizations/organizations.module.js';
 import { RecallNotice } from './recall-notice.entity.js';
 import { RecallController } from './recall.controller.js';
 import { RecallService } from './recall.service.js';
 
 @Module({
-  imports: [TypeOrmModule.forFeature([RecallNotice])],
+  imports: [TypeOrmModule.forFeature([RecallNotice]), InstrumentsModule, OrganizationsModule],
   controllers: [RecallController],
   providers: [RecallService],
 })

@@ -4,7 +4,9 @@ import type { DataSource } from 'typeorm';
 import type { ListResponse, RecallNotice, RecallRunResult } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { RecallInstrumentsReader } from '../instruments/recall-instruments.reader.js';
 import { MailService } from '../mail/mail.service.js';
+import { OrganizationsReader } from '../organizations/organizations.reader.js';
 import { runRecall } from './run-recall.js';
 
 const DAY_MS = 86_400_000;
@@ -21,6 +23,8 @@ export class RecallService implements OnApplicationBootstrap, OnApplicationShutd
     @Inject(APP_CONFIG) private readonly config: AppConfig,
     private readonly mail: MailService,
     private readonly audit: AuditService,
+    private readonly instruments: RecallInstrumentsReader,
+    private readonly organizations: OrganizationsReader,
   ) {}
 
   onApplicationBootstrap(): void {
@@ -66,24 +70,27 @@ export class RecallService implements OnApplicationBootstrap, OnApplicationShutd
   async list(page = 1, pageSize = 25): Promise<ListResponse<RecallNotice>> {
     const [{ total }] = await this.dataSource.query('SELECT COUNT(*) AS total FROM recall_notices');
     const rows: Array<Record<string, unknown>> = await this.dataSource.query(
-      `SELECT n.id, n.instrument_id, i.make, i.model, i.serial, i.organization_id, o.name AS org_name,
-              DATE_FORMAT(n.due_date, '%Y-%m-%d') AS due, n.recipients, n.sent_at
-         FROM recall_notices n JOIN instruments i ON i.id = n.instrument_id JOIN organizations o ON o.id = i.organization_id
-        ORDER BY n.id DESC LIMIT ? OFFSET ?`,
+      "SELECT id, instrument_id, DATE_FORMAT(due_date, '%Y-%m-%d') AS due, recipients, sent_at FROM recall_notices ORDER BY id DESC LIMIT ? OFFSET ?",
       [pageSize, (page - 1) * pageSize],
     );
+    // The instruments and their customers from their owners (a page holds at most a few dozen notices).
+    const instruments = await this.instruments.byIds(rows.map((r) => Number(r.instrument_id)));
+    const organizations = await this.organizations.byIds([...instruments.values()].map((i) => i.organizationId));
     return {
       total: Number(total),
-      items: rows.map((r) => ({
-        id: Number(r.id),
-        instrumentId: Number(r.instrument_id),
-        instrumentLabel: `${r.make} ${r.model}, serial ${r.serial}`,
-        organizationId: Number(r.organization_id),
-        organizationName: String(r.org_name),
-        dueDate: String(r.due),
-        recipients: (typeof r.recipients === 'string' ? JSON.parse(r.recipients) : r.recipients) as string[],
-        sentAt: new Date(r.sent_at as string).toISOString(),
-      })),
+      items: rows.map((r) => {
+        const instrument = instruments.get(Number(r.instrument_id))!;
+        return {
+          id: Number(r.id),
+          instrumentId: instrument.id,
+          instrumentLabel: `${instrument.make} ${instrument.model}, serial ${instrument.serial}`,
+          organizationId: instrument.organizationId,
+          organizationName: organizations.get(instrument.organizationId)?.name ?? '',
+          dueDate: String(r.due),
+          recipients: (typeof r.recipients === 'string' ? JSON.parse(r.recipients) : r.recipients) as string[],
+          sentAt: new Date(r.sent_at as string).toISOString(),
+        };
+      }),
     };
   }
 }

@@ -1,13 +1,37 @@
 import type { DataSource } from 'typeorm';
 import type { RecallNotice as RecallNoticeView, RecallRunResult } from '@kilocycle/common/types';
 import { readSettings } from '../certificates/certificate-settings.js';
+import { RecallInstrumentsReader, type RecallInstrument } from '../instruments/recall-instruments.reader.js';
 import type { OutgoingMail } from '../mail/mailer.js';
 import { recallReminderMail } from '../mail/mail-templates.js';
+import { OrganizationsReader } from '../organizations/organizations.reader.js';
+import { CertificateRecipientsReader } from '../users/certificate-recipients.reader.js';
 
 type DueRow = { id: number; make: string; model: string; serial: string; due: string; organization_id: number; org_name: string; contact_email: string | null };
 
 function addDays(date: Date, days: number): string {
   return new Date(date.getTime() + days * 86_400_000).toISOString().slice(0, 10);
+}
+
+/**
+ * The instruments due by `until` whose customer is active and which have had no reminder for that due
+ * date: instruments and organisations from their owners' readers, the reminders already sent from this
+ * module's own table.
+ */
+async function dueRows(dataSource: DataSource, until: string): Promise<DueRow[]> {
+  const due = (await new RecallInstrumentsReader(dataSource).dueBy(until)) as Array<RecallInstrument & { nextDueDate: string }>;
+  if (due.length === 0) return [];
+  const [organizations, noticed] = await Promise.all([
+    new OrganizationsReader(dataSource).byIds(due.map((i) => i.organizationId)),
+    dataSource.query("SELECT instrument_id, DATE_FORMAT(due_date, '%Y-%m-%d') AS due FROM recall_notices WHERE instrument_id IN (?)", [due.map((i) => i.id)]),
+  ]);
+  const sent = new Set((noticed as Array<{ instrument_id: number; due: string }>).map((n) => `${Number(n.instrument_id)}|${n.due}`));
+  return due.flatMap((i) => {
+    const organization = organizations.get(i.organizationId);
+    if (!organization?.active || sent.has(`${i.id}|${i.nextDueDate}`)) return [];
+    const { id, make, model, serial } = i;
+    return [{ id, make, model, serial, due: i.nextDueDate, organization_id: i.organizationId, org_name: organization.name, contact_email: organization.contactEmail }];
+  });
 }
 
 /**
@@ -25,25 +49,16 @@ export async function runRecall(
   const now = options.now ?? new Date();
   const settings = await readSettings(dataSource.manager);
   const until = addDays(now, settings.recallNoticeDays);
-  const rows: DueRow[] = await dataSource.query(
-    `SELECT i.id, i.make, i.model, i.serial, DATE_FORMAT(i.next_due_date, '%Y-%m-%d') AS due, i.organization_id, o.name AS org_name, o.contact_email
-       FROM instruments i JOIN organizations o ON o.id = i.organization_id
-      WHERE i.next_due_date IS NOT NULL AND i.next_due_date <= ? AND o.active = 1
-        AND NOT EXISTS (SELECT 1 FROM recall_notices n WHERE n.instrument_id = i.id AND n.due_date = i.next_due_date)
-      ORDER BY o.id, i.next_due_date, i.id`,
-    [until],
-  );
-  const [lab] = await dataSource.query("SELECT name FROM organizations WHERE kind = 'lab' ORDER BY id LIMIT 1");
+  const rows = await dueRows(dataSource, until);
+  const lab = await new OrganizationsReader(dataSource).lab();
+  const recipientsOf = new CertificateRecipientsReader(dataSource);
   const byOrg = new Map<number, DueRow[]>();
   for (const row of rows) byOrg.set(row.organization_id, [...(byOrg.get(row.organization_id) ?? []), row]);
   const notices: RecallNoticeView[] = [];
   let skipped = 0;
   for (const [organizationId, due] of byOrg) {
-    const clients: Array<{ email: string }> = await dataSource.query(
-      "SELECT email FROM users WHERE organization_id = ? AND role = 'client' AND active = 1 ORDER BY email",
-      [organizationId],
-    );
-    const recipients = [...new Set([due[0]!.contact_email, ...clients.map((c) => c.email)].filter((e): e is string => !!e))];
+    const clients = await recipientsOf.clientEmails(organizationId);
+    const recipients = [...new Set([due[0]!.contact_email, ...clients].filter((e): e is string => !!e))];
     if (recipients.length === 0) {
       skipped += due.length;
       continue;

@@ -3,7 +3,9 @@ import { TypeOrmModule } from '@nestjs/typeorm';
 import { JobsModule } from '../jobs/jobs.module.js';
 import { BridgePresenceModule } from '../shared/bridge-presence.module.js';
 import { JobRunStatsSource } from '../shared/job-run-stats.js';
+import { RangeUseSource } from '../shared/range-use.js';
 import { JobRunsReader } from './job-runs.reader.js';
+import { RangeUseReader } from './range-use.reader.js';
 import { RunContextReader } from './run-context.reader.js';
 import { RunNotesWriter } from './run-notes.writer.js';
 import { Run } from './run.entity.js';
@@ -13,14 +15,15 @@ import { JobRunsController, RunsController } from './runs.controller.js';
 import { RunsService } from './runs.service.js';
 
 /**
- * Global for one reason: jobs (which this module imports) reads run counts through the JobRunStatsSource
+ * Global: jobs (which this module imports) reads run counts through the JobRunStatsSource
  * token declared in shared/, which this module provides; the dependency stays one way, runs → jobs.
+ * Instruments asks which ranges have runs through RangeUseSource the same way (runs → instruments).
  */
 @Global()
 @Module({
   imports: [TypeOrmModule.forFeature([Run]), JobsModule, BridgePresenceModule],
   controllers: [RunsController, JobRunsController],
-  providers: [RunsService, RunResultsReader, RunComparisonReader, RunContextReader, RunNotesWriter, JobRunsReader, { provide: JobRunStatsSource, useExisting: JobRunsReader }],
-  exports: [RunsService, RunResultsReader, RunComparisonReader, RunContextReader, RunNotesWriter, JobRunStatsSource],
+  providers: [RunsService, RunResultsReader, RunComparisonReader, RunContextReader, RunNotesWriter, JobRunsReader, { provide: JobRunStatsSource, useExisting: JobRunsReader }, RangeUseReader, { provide: RangeUseSource, useExisting: RangeUseReader }],
+  exports: [RunsService, RunResultsReader, RunComparisonReader, RunContextReader, RunNotesWriter, JobRunStatsSource, RangeUseSource],
 })
 export class RunsModule {}

@@ -1,0 +1,32 @@
+import { Injectable } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import { In, type DataSource, type EntityManager } from 'typeorm';
+import { Organization } from './organization.entity.js';
+
+/** An organisation as mail and recall read it. */
+export type OrganizationContact = { id: number; name: string; contactEmail: string | null; active: boolean };
+
+const toContact = (o: Organization): OrganizationContact => ({ id: o.id, name: o.name, contactEmail: o.contactEmail, active: o.active });
+
+/**
+ * Organisations for other modules. Also built by hand (`new OrganizationsReader(dataSource)`) where no
+ * Nest container runs: the mailer and the recall run of the CLI.
+ */
+@Injectable()
+export class OrganizationsReader {
+  constructor(@InjectDataSource() private readonly dataSource: DataSource) {}
+
+  /** The lab's own organisation (the first one of kind lab), or null before one exists. */
+  async lab(manager?: EntityManager): Promise<OrganizationContact | null> {
+    const found = await (manager ?? this.dataSource.manager).findOne(Organization, { where: { kind: 'lab' }, order: { id: 'ASC' } });
+    return found ? toContact(found) : null;
+  }
+
+  /** These organisations, by id. */
+  async byIds(ids: readonly number[], manager?: EntityManager): Promise<Map<number, OrganizationContact>> {
+    const unique = [...new Set(ids)];
+    if (unique.length === 0) return new Map();
+    const found = await (manager ?? this.dataSource.manager).find(Organization, { where: { id: In(unique) } });
+    return new Map(found.map((o) => [o.id, toContact(o)]));
+  }
+}
