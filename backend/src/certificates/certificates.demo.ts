@@ -13,7 +13,7 @@ import { Run } from '../runs/run.entity.js';
 import type { DemoContext } from '../seed/demo-seed.js';
 import { Standard } from '../standards/standard.entity.js';
 import { writeSettings } from './certificate-settings.js';
-import { issueCertificate } from './issue-certificate.js';
+import { issueCertificate, issueReadersOver } from './issue-certificate.js';
 
 // Invented: the oscillator, its serial and its readings exist nowhere else.
 const VFO_RANGES: Array<{ label: string; low: number; high: number; step: number }> = [
@@ -141,5 +141,5 @@ export async function seedDemoCertificates({ manager, customerIds, userIds }: De
     }
   }
   await manager.insert(JobReview, { jobId, action: 'submit', actorId: tech, comment: 'All three ranges aligned; as-found range 3 was well out.', at: at(-7, 16) });
-  await issueCertificate(manager, { config, results: JobResultsService.over(manager.connection) }, { jobId, signerId: lead, now: at(-6, 11, 20) });
+  await issueCertificate(manager, { config, results: JobResultsService.over(manager.connection), readers: issueReadersOver(manager.connection) }, { jobId, signerId: lead, now: at(-6, 11, 20) });
 }

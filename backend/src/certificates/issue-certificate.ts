@@ -7,6 +7,9 @@ import { SIGNING_MEANING, type JobOutcomes, type JobResults, type SignedRecord }
 import type { AuditEntry } from '../audit/audit.service.js';
 import { AuditEvent } from '../audit/audit-event.entity.js';
 import type { JobResultsService } from '../budgets/job-results.service.js';
+import { ReadingResultsReader } from '../readings/reading-results.reader.js';
+import { RunResultsReader } from '../runs/run-results.reader.js';
+import { CertificateRecipientsReader } from '../users/certificate-recipients.reader.js';
 import type { AppConfig } from '../config/app-config.js';
 import { resultsCsv } from '../exports/results-csv.js';
 import { InstrumentRange } from '../instruments/instrument-range.entity.js';
@@ -25,7 +28,14 @@ import { loadSigningKey, sha256Hex, signCertificate } from './signing-key.js';
 
 export const SIGNATORY_ROLE = 'Calibration lead (authorised signatory)';
 
-export type IssueDeps = { config: Pick<AppConfig, 'varDir' | 'publicUrl'>; results: JobResultsService };
+/** The owners' readers issuing reads through (each on the signing transaction's manager). */
+export type IssueReaders = { runs: RunResultsReader; readings: ReadingResultsReader; recipients: CertificateRecipientsReader };
+export type IssueDeps = { config: Pick<AppConfig, 'varDir' | 'publicUrl'>; results: JobResultsService; readers: IssueReaders };
+
+/** The readers over one data source, for code run outside Nest (the demo seed). */
+export function issueReadersOver(dataSource: DataSource): IssueReaders {
+  return { runs: new RunResultsReader(dataSource), readings: new ReadingResultsReader(dataSource), recipients: new CertificateRecipientsReader(dataSource) };
+}
 export type IssueInput = { jobId: number; signerId: number; meaning?: string; now?: Date };
 export type IssueOutcome = {
   certificateId: number;
@@ -93,15 +103,7 @@ function blockers(results: JobResults): string[] {
 export async function issueCertificate(manager: EntityManager, deps: IssueDeps, input: IssueInput): Promise<IssueOutcome> {
   const now = input.now ?? new Date();
   const meaning = input.meaning ?? SIGNING_MEANING;
-  const job = await manager.findOne(Job, { where: { id: input.jobId }, lock: { mode: 'pessimistic_write' } });
-  if (!job) throw new ConflictException(`job ${input.jobId} does not exist`);
-  if (job.status !== 'in_review' && job.status !== 'approved') {
-    throw new ConflictException(`job ${job.number} is ${job.status}: only a job in review can be signed`);
-  }
-  const existing = await manager.find(Certificate, { where: { jobId: job.id }, order: { revision: 'DESC' } });
-  const draft = existing.find((c) => c.status === 'draft') ?? null;
-  if (!draft && existing.some((c) => c.status === 'issued')) throw new ConflictException(`job ${job.number} already has an issued certificate`);
-
+  const { job, existing, draft } = await lockSignableJob(manager, input.jobId);
   const results = await deps.results.compute(job.id, manager);
   const blocking = blockers(results);
   if (blocking.length > 0) throw new ConflictException(`job ${job.number} cannot be signed: ${blocking.join('; ')}`);
@@ -119,23 +121,8 @@ export async function issueCertificate(manager: EntityManager, deps: IssueDeps, 
   const replaced = draft?.replacesRevision ? existing.find((c) => c.revision === draft.replacesRevision) ?? null : null;
 
   const usedRunIds = results.ranges.flatMap((g) => [g.asFoundRunId, g.asLeftRunId]).filter((id): id is number => id !== null);
-  const runRows: Array<{ started: string; ended: string; supply_voltage: number | null }> = await manager.query(
-    `SELECT DATE_FORMAT(started_at, '%Y-%m-%d') AS started, DATE_FORMAT(COALESCE(ended_at, started_at), '%Y-%m-%d') AS ended, supply_voltage
-       FROM runs WHERE id IN (?)`,
-    [usedRunIds],
-  );
-  const deviations: string[] = [];
-  const excludedRows: Array<{ run_id: number; n: number; reasons: string }> = await manager.query(
-    `SELECT e.run_id, COUNT(*) AS n, GROUP_CONCAT(DISTINCT e.reason ORDER BY e.reason SEPARATOR '; ') AS reasons
-       FROM reading_exclusions e WHERE e.run_id IN (?) GROUP BY e.run_id ORDER BY e.run_id`,
-    [usedRunIds],
-  );
-  for (const row of excludedRows) {
-    deviations.push(`${Number(row.n)} reading${Number(row.n) === 1 ? '' : 's'} of run ${row.run_id} excluded from the results: ${row.reasons}.`);
-  }
-  for (const flag of results.flags.filter((f) => f.kind === 'standard_override')) deviations.push(`Reference standard used past its due date by the lead's decision (run ${flag.runId}): ${flag.message.replace(/^.*override: /, '')}.`);
-  for (const flag of results.flags.filter((f) => f.kind === 'no_as_left')) deviations.push(flag.message.replace(/^([^:]+): /, 'Range $1: ') + '.');
-
+  const runRows = await deps.readers.runs.calibrationDays(usedRunIds, manager);
+  const deviations = await issueDeviations(manager, deps.readers, results, usedRunIds);
   // Everything the signature covers, read in this transaction: every later view of the job reads it.
   const record = await captureRecord(manager, {
     jobResults: deps.results,
@@ -152,93 +139,18 @@ export async function issueCertificate(manager: EntityManager, deps: IssueDeps, 
     now,
   });
   const url = verifyUrl(deps.config.publicUrl, number);
-  const pdfData: CertificatePdfData = {
-    number,
-    revision,
-    replaces: draft?.replacesRevision
-      ? { revision: draft.replacesRevision, reason: draft.amendmentReason ?? '', issuedAt: replaced?.issuedAt?.toISOString() ?? null }
-      : null,
-    lab: { name: record.lab.name, address: record.lab.address ?? '', place: record.lab.place ?? '' },
-    customer: { name: record.customer.name, contact: record.customer.contactEmail },
-    instrument: record.instrument,
-    job: { ...record.job, supplyVoltages: record.job.supplyVoltages },
-    calibrationDates: record.job.calibrationDates,
-    issuedAt: now,
-    results: record.results,
-    deviations: record.deviations,
-    signatory: { name: record.signatory.name, role: record.signatory.role, meaning: record.signatory.meaning, signedAt: now },
-    verifyUrl: url,
-  };
-  const pdf = await renderCertificatePdf(pdfData);
+  const pdf = await renderCertificatePdf(pdfDataOf(record, { number, revision, draft, replaced, now, url }));
   const sha256 = sha256Hex(pdf);
   const key = loadSigningKey(deps.config.varDir);
   const signature = signCertificate(key, number, revision, sha256);
   const fileName = `${randomBytes(20).toString('hex')}.pdf`;
-
-  const row = {
-    number,
-    revision,
-    status: 'issued' as const,
-    jobId: job.id,
-    organizationId: job.organizationId,
-    instrumentId: job.instrumentId,
-    signedById: signer.id,
-    signedAt: now,
-    signingMeaning: meaning,
-    issuedAt: now,
-    fileName,
-    sha256,
-    signature,
-    keyId: key.keyId,
-    decision: results.decision,
-    asFoundDecision: results.outcomes.asFound?.decision ?? null,
-    results,
-    record,
-    instrumentLabel: record.instrument.label,
-    customerName: record.customer.name,
-  };
-  let certificateId: number;
-  if (draft) {
-    await manager.update(Certificate, { id: draft.id }, row);
-    certificateId = draft.id;
-  } else {
-    certificateId = (await manager.insert(Certificate, row)).identifiers[0].id as number;
-  }
-  // An amendment's earlier revisions are superseded already; make sure no other revision stays issued.
-  await manager.query(
-    "UPDATE certificates SET status = 'superseded', superseded_at = COALESCE(superseded_at, ?) WHERE number = ? AND id <> ? AND status = 'issued'",
-    [now, number, certificateId],
-  );
-  await manager.update(Job, { id: job.id }, { status: 'issued' });
-  // The recall cycle restarts at issue: the next due date is the issue date plus the owner's interval.
-  if (instrument.recallIntervalMonths > 0) {
-    const due = new Date(now);
-    due.setUTCMonth(due.getUTCMonth() + instrument.recallIntervalMonths);
-    await manager.update(Instrument, { id: instrument.id }, { nextDueDate: due.toISOString().slice(0, 10) });
-  }
-  await manager.insert(JobReview, { jobId: job.id, action: 'sign', actorId: signer.id, comment: `${meaning} (certificate ${number} revision ${revision})`, at: now });
-  await audit(manager, { actorId: signer.id, entity: 'job', entityId: job.id, action: 'status', changes: { from: job.status, to: 'approved', meaning } });
-  await audit(manager, { actorId: signer.id, entity: 'job', entityId: job.id, action: 'status', changes: { from: 'approved', to: 'issued', certificate: number, revision } });
-  await audit(manager, {
-    actorId: signer.id,
-    entity: 'certificate',
-    entityId: certificateId,
-    action: 'issue',
-    changes: { number, revision, sha256, keyId: key.keyId, meaning, signedAt: now.toISOString(), replacesRevision: draft?.replacesRevision ?? null },
-  });
-
-  const clientRows: Array<{ email: string }> = await manager.query(
-    "SELECT email FROM users WHERE organization_id = ? AND role = 'client' AND active = 1 ORDER BY email",
-    [job.organizationId],
-  );
-  const recipients = [...new Set([customer.contactEmail, ...clientRows.map((c) => c.email)].filter((e): e is string => !!e))];
-
+  const row = certificateRow({ number, revision, job, signer, meaning, now, fileName, sha256, signature, keyId: key.keyId, results, record });
+  const certificateId = await storeCertificate(manager, draft, row, now);
+  await recordIssue(manager, { job, instrument, signer, meaning, number, revision, certificateId, sha256, keyId: key.keyId, replacesRevision: draft?.replacesRevision ?? null, now });
+  const clientEmails = await deps.readers.recipients.clientEmails(job.organizationId, manager);
+  const recipients = [...new Set([customer.contactEmail, ...clientEmails].filter((e): e is string => !!e))];
   // Written last, just before the caller commits; removed by the caller if the commit fails.
-  const dir = certificatesDir(deps.config.varDir);
-  mkdirSync(dir, { recursive: true, mode: 0o750 });
-  const filePath = join(dir, fileName);
-  writeFileSync(filePath, pdf, { mode: 0o640, flag: 'wx' });
-
+  const filePath = writeCertificateFile(deps.config.varDir, fileName, pdf);
   return {
     certificateId,
     number,
@@ -257,6 +169,133 @@ export async function issueCertificate(manager: EntityManager, deps: IssueDeps, 
   };
 }
 
+type RowInput = { number: string; revision: number; job: Job; signer: User; meaning: string; now: Date; fileName: string; sha256: string; signature: string; keyId: string; results: JobResults & { outcomes: JobOutcomes }; record: SignedRecord };
+
+/** The certificate row as issued: who signed and when, the file, its digest and seal, and the results and record signed. */
+function certificateRow(input: RowInput): Partial<Certificate> {
+  const { number, revision, job, signer, meaning, now, fileName, sha256, signature, keyId, results, record } = input;
+  return {
+    number,
+    revision,
+    status: 'issued' as const,
+    jobId: job.id,
+    organizationId: job.organizationId,
+    instrumentId: job.instrumentId,
+    signedById: signer.id,
+    signedAt: now,
+    signingMeaning: meaning,
+    issuedAt: now,
+    fileName,
+    sha256,
+    signature,
+    keyId,
+    decision: results.decision,
+    asFoundDecision: results.outcomes.asFound?.decision ?? null,
+    results,
+    record,
+    instrumentLabel: record.instrument.label,
+    customerName: record.customer.name,
+  };
+}
+
+/** The job, locked for the signing, with its certificates (newest revision first) and a pending amendment's draft; refuses a job not in review or already issued. */
+async function lockSignableJob(manager: EntityManager, jobId: number): Promise<{ job: Job; existing: Certificate[]; draft: Certificate | null }> {
+  const job = await manager.findOne(Job, { where: { id: jobId }, lock: { mode: 'pessimistic_write' } });
+  if (!job) throw new ConflictException(`job ${jobId} does not exist`);
+  if (job.status !== 'in_review' && job.status !== 'approved') {
+    throw new ConflictException(`job ${job.number} is ${job.status}: only a job in review can be signed`);
+  }
+  const existing = await manager.find(Certificate, { where: { jobId: job.id }, order: { revision: 'DESC' } });
+  const draft = existing.find((c) => c.status === 'draft') ?? null;
+  if (!draft && existing.some((c) => c.status === 'issued')) throw new ConflictException(`job ${job.number} already has an issued certificate`);
+  return { job, existing, draft };
+}
+
+/** The certificate's remarks: excluded readings per run, standards used past due by override, ranges left unadjusted. */
+async function issueDeviations(manager: EntityManager, readers: IssueReaders, results: JobResults, usedRunIds: number[]): Promise<string[]> {
+  const deviations: string[] = [];
+  for (const row of await readers.readings.exclusionSummary(usedRunIds, manager)) {
+    deviations.push(`${row.count} reading${row.count === 1 ? '' : 's'} of run ${row.runId} excluded from the results: ${row.reasons}.`);
+  }
+  for (const flag of results.flags.filter((f) => f.kind === 'standard_override')) deviations.push(`Reference standard used past its due date by the lead's decision (run ${flag.runId}): ${flag.message.replace(/^.*override: /, '')}.`);
+  for (const flag of results.flags.filter((f) => f.kind === 'no_as_left')) deviations.push(flag.message.replace(/^([^:]+): /, 'Range $1: ') + '.');
+  return deviations;
+}
+
+type PdfIssue = { number: string; revision: number; draft: Certificate | null; replaced: Certificate | null; now: Date; url: string };
+
+/** What the PDF prints: the signed record, with the number, the revision it replaces and the verification address. */
+function pdfDataOf(record: SignedRecord, issue: PdfIssue): CertificatePdfData {
+  const { number, revision, draft, replaced, now, url } = issue;
+  return {
+    number,
+    revision,
+    replaces: draft?.replacesRevision
+      ? { revision: draft.replacesRevision, reason: draft.amendmentReason ?? '', issuedAt: replaced?.issuedAt?.toISOString() ?? null }
+      : null,
+    lab: { name: record.lab.name, address: record.lab.address ?? '', place: record.lab.place ?? '' },
+    customer: { name: record.customer.name, contact: record.customer.contactEmail },
+    instrument: record.instrument,
+    job: { ...record.job, supplyVoltages: record.job.supplyVoltages },
+    calibrationDates: record.job.calibrationDates,
+    issuedAt: now,
+    results: record.results,
+    deviations: record.deviations,
+    signatory: { name: record.signatory.name, role: record.signatory.role, meaning: record.signatory.meaning, signedAt: now },
+    verifyUrl: url,
+  };
+}
+
+/** Stores the certificate row (the amendment's draft becomes it) and makes sure no other revision of the number stays issued. */
+async function storeCertificate(manager: EntityManager, draft: Certificate | null, row: Partial<Certificate>, now: Date): Promise<number> {
+  let certificateId: number;
+  if (draft) {
+    await manager.update(Certificate, { id: draft.id }, row);
+    certificateId = draft.id;
+  } else {
+    certificateId = (await manager.insert(Certificate, row)).identifiers[0].id as number;
+  }
+  // An amendment's earlier revisions are superseded already; make sure no other revision stays issued.
+  await manager.query(
+    "UPDATE certificates SET status = 'superseded', superseded_at = COALESCE(superseded_at, ?) WHERE number = ? AND id <> ? AND status = 'issued'",
+    [now, row.number, certificateId],
+  );
+  return certificateId;
+}
+
+type IssueRecord = { job: Job; instrument: Instrument; signer: User; meaning: string; number: string; revision: number; certificateId: number; sha256: string; keyId: string; replacesRevision: number | null; now: Date };
+
+/** The job issued, the instrument's next due date, the review event and the audit trail, in the signing transaction. */
+async function recordIssue(manager: EntityManager, issue: IssueRecord): Promise<void> {
+  const { job, instrument, signer, meaning, number, revision, certificateId, sha256, now } = issue;
+  await manager.update(Job, { id: job.id }, { status: 'issued' });
+  // The recall cycle restarts at issue: the next due date is the issue date plus the owner's interval.
+  if (instrument.recallIntervalMonths > 0) {
+    const due = new Date(now);
+    due.setUTCMonth(due.getUTCMonth() + instrument.recallIntervalMonths);
+    await manager.update(Instrument, { id: instrument.id }, { nextDueDate: due.toISOString().slice(0, 10) });
+  }
+  await manager.insert(JobReview, { jobId: job.id, action: 'sign', actorId: signer.id, comment: `${meaning} (certificate ${number} revision ${revision})`, at: now });
+  await audit(manager, { actorId: signer.id, entity: 'job', entityId: job.id, action: 'status', changes: { from: job.status, to: 'approved', meaning } });
+  await audit(manager, { actorId: signer.id, entity: 'job', entityId: job.id, action: 'status', changes: { from: 'approved', to: 'issued', certificate: number, revision } });
+  await audit(manager, {
+    actorId: signer.id,
+    entity: 'certificate',
+    entityId: certificateId,
+    action: 'issue',
+    changes: { number, revision, sha256, keyId: issue.keyId, meaning, signedAt: now.toISOString(), replacesRevision: issue.replacesRevision },
+  });
+}
+
+/** Writes the sealed PDF under var/certificates (owner and group only) and returns its path. */
+function writeCertificateFile(varDir: string, fileName: string, pdf: Buffer): string {
+  const dir = certificatesDir(varDir);
+  mkdirSync(dir, { recursive: true, mode: 0o750 });
+  const filePath = join(dir, fileName);
+  writeFileSync(filePath, pdf, { mode: 0o640, flag: 'wx' });
+  return filePath;
+}
+
 type CaptureInput = {
   job: Job;
   jobResults: JobResultsService;
@@ -266,7 +305,7 @@ type CaptureInput = {
   results: JobResults;
   deviations: string[];
   usedRunIds: number[];
-  runRows: Array<{ started: string; ended: string; supply_voltage: number | null }>;
+  runRows: Array<{ started: string; ended: string; supplyVoltage: number | null }>;
   signer: User;
   meaning: string;
   now: Date;
@@ -300,7 +339,7 @@ async function captureRecord(manager: EntityManager, input: CaptureInput): Promi
       technicianName: technician?.name ?? null,
       ambientTempC: job.ambientTempC,
       humidityPct: job.humidityPct,
-      supplyVoltages: input.runRows.map((r) => r.supply_voltage).filter((v): v is number => v !== null).map(Number),
+      supplyVoltages: input.runRows.map((r) => r.supplyVoltage).filter((v): v is number => v !== null).map(Number),
       calibrationDates: {
         first: input.runRows.map((r) => r.started).sort()[0] ?? now.toISOString().slice(0, 10),
         last: input.runRows.map((r) => r.ended).sort().at(-1) ?? now.toISOString().slice(0, 10),

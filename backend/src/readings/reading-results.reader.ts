@@ -35,4 +35,15 @@ export class ReadingResultsReader {
     const rows: Array<Record<string, unknown>> = await (manager ?? this.dataSource.manager).query('SELECT id, frequency_hz FROM readings WHERE id IN (?) ORDER BY seq', [ids]);
     return rows.map((r) => ({ id: Number(r.id), frequency: Number(r.frequency_hz) }));
   }
+
+  /** Per run with exclusions: how many readings are excluded and their distinct reasons ("; "-joined, sorted), by run. */
+  async exclusionSummary(runIds: readonly number[], manager?: EntityManager): Promise<Array<{ runId: number; count: number; reasons: string }>> {
+    if (runIds.length === 0) return [];
+    const rows: Array<Record<string, unknown>> = await (manager ?? this.dataSource.manager).query(
+      `SELECT e.run_id, COUNT(*) AS n, GROUP_CONCAT(DISTINCT e.reason ORDER BY e.reason SEPARATOR '; ') AS reasons
+         FROM reading_exclusions e WHERE e.run_id IN (?) GROUP BY e.run_id ORDER BY e.run_id`,
+      [runIds],
+    );
+    return rows.map((row) => ({ runId: Number(row.run_id), count: Number(row.n), reasons: String(row.reasons) }));
+  }
 }

@@ -9,11 +9,14 @@ import type { AuthUser } from '../shared/auth-user.js';
 import { SignInThrottle } from '../auth/sign-in-throttle.js';
 import { findScopedJob } from '../budgets/job-access.js';
 import { JobResultsService } from '../budgets/job-results.service.js';
+import { ReadingResultsReader } from '../readings/reading-results.reader.js';
+import { RunResultsReader } from '../runs/run-results.reader.js';
+import { CertificateRecipientsReader } from '../users/certificate-recipients.reader.js';
 import { Certificate } from '../certificates/certificate.entity.js';
 import { readSettings } from '../certificates/certificate-settings.js';
 import { CertificatesService } from '../certificates/certificates.service.js';
 import { loadSignedRecord } from '../certificates/signed-record.js';
-import { instrumentLabel, issueCertificate, withCertificateFile } from '../certificates/issue-certificate.js';
+import { instrumentLabel, issueCertificate, withCertificateFile, type IssueReaders } from '../certificates/issue-certificate.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { Instrument } from '../instruments/instrument.entity.js';
 import { Job } from '../jobs/job.entity.js';
@@ -39,7 +42,14 @@ export class ReviewsService {
     /** Wrong passwords at signing, per lead (numbers in sign-in-throttle.ts). */
     private readonly signThrottle: SignInThrottle,
     private readonly jobResults: JobResultsService,
-  ) {}
+    runResults: RunResultsReader,
+    readingResults: ReadingResultsReader,
+    recipients: CertificateRecipientsReader,
+  ) {
+    this.issueReaders = { runs: runResults, readings: readingResults, recipients };
+  }
+
+  private readonly issueReaders: IssueReaders;
 
   private async changeStatus(manager: EntityManager, actor: AuthUser, job: Job, to: Job['status'], action: 'submit' | 'return', comment: string | null): Promise<void> {
     await manager.update(Job, { id: job.id }, { status: to });
@@ -143,7 +153,7 @@ export class ReviewsService {
       await this.refuse(actor, job, captured);
       throw new ForbiddenException(`${captured.charAt(0).toUpperCase()}${captured.slice(1)} (or an admin allows self-signing)`);
     }
-    const outcome = await withCertificateFile(this.dataSource, (manager) => issueCertificate(manager, { config: this.config, results: this.jobResults }, { jobId: job.id, signerId: actor.id, meaning }),
+    const outcome = await withCertificateFile(this.dataSource, (manager) => issueCertificate(manager, { config: this.config, results: this.jobResults, readers: this.issueReaders }, { jobId: job.id, signerId: actor.id, meaning }),
     );
     if (outcome.recipients.length === 0) {
       this.logger.warn(`certificate ${outcome.number} issued, but ${outcome.customer} has no contact address to mail`);

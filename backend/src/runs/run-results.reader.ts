@@ -34,4 +34,15 @@ export class RunResultsReader {
       standardOverrideReason: (row.standard_override_reason as string | null) ?? null,
     }));
   }
+
+  /** The calendar days each run began and ended (an open run: the day it began) and its supply voltage, for a certificate's dates. */
+  async calibrationDays(runIds: readonly number[], manager?: EntityManager): Promise<Array<{ started: string; ended: string; supplyVoltage: number | null }>> {
+    if (runIds.length === 0) return [];
+    const rows: Array<Record<string, unknown>> = await (manager ?? this.dataSource.manager).query(
+      `SELECT DATE_FORMAT(started_at, '%Y-%m-%d') AS started, DATE_FORMAT(COALESCE(ended_at, started_at), '%Y-%m-%d') AS ended, supply_voltage
+         FROM runs WHERE id IN (?)`,
+      [runIds],
+    );
+    return rows.map((row) => ({ started: String(row.started), ended: String(row.ended), supplyVoltage: row.supply_voltage === null ? null : Number(row.supply_voltage) }));
+  }
 }

@@ -1,5 +1,6 @@
 import { Global, Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
+import { OrganizationsModule } from '../organizations/organizations.module.js';
 import { AccountSessions } from '../shared/account-sessions.js';
 import { ActorDirectory } from '../shared/actor-directory.js';
 import { AccountsReader } from './accounts.reader.js';
@@ -14,7 +15,7 @@ import { User } from './user.entity.js';
 // the audit log ActorDirectory, without importing this module, so the users module imports none of them back.
 @Global()
 @Module({
-  imports: [TypeOrmModule.forFeature([User])],
+  imports: [TypeOrmModule.forFeature([User]), OrganizationsModule],
   controllers: [UsersController],
   providers: [
     UsersService,
