@@ -1,5 +1,6 @@
 import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
+import { OrganizationsModule } from '../organizations/organizations.module.js';
 import { InstrumentRange } from './instrument-range.entity.js';
 import { Instrument } from './instrument.entity.js';
 import { InstrumentsController } from './instruments.controller.js';
@@ -9,7 +10,7 @@ import { RangeResultsReader } from './range-results.reader.js';
 import { RecallInstrumentsReader } from './recall-instruments.reader.js';
 
 @Module({
-  imports: [TypeOrmModule.forFeature([Instrument, InstrumentRange])],
+  imports: [TypeOrmModule.forFeature([Instrument, InstrumentRange]), OrganizationsModule],
   controllers: [InstrumentsController],
   providers: [InstrumentsService, RangeResultsReader, InstrumentComparisonReader, RecallInstrumentsReader],
   exports: [InstrumentsService, RangeResultsReader, InstrumentComparisonReader, RecallInstrumentsReader],

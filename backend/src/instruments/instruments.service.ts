@@ -4,7 +4,7 @@ import { In, type DataSource, type EntityManager, type Repository } from 'typeor
 import type { Instrument as InstrumentView, InstrumentRange as RangeView, ListResponse, RangeInput } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
 import { organizationScope, type AuthUser } from '../shared/auth-user.js';
-import { Organization } from '../organizations/organization.entity.js';
+import { OrganizationsReader } from '../organizations/organizations.reader.js';
 import { dateOnly, todayIso } from '../shared/dto-helpers.js';
 import { paginateFlat } from '../shared/page-query.js';
 import { RangeUseSource } from '../shared/range-use.js';
@@ -60,6 +60,7 @@ export class InstrumentsService {
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly audit: AuditService,
     private readonly rangeUse: RangeUseSource,
+    private readonly organizations: OrganizationsReader,
   ) {}
 
   list(actor: AuthUser, query: ListInstrumentsQueryDto): Promise<ListResponse<InstrumentView>> {
@@ -98,7 +99,7 @@ export class InstrumentsService {
     assertRanges(ranges);
     if (ranges.some((r) => r.id !== undefined)) throw new BadRequestException('ranges: a new instrument\'s ranges have no id yet');
     const id = await this.dataSource.transaction(async (manager) => {
-      const organization = await manager.findOneBy(Organization, { id: body.organizationId });
+      const organization = await this.organizations.byId(body.organizationId, manager);
       if (!organization) throw new BadRequestException(`organizationId: organisation ${body.organizationId} does not exist`);
       if (!organization.active) throw new BadRequestException(`organizationId: organisation "${organization.name}" is deactivated`);
       await this.assertUniqueIdentity(manager, body.make, body.model, body.serial);

@@ -1,12 +1,13 @@
 import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { In, type DataSource, type EntityManager } from 'typeorm';
+import type { OrganizationKind } from '@kilocycle/common/types';
 import { Organization } from './organization.entity.js';
 
-/** An organisation as mail and recall read it. */
-export type OrganizationContact = { id: number; name: string; contactEmail: string | null; active: boolean };
+/** An organisation as other modules read it (mail, recall, users, instruments). */
+export type OrganizationContact = { id: number; name: string; kind: OrganizationKind; contactEmail: string | null; active: boolean };
 
-const toContact = (o: Organization): OrganizationContact => ({ id: o.id, name: o.name, contactEmail: o.contactEmail, active: o.active });
+const toContact = (o: Organization): OrganizationContact => ({ id: o.id, name: o.name, kind: o.kind, contactEmail: o.contactEmail, active: o.active });
 
 /**
  * Organisations for other modules. Also built by hand (`new OrganizationsReader(dataSource)`) where no
@@ -19,6 +20,12 @@ export class OrganizationsReader {
   /** The lab's own organisation (the first one of kind lab), or null before one exists. */
   async lab(manager?: EntityManager): Promise<OrganizationContact | null> {
     const found = await (manager ?? this.dataSource.manager).findOne(Organization, { where: { kind: 'lab' }, order: { id: 'ASC' } });
+    return found ? toContact(found) : null;
+  }
+
+  /** One organisation, or null. */
+  async byId(id: number, manager?: EntityManager): Promise<OrganizationContact | null> {
+    const found = await (manager ?? this.dataSource.manager).findOneBy(Organization, { id });
     return found ? toContact(found) : null;
   }
 

@@ -6,7 +6,7 @@ import type { ListResponse, Role, User as UserView } from '@kilocycle/common/typ
 import { AuditService } from '../audit/audit.service.js';
 import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
-import { Organization } from '../organizations/organization.entity.js';
+import { OrganizationsReader, type OrganizationContact } from '../organizations/organizations.reader.js';
 import { likePattern, paginate } from '../shared/paginate.js';
 import { SessionsService } from './sessions.service.js';
 import type { CreateUserDto, ListUsersQueryDto, UpdateUserDto } from './dto/user.dto.js';
@@ -27,7 +27,7 @@ export function toUserView(user: User): UserView {
 }
 
 /** A client belongs to a customer organisation; every other role to the lab (POST and PATCH alike). */
-function assertRoleFitsOrganization(role: Role, organization: Organization): void {
+function assertRoleFitsOrganization(role: Role, organization: Pick<OrganizationContact, 'kind' | 'name'>): void {
   if (role === 'client' && organization.kind !== 'customer') {
     throw new BadRequestException('a client must belong to a customer organisation');
   }
@@ -46,6 +46,7 @@ export class UsersService {
     private readonly audit: AuditService,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
     private readonly sessions: SessionsService,
+    private readonly organizations: OrganizationsReader,
   ) {}
 
   async list(actor: AuthUser, query: ListUsersQueryDto): Promise<ListResponse<UserView>> {
@@ -70,7 +71,7 @@ export class UsersService {
   async create(actor: AuthUser, body: CreateUserDto): Promise<UserView> {
     assertPasswordAllowed(body.password, body);
     const id = await this.dataSource.transaction(async (manager) => {
-      const organization = await manager.findOneBy(Organization, { id: body.organizationId });
+      const organization = await this.organizations.byId(body.organizationId, manager);
       if (!organization) throw new BadRequestException(`organizationId ${body.organizationId} does not exist`);
       assertRoleFitsOrganization(body.role, organization);
       if (await manager.existsBy(User, { email: body.email })) {
