@@ -154,7 +154,7 @@ export function RangesEditor({ instrument, canEdit }: RangesEditorProps) {
         open={editing !== null}
         initial={editing?.draft ?? null}
         busy={update.isPending}
-        serverMessages={messages}
+        error={update.error}
         onClose={() => setEditing(null)}
         onSave={onSave}
       />

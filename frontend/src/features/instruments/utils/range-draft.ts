@@ -1,4 +1,3 @@
-import { parseFrequency, parseNumber } from '@kilocycle/common/units';
 import type { DialUnit, FrequencyUnit, InstrumentRange, RangeInput } from '@kilocycle/common/types';
 import { formatHz, formatNumber } from '@/utils/frequency';
 
@@ -19,8 +18,6 @@ export type RangeDraft = {
   hz: string;
   multipliers: string;
 };
-
-export type RangeDraftErrors = Partial<Record<keyof RangeDraft | `table.${number}`, string>>;
 
 const isFrequencyUnit = (unit: DialUnit): unit is FrequencyUnit => unit !== 'div';
 
@@ -69,90 +66,6 @@ export function toDraft(range: InstrumentRange): RangeDraft {
     ppm: range.tolerance.kind === 'ppm_hz' ? String(range.tolerance.ppm) : '',
     hz: range.tolerance.kind === 'ppm_hz' ? String(range.tolerance.hz) : '',
     multipliers: range.multipliers.join(', '),
-  };
-}
-
-function messageOf(error: unknown) {
-  return error instanceof Error ? error.message : String(error);
-}
-
-/** Reads a draft into what the API takes, or says field by field what is wrong. */
-export function fromDraft(draft: RangeDraft): { range: RangeInput | null; errors: RangeDraftErrors } {
-  const errors: RangeDraftErrors = {};
-  const unit = frequencyUnitOf(draft.dialUnit);
-  const number = (field: keyof RangeDraft, text: string): number => {
-    try {
-      return parseNumber(text);
-    } catch (error) {
-      errors[field] = messageOf(error);
-      return NaN;
-    }
-  };
-  const frequency = (field: keyof RangeDraft | `table.${number}`, text: string): number => {
-    try {
-      return parseFrequency(text, unit);
-    } catch (error) {
-      errors[field] = messageOf(error);
-      return NaN;
-    }
-  };
-
-  if (!draft.label.trim()) errors.label = 'Give the range a label, as marked on the switch';
-  const dialMin = number('dialMin', draft.dialMin);
-  const dialMax = number('dialMax', draft.dialMax);
-  if (!errors.dialMin && !errors.dialMax && !(dialMax > dialMin)) errors.dialMax = 'The dial’s top must be above its bottom';
-  const freqMinHz = frequency('freqMin', draft.freqMin);
-  const freqMaxHz = frequency('freqMax', draft.freqMax);
-  if (!errors.freqMin && !errors.freqMax && !(freqMaxHz > freqMinHz)) errors.freqMax = 'The top frequency must be above the bottom one';
-
-  if (draft.dialUnit === 'div' && draft.lawKind === 'direct') errors.lawKind = 'A dial in divisions needs a table of dial and frequency';
-  const points = draft.table.map((row, index) => {
-    let dial = NaN;
-    try {
-      dial = parseNumber(row.dial);
-    } catch (error) {
-      errors[`table.${index}`] = `dial: ${messageOf(error)}`;
-    }
-    const hz = frequency(`table.${index}`, row.frequency);
-    return { dial, frequency: hz };
-  });
-  if (draft.lawKind === 'table' && points.length < 2) errors.lawKind = 'A table needs at least two points';
-
-  let tolerance: RangeInput['tolerance'];
-  if (draft.toleranceKind === 'percent') {
-    const percent = number('percent', draft.percent);
-    if (!errors.percent && !(percent > 0 && percent <= 100)) errors.percent = 'Above 0 and at most 100 %';
-    tolerance = { kind: 'percent', percent };
-  } else {
-    const ppm = draft.ppm.trim() === '' ? 0 : number('ppm', draft.ppm);
-    const hz = draft.hz.trim() === '' ? 0 : number('hz', draft.hz);
-    if (!errors.ppm && !errors.hz && (ppm < 0 || hz < 0 || ppm + hz <= 0)) errors.ppm = 'Both 0 or more, and not both 0';
-    tolerance = { kind: 'ppm_hz', ppm, hz };
-  }
-
-  const multipliers = draft.multipliers
-    .split(/[\s,;×x]+/)
-    .filter(Boolean)
-    .map(Number);
-  if (multipliers.length === 0 || multipliers.some((m) => !Number.isInteger(m) || m < 1 || m > 64))
-    errors.multipliers = 'Whole numbers from 1 to 64, separated by commas (1, 2, 4)';
-  else if (new Set(multipliers).size !== multipliers.length) errors.multipliers = 'Each multiplier once';
-
-  if (Object.keys(errors).length > 0) return { range: null, errors };
-  return {
-    errors,
-    range: {
-      ...(draft.id ? { id: draft.id } : {}),
-      label: draft.label.trim(),
-      dialUnit: draft.dialUnit,
-      dialLaw: draft.lawKind === 'direct' && isFrequencyUnit(draft.dialUnit) ? { kind: 'direct', unit: draft.dialUnit } : { kind: 'table', points },
-      dialMin,
-      dialMax,
-      freqMinHz,
-      freqMaxHz,
-      tolerance,
-      multipliers,
-    },
   };
 }
 
