@@ -119,5 +119,8 @@ export type LiveExclusionEvent = { runId: number; reading: Reading };
 /** A bridge for the run came online (since = when it attached) or went offline (since = when it dropped). */
 export type LiveBridgeEvent = { runId: number; connected: boolean; since: string };
 
+/** The latest bridge change a page heard for the run it shows (a {@link LiveBridgeEvent} without its run). */
+export type RunBridgeChange = Omit<LiveBridgeEvent, 'runId'>;
+
 /** A counter-assisted setting's progress or end (types/captures.ts); `sentAt` is the server's time of sending. */
 export type LiveCaptureEvent = { runId: number; capture: CounterCapture; sentAt: string };

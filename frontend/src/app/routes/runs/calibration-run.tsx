@@ -17,7 +17,7 @@ import { ErrorChart } from '@/features/runs/components/calibration/error-chart';
 import { FitSummary } from '@/features/runs/components/calibration/fit-summary';
 import { PaddingCalculator } from '@/features/runs/components/calibration/padding-calculator';
 import { RunDataTransfer } from '@/features/imports/components/run-data-transfer';
-import { BridgeChip } from '@/features/runs/components/bridge-chip';
+import { BridgeChip } from '@/components/ui/bridge-chip';
 import { RunHeader } from '@/features/runs/components/run-header';
 import { SafetyCaution } from '@/features/runs/components/safety-caution';
 import { analysisProblem, mayWriteRun, noReadingsNotice, skipChartAnimation } from './run-access';

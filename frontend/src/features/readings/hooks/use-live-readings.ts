@@ -1,7 +1,7 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
 import { io } from 'socket.io-client';
-import { LIVE_EVENTS, NAMESPACES, type JoinReply, type LiveBridgeEvent, type LiveCaptureEvent, type LiveExclusionEvent, type LiveReadingsEvent } from '@kilocycle/common/events';
+import { LIVE_EVENTS, NAMESPACES, type JoinReply, type LiveBridgeEvent, type LiveCaptureEvent, type LiveExclusionEvent, type LiveReadingsEvent, type RunBridgeChange } from '@kilocycle/common/events';
 import type { Reading } from '@kilocycle/common/types';
 import { getSession } from '@/lib/session';
 import { runAnalysisQueryKey, runDetailQueryKey } from '@/lib/query-keys';
@@ -14,7 +14,6 @@ export type LiveState = 'connecting' | 'live' | 'offline' | 'refused';
  * event the server pushed for the run (null until one arrives: the run's own `bridge` field holds until then).
  */
 export type LiveStatus = { state: LiveState; message: string | null; lastArrivalAt: number | null; bridge: RunBridgeChange | null };
-export type RunBridgeChange = { connected: boolean; since: string };
 
 type UseLiveReadingsOptions = {
   enabled?: boolean;

@@ -1,6 +1,6 @@
 import { render, screen } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { BridgeChip, clockTime } from '../bridge-chip';
+import { BridgeChip, clockTime } from '../ui/bridge-chip';
 
 describe('<BridgeChip>', () => {
   afterEach(() => vi.useRealTimers());

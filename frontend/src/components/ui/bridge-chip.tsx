@@ -3,7 +3,7 @@ import Chip from '@mui/material/Chip';
 import Typography from '@mui/material/Typography';
 import { useEffect, useState } from 'react';
 import type { RunBridge } from '@kilocycle/common/types';
-import type { RunBridgeChange } from '@/features/readings/hooks/use-live-readings';
+import type { RunBridgeChange } from '@kilocycle/common/events';
 import { Num } from '@/components/ui/num';
 import { formatDuration } from '@/utils/frequency';
 
