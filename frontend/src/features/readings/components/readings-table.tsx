@@ -1,100 +1,57 @@
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
-import Dialog from '@mui/material/Dialog';
-import DialogActions from '@mui/material/DialogActions';
-import DialogContent from '@mui/material/DialogContent';
-import DialogContentText from '@mui/material/DialogContentText';
-import DialogTitle from '@mui/material/DialogTitle';
 import Paper from '@mui/material/Paper';
-import TextField from '@mui/material/TextField';
 import Typography from '@mui/material/Typography';
 import { DataGrid, type GridColDef, type GridPaginationModel, type GridSortModel } from '@mui/x-data-grid';
-import { useId, useMemo, useState, type FormEvent } from 'react';
+import { useMemo, useState } from 'react';
 import type { FrequencyUnit, Reading } from '@kilocycle/common/types';
-import { FormErrors } from '@/components/ui/form-errors';
+import { FormDialog, FormTextField, useZodForm } from '@/components/ui/form-dialog';
 import { Num } from '@/components/ui/num';
 import { usePhoneColumns, type PhoneLayout } from '@/components/ui/phone-columns';
-import { ApiError } from '@/lib/api-client';
 import { toSortParam } from '@/lib/data-grid';
 import { formatDateTime } from '@/utils/format';
 import { formatDuration, formatHz, formatHzTo, formatNumber } from '@/utils/frequency';
 import { formatCount } from '@/utils/measurement';
-import { useExcludeReading } from '../api/exclude-reading';
+import { excludeReadingSchema, useExcludeReading } from '../api/exclude-reading';
 import { useReadings } from '../api/get-readings';
 
-const MIN_REASON = 3;
 const SOURCE_LABELS: Record<Reading['source'], string> = { manual: 'Typed', bridge: 'Bridge', import: 'Import' };
 
 type ExcludeDialogProps = { runId: number; reading: Reading | null; unit?: FrequencyUnit; onClose: () => void; onExcluded?: (reading: Reading) => void };
 
 function ExcludeDialog({ runId, reading, unit, onClose, onExcluded }: ExcludeDialogProps) {
-  const titleId = useId();
-  const [reason, setReason] = useState('');
-  const [tooShort, setTooShort] = useState(false);
+  const form = useZodForm(excludeReadingSchema, { reason: '' });
   const exclude = useExcludeReading({
     onSuccess: (excluded) => {
-      setReason('');
       onExcluded?.(excluded);
       onClose();
     },
   });
-  const submit = (event: FormEvent<HTMLFormElement>) => {
-    event.preventDefault();
-    if (!reading) return;
-    if (reason.trim().length < MIN_REASON) {
-      setTooShort(true);
-      return;
-    }
-    exclude.mutate({ runId, readingId: reading.id, reason: reason.trim() });
-  };
   return (
-    <Dialog
+    <FormDialog
       open={reading !== null}
-      onClose={exclude.isPending ? undefined : onClose}
-      aria-labelledby={titleId}
-      slotProps={{
-        transition: {
-          onExited: () => {
-            setReason('');
-            setTooShort(false);
-            exclude.reset();
-          },
-        },
-      }}
+      title={`Exclude reading ${reading ? `#${reading.seq}` : ''}?`}
+      intro={
+        reading && (
+          <>
+            Dial <Num>{reading.dial ?? '—'}</Num>, <Num>{formatHz(reading.frequency, unit)}</Num>. The reading stays on record, struck
+            through with your reason, and leaves the fits. This cannot be undone.
+          </>
+        )
+      }
+      form={form}
+      onSubmit={({ reason }) => reading && exclude.mutate({ runId, readingId: reading.id, reason })}
+      onClose={onClose}
+      onExited={() => exclude.reset()}
+      pending={exclude.isPending}
+      error={exclude.error}
+      errorFallback="The reading could not be excluded."
+      submitLabel="Exclude"
+      pendingLabel="Excluding…"
+      submitColor="error"
     >
-      <form noValidate onSubmit={submit}>
-        <DialogTitle id={titleId}>Exclude reading {reading ? `#${reading.seq}` : ''}?</DialogTitle>
-        <DialogContent>
-          <FormErrors messages={exclude.error instanceof ApiError ? exclude.error.messages : exclude.error ? ['The reading could not be excluded.'] : []} />
-          {reading && (
-            <DialogContentText sx={{ mb: 2 }}>
-              Dial <Num>{reading.dial ?? '—'}</Num>, <Num>{formatHz(reading.frequency, unit)}</Num>. The reading stays on record, struck
-              through with your reason, and leaves the fits. This cannot be undone.
-            </DialogContentText>
-          )}
-          <TextField
-            label="Reason"
-            autoFocus
-            required
-            value={reason}
-            onChange={(e) => {
-              setReason(e.target.value);
-              setTooShort(false);
-            }}
-            error={tooShort}
-            helperText={tooShort ? `At least ${MIN_REASON} characters` : 'E.g. counter gate still counting, wrong dial setting, lead moved'}
-          />
-        </DialogContent>
-        <DialogActions>
-          <Button onClick={onClose} disabled={exclude.isPending}>
-            Cancel
-          </Button>
-          <Button type="submit" variant="contained" color="error" disabled={exclude.isPending}>
-            {exclude.isPending ? 'Excluding…' : 'Exclude'}
-          </Button>
-        </DialogActions>
-      </form>
-    </Dialog>
+      <FormTextField control={form.control} name="reason" label="Reason" required helperText="E.g. counter gate still counting, wrong dial setting, lead moved" />
+    </FormDialog>
   );
 }
 
