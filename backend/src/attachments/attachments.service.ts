@@ -23,7 +23,7 @@ import {
 } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
 import { organizationScope, type AuthUser } from '../shared/auth-user.js';
-import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { APP_CONFIG, type AppConfig } from '../config/config.module.js';
 import { attachmentDisposition } from '../shared/csv.js';
 import { megabytesFromEnv, readHead, receiveUpload, removeQuietly } from '../shared/multipart-upload.js';
 import { Attachment } from './attachment.entity.js';

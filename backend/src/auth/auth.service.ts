@@ -6,7 +6,7 @@ import { randomUUID } from 'node:crypto';
 import { LessThan, type Repository } from 'typeorm';
 import type { LoginResponse, SessionUser } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
-import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { APP_CONFIG, type AppConfig } from '../config/config.module.js';
 import { AccountsReader } from '../users/accounts.reader.js';
 import type { AuthUser, JwtClaims } from '../shared/auth-user.js';
 import { RevokedToken } from './revoked-token.entity.js';

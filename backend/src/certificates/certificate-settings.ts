@@ -1,6 +1,6 @@
 import type { EntityManager } from 'typeorm';
 import type { CertificateSettings } from '@kilocycle/common/types';
-import { checkEnvironment } from '../config/env-schema.js';
+import { checkEnvironment } from '../config/config.module.js';
 import { Setting } from './setting.entity.js';
 
 /** Defaults until an admin changes them; the first three may come from the environment. */

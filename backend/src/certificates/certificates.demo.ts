@@ -3,7 +3,7 @@ import { Procedure } from '../budgets/procedure.entity.js';
 import { recordProcedureVersion } from '../budgets/procedure-versions.js';
 import { JobProcedure } from '../budgets/job-procedure.entity.js';
 import { JobResultsService } from '../budgets/job-results.service.js';
-import { loadConfig } from '../config/app-config.js';
+import { loadConfig } from '../config/config.module.js';
 import { InstrumentRange } from '../instruments/instrument-range.entity.js';
 import { Instrument } from '../instruments/instrument.entity.js';
 import { addDays, lcOscillator, seededGaussian } from '../shared/demo-signals.js';

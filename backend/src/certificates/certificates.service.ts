@@ -15,7 +15,7 @@ import type {
 import { withOutcomes } from '@kilocycle/common/math';
 import { AuditService } from '../audit/audit.service.js';
 import { organizationScope, type AuthUser } from '../shared/auth-user.js';
-import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { APP_CONFIG, type AppConfig } from '../config/config.module.js';
 import { Job } from '../jobs/job.entity.js';
 import { JobReview } from '../reviews/job-review.entity.js';
 import { likePattern, paginate } from '../shared/paginate.js';

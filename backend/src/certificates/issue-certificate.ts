@@ -10,7 +10,7 @@ import type { JobResultsService } from '../budgets/job-results.service.js';
 import { ReadingResultsReader } from '../readings/reading-results.reader.js';
 import { RunResultsReader } from '../runs/run-results.reader.js';
 import { CertificateRecipientsReader } from '../users/certificate-recipients.reader.js';
-import type { AppConfig } from '../config/app-config.js';
+import type { AppConfig } from '../config/config.module.js';
 import { resultsCsv } from '../exports/results-csv.js';
 import { InstrumentRange } from '../instruments/instrument-range.entity.js';
 import { toRangeView } from '../instruments/instruments.service.js';

@@ -2,7 +2,7 @@ import { Inject, Injectable, Logger, type OnModuleInit } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { existsSync } from 'node:fs';
 import type { DataSource } from 'typeorm';
-import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { APP_CONFIG, type AppConfig } from '../config/config.module.js';
 import { loadSigningKey, signingKeyPaths } from './signing-key.js';
 
 /**

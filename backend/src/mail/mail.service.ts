@@ -4,6 +4,10 @@ import type { DataSource } from 'typeorm';
 import { AuditService } from '../audit/audit.service.js';
 import { Mailer, type OutgoingMail } from './mailer.js';
 
+// What other modules may use of mail besides the service: the mailer (the CLI's recall run builds one) and the templates.
+export { Mailer, type OutgoingMail } from './mailer.js';
+export { recallReminderMail } from './mail-templates.js';
+
 /** The app's mail: starts the fake with the app (unless real SMTP is configured) and never fails a caller. */
 @Injectable()
 export class MailService implements OnModuleInit, OnApplicationShutdown {

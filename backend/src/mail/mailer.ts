@@ -1,7 +1,7 @@
 import nodemailer, { type Transporter } from 'nodemailer';
 import type { DataSource } from 'typeorm';
 import { OrganizationsReader } from '../organizations/organizations.reader.js';
-import { checkEnvironment, ConfigError } from '../config/env-schema.js';
+import { checkEnvironment, ConfigError } from '../config/config.module.js';
 import { MailMessage } from './mail-message.entity.js';
 import { mailSignOff, mailTextToHtml } from './mail-text.js';
 import { parseMessage } from './read-message.js';

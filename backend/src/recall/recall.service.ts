@@ -3,7 +3,7 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import type { DataSource } from 'typeorm';
 import type { ListResponse, RecallNotice, RecallRunResult } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
-import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { APP_CONFIG, type AppConfig } from '../config/config.module.js';
 import { RecallInstrumentsReader } from '../instruments/recall-instruments.reader.js';
 import { MailService } from '../mail/mail.service.js';
 import { OrganizationsReader } from '../organizations/organizations.reader.js';

@@ -1,6 +1,6 @@
 import type { DataSource } from 'typeorm';
-import type { AppConfig } from '../config/app-config.js';
-import { Mailer } from '../mail/mailer.js';
+import type { AppConfig } from '../config/config.module.js';
+import { Mailer } from '../mail/mail.service.js';
 import { runRecall } from './run-recall.js';
 
 /**

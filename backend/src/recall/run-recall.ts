@@ -2,8 +2,7 @@ import type { DataSource } from 'typeorm';
 import type { RecallNotice as RecallNoticeView, RecallRunResult } from '@kilocycle/common/types';
 import { readSettings } from '../certificates/certificate-settings.js';
 import { RecallInstrumentsReader, type RecallInstrument } from '../instruments/recall-instruments.reader.js';
-import type { OutgoingMail } from '../mail/mailer.js';
-import { recallReminderMail } from '../mail/mail-templates.js';
+import { recallReminderMail, type OutgoingMail } from '../mail/mail.service.js';
 import { OrganizationsReader } from '../organizations/organizations.reader.js';
 import { CertificateRecipientsReader } from '../users/certificate-recipients.reader.js';
 

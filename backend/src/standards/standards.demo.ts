@@ -1,12 +1,12 @@
 import { addDays } from '../shared/demo-signals.js';
-import type { DemoContext } from '../seed/demo-seed.js';
+import type { EntityManager } from 'typeorm';
 import { recordStandardVersion } from './standard-versions.js';
 import { Standard } from './standard.entity.js';
 
 /** The demo lab's two counters: one in date, one whose calibration has lapsed (for the override flow). */
 export const DEMO_STANDARDS = { inDate: 'Bench counter A', lapsed: 'Bench counter B (spare)' } as const;
 
-export async function seedDemoStandards({ manager }: DemoContext): Promise<void> {
+export async function seedDemoStandards({ manager }: { manager: EntityManager }): Promise<void> {
   const today = new Date();
   const inserted = await manager.insert(Standard, [
     {

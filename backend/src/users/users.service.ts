@@ -5,7 +5,7 @@ import type { DataSource, Repository } from 'typeorm';
 import type { ListResponse, Role, User as UserView } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
 import { organizationScope, type AuthUser } from '../shared/auth-user.js';
-import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { APP_CONFIG, type AppConfig } from '../config/config.module.js';
 import { OrganizationsReader, type OrganizationContact } from '../organizations/organizations.reader.js';
 import { likePattern, paginate } from '../shared/paginate.js';
 import { SessionsService } from './sessions.service.js';
