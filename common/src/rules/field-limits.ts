@@ -23,6 +23,7 @@ export const FIELD_LIMITS = {
   },
   job: { ambientTempC: { min: -40, max: 80 }, humidityPct: { min: 0, max: 100 }, statusComment: { min: 3, max: 2000 } },
   run: { overrideReason: { min: 10, max: 1000 }, correctionReason: { min: 3, max: 1000 }, supplyVoltage: { min: 0, max: 100000 } },
+  attachment: { caption: { max: 500 } },
   reading: { excludeReason: { min: 3, max: 500 } },
   review: { submitComment: { max: 2000 }, returnComment: { min: 3, max: 4000 }, password: { max: 200 } },
   certificate: { reason: { min: 3, max: 2000 } },

@@ -1,5 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { FIELD_LIMITS } from '@kilocycle/common/rules';
 import type { Attachment, AttachmentOwner } from '@kilocycle/common/types';
+import { z } from 'zod';
 import { toApiError, uploadWithProgress, type UploadProgress } from '@/lib/api-client';
 import { attachmentsPath, getAttachmentsQueryOptions } from './get-attachments';
 
@@ -10,6 +12,14 @@ export type UploadAttachmentInput = {
   caption: string;
   onUploadProgress?: (progress: UploadProgress) => void;
 };
+
+const { caption: CAPTION } = FIELD_LIMITS.attachment;
+
+/** The upload form: a chosen file and an optional caption. */
+export const uploadAttachmentSchema = z.object({
+  file: z.custom<File | null>().refine((file): file is File => file instanceof File, 'Choose the file to attach'),
+  caption: z.string().trim().max(CAPTION.max, `At most ${CAPTION.max} characters`),
+});
 
 const LIMIT_PREFIX: Record<number, string> = { 413: 'Too large:', 415: 'Not a kind of file the lab keeps:' };
 

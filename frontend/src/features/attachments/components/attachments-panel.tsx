@@ -14,13 +14,13 @@ import IconButton from '@mui/material/IconButton';
 import LinearProgress from '@mui/material/LinearProgress';
 import Paper from '@mui/material/Paper';
 import Skeleton from '@mui/material/Skeleton';
-import TextField from '@mui/material/TextField';
 import Tooltip from '@mui/material/Tooltip';
 import Typography from '@mui/material/Typography';
-import { useEffect, useId, useRef, useState, type FormEvent } from 'react';
+import { useEffect, useRef, useState } from 'react';
+import { Controller } from 'react-hook-form';
 import { DEFAULT_ATTACHMENT_MAX_MB, type Attachment, type AttachmentOwner } from '@kilocycle/common/types';
 import { ConfirmDialog } from '@/components/ui/confirm-dialog';
-import { FormErrors } from '@/components/ui/form-errors';
+import { FormDialog, FormTextField, useZodForm } from '@/components/ui/form-dialog';
 import { ApiError } from '@/lib/api-client';
 import { downloadFile } from '@/lib/file-transfer';
 import { notify } from '@/lib/notifications';
@@ -29,7 +29,7 @@ import { formatBytes } from '@/utils/measurement';
 import { useDeleteAttachment } from '../api/delete-attachment';
 import { useAttachmentFile } from '../api/get-attachment-file';
 import { useAttachments } from '../api/get-attachments';
-import { useUploadAttachment } from '../api/upload-attachment';
+import { uploadAttachmentSchema, useUploadAttachment } from '../api/upload-attachment';
 
 const isImage = (a: Attachment) => a.contentType.startsWith('image/');
 
@@ -96,39 +96,37 @@ function ImageViewer({ attachment, onClose }: { attachment: Attachment; onClose:
 }
 
 function UploadDialog({ owner, ownerId, onClose }: { owner: AttachmentOwner; ownerId: number; onClose: () => void }) {
-  const titleId = useId();
   const input = useRef<HTMLInputElement>(null);
-  const [file, setFile] = useState<File | null>(null);
-  const [caption, setCaption] = useState('');
   const [sent, setSent] = useState(0);
-  const [missing, setMissing] = useState(false);
+  const form = useZodForm(uploadAttachmentSchema, { file: null, caption: '' });
   const upload = useUploadAttachment({
     onSuccess: (a) => {
       notify('success', `${a.originalName} attached.`);
       onClose();
     },
   });
-  const submit = (event: FormEvent<HTMLFormElement>) => {
-    event.preventDefault();
-    if (!file) {
-      setMissing(true);
-      return;
-    }
-    setSent(0);
-    upload.mutate({ owner, ownerId, file, caption, onUploadProgress: (p) => setSent(p.total ? p.loaded / p.total : 0) });
-  };
-  const errors = upload.error ? (upload.error instanceof ApiError ? upload.error.messages : ['The file could not be attached.']) : [];
   return (
-    <Dialog open onClose={upload.isPending ? undefined : onClose} aria-labelledby={titleId}>
-      <form noValidate onSubmit={submit}>
-        <DialogTitle id={titleId}>Attach a photo or document</DialogTitle>
-        <DialogContent>
-          <FormErrors messages={errors} />
-          <Typography variant="body2" color="text.secondary" sx={{ mb: 2 }}>
-            Photos (JPEG, PNG, GIF, WebP), PDF or plain text, up to {DEFAULT_ATTACHMENT_MAX_MB} MB unless the lab has set another limit. The
-            kind of file is checked from its contents.
-          </Typography>
-          <Box sx={{ display: 'flex', alignItems: 'center', gap: 1.5, mb: 2 }}>
+    <FormDialog
+      open
+      title="Attach a photo or document"
+      intro={`Photos (JPEG, PNG, GIF, WebP), PDF or plain text, up to ${DEFAULT_ATTACHMENT_MAX_MB} MB unless the lab has set another limit. The kind of file is checked from its contents.`}
+      form={form}
+      onSubmit={({ file, caption }) => {
+        setSent(0);
+        upload.mutate({ owner, ownerId, file: file as File, caption, onUploadProgress: (p) => setSent(p.total ? p.loaded / p.total : 0) });
+      }}
+      onClose={onClose}
+      pending={upload.isPending}
+      error={upload.error}
+      errorFallback="The file could not be attached."
+      submitLabel="Attach"
+      pendingLabel="Attaching…"
+    >
+      <Controller
+        control={form.control}
+        name="file"
+        render={({ field, fieldState }) => (
+          <Box sx={{ display: 'flex', alignItems: 'center', gap: 1.5 }}>
             <input
               ref={input}
               type="file"
@@ -136,37 +134,28 @@ function UploadDialog({ owner, ownerId, onClose }: { owner: AttachmentOwner; own
               aria-label="File to attach"
               style={{ display: 'none' }}
               onChange={(e) => {
-                setFile(e.target.files?.[0] ?? null);
-                setMissing(false);
+                field.onChange(e.target.files?.[0] ?? null);
                 upload.reset();
               }}
             />
             <Button variant="outlined" onClick={() => input.current?.click()} disabled={upload.isPending}>
               Choose a file
             </Button>
-            <Typography variant="body2" color={missing ? 'error' : 'text.primary'}>
-              {file ? `${file.name} · ${formatBytes(file.size)}` : missing ? 'Choose the file to attach' : 'No file chosen'}
+            <Typography variant="body2" color={fieldState.error ? 'error' : 'text.primary'}>
+              {field.value ? `${field.value.name} · ${formatBytes(field.value.size)}` : (fieldState.error?.message ?? 'No file chosen')}
             </Typography>
           </Box>
-          <TextField
-            label="Caption (optional)"
-            value={caption}
-            onChange={(e) => setCaption(e.target.value)}
-            placeholder="e.g. As received: cracked dial glass"
-            disabled={upload.isPending}
-          />
-          {upload.isPending && <LinearProgress variant="determinate" value={sent * 100} sx={{ mt: 2 }} aria-label="Upload progress" />}
-        </DialogContent>
-        <DialogActions>
-          <Button onClick={onClose} disabled={upload.isPending}>
-            Cancel
-          </Button>
-          <Button type="submit" variant="contained" disabled={upload.isPending}>
-            {upload.isPending ? 'Attaching…' : 'Attach'}
-          </Button>
-        </DialogActions>
-      </form>
-    </Dialog>
+        )}
+      />
+      <FormTextField
+        control={form.control}
+        name="caption"
+        label="Caption (optional)"
+        placeholder="e.g. As received: cracked dial glass"
+        disabled={upload.isPending}
+      />
+      {upload.isPending && <LinearProgress variant="determinate" value={sent * 100} aria-label="Upload progress" />}
+    </FormDialog>
   );
 }
 
