@@ -5,6 +5,9 @@ import type { DataSource, EntityManager } from 'typeorm';
 /** A reading with its exclusion reason (null when included). */
 export type ResultsReading = { id: number; runId: number; seq: number; dial: number | null; frequency: number; excludedReason: string | null };
 
+/** An excluded reading with its reason, who excluded it and when. */
+export type ExcludedReadingRow = { readingId: number; runId: number; seq: number; dial: number | null; frequency: number; reason: string; excludedBy: number; excludedAt: Date };
+
 /** Readings as job results read them (inside the signing transaction when a manager is given). */
 @Injectable()
 export class ReadingResultsReader {
@@ -45,5 +48,26 @@ export class ReadingResultsReader {
       [runIds],
     );
     return rows.map((row) => ({ runId: Number(row.run_id), count: Number(row.n), reasons: String(row.reasons) }));
+  }
+
+  /** The excluded readings of these runs, by run and sequence, with who excluded them and when. */
+  async exclusions(runIds: readonly number[], manager?: EntityManager): Promise<ExcludedReadingRow[]> {
+    if (runIds.length === 0) return [];
+    const rows: Array<Record<string, unknown>> = await (manager ?? this.dataSource.manager).query(
+      `SELECT e.reading_id, e.run_id, x.seq, x.dial, x.frequency_hz, e.reason, e.excluded_by, e.excluded_at
+         FROM reading_exclusions e JOIN readings x ON x.id = e.reading_id
+        WHERE e.run_id IN (?) ORDER BY e.run_id, x.seq`,
+      [runIds],
+    );
+    return rows.map((e) => ({
+      readingId: Number(e.reading_id),
+      runId: Number(e.run_id),
+      seq: Number(e.seq),
+      dial: e.dial === null ? null : Number(e.dial),
+      frequency: Number(e.frequency_hz),
+      reason: String(e.reason),
+      excludedBy: Number(e.excluded_by),
+      excludedAt: new Date(e.excluded_at as string),
+    }));
   }
 }

@@ -2,7 +2,7 @@ import { BadRequestException, ConflictException, ForbiddenException, Inject, Inj
 import { InjectDataSource } from '@nestjs/typeorm';
 import bcrypt from 'bcryptjs';
 import type { DataSource, EntityManager } from 'typeorm';
-import { SIGNING_MEANING, type RunKind, type CertificateDetail, type JobReview as JobReviewView, type ReviewEvent, type ReviewFlag } from '@kilocycle/common/types';
+import { SIGNING_MEANING, type SignedRecord, type CertificateDetail, type JobReview as JobReviewView, type ReviewEvent, type ReviewFlag } from '@kilocycle/common/types';
 import { selfSignRefusal } from '@kilocycle/common/rules';
 import { AuditService } from '../audit/audit.service.js';
 import type { AuthUser } from '../shared/auth-user.js';
@@ -11,13 +11,17 @@ import { findScopedJob } from '../budgets/job-access.js';
 import { JobResultsService } from '../budgets/job-results.service.js';
 import { ReadingResultsReader } from '../readings/reading-results.reader.js';
 import { RunResultsReader } from '../runs/run-results.reader.js';
+import { RangeResultsReader } from '../instruments/range-results.reader.js';
+import { StandardResultsReader } from '../standards/standard-results.reader.js';
+import { ActorDirectory } from '../shared/actor-directory.js';
+import { RunReadingStatsSource } from '../shared/run-reading-stats.js';
 import { CertificateRecipientsReader } from '../users/certificate-recipients.reader.js';
 import { Certificate } from '../certificates/certificate.entity.js';
 import { readSettings } from '../certificates/certificate-settings.js';
 import { CertificatesService } from '../certificates/certificates.service.js';
 import { loadSignedRecord } from '../certificates/signed-record.js';
 import { instrumentLabel, issueCertificate, withCertificateFile, type IssueReaders } from '../certificates/issue-certificate.js';
-import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { APP_CONFIG, type AppConfig } from '../config/config.module.js';
 import { Instrument } from '../instruments/instrument.entity.js';
 import { Job } from '../jobs/job.entity.js';
 import { certificateIssuedMail, jobReturnedMail } from '../mail/mail-templates.js';
@@ -42,9 +46,13 @@ export class ReviewsService {
     /** Wrong passwords at signing, per lead (numbers in sign-in-throttle.ts). */
     private readonly signThrottle: SignInThrottle,
     private readonly jobResults: JobResultsService,
-    runResults: RunResultsReader,
-    readingResults: ReadingResultsReader,
+    private readonly runResults: RunResultsReader,
+    private readonly readingResults: ReadingResultsReader,
     recipients: CertificateRecipientsReader,
+    private readonly rangeResults: RangeResultsReader,
+    private readonly standardResults: StandardResultsReader,
+    private readonly readingStats: RunReadingStatsSource,
+    private readonly actors: ActorDirectory,
   ) {
     this.issueReaders = { runs: runResults, readings: readingResults, recipients };
   }
@@ -65,11 +73,9 @@ export class ReviewsService {
         throw new ConflictException(`job ${job.number} is ${job.status}: only a job in progress or returned can be submitted for review`);
       }
       // Results are stated against a standard: a calibration run without one cannot go to review.
-      const runs = (await manager.query(
-        "SELECT r.id, r.kind, r.standard_id, g.label FROM runs r JOIN instrument_ranges g ON g.id = r.range_id WHERE r.job_id = ? AND r.kind IN ('as_found', 'as_left') ORDER BY r.id",
-        [job.id],
-      )) as Array<{ id: number; kind: RunKind; standard_id: number | null; label: string }>;
-      const missing = missingStandards(runs.map((r) => ({ id: Number(r.id), kind: r.kind, rangeLabel: r.label, standardId: r.standard_id === null ? null : Number(r.standard_id) })));
+      const runs = (await this.runResults.jobRuns(job.id, manager)).filter((r) => r.kind === 'as_found' || r.kind === 'as_left').sort((a, b) => a.id - b.id);
+      const rangeLabels = new Map((await this.rangeResults.ranges(job.instrumentId, manager)).map((g) => [g.id, g.label]));
+      const missing = missingStandards(runs.map((r) => ({ id: r.id, kind: r.kind, rangeLabel: rangeLabels.get(r.rangeId) ?? '', standardId: r.standardId })));
       if (missing) {
         throw new ConflictException(`job ${job.number} cannot go to review: ${missing}. Set the standard with "Correct run details" on the run's page.`);
       }
@@ -98,8 +104,8 @@ export class ReviewsService {
     let technician = job.technicianId ? await manager.findOneBy(User, { id: job.technicianId, active: true }) : null;
     if (!technician) {
       // No technician assigned: whoever captured the job's latest run.
-      const [row] = await manager.query('SELECT created_by FROM runs WHERE job_id = ? ORDER BY started_at DESC, id DESC LIMIT 1', [job.id]);
-      technician = row ? await manager.findOneBy(User, { id: Number(row.created_by), active: true }) : null;
+      const latest = (await this.runResults.jobRuns(job.id)).at(-1);
+      technician = latest ? await manager.findOneBy(User, { id: latest.createdBy, active: true }) : null;
     }
     if (!technician) {
       this.logger.warn(`job ${job.number} returned, but it has no technician to tell`);
@@ -191,31 +197,7 @@ export class ReviewsService {
       signed ? Promise.resolve(signed.results) : this.jobResults.compute(job.id, manager),
       readSettings(manager),
     ]);
-    const signedStandards = new Map((frozen?.standards ?? []).map((s) => [s.id, s]));
-    const used = new Set(results.ranges.flatMap((r) => [r.asFoundRunId, r.asLeftRunId]).filter((id): id is number => id !== null));
-    const runRows: Array<Record<string, unknown>> = await manager.query(
-      `SELECT r.id, r.kind, r.range_id, g.label AS range_label, r.status, r.standard_id, s.name AS standard_name,
-              DATE_FORMAT(s.due_date, '%Y-%m-%d') AS standard_due, r.standard_override_reason, r.created_by, u.name AS created_by_name,
-              r.started_at, r.ended_at,
-              (SELECT COUNT(*) FROM readings x WHERE x.run_id = r.id) AS reading_count,
-              (SELECT COUNT(*) FROM reading_exclusions e WHERE e.run_id = r.id) AS excluded_count
-         FROM runs r JOIN instrument_ranges g ON g.id = r.range_id LEFT JOIN standards s ON s.id = r.standard_id
-         JOIN users u ON u.id = r.created_by
-        WHERE r.job_id = ? ORDER BY r.started_at, r.id`,
-      [job.id],
-    );
-    const excludedRows: Array<Record<string, unknown>> = await manager.query(
-      `SELECT e.reading_id, e.run_id, x.seq, x.dial, x.frequency_hz, e.reason, e.excluded_by, u.name AS excluded_by_name, e.excluded_at
-         FROM reading_exclusions e JOIN readings x ON x.id = e.reading_id JOIN runs r ON r.id = e.run_id
-         LEFT JOIN users u ON u.id = e.excluded_by
-        WHERE r.job_id = ? ORDER BY e.run_id, x.seq`,
-      [job.id],
-    );
-    const historyRows: Array<Record<string, unknown>> = await manager.query(
-      `SELECT v.id, v.action, v.actor_id, u.name AS actor_name, v.comment, v.at
-         FROM job_reviews v LEFT JOIN users u ON u.id = v.actor_id WHERE v.job_id = ? ORDER BY v.id`,
-      [job.id],
-    );
+    const { runs, excludedReadings } = await this.reviewRuns(job, results, frozen);
     const draft = await manager.findOne(Certificate, { where: { jobId: job.id, status: 'draft' } });
     const flags: ReviewFlag[] = [...results.flags];
     const selfCaptured = user.role === 'lead' ? await this.selfCaptured(manager, job.id, user.id) : null;
@@ -230,7 +212,6 @@ export class ReviewsService {
     if (user.role !== 'lead') signBlockers.push('only a lead may sign');
     if (job.status !== 'in_review' && job.status !== 'approved') signBlockers.push(`the job is ${job.status}, not in review`);
     for (const f of flags) if (f.severity === 'blocker') signBlockers.push(f.message);
-    const iso = (v: unknown) => (v === null || v === undefined ? null : new Date(v as string).toISOString());
     return {
       job: {
         id: job.id,
@@ -248,51 +229,82 @@ export class ReviewsService {
         humidityPct: frozen ? frozen.job.humidityPct : job.humidityPct,
       },
       results,
-      runs: runRows.map((r) => ({
-        id: Number(r.id),
-        kind: r.kind as JobReviewView['runs'][number]['kind'],
-        rangeId: Number(r.range_id),
-        rangeLabel: frozen?.instrument.ranges.find((g) => g.id === Number(r.range_id))?.label ?? String(r.range_label),
-        status: String(r.status),
-        standardId: r.standard_id === null ? null : Number(r.standard_id),
-        standardName: signedStandards.get(Number(r.standard_id))?.name ?? (r.standard_name as string | null) ?? null,
-        standardDueDate: signedStandards.get(Number(r.standard_id))?.dueDate ?? (r.standard_due as string | null) ?? null,
-        standardOverrideReason: (r.standard_override_reason as string | null) ?? null,
-        createdById: Number(r.created_by),
-        createdByName: String(r.created_by_name),
-        startedAt: iso(r.started_at)!,
-        endedAt: iso(r.ended_at),
-        readingCount: Number(r.reading_count),
-        excludedCount: Number(r.excluded_count),
-        used: used.has(Number(r.id)),
-      })),
-      excludedReadings: excludedRows.map((e) => ({
-        readingId: Number(e.reading_id),
-        runId: Number(e.run_id),
-        seq: Number(e.seq),
-        dial: e.dial === null ? null : Number(e.dial),
-        frequency: Number(e.frequency_hz),
-        reason: String(e.reason),
-        excludedById: Number(e.excluded_by),
-        excludedByName: (e.excluded_by_name as string | null) ?? null,
-        excludedAt: iso(e.excluded_at)!,
-      })),
+      runs,
+      excludedReadings,
       flags,
-      history: historyRows.map(
-        (h): ReviewEvent => ({
-          id: Number(h.id),
-          action: h.action as ReviewEvent['action'],
-          actorId: h.actor_id === null ? null : Number(h.actor_id),
-          actorName: (h.actor_name as string | null) ?? null,
-          comment: (h.comment as string | null) ?? null,
-          at: iso(h.at)!,
-        }),
-      ),
+      history: await this.history(job.id),
       amendment: draft
         ? { certificateNumber: draft.number, revision: draft.revision, replacesRevision: draft.replacesRevision ?? draft.revision - 1, reason: draft.amendmentReason ?? '' }
         : null,
       canSign: signBlockers.length === 0,
       signBlockers,
     };
+  }
+
+  /**
+   * The job's runs (range, standard, who captured them, reading counts, whether the results use them) and their
+   * excluded readings, read from their owners; a signed job names its ranges and standards as they were signed.
+   */
+  private async reviewRuns(job: Job, results: JobReviewView['results'], frozen: SignedRecord | null): Promise<Pick<JobReviewView, 'runs' | 'excludedReadings'>> {
+    const runs = await this.runResults.jobRuns(job.id);
+    const runIds = runs.map((r) => r.id);
+    const [ranges, standards, stats, exclusions] = await Promise.all([
+      this.rangeResults.ranges(job.instrumentId),
+      this.standardResults.references(runs.flatMap((r) => (r.standardId === null ? [] : [r.standardId]))),
+      this.readingStats.statsFor(runIds),
+      this.readingResults.exclusions(runIds),
+    ]);
+    const names = await this.actors.namesOf([...runs.map((r) => r.createdBy), ...exclusions.map((e) => e.excludedBy)]);
+    const rangeLabels = new Map(ranges.map((g) => [g.id, g.label]));
+    const signedStandards = new Map((frozen?.standards ?? []).map((s) => [s.id, s]));
+    const used = new Set(results.ranges.flatMap((r) => [r.asFoundRunId, r.asLeftRunId]).filter((id): id is number => id !== null));
+    return {
+      runs: runs.map((r) => {
+        const standard = r.standardId === null ? undefined : standards.get(r.standardId)?.reference;
+        return {
+          id: r.id,
+          kind: r.kind,
+          rangeId: r.rangeId,
+          rangeLabel: frozen?.instrument.ranges.find((g) => g.id === r.rangeId)?.label ?? rangeLabels.get(r.rangeId) ?? '',
+          status: r.status,
+          standardId: r.standardId,
+          standardName: signedStandards.get(Number(r.standardId))?.name ?? standard?.name ?? null,
+          standardDueDate: signedStandards.get(Number(r.standardId))?.dueDate ?? standard?.dueDate ?? null,
+          standardOverrideReason: r.standardOverrideReason,
+          createdById: r.createdBy,
+          createdByName: names.get(r.createdBy) ?? '',
+          startedAt: r.startedAt.toISOString(),
+          endedAt: r.endedAt ? r.endedAt.toISOString() : null,
+          readingCount: stats.get(r.id)?.readingCount ?? 0,
+          excludedCount: stats.get(r.id)?.excludedCount ?? 0,
+          used: used.has(r.id),
+        };
+      }),
+      excludedReadings: exclusions.map((e) => ({
+        readingId: e.readingId,
+        runId: e.runId,
+        seq: e.seq,
+        dial: e.dial,
+        frequency: e.frequency,
+        reason: e.reason,
+        excludedById: e.excludedBy,
+        excludedByName: names.get(e.excludedBy) ?? null,
+        excludedAt: e.excludedAt.toISOString(),
+      })),
+    };
+  }
+
+  /** The job's review events, oldest first, with the actors' names. */
+  private async history(jobId: number): Promise<ReviewEvent[]> {
+    const rows: Array<Record<string, unknown>> = await this.dataSource.manager.query('SELECT id, action, actor_id, comment, at FROM job_reviews WHERE job_id = ? ORDER BY id', [jobId]);
+    const names = await this.actors.namesOf(rows.flatMap((h) => (h.actor_id === null ? [] : [Number(h.actor_id)])));
+    return rows.map((h) => ({
+      id: Number(h.id),
+      action: h.action as ReviewEvent['action'],
+      actorId: h.actor_id === null ? null : Number(h.actor_id),
+      actorName: h.actor_id === null ? null : (names.get(Number(h.actor_id)) ?? null),
+      comment: (h.comment as string | null) ?? null,
+      at: new Date(h.at as string).toISOString(),
+    }));
   }
 }

@@ -13,6 +13,19 @@ export type CalibrationRunHead = {
   standardOverrideReason: string | null;
 };
 
+/** A run as a job's review lists it. */
+export type ReviewRunRow = {
+  id: number;
+  kind: RunKind;
+  rangeId: number;
+  status: string;
+  standardId: number | null;
+  standardOverrideReason: string | null;
+  createdBy: number;
+  startedAt: Date;
+  endedAt: Date | null;
+};
+
 /** Runs as job results, reviews and certificates read them (inside the caller's transaction when a manager is given). */
 @Injectable()
 export class RunResultsReader {
@@ -44,5 +57,25 @@ export class RunResultsReader {
       [runIds],
     );
     return rows.map((row) => ({ started: String(row.started), ended: String(row.ended), supplyVoltage: row.supply_voltage === null ? null : Number(row.supply_voltage) }));
+  }
+
+  /** Every run of the job, oldest first, as the job's review lists them. */
+  async jobRuns(jobId: number, manager?: EntityManager): Promise<ReviewRunRow[]> {
+    const rows: Array<Record<string, unknown>> = await (manager ?? this.dataSource.manager).query(
+      `SELECT id, kind, range_id, status, standard_id, standard_override_reason, created_by, started_at, ended_at
+         FROM runs WHERE job_id = ? ORDER BY started_at, id`,
+      [jobId],
+    );
+    return rows.map((row) => ({
+      id: Number(row.id),
+      kind: row.kind as RunKind,
+      rangeId: Number(row.range_id),
+      status: String(row.status),
+      standardId: row.standard_id === null ? null : Number(row.standard_id),
+      standardOverrideReason: (row.standard_override_reason as string | null) ?? null,
+      createdBy: Number(row.created_by),
+      startedAt: new Date(row.started_at as string),
+      endedAt: row.ended_at === null ? null : new Date(row.ended_at as string),
+    }));
   }
 }
