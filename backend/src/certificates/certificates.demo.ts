@@ -1,3 +1,4 @@
+import type { EntityManager } from 'typeorm';
 import type { DialLaw, Tolerance } from '@kilocycle/common/types';
 import { Procedure } from '../budgets/procedure.entity.js';
 import { recordProcedureVersion } from '../budgets/procedure-versions.js';
@@ -36,6 +37,18 @@ export async function seedDemoCertificates({ manager, customerIds, userIds }: De
   const lead = userIds['lead@kilocycle.test']!;
 
   await writeSettings(manager, { labAddress: 'Unit 4, Quarry Lane Workshops, Millbrook MB3 7QL', calibrationPlace: "At the laboratory's permanent premises (bench 1)" }, null);
+  const guarded = await seedGuardedProcedure(manager);
+  const counter = await manager.findOne(Standard, { where: { active: true }, order: { dueDate: 'DESC' } });
+  if (!counter) throw new Error('the certificate demo needs a reference standard from the lab-records demo');
+  const { instrumentId, ranges } = await seedVfo(manager, customerIds.northgate, today);
+  const jobId = await seedVfoJob(manager, { instrumentId, organizationId: customerIds.northgate, technicianId: tech, procedureId: guarded, today });
+  await seedVfoRuns(manager, { jobId, ranges, standardId: counter.id, technicianId: tech, at });
+  await manager.insert(JobReview, { jobId, action: 'submit', actorId: tech, comment: 'All three ranges aligned; as-found range 3 was well out.', at: at(-7, 16) });
+  await issueCertificate(manager, { config, results: JobResultsService.over(manager.connection), readers: issueReadersOver(manager.connection) }, { jobId, signerId: lead, now: at(-6, 11, 20) });
+}
+
+/** A guarded-acceptance procedure with one extra component, and its first version. */
+async function seedGuardedProcedure(manager: EntityManager): Promise<number> {
   const guarded = (
     await manager.insert(Procedure, {
       name: 'Dial calibration, guarded acceptance',
@@ -52,11 +65,14 @@ export async function seedDemoCertificates({ manager, customerIds, userIds }: De
   ).identifiers[0].id as number;
   await recordProcedureVersion(manager, guarded, null);
 
-  const counter = await manager.findOne(Standard, { where: { active: true }, order: { dueDate: 'DESC' } });
-  if (!counter) throw new Error('the certificate demo needs a reference standard from the lab-records demo');
+  return guarded;
+}
+
+/** Northgate's three-range valve VFO with a kHz-marked dial. */
+async function seedVfo(manager: EntityManager, organizationId: number, today: Date): Promise<{ instrumentId: number; ranges: InstrumentRange[] }> {
   const instrumentId = (
     await manager.insert(Instrument, {
-      organizationId: customerIds.northgate,
+      organizationId,
       make: 'Harwick Radio',
       model: 'VFO-3 variable frequency oscillator',
       serial: 'N-0952',
@@ -83,13 +99,19 @@ export async function seedDemoCertificates({ manager, customerIds, userIds }: De
     })),
   );
   const ranges = await manager.find(InstrumentRange, { where: { instrumentId }, order: { position: 'ASC' } });
+  return { instrumentId, ranges };
+}
+
+/** The VFO's job, in review, numbered after the year's existing jobs, with the guarded procedure chosen. */
+async function seedVfoJob(manager: EntityManager, input: { instrumentId: number; organizationId: number; technicianId: number; procedureId: number; today: Date }): Promise<number> {
+  const { instrumentId, organizationId, technicianId: tech, procedureId: guarded, today } = input;
   const year = addDays(today, -12).slice(0, 4);
   const [{ n }] = await manager.query('SELECT COUNT(*) AS n FROM jobs WHERE number LIKE ?', [`J${year}-%`]);
   const jobId = (
     await manager.insert(Job, {
       number: `J${year}-${String(Number(n) + 1).padStart(4, '0')}`,
       instrumentId,
-      organizationId: customerIds.northgate,
+      organizationId,
       status: 'in_review',
       receivedDate: addDays(today, -12),
       conditionReceived: 'Working; tuning slightly stiff on range 3; dial glass cracked at the left edge (does not obscure the scale).',
@@ -101,6 +123,12 @@ export async function seedDemoCertificates({ manager, customerIds, userIds }: De
   ).identifiers[0].id as number;
   await manager.insert(JobProcedure, { jobId, procedureId: guarded });
 
+  return jobId;
+}
+
+/** An as-found and an as-left run on every range, three readings a setting from a drifting and a re-aligned LC model. */
+async function seedVfoRuns(manager: EntityManager, input: { jobId: number; ranges: InstrumentRange[]; standardId: number; technicianId: number; at: (offset: number, hour: number, minute?: number) => Date }): Promise<void> {
+  const { jobId, ranges, standardId, technicianId: tech, at } = input;
   let seed = 600;
   for (const range of ranges) {
     const spec = VFO_RANGES[range.position - 1]!;
@@ -119,7 +147,7 @@ export async function seedDemoCertificates({ manager, customerIds, userIds }: De
           kind,
           status: 'closed',
           benchId: null,
-          standardId: counter.id,
+          standardId,
           standardOverrideReason: null,
           supplyVoltage: 230,
           configuration: kind === 'as_found' ? 'In its case, 30 min warm-up, into 50 Ω, counter on 1 s gate' : 'After coil and trimmer alignment; in its case, 30 min warm-up',
@@ -140,6 +168,4 @@ export async function seedDemoCertificates({ manager, customerIds, userIds }: De
       await manager.query('INSERT INTO readings (run_id, seq, t_s, dial, frequency_hz, aux, source, received_at) VALUES ?', [rows]);
     }
   }
-  await manager.insert(JobReview, { jobId, action: 'submit', actorId: tech, comment: 'All three ranges aligned; as-found range 3 was well out.', at: at(-7, 16) });
-  await issueCertificate(manager, { config, results: JobResultsService.over(manager.connection), readers: issueReadersOver(manager.connection) }, { jobId, signerId: lead, now: at(-6, 11, 20) });
 }
