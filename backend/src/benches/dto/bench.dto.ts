@@ -1,3 +1,4 @@
+import { FIELD_LIMITS } from '@kilocycle/common/rules';
 import { Transform } from 'class-transformer';
 import { IsBoolean, IsInt, IsOptional, IsString, MaxLength, Min, MinLength, ValidateIf } from 'class-validator';
 import type { CreateBenchRequest, UpdateBenchRequest } from '@kilocycle/common/types';
@@ -12,7 +13,7 @@ export class CreateBenchDto implements CreateBenchRequest {
   @IsString()
   @Transform(trim)
   @MinLength(1, { message: 'name must not be empty' })
-  @MaxLength(120)
+  @MaxLength(FIELD_LIMITS.bench.name.max)
   @SingleLine()
   name: string;
 
@@ -20,7 +21,7 @@ export class CreateBenchDto implements CreateBenchRequest {
   @ValidateIf((_o, v) => v !== null)
   @IsString()
   @Transform(trim)
-  @MaxLength(200)
+  @MaxLength(FIELD_LIMITS.bench.location.max)
   @SingleLine()
   location?: string | null;
 

@@ -1,3 +1,4 @@
+import { FIELD_LIMITS } from '@kilocycle/common/rules';
 import { Transform, Type } from 'class-transformer';
 import { IsBoolean, IsInt, IsOptional, IsString, Matches, Max, MaxLength, Min, MinLength } from 'class-validator';
 import type {
@@ -28,8 +29,8 @@ export class ListCertificatesQueryDto extends ListQueryDto implements ListCertif
 export class AmendCertificateDto implements AmendCertificateRequest {
   @IsString()
   @trim()
-  @MinLength(3, { message: 'reason: say why the certificate is amended' })
-  @MaxLength(2000)
+  @MinLength(FIELD_LIMITS.certificate.reason.min, { message: 'reason: say why the certificate is amended' })
+  @MaxLength(FIELD_LIMITS.certificate.reason.max)
   reason: string;
 
   @OptionalNotNull()
@@ -40,8 +41,8 @@ export class AmendCertificateDto implements AmendCertificateRequest {
 export class WithdrawCertificateDto implements WithdrawCertificateRequest {
   @IsString()
   @trim()
-  @MinLength(3, { message: 'reason: say why the certificate is withdrawn' })
-  @MaxLength(2000)
+  @MinLength(FIELD_LIMITS.certificate.reason.min, { message: 'reason: say why the certificate is withdrawn' })
+  @MaxLength(FIELD_LIMITS.certificate.reason.max)
   reason: string;
 }
 

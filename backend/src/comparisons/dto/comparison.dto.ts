@@ -1,3 +1,4 @@
+import { FIELD_LIMITS } from '@kilocycle/common/rules';
 import { OmitType, PartialType } from '@nestjs/mapped-types';
 import { Type } from 'class-transformer';
 import { ArrayMaxSize, ArrayMinSize, ArrayUnique, IsArray, IsInt, IsNotEmpty, IsNumber, IsOptional, IsString, Max, MaxLength, Min, ValidateIf } from 'class-validator';
@@ -24,7 +25,7 @@ export class ComputeComparisonDto implements ComputeComparisonRequest {
   runIds: number[];
 
   /** One per run, in the same order ("before: original regulator"); empty ones become "run <id>". */
-  @OptionalNotNull() @IsArray() @IsString({ each: true }) @MaxLength(120, { each: true }) @SingleLine({ each: true })
+  @OptionalNotNull() @IsArray() @IsString({ each: true }) @MaxLength(FIELD_LIMITS.comparison.label.max, { each: true }) @SingleLine({ each: true })
   labels?: string[];
 
   @OptionalNotNull() @IsNumber(finite, { message: 'withinHz must be a number of hertz' }) @Min(0.000001) @Max(1e9)
@@ -35,10 +36,10 @@ export class ComputeComparisonDto implements ComputeComparisonRequest {
 }
 
 export class CreateComparisonDto extends ComputeComparisonDto implements CreateComparisonRequest {
-  @IsString() @Trim() @IsNotEmpty({ message: 'title must not be empty' }) @MaxLength(200) @SingleLine()
+  @IsString() @Trim() @IsNotEmpty({ message: 'title must not be empty' }) @MaxLength(FIELD_LIMITS.comparison.title.max) @SingleLine()
   title: string;
 
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(FIELD_LIMITS.notes.max)
   notes?: string | null;
 }
 

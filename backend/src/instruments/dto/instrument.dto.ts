@@ -1,3 +1,4 @@
+import { FIELD_LIMITS } from '@kilocycle/common/rules';
 import { OmitType } from '@nestjs/mapped-types';
 import { Type } from 'class-transformer';
 import {
@@ -48,7 +49,7 @@ export class RangeInputDto implements RangeInput {
   @OptionalNotNull() @IsInt({ message: 'position must be a whole number' })
   position?: number;
 
-  @IsString() @Trim() @MinLength(1, { message: 'label must not be empty' }) @MaxLength(60) @SingleLine()
+  @IsString() @Trim() @MinLength(1, { message: 'label must not be empty' }) @MaxLength(FIELD_LIMITS.range.label.max) @SingleLine()
   label: string;
 
   @IsIn(DIAL_UNITS, { message: `dialUnit must be one of: ${DIAL_UNITS.join(', ')}` })
@@ -85,22 +86,22 @@ export class CreateInstrumentDto implements CreateInstrumentRequest {
   @IsInt({ message: 'organizationId must be a whole number' }) @Min(1)
   organizationId: number;
 
-  @IsString() @Trim() @MinLength(1, { message: 'make must not be empty' }) @MaxLength(120) @SingleLine()
+  @IsString() @Trim() @MinLength(1, { message: 'make must not be empty' }) @MaxLength(FIELD_LIMITS.instrument.text.max) @SingleLine()
   make: string;
 
-  @IsString() @Trim() @MinLength(1, { message: 'model must not be empty' }) @MaxLength(120) @SingleLine()
+  @IsString() @Trim() @MinLength(1, { message: 'model must not be empty' }) @MaxLength(FIELD_LIMITS.instrument.text.max) @SingleLine()
   model: string;
 
-  @IsString() @Trim() @MinLength(1, { message: 'serial must not be empty' }) @MaxLength(120) @SingleLine()
+  @IsString() @Trim() @MinLength(1, { message: 'serial must not be empty' }) @MaxLength(FIELD_LIMITS.instrument.text.max) @SingleLine()
   serial: string;
 
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @Trim() @MaxLength(120) @SingleLine()
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @Trim() @MaxLength(FIELD_LIMITS.instrument.text.max) @SingleLine()
   assetTag?: string | null;
 
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(FIELD_LIMITS.notes.max)
   description?: string | null;
 
-  @OptionalNotNull() @IsInt({ message: 'recallIntervalMonths must be a whole number' }) @Min(1) @Max(120)
+  @OptionalNotNull() @IsInt({ message: 'recallIntervalMonths must be a whole number' }) @Min(FIELD_LIMITS.instrument.recallIntervalMonths.min) @Max(FIELD_LIMITS.instrument.recallIntervalMonths.max)
   recallIntervalMonths?: number;
 
   @IsOptional() @ValidateIf((_o, v) => v !== null) @IsDateOnly('nextDueDate')

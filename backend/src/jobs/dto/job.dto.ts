@@ -1,3 +1,4 @@
+import { FIELD_LIMITS } from '@kilocycle/common/rules';
 import { OmitType } from '@nestjs/mapped-types';
 import { Type } from 'class-transformer';
 import { IsIn, IsInt, IsNumber, IsOptional, IsString, Matches, Max, MaxLength, Min, MinLength, ValidateIf } from 'class-validator';
@@ -17,19 +18,19 @@ export class CreateJobDto implements CreateJobRequest {
   @IsDateOnly('receivedDate')
   receivedDate: string;
 
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(FIELD_LIMITS.notes.max)
   conditionReceived?: string | null;
 
   @IsOptional() @ValidateIf((_o, v) => v !== null) @IsInt({ message: 'technicianId must be a whole number' }) @Min(1)
   technicianId?: number | null;
 
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsNumber(finite, { message: 'ambientTempC must be a number' }) @Min(-40) @Max(80)
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsNumber(finite, { message: 'ambientTempC must be a number' }) @Min(FIELD_LIMITS.job.ambientTempC.min) @Max(FIELD_LIMITS.job.ambientTempC.max)
   ambientTempC?: number | null;
 
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsNumber(finite, { message: 'humidityPct must be a number' }) @Min(0) @Max(100)
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsNumber(finite, { message: 'humidityPct must be a number' }) @Min(FIELD_LIMITS.job.humidityPct.min) @Max(FIELD_LIMITS.job.humidityPct.max)
   humidityPct?: number | null;
 
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(FIELD_LIMITS.notes.max)
   notes?: string | null;
 }
 
@@ -38,7 +39,7 @@ export class UpdateJobDto extends PartialUpdateType(OmitType(CreateJobDto, ['ins
   status?: JobStatus;
 
   /** Why the status changes; required when a lead returns a job for rework. */
-  @OptionalNotNull() @IsString() @Trim() @MinLength(3, { message: 'comment must be at least 3 characters' }) @MaxLength(2000)
+  @OptionalNotNull() @IsString() @Trim() @MinLength(FIELD_LIMITS.job.statusComment.min, { message: `comment must be at least ${FIELD_LIMITS.job.statusComment.min} characters` }) @MaxLength(FIELD_LIMITS.job.statusComment.max)
   comment?: string;
 }
 

@@ -1,3 +1,4 @@
+import { FIELD_LIMITS } from '@kilocycle/common/rules';
 import { OmitType } from '@nestjs/mapped-types';
 import { Transform } from 'class-transformer';
 import { IsBoolean, IsEmail, IsIn, IsOptional, IsString, MaxLength, MinLength, ValidateIf } from 'class-validator';
@@ -16,7 +17,7 @@ export class CreateOrganizationDto implements CreateOrganizationRequest {
   @IsString()
   @Transform(({ value }) => (typeof value === 'string' ? value.trim() : value))
   @MinLength(1, { message: 'name must not be empty' })
-  @MaxLength(200)
+  @MaxLength(FIELD_LIMITS.organization.name.max)
   @SingleLine()
   name: string;
 

@@ -1,3 +1,4 @@
+import { FIELD_LIMITS } from '@kilocycle/common/rules';
 import { ArrayMaxSize, ArrayMinSize, IsArray, IsBoolean, IsInt, IsOptional, IsString, Matches, Max, MaxLength, Min, MinLength } from 'class-validator';
 import { MAX_PAGE, MAX_PAGE_SIZE, type AppendReadingsRequest, type ExcludeReadingRequest, type ListReadingsQuery, type ReadingInput } from '@kilocycle/common/types';
 import { QueryBoolean, Trim } from '../../shared/dto-helpers.js';
@@ -15,8 +16,8 @@ export class AppendReadingsDto implements AppendReadingsRequest {
 export class ExcludeReadingDto implements ExcludeReadingRequest {
   @IsString({ message: 'reason must be text' })
   @Trim()
-  @MinLength(3, { message: 'reason must be at least 3 characters' })
-  @MaxLength(500, { message: 'reason must be at most 500 characters' })
+  @MinLength(FIELD_LIMITS.reading.excludeReason.min, { message: `reason must be at least ${FIELD_LIMITS.reading.excludeReason.min} characters` })
+  @MaxLength(FIELD_LIMITS.reading.excludeReason.max, { message: `reason must be at most ${FIELD_LIMITS.reading.excludeReason.max} characters` })
   reason: string;
 }
 

@@ -1,3 +1,4 @@
+import { FIELD_LIMITS } from '@kilocycle/common/rules';
 import { Transform } from 'class-transformer';
 import { IsString, MaxLength, MinLength } from 'class-validator';
 import type { ReturnJobRequest, SignJobRequest, SubmitJobRequest } from '@kilocycle/common/types';
@@ -7,21 +8,21 @@ import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';
 const trim = () => Transform(({ value }) => (typeof value === 'string' ? value.trim() : value));
 
 export class SubmitJobDto implements SubmitJobRequest {
-  @OptionalNotNull() @IsString() @trim() @MaxLength(2000) comment?: string;
+  @OptionalNotNull() @IsString() @trim() @MaxLength(FIELD_LIMITS.review.submitComment.max) comment?: string;
 }
 
 export class ReturnJobDto implements ReturnJobRequest {
   @IsString()
   @trim()
-  @MinLength(3, { message: 'comment: say what needs rework' })
-  @MaxLength(4000)
+  @MinLength(FIELD_LIMITS.review.returnComment.min, { message: 'comment: say what needs rework' })
+  @MaxLength(FIELD_LIMITS.review.returnComment.max)
   comment: string;
 }
 
 export class SignJobDto implements SignJobRequest {
   @IsString()
   @MinLength(1, { message: 'password: enter your password to sign' })
-  @MaxLength(200)
+  @MaxLength(FIELD_LIMITS.review.password.max)
   password: string;
 
   @IsString()

@@ -1,3 +1,4 @@
+import { FIELD_LIMITS } from '@kilocycle/common/rules';
 import { OmitType } from '@nestjs/mapped-types';
 import { Type } from 'class-transformer';
 import { IsIn, IsInt, IsNumber, IsOptional, IsString, Max, MaxLength, Min, MinLength, ValidateIf } from 'class-validator';
@@ -31,10 +32,10 @@ export class CreateRunDto implements CreateRunRequest {
   @IsOptional() @ValidateIf((_o, v) => v !== null) @IsInt({ message: 'standardId must be a whole number' }) @Min(1)
   standardId?: number | null;
 
-  @OptionalNotNull() @IsString() @Trim() @MinLength(10, { message: 'standardOverrideReason must be at least 10 characters' }) @MaxLength(1000)
+  @OptionalNotNull() @IsString() @Trim() @MinLength(FIELD_LIMITS.run.overrideReason.min, { message: `standardOverrideReason must be at least ${FIELD_LIMITS.run.overrideReason.min} characters` }) @MaxLength(FIELD_LIMITS.run.overrideReason.max)
   standardOverrideReason?: string;
 
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsNumber(finite, { message: 'supplyVoltage must be a number' }) @Min(0) @Max(100000)
+  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsNumber(finite, { message: 'supplyVoltage must be a number' }) @Min(FIELD_LIMITS.run.supplyVoltage.min) @Max(FIELD_LIMITS.run.supplyVoltage.max)
   supplyVoltage?: number | null;
 
   @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
@@ -48,7 +49,7 @@ export class UpdateRunDto extends PartialUpdateType(OmitType(CreateRunDto, ['ran
   @OptionalNotNull() @IsIn(['closed'], { message: 'status can only be set to closed (a closed run stays closed)' })
   status?: 'closed';
 
-  @OptionalNotNull() @IsString({ message: 'reason must be text' }) @Trim() @MinLength(3, { message: 'reason must be at least 3 characters' }) @MaxLength(1000)
+  @OptionalNotNull() @IsString({ message: 'reason must be text' }) @Trim() @MinLength(FIELD_LIMITS.run.correctionReason.min, { message: `reason must be at least ${FIELD_LIMITS.run.correctionReason.min} characters` }) @MaxLength(FIELD_LIMITS.run.correctionReason.max)
   reason?: string;
 }
 

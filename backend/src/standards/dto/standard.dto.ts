@@ -1,3 +1,4 @@
+import { FIELD_LIMITS } from '@kilocycle/common/rules';
 import { IsBoolean, IsIn, IsNumber, IsOptional, IsString, Max, MaxLength, Min, MinLength } from 'class-validator';
 import {
   STANDARD_KINDS,
@@ -18,7 +19,7 @@ export class CreateStandardDto implements CreateStandardRequest {
   @IsString()
   @Trim()
   @MinLength(1, { message: 'name must not be empty' })
-  @MaxLength(120)
+  @MaxLength(FIELD_LIMITS.standard.name.max)
   @SingleLine()
   name: string;
 
@@ -28,21 +29,21 @@ export class CreateStandardDto implements CreateStandardRequest {
   @IsString()
   @Trim()
   @MinLength(1, { message: 'makeModel must not be empty' })
-  @MaxLength(160)
+  @MaxLength(FIELD_LIMITS.standard.makeModel.max)
   @SingleLine()
   makeModel: string;
 
   @IsString()
   @Trim()
   @MinLength(1, { message: 'serial must not be empty' })
-  @MaxLength(120)
+  @MaxLength(FIELD_LIMITS.standard.text.max)
   @SingleLine()
   serial: string;
 
   @IsString()
   @Trim()
   @MinLength(1, { message: 'certificateNumber must not be empty' })
-  @MaxLength(120)
+  @MaxLength(FIELD_LIMITS.standard.text.max)
   @SingleLine()
   certificateNumber: string;
 
@@ -50,23 +51,23 @@ export class CreateStandardDto implements CreateStandardRequest {
   dueDate: string;
 
   @IsNumber({ allowNaN: false, allowInfinity: false }, { message: 'timebaseAccuracyPpm must be a number' })
-  @Min(0)
-  @Max(1000)
+  @Min(FIELD_LIMITS.standard.timebaseAccuracyPpm.min)
+  @Max(FIELD_LIMITS.standard.timebaseAccuracyPpm.max)
   timebaseAccuracyPpm: number;
 
   @IsNumber({ allowNaN: false, allowInfinity: false }, { message: 'resolutionHz must be a number' })
-  @Min(1e-12, { message: 'resolutionHz must be greater than zero' })
-  @Max(1e6)
+  @Min(FIELD_LIMITS.standard.resolutionHz.min, { message: 'resolutionHz must be greater than zero' })
+  @Max(FIELD_LIMITS.standard.resolutionHz.max)
   resolutionHz: number;
 
   @IsNumber({ allowNaN: false, allowInfinity: false }, { message: 'calibrationUPpm must be a number' })
-  @Min(0)
-  @Max(1000)
+  @Min(FIELD_LIMITS.standard.calibrationUPpm.min)
+  @Max(FIELD_LIMITS.standard.calibrationUPpm.max)
   calibrationUPpm: number;
 
   @IsNumber({ allowNaN: false, allowInfinity: false }, { message: 'calibrationK must be a number' })
-  @Min(1)
-  @Max(10)
+  @Min(FIELD_LIMITS.standard.calibrationK.min)
+  @Max(FIELD_LIMITS.standard.calibrationK.max)
   calibrationK: number;
 }
 

@@ -1,3 +1,4 @@
+import { FIELD_LIMITS } from '@kilocycle/common/rules';
 import { OmitType } from '@nestjs/mapped-types';
 import { Transform, Type } from 'class-transformer';
 import { IsBoolean, IsEmail, IsIn, IsInt, IsOptional, IsString, MaxLength, Min, MinLength } from 'class-validator';
@@ -17,14 +18,14 @@ const passwordMessage = `password must be at least ${MIN_PASSWORD_LENGTH} charac
 
 export class CreateUserDto implements CreateUserRequest {
   @IsEmail({}, { message: 'email must be an e-mail address' })
-  @MaxLength(254)
+  @MaxLength(FIELD_LIMITS.user.email.max)
   @Transform(({ value }) => (typeof value === 'string' ? value.trim().toLowerCase() : value))
   @SingleLine()
   email: string;
 
   @IsString()
   @MinLength(1)
-  @MaxLength(200)
+  @MaxLength(FIELD_LIMITS.user.name.max)
   @SingleLine()
   name: string;
 
@@ -37,7 +38,7 @@ export class CreateUserDto implements CreateUserRequest {
 
   @IsString()
   @MinLength(MIN_PASSWORD_LENGTH, { message: passwordMessage })
-  @MaxLength(200)
+  @MaxLength(FIELD_LIMITS.user.password.max)
   password: string;
 }
 
