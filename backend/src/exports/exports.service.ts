@@ -65,6 +65,8 @@ export class ExportsService {
           connection = flow;
         },
       );
+      // The connection is back in the pool: the last lines are written without pausing or resuming it.
+      connection = null;
       flush();
       res.end();
     } catch (error) {

@@ -1,5 +1,4 @@
 import { seedDemoCertificates } from '../certificates/certificates.demo.js';
-import { seedDemoComparisons } from '../comparisons/comparisons.demo.js';
 import { seedDemoStandards } from '../standards/standards.demo.js';
 import type { DemoExtension } from './demo-seed.js';
 import { seedDemoLabRecords } from './lab-records.demo.js';
@@ -9,4 +8,4 @@ import { seedDemoBenches } from './live-run.demo.js';
  * Each module that brings demo records adds its `<module>.demo.ts` function here, in dependency order.
  * They run inside the seed's one transaction, after the organisations and accounts.
  */
-export const DEMO_EXTENSIONS: DemoExtension[] = [seedDemoStandards, seedDemoLabRecords, seedDemoCertificates, seedDemoComparisons, seedDemoBenches];
+export const DEMO_EXTENSIONS: DemoExtension[] = [seedDemoStandards, seedDemoLabRecords, seedDemoCertificates, seedDemoBenches];

@@ -2,6 +2,7 @@ import type { EntityManager } from 'typeorm';
 import type { DialLaw, Tolerance } from '@kilocycle/common/types';
 import { AuditEvent } from '../audit/audit-event.entity.js';
 import { AuditService, type AuditEntry } from '../audit/audit.service.js';
+import { insertDemoComparison } from '../comparisons/comparisons.demo.js';
 import { InstrumentRange } from '../instruments/instrument-range.entity.js';
 import { Instrument } from '../instruments/instrument.entity.js';
 import { demoJobNumbers, insertDemoJob, type DemoJobSpec } from '../jobs/jobs.demo.js';
@@ -169,6 +170,7 @@ async function seedReceiverWarmups(scene: LabScene, receiver: DemoInstrument): P
   const after = await insertRun(scene, { jobId: job.id, rangeId: band3.id, kind: 'warmup', createdBy: engineer, startedAt: day(-6, 8, 30), minutes: 120,
     configuration: 'Dial at 7.000 MHz, BFO off, cold start after 12 h off; gas regulator valve fitted on the oscillator HT', notes: 'After the regulator change.' });
   await insertDemoReadings(manager, after.id, after.startedAt, warmupReadings(warmupCurve(7_453_905, 900, 520), 2.0, 22));
+  await insertDemoComparison(manager, { instrumentId: receiver.id, beforeRunId: before.id, afterRunId: after.id, createdById: engineer });
   await history(scene, [[tech, 'job', job.id, 'create', { number: job.number }, day(-10, 10)]]);
 }
 
