@@ -15,16 +15,21 @@ export type InstrumentChoice = { value: string | number; label: string } | null;
 export const ambientTempSchema = optionalNumber({ ...LIMITS.ambientTempC, message: 'A temperature from -40 to 80 °C', decimalComma: true });
 export const humiditySchema = optionalNumber({ ...LIMITS.humidityPct, message: 'A relative humidity from 0 to 100 %', decimalComma: true });
 
+/** Reception details and bench conditions: the fields the new-job and the job's edit forms share. */
+export const jobDetailsFields = {
+  receivedDate: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Enter the date it came in'),
+  conditionReceived: optionalText(FIELD_LIMITS.notes.max),
+  technicianId: optionalId,
+  ambientTempC: ambientTempSchema,
+  humidityPct: humiditySchema,
+  notes: optionalText(FIELD_LIMITS.notes.max),
+};
+
 /** The new-job form: checked before sending; the server checks again and its messages are shown as they come. */
 export const createJobSchema = z
   .object({
     instrument: z.custom<InstrumentChoice>().refine((choice) => choice !== null, 'Choose the instrument received'),
-    receivedDate: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Enter the date it came in'),
-    conditionReceived: optionalText(FIELD_LIMITS.notes.max),
-    technicianId: optionalId,
-    ambientTempC: ambientTempSchema,
-    humidityPct: humiditySchema,
-    notes: optionalText(FIELD_LIMITS.notes.max),
+    ...jobDetailsFields,
   })
   .transform(({ instrument, ...rest }): CreateJobRequest => ({ instrumentId: Number(instrument?.value), ...rest }));
 

@@ -1,10 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { FIELD_LIMITS } from '@kilocycle/common/rules';
 import type { Job, UpdateJobRequest } from '@kilocycle/common/types';
 import { z } from 'zod';
 import { api } from '@/lib/api-client';
-import { optionalId, optionalText } from '@/utils/form-schema';
-import { ambientTempSchema, humiditySchema } from './create-job';
+import { jobDetailsFields } from './create-job';
 import { getJobHistoryQueryOptions } from './get-job-history';
 import { getJobQueryOptions } from './get-job';
 import { getJobsQueryOptions } from './get-jobs';
@@ -12,14 +10,7 @@ import { getJobsQueryOptions } from './get-jobs';
 export type UpdateJobInput = { id: number; changes: UpdateJobRequest };
 
 /** The job's edit form (reception details and bench conditions). */
-export const updateJobSchema = z.object({
-  receivedDate: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Enter the date it came in'),
-  conditionReceived: optionalText(FIELD_LIMITS.notes.max),
-  technicianId: optionalId,
-  ambientTempC: ambientTempSchema,
-  humidityPct: humiditySchema,
-  notes: optionalText(FIELD_LIMITS.notes.max),
-}) satisfies z.ZodType<UpdateJobRequest, unknown>;
+export const updateJobSchema = z.object(jobDetailsFields) satisfies z.ZodType<UpdateJobRequest, unknown>;
 
 export function updateJob({ id, changes }: UpdateJobInput): Promise<Job> {
   return api.patch<Job>(`/jobs/${id}`, changes, { notify: false });
