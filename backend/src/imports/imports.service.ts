@@ -30,7 +30,7 @@ import { sniffContent } from '../shared/content-sniffer.js';
 import { AuditService } from '../audit/audit.service.js';
 import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { APP_CONFIG, type AppConfig } from '../config/config.module.js';
-import { MAX_BATCH, ReadingsWriter, refusalReason, type RunWriteContext, type SpanConfirmation } from '../readings/readings-writer.service.js';
+import { ReadingsWriter, refusalReason, type RunWriteContext, type SpanConfirmation } from '../readings/readings-writer.service.js';
 import { RunContextReader } from '../runs/run-context.reader.js';
 import { RunNotesWriter } from '../runs/run-notes.writer.js';
 import { assertMayWriteRun } from '../runs/run-rules.js';

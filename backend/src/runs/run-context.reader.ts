@@ -1,6 +1,7 @@
 import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import type { DataSource, EntityManager } from 'typeorm';
+import { JobScopeReader } from '../jobs/job-scope.reader.js';
 import type { DialUnit, JobStatus, RunKind, RunStatus } from '@kilocycle/common/types';
 
 /** What the readings write path needs to know about a run; loaded in one query. */
@@ -32,10 +33,15 @@ export type RunScope = { runId: number; organizationId: number; jobNumber: strin
  */
 @Injectable()
 export class RunContextReader {
-  constructor(@InjectDataSource() private readonly dataSource: DataSource) {}
+  constructor(
+    @InjectDataSource() private readonly dataSource: DataSource,
+    private readonly jobs: JobScopeReader,
+  ) {}
 
   async writeContext(runId: number, manager?: EntityManager): Promise<RunWriteContext | null> {
+    // One joined query on purpose: every bench batch loads it (the ingest benchmark, npm run bench:ingest).
     const [row] = await (manager ?? this.dataSource).query(
+      // eslint-disable-next-line kilocycle/table-owner -- hot path measured by bench:ingest, see the class comment
       `SELECT r.id, r.kind, r.status, r.bench_id, r.started_at, j.status AS job_status, j.organization_id,
               g.dial_min, g.dial_max, g.freq_min_hz, g.freq_max_hz
          FROM runs r JOIN jobs j ON j.id = r.job_id JOIN instrument_ranges g ON g.id = r.range_id
@@ -63,10 +69,12 @@ export class RunContextReader {
     await manager.query('SELECT id FROM runs WHERE id = ? FOR UPDATE', [runId]);
   }
 
-  /** Locks the run and reads its status and its job's, in the caller's transaction; null when there is no such run. */
+  /** Locks the run and its job (FOR UPDATE, run first) and reads both statuses, in the caller's transaction; null when there is no such run. */
   async lockStatus(runId: number, manager: EntityManager): Promise<{ status: RunStatus; jobStatus: JobStatus } | null> {
-    const [row] = await manager.query('SELECT r.status, j.status AS job_status FROM runs r JOIN jobs j ON j.id = r.job_id WHERE r.id = ? FOR UPDATE', [runId]);
-    return row ? { status: row.status as RunStatus, jobStatus: row.job_status as JobStatus } : null;
+    const [run] = await manager.query('SELECT status, job_id FROM runs WHERE id = ? FOR UPDATE', [runId]);
+    if (!run) return null;
+    const job = await this.jobs.scope(Number(run.job_id), manager, true);
+    return job ? { status: run.status as RunStatus, jobStatus: job.status } : null;
   }
 
   async range(runId: number): Promise<RunRangeSummary | null> {
@@ -87,8 +95,9 @@ export class RunContextReader {
   }
 
   async scope(runId: number): Promise<RunScope | null> {
-    const [row] = await this.dataSource.query('SELECT r.id, j.organization_id, j.number FROM runs r JOIN jobs j ON j.id = r.job_id WHERE r.id = ?', [runId]);
-    return row ? { runId: Number(row.id), organizationId: Number(row.organization_id), jobNumber: String(row.number) } : null;
+    const [run] = await this.dataSource.query('SELECT id, job_id FROM runs WHERE id = ?', [runId]);
+    const job = run ? await this.jobs.scope(Number(run.job_id)) : null;
+    return job ? { runId: Number(run.id), organizationId: job.organizationId, jobNumber: job.number } : null;
   }
 
   /** The newest calibration runs (as-found, as-left) on a range, newest first: at most `limit` ids. */

@@ -1,0 +1,18 @@
+import { Injectable } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import type { JobStatus } from '@kilocycle/common/types';
+import type { DataSource, EntityManager } from 'typeorm';
+
+/** Whose a job is, its number and status: what the modules under a job (runs) need for scope checks and locks. */
+export type JobScope = { id: number; number: string; organizationId: number; status: JobStatus };
+
+@Injectable()
+export class JobScopeReader {
+  constructor(@InjectDataSource() private readonly dataSource: DataSource) {}
+
+  /** The job, or null; with `lock` its row is locked (FOR UPDATE) in the caller's transaction. */
+  async scope(jobId: number, manager?: EntityManager, lock = false): Promise<JobScope | null> {
+    const [row] = await (manager ?? this.dataSource).query(`SELECT id, number, organization_id, status FROM jobs WHERE id = ?${lock ? ' FOR UPDATE' : ''}`, [jobId]);
+    return row ? { id: Number(row.id), number: String(row.number), organizationId: Number(row.organization_id), status: row.status as JobStatus } : null;
+  }
+}
