@@ -1,7 +1,7 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import { In, type DataSource, type EntityManager, type Repository } from 'typeorm';
-import type { Instrument as InstrumentView, InstrumentRange as RangeView, ListResponse, RangeInput } from '@kilocycle/common/types';
+import type { Instrument as InstrumentView, ListResponse } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
 import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { OrganizationsReader } from '../organizations/organizations.reader.js';
@@ -13,7 +13,7 @@ import type { CreateInstrumentDto, ListInstrumentsQueryDto, RangeInputDto, Updat
 import { InstrumentRange } from './instrument-range.entity.js';
 import { Instrument } from './instrument.entity.js';
 import { assertRanges, measurementFieldsDiffer } from './range-rules.js';
-import { toRangeView } from './range-view.js';
+import { rangeColumns, toRangeView } from './range-view.js';
 
 export { toRangeView };
 
@@ -213,20 +213,6 @@ export class InstrumentsService {
     if (inserts.length > 0) await manager.insert(InstrumentRange, inserts);
     return { added: added.map((r) => r.label), removed: removed.map((r) => r.label), changed };
   }
-}
-
-function rangeColumns(r: RangeInput & { position?: number }): Omit<RangeView, 'id' | 'position'> {
-  return {
-    label: r.label,
-    dialUnit: r.dialUnit,
-    dialLaw: r.dialLaw,
-    dialMin: r.dialMin,
-    dialMax: r.dialMax,
-    freqMinHz: r.freqMinHz,
-    freqMaxHz: r.freqMaxHz,
-    tolerance: r.tolerance,
-    multipliers: r.multipliers,
-  };
 }
 
 function canonicalList(values: readonly number[]): string {

@@ -1,11 +1,9 @@
-import type { InstrumentRange as RangeView } from '@kilocycle/common/types';
+import type { InstrumentRange as RangeView, RangeInput } from '@kilocycle/common/types';
 import type { InstrumentRange } from './instrument-range.entity.js';
 
-/** The one mapping of a stored range to the range shape of `common` (the API, signed records, job results). */
-export function toRangeView(r: InstrumentRange): RangeView {
+/** A range's measurement columns, as stored and as shown (everything but its id and position). */
+export function rangeColumns(r: RangeInput): Omit<RangeView, 'id' | 'position'> {
   return {
-    id: r.id,
-    position: r.position,
     label: r.label,
     dialUnit: r.dialUnit,
     dialLaw: r.dialLaw,
@@ -16,4 +14,9 @@ export function toRangeView(r: InstrumentRange): RangeView {
     tolerance: r.tolerance,
     multipliers: r.multipliers,
   };
+}
+
+/** The one mapping of a stored range to the range shape of `common` (the API, signed records, job results). */
+export function toRangeView(r: InstrumentRange): RangeView {
+  return { id: r.id, position: r.position, ...rangeColumns(r) };
 }
