@@ -68,7 +68,7 @@ type ReadingsTableProps = {
   height?: number;
 };
 
-/** Every reading of the run, newest first; an excluded one is struck through with its reason, never removed. */
+/** Every reading of the run, newest first; an excluded one is struck through with its reason, never removed (in the secondary text colour, which keeps 4.5:1 contrast on a hovered row). */
 export function ReadingsTable({ runId, unit, resolutionHz = 0.1, showDial = true, showAux = null, canExclude, onExcluded, height = 420 }: ReadingsTableProps) {
   const [pagination, setPagination] = useState<GridPaginationModel>({ page: 0, pageSize: 50 });
   const [sortModel, setSortModel] = useState<GridSortModel>([{ field: 'seq', sort: 'desc' }]);
@@ -79,7 +79,7 @@ export function ReadingsTable({ runId, unit, resolutionHz = 0.1, showDial = true
   });
 
   const columns = useMemo<GridColDef<Reading>[]>(() => {
-    const struck = (row: Reading) => (row.excluded ? { textDecoration: 'line-through', color: 'text.disabled' } : undefined);
+    const struck = (row: Reading) => (row.excluded ? { textDecoration: 'line-through', color: 'text.secondary' } : undefined);
     return [
       // Up to seven digits: a bridge at ten readings a second reaches 1 000 000 in a day. Sequence numbers are names, not grouped.
       { field: 'seq', headerName: '#', width: 96, align: 'right', headerAlign: 'right', renderCell: ({ row }) => <Num sx={struck(row)}>{row.seq}</Num> },
