@@ -5,7 +5,7 @@ import type { AuthUser } from '../shared/auth-user.js';
 import { AuthService } from './auth.service.js';
 import { CurrentUser, Public } from '../shared/decorators.js';
 import { LoginDto } from './dto/login.dto.js';
-import { RetryAfterInterceptor } from './sign-in-throttle.js';
+import { RetryAfterInterceptor } from '../shared/too-many-attempts.js';
 
 @ApiTags('auth')
 @Controller('auth')

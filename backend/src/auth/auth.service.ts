@@ -11,7 +11,8 @@ import { AccountsReader } from '../users/accounts.reader.js';
 import type { AuthUser, JwtClaims } from '../shared/auth-user.js';
 import { RevokedToken } from './revoked-token.entity.js';
 import { AccountSessions } from '../shared/account-sessions.js';
-import { SignInThrottle, TooManyAttemptsException } from './sign-in-throttle.js';
+import { SignInThrottle } from './sign-in-throttle.service.js';
+import { TooManyAttemptsException } from '../shared/too-many-attempts.js';
 
 const BAD_CREDENTIALS = 'E-mail or password is not right';
 

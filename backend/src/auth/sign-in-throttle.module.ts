@@ -3,7 +3,7 @@ import { Module } from '@nestjs/common';
 // all of @nestjs/common; these two need only its Injectable (see test/support/jest-resolver.cjs).
 import { ThrottlerStorage } from '@nestjs/throttler/dist/throttler-storage.interface.js';
 import { ThrottlerStorageService } from '@nestjs/throttler/dist/throttler.service.js';
-import { SignInThrottle } from './sign-in-throttle.js';
+import { SignInThrottle } from './sign-in-throttle.service.js';
 
 /**
  * Sign-in and sign-off throttling. The counts live in @nestjs/throttler's in-memory storage for now

@@ -4,7 +4,7 @@ import type { CertificateDetail, JobReview } from '@kilocycle/common/types';
 import { BENCH_ROLES, LAB_ROLES } from '@kilocycle/common/rules';
 import type { AuthUser } from '../shared/auth-user.js';
 import { CurrentUser, Roles } from '../shared/decorators.js';
-import { RetryAfterInterceptor } from '../auth/sign-in-throttle.js';
+import { RetryAfterInterceptor } from '../shared/too-many-attempts.js';
 import { ReturnJobDto, SignJobDto, SubmitJobDto } from './dto/review.dto.js';
 import { ReviewsService } from './reviews.service.js';
 import { IdParam } from '../shared/id-param.decorator.js';

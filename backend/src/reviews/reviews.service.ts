@@ -6,7 +6,7 @@ import { SIGNING_MEANING, type SignedRecord, type CertificateDetail, type JobRev
 import { selfSignRefusal } from '@kilocycle/common/rules';
 import { AuditService } from '../audit/audit.service.js';
 import type { AuthUser } from '../shared/auth-user.js';
-import { SignInThrottle } from '../auth/sign-in-throttle.js';
+import { SignInThrottle } from '../auth/sign-in-throttle.service.js';
 import { findScopedJob } from '../budgets/job-access.js';
 import { JobResultsService } from '../budgets/job-results.service.js';
 import { ReadingResultsReader } from '../readings/reading-results.reader.js';
@@ -28,7 +28,7 @@ import { certificateIssuedMail, jobReturnedMail } from '../mail/mail-templates.j
 import { MailService } from '../mail/mail.service.js';
 import { Organization } from '../organizations/organization.entity.js';
 import { User } from '../users/user.entity.js';
-import { missingStandards } from '../runs/run-rules.js';
+import { missingStandards } from '@kilocycle/common/rules';
 import { JobReview } from './job-review.entity.js';
 import { readSignerDeeds } from './signer-deeds.js';
 
@@ -43,7 +43,7 @@ export class ReviewsService {
     private readonly audit: AuditService,
     private readonly mail: MailService,
     private readonly certificates: CertificatesService,
-    /** Wrong passwords at signing, per lead (numbers in sign-in-throttle.ts). */
+    /** Wrong passwords at signing, per lead (numbers in auth/sign-in-throttle.service.ts). */
     private readonly signThrottle: SignInThrottle,
     private readonly jobResults: JobResultsService,
     private readonly runResults: RunResultsReader,

@@ -1,8 +1,8 @@
-import { ADDRESS_MAX_FAILURES, PAIR_FREE_FAILURES } from '../../src/auth/sign-in-throttle.js';
+import { ADDRESS_MAX_FAILURES, PAIR_FREE_FAILURES } from '../../src/auth/sign-in-throttle.service.js';
 import { createTestApp, DEMO, tokenFor, type TestApp } from '../support/test-app.js';
 
 // Issue #13, item 3. The numbers under test are the ones the issue asks to decide and document
-// (sign-in-throttle.ts); the expected waits are 2^k seconds, written out by hand.
+// (sign-in-throttle.service.ts); the expected waits are 2^k seconds, written out by hand.
 const RIGHT = 'kilocycle-demo';
 const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
 

@@ -1,7 +1,6 @@
-import { HttpException, HttpStatus, Inject, Injectable, type CallHandler, type ExecutionContext, type NestInterceptor } from '@nestjs/common';
+import { Inject, Injectable } from '@nestjs/common';
 import { ThrottlerStorage } from '@nestjs/throttler/dist/throttler-storage.interface.js';
-import type { Response } from 'express';
-import { catchError, throwError, type Observable } from 'rxjs';
+import { TooManyAttemptsException } from '../shared/too-many-attempts.js';
 
 /**
  * The numbers of sign-in protection (decided for issue #13; README "Sign-in protection" says the same):
@@ -80,30 +79,5 @@ export class SignInThrottle {
 
   private tooMany(seconds: number, message: string): never {
     throw new TooManyAttemptsException(seconds, message);
-  }
-}
-
-/** 429 that knows how long to wait; RetryAfterInterceptor puts that in the Retry-After header. */
-export class TooManyAttemptsException extends HttpException {
-  constructor(
-    readonly retryAfterSeconds: number,
-    message: string,
-  ) {
-    super({ statusCode: 429, message, error: 'Too Many Requests', retryAfter: retryAfterSeconds }, HttpStatus.TOO_MANY_REQUESTS);
-  }
-}
-
-/** Sets Retry-After on the answer when the handler refused with TooManyAttemptsException. */
-@Injectable()
-export class RetryAfterInterceptor implements NestInterceptor {
-  intercept(context: ExecutionContext, next: CallHandler): Observable<unknown> {
-    return next.handle().pipe(
-      catchError((error: unknown) => {
-        if (error instanceof TooManyAttemptsException) {
-          context.switchToHttp().getResponse<Response>().setHeader('Retry-After', String(error.retryAfterSeconds));
-        }
-        return throwError(() => error);
-      }),
-    );
   }
 }
