@@ -1,7 +1,8 @@
-import { Injectable } from '@nestjs/common';
+import { Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import type { JobStatus } from '@kilocycle/common/types';
 import type { DataSource, EntityManager } from 'typeorm';
+import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 
 /** Whose a job is, its number and status: what the modules under a job (runs) need for scope checks and locks. */
 export type JobScope = { id: number; number: string; organizationId: number; status: JobStatus };
@@ -14,5 +15,13 @@ export class JobScopeReader {
   async scope(jobId: number, manager?: EntityManager, lock = false): Promise<JobScope | null> {
     const [row] = await (manager ?? this.dataSource).query(`SELECT id, number, organization_id, status FROM jobs WHERE id = ?${lock ? ' FOR UPDATE' : ''}`, [jobId]);
     return row ? { id: Number(row.id), number: String(row.number), organizationId: Number(row.organization_id), status: row.status as JobStatus } : null;
+  }
+
+  /** The job if this user may see it; another organisation's job answers 404 as if it did not exist. `lock` as in scope(). */
+  async visible(user: Pick<AuthUser, 'role' | 'organizationId'>, jobId: number, manager?: EntityManager, lock = false): Promise<JobScope> {
+    const job = await this.scope(jobId, manager, lock);
+    const scope = organizationScope(user);
+    if (!job || (scope !== null && job.organizationId !== scope)) throw new NotFoundException(`Job ${jobId} not found`);
+    return job;
   }
 }
