@@ -30,10 +30,11 @@ import { sniffContent } from '../shared/content-sniffer.js';
 import { AuditService } from '../audit/audit.service.js';
 import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { APP_CONFIG, type AppConfig } from '../config/config.module.js';
-import { ReadingsWriter, refusalReason, type RunWriteContext, type SpanConfirmation } from '../readings/readings-writer.service.js';
+import { ReadingsWriter, type RunWriteContext, type SpanConfirmation } from '../readings/readings-writer.service.js';
 import { RunContextReader } from '../runs/run-context.reader.js';
 import { RunNotesWriter } from '../runs/run-notes.writer.js';
-import { assertMayWriteRun } from '../runs/run-rules.js';
+import { assertMayWriteRun } from '../shared/run-write-guard.js';
+import { runRefusalReason } from '@kilocycle/common/rules';
 import { convertRow, detectDelimiter, detectNewline, ImportFileError, lastRecordEnd, needsTime, parseMapping, resolveColumns, type Delimiter, type Newline, type ResolvedColumns } from './csv-columns.js';
 import type { ImportQueryDto } from './dto/import-query.dto.js';
 import { ImportProgressStore, type ImportTracker } from './import-progress.store.js';
@@ -95,7 +96,7 @@ export class ImportsService implements OnModuleInit {
     const scope = organizationScope(actor);
     if (!ctx || (scope !== null && ctx.organizationId !== scope)) throw new NotFoundException(`Run ${runId} not found`);
     assertMayWriteRun(actor.role, ctx.kind);
-    const refusal = refusalReason(ctx);
+    const refusal = runRefusalReason(ctx);
     if (refusal) throw new ConflictException(refusal);
     const mode: ImportMode = query.mode ?? 'all';
     const importId = query.importId ?? randomUUID();
@@ -239,7 +240,7 @@ export class ImportsService implements OnModuleInit {
   /** Locks the run (and its job) for the import's transaction and checks again that it takes readings. */
   private async lockRun(manager: EntityManager, runId: number): Promise<void> {
     const row = await this.runs.lockStatus(runId, manager);
-    const refusal = row ? refusalReason({ runId, ...row }) : `there is no run ${runId}`;
+    const refusal = row ? runRefusalReason({ runId, ...row }) : `there is no run ${runId}`;
     if (refusal) throw new ConflictException(refusal);
   }
 

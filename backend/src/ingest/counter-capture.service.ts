@@ -13,12 +13,13 @@ import {
   type Reading as ReadingView,
   type ReadingAuthor,
 } from '@kilocycle/common/types';
+import { runKindWords, runRefusalReason } from '@kilocycle/common/rules';
 import { parseNumber } from '@kilocycle/common/units';
 import { AuditService } from '../audit/audit.service.js';
 import { organizationScope, type AuthUser } from '../shared/auth-user.js';
-import { ReadingsWriter, refusalReason, type RunWriteContext, type StoredBatch } from '../readings/readings-writer.service.js';
+import { ReadingsWriter, type RunWriteContext, type StoredBatch } from '../readings/readings-writer.service.js';
 import { RunReadingsReader } from '../readings/run-readings.reader.js';
-import { assertMayWriteRun, runKindWords } from '../runs/run-rules.js';
+import { assertMayWriteRun } from '../shared/run-write-guard.js';
 import { jsonColumn } from '../shared/json-column.js';
 import { BridgePresence } from '../shared/bridge-presence.js';
 
@@ -105,7 +106,7 @@ export class CounterCaptureService implements OnModuleDestroy {
     if (!CALIBRATION_RUN_KINDS.includes(ctx.kind)) {
       throw new ConflictException(`counter-assisted capture takes dial settings, for as-found and as-left runs; run ${runId} is a ${runKindWords(ctx.kind)} run`);
     }
-    const refusal = refusalReason(ctx);
+    const refusal = runRefusalReason(ctx);
     if (refusal) throw new ConflictException(`${refusal}; it takes no more readings`);
     const dial = this.parseDial(ctx, dialInput);
     if (ctx.benchId === null) throw new ConflictException(`run ${runId} has no bench, so no bridge can feed it: type the counter reading beside the dial`);

@@ -3,7 +3,8 @@ import { MAX_INGEST_BATCH, type AttachAck, type IngestBatchAck } from '@kilocycl
 import type { IngestAck, ReadingInput } from '@kilocycle/common/types';
 import { parseFrequency, parseNumber } from '@kilocycle/common/units';
 import type { BenchIdentity } from '../benches/benches.service.js';
-import { ReadingsWriter, refusalReason, type RunWriteContext } from '../readings/readings-writer.service.js';
+import { runRefusalReason } from '@kilocycle/common/rules';
+import { ReadingsWriter, type RunWriteContext } from '../readings/readings-writer.service.js';
 import { RunReadingsReader } from '../readings/run-readings.reader.js';
 import { RunContextReader } from '../runs/run-context.reader.js';
 import { CounterCaptureService } from './counter-capture.service.js';
@@ -141,7 +142,7 @@ export class IngestService {
     if (ctx.benchId !== bench.id) {
       throw new IngestException('not_assigned', `run ${runId} is not assigned to bench "${bench.name}"; assign the bench on the run's page first`);
     }
-    const reason = refusalReason(ctx);
+    const reason = runRefusalReason(ctx);
     if (reason) throw new IngestException(ctx.status !== 'open' ? 'run_closed' : 'job_locked', `${reason}; it takes no more readings`);
     return ctx;
   }

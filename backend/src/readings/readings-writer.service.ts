@@ -13,9 +13,8 @@ import {
 import { outsideSpan, parseFrequency, parseNumber, SPAN_MARGIN, spanLimits } from '@kilocycle/common/units';
 import { AuditService } from '../audit/audit.service.js';
 import { RunContextReader, type RunWriteContext } from '../runs/run-context.reader.js';
-import { refusalReason } from '../runs/run-rules.js';
 
-export { refusalReason, type RunWriteContext };
+export type { RunWriteContext };
 
 export const MAX_BATCH = 1000;
 /** Frequencies above this are refused as implausible for the equipment a lab of this kind measures. */

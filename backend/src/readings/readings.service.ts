@@ -4,10 +4,11 @@ import type { DataSource } from 'typeorm';
 import type { AppendReadingsResponse, ListResponse, Reading as ReadingView, ReadingInput } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
 import { organizationScope, type AuthUser } from '../shared/auth-user.js';
-import { assertMayWriteRun } from '../runs/run-rules.js';
+import { runRefusalReason } from '@kilocycle/common/rules';
+import { assertMayWriteRun } from '../shared/run-write-guard.js';
 import { sortColumn } from '../shared/page-query.js';
 import type { ListReadingsQueryDto } from './dto/readings.dto.js';
-import { AUTHOR_COLUMNS, AUTHOR_JOINS, ReadingsWriter, refusalReason, toReadingView, type RunWriteContext } from './readings-writer.service.js';
+import { AUTHOR_COLUMNS, AUTHOR_JOINS, ReadingsWriter, toReadingView, type RunWriteContext } from './readings-writer.service.js';
 
 const SORTABLE = { seq: 'r.seq', t: 'r.t_s', dial: 'r.dial', frequency: 'r.frequency_hz', id: 'r.id' };
 const READING_KEYS = ['seq', 'dial', 'frequency', 't', 'aux', 'confirmed'];
@@ -65,7 +66,7 @@ export class ReadingsService {
   async append(actor: AuthUser, runId: number, inputs: ReadingInput[]): Promise<AppendReadingsResponse> {
     const ctx = await this.visibleRun(actor, runId);
     assertMayWriteRun(actor.role, ctx.kind);
-    const refusal = refusalReason(ctx);
+    const refusal = runRefusalReason(ctx);
     if (refusal) throw new ConflictException(refusal);
     const problems: AppendReadingsResponse['rejected'] = [];
     inputs.forEach((input, index) => {
@@ -104,7 +105,7 @@ export class ReadingsService {
   async exclude(actor: AuthUser, runId: number, readingId: number, reason: string): Promise<ReadingView> {
     const ctx = await this.visibleRun(actor, runId);
     assertMayWriteRun(actor.role, ctx.kind);
-    const refusal = refusalReason(ctx);
+    const refusal = runRefusalReason(ctx);
     if (refusal) throw new ConflictException(refusal);
     await this.dataSource.transaction(async (manager) => {
       const [reading] = await manager.query(

@@ -8,7 +8,7 @@ import { Bench } from '../benches/bench.entity.js';
 import { BridgePresence } from '../shared/bridge-presence.js';
 import { InstrumentRange } from '../instruments/instrument-range.entity.js';
 import { instrumentLabel } from '../instruments/instruments.service.js';
-import { OPEN_JOB_STATUSES, LOCKED_JOB_STATUSES } from '@kilocycle/common/rules';
+import { OPEN_JOB_STATUSES, LOCKED_JOB_STATUSES, runKindWords, runRefusalReason } from '@kilocycle/common/rules';
 import { Job } from '../jobs/job.entity.js';
 import { JobsService } from '../jobs/jobs.service.js';
 import { dateOnly, todayIso } from '../shared/dto-helpers.js';
@@ -17,7 +17,7 @@ import { likePattern } from '../shared/paginate.js';
 import { Standard } from '../standards/standard.entity.js';
 import type { CreateRunDto, ListRunsQueryDto, UpdateRunDto } from './dto/run.dto.js';
 import { RunReadingStatsSource } from '../shared/run-reading-stats.js';
-import { assertMayWriteRun, refusalReason, runKindWords } from './run-rules.js';
+import { assertMayWriteRun } from '../shared/run-write-guard.js';
 import { Run } from './run.entity.js';
 
 type RunCounts = { readingCount: number; excludedCount: number; lastSeq: number; bridge: RunBridge };
@@ -48,7 +48,7 @@ export function toRunView(r: Run, counts: RunCounts): RunView {
     createdById: r.createdById,
     createdByName: r.createdBy?.name ?? '',
     ...counts,
-    refusal: r.job ? refusalReason({ runId: r.id, status: r.status, jobStatus: r.job.status }) : null,
+    refusal: r.job ? runRefusalReason({ runId: r.id, status: r.status, jobStatus: r.job.status }) : null,
   };
 }
 

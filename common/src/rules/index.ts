@@ -10,3 +10,7 @@ export { OPEN_JOB_STATUSES } from './open-job-statuses.js';
 export { ACTIVE_JOB_STATUSES } from './active-job-statuses.js';
 export { LOCKED_JOB_STATUSES } from './locked-job-statuses.js';
 export { JOB_TRANSITIONS, jobTransitionRefusal, type JobTransitionRefusal } from './job-transitions.js';
+export { ENGINEER_RUN_KINDS, runWriteRefusal } from './run-write-roles.js';
+export { runKindWords } from './run-kind-words.js';
+export { missingStandards } from './missing-standards.js';
+export { runRefusalReason } from './run-refusal-reason.js';
