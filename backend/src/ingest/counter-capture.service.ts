@@ -5,7 +5,6 @@ import type { DataSource } from 'typeorm';
 import { counterSettled, type CounterSettle } from '@kilocycle/common/math';
 import {
   CALIBRATION_RUN_KINDS,
-  CAPTURE_DEFAULTS,
   type CaptureSettings,
   type CaptureState,
   type CaptureStatus,
@@ -20,8 +19,8 @@ import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { ReadingsWriter, type RunWriteContext, type StoredBatch } from '../readings/readings-writer.service.js';
 import { RunReadingsReader } from '../readings/run-readings.reader.js';
 import { assertMayWriteRun } from '../shared/run-write-guard.js';
-import { jsonColumn } from '../shared/json-column.js';
 import { BridgePresence } from '../shared/bridge-presence.js';
+import { CaptureSettingsSource } from '../shared/capture-settings.js';
 
 /** A dial typed at most this far outside the range's dial span (as a fraction of it) is refused, as the write path does. */
 const DIAL_MARGIN = 0.1;
@@ -70,6 +69,7 @@ export class CounterCaptureService implements OnModuleDestroy {
     private readonly readings: RunReadingsReader,
     private readonly presence: BridgePresence,
     private readonly audit: AuditService,
+    private readonly procedures: CaptureSettingsSource,
   ) {
     this.subscriptions.push(
       this.writer.stored$.subscribe((batch) => this.feed(batch)),
@@ -95,7 +95,7 @@ export class CounterCaptureService implements OnModuleDestroy {
 
   async current(user: AuthUser, runId: number): Promise<CaptureState> {
     const ctx = await this.visibleRun(user, runId);
-    const settings = await this.settings(runId);
+    const settings = await this.settings(ctx);
     const w = this.waiting.get(runId);
     return { capture: w ? this.view(w, 'waiting') : null, nextMark: await this.nextMark(ctx, settings), settings };
   }
@@ -118,7 +118,7 @@ export class CounterCaptureService implements OnModuleDestroy {
     }
     const before = this.waiting.get(runId);
     if (before) throw new ConflictException(`dial ${before.dial} is still waiting for the counter; abandon it (Esc) before typing the next setting`);
-    const settings = await this.settings(runId);
+    const settings = await this.settings(ctx);
     // Checked again after the awaits: two Enters at once must not both start.
     if (this.waiting.has(runId)) throw new ConflictException(`dial ${this.waiting.get(runId)!.dial} is still waiting for the counter; abandon it (Esc) first`);
     const w: Waiting = {
@@ -284,22 +284,9 @@ export class CounterCaptureService implements OnModuleDestroy {
     return ctx;
   }
 
-  /** The settings of the procedure the run's job uses (its chosen one, else the default), as budgets/job-results picks it. */
-  private async settings(runId: number): Promise<CaptureSettings> {
-    const [row] = (await this.dataSource.query(
-      `SELECT p.capture_settle_count, p.capture_tolerance_hz, p.capture_timeout_s, p.dial_marks
-         FROM runs r JOIN procedures p LEFT JOIN job_procedures jp ON jp.procedure_id = p.id AND jp.job_id = r.job_id
-        WHERE r.id = ?
-        ORDER BY (jp.job_id IS NOT NULL) DESC, p.is_default DESC, p.active DESC, p.id ASC LIMIT 1`,
-      [runId],
-    )) as Array<Record<string, unknown>>;
-    if (!row) return CAPTURE_DEFAULTS;
-    return {
-      captureSettleCount: Number(row.capture_settle_count),
-      captureToleranceHz: Number(row.capture_tolerance_hz),
-      captureTimeoutS: Number(row.capture_timeout_s),
-      dialMarks: jsonColumn<number[]>(row.dial_marks) ?? [],
-    };
+  /** The settings of the procedure the run's job uses (its chosen one, else the default), read from budgets, which owns procedures. */
+  private settings(ctx: RunWriteContext): Promise<CaptureSettings> {
+    return this.procedures.forJob(ctx.jobId);
   }
 
   /** The first of the procedure's dial marks (in its order, within the range's dial span) the run has no reading at yet. */

@@ -2,11 +2,13 @@ import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import type { DataSource, EntityManager } from 'typeorm';
 import { JobScopeReader } from '../jobs/job-scope.reader.js';
-import type { DialUnit, JobStatus, RunKind, RunStatus } from '@kilocycle/common/types';
+import { RangeResultsReader } from '../instruments/range-results.reader.js';
+import type { JobStatus, RangeSpan, RunKind, RunStatus } from '@kilocycle/common/types';
 
 /** What the readings write path needs to know about a run; loaded in one query. */
 export type RunWriteContext = {
   runId: number;
+  jobId: number;
   kind: RunKind;
   status: RunStatus;
   jobStatus: JobStatus;
@@ -19,9 +21,6 @@ export type RunWriteContext = {
   freqMaxHz: number;
   startedAt: Date;
 };
-
-/** The range a bench attaches to, as the attach acknowledgement states it. */
-export type RunRangeSummary = { label: string; dialUnit: DialUnit; dialMin: number; dialMax: number; freqMinHz: number; freqMaxHz: number };
 
 /** A run's place: whose it is and which job it belongs to (for scope checks and file names). */
 export type RunScope = { runId: number; organizationId: number; jobNumber: string };
@@ -36,13 +35,14 @@ export class RunContextReader {
   constructor(
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly jobs: JobScopeReader,
+    private readonly ranges: RangeResultsReader,
   ) {}
 
   async writeContext(runId: number, manager?: EntityManager): Promise<RunWriteContext | null> {
     // One joined query on purpose: every bench batch loads it (the ingest benchmark, npm run bench:ingest).
     const [row] = await (manager ?? this.dataSource).query(
       // eslint-disable-next-line kilocycle/table-owner -- hot path measured by bench:ingest, see the class comment
-      `SELECT r.id, r.kind, r.status, r.bench_id, r.started_at, j.status AS job_status, j.organization_id,
+      `SELECT r.id, r.job_id, r.kind, r.status, r.bench_id, r.started_at, j.status AS job_status, j.organization_id,
               g.dial_min, g.dial_max, g.freq_min_hz, g.freq_max_hz
          FROM runs r JOIN jobs j ON j.id = r.job_id JOIN instrument_ranges g ON g.id = r.range_id
         WHERE r.id = ?`,
@@ -51,6 +51,7 @@ export class RunContextReader {
     if (!row) return null;
     return {
       runId: row.id,
+      jobId: Number(row.job_id),
       kind: row.kind,
       status: row.status,
       jobStatus: row.job_status,
@@ -62,6 +63,12 @@ export class RunContextReader {
       freqMaxHz: Number(row.freq_max_hz),
       startedAt: new Date(row.started_at),
     };
+  }
+
+  /** Which job and range the run belongs to, or null (in the caller's transaction when a manager is given). */
+  async place(runId: number, manager?: EntityManager): Promise<{ jobId: number; rangeId: number } | null> {
+    const [row] = await (manager ?? this.dataSource).query('SELECT job_id, range_id FROM runs WHERE id = ?', [runId]);
+    return row ? { jobId: Number(row.job_id), rangeId: Number(row.range_id) } : null;
   }
 
   /** Locks the run row (FOR UPDATE) in the caller's transaction: readings numbered after the run's last one wait here. */
@@ -77,21 +84,13 @@ export class RunContextReader {
     return job ? { status: run.status as RunStatus, jobStatus: job.status } : null;
   }
 
-  async range(runId: number): Promise<RunRangeSummary | null> {
-    const [row] = await this.dataSource.query(
-      `SELECT g.label, g.dial_unit, g.dial_min, g.dial_max, g.freq_min_hz, g.freq_max_hz
-         FROM runs r JOIN instrument_ranges g ON g.id = r.range_id WHERE r.id = ?`,
-      [runId],
-    );
-    if (!row) return null;
-    return {
-      label: String(row.label),
-      dialUnit: row.dial_unit as DialUnit,
-      dialMin: Number(row.dial_min),
-      dialMax: Number(row.dial_max),
-      freqMinHz: Number(row.freq_min_hz),
-      freqMaxHz: Number(row.freq_max_hz),
-    };
+  /** The range a bench attaches to, as the attach acknowledgement states it (read through instruments, which owns ranges). */
+  async range(runId: number): Promise<RangeSpan | null> {
+    const place = await this.place(runId);
+    const range = place ? await this.ranges.range(place.rangeId) : null;
+    if (!range) return null;
+    const { label, dialUnit, dialMin, dialMax, freqMinHz, freqMaxHz } = range;
+    return { label, dialUnit, dialMin, dialMax, freqMinHz, freqMaxHz };
   }
 
   async scope(runId: number): Promise<RunScope | null> {

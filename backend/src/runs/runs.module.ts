@@ -1,6 +1,9 @@
 import { Global, Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
+import { BenchesModule } from '../benches/benches.module.js';
+import { InstrumentsModule } from '../instruments/instruments.module.js';
 import { JobsModule } from '../jobs/jobs.module.js';
+import { StandardsModule } from '../standards/standards.module.js';
 import { BridgePresenceModule } from '../shared/bridge-presence.module.js';
 import { JobRunStatsSource } from '../shared/job-run-stats.js';
 import { RangeUseSource } from '../shared/range-use.js';
@@ -8,6 +11,7 @@ import { JobRunsReader } from './job-runs.reader.js';
 import { RangeUseReader } from './range-use.reader.js';
 import { RunContextReader } from './run-context.reader.js';
 import { RunNotesWriter } from './run-notes.writer.js';
+import { RunStandardVersionWriter } from './run-standard-version.writer.js';
 import { Run } from './run.entity.js';
 import { RunComparisonReader } from './run-comparison.reader.js';
 import { RunResultsReader } from './run-results.reader.js';
@@ -21,9 +25,9 @@ import { RunsService } from './runs.service.js';
  */
 @Global()
 @Module({
-  imports: [TypeOrmModule.forFeature([Run]), JobsModule, BridgePresenceModule],
+  imports: [TypeOrmModule.forFeature([Run]), JobsModule, InstrumentsModule, BenchesModule, StandardsModule, BridgePresenceModule],
   controllers: [RunsController, JobRunsController],
-  providers: [RunsService, RunResultsReader, RunComparisonReader, RunContextReader, RunNotesWriter, JobRunsReader, { provide: JobRunStatsSource, useExisting: JobRunsReader }, RangeUseReader, { provide: RangeUseSource, useExisting: RangeUseReader }],
-  exports: [RunsService, RunResultsReader, RunComparisonReader, RunContextReader, RunNotesWriter, JobRunStatsSource, RangeUseSource],
+  providers: [RunsService, RunResultsReader, RunComparisonReader, RunContextReader, RunNotesWriter, RunStandardVersionWriter, JobRunsReader, { provide: JobRunStatsSource, useExisting: JobRunsReader }, RangeUseReader, { provide: RangeUseSource, useExisting: RangeUseReader }],
+  exports: [RunsService, RunResultsReader, RunComparisonReader, RunContextReader, RunNotesWriter, RunStandardVersionWriter, JobRunStatsSource, RangeUseSource],
 })
 export class RunsModule {}

@@ -4,17 +4,17 @@ import type { DataSource, EntityManager, Repository } from 'typeorm';
 import { CALIBRATION_RUN_KINDS, RUN_CORRECTABLE_FIELDS, type ListResponse, type Run as RunView, type RunBridge } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
 import { organizationScope, type AuthUser } from '../shared/auth-user.js';
-import { Bench } from '../benches/bench.entity.js';
+import { RunBenchReader } from '../benches/run-bench.reader.js';
 import { BridgePresence } from '../shared/bridge-presence.js';
-import { InstrumentRange } from '../instruments/instrument-range.entity.js';
+import { RangeResultsReader } from '../instruments/range-results.reader.js';
 import { instrumentLabel } from '../instruments/instruments.service.js';
 import { OPEN_JOB_STATUSES, LOCKED_JOB_STATUSES, runKindWords, runRefusalReason } from '@kilocycle/common/rules';
-import { Job } from '../jobs/job.entity.js';
+import { JobScopeReader } from '../jobs/job-scope.reader.js';
 import { JobsService } from '../jobs/jobs.service.js';
-import { dateOnly, todayIso } from '../shared/dto-helpers.js';
+import { todayIso } from '../shared/dto-helpers.js';
 import { paginateFlat } from '../shared/page-query.js';
 import { likePattern } from '../shared/paginate.js';
-import { Standard } from '../standards/standard.entity.js';
+import { StandardUseReader, type StandardUse } from '../standards/standard-use.reader.js';
 import type { CreateRunDto, ListRunsQueryDto, UpdateRunDto } from './dto/run.dto.js';
 import { RunReadingStatsSource } from '../shared/run-reading-stats.js';
 import { assertMayWriteRun } from '../shared/run-write-guard.js';
@@ -72,6 +72,10 @@ export class RunsService {
     private readonly jobs: JobsService,
     private readonly presence: BridgePresence,
     private readonly readingStats: RunReadingStatsSource,
+    private readonly jobScopes: JobScopeReader,
+    private readonly ranges: RangeResultsReader,
+    private readonly benches: RunBenchReader,
+    private readonly standards: StandardUseReader,
   ) {}
 
   list(actor: AuthUser, query: ListRunsQueryDto): Promise<ListResponse<RunView>> {
@@ -116,16 +120,17 @@ export class RunsService {
   async open(actor: AuthUser, jobId: number, body: CreateRunDto): Promise<RunView> {
     assertMayWriteRun(actor.role, body.kind);
     const id = await this.dataSource.transaction(async (manager) => {
-      const job = await manager.findOne(Job, { where: { id: jobId }, lock: { mode: 'pessimistic_write' } });
+      const job = await this.jobScopes.scope(jobId, manager, true);
       if (!job) throw new NotFoundException(`Job ${jobId} not found`);
       if (!OPEN_JOB_STATUSES.includes(job.status)) throw new ConflictException(`job ${job.number} is ${job.status}: no new runs`);
-      const range = await manager.findOneBy(InstrumentRange, { id: body.rangeId });
-      if (!range || range.instrumentId !== job.instrumentId) {
+      // Among the instrument's own ranges: a range of another instrument is refused like one that does not exist.
+      const range = (await this.ranges.ranges(job.instrumentId, manager)).find((r) => r.id === body.rangeId);
+      if (!range) {
         throw new BadRequestException(`rangeId: range ${body.rangeId} is not a range of this job's instrument`);
       }
       let standardId = body.standardId ?? null;
       if (body.benchId != null) {
-        const bench = await manager.findOneBy(Bench, { id: body.benchId });
+        const bench = await this.benches.bench(body.benchId, manager);
         if (!bench || !bench.active) throw new BadRequestException(`benchId: bench ${body.benchId} does not exist or is out of use`);
         const [busy] = await manager.query("SELECT id FROM runs WHERE bench_id = ? AND status = 'open' LIMIT 1 FOR UPDATE", [bench.id]);
         if (busy) throw new ConflictException(`bench "${bench.name}" already has run ${busy.id} open; close it first`);
@@ -168,7 +173,7 @@ export class RunsService {
             entity: 'run',
             entityId: newId,
             action: 'standard_override',
-            changes: { standardId: standard.id, standardName: standard.name, dueDate: dateOnly(standard.dueDate), reason: overrideReason },
+            changes: { standardId: standard.id, standardName: standard.name, dueDate: standard.dueDate, reason: overrideReason },
           },
           manager,
         );
@@ -192,16 +197,16 @@ export class RunsService {
     await this.dataSource.transaction(async (manager) => {
       const run = await manager.findOne(Run, { where: { id }, lock: { mode: 'pessimistic_write' } });
       if (!run) throw new NotFoundException(`Run ${id} not found`);
-      run.job = await manager.findOneByOrFail(Job, { id: run.jobId });
+      const job = await this.jobScopes.scope(run.jobId, manager);
       const scope = organizationScope(actor);
-      if (scope !== null && run.job.organizationId !== scope) throw new NotFoundException(`Run ${id} not found`);
+      if (!job || (scope !== null && job.organizationId !== scope)) throw new NotFoundException(`Run ${id} not found`);
       assertMayWriteRun(actor.role, run.kind);
-      if (LOCKED_JOB_STATUSES.includes(run.job.status)) throw new ConflictException(`run ${id} belongs to job ${run.job.number}, which is ${run.job.status}`);
+      if (LOCKED_JOB_STATUSES.includes(job.status)) throw new ConflictException(`run ${id} belongs to job ${job.number}, which is ${job.status}`);
       const asked = RUN_CORRECTABLE_FIELDS.filter((key) => body[key] !== undefined);
       if (asked.length > 0) {
-        if (!OPEN_JOB_STATUSES.includes(run.job.status)) {
+        if (!OPEN_JOB_STATUSES.includes(job.status)) {
           throw new ConflictException(
-            `run ${id} belongs to job ${run.job.number}, which is ${run.job.status.replace('_', ' ')}: a run's details are corrected only while its job is received, in progress or returned`,
+            `run ${id} belongs to job ${job.number}, which is ${job.status.replace('_', ' ')}: a run's details are corrected only while its job is received, in progress or returned`,
           );
         }
         await this.correct(manager, actor, run, body);
@@ -227,12 +232,12 @@ export class RunsService {
         Object.assign(patch, { [key]: body[key] });
       }
     }
-    let override: { standard: Standard; reason: string } | null = null;
+    let override: { standard: StandardUse; reason: string } | null = null;
     if (body.standardId !== undefined && body.standardId !== run.standardId) {
       if (body.standardId === null && CALIBRATION_RUN_KINDS.includes(run.kind)) {
         throw new BadRequestException(`standardId: an ${runKindWords(run.kind)} run needs a reference standard; choose the one the readings were taken with`);
       }
-      const before = run.standardId === null ? null : await manager.findOneBy(Standard, { id: run.standardId });
+      const before = run.standardId === null ? null : await this.standards.standard(run.standardId, manager);
       const { standard, overrideReason } = await this.usableStandard(manager, actor, body.standardId, body.standardOverrideReason);
       changes.standardId = { from: run.standardId, to: body.standardId };
       changes.standardName = { from: before?.name ?? null, to: standard?.name ?? null };
@@ -253,7 +258,7 @@ export class RunsService {
           entity: 'run',
           entityId: run.id,
           action: 'standard_override',
-          changes: { standardId: override.standard.id, standardName: override.standard.name, dueDate: dateOnly(override.standard.dueDate), reason: override.reason },
+          changes: { standardId: override.standard.id, standardName: override.standard.name, dueDate: override.standard.dueDate, reason: override.reason },
         },
         manager,
       );
@@ -269,11 +274,11 @@ export class RunsService {
     actor: AuthUser,
     standardId: number | null,
     overrideReason: string | undefined,
-  ): Promise<{ standard: Standard | null; overrideReason: string | null }> {
+  ): Promise<{ standard: StandardUse | null; overrideReason: string | null }> {
     if (standardId === null) return { standard: null, overrideReason: null };
-    const standard = await manager.findOneBy(Standard, { id: standardId });
+    const standard = await this.standards.standard(standardId, manager);
     if (!standard || !standard.active) throw new BadRequestException(`standardId: standard ${standardId} does not exist or is out of use`);
-    const due = dateOnly(standard.dueDate)!;
+    const due = standard.dueDate;
     if (due >= todayIso()) return { standard, overrideReason: null };
     const base = `standard "${standard.name}" was due for calibration on ${due}`;
     if (actor.role !== 'lead') throw new ConflictException(`${base}; only a lead can override, with a written reason`);
