@@ -1,6 +1,6 @@
 import { Injectable } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
-import type { Repository } from 'typeorm';
+import type { EntityManager, Repository } from 'typeorm';
 import type { AuditEventView, ListResponse } from '@kilocycle/common/types';
 import { ActorDirectory } from '../shared/actor-directory.js';
 import { sortColumn } from '../shared/page-query.js';
@@ -50,6 +50,26 @@ export class AuditLogService {
         };
       }),
     };
+  }
+
+  /** What one actor did to these entities: the events of these actions, oldest first, with their changes parsed. */
+  async actorEvents(
+    entity: string,
+    entityIds: readonly string[],
+    actorId: number,
+    actions: readonly string[],
+    manager?: EntityManager,
+  ): Promise<Array<{ entityId: string; action: string; changes: Record<string, unknown> | null }>> {
+    if (entityIds.length === 0 || actions.length === 0) return [];
+    const rows: Array<{ entity_id: string; action: string; changes: unknown }> = await (manager ?? this.events.manager).query(
+      'SELECT entity_id, action, changes FROM audit_events WHERE entity = ? AND actor_id = ? AND action IN (?) AND entity_id IN (?) ORDER BY id',
+      [entity, actorId, [...actions], [...entityIds]],
+    );
+    return rows.map((row) => ({
+      entityId: String(row.entity_id),
+      action: String(row.action),
+      changes: (typeof row.changes === 'string' ? JSON.parse(row.changes) : row.changes) as Record<string, unknown> | null,
+    }));
   }
 
   private async filter(query: ListAuditQueryDto): Promise<{ clause: string; params: unknown[] }> {

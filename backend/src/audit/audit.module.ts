@@ -10,6 +10,6 @@ import { AuditService } from './audit.service.js';
   imports: [TypeOrmModule.forFeature([AuditEvent])],
   controllers: [AuditController],
   providers: [AuditService, AuditLogService],
-  exports: [AuditService],
+  exports: [AuditService, AuditLogService],
 })
 export class AuditModule {}

@@ -3,6 +3,7 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import type { DataSource } from 'typeorm';
 import { AuditService } from '../audit/audit.service.js';
 import { Mailer, type OutgoingMail } from './mailer.js';
+import { certificateIssuedMail, jobReturnedMail } from './mail-templates.js';
 
 // What other modules may use of mail besides the service: the mailer (the CLI's recall run builds one) and the templates.
 export { Mailer, type OutgoingMail } from './mailer.js';
@@ -27,6 +28,16 @@ export class MailService implements OnModuleInit, OnApplicationShutdown {
 
   async onApplicationShutdown(): Promise<void> {
     await this.mailer.stop();
+  }
+
+  /** Tells the job's technician that the lead returned it for rework (never fails the caller: see sendSafely). */
+  sendJobReturned(content: Parameters<typeof jobReturnedMail>[0], about: { entity: string; entityId: string | number }): Promise<boolean> {
+    return this.sendSafely(jobReturnedMail(content), about);
+  }
+
+  /** Sends the customer an issued certificate with its PDF (never fails the caller: see sendSafely). */
+  sendCertificateIssued(content: Parameters<typeof certificateIssuedMail>[0], about: { entity: string; entityId: string | number }): Promise<boolean> {
+    return this.sendSafely(certificateIssuedMail(content), about);
   }
 
   /**

@@ -1,6 +1,6 @@
 import { Injectable } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
-import type { Repository } from 'typeorm';
+import type { EntityManager, Repository } from 'typeorm';
 import type { SessionUser } from '@kilocycle/common/types';
 import { User } from './user.entity.js';
 
@@ -25,8 +25,8 @@ function toAccount(user: User): Account {
 export class AccountsReader {
   constructor(@InjectRepository(User) private readonly users: Repository<User>) {}
 
-  async byId(id: number): Promise<Account | null> {
-    const user = await this.users.findOne({ where: { id }, relations: { organization: true } });
+  async byId(id: number, manager?: EntityManager): Promise<Account | null> {
+    const user = await (manager?.getRepository(User) ?? this.users).findOne({ where: { id }, relations: { organization: true } });
     return user ? toAccount(user) : null;
   }
 
@@ -45,5 +45,11 @@ export class AccountsReader {
       .andWhere('u.active = 1 AND o.active = 1')
       .getOne();
     return user ? { ...toAccount(user), passwordHash: user.passwordHash } : null;
+  }
+
+  /** The password hash of this account (active or not), or null: for the password asked again at signing. */
+  async passwordHash(id: number): Promise<string | null> {
+    const user = await this.users.createQueryBuilder('u').addSelect('u.passwordHash').where('u.id = :id', { id }).getOne();
+    return user?.passwordHash ?? null;
   }
 }
