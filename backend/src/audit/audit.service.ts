@@ -17,6 +17,11 @@ export type AuditEntry = {
 export class AuditService {
   constructor(@InjectRepository(AuditEvent) private readonly events: Repository<AuditEvent>) {}
 
+  /** The service over a transaction's manager, for code run outside Nest's injector (the CLI, the demo seed). */
+  static within(manager: EntityManager): AuditService {
+    return new AuditService(manager.getRepository(AuditEvent));
+  }
+
   /**
    * Records one event; pass the transaction's manager so the event commits or rolls back with the change.
    * One plain INSERT: a repository insert would read the row back for its time stamp, a second round
@@ -27,6 +32,19 @@ export class AuditService {
     const runner = manager ?? this.events.manager;
     if (entry.at) await runner.query('INSERT INTO audit_events (actor_id, entity, entity_id, action, changes, at) VALUES (?, ?, ?, ?, ?, ?)', [...values, entry.at]);
     else await runner.query('INSERT INTO audit_events (actor_id, entity, entity_id, action, changes) VALUES (?, ?, ?, ?, ?)', values);
+  }
+
+  /** The events of one action on these entities, newest first, with their changes parsed. */
+  async latest(entity: string, action: string, entityIds: readonly string[]): Promise<Array<{ entityId: string; changes: Record<string, unknown> | null }>> {
+    if (entityIds.length === 0) return [];
+    const rows: Array<{ entity_id: string; changes: unknown }> = await this.events.manager.query(
+      'SELECT entity_id, changes FROM audit_events WHERE entity = ? AND action = ? AND entity_id IN (?) ORDER BY id DESC',
+      [entity, action, [...entityIds]],
+    );
+    return rows.map((row) => ({
+      entityId: String(row.entity_id),
+      changes: (typeof row.changes === 'string' ? JSON.parse(row.changes) : row.changes) as Record<string, unknown> | null,
+    }));
   }
 
   async forEntity(entity: string, entityId: string | number): Promise<AuditEvent[]> {

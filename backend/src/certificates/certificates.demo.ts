@@ -44,7 +44,9 @@ export async function seedDemoCertificates({ manager, customerIds, userIds }: De
   const jobId = await seedVfoJob(manager, { instrumentId, organizationId: customerIds.northgate, technicianId: tech, procedureId: guarded, today });
   await seedVfoRuns(manager, { jobId, ranges, standardId: counter.id, technicianId: tech, at });
   await manager.insert(JobReview, { jobId, action: 'submit', actorId: tech, comment: 'All three ranges aligned; as-found range 3 was well out.', at: at(-7, 16) });
-  await issueCertificate(manager, { config, results: JobResultsService.over(manager.connection), readers: issueReadersOver(manager.connection) }, { jobId, signerId: lead, now: at(-6, 11, 20) });
+  const issued = await issueCertificate(manager, { config, results: JobResultsService.over(manager.connection), readers: issueReadersOver(manager.connection) }, { jobId, signerId: lead, now: at(-6, 11, 20) });
+  // The job's review history is the reviews module's: issuing hands its "sign" event back to record.
+  await manager.insert(JobReview, issued.reviewEvent);
 }
 
 /** A guarded-acceptance procedure with one extra component, and its first version. */

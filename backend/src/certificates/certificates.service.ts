@@ -16,13 +16,15 @@ import { withOutcomes } from '@kilocycle/common/math';
 import { AuditService } from '../audit/audit.service.js';
 import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { APP_CONFIG, type AppConfig } from '../config/config.module.js';
-import { Job } from '../jobs/job.entity.js';
-import { JobReview } from '../reviews/job-review.entity.js';
+import { JobScopeReader } from '../jobs/job-scope.reader.js';
+import { JobStatusWriter } from '../jobs/job-status.writer.js';
+import { instrumentLabel } from '../shared/instrument-label.js';
+import { JobReviewEvents } from '../shared/job-review-events.js';
 import { likePattern, paginate } from '../shared/paginate.js';
 import { Certificate } from './certificate.entity.js';
 import { readSettings, writeSettings } from './certificate-settings.js';
 import type { AmendCertificateDto, ListCertificatesQueryDto, UpdateSettingsDto } from './dto/certificate.dto.js';
-import { certificatesDir, instrumentLabel, verifyUrl } from './issue-certificate.js';
+import { certificatesDir, verifyUrl } from './issue-certificate.js';
 import { loadSigningKey, sha256Hex, verifyCertificateSignature } from './signing-key.js';
 
 const SORTABLE = {
@@ -40,6 +42,9 @@ export class CertificatesService {
     @InjectDataSource() private readonly dataSource: DataSource,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
     private readonly audit: AuditService,
+    private readonly jobs: JobScopeReader,
+    private readonly jobStatus: JobStatusWriter,
+    private readonly reviewEvents: JobReviewEvents,
   ) {}
 
   toView(c: Certificate): CertificateView {
@@ -145,7 +150,7 @@ export class CertificatesService {
       const c = await manager.findOne(Certificate, { where: { id }, lock: { mode: 'pessimistic_write' } });
       if (!c) throw new NotFoundException(`Certificate ${id} not found`);
       if (c.status !== 'issued') throw new ConflictException(`certificate ${c.number} revision ${c.revision} is ${c.status}: only the issued revision can be amended`);
-      const job = await manager.findOne(Job, { where: { id: c.jobId }, lock: { mode: 'pessimistic_write' } });
+      const job = await this.jobs.scope(c.jobId, manager, true);
       if (!job) throw new NotFoundException(`Job ${c.jobId} not found`);
       const now = new Date();
       const to = body.rework === false ? 'in_review' : 'in_progress';
@@ -160,8 +165,8 @@ export class CertificatesService {
         replacesRevision: c.revision,
         amendmentReason: body.reason,
       });
-      await manager.update(Job, { id: job.id }, { status: to });
-      await manager.insert(JobReview, { jobId: job.id, action: 'amend', actorId: actor.id, comment: `${c.number} revision ${c.revision + 1}: ${body.reason}`, at: now });
+      await this.jobStatus.setStatus(job.id, to, manager);
+      await this.reviewEvents.record({ jobId: job.id, action: 'amend', actorId: actor.id, comment: `${c.number} revision ${c.revision + 1}: ${body.reason}`, at: now }, manager);
       await this.audit.record({ actorId: actor.id, entity: 'certificate', entityId: id, action: 'amend', changes: { status: { from: 'issued', to: 'superseded' }, reason: body.reason, newRevision: c.revision + 1 } }, manager);
       await this.audit.record({ actorId: actor.id, entity: 'job', entityId: job.id, action: 'status', changes: { from: job.status, to, comment: `amendment of ${c.number}: ${body.reason}` } }, manager);
       return inserted.identifiers[0].id as number;
@@ -176,10 +181,16 @@ export class CertificatesService {
       if (c.status !== 'issued') throw new ConflictException(`certificate ${c.number} revision ${c.revision} is ${c.status}: only an issued revision can be withdrawn`);
       const now = new Date();
       await manager.update(Certificate, { id }, { status: 'withdrawn', withdrawnAt: now, withdrawnReason: reason });
-      await manager.insert(JobReview, { jobId: c.jobId, action: 'withdraw', actorId: actor.id, comment: `${c.number} revision ${c.revision}: ${reason}`, at: now });
+      await this.reviewEvents.record({ jobId: c.jobId, action: 'withdraw', actorId: actor.id, comment: `${c.number} revision ${c.revision}: ${reason}`, at: now }, manager);
       await this.audit.record({ actorId: actor.id, entity: 'certificate', entityId: id, action: 'withdraw', changes: { status: { from: 'issued', to: 'withdrawn' }, reason } }, manager);
     });
     return this.get(actor, id);
+  }
+
+  /** The amendment in preparation for a job (its draft revision), or null: what a job's review shows of it. */
+  async pendingAmendment(jobId: number): Promise<{ certificateNumber: string; revision: number; replacesRevision: number; reason: string } | null> {
+    const draft = await this.dataSource.manager.findOne(Certificate, { where: { jobId, status: 'draft' } });
+    return draft ? { certificateNumber: draft.number, revision: draft.revision, replacesRevision: draft.replacesRevision ?? draft.revision - 1, reason: draft.amendmentReason ?? '' } : null;
   }
 
   // ---- public ----

@@ -2,25 +2,24 @@ import { ConflictException } from '@nestjs/common';
 import { randomBytes } from 'node:crypto';
 import { mkdirSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { In, type DataSource, type EntityManager } from 'typeorm';
+import type { DataSource, EntityManager } from 'typeorm';
 import { SIGNING_MEANING, type JobOutcomes, type JobResults, type SignedRecord } from '@kilocycle/common/types';
-import type { AuditEntry } from '../audit/audit.service.js';
-import { AuditEvent } from '../audit/audit-event.entity.js';
+import { AuditService } from '../audit/audit.service.js';
 import type { JobResultsService } from '../budgets/job-results.service.js';
+import { CertificateInstrumentWriter, type CertificateInstrument } from '../instruments/certificate-instrument.writer.js';
+import { RangeResultsReader } from '../instruments/range-results.reader.js';
+import { JobStatusWriter } from '../jobs/job-status.writer.js';
+import { ReviewJobsReader, type ReviewedJob } from '../jobs/review-jobs.reader.js';
+import { OrganizationsReader, type OrganizationContact } from '../organizations/organizations.reader.js';
 import { ReadingResultsReader } from '../readings/reading-results.reader.js';
 import { RunResultsReader } from '../runs/run-results.reader.js';
+import { RunStandardVersionWriter } from '../runs/run-standard-version.writer.js';
+import { StandardResultsReader } from '../standards/standard-results.reader.js';
 import { CertificateRecipientsReader } from '../users/certificate-recipients.reader.js';
 import type { AppConfig } from '../config/config.module.js';
-import { resultsCsv } from '../exports/results-csv.js';
-import { InstrumentRange } from '../instruments/instrument-range.entity.js';
-import { toRangeView } from '../instruments/instruments.service.js';
-import { Instrument } from '../instruments/instrument.entity.js';
-import { Job } from '../jobs/job.entity.js';
-import { Organization } from '../organizations/organization.entity.js';
-import { JobReview } from '../reviews/job-review.entity.js';
-import { standardFigures } from '../standards/standard-versions.js';
-import { Standard } from '../standards/standard.entity.js';
-import { User } from '../users/user.entity.js';
+import { instrumentLabel } from '../shared/instrument-label.js';
+import type { JobReviewEvent } from '../shared/job-review-events.js';
+import { resultsCsv } from '../shared/results-csv.js';
 import { Certificate } from './certificate.entity.js';
 import { renderCertificatePdf, type CertificatePdfData } from './certificate-pdf.js';
 import { readSettings } from './certificate-settings.js';
@@ -28,13 +27,37 @@ import { loadSigningKey, sha256Hex, signCertificate } from './signing-key.js';
 
 export const SIGNATORY_ROLE = 'Calibration lead (authorised signatory)';
 
-/** The owners' readers issuing reads through (each on the signing transaction's manager). */
-export type IssueReaders = { runs: RunResultsReader; readings: ReadingResultsReader; recipients: CertificateRecipientsReader };
+/** The owners' readers and writers issuing goes through (each on the signing transaction's manager). */
+export type IssueReaders = {
+  jobs: ReviewJobsReader;
+  jobStatus: JobStatusWriter;
+  instruments: CertificateInstrumentWriter;
+  ranges: RangeResultsReader;
+  organizations: OrganizationsReader;
+  runs: RunResultsReader;
+  runStandards: RunStandardVersionWriter;
+  standards: StandardResultsReader;
+  readings: ReadingResultsReader;
+  recipients: CertificateRecipientsReader;
+  audit: AuditService;
+};
 export type IssueDeps = { config: Pick<AppConfig, 'varDir' | 'publicUrl'>; results: JobResultsService; readers: IssueReaders };
 
 /** The readers over one data source, for code run outside Nest (the demo seed). */
 export function issueReadersOver(dataSource: DataSource): IssueReaders {
-  return { runs: new RunResultsReader(dataSource), readings: new ReadingResultsReader(dataSource), recipients: new CertificateRecipientsReader(dataSource) };
+  return {
+    jobs: new ReviewJobsReader(dataSource),
+    jobStatus: new JobStatusWriter(),
+    instruments: new CertificateInstrumentWriter(dataSource),
+    ranges: new RangeResultsReader(dataSource),
+    organizations: new OrganizationsReader(dataSource),
+    runs: new RunResultsReader(dataSource),
+    runStandards: new RunStandardVersionWriter(),
+    standards: new StandardResultsReader(dataSource),
+    readings: new ReadingResultsReader(dataSource),
+    recipients: new CertificateRecipientsReader(dataSource),
+    audit: AuditService.within(dataSource.manager),
+  };
 }
 export type IssueInput = { jobId: number; signerId: number; meaning?: string; now?: Date };
 export type IssueOutcome = {
@@ -53,6 +76,8 @@ export type IssueOutcome = {
   verifyUrl: string;
   /** The job's as-found and as-left outcomes, for the customer's e-mail. */
   outcomes: JobOutcomes;
+  /** The job's "sign" review event, for the caller to record in the same transaction (reviews owns that history). */
+  reviewEvent: JobReviewEvent;
 };
 
 export function certificatesDir(varDir: string): string {
@@ -61,20 +86,6 @@ export function certificatesDir(varDir: string): string {
 
 export function verifyUrl(publicUrl: string, number: string): string {
   return `${publicUrl}/verify/${encodeURIComponent(number)}`;
-}
-
-export function instrumentLabel(i: Pick<Instrument, 'make' | 'model' | 'serial'>): string {
-  return `${i.make} ${i.model}, serial ${i.serial}`;
-}
-
-async function audit(manager: EntityManager, entry: AuditEntry): Promise<void> {
-  await manager.getRepository(AuditEvent).insert({
-    actorId: entry.actorId,
-    entity: entry.entity,
-    entityId: String(entry.entityId),
-    action: entry.action,
-    changes: (entry.changes ?? null) as never,
-  });
 }
 
 /** The next number of the year: PREFIX-YYYY-NNNN, under a lock on the year's highest number. */
@@ -103,18 +114,13 @@ function blockers(results: JobResults): string[] {
 export async function issueCertificate(manager: EntityManager, deps: IssueDeps, input: IssueInput): Promise<IssueOutcome> {
   const now = input.now ?? new Date();
   const meaning = input.meaning ?? SIGNING_MEANING;
-  const { job, existing, draft } = await lockSignableJob(manager, input.jobId);
+  const { job, existing, draft } = await lockSignableJob(manager, deps.readers, input.jobId);
   const results = await deps.results.compute(job.id, manager);
   const blocking = blockers(results);
   if (blocking.length > 0) throw new ConflictException(`job ${job.number} cannot be signed: ${blocking.join('; ')}`);
 
-  const [instrument, customer, lab, signer, settings] = await Promise.all([
-    manager.findOneByOrFail(Instrument, { id: job.instrumentId }),
-    manager.findOneByOrFail(Organization, { id: job.organizationId }),
-    manager.findOneBy(Organization, { kind: 'lab' }),
-    manager.findOneByOrFail(User, { id: input.signerId }),
-    readSettings(manager),
-  ]);
+  const { instrument, customer, lab, signer } = await issueParties(manager, deps.readers, job, input.signerId);
+  const settings = await readSettings(manager);
   const labName = lab?.name ?? 'Calibration laboratory';
   const number = draft ? draft.number : await nextNumber(manager, settings.certificatePrefix, now.getUTCFullYear());
   const revision = draft ? draft.revision : 1;
@@ -125,7 +131,7 @@ export async function issueCertificate(manager: EntityManager, deps: IssueDeps, 
   const deviations = await issueDeviations(manager, deps.readers, results, usedRunIds);
   // Everything the signature covers, read in this transaction: every later view of the job reads it.
   const record = await captureRecord(manager, {
-    jobResults: deps.results,
+    deps,
     job,
     instrument,
     customer,
@@ -146,7 +152,7 @@ export async function issueCertificate(manager: EntityManager, deps: IssueDeps, 
   const fileName = `${randomBytes(20).toString('hex')}.pdf`;
   const row = certificateRow({ number, revision, job, signer, meaning, now, fileName, sha256, signature, keyId: key.keyId, results, record });
   const certificateId = await storeCertificate(manager, draft, row, now);
-  await recordIssue(manager, { job, instrument, signer, meaning, number, revision, certificateId, sha256, keyId: key.keyId, replacesRevision: draft?.replacesRevision ?? null, now });
+  await recordIssue(manager, deps.readers, { job, instrument, signer, meaning, number, revision, certificateId, sha256, keyId: key.keyId, replacesRevision: draft?.replacesRevision ?? null, now });
   const clientEmails = await deps.readers.recipients.clientEmails(job.organizationId, manager);
   const recipients = [...new Set([customer.contactEmail, ...clientEmails].filter((e): e is string => !!e))];
   // Written last, just before the caller commits; removed by the caller if the commit fails.
@@ -166,10 +172,26 @@ export async function issueCertificate(manager: EntityManager, deps: IssueDeps, 
     instrumentLabel: instrumentLabel(instrument),
     verifyUrl: url,
     outcomes: results.outcomes,
+    reviewEvent: { jobId: job.id, action: 'sign', actorId: signer.id, comment: `${meaning} (certificate ${number} revision ${revision})`, at: now },
   };
 }
 
-type RowInput = { number: string; revision: number; job: Job; signer: User; meaning: string; now: Date; fileName: string; sha256: string; signature: string; keyId: string; results: JobResults & { outcomes: JobOutcomes }; record: SignedRecord };
+type Signer = { id: number; name: string };
+
+/** The instrument, its customer, the lab and the signer, from their owners in the signing transaction. */
+async function issueParties(manager: EntityManager, readers: IssueReaders, job: ReviewedJob, signerId: number): Promise<{ instrument: CertificateInstrument; customer: OrganizationContact; lab: OrganizationContact | null; signer: Signer }> {
+  const [instrument, customer, lab, names] = await Promise.all([
+    readers.instruments.identity(job.instrumentId, manager),
+    readers.organizations.byId(job.organizationId, manager),
+    readers.organizations.lab(manager),
+    readers.recipients.namesOf([signerId], manager),
+  ]);
+  // The job's foreign keys and the signed-in signer make these exist: a miss is a broken database, not bad input.
+  if (!instrument || !customer || !names.has(signerId)) throw new Error(`job ${job.number}: its instrument, customer or signer is missing`);
+  return { instrument, customer, lab, signer: { id: signerId, name: names.get(signerId)! } };
+}
+
+type RowInput = { number: string; revision: number; job: ReviewedJob; signer: Signer; meaning: string; now: Date; fileName: string; sha256: string; signature: string; keyId: string; results: JobResults & { outcomes: JobOutcomes }; record: SignedRecord };
 
 /** The certificate row as issued: who signed and when, the file, its digest and seal, and the results and record signed. */
 function certificateRow(input: RowInput): Partial<Certificate> {
@@ -199,8 +221,8 @@ function certificateRow(input: RowInput): Partial<Certificate> {
 }
 
 /** The job, locked for the signing, with its certificates (newest revision first) and a pending amendment's draft; refuses a job not in review or already issued. */
-async function lockSignableJob(manager: EntityManager, jobId: number): Promise<{ job: Job; existing: Certificate[]; draft: Certificate | null }> {
-  const job = await manager.findOne(Job, { where: { id: jobId }, lock: { mode: 'pessimistic_write' } });
+async function lockSignableJob(manager: EntityManager, readers: IssueReaders, jobId: number): Promise<{ job: ReviewedJob; existing: Certificate[]; draft: Certificate | null }> {
+  const job = await readers.jobs.job(jobId, manager, true);
   if (!job) throw new ConflictException(`job ${jobId} does not exist`);
   if (job.status !== 'in_review' && job.status !== 'approved') {
     throw new ConflictException(`job ${job.number} is ${job.status}: only a job in review can be signed`);
@@ -263,28 +285,24 @@ async function storeCertificate(manager: EntityManager, draft: Certificate | nul
   return certificateId;
 }
 
-type IssueRecord = { job: Job; instrument: Instrument; signer: User; meaning: string; number: string; revision: number; certificateId: number; sha256: string; keyId: string; replacesRevision: number | null; now: Date };
+type IssueRecord = { job: ReviewedJob; instrument: CertificateInstrument; signer: Signer; meaning: string; number: string; revision: number; certificateId: number; sha256: string; keyId: string; replacesRevision: number | null; now: Date };
 
-/** The job issued, the instrument's next due date, the review event and the audit trail, in the signing transaction. */
-async function recordIssue(manager: EntityManager, issue: IssueRecord): Promise<void> {
+/** The job issued, the instrument's next due date and the audit trail, in the signing transaction (the caller records the review event). */
+async function recordIssue(manager: EntityManager, readers: IssueReaders, issue: IssueRecord): Promise<void> {
   const { job, instrument, signer, meaning, number, revision, certificateId, sha256, now } = issue;
-  await manager.update(Job, { id: job.id }, { status: 'issued' });
+  await readers.jobStatus.setStatus(job.id, 'issued', manager);
   // The recall cycle restarts at issue: the next due date is the issue date plus the owner's interval.
-  if (instrument.recallIntervalMonths > 0) {
-    const due = new Date(now);
-    due.setUTCMonth(due.getUTCMonth() + instrument.recallIntervalMonths);
-    await manager.update(Instrument, { id: instrument.id }, { nextDueDate: due.toISOString().slice(0, 10) });
-  }
-  await manager.insert(JobReview, { jobId: job.id, action: 'sign', actorId: signer.id, comment: `${meaning} (certificate ${number} revision ${revision})`, at: now });
-  await audit(manager, { actorId: signer.id, entity: 'job', entityId: job.id, action: 'status', changes: { from: job.status, to: 'approved', meaning } });
-  await audit(manager, { actorId: signer.id, entity: 'job', entityId: job.id, action: 'status', changes: { from: 'approved', to: 'issued', certificate: number, revision } });
-  await audit(manager, {
+  await readers.instruments.restartRecall(instrument, now, manager);
+  const audit = readers.audit;
+  await audit.record({ actorId: signer.id, entity: 'job', entityId: job.id, action: 'status', changes: { from: job.status, to: 'approved', meaning } }, manager);
+  await audit.record({ actorId: signer.id, entity: 'job', entityId: job.id, action: 'status', changes: { from: 'approved', to: 'issued', certificate: number, revision } }, manager);
+  await audit.record({
     actorId: signer.id,
     entity: 'certificate',
     entityId: certificateId,
     action: 'issue',
     changes: { number, revision, sha256, keyId: issue.keyId, meaning, signedAt: now.toISOString(), replacesRevision: issue.replacesRevision },
-  });
+  }, manager);
 }
 
 /** Writes the sealed PDF under var/certificates (owner and group only) and returns its path. */
@@ -297,16 +315,16 @@ function writeCertificateFile(varDir: string, fileName: string, pdf: Buffer): st
 }
 
 type CaptureInput = {
-  job: Job;
-  jobResults: JobResultsService;
-  instrument: Instrument;
-  customer: Organization;
+  job: ReviewedJob;
+  deps: IssueDeps;
+  instrument: CertificateInstrument;
+  customer: OrganizationContact;
   lab: SignedRecord['lab'];
   results: JobResults;
   deviations: string[];
   usedRunIds: number[];
   runRows: Array<{ started: string; ended: string; supplyVoltage: number | null }>;
-  signer: User;
+  signer: Signer;
   meaning: string;
   now: Date;
 };
@@ -318,17 +336,16 @@ type CaptureInput = {
  */
 async function captureRecord(manager: EntityManager, input: CaptureInput): Promise<SignedRecord> {
   const { job, instrument, customer, results, now } = input;
-  const [procedure, ranges, technician, csv] = await Promise.all([
-    input.jobResults.procedure(job.id, manager),
-    manager.find(InstrumentRange, { where: { instrumentId: instrument.id }, order: { position: 'ASC' } }),
-    job.technicianId ? manager.findOneBy(User, { id: job.technicianId }) : Promise.resolve(null),
-    resultsCsv(manager, job.id, job.number),
+  const { readers } = input.deps;
+  const [procedure, ranges, technicianNames, csv, standards] = await Promise.all([
+    input.deps.results.procedure(job.id, manager),
+    readers.ranges.ranges(instrument.id, manager),
+    readers.recipients.namesOf(job.technicianId ? [job.technicianId] : [], manager),
+    resultsCsv(readers, job, manager),
+    readers.standards.figures(results.standards.map((s) => s.id), manager),
   ]);
-  const standardIds = results.standards.map((s) => s.id);
-  const standards = standardIds.length === 0 ? [] : await manager.findBy(Standard, { id: In(standardIds) });
-  if (input.usedRunIds.length > 0) {
-    await manager.query('UPDATE runs r JOIN standards s ON s.id = r.standard_id SET r.standard_version = s.version WHERE r.id IN (?)', [input.usedRunIds]);
-  }
+  await stampStandardVersions(manager, readers, job.id, input.usedRunIds);
+  const technician = job.technicianId ? { name: technicianNames.get(job.technicianId) ?? null } : null;
   return {
     schema: 1,
     job: {
@@ -353,7 +370,7 @@ async function captureRecord(manager: EntityManager, input: CaptureInput): Promi
       assetTag: instrument.assetTag,
       description: instrument.description,
       label: instrumentLabel(instrument),
-      ranges: ranges.map(toRangeView),
+      ranges,
     },
     customer: { id: customer.id, name: customer.name, contactEmail: customer.contactEmail },
     lab: input.lab,
@@ -368,12 +385,21 @@ async function captureRecord(manager: EntityManager, input: CaptureInput): Promi
       driftHz: procedure.driftHz,
       extraComponents: procedure.extraComponents,
     },
-    standards: standards.map(standardFigures).sort((a, b) => standardIds.indexOf(a.id) - standardIds.indexOf(b.id)),
+    standards,
     results,
     deviations: input.deviations,
     resultsCsv: csv,
     signatory: { id: input.signer.id, name: input.signer.name, role: SIGNATORY_ROLE, meaning: input.meaning, signedAt: now.toISOString() },
   };
+}
+
+/** Stamps each used run with the version its standard has now (the version the record names). */
+async function stampStandardVersions(manager: EntityManager, readers: IssueReaders, jobId: number, usedRunIds: number[]): Promise<void> {
+  if (usedRunIds.length === 0) return;
+  const used = new Set(usedRunIds);
+  const standardIds = (await readers.runs.calibrationRuns(jobId, manager)).flatMap((r) => (used.has(r.id) && r.standardId !== null ? [r.standardId] : []));
+  const versions = await readers.standards.references(standardIds, manager);
+  await readers.runStandards.stamp(usedRunIds, new Map([...versions].map(([id, s]) => [id, s.version])), manager);
 }
 
 /** Runs `work` (which issues a certificate) in a transaction; the PDF file goes if the transaction fails. */

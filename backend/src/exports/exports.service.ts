@@ -1,15 +1,16 @@
 import { Injectable, NotFoundException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
 import type { Response } from 'express';
-import type { DataSource } from 'typeorm';
 import { READINGS_CSV_COLUMNS } from '@kilocycle/common/types';
 import { organizationScope, type AuthUser } from '../shared/auth-user.js';
-import { loadSignedRecord } from '../certificates/signed-record.js';
+import { SignedRecordReader } from '../certificates/signed-record.reader.js';
+import { RangeResultsReader } from '../instruments/range-results.reader.js';
 import { JobsService } from '../jobs/jobs.service.js';
+import { ReadingResultsReader } from '../readings/reading-results.reader.js';
 import { RunReadingsReader, type StreamedCell, type StreamFlow } from '../readings/run-readings.reader.js';
 import { RunContextReader } from '../runs/run-context.reader.js';
+import { RunResultsReader } from '../runs/run-results.reader.js';
 import { attachmentDisposition, csvLine } from '../shared/csv.js';
-import { resultsCsv } from './results-csv.js';
+import { resultsCsv, type ResultsCsvSources } from '../shared/results-csv.js';
 
 type RowCell = StreamedCell;
 
@@ -19,12 +20,20 @@ const CHUNK = 64 * 1024;
 /** CSV exports, in the same organisation scope as the pages: a client gets its own organisation's, anything else is 404. */
 @Injectable()
 export class ExportsService {
+  /** The owners' readers a job's results CSV is built from. */
+  private readonly csvSources: ResultsCsvSources;
+
   constructor(
-    @InjectDataSource() private readonly dataSource: DataSource,
     private readonly runs: RunContextReader,
     private readonly readingsOf: RunReadingsReader,
     private readonly jobs: JobsService,
-  ) {}
+    private readonly signedRecords: SignedRecordReader,
+    runResults: RunResultsReader,
+    ranges: RangeResultsReader,
+    readingResults: ReadingResultsReader,
+  ) {
+    this.csvSources = { runs: runResults, ranges, readings: readingResults };
+  }
 
   /**
    * Every reading of a run, excluded ones flagged with their reason, streamed from the database to the
@@ -85,8 +94,8 @@ export class ExportsService {
    */
   async results(actor: AuthUser, jobId: number, res: Response): Promise<void> {
     const job = await this.jobs.findVisible(actor, jobId);
-    const signed = await loadSignedRecord(this.dataSource.manager, jobId);
-    const body = signed?.record?.resultsCsv ?? (await resultsCsv(this.dataSource.manager, jobId, String(job.number)));
+    const signed = await this.signedRecords.signedRecord(jobId);
+    const body = signed?.record?.resultsCsv ?? (await resultsCsv(this.csvSources, { id: jobId, number: String(job.number), instrumentId: job.instrumentId }));
     res.setHeader('Content-Type', 'text/csv; charset=utf-8');
     res.setHeader('Content-Disposition', attachmentDisposition(`${signed?.record?.job.number ?? job.number}-results.csv`));
     res.setHeader('Cache-Control', 'private, no-store');

@@ -5,14 +5,17 @@ import { InstrumentRange } from './instrument-range.entity.js';
 import { Instrument } from './instrument.entity.js';
 import { InstrumentsController } from './instruments.controller.js';
 import { InstrumentsService } from './instruments.service.js';
+import { CertificateInstrumentWriter } from './certificate-instrument.writer.js';
 import { InstrumentComparisonReader } from './instrument-comparison.reader.js';
+import { JobInstrumentReader } from './job-instrument.reader.js';
 import { RangeResultsReader } from './range-results.reader.js';
 import { RecallInstrumentsReader } from './recall-instruments.reader.js';
+import { ReviewInstrumentsReader } from './review-instruments.reader.js';
 
 @Module({
   imports: [TypeOrmModule.forFeature([Instrument, InstrumentRange]), OrganizationsModule],
   controllers: [InstrumentsController],
-  providers: [InstrumentsService, RangeResultsReader, InstrumentComparisonReader, RecallInstrumentsReader],
-  exports: [InstrumentsService, RangeResultsReader, InstrumentComparisonReader, RecallInstrumentsReader],
+  providers: [InstrumentsService, RangeResultsReader, InstrumentComparisonReader, RecallInstrumentsReader, JobInstrumentReader, ReviewInstrumentsReader, CertificateInstrumentWriter],
+  exports: [InstrumentsService, RangeResultsReader, InstrumentComparisonReader, RecallInstrumentsReader, JobInstrumentReader, ReviewInstrumentsReader, CertificateInstrumentWriter],
 })
 export class InstrumentsModule {}

@@ -1,6 +1,6 @@
 import type { DataSource } from 'typeorm';
 import type { RecallNotice as RecallNoticeView, RecallRunResult } from '@kilocycle/common/types';
-import { readSettings } from '../certificates/certificate-settings.js';
+import { CertificateSettingsReader } from '../certificates/certificate-settings.reader.js';
 import { RecallInstrumentsReader, type RecallInstrument } from '../instruments/recall-instruments.reader.js';
 import { recallReminderMail, type OutgoingMail } from '../mail/mail.service.js';
 import { OrganizationsReader } from '../organizations/organizations.reader.js';
@@ -46,7 +46,7 @@ export async function runRecall(
   options: { publicUrl: string; now?: Date },
 ): Promise<RecallRunResult> {
   const now = options.now ?? new Date();
-  const settings = await readSettings(dataSource.manager);
+  const settings = await new CertificateSettingsReader(dataSource).read();
   const until = addDays(now, settings.recallNoticeDays);
   const rows = await dueRows(dataSource, until);
   const lab = await new OrganizationsReader(dataSource).lab();

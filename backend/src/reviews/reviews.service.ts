@@ -1,13 +1,13 @@
-import { BadRequestException, ConflictException, ForbiddenException, Inject, Injectable, Logger } from '@nestjs/common';
+import { BadRequestException, ConflictException, ForbiddenException, Inject, Injectable, Logger, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import bcrypt from 'bcryptjs';
 import type { DataSource, EntityManager } from 'typeorm';
-import { SIGNING_MEANING, type SignedRecord, type CertificateDetail, type JobReview as JobReviewView, type ReviewEvent, type ReviewFlag } from '@kilocycle/common/types';
+import { SIGNING_MEANING, type SignedRecord, type CertificateDetail, type JobReview as JobReviewView, type JobStatus, type ReviewEvent, type ReviewFlag } from '@kilocycle/common/types';
 import { selfSignRefusal } from '@kilocycle/common/rules';
+import { AuditLogService } from '../audit/audit-log.service.js';
 import { AuditService } from '../audit/audit.service.js';
-import type { AuthUser } from '../shared/auth-user.js';
+import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { SignInThrottle } from '../auth/sign-in-throttle.service.js';
-import { findScopedJob } from '../budgets/job-access.js';
 import { JobResultsService } from '../budgets/job-results.service.js';
 import { ReadingResultsReader } from '../readings/reading-results.reader.js';
 import { RunResultsReader } from '../runs/run-results.reader.js';
@@ -15,22 +15,21 @@ import { RangeResultsReader } from '../instruments/range-results.reader.js';
 import { StandardResultsReader } from '../standards/standard-results.reader.js';
 import { ActorDirectory } from '../shared/actor-directory.js';
 import { RunReadingStatsSource } from '../shared/run-reading-stats.js';
-import { CertificateRecipientsReader } from '../users/certificate-recipients.reader.js';
-import { Certificate } from '../certificates/certificate.entity.js';
-import { readSettings } from '../certificates/certificate-settings.js';
+import { CertificateIssuer } from '../certificates/certificate-issuer.service.js';
+import { CertificateSettingsReader } from '../certificates/certificate-settings.reader.js';
 import { CertificatesService } from '../certificates/certificates.service.js';
-import { loadSignedRecord } from '../certificates/signed-record.js';
-import { instrumentLabel, issueCertificate, withCertificateFile, type IssueReaders } from '../certificates/issue-certificate.js';
+import { SignedRecordReader } from '../certificates/signed-record.reader.js';
+import { instrumentLabel } from '../shared/instrument-label.js';
 import { APP_CONFIG, type AppConfig } from '../config/config.module.js';
-import { Instrument } from '../instruments/instrument.entity.js';
-import { Job } from '../jobs/job.entity.js';
-import { certificateIssuedMail, jobReturnedMail } from '../mail/mail-templates.js';
+import { ReviewInstrumentsReader, type ReviewInstrument } from '../instruments/review-instruments.reader.js';
+import { JobStatusWriter } from '../jobs/job-status.writer.js';
+import { ReviewJobsReader, type ReviewedJob } from '../jobs/review-jobs.reader.js';
 import { MailService } from '../mail/mail.service.js';
-import { Organization } from '../organizations/organization.entity.js';
-import { User } from '../users/user.entity.js';
+import { OrganizationsReader } from '../organizations/organizations.reader.js';
+import { AccountsReader } from '../users/accounts.reader.js';
 import { missingStandards } from '@kilocycle/common/rules';
 import { JobReview } from './job-review.entity.js';
-import { readSignerDeeds } from './signer-deeds.js';
+import { readSignerDeeds, type SignerDeedSources } from './signer-deeds.js';
 
 const SUBMITTABLE = ['in_progress', 'returned'] as const;
 
@@ -48,19 +47,41 @@ export class ReviewsService {
     private readonly jobResults: JobResultsService,
     private readonly runResults: RunResultsReader,
     private readonly readingResults: ReadingResultsReader,
-    recipients: CertificateRecipientsReader,
+    private readonly issuer: CertificateIssuer,
+    private readonly certificateSettings: CertificateSettingsReader,
+    private readonly signedRecords: SignedRecordReader,
     private readonly rangeResults: RangeResultsReader,
     private readonly standardResults: StandardResultsReader,
     private readonly readingStats: RunReadingStatsSource,
     private readonly actors: ActorDirectory,
+    private readonly jobs: ReviewJobsReader,
+    private readonly jobStatus: JobStatusWriter,
+    private readonly instruments: ReviewInstrumentsReader,
+    private readonly organizations: OrganizationsReader,
+    private readonly accounts: AccountsReader,
+    auditLog: AuditLogService,
   ) {
-    this.issueReaders = { runs: runResults, readings: readingResults, recipients };
+    this.deedSources = { runs: runResults, audit: auditLog, readings: readingResults };
   }
 
-  private readonly issueReaders: IssueReaders;
+  private readonly deedSources: SignerDeedSources;
 
-  private async changeStatus(manager: EntityManager, actor: AuthUser, job: Job, to: Job['status'], action: 'submit' | 'return', comment: string | null): Promise<void> {
-    await manager.update(Job, { id: job.id }, { status: to });
+  /** A job the user may see; another organisation's job answers 404 as if it did not exist. With `lock`, its row is locked in the transaction. */
+  private async scopedJob(user: AuthUser, jobId: number, manager?: EntityManager, lock = false): Promise<ReviewedJob> {
+    const job = await this.jobs.job(jobId, manager, lock);
+    const scope = organizationScope(user);
+    if (!job || (scope !== null && job.organizationId !== scope)) throw new NotFoundException(`Job ${jobId} not found`);
+    return job;
+  }
+
+  private async instrumentOf(job: ReviewedJob): Promise<ReviewInstrument> {
+    const instrument = await this.instruments.instrument(job.instrumentId);
+    if (!instrument) throw new Error(`instrument ${job.instrumentId} of job ${job.number} does not exist`);
+    return instrument;
+  }
+
+  private async changeStatus(manager: EntityManager, actor: AuthUser, job: ReviewedJob, to: JobStatus, action: 'submit' | 'return', comment: string | null): Promise<void> {
+    await this.jobStatus.setStatus(job.id, to, manager);
     await manager.insert(JobReview, { jobId: job.id, action, actorId: actor.id, comment });
     // Same shape as the jobs module's status changes, so its "returnComment" reads ours too.
     await this.audit.record({ actorId: actor.id, entity: 'job', entityId: job.id, action: 'status', changes: { from: job.status, to, comment } }, manager);
@@ -68,7 +89,7 @@ export class ReviewsService {
 
   async submit(actor: AuthUser, jobId: number, comment: string | null): Promise<JobReviewView> {
     await this.dataSource.transaction(async (manager) => {
-      const job = await findScopedJob(manager, actor, jobId, true);
+      const job = await this.scopedJob(actor, jobId, manager, true);
       if (!(SUBMITTABLE as readonly string[]).includes(job.status)) {
         throw new ConflictException(`job ${job.number} is ${job.status}: only a job in progress or returned can be submitted for review`);
       }
@@ -90,7 +111,7 @@ export class ReviewsService {
 
   async returnJob(actor: AuthUser, jobId: number, comment: string): Promise<JobReviewView> {
     const job = await this.dataSource.transaction(async (manager) => {
-      const found = await findScopedJob(manager, actor, jobId, true);
+      const found = await this.scopedJob(actor, jobId, manager, true);
       if (found.status !== 'in_review') throw new ConflictException(`job ${found.number} is ${found.status}: only a job in review can be returned`);
       await this.changeStatus(manager, actor, found, 'returned', 'return', comment);
       return found;
@@ -99,21 +120,26 @@ export class ReviewsService {
     return this.review(actor, jobId);
   }
 
-  private async mailReturned(actor: AuthUser, job: Job, comment: string): Promise<void> {
-    const manager = this.dataSource.manager;
-    let technician = job.technicianId ? await manager.findOneBy(User, { id: job.technicianId, active: true }) : null;
+  /** The active account of this user, or null. */
+  private async activeAccount(userId: number): Promise<{ email: string; name: string } | null> {
+    const account = await this.accounts.byId(userId);
+    return account?.active ? account : null;
+  }
+
+  private async mailReturned(actor: AuthUser, job: ReviewedJob, comment: string): Promise<void> {
+    let technician = job.technicianId ? await this.activeAccount(job.technicianId) : null;
     if (!technician) {
       // No technician assigned: whoever captured the job's latest run.
       const latest = (await this.runResults.jobRuns(job.id)).at(-1);
-      technician = latest ? await manager.findOneBy(User, { id: latest.createdBy, active: true }) : null;
+      technician = latest ? await this.activeAccount(latest.createdBy) : null;
     }
     if (!technician) {
       this.logger.warn(`job ${job.number} returned, but it has no technician to tell`);
       return;
     }
-    const instrument = await manager.findOneByOrFail(Instrument, { id: job.instrumentId });
-    await this.mail.sendSafely(
-      jobReturnedMail({
+    const instrument = await this.instrumentOf(job);
+    await this.mail.sendJobReturned(
+      {
         to: technician.email,
         technician: technician.name,
         lead: actor.name,
@@ -121,12 +147,12 @@ export class ReviewsService {
         instrument: instrumentLabel(instrument),
         comment,
         jobUrl: `${this.config.publicUrl}/jobs/${job.id}`,
-      }),
+      },
       { entity: 'job', entityId: job.id },
     );
   }
 
-  private async refuse(actor: AuthUser, job: Job, reason: string): Promise<void> {
+  private async refuse(actor: AuthUser, job: ReviewedJob, reason: string): Promise<void> {
     await this.dataSource.transaction(async (manager) => {
       await manager.insert(JobReview, { jobId: job.id, action: 'sign_refused', actorId: actor.id, comment: reason });
       await this.audit.record({ actorId: actor.id, entity: 'job', entityId: job.id, action: 'sign_refused', changes: { reason } }, manager);
@@ -135,37 +161,36 @@ export class ReviewsService {
 
   /** What the user did to the job's data, in words ("you entered 10 readings of run 12 …: another lead must sign"), or null. */
   private async selfCaptured(manager: EntityManager, jobId: number, userId: number): Promise<string | null> {
-    return selfSignRefusal(await readSignerDeeds(manager, jobId, userId));
+    return selfSignRefusal(await readSignerDeeds(this.deedSources, jobId, userId, manager));
   }
 
   /**
    * Signing: the lead's password again (403, audited, when wrong: not 401, which would end the session),
-   * the agreed meaning, no self-signing unless the admin allows it; then issueCertificate in one
+   * the agreed meaning, no self-signing unless the admin allows it; then CertificateIssuer.issue in one
    * transaction (the PDF file goes if it fails) and, after commit, the customer's mail with the PDF.
    */
   async sign(actor: AuthUser, jobId: number, password: string, meaning: string): Promise<CertificateDetail> {
-    const job = await findScopedJob(this.dataSource.manager, actor, jobId);
+    const job = await this.scopedJob(actor, jobId);
     if (meaning !== SIGNING_MEANING) throw new BadRequestException(`meaning must be "${SIGNING_MEANING}"`);
     await this.signThrottle.checkSignOff(actor.id);
-    const me = await this.dataSource.getRepository(User).createQueryBuilder('u').addSelect('u.passwordHash').where('u.id = :id', { id: actor.id }).getOne();
-    if (!me || !(await bcrypt.compare(password, me.passwordHash))) {
+    const passwordHash = await this.accounts.passwordHash(actor.id);
+    if (!passwordHash || !(await bcrypt.compare(password, passwordHash))) {
       await this.signThrottle.recordSignOffFailure(actor.id);
       await this.refuse(actor, job, 'wrong password');
       throw new ForbiddenException('Password is not right: the job was not signed');
     }
-    const settings = await readSettings(this.dataSource.manager);
+    const settings = await this.certificateSettings.read();
     const captured = settings.allowSelfSign ? null : await this.selfCaptured(this.dataSource.manager, job.id, actor.id);
     if (captured) {
       await this.refuse(actor, job, captured);
       throw new ForbiddenException(`${captured.charAt(0).toUpperCase()}${captured.slice(1)} (or an admin allows self-signing)`);
     }
-    const outcome = await withCertificateFile(this.dataSource, (manager) => issueCertificate(manager, { config: this.config, results: this.jobResults, readers: this.issueReaders }, { jobId: job.id, signerId: actor.id, meaning }),
-    );
+    const outcome = await this.issuer.issue({ jobId: job.id, signerId: actor.id, meaning });
     if (outcome.recipients.length === 0) {
       this.logger.warn(`certificate ${outcome.number} issued, but ${outcome.customer} has no contact address to mail`);
     } else {
-      await this.mail.sendSafely(
-        certificateIssuedMail({
+      await this.mail.sendCertificateIssued(
+        {
           to: outcome.recipients,
           labName: outcome.labName,
           number: outcome.number,
@@ -177,7 +202,7 @@ export class ReviewsService {
           outcomes: outcome.outcomes,
           pdf: outcome.pdf,
           fileName: outcome.downloadName,
-        }),
+        },
         { entity: 'certificate', entityId: outcome.certificateId },
       );
     }
@@ -186,19 +211,20 @@ export class ReviewsService {
 
   async review(user: AuthUser, jobId: number): Promise<JobReviewView> {
     const manager = this.dataSource.manager;
-    const job = await findScopedJob(manager, user, jobId);
+    const job = await this.scopedJob(user, jobId, manager);
     // A signed job is shown as it was signed: results, instrument, customer and standards from its record.
-    const signed = await loadSignedRecord(manager, job.id);
+    const signed = await this.signedRecords.signedRecord(job.id, manager);
     const frozen = signed?.record ?? null;
-    const [instrument, organization, technician, results, settings] = await Promise.all([
-      manager.findOneByOrFail(Instrument, { id: job.instrumentId }),
-      manager.findOneByOrFail(Organization, { id: job.organizationId }),
-      job.technicianId ? manager.findOneBy(User, { id: job.technicianId }) : Promise.resolve(null),
+    const [instrument, organization, technicianName, results, settings] = await Promise.all([
+      this.instrumentOf(job),
+      this.organizations.byId(job.organizationId, manager),
+      job.technicianId ? this.actors.namesOf([job.technicianId]).then((names) => names.get(job.technicianId!) ?? null) : Promise.resolve(null),
       signed ? Promise.resolve(signed.results) : this.jobResults.compute(job.id, manager),
-      readSettings(manager),
+      this.certificateSettings.read(manager),
     ]);
+    if (!organization) throw new Error(`organization ${job.organizationId} of job ${job.number} does not exist`);
     const { runs, excludedReadings } = await this.reviewRuns(job, results, frozen);
-    const draft = await manager.findOne(Certificate, { where: { jobId: job.id, status: 'draft' } });
+    const amendment = await this.certificates.pendingAmendment(job.id);
     const flags: ReviewFlag[] = [...results.flags];
     const selfCaptured = user.role === 'lead' ? await this.selfCaptured(manager, job.id, user.id) : null;
     if (selfCaptured) {
@@ -221,10 +247,10 @@ export class ReviewsService {
         organizationName: frozen?.customer.name ?? organization.name,
         instrumentId: job.instrumentId,
         instrumentLabel: frozen?.instrument.label ?? instrumentLabel(instrument),
-        receivedDate: frozen?.job.receivedDate ?? (typeof job.receivedDate === 'string' ? job.receivedDate.slice(0, 10) : new Date(job.receivedDate).toISOString().slice(0, 10)),
+        receivedDate: frozen?.job.receivedDate ?? job.receivedDate,
         conditionReceived: frozen ? frozen.job.conditionReceived : job.conditionReceived,
         technicianId: job.technicianId,
-        technicianName: frozen ? frozen.job.technicianName : (technician?.name ?? null),
+        technicianName: frozen ? frozen.job.technicianName : technicianName,
         ambientTempC: frozen ? frozen.job.ambientTempC : job.ambientTempC,
         humidityPct: frozen ? frozen.job.humidityPct : job.humidityPct,
       },
@@ -233,9 +259,7 @@ export class ReviewsService {
       excludedReadings,
       flags,
       history: await this.history(job.id),
-      amendment: draft
-        ? { certificateNumber: draft.number, revision: draft.revision, replacesRevision: draft.replacesRevision ?? draft.revision - 1, reason: draft.amendmentReason ?? '' }
-        : null,
+      amendment,
       canSign: signBlockers.length === 0,
       signBlockers,
     };
@@ -245,7 +269,7 @@ export class ReviewsService {
    * The job's runs (range, standard, who captured them, reading counts, whether the results use them) and their
    * excluded readings, read from their owners; a signed job names its ranges and standards as they were signed.
    */
-  private async reviewRuns(job: Job, results: JobReviewView['results'], frozen: SignedRecord | null): Promise<Pick<JobReviewView, 'runs' | 'excludedReadings'>> {
+  private async reviewRuns(job: ReviewedJob, results: JobReviewView['results'], frozen: SignedRecord | null): Promise<Pick<JobReviewView, 'runs' | 'excludedReadings'>> {
     const runs = await this.runResults.jobRuns(job.id);
     const runIds = runs.map((r) => r.id);
     const [ranges, standards, stats, exclusions] = await Promise.all([

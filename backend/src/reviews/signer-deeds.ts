@@ -1,5 +1,11 @@
 import type { EntityManager } from 'typeorm';
 import type { SignerDeed } from '@kilocycle/common/types';
+import type { AuditLogService } from '../audit/audit-log.service.js';
+import type { ReadingResultsReader } from '../readings/reading-results.reader.js';
+import type { RunResultsReader } from '../runs/run-results.reader.js';
+
+/** The owners asked: runs (the job's runs and who opened them), audit (the events) and readings (exclusions). */
+export type SignerDeedSources = { runs: RunResultsReader; audit: AuditLogService; readings: ReadingResultsReader };
 
 /**
  * What a user did to a job's data, for the no-self-sign rule: the runs they opened (runs.created_by),
@@ -7,32 +13,24 @@ import type { SignerDeed } from '@kilocycle/common/types';
  * each import and each budget edit writes its event in the same transaction as the change), and the
  * readings they excluded (reading_exclusions.excluded_by, the record itself). The readings' own author
  * column says the same as the batch events; it is not scanned here, as a run may hold a million readings.
+ * One call per owner: the job's runs first, then their audit events and exclusions together.
  */
-export async function readSignerDeeds(manager: EntityManager, jobId: number, userId: number): Promise<SignerDeed[]> {
-  const [opened, events, excluded] = await Promise.all([
-    manager.query('SELECT id FROM runs WHERE job_id = ? AND created_by = ? ORDER BY id', [jobId, userId]) as Promise<Array<{ id: number }>>,
-    manager.query(
-      `SELECT e.entity_id, e.action, e.changes FROM audit_events e
-        WHERE e.entity = 'run' AND e.actor_id = ? AND e.action IN ('readings', 'import', 'budget')
-          AND e.entity_id IN (SELECT CAST(id AS CHAR) FROM runs WHERE job_id = ?)
-        ORDER BY e.id`,
-      [userId, jobId],
-    ) as Promise<Array<{ entity_id: string; action: string; changes: unknown }>>,
-    manager.query(
-      `SELECT x.run_id, r.seq FROM reading_exclusions x JOIN readings r ON r.id = x.reading_id JOIN runs u ON u.id = x.run_id
-        WHERE u.job_id = ? AND x.excluded_by = ? ORDER BY x.run_id, r.seq`,
-      [jobId, userId],
-    ) as Promise<Array<{ run_id: number; seq: number }>>,
+export async function readSignerDeeds(sources: SignerDeedSources, jobId: number, userId: number, manager?: EntityManager): Promise<SignerDeed[]> {
+  const runs = (await sources.runs.jobRuns(jobId, manager)).sort((a, b) => a.id - b.id);
+  const runIds = runs.map((r) => r.id);
+  const [events, exclusions] = await Promise.all([
+    sources.audit.actorEvents('run', runIds.map(String), userId, ['readings', 'import', 'budget'], manager),
+    sources.readings.exclusions(runIds, manager),
   ]);
-  const deeds: SignerDeed[] = opened.map((r) => ({ kind: 'opened_run', runId: Number(r.id) }));
+  const deeds: SignerDeed[] = runs.filter((r) => r.createdBy === userId).map((r) => ({ kind: 'opened_run', runId: r.id }));
   for (const e of events) {
-    const runId = Number(e.entity_id);
-    const changes = (typeof e.changes === 'string' ? JSON.parse(e.changes) : e.changes) as Record<string, unknown> | null;
+    const runId = Number(e.entityId);
+    const changes = e.changes;
     if (e.action === 'budget') deeds.push({ kind: 'edited_budget', runId });
     else if (e.action === 'import') deeds.push({ kind: 'imported', runId, readings: Number(changes?.imported ?? 0) });
     else if (changes?.source === 'import') deeds.push({ kind: 'imported', runId, readings: Number(changes.accepted ?? 0) });
     else deeds.push({ kind: 'entered', runId, readings: Number(changes?.accepted ?? 0) });
   }
-  for (const x of excluded) deeds.push({ kind: 'excluded', runId: Number(x.run_id), seq: Number(x.seq) });
+  for (const x of exclusions) if (x.excludedBy === userId) deeds.push({ kind: 'excluded', runId: x.runId, seq: x.seq });
   return deeds;
 }

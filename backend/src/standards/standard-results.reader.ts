@@ -1,7 +1,9 @@
 import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
-import type { StandardReference } from '@kilocycle/common/types';
-import type { DataSource, EntityManager } from 'typeorm';
+import type { StandardReference, StandardVersion } from '@kilocycle/common/types';
+import { In, type DataSource, type EntityManager } from 'typeorm';
+import { Standard } from './standard.entity.js';
+import { standardFigures } from './standard-versions.js';
 
 /** A standard as a certificate names it, with the version of its row read here. */
 export type VersionedStandard = { reference: StandardReference; version: number };
@@ -40,5 +42,12 @@ export class StandardResultsReader {
         },
       ]),
     );
+  }
+
+  /** The figures of these standards as their version is kept (what a signed record names), in the order of `ids`. */
+  async figures(ids: readonly number[], manager?: EntityManager): Promise<StandardVersion[]> {
+    if (ids.length === 0) return [];
+    const found = await (manager ?? this.dataSource.manager).findBy(Standard, { id: In([...ids]) });
+    return found.map(standardFigures).sort((a, b) => ids.indexOf(a.id) - ids.indexOf(b.id));
   }
 }
