@@ -8,8 +8,8 @@ import { loadConfig } from '../config/config.module.js';
 import { InstrumentRange } from '../instruments/instrument-range.entity.js';
 import { Instrument } from '../instruments/instrument.entity.js';
 import { addDays, lcOscillator, seededGaussian } from '../shared/demo-signals.js';
+import type { JobReviewEvents } from '../shared/job-review-events.js';
 import { Job } from '../jobs/job.entity.js';
-import { JobReview } from '../reviews/job-review.entity.js';
 import { Run } from '../runs/run.entity.js';
 import type { DemoContext } from '../seed/demo-seed.js';
 import { Standard } from '../standards/standard.entity.js';
@@ -29,7 +29,7 @@ const TOLERANCE: Tolerance = { kind: 'percent', percent: 0.25 };
  * as left, three readings a setting) and signed by the demo lead through the same code path as the API,
  * so the stored PDF verifies. Also the laboratory's address and a guarded-acceptance procedure.
  */
-export async function seedDemoCertificates({ manager, customerIds, userIds }: DemoContext): Promise<void> {
+export async function seedDemoCertificates({ manager, customerIds, userIds }: DemoContext, reviewEvents: JobReviewEvents): Promise<void> {
   const config = loadConfig();
   const today = new Date();
   const at = (offset: number, hour: number, minute = 0) => new Date(`${addDays(today, offset)}T${String(hour).padStart(2, '0')}:${String(minute).padStart(2, '0')}:00Z`);
@@ -43,10 +43,10 @@ export async function seedDemoCertificates({ manager, customerIds, userIds }: De
   const { instrumentId, ranges } = await seedVfo(manager, customerIds.northgate, today);
   const jobId = await seedVfoJob(manager, { instrumentId, organizationId: customerIds.northgate, technicianId: tech, procedureId: guarded, today });
   await seedVfoRuns(manager, { jobId, ranges, standardId: counter.id, technicianId: tech, at });
-  await manager.insert(JobReview, { jobId, action: 'submit', actorId: tech, comment: 'All three ranges aligned; as-found range 3 was well out.', at: at(-7, 16) });
+  await reviewEvents.record({ jobId, action: 'submit', actorId: tech, comment: 'All three ranges aligned; as-found range 3 was well out.', at: at(-7, 16) }, manager);
   const issued = await issueCertificate(manager, { config, results: JobResultsService.over(manager.connection), readers: issueReadersOver(manager.connection) }, { jobId, signerId: lead, now: at(-6, 11, 20) });
   // The job's review history is the reviews module's: issuing hands its "sign" event back to record.
-  await manager.insert(JobReview, issued.reviewEvent);
+  await reviewEvents.record(issued.reviewEvent, manager);
 }
 
 /** A guarded-acceptance procedure with one extra component, and its first version. */
