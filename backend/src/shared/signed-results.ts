@@ -3,7 +3,7 @@ import type { JobResults } from '@kilocycle/common/types';
 
 /**
  * The results a signed job was signed with, for budgets (its results route shows them instead of computing
- * anew). Declared here and provided by CertificatesModule (SignedResultsReader), which owns the signed
+ * anew). Declared here and provided by CertificatesModule (SignedRecordReader), which owns the signed
  * records, so that budgets can ask without importing certificates, which itself depends on budgets for a
  * job's results: the dependency points one way, certificates → budgets.
  */
