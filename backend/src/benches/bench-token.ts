@@ -1,6 +1,6 @@
 import { createHash, randomBytes } from 'node:crypto';
 import type { EntityManager } from 'typeorm';
-import { AuditEvent } from '../audit/audit-event.entity.js';
+import { AuditService } from '../audit/audit.service.js';
 import { Bench } from './bench.entity.js';
 
 /** Bench tokens start with this, so one pasted in the wrong place is recognisable. */
@@ -24,6 +24,6 @@ export function hashBenchToken(token: string): string {
 export async function issueBenchToken(manager: EntityManager, benchId: number, actorId: number | null, via: 'api' | 'cli'): Promise<string> {
   const token = newBenchToken();
   await manager.update(Bench, { id: benchId }, { tokenHash: hashBenchToken(token), tokenIssuedAt: new Date() });
-  await manager.insert(AuditEvent, { actorId, entity: 'bench', entityId: String(benchId), action: 'token_issue', changes: { via } as never });
+  await AuditService.within(manager).record({ actorId, entity: 'bench', entityId: benchId, action: 'token_issue', changes: { via } }, manager);
   return token;
 }

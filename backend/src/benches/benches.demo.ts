@@ -1,5 +1,4 @@
 import type { EntityManager } from 'typeorm';
-import { AuditEvent } from '../audit/audit-event.entity.js';
 import { AuditService } from '../audit/audit.service.js';
 import { Bench } from './bench.entity.js';
 
@@ -12,7 +11,7 @@ export const DEMO_BENCHES = { main: 'Bench 1', cage: 'Bench 2 (screened room)' }
 export async function insertDemoBenches(manager: EntityManager, standardId: number | null): Promise<number> {
   const benchId = (await manager.insert(Bench, { name: DEMO_BENCHES.main, location: 'Main bench, under the window', defaultStandardId: standardId })).identifiers[0].id as number;
   await manager.insert(Bench, { name: DEMO_BENCHES.cage, location: 'Screened room, for receivers', defaultStandardId: standardId });
-  await new AuditService(manager.getRepository(AuditEvent)).record(
+  await AuditService.within(manager).record(
     { actorId: null, entity: 'bench', entityId: benchId, action: 'create', changes: { name: DEMO_BENCHES.main, defaultStandardId: standardId } },
     manager,
   );

@@ -6,7 +6,7 @@ import type { Bench as BenchView, BenchTokenResponse, ListResponse } from '@kilo
 import { AuditService } from '../audit/audit.service.js';
 import type { AuthUser } from '../shared/auth-user.js';
 import { likePattern, paginate } from '../shared/paginate.js';
-import { Standard } from '../standards/standard.entity.js';
+import { StandardResultsReader } from '../standards/standard-results.reader.js';
 import { Bench } from './bench.entity.js';
 import { hashBenchToken, issueBenchToken } from './bench-token.js';
 import type { CreateBenchDto, ListBenchesQueryDto, UpdateBenchDto } from './dto/bench.dto.js';
@@ -38,6 +38,7 @@ export class BenchesService {
     @InjectRepository(Bench) private readonly benches: Repository<Bench>,
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly audit: AuditService,
+    private readonly standards: StandardResultsReader,
   ) {}
 
   list(query: ListBenchesQueryDto): Promise<ListResponse<BenchView>> {
@@ -122,7 +123,7 @@ export class BenchesService {
 
   private async checkStandard(manager: EntityManager, standardId: number | null | undefined): Promise<void> {
     if (standardId === undefined || standardId === null) return;
-    if (!(await manager.existsBy(Standard, { id: standardId }))) {
+    if (!(await this.standards.references([standardId], manager)).has(standardId)) {
       throw new BadRequestException(`defaultStandardId: there is no reference standard ${standardId}`);
     }
   }

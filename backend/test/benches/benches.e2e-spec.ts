@@ -10,7 +10,8 @@ import { connect, listen, request } from '../ingest/ingest-fixtures.js';
 import { createTestApp, DEMO, tokenFor, type TestApp } from '../support/test-app.js';
 
 const run = promisify(execFile);
-const CLI = join(REPO_ROOT, 'backend', 'dist', 'benches', 'bench-token-cli.js');
+// `bin/kilocycle bench …` runs the command line's composition root with `bench` first.
+const CLI = join(REPO_ROOT, 'backend', 'dist', 'cli.js');
 const sha256 = (text: string) => createHash('sha256').update(text).digest('hex');
 
 describe('benches and bench tokens (e2e, MariaDB)', () => {
@@ -117,7 +118,7 @@ describe('benches and bench tokens (e2e, MariaDB)', () => {
 
     it('should print only a fresh token, store its hash and audit it with no actor', async () => {
       const bench = (await t.http.post('/api/benches').set(as('admin')).send({ name: 'Bench CLI 1' })).body;
-      const { stdout, stderr } = await run(process.execPath, [CLI, 'token', 'bench cli 1'], { env: process.env });
+      const { stdout, stderr } = await run(process.execPath, [CLI, 'bench', 'token', 'bench cli 1'], { env: process.env });
       expect(stderr).toBe('');
       expect(stdout).toMatch(/^kcb_[A-Za-z0-9_-]{43}\n$/);
       const token = stdout.trim();
@@ -129,7 +130,7 @@ describe('benches and bench tokens (e2e, MariaDB)', () => {
     });
 
     it('should name the benches there are when the name is unknown, and exit non-zero', async () => {
-      const failed = await run(process.execPath, [CLI, 'token', 'No Such Bench'], { env: process.env }).then(
+      const failed = await run(process.execPath, [CLI, 'bench', 'token', 'No Such Bench'], { env: process.env }).then(
         () => null,
         (error: { code: number; stdout: string; stderr: string }) => error,
       );
@@ -139,7 +140,7 @@ describe('benches and bench tokens (e2e, MariaDB)', () => {
     });
 
     it('should print its usage with --help', async () => {
-      const { stdout } = await run(process.execPath, [CLI, '--help']);
+      const { stdout } = await run(process.execPath, [CLI, 'bench', '--help']);
       expect(stdout).toContain('Usage: bin/kilocycle bench token');
     });
   });
