@@ -5,12 +5,12 @@ import type { Job as JobView, JobStatus, ListResponse } from '@kilocycle/common/
 import { AuditService } from '../audit/audit.service.js';
 import { JobRunStatsSource } from '../shared/job-run-stats.js';
 import { organizationScope, type AuthUser } from '../shared/auth-user.js';
-import { Instrument } from '../instruments/instrument.entity.js';
+import { JobInstrumentReader } from '../instruments/job-instrument.reader.js';
 import { instrumentLabel } from '../instruments/instruments.service.js';
 import { dateOnly } from '../shared/dto-helpers.js';
 import { paginateFlat } from '../shared/page-query.js';
 import { likePattern } from '../shared/paginate.js';
-import { User } from '../users/user.entity.js';
+import { AccountsReader } from '../users/accounts.reader.js';
 import type { CreateJobDto, ListJobsQueryDto, UpdateJobDto } from './dto/job.dto.js';
 import { ACTIVE_JOB_STATUSES, BUDGET_ROLES, LOCKED_JOB_STATUSES, jobTransitionRefusal } from '@kilocycle/common/rules';
 import { Job } from './job.entity.js';
@@ -60,6 +60,8 @@ export class JobsService {
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly audit: AuditService,
     private readonly runStats: JobRunStatsSource,
+    private readonly instruments: JobInstrumentReader,
+    private readonly accounts: AccountsReader,
   ) {}
 
   list(actor: AuthUser, query: ListJobsQueryDto): Promise<ListResponse<JobView>> {
@@ -91,10 +93,10 @@ export class JobsService {
 
   async create(actor: AuthUser, body: CreateJobDto): Promise<JobView> {
     const id = await this.dataSource.transaction(async (manager) => {
-      const instrument = await manager.findOne(Instrument, { where: { id: body.instrumentId }, lock: { mode: 'pessimistic_write' } });
+      const instrument = await this.instruments.lockForJob(body.instrumentId, manager);
       if (!instrument) throw new BadRequestException(`instrumentId: instrument ${body.instrumentId} does not exist`);
       const active = await manager.findOne(Job, { where: { instrumentId: instrument.id, status: In([...ACTIVE_JOB_STATUSES]) } });
-      if (active) throw new ConflictException(`${instrumentLabel(instrument)} already has job ${active.number} (${active.status}); finish that one first`);
+      if (active) throw new ConflictException(`${instrument.label} already has job ${active.number} (${active.status}); finish that one first`);
       if (body.technicianId != null) await this.assertTechnician(manager, body.technicianId);
       const number = await this.nextNumber(manager, body.receivedDate);
       const result = await manager.insert(Job, {
@@ -145,7 +147,7 @@ export class JobsService {
   }
 
   /** Moves a job along its workflow (also used when the first run opens); audited in the caller's transaction. */
-  async changeStatus(manager: EntityManager, actor: Pick<AuthUser, 'id' | 'role'>, job: Job, to: JobStatus, comment?: string): Promise<void> {
+  async changeStatus(manager: EntityManager, actor: Pick<AuthUser, 'id' | 'role'>, job: Pick<Job, 'id' | 'number' | 'status'>, to: JobStatus, comment?: string): Promise<void> {
     const refusal = jobTransitionRefusal(job.status, to, actor.role);
     if (refusal) {
       if (refusal.status === 403) throw new ForbiddenException(refusal.message);
@@ -177,22 +179,17 @@ export class JobsService {
     const counts = await this.runStats.runCounts(ids);
     const returned = found.filter((j) => j.status === 'returned').map((j) => String(j.id));
     const comments = new Map<number, string | null>();
-    if (returned.length > 0) {
-      const events: Array<{ entity_id: string; changes: unknown }> = await this.dataSource.query(
-        `SELECT entity_id, changes FROM audit_events WHERE entity = 'job' AND action = 'status' AND entity_id IN (?) ORDER BY id DESC`,
-        [returned],
-      );
-      for (const event of events) {
-        const changes = (typeof event.changes === 'string' ? JSON.parse(event.changes) : event.changes) as { to?: string; comment?: string | null } | null;
-        const jobId = Number(event.entity_id);
-        if (!comments.has(jobId) && changes?.to === 'returned') comments.set(jobId, changes.comment ?? null);
-      }
+    // Newest first: a returned job's comment is the one its latest return carried.
+    for (const event of await this.audit.latest('job', 'status', returned)) {
+      const changes = event.changes as { to?: string; comment?: string | null } | null;
+      const jobId = Number(event.entityId);
+      if (!comments.has(jobId) && changes?.to === 'returned') comments.set(jobId, changes.comment ?? null);
     }
     return found.map((j) => toJobView(j, { runCount: counts.get(j.id) ?? 0, returnComment: comments.get(j.id) ?? null }));
   }
 
   private async assertTechnician(manager: EntityManager, userId: number): Promise<void> {
-    const user = await manager.findOneBy(User, { id: userId });
+    const user = await this.accounts.byId(userId, manager);
     if (!user || !user.active || !BUDGET_ROLES.includes(user.role)) {
       throw new BadRequestException(`technicianId: user ${userId} is not an active technician or lead`);
     }
