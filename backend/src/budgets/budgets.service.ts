@@ -9,13 +9,15 @@ import type {
 } from '@kilocycle/common/types';
 import { CAPTURE_DEFAULTS } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
+import { RangeResultsReader } from '../instruments/range-results.reader.js';
+import { JobScopeReader, type JobScope } from '../jobs/job-scope.reader.js';
+import { RunContextReader } from '../runs/run-context.reader.js';
+import { ActorDirectory } from '../shared/actor-directory.js';
 import type { AuthUser } from '../shared/auth-user.js';
 import { assertJobEditable, isJobSigned } from '../shared/job-guards.js';
 import { likePattern, paginate } from '../shared/paginate.js';
 import { SignedResultsSource } from '../shared/signed-results.js';
-import { User } from '../users/user.entity.js';
 import type { CreateProcedureDto, ListProceduresQueryDto, UpdateProcedureDto, UpdateRunBudgetDto } from './dto/budget.dto.js';
-import { findScopedJob, findScopedRun } from './job-access.js';
 import { JobProcedure } from './job-procedure.entity.js';
 import { effectiveFigures, JobResultsService } from './job-results.service.js';
 import { recordProcedureVersion } from './procedure-versions.js';
@@ -53,6 +55,10 @@ export class BudgetsService {
     private readonly audit: AuditService,
     private readonly jobResults: JobResultsService,
     private readonly signedResults: SignedResultsSource,
+    private readonly jobScopes: JobScopeReader,
+    private readonly runs: RunContextReader,
+    private readonly ranges: RangeResultsReader,
+    private readonly actors: ActorDirectory,
   ) {}
 
   listProcedures(query: ListProceduresQueryDto): Promise<ListResponse<ProcedureView>> {
@@ -115,14 +121,14 @@ export class BudgetsService {
   }
 
   async jobProcedure(user: AuthUser, jobId: number): Promise<ProcedureView> {
-    await findScopedJob(this.dataSource.manager, user, jobId);
+    await this.jobScopes.visible(user, jobId);
     const figures = await this.jobResults.procedure(jobId);
     return this.getProcedure(figures.id);
   }
 
   async setJobProcedure(actor: AuthUser, jobId: number, procedureId: number): Promise<ProcedureView> {
     await this.dataSource.transaction(async (manager) => {
-      const job = await findScopedJob(manager, actor, jobId, true);
+      const job = await this.jobScopes.visible(actor, jobId, manager, true);
       assertJobEditable(job.status, `job ${job.number}'s procedure`);
       const procedure = await manager.findOneBy(Procedure, { id: procedureId });
       if (!procedure || !procedure.active) throw new BadRequestException(`procedureId: no active procedure ${procedureId}`);
@@ -137,28 +143,28 @@ export class BudgetsService {
   }
 
   async runBudget(user: AuthUser, runId: number, manager: EntityManager = this.dataSource.manager): Promise<RunBudgetView> {
-    const { run, job } = await findScopedRun(manager, user, runId);
+    const { job, dialSpan } = await this.scopedRun(user, runId, manager);
     const procedure = await this.jobResults.procedure(job.id, manager);
     const row = await manager.findOneBy(RunBudget, { runId });
     const overrides = row
       ? { dialHalfDivision: row.dialHalfDivision, driftPpm: row.driftPpm, driftHz: row.driftHz, counterResolutionHz: row.counterResolutionHz, extraComponents: row.extraComponents, note: row.note }
       : { dialHalfDivision: null, driftPpm: null, driftHz: null, counterResolutionHz: null, extraComponents: null, note: null };
-    const effective = effectiveFigures(procedure, overrides, run.range.dialMax - run.range.dialMin);
-    const updatedBy = row?.updatedById ? await manager.findOneBy(User, { id: row.updatedById }) : null;
+    const effective = effectiveFigures(procedure, overrides, dialSpan);
+    const updatedByName = row?.updatedById ? ((await this.actors.namesOf([row.updatedById])).get(row.updatedById) ?? null) : null;
     return {
       runId,
       ...overrides,
       effective: { procedureId: procedure.id, procedureName: procedure.name, ...effective },
       updatedAt: row ? row.updatedAt.toISOString() : null,
-      updatedByName: updatedBy?.name ?? null,
+      updatedByName,
       editable: !isJobSigned(job.status),
     };
   }
 
   async updateRunBudget(actor: AuthUser, runId: number, body: UpdateRunBudgetDto): Promise<RunBudgetView> {
     await this.dataSource.transaction(async (manager) => {
-      const { job } = await findScopedRun(manager, actor, runId);
-      const locked = await findScopedJob(manager, actor, job.id, true);
+      const { job } = await this.scopedRun(actor, runId, manager);
+      const locked = await this.jobScopes.visible(actor, job.id, manager, true);
       assertJobEditable(locked.status, `the budget of run ${runId}`);
       const before = await manager.findOneBy(RunBudget, { runId });
       const patch = Object.fromEntries(Object.entries(body).filter(([, v]) => v !== undefined));
@@ -176,8 +182,23 @@ export class BudgetsService {
 
   /** A signed job's results are the ones it was signed with; an open job's are computed now. */
   async results(user: AuthUser, jobId: number): Promise<JobResults> {
-    await findScopedJob(this.dataSource.manager, user, jobId);
+    await this.jobScopes.visible(user, jobId);
     const signed = await this.signedResults.signedResults(jobId);
     return signed ?? this.jobResults.compute(jobId);
+  }
+
+  /** A run the user may see, with its job and its range's dial span; another organisation's run answers 404 as if it did not exist. */
+  private async scopedRun(user: Pick<AuthUser, 'role' | 'organizationId'>, runId: number, manager: EntityManager): Promise<{ job: JobScope; dialSpan: number }> {
+    const place = await this.runs.place(runId, manager);
+    if (!place) throw new NotFoundException(`Run ${runId} not found`);
+    let job: JobScope;
+    try {
+      job = await this.jobScopes.visible(user, place.jobId, manager);
+    } catch {
+      throw new NotFoundException(`Run ${runId} not found`);
+    }
+    const range = await this.ranges.range(place.rangeId, manager);
+    if (!range) throw new NotFoundException(`Run ${runId} not found`);
+    return { job, dialSpan: range.dialMax - range.dialMin };
   }
 }
