@@ -1,6 +1,5 @@
-import { seedDemoCertificates } from '../certificates/certificates.demo.js';
-import { JobReviewEventsWriter } from '../reviews/job-review-events.writer.js';
 import { seedDemoStandards } from '../standards/standards.demo.js';
+import { seedDemoCertificates } from './certificate.demo.js';
 import type { DemoExtension } from './demo-seed.js';
 import { seedDemoLabRecords } from './lab-records.demo.js';
 import { seedDemoBenches } from './live-run.demo.js';
@@ -12,7 +11,6 @@ import { seedDemoBenches } from './live-run.demo.js';
 export const DEMO_EXTENSIONS: DemoExtension[] = [
   seedDemoStandards,
   seedDemoLabRecords,
-  // The certificate demo writes the job's review events through the reviews module's writer (certificates does not import reviews).
-  (context) => seedDemoCertificates(context, new JobReviewEventsWriter(context.manager.connection)),
+  seedDemoCertificates,
   seedDemoBenches,
 ];
