@@ -2,8 +2,8 @@ import Box from '@mui/material/Box';
 import { PageHeader } from '@/components/ui/page-header';
 import { CreateBench } from '@/features/benches/components/create-bench';
 import { BenchesTable } from '@/features/benches/components/benches-table';
-import { SafetyCaution } from '@/features/runs/components/safety-caution';
-import { useStandards } from '@/features/standards/api/get-standards';
+import { SafetyCaution } from '@/components/ui/safety-caution';
+import { useStandards } from '@/lib/get-standards';
 import { useCurrentUser } from '@/lib/auth';
 import { formatDate } from '@/utils/format';
 

@@ -24,7 +24,7 @@ import { JobReviewActions } from '@/features/reviews/components/job-review-actio
 import { useRuns } from '@/features/runs/api/get-runs';
 import { kindsFor, OpenRunDialog } from '@/features/runs/components/open-run-dialog';
 import { RunsTable } from '@/features/runs/components/runs-table';
-import { useStandards } from '@/features/standards/api/get-standards';
+import { useStandards } from '@/lib/get-standards';
 import { useUsers } from '@/features/users/api/get-users';
 import { ApiError } from '@/lib/api-client';
 import { useCurrentUser } from '@/lib/auth';

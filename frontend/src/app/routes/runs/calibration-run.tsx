@@ -19,7 +19,7 @@ import { PaddingCalculator } from '@/features/runs/components/calibration/paddin
 import { RunDataTransfer } from '@/features/imports/components/run-data-transfer';
 import { BridgeChip } from '@/components/ui/bridge-chip';
 import { RunHeader } from '@/features/runs/components/run-header';
-import { SafetyCaution } from '@/features/runs/components/safety-caution';
+import { SafetyCaution } from '@/components/ui/safety-caution';
 import { analysisProblem, mayWriteRun, noReadingsNotice, skipChartAnimation } from './run-access';
 
 /** The bench page of an as-found or as-left run: typed readings on the left, the fit updating beside them. */

@@ -9,7 +9,7 @@ import { useRunAnalysis } from '@/features/runs/api/get-run-analysis';
 import { useRefreshRun, useThrottledRefreshRun } from '@/features/runs/api/use-refresh-run';
 import { RunDataTransfer } from '@/features/imports/components/run-data-transfer';
 import { RunHeader } from '@/features/runs/components/run-header';
-import { SafetyCaution } from '@/features/runs/components/safety-caution';
+import { SafetyCaution } from '@/components/ui/safety-caution';
 import { AuxView } from '@/features/studies/components/aux-view';
 import { LiveStatus } from '@/features/studies/components/live-status';
 import { StabilityView } from '@/features/studies/components/stability-view';

@@ -12,7 +12,7 @@ import Tooltip from '@mui/material/Tooltip';
 import Typography from '@mui/material/Typography';
 import { useId, useState } from 'react';
 import { numberSx } from '@/components/ui/num';
-import { SafetyCaution } from '@/features/runs/components/safety-caution';
+import { SafetyCaution } from '@/components/ui/safety-caution';
 import { notify } from '@/lib/notifications';
 
 /** The command that streams a counter into a run with this token. */

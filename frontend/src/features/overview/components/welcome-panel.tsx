@@ -7,7 +7,7 @@ import Typography from '@mui/material/Typography';
 import { Link as RouterLink } from 'react-router-dom';
 import { LAB_ROLES } from '@kilocycle/common/rules';
 import { Num } from '@/components/ui/num';
-import { useOrganization } from '@/features/organizations/api/get-organization';
+import { useOrganization } from '../api/get-organization';
 import { navItemsFor } from '@/config/navigation';
 import { paths } from '@/config/paths';
 import { ROLE_DUTIES, ROLE_LABELS } from '@/config/roles';

@@ -6,7 +6,7 @@ import { useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { CALIBRATION_RUN_KINDS, type Role, type Run } from '@kilocycle/common/types';
 import { FormDialog, FormSelectField, FormTextField, useZodForm } from '@/components/ui/form-dialog';
-import { useStandards } from '@/features/standards/api/get-standards';
+import { useStandards } from '@/lib/get-standards';
 import { formatDate } from '@/utils/format';
 import { getRunCorrectionsQueryOptions } from '../api/get-run-corrections';
 import { correctRunSchema, useUpdateRun } from '../api/update-run';

@@ -4,7 +4,7 @@ import { STANDARD_KINDS, type CreateStandardRequest, type ReferenceStandard } fr
 import { z } from 'zod';
 import { api } from '@/lib/api-client';
 import { isoDate, requiredText, typedNumber } from '@/utils/form-schema';
-import { getStandardsQueryOptions } from './get-standards';
+import { getStandardsQueryOptions } from '@/lib/get-standards';
 
 const { standard: LIMITS } = FIELD_LIMITS;
 const within = ({ min, max }: { min: number; max: number }, message: string) => (n: number) => (n < min || n > max ? message : null);

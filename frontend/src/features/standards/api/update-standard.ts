@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { ReferenceStandard, UpdateStandardRequest } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
-import { getStandardsQueryOptions } from './get-standards';
+import { getStandardsQueryOptions } from '@/lib/get-standards';
 
 export type UpdateStandardInput = { id: number; changes: UpdateStandardRequest };
 

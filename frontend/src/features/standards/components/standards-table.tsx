@@ -16,7 +16,7 @@ import { ServerDataGrid } from '@/components/ui/server-data-grid';
 import { useListSearchParams } from '@/hooks/use-list-search-params';
 import { formatDate } from '@/utils/format';
 import { formatNumber } from '@/utils/frequency';
-import { useStandards } from '../api/get-standards';
+import { useStandards } from '@/lib/get-standards';
 import { STANDARD_KIND_LABELS, StandardDialog } from './standard-dialog';
 
 const FILTER_KEYS = ['kind', 'active', 'overdue'] as const;

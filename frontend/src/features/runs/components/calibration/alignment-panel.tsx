@@ -9,7 +9,7 @@ import type { CalibrationRunAnalysis } from '@kilocycle/common/types';
 import { parseNumber } from '@kilocycle/common/units';
 import { Num, numberSx } from '@/components/ui/num';
 import { formatHz, formatNumber, formatSignedHz } from '@/utils/frequency';
-import { SafetyCaution } from '../safety-caution';
+import { SafetyCaution } from '@/components/ui/safety-caution';
 
 function Row({ label, children }: { label: string; children: ReactNode }) {
   return (

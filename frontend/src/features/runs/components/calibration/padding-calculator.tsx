@@ -9,7 +9,7 @@ import type { FrequencyUnit } from '@kilocycle/common/types';
 import { parseFrequency, parseNumber } from '@kilocycle/common/units';
 import { Num, numberSx } from '@/components/ui/num';
 import { formatHz, formatNumber } from '@/utils/frequency';
-import { SafetyCaution } from '../safety-caution';
+import { SafetyCaution } from '@/components/ui/safety-caution';
 
 const mono = { style: { fontFamily: numberSx.fontFamily } };
 
