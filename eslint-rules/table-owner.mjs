@@ -4,7 +4,9 @@
 // from the `@Entity('table')` decorators in backend/src/<folder>/*.entity.ts, the one source of truth
 // (the conventions' owner list is those files). It reports, in backend/src outside database/migrations:
 //   - SQL in a string or template literal passed to `.query(` (or held in a `const` that is) naming a
-//     table of another folder (FROM, JOIN, INTO, UPDATE, TABLE);
+//     table of another folder (FROM, JOIN, INTO, UPDATE, TABLE); also a literal that starts like a
+//     statement (SELECT, INSERT, UPDATE, DELETE, WITH, REPLACE) given as first argument to any other call,
+//     so a local alias such as `const q = (sql) => manager.query(sql)` does not hide the table;
 //   - query-builder `.from(` / `.innerJoin(` / `.leftJoin(` (…AndSelect, …AndMap…) / `.into(` given another
 //     folder's table name or entity class;
 //   - `@InjectRepository(X)`, `TypeOrmModule.forFeature([X])`, `getRepository(X)`, `createQueryBuilder(X`
@@ -50,6 +52,9 @@ function defaultOwners() {
 }
 
 // The word before a table name in SQL. `DELETE FROM x` and `INSERT IGNORE INTO x` are covered by FROM/INTO.
+// A literal that reads as a whole statement, whatever the call it is handed to.
+const STATEMENT_START = /^\s*(?:SELECT|INSERT|UPDATE|DELETE|WITH|REPLACE)\s/i;
+
 const SQL_TABLE = /\b(?:FROM|JOIN|INTO|UPDATE|TABLE)\s+`?([A-Za-z_][\w$]*)`?/gi;
 
 /** Table names written in one piece of SQL (template expressions are left out: they are not known here). */
@@ -187,10 +192,13 @@ export default {
     return {
       CallExpression(node) {
         const name = calleeName(node.callee);
-        if (!name) return;
         const [first] = node.arguments;
         if (name === 'query' && node.callee.type === 'MemberExpression') {
           checkSql(first);
+        } else if (STATEMENT_START.test(literalText(first) ?? '')) {
+          checkSql(first);
+        } else if (!name) {
+          return;
         } else if (BUILDER_METHODS.has(name) && node.callee.type === 'MemberExpression') {
           const text = literalText(first);
           // 'alias.relation' joins follow an entity's relation decorators: allowed.

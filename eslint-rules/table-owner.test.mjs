@@ -54,6 +54,16 @@ tester.run('table-owner', rule, {
   ],
   invalid: [
     {
+      // SQL handed to a local alias of manager.query, and to an immediately called helper.
+      filename: inFolder('recall'),
+      options: [owners],
+      code: "const query = (sql, p) => manager.query(sql, p); await query('SELECT id FROM runs WHERE job_id = ?', [id]); await fetchRows(`DELETE FROM readings WHERE run_id = ?`);",
+      errors: [
+        { messageId: 'table', data: { table: 'runs', owner: 'runs', here: 'recall/' } },
+        { messageId: 'table', data: { table: 'readings', owner: 'readings', here: 'recall/' } },
+      ],
+    },
+    {
       filename: inFolder('budgets', 'job-results.ts'),
       options: [owners],
       code: "await manager.query('SELECT r.* FROM readings r LEFT JOIN reading_exclusions e ON e.reading_id = r.id WHERE r.run_id IN (?)', [ids]);",
