@@ -18,7 +18,18 @@ function gaussian(seed) {
   return () => Math.sqrt(-2 * Math.log(Math.max(uniform(), 1e-12))) * Math.cos(2 * Math.PI * uniform());
 }
 
-const standard = { id: 1, name: 'Bench counter A', makeModel: 'Example reciprocal counter', serial: 'BC-1', certificateNumber: 'EXT-1', dueDate: '2027-12-01', timebaseAccuracyPpm: 0.05, resolutionHz: 0.001, calibrationUPpm: 0.02, calibrationK: 2 };
+const standard = {
+  id: 1,
+  name: 'Bench counter A',
+  makeModel: 'Example reciprocal counter',
+  serial: 'BC-1',
+  certificateNumber: 'EXT-1',
+  dueDate: '2027-12-01',
+  timebaseAccuracyPpm: 0.05,
+  resolutionHz: 0.001,
+  calibrationUPpm: 0.02,
+  calibrationK: 2,
+};
 const figures = { dialHalfDivision: 0.5, driftPpm: 2, driftHz: 0, counterResolutionHz: null, extraComponents: [] };
 const tolerance = { kind: 'percent', percent: 0.5 };
 const noise = gaussian(7);
@@ -28,7 +39,10 @@ for (let position = 1; position <= 5; position++) {
   const high = low * 1.5;
   const points = new Map();
   const fits = {};
-  for (const [kind, scale] of [['asFound', 1 - 0.004 * position], ['asLeft', 1 - 0.0002]]) {
+  for (const [kind, scale] of [
+    ['asFound', 1 - 0.004 * position],
+    ['asLeft', 1 - 0.0002],
+  ]) {
     const readings = [];
     for (let i = 0; i <= 10; i++) {
       const dial = low + ((high - low) * i) / 10;
@@ -42,26 +56,78 @@ for (let position = 1; position <= 5; position++) {
       const d = decide({ errorHz: p.errorHz, toleranceHz: p.toleranceHz, U: budget.U, rule: 'guarded' });
       const r = roundResultToUncertainty(p.errorHz, budget.U);
       const entry = points.get(p.dial) ?? { dial: p.dial, nominal: p.nominal, toleranceHz: toleranceHz(tolerance, p.nominal), asFound: null, asLeft: null };
-      entry[kind] = { runId: fits[kind].runId, measured: p.measured, n: p.n, sd: p.sd, errorHz: p.errorHz, errorPpm: p.errorPpm, errorRounded: r.value, decimals: r.decimals,
-        outlier: p.outlier, studentised: p.studentised, budget, decision: d.decision, tur: d.tur, turFlag: d.turFlag, guardBandHz: d.guardBandHz, acceptanceLimitHz: d.acceptanceLimitHz, problem: null };
+      entry[kind] = {
+        runId: fits[kind].runId,
+        measured: p.measured,
+        n: p.n,
+        sd: p.sd,
+        errorHz: p.errorHz,
+        errorPpm: p.errorPpm,
+        errorRounded: r.value,
+        decimals: r.decimals,
+        outlier: p.outlier,
+        studentised: p.studentised,
+        budget,
+        decision: d.decision,
+        tur: d.tur,
+        turFlag: d.turFlag,
+        guardBandHz: d.guardBandHz,
+        acceptanceLimitHz: d.acceptanceLimitHz,
+        problem: null,
+      };
       points.set(p.dial, entry);
     }
   }
   const list = [...points.values()];
-  ranges.push({ rangeId: position, position, label: `Range ${position}`, dialUnit: 'kHz', dialMin: low, dialMax: high, freqMinHz: low * 1e3, freqMaxHz: high * 1e3, tolerance,
-    asFoundRunId: fits.asFound.runId, asLeftRunId: fits.asLeft.runId, asFoundFit: fits.asFound, asLeftFit: fits.asLeft, points: list,
-    decision: worstDecision(list.map((p) => p.asLeft.decision)), problems: [] });
+  ranges.push({
+    rangeId: position,
+    position,
+    label: `Range ${position}`,
+    dialUnit: 'kHz',
+    dialMin: low,
+    dialMax: high,
+    freqMinHz: low * 1e3,
+    freqMaxHz: high * 1e3,
+    tolerance,
+    asFoundRunId: fits.asFound.runId,
+    asLeftRunId: fits.asLeft.runId,
+    asFoundFit: fits.asFound,
+    asLeftFit: fits.asLeft,
+    points: list,
+    decision: worstDecision(list.map((p) => p.asLeft.decision)),
+    problems: [],
+  });
 }
-const results = { jobId: 1, jobNumber: 'J2026-0001', jobStatus: 'in_review', procedure: { id: 1, name: 'Dial calibration', method: 'Direct comparison with a counter.', decisionRule: 'guarded' },
-  decisionRule: 'guarded', decisionRuleText: decisionRuleText('guarded'), ranges, standards: [standard], decision: worstDecision(ranges.map((r) => r.decision)), flags: [] };
+const results = {
+  jobId: 1,
+  jobNumber: 'J2026-0001',
+  jobStatus: 'in_review',
+  procedure: { id: 1, name: 'Dial calibration', method: 'Direct comparison with a counter.', decisionRule: 'guarded' },
+  decisionRule: 'guarded',
+  decisionRuleText: decisionRuleText('guarded'),
+  ranges,
+  standards: [standard],
+  decision: worstDecision(ranges.map((r) => r.decision)),
+  flags: [],
+};
 const data = {
-  number: 'QL-2026-0042', revision: 1, replaces: null,
+  number: 'QL-2026-0042',
+  revision: 1,
+  replaces: null,
   lab: { name: 'Benchmark Lab', address: '1 Test Street', place: 'At the laboratory' },
   customer: { name: 'Benchmark Customer', contact: 'someone@example.test' },
   instrument: { make: 'Example', model: 'Five-range generator', serial: 'X-1', assetTag: null, description: null },
   job: { number: 'J2026-0001', receivedDate: '2026-11-01', conditionReceived: 'Working', ambientTempC: 21, humidityPct: 45, supplyVoltages: [] },
-  calibrationDates: { first: '2026-11-02', last: '2026-11-03' }, issuedAt: new Date('2026-11-05T10:00:00Z'), results, deviations: [],
-  signatory: { name: 'A. Signatory', role: 'Calibration lead (authorised signatory)', meaning: 'reviewed and approved for issue', signedAt: new Date('2026-11-05T10:00:00Z') },
+  calibrationDates: { first: '2026-11-02', last: '2026-11-03' },
+  issuedAt: new Date('2026-11-05T10:00:00Z'),
+  results,
+  deviations: [],
+  signatory: {
+    name: 'A. Signatory',
+    role: 'Calibration lead (authorised signatory)',
+    meaning: 'reviewed and approved for issue',
+    signedAt: new Date('2026-11-05T10:00:00Z'),
+  },
   verifyUrl: 'http://127.0.0.1:5180/verify/QL-2026-0042',
 };
 

@@ -36,14 +36,23 @@ await ds.runMigrations({ transaction: 'each' });
 await seedDemo(ds, { bcryptCost: 4 });
 const [{ id: orgId }] = await ds.query("SELECT id FROM organizations WHERE kind = 'customer' ORDER BY id LIMIT 1");
 const [{ id: techId }] = await ds.query("SELECT id FROM users WHERE role = 'technician' LIMIT 1");
-const instrument = await ds.query("INSERT INTO instruments (organization_id, make, model, serial) VALUES (?, 'Bench Works', 'VFO-9 oscillator', 'IMPORT-1')", [orgId]);
+const instrument = await ds.query("INSERT INTO instruments (organization_id, make, model, serial) VALUES (?, 'Bench Works', 'VFO-9 oscillator', 'IMPORT-1')", [
+  orgId,
+]);
 const range = await ds.query(
   `INSERT INTO instrument_ranges (instrument_id, position, label, dial_unit, dial_law, dial_min, dial_max, freq_min_hz, freq_max_hz, tolerance, multipliers)
    VALUES (?, 1, 'A 7000–7300 kHz', 'kHz', ?, 7000, 7300, 7.0e6, 7.3e6, ?, '[1]')`,
   [instrument.insertId, JSON.stringify({ kind: 'direct', unit: 'kHz' }), JSON.stringify({ kind: 'percent', percent: 0.5 })],
 );
-const job = await ds.query("INSERT INTO jobs (number, instrument_id, organization_id, status, received_date) VALUES ('JIMPORT-0001', ?, ?, 'in_progress', CURRENT_DATE())", [instrument.insertId, orgId]);
-const run = await ds.query("INSERT INTO runs (job_id, range_id, kind, status, started_at, created_by) VALUES (?, ?, 'warmup', 'open', UTC_TIMESTAMP(3), ?)", [job.insertId, range.insertId, techId]);
+const job = await ds.query(
+  "INSERT INTO jobs (number, instrument_id, organization_id, status, received_date) VALUES ('JIMPORT-0001', ?, ?, 'in_progress', CURRENT_DATE())",
+  [instrument.insertId, orgId],
+);
+const run = await ds.query("INSERT INTO runs (job_id, range_id, kind, status, started_at, created_by) VALUES (?, ?, 'warmup', 'open', UTC_TIMESTAMP(3), ?)", [
+  job.insertId,
+  range.insertId,
+  techId,
+]);
 const runId = Number(run.insertId);
 log(`database ${process.env.KC_DB_NAME}: migrated, seeded, run ${runId} open`);
 
@@ -89,10 +98,16 @@ const rssMb = () => {
 let up = false;
 for (let i = 0; i < 150 && !up; i++) {
   await sleep(200);
-  up = await fetch(`${base}/api/health`).then((r) => r.ok).catch(() => false);
+  up = await fetch(`${base}/api/health`)
+    .then((r) => r.ok)
+    .catch(() => false);
 }
 if (!up) throw new Error('the server did not come up');
-const login = await fetch(`${base}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'tech@kilocycle.test', password: DEMO_PASSWORD }) });
+const login = await fetch(`${base}/api/auth/login`, {
+  method: 'POST',
+  headers: { 'content-type': 'application/json' },
+  body: JSON.stringify({ email: 'tech@kilocycle.test', password: DEMO_PASSWORD }),
+});
 const { accessToken } = await login.json();
 const headers = { Authorization: `Bearer ${accessToken}` };
 await sleep(500);
@@ -114,7 +129,8 @@ const poller = (async () => {
     if (res?.ok) {
       const p = await res.json();
       const last = seen[seen.length - 1];
-      if (!last || last.phase !== p.phase || last.fraction !== p.fraction || last.rowsDone !== p.rowsDone) seen.push({ phase: p.phase, fraction: p.fraction, rowsDone: p.rowsDone, bytesDone: p.bytesDone });
+      if (!last || last.phase !== p.phase || last.fraction !== p.fraction || last.rowsDone !== p.rowsDone)
+        seen.push({ phase: p.phase, fraction: p.fraction, rowsDone: p.rowsDone, bytesDone: p.bytesDone });
     }
     await sleep(250);
   }
@@ -137,8 +153,12 @@ rmSync(dir, { recursive: true, force: true });
 // ---- 5. Figures -----------------------------------------------------------------------------
 log(`answer: HTTP ${res.status}, imported ${report.imported}, rejected ${report.rejectedCount}, mode ${MODE}`);
 log(`readings in the run: ${Number(n).toLocaleString('en-GB')}`);
-log(`elapsed (upload, validate, write, commit): ${elapsed.toFixed(1)} s — ${Math.round(Number(report.imported) / elapsed).toLocaleString('en-GB')} rows/s, ${(size / 1e6 / elapsed).toFixed(1)} MB/s`);
-log(`server RSS: idle ${idleRss?.toFixed(0)} MB, peak ${peakRss.toFixed(0)} MB (target under ${RSS_TARGET_MB} MB: ${peakRss < RSS_TARGET_MB ? 'met' : 'NOT met'})`);
+log(
+  `elapsed (upload, validate, write, commit): ${elapsed.toFixed(1)} s — ${Math.round(Number(report.imported) / elapsed).toLocaleString('en-GB')} rows/s, ${(size / 1e6 / elapsed).toFixed(1)} MB/s`,
+);
+log(
+  `server RSS: idle ${idleRss?.toFixed(0)} MB, peak ${peakRss.toFixed(0)} MB (target under ${RSS_TARGET_MB} MB: ${peakRss < RSS_TARGET_MB ? 'met' : 'NOT met'})`,
+);
 const fractions = seen.map((p) => p.fraction);
 const rising = fractions.every((f, i) => i === 0 || f >= fractions[i - 1]);
 log(`progress: ${seen.length} distinct readings, ${rising ? 'never going back' : 'WENT BACK'}; phases ${[...new Set(seen.map((p) => p.phase))].join(' → ')}`);

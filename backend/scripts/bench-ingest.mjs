@@ -50,7 +50,12 @@ async function freePort() {
 
 // ---- database and fixtures ------------------------------------------------------------------
 
-say(`Ingest benchmark — ${new Date().toISOString().slice(0, 16).replace('T', ' ')} UTC, ${os.cpus().length} × ${os.cpus()[0]?.model ?? 'CPU'}, Node ${process.versions.node}, load ${os.loadavg().map((l) => l.toFixed(2)).join(' ')}`);
+say(
+  `Ingest benchmark — ${new Date().toISOString().slice(0, 16).replace('T', ' ')} UTC, ${os.cpus().length} × ${os.cpus()[0]?.model ?? 'CPU'}, Node ${process.versions.node}, load ${os
+    .loadavg()
+    .map((l) => l.toFixed(2))
+    .join(' ')}`,
+);
 const admin = await mysql.createConnection({ host: config.db.host, port: config.db.port, user: config.db.user, password: config.db.password });
 const [[{ version }]] = await admin.query('SELECT VERSION() AS version');
 say(`MariaDB ${version}, database ${DB} (emptied), default InnoDB settings`);
@@ -63,10 +68,18 @@ await ds.runMigrations({ transaction: 'each' });
 await seedDemo(ds, { bcryptCost: 4 });
 await ds.destroy();
 
-const pool = mysql.createPool({ host: config.db.host, port: config.db.port, user: config.db.user, password: config.db.password, database: DB, connectionLimit: 8 });
+const pool = mysql.createPool({
+  host: config.db.host,
+  port: config.db.port,
+  user: config.db.user,
+  password: config.db.password,
+  database: DB,
+  connectionLimit: 8,
+});
 const [[{ org }]] = await pool.query("SELECT id AS org FROM organizations WHERE kind = 'customer' ORDER BY id LIMIT 1");
 const [[{ creator }]] = await pool.query("SELECT id AS creator FROM users WHERE role = 'engineer' LIMIT 1");
-const instrument = (await pool.query("INSERT INTO instruments (organization_id, make, model, serial) VALUES (?, 'Bench', 'Load VFO', 'BENCH-0001')", [org]))[0].insertId;
+const instrument = (await pool.query("INSERT INTO instruments (organization_id, make, model, serial) VALUES (?, 'Bench', 'Load VFO', 'BENCH-0001')", [org]))[0]
+  .insertId;
 const range = (
   await pool.query(
     `INSERT INTO instrument_ranges (instrument_id, position, label, dial_unit, dial_law, dial_min, dial_max, freq_min_hz, freq_max_hz, tolerance, multipliers)
@@ -74,13 +87,25 @@ const range = (
     [instrument],
   )
 )[0].insertId;
-const job = (await pool.query("INSERT INTO jobs (number, instrument_id, organization_id, status, received_date) VALUES ('B-0001', ?, ?, 'in_progress', CURRENT_DATE())", [instrument, org]))[0].insertId;
+const job = (
+  await pool.query("INSERT INTO jobs (number, instrument_id, organization_id, status, received_date) VALUES ('B-0001', ?, ?, 'in_progress', CURRENT_DATE())", [
+    instrument,
+    org,
+  ])
+)[0].insertId;
 let benchNo = 0;
 async function benchWithRun() {
   const token = 'kcb_' + randomBytes(32).toString('base64url');
   const hash = createHash('sha256').update(token).digest('hex');
-  const benchId = (await pool.query('INSERT INTO benches (name, token_hash, token_issued_at) VALUES (?, ?, UTC_TIMESTAMP())', [`Load bench ${++benchNo}`, hash]))[0].insertId;
-  const runId = (await pool.query("INSERT INTO runs (job_id, range_id, kind, status, bench_id, started_at, created_by) VALUES (?, ?, 'warmup', 'open', ?, UTC_TIMESTAMP(3), ?)", [job, range, benchId, creator]))[0].insertId;
+  const benchId = (
+    await pool.query('INSERT INTO benches (name, token_hash, token_issued_at) VALUES (?, ?, UTC_TIMESTAMP())', [`Load bench ${++benchNo}`, hash])
+  )[0].insertId;
+  const runId = (
+    await pool.query(
+      "INSERT INTO runs (job_id, range_id, kind, status, bench_id, started_at, created_by) VALUES (?, ?, 'warmup', 'open', ?, UTC_TIMESTAMP(3), ?)",
+      [job, range, benchId, creator],
+    )
+  )[0].insertId;
   return { token, benchId, runId };
 }
 
@@ -129,7 +154,13 @@ for (let i = 0; ; i++) {
   if (i > 300 || server.exitCode !== null) throw new Error('the server did not start');
   await sleep(100);
 }
-const login = await (await fetch(`${base}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'engineer@kilocycle.test', password: DEMO_PASSWORD }) })).json();
+const login = await (
+  await fetch(`${base}/api/auth/login`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email: 'engineer@kilocycle.test', password: DEMO_PASSWORD }),
+  })
+).json();
 const jwt = login.accessToken;
 
 function connectSocket(namespace, token) {
@@ -254,18 +285,30 @@ try {
     results.push({ raw1, raw4, raw, one, twenty, ratio1: one.rate / raw, ratio20: twenty.rate / raw });
   }
   const median = (pick) => [...results.map(pick)].sort((a, b) => a - b)[Math.floor(results.length / 2)];
-  say(`(a) raw mysql2 multi-row INSERT, 1 000 rows a statement (median of ${rounds} rounds): ${fmt(median((r) => r.raw1))} rows/s on 1 connection, ${fmt(median((r) => r.raw4))} rows/s on 4; the limit is the better of the two in each round`);
-  say(`(b) ingest, 1 bench, 1 000-reading batches, 4 in flight: ${fmt(median((r) => r.one.rate))} readings/s, ack p50 ${ms(median((r) => r.one.p50))}, p99 ${ms(median((r) => r.one.p99))}; fan-out ${fmt(results.reduce((s, r) => s + r.one.fannedOut, 0))}/${fmt(results.reduce((s, r) => s + r.one.total, 0))}`);
-  say(`(b) ingest, 20 benches, 1 000-reading batches: ${fmt(median((r) => r.twenty.rate))} readings/s, ack p50 ${ms(median((r) => r.twenty.p50))}, p99 ${ms(median((r) => r.twenty.p99))}; fan-out ${fmt(results.reduce((s, r) => s + r.twenty.fannedOut, 0))}/${fmt(results.reduce((s, r) => s + r.twenty.total, 0))}`);
+  say(
+    `(a) raw mysql2 multi-row INSERT, 1 000 rows a statement (median of ${rounds} rounds): ${fmt(median((r) => r.raw1))} rows/s on 1 connection, ${fmt(median((r) => r.raw4))} rows/s on 4; the limit is the better of the two in each round`,
+  );
+  say(
+    `(b) ingest, 1 bench, 1 000-reading batches, 4 in flight: ${fmt(median((r) => r.one.rate))} readings/s, ack p50 ${ms(median((r) => r.one.p50))}, p99 ${ms(median((r) => r.one.p99))}; fan-out ${fmt(results.reduce((s, r) => s + r.one.fannedOut, 0))}/${fmt(results.reduce((s, r) => s + r.one.total, 0))}`,
+  );
+  say(
+    `(b) ingest, 20 benches, 1 000-reading batches: ${fmt(median((r) => r.twenty.rate))} readings/s, ack p50 ${ms(median((r) => r.twenty.p50))}, p99 ${ms(median((r) => r.twenty.p99))}; fan-out ${fmt(results.reduce((s, r) => s + r.twenty.fannedOut, 0))}/${fmt(results.reduce((s, r) => s + r.twenty.total, 0))}`,
+  );
   for (const [i, r] of results.entries()) {
-    say(`    round ${i + 1}: raw ${fmt(r.raw)} rows/s; 1 bench ${fmt(r.one.rate)} (${r.ratio1.toFixed(2)}); 20 benches ${fmt(r.twenty.rate)} (${r.ratio20.toFixed(2)})`);
+    say(
+      `    round ${i + 1}: raw ${fmt(r.raw)} rows/s; 1 bench ${fmt(r.one.rate)} (${r.ratio1.toFixed(2)}); 20 benches ${fmt(r.twenty.rate)} (${r.ratio20.toFixed(2)})`,
+    );
   }
   const ratio1 = median((r) => r.ratio1);
   const ratio20 = median((r) => r.ratio20);
   await sleep(2000); // let the server's heap settle after the floods: this scenario is about latency
   const live = await paced(20, 10, 20);
-  say(`(b) ingest, 20 benches at 10 readings/s each (one reading a message): ack p50 ${ms(live.p50)}, p99 ${ms(live.p99)}, max ${ms(live.max)}; fan-out ${fmt(live.fannedOut)}/${fmt(live.total)}`);
-  say(`    ratio (b)/(a), median of the rounds: ${ratio1.toFixed(2)} with 1 bench, ${ratio20.toFixed(2)} with 20 (target ≥ 0.6); p99 at 20 × 10/s ${ms(live.p99)} (target < 50 ms)`);
+  say(
+    `(b) ingest, 20 benches at 10 readings/s each (one reading a message): ack p50 ${ms(live.p50)}, p99 ${ms(live.p99)}, max ${ms(live.max)}; fan-out ${fmt(live.fannedOut)}/${fmt(live.total)}`,
+  );
+  say(
+    `    ratio (b)/(a), median of the rounds: ${ratio1.toFixed(2)} with 1 bench, ${ratio20.toFixed(2)} with 20 (target ≥ 0.6); p99 at 20 × 10/s ${ms(live.p99)} (target < 50 ms)`,
+  );
 
   // KC_BENCH_SKIP_LARGE=1 leaves out (c) and (d), for quick runs while tuning the ingest path.
   if (!process.env.KC_BENCH_SKIP_LARGE) await largeRun();
@@ -297,7 +340,13 @@ async function largeRun() {
     }),
   );
   const loadSeconds = (performance.now() - loadStarted) / 1000;
-  const streamConn = mysqlCallback.createConnection({ host: config.db.host, port: config.db.port, user: config.db.user, password: config.db.password, database: DB });
+  const streamConn = mysqlCallback.createConnection({
+    host: config.db.host,
+    port: config.db.port,
+    user: config.db.user,
+    password: config.db.password,
+    database: DB,
+  });
   const streamOut = (prepared) =>
     new Promise((resolve, reject) => {
       const t = new Float64Array(N);
@@ -305,7 +354,9 @@ async function largeRun() {
       let i = 0;
       const started = performance.now();
       const sql = 'SELECT t_s, frequency_hz FROM readings WHERE run_id = ? ORDER BY seq';
-      const query = prepared ? streamConn.execute({ sql, values: [big.runId], rowsAsArray: true }) : streamConn.query({ sql, values: [big.runId], rowsAsArray: true, typeCast: true });
+      const query = prepared
+        ? streamConn.execute({ sql, values: [big.runId], rowsAsArray: true })
+        : streamConn.query({ sql, values: [big.runId], rowsAsArray: true, typeCast: true });
       query
         .on('result', (r) => {
           t[i] = Number(r[0]);
@@ -319,7 +370,9 @@ async function largeRun() {
   const prepared = await streamOut(true);
   const text = await streamOut(false);
   streamConn.end();
-  say(`(c) 1 000 000-reading warm-up run (loaded in ${loadSeconds.toFixed(1)} s): streamed out into Float64Arrays in ${prepared.seconds.toFixed(2)} s (prepared statement, binary rows; ${text.seconds.toFixed(2)} s as text)`);
+  say(
+    `(c) 1 000 000-reading warm-up run (loaded in ${loadSeconds.toFixed(1)} s): streamed out into Float64Arrays in ${prepared.seconds.toFixed(2)} s (prepared statement, binary rows; ${text.seconds.toFixed(2)} s as text)`,
+  );
 
   // ---- (d) the analysis endpoint ----------------------------------------------------------------
   const analyse = async () => {
@@ -338,7 +391,8 @@ async function largeRun() {
     for (let k = 0; k < 5; k++) warm.push((await analyse()).ms);
     warm.sort((a, b) => a - b);
     const c = prepared.seconds * 1000;
-    say(`(d) GET /api/runs/:id/analysis on it: cold ${ms(cold.ms)} (${(cold.ms / c).toFixed(2)} × (c); target ≤ 1.5), warm median ${ms(warm[2])} (target < 200 ms); answer ${fmt(cold.body.length / 1024)} kB`);
+    say(
+      `(d) GET /api/runs/:id/analysis on it: cold ${ms(cold.ms)} (${(cold.ms / c).toFixed(2)} × (c); target ≤ 1.5), warm median ${ms(warm[2])} (target < 200 ms); answer ${fmt(cold.body.length / 1024)} kB`,
+    );
   }
-
 }

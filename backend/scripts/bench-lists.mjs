@@ -42,7 +42,15 @@ const isoDay = (offsetDays) => new Date(today + offsetDays * 86_400_000).toISOSt
 for (let from = 0; from < INSTRUMENTS; from += 1000) {
   const rows = [];
   for (let i = from; i < Math.min(from + 1000, INSTRUMENTS); i++) {
-    rows.push([customers[i % customers.length], makers[i % makers.length], models[(i >> 3) % models.length], `B-${String(i).padStart(6, '0')}`, `AT-${i}`, 12, isoDay(Math.floor(random() * 730) - 200)]);
+    rows.push([
+      customers[i % customers.length],
+      makers[i % makers.length],
+      models[(i >> 3) % models.length],
+      `B-${String(i).padStart(6, '0')}`,
+      `AT-${i}`,
+      12,
+      isoDay(Math.floor(random() * 730) - 200),
+    ]);
   }
   await ds.query('INSERT INTO instruments (organization_id, make, model, serial, asset_tag, recall_interval_months, next_due_date) VALUES ?', [rows]);
 }
@@ -65,12 +73,21 @@ t0 = process.hrtime.bigint();
 const benchInstrument = instrumentIds[0];
 const [{ id: rangeId }] = await ds.query('SELECT id FROM instrument_ranges WHERE instrument_id = ? AND position = 1', [benchInstrument]);
 const [{ organization_id: benchOrg }] = await ds.query('SELECT organization_id FROM instruments WHERE id = ?', [benchInstrument]);
-const job = await ds.query("INSERT INTO jobs (number, instrument_id, organization_id, status, received_date) VALUES ('JBENCH-0001', ?, ?, 'in_progress', ?)", [benchInstrument, benchOrg, isoDay(-1)]);
+const job = await ds.query("INSERT INTO jobs (number, instrument_id, organization_id, status, received_date) VALUES ('JBENCH-0001', ?, ?, 'in_progress', ?)", [
+  benchInstrument,
+  benchOrg,
+  isoDay(-1),
+]);
 // Two identical runs: the first analysis in a fresh server also pays for compiling the code; the
 // second shows a cache-cold analysis with the code already warm.
 const runIds = [];
 for (const seed of [11, 12]) {
-  const run = await ds.query("INSERT INTO runs (job_id, range_id, kind, status, started_at, created_by) VALUES (?, ?, 'warmup', 'closed', ?, ?)", [job.insertId, rangeId, new Date(today - 86_400_000), leadId]);
+  const run = await ds.query("INSERT INTO runs (job_id, range_id, kind, status, started_at, created_by) VALUES (?, ?, 'warmup', 'closed', ?, ?)", [
+    job.insertId,
+    rangeId,
+    new Date(today - 86_400_000),
+    leadId,
+  ]);
   const curve = warmupCurve(1_850_000, 1_400, 1_800);
   const noise = seededGaussian(seed);
   for (let from = 0; from < READINGS; from += 1000) {
@@ -178,8 +195,12 @@ try {
   log(`  streaming the rows alone, plain query (text)                  ${streamTimes.query.map((x) => x.toFixed(0)).join(' / ')} ms`);
   log(`  streaming the rows alone, prepared statement (binary)         ${streamTimes.execute.map((x) => x.toFixed(0)).join(' / ')} ms`);
   log(`  first analysis after start (code not yet compiled)            ${first.elapsed.toFixed(0)} ms`);
-  log(`  cold (another run, not cached: load, fit, downsample)         ${cold.elapsed.toFixed(0)} ms  (τ = ${cold.body.fit.tau.toFixed(1)} s, series ${cold.body.series.t.length} points)`);
-  log(`    = ${(cold.elapsed / median(streamTimes.query)).toFixed(2)}× the text stream, ${(cold.elapsed / median(streamTimes.execute)).toFixed(2)}× the binary stream`);
+  log(
+    `  cold (another run, not cached: load, fit, downsample)         ${cold.elapsed.toFixed(0)} ms  (τ = ${cold.body.fit.tau.toFixed(1)} s, series ${cold.body.series.t.length} points)`,
+  );
+  log(
+    `    = ${(cold.elapsed / median(streamTimes.query)).toFixed(2)}× the text stream, ${(cold.elapsed / median(streamTimes.execute)).toFixed(2)}× the binary stream`,
+  );
   log(`  warm (cached)                                                 ${stats(warm)}`);
 } finally {
   server.kill('SIGTERM');

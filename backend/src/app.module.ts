@@ -52,7 +52,11 @@ import { UsersModule } from './users/users.module.js';
     ExportsModule,
     AttachmentsModule,
     ComparisonsModule,
-    MailModule, BudgetsModule, CertificatesModule, ReviewsModule, RecallModule,
+    MailModule,
+    BudgetsModule,
+    CertificatesModule,
+    ReviewsModule,
+    RecallModule,
   ],
 })
 export class AppModule {}

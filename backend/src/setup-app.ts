@@ -16,9 +16,7 @@ export function setupApp(app: INestApplication, config: AppConfig): void {
   // local client could rotate it and sidestep the per-address sign-in limits.
   express.set('trust proxy', config.trustedProxies.length > 0 ? config.trustedProxies : false);
   app.setGlobalPrefix('api');
-  app.useGlobalPipes(
-    new ValidationPipe({ whitelist: true, forbidNonWhitelisted: true, transform: true, stopAtFirstError: false }),
-  );
+  app.useGlobalPipes(new ValidationPipe({ whitelist: true, forbidNonWhitelisted: true, transform: true, stopAtFirstError: false }));
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -35,10 +33,7 @@ export function setupApp(app: INestApplication, config: AppConfig): void {
   // sees parsers named jsonParser/urlencodedParser already in place and does not add its defaults.
   app.use(json({ limit: MAX_JSON_BODY, verify: verifyJsonBody }));
   app.use(urlencoded({ limit: MAX_JSON_BODY, extended: true, verify: verifyFormBody }));
-  const document = SwaggerModule.createDocument(
-    app,
-    new DocumentBuilder().setTitle('Kilocycle API').setVersion(APP_VERSION).addBearerAuth().build(),
-  );
+  const document = SwaggerModule.createDocument(app, new DocumentBuilder().setTitle('Kilocycle API').setVersion(APP_VERSION).addBearerAuth().build());
   SwaggerModule.setup('api/docs', app, document);
 
   // The built single-page app: static files, then index.html for any non-API path (client-side routes).

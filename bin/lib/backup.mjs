@@ -14,8 +14,21 @@
 import { spawnSync } from 'node:child_process';
 import { createHash, createPublicKey } from 'node:crypto';
 import {
-  chmodSync, closeSync, copyFileSync, cpSync, existsSync, lstatSync, mkdirSync, mkdtempSync, openSync, readdirSync, readFileSync,
-  renameSync, rmSync, statSync, writeFileSync,
+  chmodSync,
+  closeSync,
+  copyFileSync,
+  cpSync,
+  existsSync,
+  lstatSync,
+  mkdirSync,
+  mkdtempSync,
+  openSync,
+  readdirSync,
+  readFileSync,
+  renameSync,
+  rmSync,
+  statSync,
+  writeFileSync,
 } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join, relative, resolve } from 'node:path';
@@ -44,7 +57,10 @@ function sql(statements, database = null) {
   if (database) args.push(database);
   const r = spawnSync('mariadb', args, { encoding: 'utf8' });
   if (r.status !== 0) throw new Stop(`the database answered: ${(r.stderr || r.error?.message || '').trim()}`);
-  return r.stdout.split('\n').filter((l) => l !== '').map((l) => l.split('\t'));
+  return r.stdout
+    .split('\n')
+    .filter((l) => l !== '')
+    .map((l) => l.split('\t'));
 }
 
 function dbRunning() {
@@ -86,7 +102,11 @@ function utcStamp(date) {
 }
 
 function kilocycleVersion() {
-  try { return JSON.parse(readFileSync(join(ROOT, 'package.json'), 'utf8')).version ?? 'unknown'; } catch { return 'unknown'; }
+  try {
+    return JSON.parse(readFileSync(join(ROOT, 'package.json'), 'utf8')).version ?? 'unknown';
+  } catch {
+    return 'unknown';
+  }
 }
 
 /** The key id the server stores with each signature: first 16 hex digits of SHA-256 of the public key (DER). */
@@ -115,7 +135,10 @@ function snapshotCounts() {
     DB_NAME,
   );
   const [migrations, last, certificates, signed, readings] = rows[0];
-  return { migrations: { count: Number(migrations), last: last === 'NULL' ? null : last }, counts: { certificates: Number(certificates), signedCertificates: Number(signed), readings: Number(readings) } };
+  return {
+    migrations: { count: Number(migrations), last: last === 'NULL' ? null : last },
+    counts: { certificates: Number(certificates), signedCertificates: Number(signed), readings: Number(readings) },
+  };
 }
 
 function restoredCounts() {
@@ -148,10 +171,24 @@ function makeBackup(toDir, prefix = 'kilocycle') {
     mkdirSync(join(top, 'files'), { recursive: true });
     const snapshot = snapshotCounts();
     const [[serverVersion]] = sql('SELECT VERSION()');
-    const dump = spawnSync('mariadb-dump', [
-      '--no-defaults', `--socket=${DB_SOCK}`, '-uroot', '--single-transaction', '--quick', '--routines', '--triggers',
-      '--hex-blob', '--default-character-set=utf8mb4', '--skip-dump-date', `--result-file=${join(top, 'database.sql')}`, DB_NAME,
-    ], { encoding: 'utf8' });
+    const dump = spawnSync(
+      'mariadb-dump',
+      [
+        '--no-defaults',
+        `--socket=${DB_SOCK}`,
+        '-uroot',
+        '--single-transaction',
+        '--quick',
+        '--routines',
+        '--triggers',
+        '--hex-blob',
+        '--default-character-set=utf8mb4',
+        '--skip-dump-date',
+        `--result-file=${join(top, 'database.sql')}`,
+        DB_NAME,
+      ],
+      { encoding: 'utf8' },
+    );
     if (dump.status !== 0) throw new Stop(`mariadb-dump failed: ${(dump.stderr || dump.error?.message || '').trim()}`);
     for (const dir of RECORD_DIRS) {
       for (const rel of walk(join(VAR, dir))) {
@@ -164,7 +201,8 @@ function makeBackup(toDir, prefix = 'kilocycle') {
       if (existsSync(join(VAR, secret))) copyFileSync(join(VAR, secret), join(top, 'files', secret));
     }
     const files = walk(top).map((rel) => ({ path: rel, size: statSync(join(top, rel)).size, sha256: sha256File(join(top, rel)) }));
-    for (const f of files) if (!MEMBER.test(f.path)) throw new Stop(`cannot back up ${f.path}: names under var/ may hold letters, digits, '.', '_' and '-' only`);
+    for (const f of files)
+      if (!MEMBER.test(f.path)) throw new Stop(`cannot back up ${f.path}: names under var/ may hold letters, digits, '.', '_' and '-' only`);
     const manifest = {
       format: FORMAT,
       formatVersion: FORMAT_VERSION,
@@ -195,7 +233,11 @@ function verifyArchive(archive, work) {
   const tar = spawnSync('tar', ['-xzf', archive, '-C', work, '--no-same-owner'], { encoding: 'utf8' });
   if (tar.status !== 0) throw damaged(`it cannot be unpacked (${(tar.stderr || tar.error?.message || '').trim().split('\n')[0]})`);
   let found;
-  try { found = walk(work); } catch (error) { throw damaged(error.message); }
+  try {
+    found = walk(work);
+  } catch (error) {
+    throw damaged(error.message);
+  }
   const outside = found.find((p) => !p.startsWith(`${TOP}/`));
   if (outside) throw damaged(`it holds ${outside}, outside ${TOP}/`);
   const top = join(work, TOP);
@@ -211,14 +253,21 @@ function verifyArchive(archive, work) {
   const manifestSum = sha256File(join(top, 'manifest.json'));
   if (sums.get('manifest.json') !== manifestSum) throw damaged('manifest.json does not match its SHA-256 in SHA256SUMS');
   let manifest;
-  try { manifest = JSON.parse(readFileSync(join(top, 'manifest.json'), 'utf8')); } catch { throw damaged('manifest.json is not valid JSON'); }
-  if (manifest?.format !== FORMAT || !Array.isArray(manifest.files) || typeof manifest.database?.name !== 'string') throw damaged('manifest.json is not a Kilocycle backup manifest');
-  if (manifest.formatVersion !== FORMAT_VERSION) throw new Stop(`${archive} has backup format ${manifest.formatVersion}; this Kilocycle reads format ${FORMAT_VERSION}. Nothing was changed.`);
+  try {
+    manifest = JSON.parse(readFileSync(join(top, 'manifest.json'), 'utf8'));
+  } catch {
+    throw damaged('manifest.json is not valid JSON');
+  }
+  if (manifest?.format !== FORMAT || !Array.isArray(manifest.files) || typeof manifest.database?.name !== 'string')
+    throw damaged('manifest.json is not a Kilocycle backup manifest');
+  if (manifest.formatVersion !== FORMAT_VERSION)
+    throw new Stop(`${archive} has backup format ${manifest.formatVersion}; this Kilocycle reads format ${FORMAT_VERSION}. Nothing was changed.`);
   const listed = new Set(manifest.files.map((f) => f.path));
   const onDisk = found.map((p) => p.slice(TOP.length + 1)).filter((p) => p !== 'manifest.json' && p !== 'SHA256SUMS');
   for (const p of onDisk) if (!listed.has(p)) throw damaged(`${p} is in the archive but not in the manifest`);
   for (const f of manifest.files) {
-    if (typeof f.path !== 'string' || !MEMBER.test(f.path) || f.path.split('/').includes('..')) throw damaged(`the manifest names an unexpected member "${String(f.path).slice(0, 80)}"`);
+    if (typeof f.path !== 'string' || !MEMBER.test(f.path) || f.path.split('/').includes('..'))
+      throw damaged(`the manifest names an unexpected member "${String(f.path).slice(0, 80)}"`);
     const path = join(top, f.path);
     if (!existsSync(path)) throw damaged(`${f.path} is listed in the manifest but missing`);
     const actual = sha256File(path);
@@ -233,9 +282,14 @@ function checkMigrationsKnown(manifest, archive) {
   const last = manifest.database?.migrations?.last;
   const dir = join(ROOT, 'backend', 'src', 'database', 'migrations');
   if (!last || !existsSync(dir)) return;
-  const known = readdirSync(dir).map((f) => /^(\d+)-(\w+)\.ts$/.exec(f)).filter(Boolean).map((m) => `${m[2]}${m[1]}`);
+  const known = readdirSync(dir)
+    .map((f) => /^(\d+)-(\w+)\.ts$/.exec(f))
+    .filter(Boolean)
+    .map((m) => `${m[2]}${m[1]}`);
   if (!known.includes(last)) {
-    throw new Stop(`${archive} was made by a newer Kilocycle (its schema ends with migration ${last}, unknown here): update Kilocycle first. Nothing was changed.`);
+    throw new Stop(
+      `${archive} was made by a newer Kilocycle (its schema ends with migration ${last}, unknown here): update Kilocycle first. Nothing was changed.`,
+    );
   }
 }
 
@@ -324,7 +378,10 @@ function restore(archive, { force, keysOnly }) {
     if (load.status !== 0) {
       // Leave an empty database rather than half of one, so a retry needs no --force.
       sql(`DROP DATABASE IF EXISTS \`${DB_NAME}\`; CREATE DATABASE \`${DB_NAME}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;`);
-      const lines = (load.stderr || load.error?.message || '').split('\n').map((l) => l.trim()).filter((l) => l && !/^-+$/.test(l));
+      const lines = (load.stderr || load.error?.message || '')
+        .split('\n')
+        .map((l) => l.trim())
+        .filter((l) => l && !/^-+$/.test(l));
       throw new Stop(`loading the database failed, database ${DB_NAME} is left empty: ${lines.find((l) => l.startsWith('ERROR')) ?? lines[0] ?? 'no message'}`);
     }
     for (const dir of RECORD_DIRS) placeDir(top, dir);
@@ -341,7 +398,9 @@ function restore(archive, { force, keysOnly }) {
       }
     }
     say(`Restored database ${DB_NAME}: ${counts.certificates} certificates (${counts.signedCertificates} signed), ${counts.readings} readings.`);
-    say(`Restored files: ${RECORD_DIRS.map((d) => `${d} ${nonEmpty(join(VAR, d))}`).join(', ')}; secrets: jwt-secret${existsSync(join(VAR, 'db-password')) ? ', db-password kept as this machine has it' : ''}.`);
+    say(
+      `Restored files: ${RECORD_DIRS.map((d) => `${d} ${nonEmpty(join(VAR, d))}`).join(', ')}; secrets: jwt-secret${existsSync(join(VAR, 'db-password')) ? ', db-password kept as this machine has it' : ''}.`,
+    );
     const keyId = keyIdOf(join(VAR, 'keys', 'certificate-signing.pub.pem'));
     const [[otherKeys]] = sql(`SELECT COUNT(*) FROM certificates WHERE signature IS NOT NULL AND key_id <> '${keyId ?? ''}'`, DB_NAME);
     if (Number(otherKeys) > 0) {
@@ -351,13 +410,19 @@ function restore(archive, { force, keysOnly }) {
   } finally {
     rmSync(work, { recursive: true, force: true });
     if (startedDb) {
-      try { kilocycleDb('stop'); } catch { /* the restore's own outcome matters more */ }
+      try {
+        kilocycleDb('stop');
+      } catch {
+        /* the restore's own outcome matters more */
+      }
     }
   }
 }
 
 function refusal(inTheWay) {
-  return new Stop(`refusing to overwrite what is there: ${inTheWay.join('; ')}. Give --force to replace it (a backup of it is written to ${join(VAR, 'backups')} first). Nothing was changed.`);
+  return new Stop(
+    `refusing to overwrite what is there: ${inTheWay.join('; ')}. Give --force to replace it (a backup of it is written to ${join(VAR, 'backups')} first). Nothing was changed.`,
+  );
 }
 
 // ---- command line --------------------------------------------------------------------------------
@@ -374,10 +439,16 @@ function main(argv) {
     const { path, manifest } = makeBackup(resolve(values.to ?? join(VAR, 'backups')));
     const c = manifest.database.counts;
     say(`Backup written: ${path}`);
-    say(`  database ${manifest.database.name}: ${manifest.database.migrations.count} migrations, ${c.certificates} certificates (${c.signedCertificates} signed), ${c.readings} readings; ${manifest.files.length} files with SHA-256.`);
+    say(
+      `  database ${manifest.database.name}: ${manifest.database.migrations.count} migrations, ${c.certificates} certificates (${c.signedCertificates} signed), ${c.readings} readings; ${manifest.files.length} files with SHA-256.`,
+    );
     say('  It holds the signing key and the secrets: copy it off this machine to encrypted, access-controlled storage.');
   } else if (command === 'restore') {
-    const { values, positionals } = parseArgs({ args: rest, options: { force: { type: 'boolean' }, 'keys-only': { type: 'boolean' } }, allowPositionals: true });
+    const { values, positionals } = parseArgs({
+      args: rest,
+      options: { force: { type: 'boolean' }, 'keys-only': { type: 'boolean' } },
+      allowPositionals: true,
+    });
     if (positionals.length !== 1) throw new Stop('give one archive: bin/kilocycle restore [--force] [--keys-only] FROM (see bin/kilocycle restore --help)');
     restore(resolve(positionals[0]), { force: values.force === true, keysOnly: values['keys-only'] === true });
   } else {

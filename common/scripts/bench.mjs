@@ -55,5 +55,9 @@ const total = line.ms + drift.ms + adev.ms;
 console.log(`${pad('total of the three')}${total.toFixed(1).padStart(9)} ms   target < 1000 ms: ${total < 1000 ? 'met' : 'NOT met'}`);
 console.log('');
 console.log(`fitLine slope ${line.result.slope.toExponential(6)} Hz/s vs simple-statistics ${reference.result.m.toExponential(6)} Hz/s`);
-console.log(`fitWarmup τ = ${drift.result.tau.toFixed(2)} ± ${drift.result.seTau.toFixed(2)} s (true 900), A = ${drift.result.amplitude.toFixed(3)} Hz (true −250), residual SD ${drift.result.residualSd.toFixed(3)} Hz (true 2), LM on ${drift.result.fittedPoints} bins`);
-console.log(`ADEV: ${adev.result.length} octaves, τ = ${adev.result[0].tau} s … ${adev.result[adev.result.length - 1].tau} s; σ_y(${adev.result[0].tau} s) = ${adev.result[0].deviation.toExponential(3)}`);
+console.log(
+  `fitWarmup τ = ${drift.result.tau.toFixed(2)} ± ${drift.result.seTau.toFixed(2)} s (true 900), A = ${drift.result.amplitude.toFixed(3)} Hz (true −250), residual SD ${drift.result.residualSd.toFixed(3)} Hz (true 2), LM on ${drift.result.fittedPoints} bins`,
+);
+console.log(
+  `ADEV: ${adev.result.length} octaves, τ = ${adev.result[0].tau} s … ${adev.result[adev.result.length - 1].tau} s; σ_y(${adev.result[0].tau} s) = ${adev.result[0].deviation.toExponential(3)}`,
+);

@@ -65,7 +65,14 @@ async function journey(page: Page) {
     const instrument =
       free.find((i) => i.serial === 'N-0952') ??
       free[0] ??
-      (await createTestInstrument(token, { organizationId: instruments.items[0]!.organizationId, make: 'Harwick Radio', model: 'VFO-3 variable frequency oscillator', serial: `E2E-${Date.now()}`, label: '1.75–2.0 MHz', tolerancePercent: 0.25 }));
+      (await createTestInstrument(token, {
+        organizationId: instruments.items[0]!.organizationId,
+        make: 'Harwick Radio',
+        model: 'VFO-3 variable frequency oscillator',
+        serial: `E2E-${Date.now()}`,
+        label: '1.75–2.0 MHz',
+        tolerancePercent: 0.25,
+      }));
     const range = instrument.ranges[0]!;
 
     // 1. A new job through the New job dialog.
@@ -115,8 +122,14 @@ async function journey(page: Page) {
       } else {
         await typePair(page, pair);
       }
-      await page.getByTestId('last-saved').filter({ hasText: `Saved #${index + 1}:` }).waitFor();
-      await page.getByTestId('readings-count').filter({ hasText: `${index + 1} in this run` }).waitFor();
+      await page
+        .getByTestId('last-saved')
+        .filter({ hasText: `Saved #${index + 1}:` })
+        .waitFor();
+      await page
+        .getByTestId('readings-count')
+        .filter({ hasText: `${index + 1} in this run` })
+        .waitFor();
       await page.waitForFunction(() => document.activeElement?.getAttribute('inputmode') === 'decimal');
       expect(await dialField.inputValue()).toBe('');
       expect(await page.getByLabel('Counter').inputValue()).toBe('');
@@ -167,7 +180,10 @@ async function journey(page: Page) {
     for (let k = 0; k <= 4; k++) {
       const dial = range.dialMin + k * step;
       await typePair(page, { dial: String(dial), counter: `${((dial * 1e3 * 0.9996) / 1e3).toFixed(3)} kHz` });
-      await page.getByTestId('last-saved').filter({ hasText: `Saved #${k + 1}:` }).waitFor();
+      await page
+        .getByTestId('last-saved')
+        .filter({ hasText: `Saved #${k + 1}:` })
+        .waitFor();
       await page.waitForFunction(() => document.activeElement?.getAttribute('inputmode') === 'decimal');
     }
     await page.getByTestId('fit-summary').filter({ hasText: '5 used' }).waitFor();

@@ -32,7 +32,12 @@ async function guardrails(page: Page) {
   // An instrument of our own with a 1.75–2.0 MHz range (other browser tests share the demo ones), and a job for it.
   const orgs = await apiGet<ListResponse<Organization>>(token, '/organizations?pageSize=100');
   const customer = orgs.items.find((o) => o.name === 'Northgate Radio Club') ?? orgs.items[0]!;
-  const instrument = await createTestInstrument(token, { organizationId: customer.id, make: 'Harwick Radio', model: 'SG-4 signal generator', serial: `E2E-G-${Date.now()}` });
+  const instrument = await createTestInstrument(token, {
+    organizationId: customer.id,
+    make: 'Harwick Radio',
+    model: 'SG-4 signal generator',
+    serial: `E2E-G-${Date.now()}`,
+  });
   const job = await openJob(token, instrument.id);
   const benches = await apiGet<ListResponse<Bench>>(token, '/benches?active=true&sort=name&pageSize=200');
   const bench = benches.items.find((b) => b.defaultStandardId !== null)!;

@@ -42,7 +42,12 @@ describe('counter-assisted capture: journey 6 (browser)', () => {
     if (!base) throw new Error('the demo has no open as-found run with a standard: reseed the database');
     const instrument = await apiGet<Instrument>(tech, `/instruments/${base.instrumentId}`);
     const range = instrument.ranges.find((r) => r.id === base.rangeId)!;
-    const run = await apiRequest<Run>(tech, 'POST', `/jobs/${base.jobId}/runs`, { rangeId: range.id, kind: 'as_found', benchId: bench.id, standardId: base.standardId });
+    const run = await apiRequest<Run>(tech, 'POST', `/jobs/${base.jobId}/runs`, {
+      rangeId: range.id,
+      kind: 'as_found',
+      benchId: bench.id,
+      standardId: base.standardId,
+    });
     const { token } = await apiRequest<BenchTokenResponse>(admin, 'POST', `/benches/${bench.id}/token`);
     const dials = [0.25, 0.5, 0.75].map((f) => Math.round(range.dialMin + f * (range.dialMax - range.dialMin)));
 
@@ -59,10 +64,36 @@ describe('counter-assisted capture: journey 6 (browser)', () => {
       // mid-range; the simulator's own dial error stays); the bridge polls it four times a second.
       const perDial = range.dialUnit === 'kHz' ? 1e3 : range.dialUnit === 'MHz' ? 1e6 : null;
       const mid = Math.min(range.freqMaxHz, Math.max(range.freqMinHz, perDial ? dials[0]! * perDial : (range.freqMinHz + range.freqMaxHz) / 2));
-      counter = startNode(COUNTER_SIM, ['--port', '0', '--profile', 'stable', '--span', `${range.freqMinHz}-${range.freqMaxHz}`, '--frequency', String(mid), '--seed', '11']);
+      counter = startNode(COUNTER_SIM, [
+        '--port',
+        '0',
+        '--profile',
+        'stable',
+        '--span',
+        `${range.freqMinHz}-${range.freqMaxHz}`,
+        '--frequency',
+        String(mid),
+        '--seed',
+        '11',
+      ]);
       const port = await simulatorPort(counter);
       const spool = join(mkdtempSync(join(tmpdir(), 'kc-spool-')), 'run.jsonl');
-      bridge = startNode(BRIDGE, ['--server', BASE_URL, '--token', token, '--run', String(run.id), '--source', `scpi://127.0.0.1:${port}`, '--interval', '250', '--spool', spool, '--status-every', '1000']);
+      bridge = startNode(BRIDGE, [
+        '--server',
+        BASE_URL,
+        '--token',
+        token,
+        '--run',
+        String(run.id),
+        '--source',
+        `scpi://127.0.0.1:${port}`,
+        '--interval',
+        '250',
+        '--spool',
+        spool,
+        '--status-every',
+        '1000',
+      ]);
 
       // Live only once the bridge is attached; the counter-assisted switch turns on with it.
       await page.getByTestId('bridge-chip').filter({ hasText: 'Live' }).waitFor({ timeout: 20_000 });
@@ -95,12 +126,17 @@ describe('counter-assisted capture: journey 6 (browser)', () => {
       expect(shownAt).toBeDefined();
       const settleToShown = shownAt! - settledAt;
       const sentAt = Date.parse((await saved.getAttribute('data-sent-at'))!);
-      console.log(`counter capture: settle→shown ${settleToShown} ms (settle→event sent ${sentAt - settledAt} ms on the server, sent→shown ${shownAt! - sentAt} ms)`);
+      console.log(
+        `counter capture: settle→shown ${settleToShown} ms (settle→event sent ${sentAt - settledAt} ms on the server, sent→shown ${shownAt! - sentAt} ms)`,
+      );
       expect(settleToShown).toBeGreaterThanOrEqual(0);
       expect(settleToShown).toBeLessThan(SETTLE_TO_SHOWN_LIMIT_MS);
 
       // The stored reading: one at the dial, the mean of the counter readings behind it.
-      const readings = await apiGet<ListResponse<{ dial: number | null; frequency: number; source: string }>>(tech, `/runs/${run.id}/readings?pageSize=500&sort=seq`);
+      const readings = await apiGet<ListResponse<{ dial: number | null; frequency: number; source: string }>>(
+        tech,
+        `/runs/${run.id}/readings?pageSize=500&sort=seq`,
+      );
       const setting = readings.items.filter((r) => r.dial === dials[0]);
       expect(setting).toHaveLength(1);
       expect(setting[0]!.source).toBe('bridge');
@@ -119,7 +155,10 @@ describe('counter-assisted capture: journey 6 (browser)', () => {
       // The bridge stops: the chip says since when it is offline, and the form refuses with the server's reason.
       await stopChild(bridge, 'SIGINT');
       bridge = null;
-      await page.getByTestId('bridge-chip').filter({ hasText: /Bridge offline since \d\d:\d\d:\d\d/ }).waitFor({ timeout: 10_000 });
+      await page
+        .getByTestId('bridge-chip')
+        .filter({ hasText: /Bridge offline since \d\d:\d\d:\d\d/ })
+        .waitFor({ timeout: 10_000 });
       await dial.fill(String(dials[2]));
       await dial.press('Enter');
       const refusal = page.getByRole('alert').filter({ hasText: 'Not taken — no bridge is connected' });

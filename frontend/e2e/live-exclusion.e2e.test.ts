@@ -31,7 +31,12 @@ async function exclusionSeenLive(page: Page) {
   // An instrument and job of our own (other browser tests share the demo ones), a run against an in-date standard.
   const orgs = await apiGet<ListResponse<Organization>>(token, '/organizations?pageSize=100');
   const customer = orgs.items.find((o) => o.name === 'Northgate Radio Club') ?? orgs.items[0]!;
-  const instrument = await createTestInstrument(token, { organizationId: customer.id, make: 'Harwick Radio', model: 'VFO-3 variable frequency oscillator', serial: `E2E-X-${Date.now()}` });
+  const instrument = await createTestInstrument(token, {
+    organizationId: customer.id,
+    make: 'Harwick Radio',
+    model: 'VFO-3 variable frequency oscillator',
+    serial: `E2E-X-${Date.now()}`,
+  });
   const job = await openJob(token, instrument.id);
   const benches = await apiGet<ListResponse<Bench>>(token, '/benches?active=true&sort=name&pageSize=200');
   const standardId = benches.items.find((b) => b.defaultStandardId !== null)!.defaultStandardId;

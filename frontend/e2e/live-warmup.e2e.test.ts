@@ -56,11 +56,16 @@ describe('live warm-up: journey 2 (browser)', () => {
     const demoRun = runs.items[0];
     if (!demoRun) throw new Error('the demo has no open warm-up run on Bench 1: reseed the database');
     const bench = await apiRequest<Bench>(admin, 'POST', '/benches', {
-      name: `Live warm-up test bench ${Date.now().toString(36)}`, location: 'Browser test', defaultStandardId: demoBench.defaultStandardId,
+      name: `Live warm-up test bench ${Date.now().toString(36)}`,
+      location: 'Browser test',
+      defaultStandardId: demoBench.defaultStandardId,
     });
     const { token } = await apiRequest<BenchTokenResponse>(admin, 'POST', `/benches/${bench.id}/token`);
     const run = await apiRequest<Run>(engineer, 'POST', `/jobs/${demoRun.jobId}/runs`, {
-      rangeId: demoRun.rangeId, kind: 'warmup', benchId: bench.id, configuration: 'Browser test: simulated counter over SCPI',
+      rangeId: demoRun.rangeId,
+      kind: 'warmup',
+      benchId: bench.id,
+      configuration: 'Browser test: simulated counter over SCPI',
       notes: 'Cold start; counter on a 1 s gate. Started by the live warm-up browser test.',
     });
 
@@ -78,17 +83,35 @@ describe('live warm-up: journey 2 (browser)', () => {
       const port = await simulatorPort(counter);
       const spool = join(mkdtempSync(join(tmpdir(), 'kc-spool-')), 'run.jsonl');
       bridge = startNode(BRIDGE, [
-        '--server', BASE_URL, '--token', token, '--run', String(run.id), '--source', `scpi://127.0.0.1:${port}`,
-        '--interval', '150', '--time-zero', 'now', '--spool', spool, '--status-every', '1000',
+        '--server',
+        BASE_URL,
+        '--token',
+        token,
+        '--run',
+        String(run.id),
+        '--source',
+        `scpi://127.0.0.1:${port}`,
+        '--interval',
+        '150',
+        '--time-zero',
+        'now',
+        '--spool',
+        spool,
+        '--status-every',
+        '1000',
       ]);
 
       // The page says Live while the bridge feeds it; points arrive without a reload, and the count follows them.
       await page.getByTestId('bridge-chip').filter({ hasText: 'Live' }).waitFor({ timeout: 20_000 });
       await page.getByTestId('warmup-chart').waitFor({ timeout: 20_000 });
-      await page.waitForFunction((n) => {
-        const text = document.querySelector('[data-testid="live-status"]')?.textContent ?? '';
-        return Number(/(\d[\d\s\u00a0\u2009\u202f]*)readings/.exec(text)?.[1]?.replace(/\D/g, '') ?? 0) >= n;
-      }, 30, { timeout: 30_000 });
+      await page.waitForFunction(
+        (n) => {
+          const text = document.querySelector('[data-testid="live-status"]')?.textContent ?? '';
+          return Number(/(\d[\d\s\u00a0\u2009\u202f]*)readings/.exec(text)?.[1]?.replace(/\D/g, '') ?? 0) >= n;
+        },
+        30,
+        { timeout: 30_000 },
+      );
 
       // The fit appears once the readings show the curve, and keeps up as more come in.
       const tau = page.getByTestId('fit-tau');
@@ -101,17 +124,23 @@ describe('live warm-up: journey 2 (browser)', () => {
 
       // About two simulated time constants of record (14 s), then the fit the page shows, from the analysis API (which
       // gives τ's standard error): the simulator's τ lies within the fit's interval τ ± k·u(τ).
-      await page.waitForFunction((n) => {
-        const text = document.querySelector('[data-testid="live-status"]')?.textContent ?? '';
-        return Number(/(\d[\d\s\u00a0\u2009\u202f]*)readings/.exec(text)?.[1]?.replace(/\D/g, '') ?? 0) >= n;
-      }, Math.ceil((2 * expectedTau) / 0.15), { timeout: 40_000 });
+      await page.waitForFunction(
+        (n) => {
+          const text = document.querySelector('[data-testid="live-status"]')?.textContent ?? '';
+          return Number(/(\d[\d\s\u00a0\u2009\u202f]*)readings/.exec(text)?.[1]?.replace(/\D/g, '') ?? 0) >= n;
+        },
+        Math.ceil((2 * expectedTau) / 0.15),
+        { timeout: 40_000 },
+      );
       const analysis = await apiGet<RunAnalysis>(engineer, `/runs/${run.id}/analysis`);
       if (analysis.analysis !== 'warmup') throw new Error(`the run's analysis is not a warm-up fit: ${JSON.stringify(analysis).slice(0, 300)}`);
       const fit = (analysis as WarmupRunAnalysis).fit;
       // 99.73 % (the "3σ" probability, k from Student's t): a 95 % interval would fail one honest run in twenty, and the
       // readings' time stamps carry the machine's scheduling jitter on top of the counter's noise.
       const k = coverageFactor(fit.n - 3, 0.9973);
-      console.log(`live warm-up: fitted τ = ${fit.tau.toFixed(3)} s ± ${(k * fit.seTau).toFixed(3)} s (k = ${k.toFixed(2)}, n = ${fit.n}); simulator τ = ${WARMUP_TAU_S} s / ${SPEED} = ${expectedTau.toFixed(3)} s`);
+      console.log(
+        `live warm-up: fitted τ = ${fit.tau.toFixed(3)} s ± ${(k * fit.seTau).toFixed(3)} s (k = ${k.toFixed(2)}, n = ${fit.n}); simulator τ = ${WARMUP_TAU_S} s / ${SPEED} = ${expectedTau.toFixed(3)} s`,
+      );
       expect(fit.seTau).toBeGreaterThan(0);
       expect(Math.abs(fit.tau - expectedTau)).toBeLessThanOrEqual(k * fit.seTau);
       expect(await readingCount(page)).toBeGreaterThanOrEqual(fit.n);
@@ -125,7 +154,10 @@ describe('live warm-up: journey 2 (browser)', () => {
 
       // Once the bridge stops, the chip says so instead of staying Live.
       await stopChild(bridge, 'SIGINT');
-      await page.getByTestId('bridge-chip').filter({ hasText: /Bridge offline since \d\d:\d\d:\d\d/ }).waitFor({ timeout: 20_000 });
+      await page
+        .getByTestId('bridge-chip')
+        .filter({ hasText: /Bridge offline since \d\d:\d\d:\d\d/ })
+        .waitFor({ timeout: 20_000 });
       expect(await page.getByTestId('bridge-chip').innerText()).not.toContain('Live');
     } catch (error) {
       await keepScreenshot(page, 'live-warmup-failure').catch(() => undefined);

@@ -40,7 +40,8 @@ async function labelsInside(chart: Locator): Promise<string[]> {
     root.querySelectorAll('.MuiChartsAxis-tickLabel').forEach((label) => {
       const r = label.getBoundingClientRect();
       if (r.width === 0) return;
-      if (r.left < box.left - 0.5 || r.right > box.right + 0.5) outside.push(`${label.textContent} [${Math.round(r.left)}–${Math.round(r.right)} of ${Math.round(box.left)}–${Math.round(box.right)}]`);
+      if (r.left < box.left - 0.5 || r.right > box.right + 0.5)
+        outside.push(`${label.textContent} [${Math.round(r.left)}–${Math.round(r.right)} of ${Math.round(box.left)}–${Math.round(box.right)}]`);
     });
     return outside;
   });
@@ -71,7 +72,12 @@ describe('numbers and charts (browser)', () => {
     const engineer = await apiLogin('engineer@kilocycle.test', DEMO_PASSWORD);
     const orgs = await apiGet<ListResponse<Organization>>(tech, '/organizations?pageSize=100');
     const customer = orgs.items.find((o) => o.name === 'Northgate Radio Club') ?? orgs.items[0]!;
-    const instrument = await createTestInstrument(tech, { organizationId: customer.id, make: 'Harwick Radio', model: 'SG-4 signal generator', serial: `E2E-N-${Date.now()}` });
+    const instrument = await createTestInstrument(tech, {
+      organizationId: customer.id,
+      make: 'Harwick Radio',
+      model: 'SG-4 signal generator',
+      serial: `E2E-N-${Date.now()}`,
+    });
     const rangeId = instrument.ranges[0]!.id;
     const job = await openJob(tech, instrument.id);
 
@@ -148,7 +154,10 @@ describe('numbers and charts (browser)', () => {
       const chart = page.getByTestId('error-chart');
       await chart.locator('.MuiChartsAxis-tickLabel').first().waitFor();
       const yTicks = await tickTexts(chart, 'Y');
-      expect(yTicks.some((t) => /^-\d{1,2} 000$/.test(t)), `y ticks: ${yTicks.join(' | ')}`).toBe(true);
+      expect(
+        yTicks.some((t) => /^-\d{1,2} 000$/.test(t)),
+        `y ticks: ${yTicks.join(' | ')}`,
+      ).toBe(true);
       for (const tick of yTicks) expect(tick).not.toContain('…');
       expect(await labelsInside(chart)).toEqual([]);
 
@@ -175,7 +184,11 @@ describe('numbers and charts (browser)', () => {
       await signIn(page, 'lead@kilocycle.test');
       await page.goto(`/reviews/${demo.reviewJobId}`);
       await waitForPageSettled(page);
-      const chart = page.locator('svg').filter({ has: page.locator('.MuiChartsAxis-tickLabel') }).filter({ hasText: 'Error (Hz)' }).first();
+      const chart = page
+        .locator('svg')
+        .filter({ has: page.locator('.MuiChartsAxis-tickLabel') })
+        .filter({ hasText: 'Error (Hz)' })
+        .first();
       await chart.waitFor();
       // x-charts draws no marks unless a series asks for them: each as-found and as-left setting is a circle.
       expect(await chart.locator('circle.MuiLineChart-mark').count()).toBeGreaterThan(2);
@@ -205,10 +218,14 @@ describe('numbers and charts (browser)', () => {
       const adev = page.getByRole('region', { name: 'Allan deviation' });
       await adev.locator('svg path[data-series^="adev-"]').first().waitFor();
       expect(await adev.locator('[data-testid^="adev-bars-"] line').count()).toBeGreaterThan(0);
-      for (const tick of await adev.locator('.MuiChartsAxis-tickLabel').allTextContents()) expect(tick).toMatch(new RegExp(`^[\\d .]+$|^[125]×10[${SUPERSCRIPTS}]+$`));
+      for (const tick of await adev.locator('.MuiChartsAxis-tickLabel').allTextContents())
+        expect(tick).toMatch(new RegExp(`^[\\d .]+$|^[125]×10[${SUPERSCRIPTS}]+$`));
 
       const table = page.getByRole('region', { name: 'Differences' });
-      const [tableWidth, mainWidth] = await Promise.all([table.evaluate((e) => e.getBoundingClientRect().width), page.locator('main').evaluate((e) => e.getBoundingClientRect().width)]);
+      const [tableWidth, mainWidth] = await Promise.all([
+        table.evaluate((e) => e.getBoundingClientRect().width),
+        page.locator('main').evaluate((e) => e.getBoundingClientRect().width),
+      ]);
       expect(tableWidth / mainWidth).toBeGreaterThan(0.85);
       for (const sentence of await page.getByTestId('comparison-sentence').allInnerTexts()) {
         // Both ends of the interval carry the unit and their own direction: no bare "−3 to 82".

@@ -82,7 +82,10 @@ describe('phone layout at 390 × 844 (browser)', () => {
         await page.keyboard.press('Tab');
         await page.keyboard.type(counter!);
         await page.keyboard.press('Enter');
-        await page.getByTestId('last-saved').filter({ hasText: `Saved #${index + 1}:` }).waitFor();
+        await page
+          .getByTestId('last-saved')
+          .filter({ hasText: `Saved #${index + 1}:` })
+          .waitFor();
         await page.waitForFunction(() => document.activeElement?.getAttribute('inputmode') === 'decimal');
       }
       await page.getByTestId('fit-summary').filter({ hasText: '3 used' }).waitFor();
@@ -173,7 +176,10 @@ describe('phone layout at 390 × 844 (browser)', () => {
       await signInOnPhone(page, DEMO_ACCOUNTS.lead);
       await page.goto(`/reviews/${records.reviewJobId}`);
       await waitForPageSettled(page);
-      await page.getByRole('table', { name: /^Results, range / }).first().waitFor();
+      await page
+        .getByRole('table', { name: /^Results, range / })
+        .first()
+        .waitFor();
       // Wide result tables may scroll inside their own box; the page itself (charts and fit summaries) may not.
       await expectNoSidewaysScroll(page, 'review page', { lists: false });
       await keepScreenshot(page, 'phone-review-390');
@@ -196,7 +202,13 @@ async function openCaptureRun(token: string): Promise<Run> {
   const organisations = await apiGet<ListResponse<{ id: number; kind: string }>>(token, '/organizations?pageSize=50');
   // The lab's own instrument: no customer sees it in their portal, whatever other browser tests look for there.
   const lab = organisations.items.find((o) => o.kind === 'lab') ?? organisations.items[0]!;
-  const instrument = await createTestInstrument(token, { organizationId: lab.id, make: 'Wrenfield', model: 'LO-7 test oscillator', serial: `PHONE-${Date.now()}`, label: 'B 1750–2000 kHz' });
+  const instrument = await createTestInstrument(token, {
+    organizationId: lab.id,
+    make: 'Wrenfield',
+    model: 'LO-7 test oscillator',
+    serial: `PHONE-${Date.now()}`,
+    label: 'B 1750–2000 kHz',
+  });
   const job = await openJob(token, instrument.id);
   const standards = await apiGet<ListResponse<ReferenceStandard>>(token, '/standards');
   const standard = standards.items.find((s) => s.active && !s.overdue);

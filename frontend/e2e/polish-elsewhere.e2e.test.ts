@@ -17,7 +17,17 @@ const LAB_EMAIL = 'bench@quarrylane.test';
 const range = (position: number, label: string, lowKhz: number, highKhz: number) => ({
   label,
   dialUnit: position === 3 ? 'div' : 'kHz',
-  dialLaw: position === 3 ? { kind: 'table', points: [{ dial: 0, frequency: lowKhz * 1000 }, { dial: 50, frequency: ((lowKhz + highKhz) / 2) * 1000 }, { dial: 100, frequency: highKhz * 1000 }] } : { kind: 'direct', unit: 'kHz' },
+  dialLaw:
+    position === 3
+      ? {
+          kind: 'table',
+          points: [
+            { dial: 0, frequency: lowKhz * 1000 },
+            { dial: 50, frequency: ((lowKhz + highKhz) / 2) * 1000 },
+            { dial: 100, frequency: highKhz * 1000 },
+          ],
+        }
+      : { kind: 'direct', unit: 'kHz' },
   dialMin: position === 3 ? 0 : lowKhz,
   dialMax: position === 3 ? 100 : highKhz,
   freqMinHz: lowKhz * 1000,
@@ -40,7 +50,12 @@ describe('elsewhere polish (browser)', () => {
       make: 'Harwick Radio',
       model: 'SG-7 wide-range signal generator',
       serial: `E2E-P${tag}-${Date.now()}`,
-      ranges: [range(1, 'A  1750–2000 kHz', 1750, 2000), range(2, 'B  3500–4000 kHz (band-spread)', 3500, 4000), range(3, 'C  7000–7300 kHz, logging scale', 7000, 7300), range(4, 'D  14000–14350 kHz', 14000, 14350)],
+      ranges: [
+        range(1, 'A  1750–2000 kHz', 1750, 2000),
+        range(2, 'B  3500–4000 kHz (band-spread)', 3500, 4000),
+        range(3, 'C  7000–7300 kHz, logging scale', 7000, 7300),
+        range(4, 'D  14000–14350 kHz', 14000, 14350),
+      ],
     });
   };
   beforeAll(async () => {
@@ -120,7 +135,7 @@ describe('elsewhere polish (browser)', () => {
     });
   });
 
-  it('keeps the ranges table\'s Edit and Remove on screen at 1440 px', async () => {
+  it("keeps the ranges table's Edit and Remove on screen at 1440 px", async () => {
     await onNewPage(browser, 'polish-ranges', async (page) => {
       await signIn(page, 'tech@kilocycle.test');
       await page.goto(`/instruments/${instrument.id}`);
@@ -150,7 +165,7 @@ describe('elsewhere polish (browser)', () => {
     });
   });
 
-  it('opens a returned job\'s mail on its HTML part, sandboxed, with Reply-To and footer naming the lab\'s address', async () => {
+  it("opens a returned job's mail on its HTML part, sandboxed, with Reply-To and footer naming the lab's address", async () => {
     // The technician records three readings and submits; the lead returns the job with a comment holding markup.
     const tech = await apiLogin('tech@kilocycle.test', DEMO_PASSWORD);
     const lead = await apiLogin('lead@kilocycle.test', DEMO_PASSWORD);

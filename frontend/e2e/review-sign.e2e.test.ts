@@ -52,7 +52,10 @@ describe('review and sign-off (browser)', () => {
     expect(await page.getByText(/AS FOUND · RUN \d+/i).count()).toBeGreaterThan(0);
 
     // A setting's row opens the budget behind it.
-    await results.getByRole('row', { name: /^Setting .*: show its budget$/ }).nth(1).click();
+    await results
+      .getByRole('row', { name: /^Setting .*: show its budget$/ })
+      .nth(1)
+      .click();
     const budget = page.getByRole('region', { name: /^Budget at / });
     await budget.waitFor();
     const budgetText = await budget.innerText();
@@ -76,7 +79,10 @@ describe('review and sign-off (browser)', () => {
 
     await dialog.getByLabel('Your password').fill('not-the-password');
     await dialog.getByRole('button', { name: 'Sign and issue' }).click();
-    await dialog.getByRole('alert').getByText(/Password is not right/).waitFor();
+    await dialog
+      .getByRole('alert')
+      .getByText(/Password is not right/)
+      .waitFor();
     expect(await dialog.isVisible()).toBe(true);
     await keepScreenshot(page, 'review-sign-refused');
 

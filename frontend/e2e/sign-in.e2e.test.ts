@@ -4,11 +4,31 @@ import { keepScreenshot, launchBrowser, newPage, signIn } from './support/browse
 
 // What each role should find in the main navigation (PRODUCT.md §2: who does what in the lab).
 const EXPECTED_NAV: Record<string, { email: string; sees: string[]; doesNotSee: string[] }> = {
-  admin: { email: 'admin@kilocycle.test', sees: ['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches', 'Certificates', 'Outbox', 'Users', 'Organisations'], doesNotSee: ['Review', 'Comparisons'] },
-  lead: { email: 'lead@kilocycle.test', sees: ['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches', 'Review', 'Certificates', 'Comparisons', 'Procedures'], doesNotSee: ['Users', 'Organisations', 'Outbox'] },
-  technician: { email: 'tech@kilocycle.test', sees: ['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches', 'Certificates'], doesNotSee: ['Users', 'Organisations', 'Review', 'Comparisons', 'Outbox'] },
-  engineer: { email: 'engineer@kilocycle.test', sees: ['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches', 'Certificates', 'Comparisons'], doesNotSee: ['Users', 'Organisations', 'Review', 'Procedures'] },
-  client: { email: 'client@northgate.test', sees: ['Overview', 'Jobs', 'Instruments', 'Certificates'], doesNotSee: ['Standards', 'Benches', 'Users', 'Organisations', 'Review', 'Comparisons', 'Outbox'] },
+  admin: {
+    email: 'admin@kilocycle.test',
+    sees: ['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches', 'Certificates', 'Outbox', 'Users', 'Organisations'],
+    doesNotSee: ['Review', 'Comparisons'],
+  },
+  lead: {
+    email: 'lead@kilocycle.test',
+    sees: ['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches', 'Review', 'Certificates', 'Comparisons', 'Procedures'],
+    doesNotSee: ['Users', 'Organisations', 'Outbox'],
+  },
+  technician: {
+    email: 'tech@kilocycle.test',
+    sees: ['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches', 'Certificates'],
+    doesNotSee: ['Users', 'Organisations', 'Review', 'Comparisons', 'Outbox'],
+  },
+  engineer: {
+    email: 'engineer@kilocycle.test',
+    sees: ['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches', 'Certificates', 'Comparisons'],
+    doesNotSee: ['Users', 'Organisations', 'Review', 'Procedures'],
+  },
+  client: {
+    email: 'client@northgate.test',
+    sees: ['Overview', 'Jobs', 'Instruments', 'Certificates'],
+    doesNotSee: ['Standards', 'Benches', 'Users', 'Organisations', 'Review', 'Comparisons', 'Outbox'],
+  },
 };
 
 describe('sign-in and navigation per role (browser)', () => {

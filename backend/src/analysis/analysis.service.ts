@@ -110,7 +110,13 @@ export class AnalysisService {
     return { readingCount: series.count, ...includedByTime(series) };
   }
 
-  private byKind(kind: RunKind, range: InstrumentRange, series: RunSeries, basis: (used: number) => ReadyAnalysisBasis, query: RunAnalysisQueryDto): RunAnalysis {
+  private byKind(
+    kind: RunKind,
+    range: InstrumentRange,
+    series: RunSeries,
+    basis: (used: number) => ReadyAnalysisBasis,
+    query: RunAnalysisQueryDto,
+  ): RunAnalysis {
     switch (kind) {
       case 'as_found':
       case 'as_left':
@@ -126,7 +132,12 @@ export class AnalysisService {
     }
   }
 
-  private calibration(range: InstrumentRange, series: RunSeries, basis: (used: number) => ReadyAnalysisBasis, query: RunAnalysisQueryDto): CalibrationRunAnalysis {
+  private calibration(
+    range: InstrumentRange,
+    series: RunSeries,
+    basis: (used: number) => ReadyAnalysisBasis,
+    query: RunAnalysisQueryDto,
+  ): CalibrationRunAnalysis {
     const readings: Array<{ dial: number; frequency: number; excluded: boolean }> = [];
     for (let i = 0; i < series.count; i++) {
       if (Number.isNaN(series.dial[i]!)) continue;
@@ -158,7 +169,11 @@ export class AnalysisService {
   }
 
   /** alignLC from the measured points at the two range ends, with a mid-range point when there is one. */
-  private alignment(range: InstrumentRange, points: CalibrationPoint[], tuningCapLowPf: number | undefined): { alignment: RunAlignment | null; note: string | null } {
+  private alignment(
+    range: InstrumentRange,
+    points: CalibrationPoint[],
+    tuningCapLowPf: number | undefined,
+  ): { alignment: RunAlignment | null; note: string | null } {
     if (points.length < 2) return { alignment: null, note: 'measure both ends of the range to get the alignment' };
     try {
       const span = range.dialMax - range.dialMin;
@@ -173,7 +188,8 @@ export class AnalysisService {
       }
       const middleTarget = (low.nominal + high.nominal) / 2;
       const inner = byNominal.slice(1, -1);
-      const mid = inner.length === 0 ? null : inner.reduce((best, p) => (Math.abs(p.nominal - middleTarget) < Math.abs(best.nominal - middleTarget) ? p : best));
+      const mid =
+        inner.length === 0 ? null : inner.reduce((best, p) => (Math.abs(p.nominal - middleTarget) < Math.abs(best.nominal - middleTarget) ? p : best));
       const result = alignLC({
         lowMeasured: low.measured,
         lowTarget: low.nominal,

@@ -96,7 +96,10 @@ export class BandPlanService {
 function nominalDialFor(range: InstrumentRange, frequencyHz: number): number | null {
   if (range.dialLaw.kind === 'direct') return frequencyHz / unitMultiplier(range.dialLaw.unit);
   try {
-    return dialForFrequency(range.dialLaw.points.map((p) => ({ dial: p.dial, measured: p.frequency })), frequencyHz);
+    return dialForFrequency(
+      range.dialLaw.points.map((p) => ({ dial: p.dial, measured: p.frequency })),
+      frequencyHz,
+    );
   } catch (error) {
     if (error instanceof MetrologyError) return null;
     throw error;

@@ -19,14 +19,24 @@ export class AttachmentsController {
   @Roles(...BENCH_ROLES)
   @ApiConsumes('multipart/form-data')
   @Post('instruments/:id/attachments')
-  attachToInstrument(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<AttachmentView> {
+  attachToInstrument(
+    @CurrentUser() user: AuthUser,
+    @IdParam('id') id: number,
+    @Req() req: Request,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<AttachmentView> {
     return this.attachments.upload(user, 'instrument', id, req, res);
   }
 
   @Roles(...BENCH_ROLES)
   @ApiConsumes('multipart/form-data')
   @Post('jobs/:id/attachments')
-  attachToJob(@CurrentUser() user: AuthUser, @IdParam('id') id: number, @Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<AttachmentView> {
+  attachToJob(
+    @CurrentUser() user: AuthUser,
+    @IdParam('id') id: number,
+    @Req() req: Request,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<AttachmentView> {
     return this.attachments.upload(user, 'job', id, req, res);
   }
 

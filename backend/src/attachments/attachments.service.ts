@@ -1,11 +1,4 @@
-import {
-  BadRequestException,
-  Inject,
-  Injectable,
-  Logger,
-  NotFoundException,
-  UnsupportedMediaTypeException,
-} from '@nestjs/common';
+import { BadRequestException, Inject, Injectable, Logger, NotFoundException, UnsupportedMediaTypeException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import type { Request, Response } from 'express';
 import { createHash, randomBytes } from 'node:crypto';
@@ -54,7 +47,9 @@ function toView(row: AttachmentRow): AttachmentView {
 
 /** A file name as the uploader had it, without any path and without control characters. */
 function cleanName(name: string): string {
-  const cleaned = basename(name.replace(/\\/g, '/')).replace(/[\u0000-\u001f\u007f]/g, '').trim();
+  const cleaned = basename(name.replace(/\\/g, '/'))
+    .replace(/[\u0000-\u001f\u007f]/g, '')
+    .trim();
   return (cleaned === '' ? 'attachment' : cleaned).slice(0, 255);
 }
 
@@ -90,7 +85,8 @@ export class AttachmentsService {
     const table = owner === 'instrument' ? 'instruments' : 'jobs';
     const [row] = await this.dataSource.query(`SELECT organization_id FROM ${table} WHERE id = ?`, [id]);
     const scope = organizationScope(actor);
-    if (!row || (scope !== null && Number(row.organization_id) !== scope)) throw new NotFoundException(`${owner === 'instrument' ? 'Instrument' : 'Job'} ${id} not found`);
+    if (!row || (scope !== null && Number(row.organization_id) !== scope))
+      throw new NotFoundException(`${owner === 'instrument' ? 'Instrument' : 'Job'} ${id} not found`);
     return Number(row.organization_id);
   }
 
@@ -114,11 +110,23 @@ export class AttachmentsService {
         const result = await manager.insert(Attachment, {
           instrumentId: owner === 'instrument' ? ownerId : null,
           jobId: owner === 'job' ? ownerId : null,
-          storageName, originalName, caption, contentType, sizeBytes: upload.size, sha256, uploadedById: actor.id,
+          storageName,
+          originalName,
+          caption,
+          contentType,
+          sizeBytes: upload.size,
+          sha256,
+          uploadedById: actor.id,
         });
         const newId = result.identifiers[0]!.id as number;
         await this.audit.record(
-          { actorId: actor.id, entity: owner, entityId: ownerId, action: 'attach', changes: { attachmentId: newId, originalName, contentType, sizeBytes: upload.size, sha256 } },
+          {
+            actorId: actor.id,
+            entity: owner,
+            entityId: ownerId,
+            action: 'attach',
+            changes: { attachmentId: newId, originalName, contentType, sizeBytes: upload.size, sha256 },
+          },
           manager,
         );
         return newId;
@@ -141,7 +149,9 @@ export class AttachmentsService {
   async serve(actor: AuthUser, id: number, download: boolean, res: Response): Promise<void> {
     const row = await this.visible(actor, id);
     const path = join(this.storeDir, row.storageName);
-    const size = await stat(path).then((s) => s.size).catch(() => null);
+    const size = await stat(path)
+      .then((s) => s.size)
+      .catch(() => null);
     if (size === null) throw new NotFoundException(`the file of attachment ${id} is missing from the store`);
     res.setHeader('Content-Type', row.contentType === 'text/plain' ? 'text/plain; charset=utf-8' : row.contentType);
     res.setHeader('Content-Length', String(size));
@@ -168,7 +178,9 @@ export class AttachmentsService {
         manager,
       );
     });
-    await removeQuietly(join(this.storeDir, row.storageName)).catch((error: unknown) => this.logger.warn(`attachment ${id}: the file could not be removed: ${String(error)}`));
+    await removeQuietly(join(this.storeDir, row.storageName)).catch((error: unknown) =>
+      this.logger.warn(`attachment ${id}: the file could not be removed: ${String(error)}`),
+    );
   }
 
   private async visible(actor: AuthUser, id: number): Promise<AttachmentRow> {

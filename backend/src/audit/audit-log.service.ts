@@ -46,7 +46,8 @@ export class AuditLogService {
           entity: String(row.entity),
           entityId: String(row.entity_id),
           action: String(row.action),
-          changes: typeof row.changes === 'string' ? (JSON.parse(row.changes) as Record<string, unknown>) : ((row.changes as Record<string, unknown> | null) ?? null),
+          changes:
+            typeof row.changes === 'string' ? (JSON.parse(row.changes) as Record<string, unknown>) : ((row.changes as Record<string, unknown> | null) ?? null),
         };
       }),
     };

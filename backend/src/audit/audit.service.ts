@@ -28,9 +28,16 @@ export class AuditService {
    * trip on every write (the ingest path writes one event per batch).
    */
   async record(entry: AuditEntry, manager?: EntityManager): Promise<void> {
-    const values = [entry.actorId, entry.entity, String(entry.entityId), entry.action, entry.changes === null || entry.changes === undefined ? null : JSON.stringify(entry.changes)];
+    const values = [
+      entry.actorId,
+      entry.entity,
+      String(entry.entityId),
+      entry.action,
+      entry.changes === null || entry.changes === undefined ? null : JSON.stringify(entry.changes),
+    ];
     const runner = manager ?? this.events.manager;
-    if (entry.at) await runner.query('INSERT INTO audit_events (actor_id, entity, entity_id, action, changes, at) VALUES (?, ?, ?, ?, ?, ?)', [...values, entry.at]);
+    if (entry.at)
+      await runner.query('INSERT INTO audit_events (actor_id, entity, entity_id, action, changes, at) VALUES (?, ?, ?, ?, ?, ?)', [...values, entry.at]);
     else await runner.query('INSERT INTO audit_events (actor_id, entity, entity_id, action, changes) VALUES (?, ?, ?, ?, ?)', values);
   }
 

@@ -78,7 +78,13 @@ export class AuthService {
       accountId = account?.id ?? null;
       reason ??= !account ? 'unknown e-mail' : !account.active || !account.organizationActive ? 'account or organisation deactivated' : 'wrong password';
     }
-    await this.audit.record({ actorId: null, entity: 'user', entityId: accountId ?? 'unknown', action: 'sign_in_refused', changes: { email, address, reason } });
+    await this.audit.record({
+      actorId: null,
+      entity: 'user',
+      entityId: accountId ?? 'unknown',
+      action: 'sign_in_refused',
+      changes: { email, address, reason },
+    });
   }
 
   private firstThrottledThisMinute(email: string, address: string): boolean {
@@ -105,10 +111,7 @@ export class AuthService {
     } catch {
       throw new UnauthorizedException('Session is not valid or has expired; sign in again');
     }
-    const [user, revoked] = await Promise.all([
-      this.accounts.byId(claims.sub),
-      this.revoked.existsBy({ jti: claims.jti }),
-    ]);
+    const [user, revoked] = await Promise.all([this.accounts.byId(claims.sub), this.revoked.existsBy({ jti: claims.jti })]);
     if (!user || !user.active || !user.organizationActive || revoked || user.tokenVersion !== claims.tv) {
       throw new UnauthorizedException('Session is not valid any more; sign in again');
     }

@@ -103,7 +103,25 @@ function buildSource(source: string, args: ReturnType<typeof parseArgs>): Counte
 async function main(argv: string[]): Promise<number> {
   const args = parseArgs(
     argv,
-    ['server', 'token', 'run', 'source', 'query', 'setup', 'dial', 'interval', 'speed', 'seed', 'count', 'time-zero', 'batch', 'window', 'spool', 'timeout', 'status-every'],
+    [
+      'server',
+      'token',
+      'run',
+      'source',
+      'query',
+      'setup',
+      'dial',
+      'interval',
+      'speed',
+      'seed',
+      'count',
+      'time-zero',
+      'batch',
+      'window',
+      'spool',
+      'timeout',
+      'status-every',
+    ],
     ['help'],
   );
   if (args.flags.has('help')) {

@@ -112,7 +112,9 @@ export class Bridge {
     this.connect();
     const attached = await Promise.race([this.firstAttach(), done.then(() => null)]);
     if (attached) {
-      this.say(`attached to run ${attached.runId} (${attached.kind}, ${attached.range.label}) as bench "${attached.benchName}"; numbering from seq ${this.nextSeq}; reading ${this.options.source.label}`);
+      this.say(
+        `attached to run ${attached.runId} (${attached.kind}, ${attached.range.label}) as bench "${attached.benchName}"; numbering from seq ${this.nextSeq}; reading ${this.options.source.label}`,
+      );
       void this.runSource(attached).then(() => this.drainThenFinish());
     }
     return done;
@@ -408,7 +410,11 @@ export class Bridge {
     if (this.statusTimer) clearInterval(this.statusTimer);
     this.drawStatus(true);
     if (unacknowledged > 0) {
-      this.outcome = { exitCode: exitCode === 0 || exitCode === 3 ? 4 : exitCode, stats: this.stats, message: `${message}; ${plural(unacknowledged, 'reading')} not acknowledged ${unacknowledged === 1 ? 'is' : 'are'} kept in ${this.options.spoolPath}: run the bridge again on run ${this.options.runId} to send them` };
+      this.outcome = {
+        exitCode: exitCode === 0 || exitCode === 3 ? 4 : exitCode,
+        stats: this.stats,
+        message: `${message}; ${plural(unacknowledged, 'reading')} not acknowledged ${unacknowledged === 1 ? 'is' : 'are'} kept in ${this.options.spoolPath}: run the bridge again on run ${this.options.runId} to send them`,
+      };
     }
     this.finishing?.(this.outcome);
   }

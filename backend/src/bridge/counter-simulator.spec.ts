@@ -9,11 +9,14 @@ describe('CounterSimulator', () => {
       expect(sim.answer('*IDN?')).toBe(IDN);
     });
 
-    it.each(['MEAS:FREQ?', ':MEASure:FREQuency?', 'meas:freq? DEF,DEF', 'READ?', 'FETC?', 'FETCH?', 'MEAS?', 'MEAS:SCAL:FREQ?'])('should answer %s with a frequency', (query) => {
-      const value = parseScpiNumber(sim.answer(query) ?? '');
-      expect(value).not.toBeNull();
-      expect(Math.abs(value! - 7_050_000)).toBeLessThan(20_000);
-    });
+    it.each(['MEAS:FREQ?', ':MEASure:FREQuency?', 'meas:freq? DEF,DEF', 'READ?', 'FETC?', 'FETCH?', 'MEAS?', 'MEAS:SCAL:FREQ?'])(
+      'should answer %s with a frequency',
+      (query) => {
+        const value = parseScpiNumber(sim.answer(query) ?? '');
+        expect(value).not.toBeNull();
+        expect(Math.abs(value! - 7_050_000)).toBeLessThan(20_000);
+      },
+    );
 
     it('should answer each query of a compound message and stay silent on settings', () => {
       expect(sim.answer('*RST;CONF:FREQ')).toBeNull();

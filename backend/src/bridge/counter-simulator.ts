@@ -36,7 +36,16 @@ export class CounterSimulator {
   constructor(private readonly options: CounterSimulatorOptions) {
     const dialMin = options.freqMinHz / 1000;
     const dialMax = options.freqMaxHz / 1000;
-    this.oscillator = new LcOscillator({ profile: options.profile, dialMin, dialMax, freqMinHz: options.freqMinHz, freqMaxHz: options.freqMaxHz, dial: options.dialKHz, seed: options.seed, readingsPerPoint: 5 });
+    this.oscillator = new LcOscillator({
+      profile: options.profile,
+      dialMin,
+      dialMax,
+      freqMinHz: options.freqMinHz,
+      freqMaxHz: options.freqMaxHz,
+      dial: options.dialKHz,
+      seed: options.seed,
+      readingsPerPoint: 5,
+    });
     this.server = createServer((socket) => this.serve(socket));
   }
 
@@ -65,7 +74,8 @@ export class CounterSimulator {
       const [header] = command.split(/\s+/);
       const normal = header.toUpperCase().replace(/^:/, '');
       if (normal === '*IDN?') replies.push(IDN);
-      else if (normal === '*RST' || normal === '*CLS' || normal === 'INIT' || normal.startsWith('CONF') || (normal.startsWith('SENS') && !normal.endsWith('?'))) continue;
+      else if (normal === '*RST' || normal === '*CLS' || normal === 'INIT' || normal.startsWith('CONF') || (normal.startsWith('SENS') && !normal.endsWith('?')))
+        continue;
       else if (normal === '*OPC?') replies.push('1');
       else if (normal === 'SYST:ERR?' || normal === 'SYSTEM:ERROR?' || normal === 'SYST:ERR:NEXT?') {
         replies.push(this.lastError);

@@ -27,7 +27,10 @@ describe('LcOscillator', () => {
       const f = Array.from({ length: 4096 }, (_, i) => osc.read(i).frequency);
       const mean = f.reduce((a, b) => a + b, 0) / f.length;
       expect(Math.abs(mean - osc.settled(5500)) / mean).toBeLessThan(1e-6);
-      const points = overlappingAdev(f.map((x) => (x - mean) / mean), 1);
+      const points = overlappingAdev(
+        f.map((x) => (x - mean) / mean),
+        1,
+      );
       const at1 = points.find((p) => p.tau === 1)!;
       expect(at1.deviation).toBeGreaterThan(1e-8);
       expect(at1.deviation).toBeLessThan(1e-7);

@@ -8,7 +8,6 @@ import { BudgetsService } from './budgets.service.js';
 import { CreateProcedureDto, ListProceduresQueryDto, SetJobProcedureDto, UpdateProcedureDto, UpdateRunBudgetDto } from './dto/budget.dto.js';
 import { IdParam } from '../shared/id-param.decorator.js';
 
-
 @ApiTags('budgets')
 @ApiBearerAuth()
 @Controller()

@@ -34,7 +34,13 @@ import { RunBudget } from './run-budget.entity.js';
     IngestModule,
   ],
   controllers: [BudgetsController],
-  providers: [BudgetsService, JobResultsReader, JobResultsService, ProcedureCaptureReader, { provide: CaptureSettingsSource, useExisting: ProcedureCaptureReader }],
+  providers: [
+    BudgetsService,
+    JobResultsReader,
+    JobResultsService,
+    ProcedureCaptureReader,
+    { provide: CaptureSettingsSource, useExisting: ProcedureCaptureReader },
+  ],
   exports: [BudgetsService, JobResultsService, ProcedureCaptureReader, CaptureSettingsSource],
 })
 export class BudgetsModule {}

@@ -1,12 +1,7 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import type { DataSource, EntityManager } from 'typeorm';
-import type {
-  JobResults,
-  ListResponse,
-  Procedure as ProcedureView,
-  RunBudget as RunBudgetView,
-} from '@kilocycle/common/types';
+import type { JobResults, ListResponse, Procedure as ProcedureView, RunBudget as RunBudgetView } from '@kilocycle/common/types';
 import { CAPTURE_DEFAULTS } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
 import { RangeResultsReader } from '../instruments/range-results.reader.js';
@@ -78,7 +73,11 @@ export class BudgetsService {
     const id = await this.dataSource.transaction(async (manager) => {
       if (await manager.existsBy(Procedure, { name: body.name })) throw new ConflictException(`A procedure named "${body.name}" already exists`);
       if (body.isDefault) await manager.update(Procedure, { isDefault: true }, { isDefault: false });
-      const result = await manager.insert(Procedure, { ...body, extraComponents: body.extraComponents.map((c) => ({ ...c })), isDefault: body.isDefault ?? false });
+      const result = await manager.insert(Procedure, {
+        ...body,
+        extraComponents: body.extraComponents.map((c) => ({ ...c })),
+        isDefault: body.isDefault ?? false,
+      });
       const newId = result.identifiers[0].id as number;
       await recordProcedureVersion(manager, newId, actor.id);
       await this.audit.record({ actorId: actor.id, entity: 'procedure', entityId: newId, action: 'create', changes: { ...body, version: 1 } }, manager);
@@ -147,7 +146,14 @@ export class BudgetsService {
     const procedure = await this.jobResults.procedure(job.id, manager);
     const row = await manager.findOneBy(RunBudget, { runId });
     const overrides = row
-      ? { dialHalfDivision: row.dialHalfDivision, driftPpm: row.driftPpm, driftHz: row.driftHz, counterResolutionHz: row.counterResolutionHz, extraComponents: row.extraComponents, note: row.note }
+      ? {
+          dialHalfDivision: row.dialHalfDivision,
+          driftPpm: row.driftPpm,
+          driftHz: row.driftHz,
+          counterResolutionHz: row.counterResolutionHz,
+          extraComponents: row.extraComponents,
+          note: row.note,
+        }
       : { dialHalfDivision: null, driftPpm: null, driftHz: null, counterResolutionHz: null, extraComponents: null, note: null };
     const effective = effectiveFigures(procedure, overrides, dialSpan);
     const updatedByName = row?.updatedById ? ((await this.actors.namesOf([row.updatedById])).get(row.updatedById) ?? null) : null;
@@ -175,7 +181,10 @@ export class BudgetsService {
       const changes: Record<string, unknown> = {};
       for (const [key, value] of Object.entries(patch)) changes[key] = { from: before ? before[key as keyof RunBudget] : null, to: value };
       // The event names the job as well as the run: the no-self-sign rule and the job's history read it.
-      await this.audit.record({ actorId: actor.id, entity: 'run', entityId: runId, action: 'budget', changes: { jobId: job.id, jobNumber: locked.number, ...changes } }, manager);
+      await this.audit.record(
+        { actorId: actor.id, entity: 'run', entityId: runId, action: 'budget', changes: { jobId: job.id, jobNumber: locked.number, ...changes } },
+        manager,
+      );
     });
     return this.runBudget(actor, runId);
   }
@@ -188,7 +197,11 @@ export class BudgetsService {
   }
 
   /** A run the user may see, with its job and its range's dial span; another organisation's run answers 404 as if it did not exist. */
-  private async scopedRun(user: Pick<AuthUser, 'role' | 'organizationId'>, runId: number, manager: EntityManager): Promise<{ job: JobScope; dialSpan: number }> {
+  private async scopedRun(
+    user: Pick<AuthUser, 'role' | 'organizationId'>,
+    runId: number,
+    manager: EntityManager,
+  ): Promise<{ job: JobScope; dialSpan: number }> {
     const place = await this.runs.place(runId, manager);
     if (!place) throw new NotFoundException(`Run ${runId} not found`);
     let job: JobScope;

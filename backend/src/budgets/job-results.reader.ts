@@ -121,8 +121,14 @@ export class JobResultsReader {
   /** The job's as-found and as-left runs with their standards and budget overrides. */
   private async calibrationRuns(jobId: number, manager?: EntityManager): Promise<CalibrationRunRow[]> {
     const runs = await this.runs.calibrationRuns(jobId, manager);
-    const standards = await this.standards.references(runs.flatMap((r) => (r.standardId === null ? [] : [r.standardId])), manager);
-    const overrides = await this.overrides(runs.map((r) => r.id), manager);
+    const standards = await this.standards.references(
+      runs.flatMap((r) => (r.standardId === null ? [] : [r.standardId])),
+      manager,
+    );
+    const overrides = await this.overrides(
+      runs.map((r) => r.id),
+      manager,
+    );
     return runs.map((run) => {
       const standard = run.standardId === null ? undefined : standards.get(run.standardId);
       return {

@@ -79,8 +79,7 @@ export function effectiveFigures(procedure: ProcedureFigures, overrides: RunOver
 
 function extraToComponent(extra: ExtraComponent, nominalHz: number): UncertaintyComponent {
   const valueHz = extra.unit === 'ppm' ? ppmToHz(extra.value, nominalHz) : extra.value;
-  const divisor =
-    extra.distribution === 'normal' ? (extra.divisor ?? 1) : DISTRIBUTION_DIVISORS[extra.distribution];
+  const divisor = extra.distribution === 'normal' ? (extra.divisor ?? 1) : DISTRIBUTION_DIVISORS[extra.distribution];
   return { name: extra.name, kind: 'B', distribution: extra.distribution, value: valueHz, divisor, sensitivity: 1, dof: extra.dof ?? null };
 }
 
@@ -136,7 +135,6 @@ function message(error: unknown): string {
   return error instanceof Error ? error.message : String(error);
 }
 
-
 /** What the steps of one job's results share: the loaded input, the runs' readings and what is collected on the way. */
 type Context = {
   input: JobResultsInput;
@@ -185,7 +183,12 @@ function rangeResult(context: Context, range: ResultsRange): RangeResult | null 
   const asLeftRun = pickRun(context, range, 'as_left');
   if (!asFoundRun && !asLeftRun) return null;
   if (asFoundRun && !asLeftRun) {
-    context.flags.push({ kind: 'no_as_left', severity: 'info', rangeId: range.id, message: `${range.label}: as-found only (no adjustment recorded); the as-found results are the final ones` });
+    context.flags.push({
+      kind: 'no_as_left',
+      severity: 'info',
+      rangeId: range.id,
+      message: `${range.label}: as-found only (no adjustment recorded); the as-found results are the final ones`,
+    });
   }
   const problems: string[] = [];
   const found = asFoundRun ? analyseRun(context, range, asFoundRun, problems) : null;
@@ -219,7 +222,13 @@ function pickRun(context: Context, range: ResultsRange, kind: RunKind): Calibrat
   const chosen = usable.length > 0 ? usable[usable.length - 1]! : null;
   for (const other of candidates) {
     if (chosen && other.id !== chosen.id) {
-      context.flags.push({ kind: 'extra_run', severity: 'info', runId: other.id, rangeId: range.id, message: `${kind.replace('_', '-')} run ${other.id} on ${range.label} is not used: run ${chosen.id} is the latest with readings` });
+      context.flags.push({
+        kind: 'extra_run',
+        severity: 'info',
+        runId: other.id,
+        rangeId: range.id,
+        message: `${kind.replace('_', '-')} run ${other.id} on ${range.label} is not used: run ${chosen.id} is the latest with readings`,
+      });
     }
   }
   return chosen;
@@ -238,7 +247,13 @@ function analyseRun(context: Context, range: ResultsRange, run: CalibrationRunRo
     });
   } catch (error) {
     problems.push(`run ${run.id}: ${message(error)}`);
-    context.flags.push({ kind: 'computation', severity: 'blocker', runId: run.id, rangeId: range.id, message: `run ${run.id} on ${range.label} cannot be analysed: ${message(error)}` });
+    context.flags.push({
+      kind: 'computation',
+      severity: 'blocker',
+      runId: run.id,
+      rangeId: range.id,
+      message: `run ${run.id} on ${range.label} cannot be analysed: ${message(error)}`,
+    });
     return null;
   }
   const samples = settingSamples(context, runReadings);
@@ -253,19 +268,45 @@ function flagRun(context: Context, range: ResultsRange, run: CalibrationRunRow, 
   const { flags } = context;
   for (const r of runReadings) {
     if (r.excludedReason !== null) {
-      flags.push({ kind: 'excluded_reading', severity: 'info', runId: run.id, rangeId: range.id, readingId: r.id, dial: r.dial ?? undefined, message: `reading #${r.seq} of run ${run.id} excluded: ${r.excludedReason}` });
+      flags.push({
+        kind: 'excluded_reading',
+        severity: 'info',
+        runId: run.id,
+        rangeId: range.id,
+        readingId: r.id,
+        dial: r.dial ?? undefined,
+        message: `reading #${r.seq} of run ${run.id} excluded: ${r.excludedReason}`,
+      });
     }
   }
   if (run.standard) {
     context.standards.set(run.standard.id, run.standard);
     if (run.standard.dueDate < run.startedAt.toISOString().slice(0, 10)) {
-      flags.push({ kind: 'standard_overdue', severity: 'warning', runId: run.id, rangeId: range.id, message: `standard ${run.standard.name} was past its due date (${run.standard.dueDate}) when run ${run.id} started` });
+      flags.push({
+        kind: 'standard_overdue',
+        severity: 'warning',
+        runId: run.id,
+        rangeId: range.id,
+        message: `standard ${run.standard.name} was past its due date (${run.standard.dueDate}) when run ${run.id} started`,
+      });
     }
   } else {
-    flags.push({ kind: 'no_standard', severity: 'blocker', runId: run.id, rangeId: range.id, message: `run ${run.id} on ${range.label} names no reference standard: no uncertainty can be stated` });
+    flags.push({
+      kind: 'no_standard',
+      severity: 'blocker',
+      runId: run.id,
+      rangeId: range.id,
+      message: `run ${run.id} on ${range.label} names no reference standard: no uncertainty can be stated`,
+    });
   }
   if (run.standardOverrideReason) {
-    flags.push({ kind: 'standard_override', severity: 'warning', runId: run.id, rangeId: range.id, message: `run ${run.id} used an overdue standard by override: ${run.standardOverrideReason}` });
+    flags.push({
+      kind: 'standard_override',
+      severity: 'warning',
+      runId: run.id,
+      rangeId: range.id,
+      message: `run ${run.id} used an overdue standard by override: ${run.standardOverrideReason}`,
+    });
   }
 }
 
@@ -281,7 +322,14 @@ function settingSamples(context: Context, runReadings: readonly ResultsReading[]
 }
 
 /** One setting of one run: the measured figures, then its budget, decision and rounded error when the run names a standard. */
-function measuredPoint(context: Context, range: ResultsRange, run: CalibrationRunRow, p: CalibrationPoint, samples: readonly number[], figures: ReturnType<typeof effectiveFigures>): MeasuredPoint {
+function measuredPoint(
+  context: Context,
+  range: ResultsRange,
+  run: CalibrationRunRow,
+  p: CalibrationPoint,
+  samples: readonly number[],
+  figures: ReturnType<typeof effectiveFigures>,
+): MeasuredPoint {
   const tolHz = p.toleranceHz ?? toleranceHz(range.tolerance, p.nominal);
   const measured: MeasuredPoint = {
     runId: run.id,
@@ -304,7 +352,14 @@ function measuredPoint(context: Context, range: ResultsRange, run: CalibrationRu
     problem: null,
   };
   if (p.outlier) {
-    context.flags.push({ kind: 'outlier', severity: 'warning', runId: run.id, rangeId: range.id, dial: p.dial, message: `run ${run.id}, dial ${p.dial}: studentised residual ${p.studentised?.toFixed(1)} (above 3); check the reading` });
+    context.flags.push({
+      kind: 'outlier',
+      severity: 'warning',
+      runId: run.id,
+      rangeId: range.id,
+      dial: p.dial,
+      message: `run ${run.id}, dial ${p.dial}: studentised residual ${p.studentised?.toFixed(1)} (above 3); check the reading`,
+    });
   }
   if (!run.standard) {
     measured.problem = 'no reference standard recorded for the run';
@@ -312,7 +367,14 @@ function measuredPoint(context: Context, range: ResultsRange, run: CalibrationRu
   }
   try {
     const span = range.dialMax - range.dialMin;
-    const budget = pointBudget({ nominalHz: p.nominal, samples, standard: run.standard, figures, slopeHzPerDialUnit: dialSlope(range.dialLaw, p.dial, span), dialUnit: range.dialUnit });
+    const budget = pointBudget({
+      nominalHz: p.nominal,
+      samples,
+      standard: run.standard,
+      figures,
+      slopeHzPerDialUnit: dialSlope(range.dialLaw, p.dial, span),
+      dialUnit: range.dialUnit,
+    });
     // ILAC-G8: w, the acceptance limit and the TUR take U as computed; the two-digit U is only printed.
     const decision = decide({ errorHz: p.errorHz, toleranceHz: tolHz, U: budget.Uunrounded, rule: context.input.procedure.decisionRule });
     const rounded = roundResultToUncertainty(p.errorHz, budget.U);
@@ -328,7 +390,14 @@ function measuredPoint(context: Context, range: ResultsRange, run: CalibrationRu
     });
   } catch (error) {
     measured.problem = message(error);
-    context.flags.push({ kind: 'computation', severity: 'blocker', runId: run.id, rangeId: range.id, dial: p.dial, message: `run ${run.id}, dial ${p.dial}: ${message(error)}` });
+    context.flags.push({
+      kind: 'computation',
+      severity: 'blocker',
+      runId: run.id,
+      rangeId: range.id,
+      dial: p.dial,
+      message: `run ${run.id}, dial ${p.dial}: ${message(error)}`,
+    });
   }
   return measured;
 }
@@ -349,10 +418,24 @@ function mergePoints(context: Context, range: ResultsRange, found: AnalysedRun |
     const asLeft = left?.points.get(dial) ?? null;
     const final = asLeft ?? asFound;
     if (final?.turFlag) {
-      context.flags.push({ kind: 'tur_low', severity: 'warning', runId: final.runId, rangeId: range.id, dial, message: `${range.label}, dial ${dial}: test uncertainty ratio ${final.tur?.toFixed(2)}:1 is below 4:1` });
+      context.flags.push({
+        kind: 'tur_low',
+        severity: 'warning',
+        runId: final.runId,
+        rangeId: range.id,
+        dial,
+        message: `${range.label}, dial ${dial}: test uncertainty ratio ${final.tur?.toFixed(2)}:1 is below 4:1`,
+      });
     }
     if (final?.decision && final.decision !== 'pass') {
-      context.flags.push({ kind: 'point_not_conforming', severity: 'warning', runId: final.runId, rangeId: range.id, dial, message: `${range.label}, dial ${dial}: ${final.decision.replace('_', ' ')}${asLeft ? '' : ' (as found)'}` });
+      context.flags.push({
+        kind: 'point_not_conforming',
+        severity: 'warning',
+        runId: final.runId,
+        rangeId: range.id,
+        dial,
+        message: `${range.label}, dial ${dial}: ${final.decision.replace('_', ' ')}${asLeft ? '' : ' (as found)'}`,
+      });
     }
     points.push({ dial, nominal, toleranceHz: toleranceHz(range.tolerance, nominal), asFound, asLeft });
   }

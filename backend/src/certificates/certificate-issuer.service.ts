@@ -43,7 +43,11 @@ export class CertificateIssuer {
     recipients: CertificateRecipientsReader,
     audit: AuditService,
   ) {
-    this.deps = { config, results, readers: { jobs, jobStatus, instruments, ranges, organizations, runs, runStandards, standards, readings, recipients, audit } };
+    this.deps = {
+      config,
+      results,
+      readers: { jobs, jobStatus, instruments, ranges, organizations, runs, runStandards, standards, readings, recipients, audit },
+    };
   }
 
   issue(input: IssueInput): Promise<IssueOutcome> {

@@ -155,7 +155,12 @@ class Layout {
     doc.moveDown(0.6);
     doc.font('bold').fontSize(10.5).fillColor(ACCENT).text(text, MARGIN.left, doc.y, { width: CONTENT_WIDTH });
     const y = doc.y + 1.5;
-    doc.moveTo(MARGIN.left, y).lineTo(MARGIN.left + CONTENT_WIDTH, y).lineWidth(0.6).strokeColor(ACCENT).stroke();
+    doc
+      .moveTo(MARGIN.left, y)
+      .lineTo(MARGIN.left + CONTENT_WIDTH, y)
+      .lineWidth(0.6)
+      .strokeColor(ACCENT)
+      .stroke();
     doc.y = y + 5;
     doc.fillColor(INK);
   }
@@ -174,8 +179,16 @@ class Layout {
       const h = Math.max(doc.heightOfString(value || '—', { width: width - labelWidth }), 10);
       this.ensure(h + 3);
       const y = doc.y;
-      doc.font('sans').fontSize(7.5).fillColor(MUTED).text(label, x, y + 0.8, { width: labelWidth - 6 });
-      doc.font('sans').fontSize(8.5).fillColor(INK).text(value || '—', x + labelWidth, y, { width: width - labelWidth });
+      doc
+        .font('sans')
+        .fontSize(7.5)
+        .fillColor(MUTED)
+        .text(label, x, y + 0.8, { width: labelWidth - 6 });
+      doc
+        .font('sans')
+        .fontSize(8.5)
+        .fillColor(INK)
+        .text(value || '—', x + labelWidth, y, { width: width - labelWidth });
       doc.y = y + h + 3;
     }
   }
@@ -203,10 +216,25 @@ function resultsTable(layout: Layout, range: RangeResult, unit: FrequencyUnit): 
   const doc = layout.doc;
   const columns = resultsColumns(range, unit);
   // A thin rule at the start of each side, from the header down to the segment's last row on this page.
-  const groupStarts = (['found', 'left'] as const).map((g) => MARGIN.left + columns.slice(0, columns.findIndex((c) => c.group === g)).reduce((w, c) => w + c.width, 0));
+  const groupStarts = (['found', 'left'] as const).map(
+    (g) =>
+      MARGIN.left +
+      columns
+        .slice(
+          0,
+          columns.findIndex((c) => c.group === g),
+        )
+        .reduce((w, c) => w + c.width, 0),
+  );
   let segmentTop = 0;
   const closeSegment = () => {
-    for (const gx of groupStarts) doc.moveTo(gx, segmentTop).lineTo(gx, doc.y - 1.5).lineWidth(0.5).strokeColor(RULE).stroke();
+    for (const gx of groupStarts)
+      doc
+        .moveTo(gx, segmentTop)
+        .lineTo(gx, doc.y - 1.5)
+        .lineWidth(0.5)
+        .strokeColor(RULE)
+        .stroke();
   };
   layout.ensure(RESULTS_HEADER_HEIGHT + RESULTS_ROW_HEIGHT * Math.min(4, range.points.length) + 4);
   drawResultsHeader(doc, columns);
@@ -222,7 +250,12 @@ function resultsTable(layout: Layout, range: RangeResult, unit: FrequencyUnit): 
     drawResultsRow(doc, range, unit, columns, p, index);
   });
   closeSegment();
-  doc.moveTo(MARGIN.left, doc.y).lineTo(MARGIN.left + CONTENT_WIDTH, doc.y).lineWidth(0.4).strokeColor(RULE).stroke();
+  doc
+    .moveTo(MARGIN.left, doc.y)
+    .lineTo(MARGIN.left + CONTENT_WIDTH, doc.y)
+    .lineWidth(0.4)
+    .strokeColor(RULE)
+    .stroke();
   doc.y += 4;
   doc.fillColor(INK);
 }
@@ -256,12 +289,32 @@ function drawResultsHeader(doc: Doc, columns: readonly Column[]): void {
   doc.rect(MARGIN.left, y, CONTENT_WIDTH, RESULTS_HEADER_HEIGHT).fill('#eef1f4');
   let x = MARGIN.left;
   for (const group of ['found', 'left'] as const) {
-    const start = MARGIN.left + columns.slice(0, columns.findIndex((c) => c.group === group)).reduce((w, c) => w + c.width, 0);
+    const start =
+      MARGIN.left +
+      columns
+        .slice(
+          0,
+          columns.findIndex((c) => c.group === group),
+        )
+        .reduce((w, c) => w + c.width, 0);
     const width = columns.filter((c) => c.group === group).reduce((w, c) => w + c.width, 0);
-    doc.font('bold').fontSize(7).fillColor(group === 'found' ? FOUND : ACCENT);
+    doc
+      .font('bold')
+      .fontSize(7)
+      .fillColor(group === 'found' ? FOUND : ACCENT);
     doc.text(group === 'found' ? 'As found (before adjustment)' : 'As left (after adjustment)', start, y + 2.5, { width, align: 'center', lineBreak: false });
-    doc.moveTo(start + 4, y + RESULTS_GROUP_HEIGHT + 0.5).lineTo(start + width - 4, y + RESULTS_GROUP_HEIGHT + 0.5).lineWidth(0.5).strokeColor(group === 'found' ? FOUND : ACCENT).stroke();
-    doc.moveTo(start, y + 1).lineTo(start, y + RESULTS_HEADER_HEIGHT - 1).lineWidth(0.5).strokeColor(RULE).stroke();
+    doc
+      .moveTo(start + 4, y + RESULTS_GROUP_HEIGHT + 0.5)
+      .lineTo(start + width - 4, y + RESULTS_GROUP_HEIGHT + 0.5)
+      .lineWidth(0.5)
+      .strokeColor(group === 'found' ? FOUND : ACCENT)
+      .stroke();
+    doc
+      .moveTo(start, y + 1)
+      .lineTo(start, y + RESULTS_HEADER_HEIGHT - 1)
+      .lineWidth(0.5)
+      .strokeColor(RULE)
+      .stroke();
   }
   doc.font('medium').fontSize(6.6).fillColor(MUTED);
   for (const c of columns) {
@@ -309,7 +362,11 @@ function drawResultsRow(doc: Doc, range: RangeResult, unit: FrequencyUnit, colum
       // One muted note across the side's five cells.
       const width = columns.filter((col) => col.group === c.group).reduce((w, col) => w + col.width, 0);
       const note = c.group === 'left' && range.asLeftRunId === null ? 'not adjusted: the as-found result is final' : 'not measured';
-      doc.font('sans').fontSize(7).fillColor(MUTED).text(note, x + 3, y, { width: width - 6, align: 'center', lineBreak: false });
+      doc
+        .font('sans')
+        .fontSize(7)
+        .fillColor(MUTED)
+        .text(note, x + 3, y, { width: width - 6, align: 'center', lineBreak: false });
     } else if (cell !== '') {
       doc.font(isDecision ? (bad ? 'bold' : conditional ? 'medium' : 'sans') : 'mono').fillColor(bad ? '#a3261b' : conditional ? FOUND : INK);
       fitText(doc, cell, x + 2.5, y, c.width - 5, c.align, 7.2);
@@ -389,14 +446,32 @@ function drawPlotAxes(doc: Doc, box: PlotBox, scale: PlotScale, unit: FrequencyU
   doc.rect(box.x, box.y, box.w, box.h).lineWidth(0.5).strokeColor(RULE).stroke();
   doc.font('mono').fontSize(6).fillColor(MUTED);
   for (const t of yTicks) {
-    doc.moveTo(box.x, py(t)).lineTo(box.x + box.w, py(t)).lineWidth(0.25).strokeColor('#e4e7eb').stroke();
-    doc.text(plainHz(t, Math.max(0, -Math.floor(Math.log10(Math.abs(yTicks[1]! - yTicks[0]!))))), box.x - 42, py(t) - 2.5, { width: 38, align: 'right', lineBreak: false });
+    doc
+      .moveTo(box.x, py(t))
+      .lineTo(box.x + box.w, py(t))
+      .lineWidth(0.25)
+      .strokeColor('#e4e7eb')
+      .stroke();
+    doc.text(plainHz(t, Math.max(0, -Math.floor(Math.log10(Math.abs(yTicks[1]! - yTicks[0]!))))), box.x - 42, py(t) - 2.5, {
+      width: 38,
+      align: 'right',
+      lineBreak: false,
+    });
   }
   for (const t of xTicks) {
-    doc.moveTo(px(t), box.y + box.h).lineTo(px(t), box.y + box.h + 2.5).lineWidth(0.4).strokeColor(MUTED).stroke();
+    doc
+      .moveTo(px(t), box.y + box.h)
+      .lineTo(px(t), box.y + box.h + 2.5)
+      .lineWidth(0.4)
+      .strokeColor(MUTED)
+      .stroke();
     const step = xTicks.length > 1 ? Math.abs(xTicks[1]! - xTicks[0]!) : 1;
     const decimals = Math.max(0, -Math.floor(Math.log10(step)));
-    doc.text(formatFrequency(t * mult, unit, Math.min(12, decimals)).replace(/ [kMG]?Hz$/, ''), px(t) - 30, box.y + box.h + 4, { width: 60, align: 'center', lineBreak: false });
+    doc.text(formatFrequency(t * mult, unit, Math.min(12, decimals)).replace(/ [kMG]?Hz$/, ''), px(t) - 30, box.y + box.h + 4, {
+      width: 60,
+      align: 'center',
+      lineBreak: false,
+    });
   }
   doc.font('sans').fontSize(6.5).fillColor(MUTED);
   doc.text(`nominal (${unit})`, box.x + box.w - 80, box.y + box.h + 12, { width: 80, align: 'right', lineBreak: false });
@@ -410,7 +485,13 @@ function drawPlotAxes(doc: Doc, box: PlotBox, scale: PlotScale, unit: FrequencyU
 function drawPlotData(doc: Doc, box: PlotBox, points: RangeResult['points'], scale: PlotScale): void {
   const { mult, yLo, yHi, px, py } = scale;
   // zero line and tolerance limits (follow the nominal: the band widens with a percent tolerance)
-  if (yLo < 0 && yHi > 0) doc.moveTo(box.x, py(0)).lineTo(box.x + box.w, py(0)).lineWidth(0.6).strokeColor(MUTED).stroke();
+  if (yLo < 0 && yHi > 0)
+    doc
+      .moveTo(box.x, py(0))
+      .lineTo(box.x + box.w, py(0))
+      .lineWidth(0.6)
+      .strokeColor(MUTED)
+      .stroke();
   for (const sign of [1, -1]) {
     points.forEach((p, i) => {
       const x = px(p.nominal / mult);
@@ -434,7 +515,13 @@ function drawPlotData(doc: Doc, box: PlotBox, points: RangeResult['points'], sca
       if (m.budget) {
         const top = py(m.errorHz + m.budget.U);
         const bottom = py(m.errorHz - m.budget.U);
-        doc.moveTo(x, top).lineTo(x, bottom).moveTo(x - 1.8, top).lineTo(x + 1.8, top).moveTo(x - 1.8, bottom).lineTo(x + 1.8, bottom);
+        doc
+          .moveTo(x, top)
+          .lineTo(x, bottom)
+          .moveTo(x - 1.8, top)
+          .lineTo(x + 1.8, top)
+          .moveTo(x - 1.8, bottom)
+          .lineTo(x + 1.8, bottom);
         doc.lineWidth(0.5).strokeColor(s.color).stroke();
       }
       doc.circle(x, y, 1.9).lineWidth(0.7);
@@ -450,14 +537,45 @@ function drawPlotLegend(doc: Doc, box: PlotBox, range: RangeResult): void {
   const ly = box.y - 9;
   doc.font('sans').fontSize(6.2);
   const legend: Array<[string, (x: number) => void]> = [
-    ['as found ± U', (x) => doc.circle(x + 3, ly + 2.5, 1.9).lineWidth(0.7).fillAndStroke('#ffffff', FOUND)],
-    ['as left ± U', (x) => doc.circle(x + 3, ly + 2.5, 1.9).lineWidth(0.7).fillAndStroke(ACCENT, ACCENT)],
-    ['tolerance limits', (x) => { doc.moveTo(x, ly + 2.5).lineTo(x + 9, ly + 2.5).lineWidth(0.8).dash(3, { space: 2 }).strokeColor('#a3261b').stroke(); doc.undash(); }],
+    [
+      'as found ± U',
+      (x) =>
+        doc
+          .circle(x + 3, ly + 2.5, 1.9)
+          .lineWidth(0.7)
+          .fillAndStroke('#ffffff', FOUND),
+    ],
+    [
+      'as left ± U',
+      (x) =>
+        doc
+          .circle(x + 3, ly + 2.5, 1.9)
+          .lineWidth(0.7)
+          .fillAndStroke(ACCENT, ACCENT),
+    ],
+    [
+      'tolerance limits',
+      (x) => {
+        doc
+          .moveTo(x, ly + 2.5)
+          .lineTo(x + 9, ly + 2.5)
+          .lineWidth(0.8)
+          .dash(3, { space: 2 })
+          .strokeColor('#a3261b')
+          .stroke();
+        doc.undash();
+      },
+    ],
   ];
   const legendWidth = legend.reduce((w, [label]) => w + 12 + doc.widthOfString(label) + 12, 0);
   // A caption names the range, so a plot that falls to the next page is still read against its table.
   doc.font('medium').fontSize(6.5).fillColor(MUTED);
-  doc.text(`Range ${range.position}, ${range.label}: error against nominal`, box.x, ly, { width: box.w - legendWidth - 8, height: 8, lineBreak: false, ellipsis: true });
+  doc.text(`Range ${range.position}, ${range.label}: error against nominal`, box.x, ly, {
+    width: box.w - legendWidth - 8,
+    height: 8,
+    lineBreak: false,
+    ellipsis: true,
+  });
   doc.font('sans').fontSize(6.2);
   let lx = box.x + box.w - legendWidth + 12;
   for (const [label, mark] of legend) {
@@ -496,7 +614,9 @@ function conformityStatement(results: JobResults, outcomes: JobOutcomes): string
       const dials = out.map((p) => `${dialText(p.dial, r.dialUnit)}${p.asFound!.decision === 'conditional_fail' ? ' (conditional fail)' : ''}`);
       if (out.length > 0) found.push(`${r.label} at ${dials.join(', ')} ${r.dialUnit}`);
     }
-    lines.push(`As found, before adjustment, the instrument was out of tolerance at ${outcomes.asFound.outOfTolerance} of ${outcomes.asFound.settings} settings: ${found.join('; ')}.`);
+    lines.push(
+      `As found, before adjustment, the instrument was out of tolerance at ${outcomes.asFound.outOfTolerance} of ${outcomes.asFound.settings} settings: ${found.join('; ')}.`,
+    );
   }
   return lines.join(' ');
 }
@@ -508,7 +628,12 @@ function lowTurSentence(results: JobResults): string {
   for (const r of results.ranges) {
     const here: string[] = [];
     for (const p of r.points) {
-      const sides = ([['as found', p.asFound], ['as left', p.asLeft]] as const).filter(([, m]) => m?.turFlag && m.tur !== null);
+      const sides = (
+        [
+          ['as found', p.asFound],
+          ['as left', p.asLeft],
+        ] as const
+      ).filter(([, m]) => m?.turFlag && m.tur !== null);
       if (sides.length === 0) continue;
       count += 1;
       here.push(`${settingText(r, p.dial)} (${sides.map(([label, m]) => `${m!.tur!.toFixed(1)}:1 ${label}`).join(', ')})`);
@@ -548,7 +673,8 @@ function outcomeBox(layout: Layout, outcomes: JobOutcomes, rule: string): void {
   doc.font('bold').fontSize(9);
   const heights = rows.map(([, text]) => Math.max(doc.heightOfString(text, { width: textWidth }), 11));
   const notes: string[] = [];
-  if (outcomes.asLeft && outcomes.asFoundFinalRanges.length > 0) notes.push(`Not adjusted, so the as-found results are final: ${outcomes.asFoundFinalRanges.join('; ')}.`);
+  if (outcomes.asLeft && outcomes.asFoundFinalRanges.length > 0)
+    notes.push(`Not adjusted, so the as-found results are final: ${outcomes.asFoundFinalRanges.join('; ')}.`);
   notes.push(`Decision rule: ${rule}. Per-setting results, uncertainties and decisions follow.`);
   doc.font('sans').fontSize(7.5);
   const noteHeight = doc.heightOfString(notes.join(' '), { width: CONTENT_WIDTH - 16 });
@@ -557,14 +683,30 @@ function outcomeBox(layout: Layout, outcomes: JobOutcomes, rule: string): void {
   doc.moveDown(0.6);
   const top = doc.y;
   doc.rect(MARGIN.left, top, CONTENT_WIDTH, height).lineWidth(0.8).fillAndStroke('#f5f7f9', ACCENT);
-  doc.font('bold').fontSize(10.5).fillColor(ACCENT).text('Result', MARGIN.left + 8, top + 6, { width: CONTENT_WIDTH - 16 });
+  doc
+    .font('bold')
+    .fontSize(10.5)
+    .fillColor(ACCENT)
+    .text('Result', MARGIN.left + 8, top + 6, { width: CONTENT_WIDTH - 16 });
   let y = top + 22;
   rows.forEach(([label, text, tone], i) => {
-    doc.font('sans').fontSize(7.5).fillColor(MUTED).text(label, MARGIN.left + 8, y + 1.2, { width: labelWidth - 6 });
-    doc.font('bold').fontSize(9).fillColor(OUTCOME_COLORS[tone]).text(text, MARGIN.left + 8 + labelWidth, y, { width: textWidth });
+    doc
+      .font('sans')
+      .fontSize(7.5)
+      .fillColor(MUTED)
+      .text(label, MARGIN.left + 8, y + 1.2, { width: labelWidth - 6 });
+    doc
+      .font('bold')
+      .fontSize(9)
+      .fillColor(OUTCOME_COLORS[tone])
+      .text(text, MARGIN.left + 8 + labelWidth, y, { width: textWidth });
     y += heights[i]! + 4;
   });
-  doc.font('sans').fontSize(7.5).fillColor(INK).text(notes.join(' '), MARGIN.left + 8, y + 1, { width: CONTENT_WIDTH - 16 });
+  doc
+    .font('sans')
+    .fontSize(7.5)
+    .fillColor(INK)
+    .text(notes.join(' '), MARGIN.left + 8, y + 1, { width: CONTENT_WIDTH - 16 });
   doc.y = top + height + 2;
   doc.x = MARGIN.left;
   doc.fillColor(INK);
@@ -614,17 +756,41 @@ function titleBlock(layout: Layout, data: CertificatePdfData, r: JobResults & { 
   const doc = layout.doc;
   const qrSize = 78;
   doc.image(qr, PAGE.width - MARGIN.right - qrSize, MARGIN.top - 4, { width: qrSize });
-  doc.font('sans').fontSize(6).fillColor(MUTED).text('Scan to check this certificate', PAGE.width - MARGIN.right - qrSize - 10, MARGIN.top + qrSize - 2, { width: qrSize + 10, align: 'center' });
-  doc.font('bold').fontSize(20).fillColor(INK).text('Calibration Certificate', MARGIN.left, MARGIN.top, { width: CONTENT_WIDTH - qrSize - 12 });
-  doc.font('mono').fontSize(10).fillColor(ACCENT).text(`${data.number}  ·  revision ${data.revision}`, MARGIN.left, doc.y + 2);
-  doc.font('sans').fontSize(8.5).fillColor(MUTED).text(`Issued ${dateText(data.issuedAt)} by ${data.lab.name}`, MARGIN.left, doc.y + 2);
+  doc
+    .font('sans')
+    .fontSize(6)
+    .fillColor(MUTED)
+    .text('Scan to check this certificate', PAGE.width - MARGIN.right - qrSize - 10, MARGIN.top + qrSize - 2, { width: qrSize + 10, align: 'center' });
+  doc
+    .font('bold')
+    .fontSize(20)
+    .fillColor(INK)
+    .text('Calibration Certificate', MARGIN.left, MARGIN.top, { width: CONTENT_WIDTH - qrSize - 12 });
+  doc
+    .font('mono')
+    .fontSize(10)
+    .fillColor(ACCENT)
+    .text(`${data.number}  ·  revision ${data.revision}`, MARGIN.left, doc.y + 2);
+  doc
+    .font('sans')
+    .fontSize(8.5)
+    .fillColor(MUTED)
+    .text(`Issued ${dateText(data.issuedAt)} by ${data.lab.name}`, MARGIN.left, doc.y + 2);
   if (data.replaces) {
-    doc.font('bold').fontSize(8.5).fillColor('#a3261b').text(`This revision replaces revision ${data.replaces.revision}${data.replaces.issuedAt ? ` (issued ${data.replaces.issuedAt.slice(0, 10)})` : ''}.`, MARGIN.left, doc.y + 2, { width: CONTENT_WIDTH - qrSize - 12 });
+    doc
+      .font('bold')
+      .fontSize(8.5)
+      .fillColor('#a3261b')
+      .text(
+        `This revision replaces revision ${data.replaces.revision}${data.replaces.issuedAt ? ` (issued ${data.replaces.issuedAt.slice(0, 10)})` : ''}.`,
+        MARGIN.left,
+        doc.y + 2,
+        { width: CONTENT_WIDTH - qrSize - 12 },
+      );
   }
   doc.y = Math.max(doc.y, MARGIN.top + qrSize + 10);
   doc.fillColor(INK);
   outcomeBox(layout, r.outcomes, RULE_SHORT[r.decisionRule]);
-
 }
 
 /** Laboratory and customer, the item calibrated, and the dates, method and conditions. */
@@ -655,13 +821,17 @@ function identitySections(layout: Layout, data: CertificatePdfData, r: JobResult
   layout.fields([
     ['Job', data.job.number],
     ['Received', data.job.receivedDate],
-    ['Calibrated', data.calibrationDates.first === data.calibrationDates.last ? data.calibrationDates.first : `${data.calibrationDates.first} to ${data.calibrationDates.last}`],
+    [
+      'Calibrated',
+      data.calibrationDates.first === data.calibrationDates.last
+        ? data.calibrationDates.first
+        : `${data.calibrationDates.first} to ${data.calibrationDates.last}`,
+    ],
     ['Issued', dateText(data.issuedAt)],
     ['Procedure', r.procedure.name],
     ['Method', r.procedure.method],
     ['Environment', env.length > 0 ? env.join('; ') : 'not recorded'],
   ]);
-
 }
 
 /** The standards the results are traceable through. */
@@ -679,7 +849,6 @@ function traceabilitySection(layout: Layout, r: JobResults): void {
       'which the laboratory keeps within its due date.',
     8,
   );
-
 }
 
 /** One range: its span and tolerance, the results table, the fitted lines and the error plot. */
@@ -687,7 +856,9 @@ function rangeSection(layout: Layout, range: RangeResult): void {
   const unit = displayUnit(range);
   layout.heading(`Results, range ${range.position}: ${range.label}`, 200);
   const span = `${compactFrequency(range.freqMinHz, unit)} to ${compactFrequency(range.freqMaxHz, unit)} ${unit}`;
-  const runs = [range.asFoundRunId ? `as found: run ${range.asFoundRunId}` : null, range.asLeftRunId ? `as left: run ${range.asLeftRunId}` : null].filter(Boolean).join(', ');
+  const runs = [range.asFoundRunId ? `as found: run ${range.asFoundRunId}` : null, range.asLeftRunId ? `as left: run ${range.asLeftRunId}` : null]
+    .filter(Boolean)
+    .join(', ');
   layout.paragraph(
     `Span ${span}; tolerance ${toleranceWords(range.tolerance)}; ${runs}. Each row is the mean of the readings at that setting; ` +
       'error = measured − nominal; U is the expanded uncertainty with its coverage factor k (coverage probability ≈ 95 %).',
@@ -734,7 +905,9 @@ function statementSections(layout: Layout, data: CertificatePdfData, r: JobResul
 
   if (data.replaces) {
     layout.heading('Amendment', 50);
-    layout.paragraph(`This is revision ${data.revision}; it replaces revision ${data.replaces.revision}, which is withdrawn from use. Reason: ${data.replaces.reason}`);
+    layout.paragraph(
+      `This is revision ${data.revision}; it replaces revision ${data.replaces.revision}, which is withdrawn from use. Reason: ${data.replaces.reason}`,
+    );
   }
 
   layout.heading('Authorisation', 90);
@@ -746,8 +919,11 @@ function statementSections(layout: Layout, data: CertificatePdfData, r: JobResul
   ]);
   doc.moveDown(0.8);
   layout.ensure(20);
-  doc.font('medium').fontSize(8).fillColor(MUTED).text(`— End of certificate ${data.number}, revision ${data.revision} —`, MARGIN.left, doc.y, { width: CONTENT_WIDTH, align: 'center' });
-
+  doc
+    .font('medium')
+    .fontSize(8)
+    .fillColor(MUTED)
+    .text(`— End of certificate ${data.number}, revision ${data.revision} —`, MARGIN.left, doc.y, { width: CONTENT_WIDTH, align: 'center' });
 }
 
 /** The header and footer on every page ("Page x of y" needs the page count, so they are drawn last). */
@@ -761,18 +937,46 @@ function pageFrames(doc: Doc, data: CertificatePdfData): void {
     const page = i - range.start + 1;
     doc.font('bold').fontSize(8.5).fillColor(INK).text(data.lab.name, MARGIN.left, 30, { width: 300, lineBreak: false });
     doc.font('sans').fontSize(7).fillColor(MUTED).text('Frequency calibration', MARGIN.left, 41, { width: 300, lineBreak: false });
-    doc.font('mono').fontSize(8).fillColor(INK).text(`Certificate ${data.number} · rev. ${data.revision}`, PAGE.width - MARGIN.right - 260, 30, { width: 260, align: 'right', lineBreak: false });
-    doc.font('mono').fontSize(8).fillColor(INK).text(`Page ${page} of ${range.count}`, PAGE.width - MARGIN.right - 260, 41, { width: 260, align: 'right', lineBreak: false });
-    doc.moveTo(MARGIN.left, 54).lineTo(PAGE.width - MARGIN.right, 54).lineWidth(0.6).strokeColor(ACCENT).stroke();
+    doc
+      .font('mono')
+      .fontSize(8)
+      .fillColor(INK)
+      .text(`Certificate ${data.number} · rev. ${data.revision}`, PAGE.width - MARGIN.right - 260, 30, { width: 260, align: 'right', lineBreak: false });
+    doc
+      .font('mono')
+      .fontSize(8)
+      .fillColor(INK)
+      .text(`Page ${page} of ${range.count}`, PAGE.width - MARGIN.right - 260, 41, { width: 260, align: 'right', lineBreak: false });
+    doc
+      .moveTo(MARGIN.left, 54)
+      .lineTo(PAGE.width - MARGIN.right, 54)
+      .lineWidth(0.6)
+      .strokeColor(ACCENT)
+      .stroke();
     const fy = PAGE.height - 46;
-    doc.moveTo(MARGIN.left, fy).lineTo(PAGE.width - MARGIN.right, fy).lineWidth(0.4).strokeColor(RULE).stroke();
-    doc.font('sans').fontSize(6.5).fillColor(MUTED).text(
-      `Results relate only to the item calibrated. Reproduce only in full. Check this copy at ${data.verifyUrl}`,
-      MARGIN.left,
-      fy + 5,
-      { width: CONTENT_WIDTH - 115, lineBreak: false },
-    );
-    doc.font('mono').fontSize(6.5).fillColor(MUTED).text(`${data.number}/${data.revision} · ${page}/${range.count}`, PAGE.width - MARGIN.right - 110, fy + 5, { width: 110, align: 'right', lineBreak: false });
+    doc
+      .moveTo(MARGIN.left, fy)
+      .lineTo(PAGE.width - MARGIN.right, fy)
+      .lineWidth(0.4)
+      .strokeColor(RULE)
+      .stroke();
+    doc
+      .font('sans')
+      .fontSize(6.5)
+      .fillColor(MUTED)
+      .text(`Results relate only to the item calibrated. Reproduce only in full. Check this copy at ${data.verifyUrl}`, MARGIN.left, fy + 5, {
+        width: CONTENT_WIDTH - 115,
+        lineBreak: false,
+      });
+    doc
+      .font('mono')
+      .fontSize(6.5)
+      .fillColor(MUTED)
+      .text(`${data.number}/${data.revision} · ${page}/${range.count}`, PAGE.width - MARGIN.right - 110, fy + 5, {
+        width: 110,
+        align: 'right',
+        lineBreak: false,
+      });
     doc.page.margins.bottom = bottom;
   }
 }

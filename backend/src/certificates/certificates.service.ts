@@ -80,15 +80,47 @@ export class CertificatesService {
 
   private query(user: Pick<AuthUser, 'role' | 'organizationId'>, withResults = false): SelectQueryBuilder<Certificate> {
     const columns = [
-      'c.id', 'c.number', 'c.revision', 'c.status', 'c.jobId', 'c.organizationId', 'c.instrumentId', 'c.signedById', 'c.signedAt',
-      'c.signingMeaning', 'c.issuedAt', 'c.fileName', 'c.sha256', 'c.replacesRevision', 'c.amendmentReason', 'c.withdrawnReason',
-      'c.withdrawnAt', 'c.supersededAt', 'c.decision', 'c.asFoundDecision', 'c.instrumentLabel', 'c.customerName',
+      'c.id',
+      'c.number',
+      'c.revision',
+      'c.status',
+      'c.jobId',
+      'c.organizationId',
+      'c.instrumentId',
+      'c.signedById',
+      'c.signedAt',
+      'c.signingMeaning',
+      'c.issuedAt',
+      'c.fileName',
+      'c.sha256',
+      'c.replacesRevision',
+      'c.amendmentReason',
+      'c.withdrawnReason',
+      'c.withdrawnAt',
+      'c.supersededAt',
+      'c.decision',
+      'c.asFoundDecision',
+      'c.instrumentLabel',
+      'c.customerName',
     ];
     const qb = this.dataSource
       .getRepository(Certificate)
       .createQueryBuilder('c')
       // The stored results are large: only the detail view reads them.
-      .select([...columns, ...(withResults ? ['c.results'] : []), 'j.id', 'j.number', 'o.id', 'o.name', 'i.id', 'i.make', 'i.model', 'i.serial', 's.id', 's.name'])
+      .select([
+        ...columns,
+        ...(withResults ? ['c.results'] : []),
+        'j.id',
+        'j.number',
+        'o.id',
+        'o.name',
+        'i.id',
+        'i.make',
+        'i.model',
+        'i.serial',
+        's.id',
+        's.name',
+      ])
       .innerJoin('c.job', 'j')
       .innerJoin('c.organization', 'o')
       .innerJoin('c.instrument', 'i')
@@ -136,7 +168,8 @@ export class CertificatesService {
     const c = await this.find(user, id);
     if (!c.fileName) throw new NotFoundException(`Certificate ${id} has no PDF yet (an amendment in preparation)`);
     const path = join(certificatesDir(this.config.varDir), c.fileName);
-    if (!/^[0-9a-f]{40}\.pdf$/.test(c.fileName) || !existsSync(path)) throw new NotFoundException(`The PDF of certificate ${c.number} is missing from the store`);
+    if (!/^[0-9a-f]{40}\.pdf$/.test(c.fileName) || !existsSync(path))
+      throw new NotFoundException(`The PDF of certificate ${c.number} is missing from the store`);
     return { data: readFileSync(path), name: `${c.number}-rev${c.revision}.pdf` };
   }
 
@@ -149,7 +182,8 @@ export class CertificatesService {
     const draftId = await this.dataSource.transaction(async (manager) => {
       const c = await manager.findOne(Certificate, { where: { id }, lock: { mode: 'pessimistic_write' } });
       if (!c) throw new NotFoundException(`Certificate ${id} not found`);
-      if (c.status !== 'issued') throw new ConflictException(`certificate ${c.number} revision ${c.revision} is ${c.status}: only the issued revision can be amended`);
+      if (c.status !== 'issued')
+        throw new ConflictException(`certificate ${c.number} revision ${c.revision} is ${c.status}: only the issued revision can be amended`);
       const job = await this.jobs.scope(c.jobId, manager, true);
       if (!job) throw new NotFoundException(`Job ${c.jobId} not found`);
       const now = new Date();
@@ -166,9 +200,30 @@ export class CertificatesService {
         amendmentReason: body.reason,
       });
       await this.jobStatus.setStatus(job.id, to, manager);
-      await this.reviewEvents.record({ jobId: job.id, action: 'amend', actorId: actor.id, comment: `${c.number} revision ${c.revision + 1}: ${body.reason}`, at: now }, manager);
-      await this.audit.record({ actorId: actor.id, entity: 'certificate', entityId: id, action: 'amend', changes: { status: { from: 'issued', to: 'superseded' }, reason: body.reason, newRevision: c.revision + 1 } }, manager);
-      await this.audit.record({ actorId: actor.id, entity: 'job', entityId: job.id, action: 'status', changes: { from: job.status, to, comment: `amendment of ${c.number}: ${body.reason}` } }, manager);
+      await this.reviewEvents.record(
+        { jobId: job.id, action: 'amend', actorId: actor.id, comment: `${c.number} revision ${c.revision + 1}: ${body.reason}`, at: now },
+        manager,
+      );
+      await this.audit.record(
+        {
+          actorId: actor.id,
+          entity: 'certificate',
+          entityId: id,
+          action: 'amend',
+          changes: { status: { from: 'issued', to: 'superseded' }, reason: body.reason, newRevision: c.revision + 1 },
+        },
+        manager,
+      );
+      await this.audit.record(
+        {
+          actorId: actor.id,
+          entity: 'job',
+          entityId: job.id,
+          action: 'status',
+          changes: { from: job.status, to, comment: `amendment of ${c.number}: ${body.reason}` },
+        },
+        manager,
+      );
       return inserted.identifiers[0].id as number;
     });
     return this.get(actor, draftId);
@@ -178,11 +233,18 @@ export class CertificatesService {
     await this.dataSource.transaction(async (manager) => {
       const c = await manager.findOne(Certificate, { where: { id }, lock: { mode: 'pessimistic_write' } });
       if (!c) throw new NotFoundException(`Certificate ${id} not found`);
-      if (c.status !== 'issued') throw new ConflictException(`certificate ${c.number} revision ${c.revision} is ${c.status}: only an issued revision can be withdrawn`);
+      if (c.status !== 'issued')
+        throw new ConflictException(`certificate ${c.number} revision ${c.revision} is ${c.status}: only an issued revision can be withdrawn`);
       const now = new Date();
       await manager.update(Certificate, { id }, { status: 'withdrawn', withdrawnAt: now, withdrawnReason: reason });
-      await this.reviewEvents.record({ jobId: c.jobId, action: 'withdraw', actorId: actor.id, comment: `${c.number} revision ${c.revision}: ${reason}`, at: now }, manager);
-      await this.audit.record({ actorId: actor.id, entity: 'certificate', entityId: id, action: 'withdraw', changes: { status: { from: 'issued', to: 'withdrawn' }, reason } }, manager);
+      await this.reviewEvents.record(
+        { jobId: c.jobId, action: 'withdraw', actorId: actor.id, comment: `${c.number} revision ${c.revision}: ${reason}`, at: now },
+        manager,
+      );
+      await this.audit.record(
+        { actorId: actor.id, entity: 'certificate', entityId: id, action: 'withdraw', changes: { status: { from: 'issued', to: 'withdrawn' }, reason } },
+        manager,
+      );
     });
     return this.get(actor, id);
   }
@@ -190,7 +252,14 @@ export class CertificatesService {
   /** The amendment in preparation for a job (its draft revision), or null: what a job's review shows of it. */
   async pendingAmendment(jobId: number): Promise<{ certificateNumber: string; revision: number; replacesRevision: number; reason: string } | null> {
     const draft = await this.dataSource.manager.findOne(Certificate, { where: { jobId, status: 'draft' } });
-    return draft ? { certificateNumber: draft.number, revision: draft.revision, replacesRevision: draft.replacesRevision ?? draft.revision - 1, reason: draft.amendmentReason ?? '' } : null;
+    return draft
+      ? {
+          certificateNumber: draft.number,
+          revision: draft.revision,
+          replacesRevision: draft.replacesRevision ?? draft.revision - 1,
+          reason: draft.amendmentReason ?? '',
+        }
+      : null;
   }
 
   // ---- public ----
@@ -199,7 +268,24 @@ export class CertificatesService {
     const rows = await this.dataSource
       .getRepository(Certificate)
       .createQueryBuilder('c')
-      .select(['c.id', 'c.number', 'c.revision', 'c.status', 'c.issuedAt', 'c.sha256', 'c.signature', 'c.keyId', 'c.instrumentLabel', 'c.customerName', 'o.id', 'o.name', 'i.id', 'i.make', 'i.model', 'i.serial'])
+      .select([
+        'c.id',
+        'c.number',
+        'c.revision',
+        'c.status',
+        'c.issuedAt',
+        'c.sha256',
+        'c.signature',
+        'c.keyId',
+        'c.instrumentLabel',
+        'c.customerName',
+        'o.id',
+        'o.name',
+        'i.id',
+        'i.make',
+        'i.model',
+        'i.serial',
+      ])
       .innerJoin('c.organization', 'o')
       .innerJoin('c.instrument', 'i')
       .where('c.number = :number', { number })
@@ -253,7 +339,8 @@ export class CertificatesService {
       const before = await readSettings(manager);
       const changes: Record<string, unknown> = {};
       for (const [key, value] of Object.entries(body)) {
-        if (value !== undefined && before[key as keyof CertificateSettings] !== value) changes[key] = { from: before[key as keyof CertificateSettings], to: value };
+        if (value !== undefined && before[key as keyof CertificateSettings] !== value)
+          changes[key] = { from: before[key as keyof CertificateSettings], to: value };
       }
       if (Object.keys(changes).length === 0) return;
       await writeSettings(manager, body, actor.id);

@@ -124,7 +124,7 @@ export async function issueCertificate(manager: EntityManager, deps: IssueDeps, 
   const labName = lab?.name ?? 'Calibration laboratory';
   const number = draft ? draft.number : await nextNumber(manager, settings.certificatePrefix, now.getUTCFullYear());
   const revision = draft ? draft.revision : 1;
-  const replaced = draft?.replacesRevision ? existing.find((c) => c.revision === draft.replacesRevision) ?? null : null;
+  const replaced = draft?.replacesRevision ? (existing.find((c) => c.revision === draft.replacesRevision) ?? null) : null;
 
   const usedRunIds = results.ranges.flatMap((g) => [g.asFoundRunId, g.asLeftRunId]).filter((id): id is number => id !== null);
   const runRows = await deps.readers.runs.calibrationDays(usedRunIds, manager);
@@ -152,7 +152,19 @@ export async function issueCertificate(manager: EntityManager, deps: IssueDeps, 
   const fileName = `${randomBytes(20).toString('hex')}.pdf`;
   const row = certificateRow({ number, revision, job, signer, meaning, now, fileName, sha256, signature, keyId: key.keyId, results, record });
   const certificateId = await storeCertificate(manager, draft, row, now);
-  await recordIssue(manager, deps.readers, { job, instrument, signer, meaning, number, revision, certificateId, sha256, keyId: key.keyId, replacesRevision: draft?.replacesRevision ?? null, now });
+  await recordIssue(manager, deps.readers, {
+    job,
+    instrument,
+    signer,
+    meaning,
+    number,
+    revision,
+    certificateId,
+    sha256,
+    keyId: key.keyId,
+    replacesRevision: draft?.replacesRevision ?? null,
+    now,
+  });
   const clientEmails = await deps.readers.recipients.clientEmails(job.organizationId, manager);
   const recipients = [...new Set([customer.contactEmail, ...clientEmails].filter((e): e is string => !!e))];
   // Written last, just before the caller commits; removed by the caller if the commit fails.
@@ -179,7 +191,12 @@ export async function issueCertificate(manager: EntityManager, deps: IssueDeps, 
 type Signer = { id: number; name: string };
 
 /** The instrument, its customer, the lab and the signer, from their owners in the signing transaction. */
-async function issueParties(manager: EntityManager, readers: IssueReaders, job: ReviewedJob, signerId: number): Promise<{ instrument: CertificateInstrument; customer: OrganizationContact; lab: OrganizationContact | null; signer: Signer }> {
+async function issueParties(
+  manager: EntityManager,
+  readers: IssueReaders,
+  job: ReviewedJob,
+  signerId: number,
+): Promise<{ instrument: CertificateInstrument; customer: OrganizationContact; lab: OrganizationContact | null; signer: Signer }> {
   const [instrument, customer, lab, names] = await Promise.all([
     readers.instruments.identity(job.instrumentId, manager),
     readers.organizations.byId(job.organizationId, manager),
@@ -191,7 +208,20 @@ async function issueParties(manager: EntityManager, readers: IssueReaders, job: 
   return { instrument, customer, lab, signer: { id: signerId, name: names.get(signerId)! } };
 }
 
-type RowInput = { number: string; revision: number; job: ReviewedJob; signer: Signer; meaning: string; now: Date; fileName: string; sha256: string; signature: string; keyId: string; results: JobResults & { outcomes: JobOutcomes }; record: SignedRecord };
+type RowInput = {
+  number: string;
+  revision: number;
+  job: ReviewedJob;
+  signer: Signer;
+  meaning: string;
+  now: Date;
+  fileName: string;
+  sha256: string;
+  signature: string;
+  keyId: string;
+  results: JobResults & { outcomes: JobOutcomes };
+  record: SignedRecord;
+};
 
 /** The certificate row as issued: who signed and when, the file, its digest and seal, and the results and record signed. */
 function certificateRow(input: RowInput): Partial<Certificate> {
@@ -221,7 +251,11 @@ function certificateRow(input: RowInput): Partial<Certificate> {
 }
 
 /** The job, locked for the signing, with its certificates (newest revision first) and a pending amendment's draft; refuses a job not in review or already issued. */
-async function lockSignableJob(manager: EntityManager, readers: IssueReaders, jobId: number): Promise<{ job: ReviewedJob; existing: Certificate[]; draft: Certificate | null }> {
+async function lockSignableJob(
+  manager: EntityManager,
+  readers: IssueReaders,
+  jobId: number,
+): Promise<{ job: ReviewedJob; existing: Certificate[]; draft: Certificate | null }> {
   const job = await readers.jobs.job(jobId, manager, true);
   if (!job) throw new ConflictException(`job ${jobId} does not exist`);
   if (job.status !== 'in_review' && job.status !== 'approved') {
@@ -239,7 +273,8 @@ async function issueDeviations(manager: EntityManager, readers: IssueReaders, re
   for (const row of await readers.readings.exclusionSummary(usedRunIds, manager)) {
     deviations.push(`${row.count} reading${row.count === 1 ? '' : 's'} of run ${row.runId} excluded from the results: ${row.reasons}.`);
   }
-  for (const flag of results.flags.filter((f) => f.kind === 'standard_override')) deviations.push(`Reference standard used past its due date by the lead's decision (run ${flag.runId}): ${flag.message.replace(/^.*override: /, '')}.`);
+  for (const flag of results.flags.filter((f) => f.kind === 'standard_override'))
+    deviations.push(`Reference standard used past its due date by the lead's decision (run ${flag.runId}): ${flag.message.replace(/^.*override: /, '')}.`);
   for (const flag of results.flags.filter((f) => f.kind === 'no_as_left')) deviations.push(flag.message.replace(/^([^:]+): /, 'Range $1: ') + '.');
   return deviations;
 }
@@ -285,7 +320,19 @@ async function storeCertificate(manager: EntityManager, draft: Certificate | nul
   return certificateId;
 }
 
-type IssueRecord = { job: ReviewedJob; instrument: CertificateInstrument; signer: Signer; meaning: string; number: string; revision: number; certificateId: number; sha256: string; keyId: string; replacesRevision: number | null; now: Date };
+type IssueRecord = {
+  job: ReviewedJob;
+  instrument: CertificateInstrument;
+  signer: Signer;
+  meaning: string;
+  number: string;
+  revision: number;
+  certificateId: number;
+  sha256: string;
+  keyId: string;
+  replacesRevision: number | null;
+  now: Date;
+};
 
 /** The job issued, the instrument's next due date and the audit trail, in the signing transaction (the caller records the review event). */
 async function recordIssue(manager: EntityManager, readers: IssueReaders, issue: IssueRecord): Promise<void> {
@@ -294,15 +341,24 @@ async function recordIssue(manager: EntityManager, readers: IssueReaders, issue:
   // The recall cycle restarts at issue: the next due date is the issue date plus the owner's interval.
   await readers.instruments.restartRecall(instrument, now, manager);
   const audit = readers.audit;
-  await audit.record({ actorId: signer.id, entity: 'job', entityId: job.id, action: 'status', changes: { from: job.status, to: 'approved', meaning } }, manager);
-  await audit.record({ actorId: signer.id, entity: 'job', entityId: job.id, action: 'status', changes: { from: 'approved', to: 'issued', certificate: number, revision } }, manager);
-  await audit.record({
-    actorId: signer.id,
-    entity: 'certificate',
-    entityId: certificateId,
-    action: 'issue',
-    changes: { number, revision, sha256, keyId: issue.keyId, meaning, signedAt: now.toISOString(), replacesRevision: issue.replacesRevision },
-  }, manager);
+  await audit.record(
+    { actorId: signer.id, entity: 'job', entityId: job.id, action: 'status', changes: { from: job.status, to: 'approved', meaning } },
+    manager,
+  );
+  await audit.record(
+    { actorId: signer.id, entity: 'job', entityId: job.id, action: 'status', changes: { from: 'approved', to: 'issued', certificate: number, revision } },
+    manager,
+  );
+  await audit.record(
+    {
+      actorId: signer.id,
+      entity: 'certificate',
+      entityId: certificateId,
+      action: 'issue',
+      changes: { number, revision, sha256, keyId: issue.keyId, meaning, signedAt: now.toISOString(), replacesRevision: issue.replacesRevision },
+    },
+    manager,
+  );
 }
 
 /** Writes the sealed PDF under var/certificates (owner and group only) and returns its path. */
@@ -342,7 +398,10 @@ async function captureRecord(manager: EntityManager, input: CaptureInput): Promi
     readers.ranges.ranges(instrument.id, manager),
     readers.recipients.namesOf(job.technicianId ? [job.technicianId] : [], manager),
     resultsCsv(readers, job, manager),
-    readers.standards.figures(results.standards.map((s) => s.id), manager),
+    readers.standards.figures(
+      results.standards.map((s) => s.id),
+      manager,
+    ),
   ]);
   await stampStandardVersions(manager, readers, job.id, input.usedRunIds);
   const technician = job.technicianId ? { name: technicianNames.get(job.technicianId) ?? null } : null;
@@ -356,10 +415,17 @@ async function captureRecord(manager: EntityManager, input: CaptureInput): Promi
       technicianName: technician?.name ?? null,
       ambientTempC: job.ambientTempC,
       humidityPct: job.humidityPct,
-      supplyVoltages: input.runRows.map((r) => r.supplyVoltage).filter((v): v is number => v !== null).map(Number),
+      supplyVoltages: input.runRows
+        .map((r) => r.supplyVoltage)
+        .filter((v): v is number => v !== null)
+        .map(Number),
       calibrationDates: {
         first: input.runRows.map((r) => r.started).sort()[0] ?? now.toISOString().slice(0, 10),
-        last: input.runRows.map((r) => r.ended).sort().at(-1) ?? now.toISOString().slice(0, 10),
+        last:
+          input.runRows
+            .map((r) => r.ended)
+            .sort()
+            .at(-1) ?? now.toISOString().slice(0, 10),
       },
     },
     instrument: {

@@ -35,7 +35,10 @@ export function loadSigningKey(varDir: string): SigningKey {
   const privateKey = createPrivateKey(readFileSync(privatePath));
   const publicKey = createPublicKey(privateKey);
   const publicKeyPem = publicKey.export({ type: 'spki', format: 'pem' }).toString();
-  const keyId = createHash('sha256').update(publicKey.export({ type: 'spki', format: 'der' })).digest('hex').slice(0, 16);
+  const keyId = createHash('sha256')
+    .update(publicKey.export({ type: 'spki', format: 'der' }))
+    .digest('hex')
+    .slice(0, 16);
   if (!existsSync(publicPath)) writeFileSync(publicPath, publicKeyPem, { mode: 0o644 });
   const key = { privateKey, publicKey, publicKeyPem, keyId };
   cache.set(varDir, key);

@@ -92,7 +92,11 @@ type Prepared = {
   settledFrom: number | null;
 };
 
-type RunOutcome = { run: ComparedRun; estimates: Partial<Record<ComparisonQuantity, ComparisonEstimate>>; problems: Partial<Record<ComparisonQuantity, string>> };
+type RunOutcome = {
+  run: ComparedRun;
+  estimates: Partial<Record<ComparisonQuantity, ComparisonEstimate>>;
+  problems: Partial<Record<ComparisonQuantity, string>>;
+};
 
 function problemText(error: unknown): string {
   if (error instanceof MetrologyError) return error.message;
@@ -130,7 +134,10 @@ export class ComparisonEngine {
   ) {}
 
   /** Checks that the runs can be compared: 2–6 distinct, all found, one instrument, all warm-up or all stability. */
-  async validateRuns(runIds: readonly number[], labels?: readonly string[]): Promise<{ metas: RunMeta[]; kind: ComparableRunKind; instrumentId: number; instrumentLabel: string; labels: string[] }> {
+  async validateRuns(
+    runIds: readonly number[],
+    labels?: readonly string[],
+  ): Promise<{ metas: RunMeta[]; kind: ComparableRunKind; instrumentId: number; instrumentLabel: string; labels: string[] }> {
     if (runIds.length < MIN_COMPARED_RUNS || runIds.length > MAX_COMPARED_RUNS) {
       throw new BadRequestException(`runIds: a comparison takes ${MIN_COMPARED_RUNS} to ${MAX_COMPARED_RUNS} runs (got ${runIds.length})`);
     }
@@ -150,13 +157,24 @@ export class ComparisonEngine {
       if (!(COMPARABLE_RUN_KINDS as readonly RunKind[]).includes(meta.kind)) {
         throw new BadRequestException(`run ${meta.id} is a ${meta.kind} run; only warmup and stability runs can be compared`);
       }
-      if (meta.kind !== first.kind) throw new BadRequestException(`a comparison takes warm-up runs or stability runs, not both (run ${first.id} is ${first.kind}, run ${meta.id} is ${meta.kind})`);
+      if (meta.kind !== first.kind)
+        throw new BadRequestException(
+          `a comparison takes warm-up runs or stability runs, not both (run ${first.id} is ${first.kind}, run ${meta.id} is ${meta.kind})`,
+        );
       if (meta.instrumentId !== first.instrumentId) {
-        throw new BadRequestException(`the runs must be of one instrument (run ${first.id} is of ${first.instrumentLabel}, run ${meta.id} of ${meta.instrumentLabel})`);
+        throw new BadRequestException(
+          `the runs must be of one instrument (run ${first.id} is of ${first.instrumentLabel}, run ${meta.id} of ${meta.instrumentLabel})`,
+        );
       }
     }
     const resolvedLabels = ordered.map((meta, i) => labels?.[i]?.trim() || `run ${meta.id}`);
-    return { metas: ordered, kind: first.kind as ComparableRunKind, instrumentId: first.instrumentId, instrumentLabel: first.instrumentLabel, labels: resolvedLabels };
+    return {
+      metas: ordered,
+      kind: first.kind as ComparableRunKind,
+      instrumentId: first.instrumentId,
+      instrumentLabel: first.instrumentLabel,
+      labels: resolvedLabels,
+    };
   }
 
   async compute(request: ComparisonOptions & { runIds: readonly number[]; labels?: readonly string[] }): Promise<ComparisonResult> {
@@ -194,7 +212,13 @@ export class ComparisonEngine {
     for (const run of runs) {
       const isSupply = run.kind === 'supply_sensitivity';
       if ((isSupply ? supply.length : keying.length) >= SENSITIVITY_RUNS) continue;
-      const base = { runId: run.id, jobNumber: jobs.get(run.jobId)!.number, rangeLabel: rangeLabels.get(run.rangeId) ?? '', startedAt: run.startedAt.toISOString(), configuration: run.configuration };
+      const base = {
+        runId: run.id,
+        jobNumber: jobs.get(run.jobId)!.number,
+        rangeLabel: rangeLabels.get(run.rangeId) ?? '',
+        startedAt: run.startedAt.toISOString(),
+        configuration: run.configuration,
+      };
       const { frequency, aux } = await this.analysis.includedSeries(run.id, run.kind);
       if (isSupply) supply.push(supplyEntry(base, frequency, aux));
       else keying.push(keyingEntry(base, frequency, aux));
@@ -345,7 +369,12 @@ function fitEstimates(p: Prepared, estimates: Estimates, problems: Problems): vo
 }
 
 /** The settled part's drift windows and rate, and its Allan deviation; a run that does not settle has neither. */
-function settledEstimates(p: Prepared, windowSeconds: number, estimates: Estimates, problems: Problems): Pick<ComparedRun, 'driftWindows' | 'stability' | 'stabilityProblem'> {
+function settledEstimates(
+  p: Prepared,
+  windowSeconds: number,
+  estimates: Estimates,
+  problems: Problems,
+): Pick<ComparedRun, 'driftWindows' | 'stability' | 'stabilityProblem'> {
   const n = p.t.length;
   if (p.settledIndex === null || n - p.settledIndex < 3) {
     const reason = p.settledIndex === null ? `the run does not settle within ${p.withinHz} Hz before its last reading` : 'fewer than 3 readings after settling';
@@ -418,7 +447,10 @@ function runCurves(p: Prepared): Pick<ComparedRun, 'reference' | 'points' | 'fit
   if (fit && n > 0) {
     const last = t[n - 1]!;
     const times = Array.from({ length: FITTED_POINTS }, (_, i) => (last * i) / (FITTED_POINTS - 1));
-    fitted = curve(times, times.map((time) => evaluateWarmup(fit, time)));
+    fitted = curve(
+      times,
+      times.map((time) => evaluateWarmup(fit, time)),
+    );
   }
   return { reference, points: curve(shown.x, shown.y), fitted };
 }

@@ -1,6 +1,12 @@
 import type { ComparableRunKind, ComparisonQuantity } from '@kilocycle/common/types';
 
-export type RowDefinition = { quantity: ComparisonQuantity; name: (withinHz: number) => string; unit: string; method: (windowSeconds: number) => string; kinds: readonly ComparableRunKind[] };
+export type RowDefinition = {
+  quantity: ComparisonQuantity;
+  name: (withinHz: number) => string;
+  unit: string;
+  method: (windowSeconds: number) => string;
+  kinds: readonly ComparableRunKind[];
+};
 
 const FIT = 'warm-up fit f(t) = f∞ + A·e^(−t/τ) by least squares on every included reading; standard error from s²·(JᵀJ)⁻¹, ν = n − 3';
 const ADEV = (tau: number) =>
@@ -16,7 +22,8 @@ export const COMPARISON_ROWS: readonly RowDefinition[] = [
     quantity: 'settledDriftRate',
     name: () => 'settled drift rate',
     unit: 'Hz/min',
-    method: (w) => `mean of the least-squares drift rates of back-to-back ${w} s windows after the settling time (the whole record for a stability run); standard error s/√k, ν = k − 1 over the k windows`,
+    method: (w) =>
+      `mean of the least-squares drift rates of back-to-back ${w} s windows after the settling time (the whole record for a stability run); standard error s/√k, ν = k − 1 over the k windows`,
     kinds: ['warmup', 'stability'],
   },
   {

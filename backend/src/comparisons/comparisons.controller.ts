@@ -11,7 +11,6 @@ import { ComparisonsService } from './comparisons.service.js';
 import { ComputeComparisonDto, CreateComparisonDto, ListComparisonsQueryDto, UpdateComparisonDto } from './dto/comparison.dto.js';
 import { IdParam } from '../shared/id-param.decorator.js';
 
-
 @ApiTags('comparisons')
 @ApiBearerAuth()
 @Roles(...LAB_ROLES)
@@ -53,7 +52,12 @@ export class ComparisonsController {
   @Get('comparisons/:id/export.csv')
   async exportCsv(@IdParam('id') id: number, @Res() res: Response): Promise<void> {
     const { saved, result } = await this.comparisons.result(id);
-    const slug = saved.title.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'comparison';
+    const slug =
+      saved.title
+        .toLowerCase()
+        .replace(/[^a-z0-9]+/g, '-')
+        .replace(/^-|-$/g, '')
+        .slice(0, 60) || 'comparison';
     res.setHeader('Content-Type', 'text/csv; charset=utf-8');
     res.setHeader('Content-Disposition', attachmentDisposition(`comparison-${id}-${slug}.csv`));
     res.setHeader('Cache-Control', 'private, no-store');

@@ -14,7 +14,6 @@ import { jsonColumn } from '../shared/json-column.js';
 
 const SORTABLE = { id: 'c.id', title: 'c.title', createdAt: 'c.createdAt', updatedAt: 'c.updatedAt' };
 
-
 export function toSavedComparison(c: Comparison): SavedComparison {
   return {
     id: c.id,
@@ -88,7 +87,10 @@ export class ComparisonsService {
         createdById: actor.id,
       });
       const newId = result.identifiers[0]!.id as number;
-      await this.audit.record({ actorId: actor.id, entity: 'comparison', entityId: newId, action: 'create', changes: { title: body.title, runIds: body.runIds } }, manager);
+      await this.audit.record(
+        { actorId: actor.id, entity: 'comparison', entityId: newId, action: 'create', changes: { title: body.title, runIds: body.runIds } },
+        manager,
+      );
       return newId;
     });
     return this.get(id);
@@ -128,7 +130,16 @@ export class ComparisonsService {
     const current = await this.get(id);
     await this.dataSource.transaction(async (manager) => {
       await manager.delete(Comparison, { id });
-      await this.audit.record({ actorId: actor.id, entity: 'comparison', entityId: id, action: 'delete', changes: { title: current.title, runIds: current.runIds, labels: current.labels } }, manager);
+      await this.audit.record(
+        {
+          actorId: actor.id,
+          entity: 'comparison',
+          entityId: id,
+          action: 'delete',
+          changes: { title: current.title, runIds: current.runIds, labels: current.labels },
+        },
+        manager,
+      );
     });
   }
 

@@ -24,8 +24,18 @@ describe('the settings schema', () => {
     };
     const { problems } = checkEnvironment(env);
     expect(problems.map((p) => p.key)).toEqual([
-      'KC_ADMIN_EMAIL', 'KC_CERT_PREFIX', 'KC_DB_PORT', 'KC_HOST', 'KC_IMPORT_MAX_MB', 'KC_JWT_TTL', 'KC_MODE',
-      'KC_PORT', 'KC_PUBLIC_URL', 'KC_RECALL_DELAY_MS', 'KC_RECALL_DISABLED', 'KC_SMTP_FROM',
+      'KC_ADMIN_EMAIL',
+      'KC_CERT_PREFIX',
+      'KC_DB_PORT',
+      'KC_HOST',
+      'KC_IMPORT_MAX_MB',
+      'KC_JWT_TTL',
+      'KC_MODE',
+      'KC_PORT',
+      'KC_PUBLIC_URL',
+      'KC_RECALL_DELAY_MS',
+      'KC_RECALL_DISABLED',
+      'KC_SMTP_FROM',
     ]);
     let thrown: unknown;
     try {
@@ -60,8 +70,19 @@ describe('the settings schema', () => {
   });
 
   it.each([
-    ['1', true], ['true', true], ['TRUE', true], ['yes', true], ['Yes', true], ['on', true], [' on ', true],
-    ['0', false], ['false', false], ['False', false], ['no', false], ['NO', false], ['off', false],
+    ['1', true],
+    ['true', true],
+    ['TRUE', true],
+    ['yes', true],
+    ['Yes', true],
+    ['on', true],
+    [' on ', true],
+    ['0', false],
+    ['false', false],
+    ['False', false],
+    ['no', false],
+    ['NO', false],
+    ['off', false],
   ])('should read the switch KC_RECALL_DISABLED=%j as %s', (word, on) => {
     expect(loadConfig({ ...SECRET, KC_RECALL_DISABLED: word }).recall.disabled).toBe(on);
   });
@@ -84,8 +105,25 @@ describe('the settings schema', () => {
   });
 
   it('should check sizes, addresses and names by their own rules', () => {
-    expect(checkEnvironment({ KC_IMPORT_MAX_MB: '0.5', KC_ATTACHMENT_MAX_MB: '15', KC_PUBLIC_URL: 'https://lab.example/kc', KC_SMTP_FROM: 'Lab <lab@example.test>', KC_ADMIN_EMAIL: 'admin@localhost', KC_CERT_PREFIX: 'QL2', KC_DB_HOST: 'db.internal', KC_HOST: '::' }).problems).toEqual([]);
-    const bad = checkEnvironment({ KC_IMPORT_MAX_MB: '0', KC_ATTACHMENT_MAX_MB: '2000', KC_DB_NAME: 'kc; DROP', KC_SMTP_PORT: '99999', KC_SMTP_SECURE: 'sometimes' });
+    expect(
+      checkEnvironment({
+        KC_IMPORT_MAX_MB: '0.5',
+        KC_ATTACHMENT_MAX_MB: '15',
+        KC_PUBLIC_URL: 'https://lab.example/kc',
+        KC_SMTP_FROM: 'Lab <lab@example.test>',
+        KC_ADMIN_EMAIL: 'admin@localhost',
+        KC_CERT_PREFIX: 'QL2',
+        KC_DB_HOST: 'db.internal',
+        KC_HOST: '::',
+      }).problems,
+    ).toEqual([]);
+    const bad = checkEnvironment({
+      KC_IMPORT_MAX_MB: '0',
+      KC_ATTACHMENT_MAX_MB: '2000',
+      KC_DB_NAME: 'kc; DROP',
+      KC_SMTP_PORT: '99999',
+      KC_SMTP_SECURE: 'sometimes',
+    });
     expect(bad.problems.map((p) => p.key)).toEqual(['KC_ATTACHMENT_MAX_MB', 'KC_DB_NAME', 'KC_IMPORT_MAX_MB', 'KC_SMTP_PORT', 'KC_SMTP_SECURE']);
   });
 

@@ -39,10 +39,16 @@ const toSwitch = () =>
 /** A whole number written in decimal digits (so `0x10` and `1e3` stay text and are refused). */
 const toInteger = () => Transform(({ value }: { value: unknown }) => (typeof value === 'string' && /^\s*-?\d{1,16}\s*$/.test(value) ? Number(value) : value));
 /** A decimal number (sizes in megabytes may be fractions). */
-const toDecimal = () => Transform(({ value }: { value: unknown }) => (typeof value === 'string' && /^\s*\d{1,9}(\.\d{1,9})?\s*$/.test(value) ? Number(value) : value));
+const toDecimal = () =>
+  Transform(({ value }: { value: unknown }) => (typeof value === 'string' && /^\s*\d{1,9}(\.\d{1,9})?\s*$/.test(value) ? Number(value) : value));
 const toList = () =>
   Transform(({ value }: { value: unknown }) =>
-    typeof value === 'string' ? value.split(',').map((part) => part.trim()).filter((part) => part !== '') : value,
+    typeof value === 'string'
+      ? value
+          .split(',')
+          .map((part) => part.trim())
+          .filter((part) => part !== '')
+      : value,
   );
 
 const SWITCH = '1, true, yes or on to turn it on; 0, false, no or off to turn it off';
@@ -61,7 +67,13 @@ function apply(...decorators: PropertyDecorator[]): PropertyDecorator {
 const Port = () => apply(IsOptional(), ...integer(1, 65535));
 const Switch = () => apply(IsOptional(), toSwitch(), IsBoolean({ message: SWITCH }));
 const Megabytes = (max: number) =>
-  apply(IsOptional(), toDecimal(), IsNumber({}, { message: `a number of megabytes above 0, at most ${max}` }), Min(1 / 1024, { message: `a number of megabytes above 0, at most ${max}` }), Max(max, { message: `a number of megabytes above 0, at most ${max}` }));
+  apply(
+    IsOptional(),
+    toDecimal(),
+    IsNumber({}, { message: `a number of megabytes above 0, at most ${max}` }),
+    Min(1 / 1024, { message: `a number of megabytes above 0, at most ${max}` }),
+    Max(max, { message: `a number of megabytes above 0, at most ${max}` }),
+  );
 
 function isHost(value: unknown): boolean {
   return typeof value === 'string' && (isIP(value) || isFQDN(value, { require_tld: false, allow_underscores: true }));
@@ -94,7 +106,9 @@ export class EnvironmentVariables {
   @IsOptional() @IsIn(['demo', 'production'], { message: 'demo or production' }) KC_MODE?: 'demo' | 'production';
   @IsOptional() @IsHost() KC_HOST?: string;
   @Port() KC_PORT?: number;
-  @IsOptional() @IsUrl({ require_protocol: true, protocols: ['http', 'https'], require_tld: false }, { message: 'an http:// or https:// address' }) KC_PUBLIC_URL?: string;
+  @IsOptional()
+  @IsUrl({ require_protocol: true, protocols: ['http', 'https'], require_tld: false }, { message: 'an http:// or https:// address' })
+  KC_PUBLIC_URL?: string;
   @IsOptional() @IsString() @MinLength(1) KC_VAR_DIR?: string;
   @IsOptional() @IsString() @MinLength(1) KC_FRONTEND_DIST?: string;
 
@@ -106,8 +120,17 @@ export class EnvironmentVariables {
 
   @IsOptional() @IsString() @MinLength(1) KC_JWT_SECRET?: string;
   @IsOptional() @apply(...integer(60, 2_592_000, 'a number of seconds')) KC_JWT_TTL?: number;
-  @IsOptional() @ValidateBy({ name: 'isAdminEmail', validator: { validate: (v: unknown) => typeof v === 'string' && isEmail(v, { require_tld: false }) } }, { message: 'an e-mail address' }) KC_ADMIN_EMAIL?: string;
-  @IsOptional() @IsString() @MinLength(12, { message: 'a password of 12 characters or more' }) @MaxLength(72, { message: 'a password of at most 72 characters' }) KC_ADMIN_PASSWORD?: string;
+  @IsOptional()
+  @ValidateBy(
+    { name: 'isAdminEmail', validator: { validate: (v: unknown) => typeof v === 'string' && isEmail(v, { require_tld: false }) } },
+    { message: 'an e-mail address' },
+  )
+  KC_ADMIN_EMAIL?: string;
+  @IsOptional()
+  @IsString()
+  @MinLength(12, { message: 'a password of 12 characters or more' })
+  @MaxLength(72, { message: 'a password of at most 72 characters' })
+  KC_ADMIN_PASSWORD?: string;
 
   @IsOptional() @IsHost() KC_SMTP_HOST?: string;
   @IsOptional() @apply(...integer(0, 65535, 'a port number (0 lets the mail catcher pick a free one)')) KC_SMTP_PORT?: number;
@@ -133,7 +156,12 @@ export class EnvironmentVariables {
     {
       message: ({ value }) =>
         `list IP addresses, CIDR blocks (10.0.0.0/8) or the names ${PROXY_NAMES.join(', ')}, separated by commas; not ` +
-        (Array.isArray(value) ? value.filter((item) => !isProxy(item)).map((item) => `(got ${JSON.stringify(item)})`).join(', ') : `(got ${JSON.stringify(value)})`),
+        (Array.isArray(value)
+          ? value
+              .filter((item) => !isProxy(item))
+              .map((item) => `(got ${JSON.stringify(item)})`)
+              .join(', ')
+          : `(got ${JSON.stringify(value)})`),
     },
   )
   KC_TRUSTED_PROXIES?: string[];
@@ -144,8 +172,16 @@ export class EnvironmentVariables {
 
 /** KC_* names that belong to the tooling (test runner, benchmarks, browser tests), not to the app. */
 export const TOOLING_KEYS: readonly string[] = [
-  'KC_BENCH_DB', 'KC_BENCH_KEEP', 'KC_BENCH_ROUNDS', 'KC_BENCH_SERVER_FLAGS', 'KC_BENCH_SKIP_LARGE',
-  'KC_CHROMIUM', 'KC_DB_ROOT_SOCKET', 'KC_E2E_SCREENSHOTS', 'KC_E2E_URL', 'KC_SUITES',
+  'KC_BENCH_DB',
+  'KC_BENCH_KEEP',
+  'KC_BENCH_ROUNDS',
+  'KC_BENCH_SERVER_FLAGS',
+  'KC_BENCH_SKIP_LARGE',
+  'KC_CHROMIUM',
+  'KC_DB_ROOT_SOCKET',
+  'KC_E2E_SCREENSHOTS',
+  'KC_E2E_URL',
+  'KC_SUITES',
 ];
 
 /** A constraint's message as what the key must do: "be a whole number…", "list …". */
@@ -176,7 +212,7 @@ export function checkEnvironment(env: Record<string, unknown>): EnvironmentCheck
   const values = plainToInstance(EnvironmentVariables, raw);
   const problems: ConfigProblem[] = validateSync(values, { forbidUnknownValues: false }).map((error) => ({
     key: error.property,
-    value: SECRET_KEYS.has(error.property) ? '(hidden)' : raw[error.property] ?? '',
+    value: SECRET_KEYS.has(error.property) ? '(hidden)' : (raw[error.property] ?? ''),
     must: mustPhrase(Object.values(error.constraints ?? {})[0] ?? 'a valid value'),
   }));
   const has = (key: string) => problems.some((p) => p.key === key);
@@ -185,7 +221,11 @@ export function checkEnvironment(env: Record<string, unknown>): EnvironmentCheck
   }
   // A demo may use any secret; production signs real sessions, so a guessable one is refused.
   if (values.KC_MODE === 'production' && values.KC_JWT_SECRET !== undefined && values.KC_JWT_SECRET.length < 32 && !has('KC_JWT_SECRET')) {
-    problems.push({ key: 'KC_JWT_SECRET', value: '(hidden)', must: 'be 32 characters or more in production mode (e.g. openssl rand -hex 32), or unset to use var/jwt-secret' });
+    problems.push({
+      key: 'KC_JWT_SECRET',
+      value: '(hidden)',
+      must: 'be 32 characters or more in production mode (e.g. openssl rand -hex 32), or unset to use var/jwt-secret',
+    });
   }
   problems.sort((a, b) => a.key.localeCompare(b.key));
   return { values, problems, warnings };
@@ -193,12 +233,36 @@ export function checkEnvironment(env: Record<string, unknown>): EnvironmentCheck
 
 /** The names the schema declares (class fields without initialisers are not own keys, so list them). */
 const KNOWN_KEYS: readonly string[] = [
-  'KC_MODE', 'KC_HOST', 'KC_PORT', 'KC_PUBLIC_URL', 'KC_VAR_DIR', 'KC_FRONTEND_DIST',
-  'KC_DB_HOST', 'KC_DB_PORT', 'KC_DB_NAME', 'KC_DB_USER', 'KC_DB_PASSWORD',
-  'KC_JWT_SECRET', 'KC_JWT_TTL', 'KC_ADMIN_EMAIL', 'KC_ADMIN_PASSWORD',
-  'KC_SMTP_HOST', 'KC_SMTP_PORT', 'KC_SMTP_SECURE', 'KC_SMTP_USER', 'KC_SMTP_PASSWORD', 'KC_SMTP_FROM',
-  'KC_CERT_PREFIX', 'KC_LAB_NAME', 'KC_LAB_ADDRESS', 'KC_RECALL_DELAY_MS', 'KC_RECALL_DISABLED',
-  'KC_IMPORT_MAX_MB', 'KC_ATTACHMENT_MAX_MB', 'KC_TRUSTED_PROXIES', 'KC_E2E_PORT',
+  'KC_MODE',
+  'KC_HOST',
+  'KC_PORT',
+  'KC_PUBLIC_URL',
+  'KC_VAR_DIR',
+  'KC_FRONTEND_DIST',
+  'KC_DB_HOST',
+  'KC_DB_PORT',
+  'KC_DB_NAME',
+  'KC_DB_USER',
+  'KC_DB_PASSWORD',
+  'KC_JWT_SECRET',
+  'KC_JWT_TTL',
+  'KC_ADMIN_EMAIL',
+  'KC_ADMIN_PASSWORD',
+  'KC_SMTP_HOST',
+  'KC_SMTP_PORT',
+  'KC_SMTP_SECURE',
+  'KC_SMTP_USER',
+  'KC_SMTP_PASSWORD',
+  'KC_SMTP_FROM',
+  'KC_CERT_PREFIX',
+  'KC_LAB_NAME',
+  'KC_LAB_ADDRESS',
+  'KC_RECALL_DELAY_MS',
+  'KC_RECALL_DISABLED',
+  'KC_IMPORT_MAX_MB',
+  'KC_ATTACHMENT_MAX_MB',
+  'KC_TRUSTED_PROXIES',
+  'KC_E2E_PORT',
   ...TOOLING_KEYS,
 ];
 
@@ -207,7 +271,9 @@ export class ConfigError extends Error {
   constructor(readonly problems: ConfigProblem[]) {
     super(
       `Configuration problems (${problems.length}):\n` +
-        problems.map((p) => `  ${p.key} must ${p.must}${p.must.includes('(got ') ? '' : ` (got ${p.value === '' ? 'nothing' : JSON.stringify(p.value)})`}`).join('\n'),
+        problems
+          .map((p) => `  ${p.key} must ${p.must}${p.must.includes('(got ') ? '' : ` (got ${p.value === '' ? 'nothing' : JSON.stringify(p.value)})`}`)
+          .join('\n'),
     );
     this.name = 'ConfigError';
   }

@@ -4,9 +4,20 @@ const run = { kind: 'warmup' as const, startedAtMs: Date.parse('2025-03-01T08:00
 
 describe('columnForHeader()', () => {
   test.each([
-    ['Time (s)', 'time'], ['t_s', 'time'], ['Elapsed', 'time'], ['Dial setting', 'dial'], ['SETTING', 'dial'],
-    ['Frequency (kHz)', 'frequency'], ['frequency_hz', 'frequency'], ['Counter', 'frequency'], ['freq', 'frequency'],
-    ['Unit', 'unit'], ['Supply (V)', 'aux'], ['received_at', null], ['notes', null], ['', null],
+    ['Time (s)', 'time'],
+    ['t_s', 'time'],
+    ['Elapsed', 'time'],
+    ['Dial setting', 'dial'],
+    ['SETTING', 'dial'],
+    ['Frequency (kHz)', 'frequency'],
+    ['frequency_hz', 'frequency'],
+    ['Counter', 'frequency'],
+    ['freq', 'frequency'],
+    ['Unit', 'unit'],
+    ['Supply (V)', 'aux'],
+    ['received_at', null],
+    ['notes', null],
+    ['', null],
   ])('%s → %s', (header, column) => expect(columnForHeader(header)).toBe(column));
 });
 
@@ -66,7 +77,10 @@ describe('convertRow()', () => {
     expect(convertRow(['1', '7e6', 'GHz', ''], columns, run)).toEqual({ column: 'unit', reason: "unknown unit 'GHz' (use Hz, kHz or MHz)" });
     expect(convertRow(['1', '-5 kHz', '', ''], columns, run)).toEqual({ column: 'frequency', reason: expect.stringContaining('negative') });
     expect(convertRow(['1', '', '', ''], columns, run)).toEqual({ column: 'frequency', reason: 'no frequency given' });
-    expect(convertRow(['2025-02-28T08:00:00Z', '7e6', '', ''], columns, run)).toEqual({ column: 'time', reason: expect.stringContaining('before the run started') });
+    expect(convertRow(['2025-02-28T08:00:00Z', '7e6', '', ''], columns, run)).toEqual({
+      column: 'time',
+      reason: expect.stringContaining('before the run started'),
+    });
   });
 
   test('a calibration run may leave the time out, and the reading then has t = 0, not the time since the run began', () => {

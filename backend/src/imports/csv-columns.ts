@@ -1,4 +1,12 @@
-import { CALIBRATION_RUN_KINDS, IMPORT_COLUMNS, type FrequencyUnit, type ImportColumn, type ImportMapping, type ReadingInput, type RunKind } from '@kilocycle/common/types';
+import {
+  CALIBRATION_RUN_KINDS,
+  IMPORT_COLUMNS,
+  type FrequencyUnit,
+  type ImportColumn,
+  type ImportMapping,
+  type ReadingInput,
+  type RunKind,
+} from '@kilocycle/common/types';
 import { parseFrequency, parseNumber } from '@kilocycle/common/units';
 
 export type Delimiter = ',' | '\t' | ';';
@@ -26,12 +34,29 @@ const ALIASES: Record<ImportColumn, readonly string[]> = {
   aux: ['aux', 'supply', 'voltage', 'volts', 'v', 'key', 'keying', 'keystate'],
 };
 const FREQUENCY_UNITS: Record<string, FrequencyUnit> = { hz: 'Hz', khz: 'kHz', mhz: 'MHz' };
-const TIME_UNITS: Record<string, number> = { ms: 0.001, s: 1, sec: 1, secs: 1, second: 1, seconds: 1, min: 60, mins: 60, minute: 60, minutes: 60, h: 3600, hr: 3600, hours: 3600 };
+const TIME_UNITS: Record<string, number> = {
+  ms: 0.001,
+  s: 1,
+  sec: 1,
+  secs: 1,
+  second: 1,
+  seconds: 1,
+  min: 60,
+  mins: 60,
+  minute: 60,
+  minutes: 60,
+  h: 3600,
+  hr: 3600,
+  hours: 3600,
+};
 
 function headerWords(header: string): { words: string[]; hint: string | null } {
   const lower = header.trim().toLowerCase();
   const bracket = /[([]\s*([a-zµ]+)\s*[)\]]/.exec(lower);
-  const words = lower.replace(/[([].*?[)\]]/g, ' ').split(/[^a-z0-9µ]+/).filter((w) => w !== '');
+  const words = lower
+    .replace(/[([].*?[)\]]/g, ' ')
+    .split(/[^a-z0-9µ]+/)
+    .filter((w) => w !== '');
   return { words, hint: bracket?.[1] ?? null };
 }
 
@@ -126,7 +151,10 @@ export function resolveColumns(header: readonly string[], mapping: ImportMapping
     const target = mapping?.[column];
     if (target === undefined) continue;
     const found = typeof target === 'number' ? target - 1 : names.findIndex((n) => n.toLowerCase() === target.trim().toLowerCase());
-    if (found < 0 || found >= names.length) throw new ImportFileError(`mapping.${column}: the file has no column ${typeof target === 'number' ? target : `"${target}"`} (its columns are ${listed()})`);
+    if (found < 0 || found >= names.length)
+      throw new ImportFileError(
+        `mapping.${column}: the file has no column ${typeof target === 'number' ? target : `"${target}"`} (its columns are ${listed()})`,
+      );
     index[column] = found;
   }
   const claimed = new Set(Object.values(index).filter((i): i is number => i !== null));
@@ -198,9 +226,7 @@ export function convertRow(cells: readonly string[], columns: ResolvedColumns, r
   } else {
     const clock = CLOCK_TIME.exec(timeText);
     try {
-      input.t = clock
-        ? Number(clock[1] ?? 0) * 3600 + Number(clock[2]) * 60 + parseNumber(clock[3]!)
-        : parseNumber(timeText) * columns.timeScale;
+      input.t = clock ? Number(clock[1] ?? 0) * 3600 + Number(clock[2]) * 60 + parseNumber(clock[3]!) : parseNumber(timeText) * columns.timeScale;
     } catch (error) {
       return { column: 'time', reason: message(error) };
     }

@@ -30,7 +30,16 @@ export class ImportProgressStore {
       userId,
       finishedAt: null,
       progress: {
-        importId, runId, phase: 'receiving', bytesTotal, bytesDone: 0, rowsDone: 0, rowsRejected: 0, imported: 0, fraction: 0, message: null,
+        importId,
+        runId,
+        phase: 'receiving',
+        bytesTotal,
+        bytesDone: 0,
+        rowsDone: 0,
+        rowsRejected: 0,
+        imported: 0,
+        fraction: 0,
+        message: null,
         updatedAt: new Date().toISOString(),
       },
     };

@@ -35,7 +35,19 @@ import { RunContextReader } from '../runs/run-context.reader.js';
 import { RunNotesWriter } from '../runs/run-notes.writer.js';
 import { assertMayWriteRun } from '../shared/run-write-guard.js';
 import { runRefusalReason } from '@kilocycle/common/rules';
-import { convertRow, detectDelimiter, detectNewline, ImportFileError, lastRecordEnd, needsTime, parseMapping, resolveColumns, type Delimiter, type Newline, type ResolvedColumns } from './csv-columns.js';
+import {
+  convertRow,
+  detectDelimiter,
+  detectNewline,
+  ImportFileError,
+  lastRecordEnd,
+  needsTime,
+  parseMapping,
+  resolveColumns,
+  type Delimiter,
+  type Newline,
+  type ResolvedColumns,
+} from './csv-columns.js';
 import type { ImportQueryDto } from './dto/import-query.dto.js';
 import { ImportProgressStore, type ImportTracker } from './import-progress.store.js';
 import { ReadingBatch } from './reading-batch.js';
@@ -135,8 +147,16 @@ export class ImportsService implements OnModuleInit {
   ): Promise<ImportReport> {
     const file = await this.openFile(upload);
     const report: ImportReport = {
-      importId, runId: ctx.runId, mode, imported: 0, rejected: [], rejectedCount: 0, rowCount: 0,
-      columns: { time: null, dial: null, frequency: null, unit: null, aux: null }, delimiter: file.delimiter, notesAppended: false,
+      importId,
+      runId: ctx.runId,
+      mode,
+      imported: 0,
+      rejected: [],
+      rejectedCount: 0,
+      rowCount: 0,
+      columns: { time: null, dial: null, frequency: null, unit: null, aux: null },
+      delimiter: file.delimiter,
+      notesAppended: false,
     };
     const columns = await this.readColumns(file, ctx, mappingText, report);
     const record = (rejected: ImportRejection[]) => {
@@ -178,8 +198,12 @@ export class ImportsService implements OnModuleInit {
     try {
       const columns = resolveColumns(await this.header(file), parseMapping(mappingText));
       report.columns = columns.names;
-      if (needsTime(ctx.kind) && columns.index.time === null) throw new ImportFileError(`no time column: a ${ctx.kind} run needs the time of each reading (name a column time, t or seconds, or give a mapping)`);
-      if (CALIBRATION_RUN_KINDS.includes(ctx.kind) && columns.index.dial === null) throw new ImportFileError(`no dial column: an ${ctx.kind} run needs the dial setting of each reading (name a column dial or setting, or give a mapping)`);
+      if (needsTime(ctx.kind) && columns.index.time === null)
+        throw new ImportFileError(`no time column: a ${ctx.kind} run needs the time of each reading (name a column time, t or seconds, or give a mapping)`);
+      if (CALIBRATION_RUN_KINDS.includes(ctx.kind) && columns.index.dial === null)
+        throw new ImportFileError(
+          `no dial column: an ${ctx.kind} run needs the dial setting of each reading (name a column dial or setting, or give a mapping)`,
+        );
       return columns;
     } catch (error) {
       if (error instanceof ImportFileError) throw refused(report, [{ line: 1, column: 'header', reason: error.message }], error.message);
@@ -193,7 +217,8 @@ export class ImportsService implements OnModuleInit {
       record(sortByLine([...batch.rejected, ...this.locate(this.writer.validate(ctx, batch.inputs(), Date.now(), confirm).rejected, batch, columns)]));
     });
     report.rowCount = checked.rows;
-    if (report.rowCount === 0) throw refused(report, [{ line: 2, column: 'file', reason: 'the file has no readings under its header' }], 'the file has no readings under its header');
+    if (report.rowCount === 0)
+      throw refused(report, [{ line: 2, column: 'file', reason: 'the file has no readings under its header' }], 'the file has no readings under its header');
     if (report.rejectedCount > 0) {
       const rows = report.rejectedCount === 1 ? '1 row is' : `${report.rejectedCount} rows are`;
       throw refused(report, null, `${rows} not valid: nothing was imported (fix them, or import only the valid rows with mode=valid)`);
@@ -207,10 +232,14 @@ export class ImportsService implements OnModuleInit {
     await this.dataSource.transaction(async (manager) => {
       await this.lockRun(manager, ctx.runId);
       const written = await this.pass(file, columns, ctx, tracker, 'writing', async (batch) => {
-        const result = batch.size === 0 ? null : await this.writer.append(ctx, batch.inputs(), 'import', author, { manager, skipReadBack: true, callerAudits: true, confirm });
+        const result =
+          batch.size === 0
+            ? null
+            : await this.writer.append(ctx, batch.inputs(), 'import', author, { manager, skipReadBack: true, callerAudits: true, confirm });
         const refusedNow = result ? this.locate(result.rejected, batch, columns) : [];
         // Pass 1 passed every row; a refusal now means the rules changed underneath: roll everything back.
-        if (mode === 'all' && (refusedNow.length > 0 || batch.rejected.length > 0)) throw new ConflictException('a row changed between validating and writing; nothing was imported');
+        if (mode === 'all' && (refusedNow.length > 0 || batch.rejected.length > 0))
+          throw new ConflictException('a row changed between validating and writing; nothing was imported');
         if (mode === 'valid') record(sortByLine([...batch.rejected, ...refusedNow]));
         report.imported += result?.accepted ?? 0;
         tracker.update({ imported: report.imported });
@@ -230,7 +259,17 @@ export class ImportsService implements OnModuleInit {
           entity: 'run',
           entityId: ctx.runId,
           action: 'import',
-          changes: { file: file.name, bytes: file.size, mode, rows: report.rowCount, imported: report.imported, skipped: report.rejectedCount, importId, source: 'import', author },
+          changes: {
+            file: file.name,
+            bytes: file.size,
+            mode,
+            rows: report.rowCount,
+            imported: report.imported,
+            skipped: report.rejectedCount,
+            importId,
+            source: 'import',
+            author,
+          },
         },
         manager,
       );
@@ -269,7 +308,8 @@ export class ImportsService implements OnModuleInit {
         pending += chunk;
         const end = lastRecordEnd(pending, file.newline);
         if (end < 0) {
-          if (pending.length > MAX_RECORD_CHARS) throw new ImportFileError(`a line runs on for more than ${MAX_RECORD_CHARS / 1_000_000} million characters: is a quote left open?`);
+          if (pending.length > MAX_RECORD_CHARS)
+            throw new ImportFileError(`a line runs on for more than ${MAX_RECORD_CHARS / 1_000_000} million characters: is a quote left open?`);
           continue;
         }
         // The block stops before its last line break, so papaparse sees no empty row after it.

@@ -104,7 +104,9 @@ export class CounterCaptureService implements OnModuleDestroy {
     const ctx = await this.visibleRun(user, runId);
     assertMayWriteRun(user.role, ctx.kind);
     if (!CALIBRATION_RUN_KINDS.includes(ctx.kind)) {
-      throw new ConflictException(`counter-assisted capture takes dial settings, for as-found and as-left runs; run ${runId} is a ${runKindWords(ctx.kind)} run`);
+      throw new ConflictException(
+        `counter-assisted capture takes dial settings, for as-found and as-left runs; run ${runId} is a ${runKindWords(ctx.kind)} run`,
+      );
     }
     const refusal = runRefusalReason(ctx);
     if (refusal) throw new ConflictException(`${refusal}; it takes no more readings`);
@@ -185,7 +187,20 @@ export class CounterCaptureService implements OnModuleDestroy {
         const insert = (await manager.query(
           `INSERT INTO counter_captures (run_id, reading_id, dial, n, mean_hz, sd_hz, spread_hz, settle_count, tolerance_hz, started_at, settled_at, started_by)
            VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
-          [w.runId, stored.id, w.dial, window, mean, sd, spreadHz, w.settings.captureSettleCount, w.settings.captureToleranceHz, w.startedAt, settledAt, w.startedBy],
+          [
+            w.runId,
+            stored.id,
+            w.dial,
+            window,
+            mean,
+            sd,
+            spreadHz,
+            w.settings.captureSettleCount,
+            w.settings.captureToleranceHz,
+            w.startedAt,
+            settledAt,
+            w.startedBy,
+          ],
         )) as { insertId: number };
         await manager.query('INSERT INTO counter_capture_samples (reading_id, capture_id) VALUES ?', [samples.map((s) => [s.id, insert.insertId])]);
         await this.audit.record(
@@ -215,8 +230,15 @@ export class CounterCaptureService implements OnModuleDestroy {
       this.end(w, 'settled', null, { ...reading, author: bench }, settledAt);
       this.writer.stored$.next({ runId: w.runId, author: bench, readings: [reading] });
     } catch (error) {
-      if (!(error instanceof CaptureFailure)) this.logger.warn(`run ${w.runId}: storing dial ${w.dial} failed: ${error instanceof Error ? error.message : String(error)}`);
-      this.end(w, 'failed', error instanceof CaptureFailure ? error.message : `the settled reading could not be stored just now; nothing was stored for dial ${w.dial}, press Enter to take it again`);
+      if (!(error instanceof CaptureFailure))
+        this.logger.warn(`run ${w.runId}: storing dial ${w.dial} failed: ${error instanceof Error ? error.message : String(error)}`);
+      this.end(
+        w,
+        'failed',
+        error instanceof CaptureFailure
+          ? error.message
+          : `the settled reading could not be stored just now; nothing was stored for dial ${w.dial}, press Enter to take it again`,
+      );
     }
   }
 
@@ -231,7 +253,13 @@ export class CounterCaptureService implements OnModuleDestroy {
     this.end(w, 'timed_out', `the counter did not settle within ${w.settings.captureTimeoutS} s: ${why}; nothing was stored for dial ${w.dial}`);
   }
 
-  private end(w: Waiting, status: Exclude<CaptureStatus, 'waiting'>, message: string | null, reading: ReadingView | null = null, settledAt: Date | null = null): CounterCapture {
+  private end(
+    w: Waiting,
+    status: Exclude<CaptureStatus, 'waiting'>,
+    message: string | null,
+    reading: ReadingView | null = null,
+    settledAt: Date | null = null,
+  ): CounterCapture {
     clearTimeout(w.timer);
     if (this.waiting.get(w.runId) === w) this.waiting.delete(w.runId);
     const view = this.view(w, status, message, reading, settledAt);
@@ -239,7 +267,13 @@ export class CounterCaptureService implements OnModuleDestroy {
     return view;
   }
 
-  private view(w: Waiting, status: CaptureStatus, message: string | null = null, reading: ReadingView | null = null, settledAt: Date | null = null): CounterCapture {
+  private view(
+    w: Waiting,
+    status: CaptureStatus,
+    message: string | null = null,
+    reading: ReadingView | null = null,
+    settledAt: Date | null = null,
+  ): CounterCapture {
     const settled = status === 'settled';
     return {
       runId: w.runId,
@@ -262,7 +296,8 @@ export class CounterCaptureService implements OnModuleDestroy {
   }
 
   private parseDial(ctx: RunWriteContext, input: unknown): number {
-    if (typeof input !== 'number' && typeof input !== 'string') throw new BadRequestException('dial: a dial setting is required (a number, or text such as "1750")');
+    if (typeof input !== 'number' && typeof input !== 'string')
+      throw new BadRequestException('dial: a dial setting is required (a number, or text such as "1750")');
     if (typeof input === 'string' && input.length > 40) throw new BadRequestException('dial: at most 40 characters');
     let dial: number;
     try {

@@ -1,15 +1,16 @@
 import { Logger, type OnModuleDestroy } from '@nestjs/common';
-import { ConnectedSocket, MessageBody, SubscribeMessage, WebSocketGateway, WebSocketServer, type OnGatewayDisconnect, type OnGatewayInit } from '@nestjs/websockets';
+import {
+  ConnectedSocket,
+  MessageBody,
+  SubscribeMessage,
+  WebSocketGateway,
+  WebSocketServer,
+  type OnGatewayDisconnect,
+  type OnGatewayInit,
+} from '@nestjs/websockets';
 import type { Subscription } from 'rxjs';
 import type { Namespace, Socket } from 'socket.io';
-import {
-  INGEST_EVENTS,
-  NAMESPACES,
-  type AttachReply,
-  type ConnectRefusal,
-  type IngestBatchReply,
-  type RefusedEvent,
-} from '@kilocycle/common/events';
+import { INGEST_EVENTS, NAMESPACES, type AttachReply, type ConnectRefusal, type IngestBatchReply, type RefusedEvent } from '@kilocycle/common/events';
 import { BenchesService, type BenchIdentity } from '../benches/benches.service.js';
 import { BridgePresence } from '../shared/bridge-presence.js';
 import { errorDetail, IngestException, toRefusal } from '../shared/socket-refusal.js';
@@ -48,7 +49,9 @@ export class IngestGateway implements OnGatewayInit, OnGatewayDisconnect, OnModu
     nsp.use((socket, next) => {
       const token: unknown = socket.handshake.auth?.token;
       if (typeof token !== 'string' || token === '') {
-        return next(connectError('no bench token: connect with auth {token} (an admin issues one on the Benches page or with bin/kilocycle bench token)', 'no_token'));
+        return next(
+          connectError('no bench token: connect with auth {token} (an admin issues one on the Benches page or with bin/kilocycle bench token)', 'no_token'),
+        );
       }
       this.benches
         .findByToken(token)

@@ -87,7 +87,8 @@ export class IngestService {
     if (storedTop > (this.highWater.get(runId) ?? 0)) this.highWater.set(runId, storedTop);
     for (const r of result.rejected) rejected.push({ ...r, index: indexOf[r.index] ?? r.index });
     rejected.sort((a, b) => a.index - b.index);
-    const { same, taken } = result.duplicates > 0 ? await this.sortDuplicates(runId, notStored(inputs, result.rejected, result.stored)) : { same: [], taken: [] };
+    const { same, taken } =
+      result.duplicates > 0 ? await this.sortDuplicates(runId, notStored(inputs, result.rejected, result.stored)) : { same: [], taken: [] };
     return {
       ok: true,
       runId,
@@ -125,7 +126,10 @@ export class IngestService {
    */
   private async sortDuplicates(runId: number, candidates: ReadonlyArray<{ seq: number; input: ReadingInput }>): Promise<{ same: number[]; taken: number[] }> {
     if (candidates.length === 0) return { same: [], taken: [] };
-    const rows = await this.readings.atSeqs(runId, candidates.map((c) => c.seq));
+    const rows = await this.readings.atSeqs(
+      runId,
+      candidates.map((c) => c.seq),
+    );
     const bySeq = new Map(rows.map((r) => [Number(r.seq), r]));
     const same: number[] = [];
     const taken: number[] = [];
@@ -152,7 +156,11 @@ const ER_LOCK_WAIT_TIMEOUT = 1205;
 const ER_LOCK_DEADLOCK = 1213;
 
 /** The valid readings this batch did not store (already stored, or repeated within the batch). */
-function notStored(inputs: readonly ReadingInput[], rejected: IngestAck['rejected'], stored: ReadonlyArray<{ seq: number }>): Array<{ seq: number; input: ReadingInput }> {
+function notStored(
+  inputs: readonly ReadingInput[],
+  rejected: IngestAck['rejected'],
+  stored: ReadonlyArray<{ seq: number }>,
+): Array<{ seq: number; input: ReadingInput }> {
   const refused = new Set(rejected.map((r) => r.index));
   const fresh = new Set(stored.map((r) => r.seq));
   const out: Array<{ seq: number; input: ReadingInput }> = [];
@@ -167,7 +175,8 @@ function notStored(inputs: readonly ReadingInput[], rejected: IngestAck['rejecte
 /** Whether a stored row is this (already validated) reading: same t, dial and frequency. */
 function sameReading(row: { t_s: number; dial: number | null; frequency_hz: number }, input: ReadingInput): boolean {
   const frequency = typeof input.frequency === 'number' ? input.frequency : parseFrequency(input.frequency, 'Hz');
-  const dial = input.dial === undefined || input.dial === null || input.dial === '' ? null : typeof input.dial === 'number' ? input.dial : parseNumber(input.dial);
+  const dial =
+    input.dial === undefined || input.dial === null || input.dial === '' ? null : typeof input.dial === 'number' ? input.dial : parseNumber(input.dial);
   const close = (a: number, b: number) => a === b || Math.abs(a - b) <= 1e-12 * Math.max(Math.abs(a), Math.abs(b));
   return (
     close(Number(row.frequency_hz), frequency) &&

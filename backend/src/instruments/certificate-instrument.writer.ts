@@ -4,7 +4,10 @@ import type { DataSource, EntityManager } from 'typeorm';
 import { Instrument } from './instrument.entity.js';
 
 /** An instrument as a certificate identifies it, with the recall interval its issue restarts. */
-export type CertificateInstrument = Pick<Instrument, 'id' | 'organizationId' | 'make' | 'model' | 'serial' | 'assetTag' | 'description' | 'recallIntervalMonths'>;
+export type CertificateInstrument = Pick<
+  Instrument,
+  'id' | 'organizationId' | 'make' | 'model' | 'serial' | 'assetTag' | 'description' | 'recallIntervalMonths'
+>;
 
 /**
  * Instruments for the certificates module (inside the signing transaction when a manager is given): reads the

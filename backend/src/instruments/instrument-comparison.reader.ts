@@ -11,7 +11,9 @@ export class InstrumentComparisonReader {
   /** "make model s/n serial" of these instruments, by id (ids not found are absent). */
   async labels(ids: readonly number[]): Promise<Map<number, string>> {
     if (ids.length === 0) return new Map();
-    const rows: Array<Record<string, unknown>> = await this.dataSource.query('SELECT id, make, model, serial FROM instruments WHERE id IN (?)', [[...new Set(ids)]]);
+    const rows: Array<Record<string, unknown>> = await this.dataSource.query('SELECT id, make, model, serial FROM instruments WHERE id IN (?)', [
+      [...new Set(ids)],
+    ]);
     return new Map(rows.map((row) => [Number(row.id), instrumentLabel({ make: String(row.make), model: String(row.model), serial: String(row.serial) })]));
   }
 

@@ -15,7 +15,23 @@ import { ReviewInstrumentsReader } from './review-instruments.reader.js';
 @Module({
   imports: [TypeOrmModule.forFeature([Instrument, InstrumentRange]), OrganizationsModule],
   controllers: [InstrumentsController],
-  providers: [InstrumentsService, RangeResultsReader, InstrumentComparisonReader, RecallInstrumentsReader, JobInstrumentReader, ReviewInstrumentsReader, CertificateInstrumentWriter],
-  exports: [InstrumentsService, RangeResultsReader, InstrumentComparisonReader, RecallInstrumentsReader, JobInstrumentReader, ReviewInstrumentsReader, CertificateInstrumentWriter],
+  providers: [
+    InstrumentsService,
+    RangeResultsReader,
+    InstrumentComparisonReader,
+    RecallInstrumentsReader,
+    JobInstrumentReader,
+    ReviewInstrumentsReader,
+    CertificateInstrumentWriter,
+  ],
+  exports: [
+    InstrumentsService,
+    RangeResultsReader,
+    InstrumentComparisonReader,
+    RecallInstrumentsReader,
+    JobInstrumentReader,
+    ReviewInstrumentsReader,
+    CertificateInstrumentWriter,
+  ],
 })
 export class InstrumentsModule {}

@@ -76,7 +76,12 @@ export class InstrumentsService {
     }
     return paginateFlat(qb, query, SORTABLE, 'make', 'i.id', async (found) => {
       const ranges = found.length === 0 ? [] : await this.ranges.find({ where: { instrumentId: In(found.map((i) => i.id)) } });
-      return found.map((i) => toInstrumentView(i, ranges.filter((r) => r.instrumentId === i.id)));
+      return found.map((i) =>
+        toInstrumentView(
+          i,
+          ranges.filter((r) => r.instrumentId === i.id),
+        ),
+      );
     });
   }
 
@@ -97,7 +102,7 @@ export class InstrumentsService {
   async create(actor: AuthUser, body: CreateInstrumentDto): Promise<InstrumentView> {
     const ranges = body.ranges ?? [];
     assertRanges(ranges);
-    if (ranges.some((r) => r.id !== undefined)) throw new BadRequestException('ranges: a new instrument\'s ranges have no id yet');
+    if (ranges.some((r) => r.id !== undefined)) throw new BadRequestException("ranges: a new instrument's ranges have no id yet");
     const id = await this.dataSource.transaction(async (manager) => {
       const organization = await this.organizations.byId(body.organizationId, manager);
       if (!organization) throw new BadRequestException(`organizationId: organisation ${body.organizationId} does not exist`);
@@ -115,7 +120,10 @@ export class InstrumentsService {
       });
       const newId = result.identifiers[0].id as number;
       if (ranges.length > 0) {
-        await manager.insert(InstrumentRange, ranges.map((r, index) => ({ ...rangeColumns(r), instrumentId: newId, position: index + 1 })));
+        await manager.insert(
+          InstrumentRange,
+          ranges.map((r, index) => ({ ...rangeColumns(r), instrumentId: newId, position: index + 1 })),
+        );
       }
       const { ranges: _ranges, ...fields } = body;
       await this.audit.record(
@@ -184,7 +192,9 @@ export class InstrumentsService {
     const removed = existing.filter((r) => !keptIds.has(r.id));
     const blocked = removed.filter((r) => used.has(r.id));
     if (blocked.length > 0) {
-      throw new ConflictException(`ranges: ${blocked.map((r) => `"${r.label}"`).join(', ')} already ${blocked.length === 1 ? 'has' : 'have'} runs and cannot be removed`);
+      throw new ConflictException(
+        `ranges: ${blocked.map((r) => `"${r.label}"`).join(', ')} already ${blocked.length === 1 ? 'has' : 'have'} runs and cannot be removed`,
+      );
     }
     const changed: string[] = [];
     wanted.forEach((r, index) => {
@@ -196,7 +206,14 @@ export class InstrumentsService {
           `ranges[${index}]: range "${before.label}" already has runs, so its ${differs.join(', ')} cannot change; add a new range instead`,
         );
       }
-      if (differs.length > 0 || before.label !== r.label || before.position !== index + 1 || canonicalList(before.multipliers) !== canonicalList(r.multipliers) || before.freqMinHz !== r.freqMinHz || before.freqMaxHz !== r.freqMaxHz) {
+      if (
+        differs.length > 0 ||
+        before.label !== r.label ||
+        before.position !== index + 1 ||
+        canonicalList(before.multipliers) !== canonicalList(r.multipliers) ||
+        before.freqMinHz !== r.freqMinHz ||
+        before.freqMaxHz !== r.freqMaxHz
+      ) {
         changed.push(r.label);
       }
     });

@@ -24,7 +24,8 @@ export function rangeProblems(range: RangeInput, index: number): string[] {
     const extra = onlyKeys(law, ['kind', 'unit']);
     if (extra.length > 0) problems.push(at('dialLaw', `unexpected field ${extra.join(', ')}`));
     if (!FREQUENCY_UNITS.includes(law.unit as string)) problems.push(at('dialLaw.unit', `must be one of: ${FREQUENCY_UNITS.join(', ')}`));
-    else if (range.dialUnit !== law.unit) problems.push(at('dialLaw.unit', `a direct-reading dial reads in its own unit: must equal dialUnit (${range.dialUnit})`));
+    else if (range.dialUnit !== law.unit)
+      problems.push(at('dialLaw.unit', `a direct-reading dial reads in its own unit: must equal dialUnit (${range.dialUnit})`));
   } else if (law.kind === 'table') {
     const extra = onlyKeys(law, ['kind', 'points']);
     if (extra.length > 0) problems.push(at('dialLaw', `unexpected field ${extra.join(', ')}`));
@@ -34,7 +35,14 @@ export function rangeProblems(range: RangeInput, index: number): string[] {
     } else {
       points.forEach((p: unknown, i) => {
         const point = p as Record<string, unknown> | null;
-        if (point === null || typeof point !== 'object' || onlyKeys(point, ['dial', 'frequency']).length > 0 || !isFiniteNumber(point.dial) || !isFiniteNumber(point.frequency) || point.frequency <= 0) {
+        if (
+          point === null ||
+          typeof point !== 'object' ||
+          onlyKeys(point, ['dial', 'frequency']).length > 0 ||
+          !isFiniteNumber(point.dial) ||
+          !isFiniteNumber(point.frequency) ||
+          point.frequency <= 0
+        ) {
           problems.push(at(`dialLaw.points[${i}]`, 'must be {dial: number, frequency: Hz above zero}'));
         }
       });

@@ -12,7 +12,10 @@ export class JobResultsJobReader {
   constructor(@InjectDataSource() private readonly dataSource: DataSource) {}
 
   async head(jobId: number, manager?: EntityManager): Promise<JobHead | null> {
-    const rows: Array<Record<string, unknown>> = await (manager ?? this.dataSource.manager).query('SELECT id, number, status, instrument_id FROM jobs WHERE id = ?', [jobId]);
+    const rows: Array<Record<string, unknown>> = await (manager ?? this.dataSource.manager).query(
+      'SELECT id, number, status, instrument_id FROM jobs WHERE id = ?',
+      [jobId],
+    );
     const row = rows[0];
     return row ? { id: Number(row.id), number: String(row.number), status: row.status as JobStatus, instrumentId: Number(row.instrument_id) } : null;
   }

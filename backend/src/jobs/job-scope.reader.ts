@@ -13,8 +13,19 @@ export class JobScopeReader {
 
   /** The job, or null; with `lock` its row is locked (FOR UPDATE) in the caller's transaction. */
   async scope(jobId: number, manager?: EntityManager, lock = false): Promise<JobScope | null> {
-    const [row] = await (manager ?? this.dataSource).query(`SELECT id, number, organization_id, status, instrument_id FROM jobs WHERE id = ?${lock ? ' FOR UPDATE' : ''}`, [jobId]);
-    return row ? { id: Number(row.id), number: String(row.number), organizationId: Number(row.organization_id), status: row.status as JobStatus, instrumentId: Number(row.instrument_id) } : null;
+    const [row] = await (manager ?? this.dataSource).query(
+      `SELECT id, number, organization_id, status, instrument_id FROM jobs WHERE id = ?${lock ? ' FOR UPDATE' : ''}`,
+      [jobId],
+    );
+    return row
+      ? {
+          id: Number(row.id),
+          number: String(row.number),
+          organizationId: Number(row.organization_id),
+          status: row.status as JobStatus,
+          instrumentId: Number(row.instrument_id),
+        }
+      : null;
   }
 
   /** The job if this user may see it; another organisation's job answers 404 as if it did not exist. `lock` as in scope(). */

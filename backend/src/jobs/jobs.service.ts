@@ -147,7 +147,13 @@ export class JobsService {
   }
 
   /** Moves a job along its workflow (also used when the first run opens); audited in the caller's transaction. */
-  async changeStatus(manager: EntityManager, actor: Pick<AuthUser, 'id' | 'role'>, job: Pick<Job, 'id' | 'number' | 'status'>, to: JobStatus, comment?: string): Promise<void> {
+  async changeStatus(
+    manager: EntityManager,
+    actor: Pick<AuthUser, 'id' | 'role'>,
+    job: Pick<Job, 'id' | 'number' | 'status'>,
+    to: JobStatus,
+    comment?: string,
+  ): Promise<void> {
     const refusal = jobTransitionRefusal(job.status, to, actor.role);
     if (refusal) {
       if (refusal.status === 403) throw new ForbiddenException(refusal.message);
@@ -198,10 +204,9 @@ export class JobsService {
   /** J<year>-<nnnn>, counting up within the year the instrument was received. */
   private async nextNumber(manager: EntityManager, receivedDate: string): Promise<string> {
     const prefix = `J${receivedDate.slice(0, 4)}-`;
-    const [last] = await manager.query(
-      'SELECT number FROM jobs WHERE number LIKE ? ORDER BY LENGTH(number) DESC, number DESC LIMIT 1 FOR UPDATE',
-      [`${prefix}%`],
-    );
+    const [last] = await manager.query('SELECT number FROM jobs WHERE number LIKE ? ORDER BY LENGTH(number) DESC, number DESC LIMIT 1 FOR UPDATE', [
+      `${prefix}%`,
+    ]);
     const next = last ? Number(String(last.number).slice(prefix.length)) + 1 : 1;
     return `${prefix}${String(next).padStart(4, '0')}`;
   }

@@ -40,7 +40,10 @@ export class ReviewJobsReader {
 
   /** The job, or null; with `lock` its row is locked (FOR UPDATE) until the caller's transaction ends. */
   async job(jobId: number, manager?: EntityManager, lock = false): Promise<ReviewedJob | null> {
-    const found = await (manager ?? this.dataSource.manager).findOne(Job, { where: { id: jobId }, ...(lock ? { lock: { mode: 'pessimistic_write' as const } } : {}) });
+    const found = await (manager ?? this.dataSource.manager).findOne(Job, {
+      where: { id: jobId },
+      ...(lock ? { lock: { mode: 'pessimistic_write' as const } } : {}),
+    });
     return found ? toReviewed(found) : null;
   }
 }

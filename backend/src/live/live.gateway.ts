@@ -148,7 +148,8 @@ export class LiveGateway implements OnGatewayInit, OnModuleDestroy {
   @SubscribeMessage(LIVE_EVENTS.leave)
   async leave(@ConnectedSocket() socket: LiveSocket, @MessageBody() payload: unknown): Promise<LeaveReply> {
     const runId = payload !== null && typeof payload === 'object' ? (payload as { runId?: unknown }).runId : undefined;
-    if (typeof runId !== 'number' || !Number.isInteger(runId)) return { ok: false, code: 'bad_request', error: 'runId must be a whole number (the id of a run)' };
+    if (typeof runId !== 'number' || !Number.isInteger(runId))
+      return { ok: false, code: 'bad_request', error: 'runId must be a whole number (the id of a run)' };
     try {
       await this.session(socket);
       await socket.leave(runRoom(runId));

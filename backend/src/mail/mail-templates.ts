@@ -41,7 +41,15 @@ export function certificateIssuedMail(raw: {
   };
 }
 
-export function jobReturnedMail(raw: { to: string; technician: string; lead: string; jobNumber: string; instrument: string; comment: string; jobUrl: string }): OutgoingMail {
+export function jobReturnedMail(raw: {
+  to: string;
+  technician: string;
+  lead: string;
+  jobNumber: string;
+  instrument: string;
+  comment: string;
+  jobUrl: string;
+}): OutgoingMail {
   const input = printableMailInput(raw, ['comment']);
   return {
     kind: 'job_returned',
@@ -49,12 +57,21 @@ export function jobReturnedMail(raw: { to: string; technician: string; lead: str
     subject: `Job ${input.jobNumber} returned for rework`,
     text:
       `Hello ${input.technician},\n\n${input.lead} has returned job ${input.jobNumber} (${input.instrument}) for rework:\n\n` +
-      `${input.comment.split('\n').map((l) => `  ${l}`).join('\n')}\n\nOpen the job: ${input.jobUrl}`,
+      `${input.comment
+        .split('\n')
+        .map((l) => `  ${l}`)
+        .join('\n')}\n\nOpen the job: ${input.jobUrl}`,
     links: [input.jobUrl],
   };
 }
 
-export function recallReminderMail(raw: { to: string[]; labName: string; customer: string; instruments: Array<{ label: string; dueDate: string }>; portalUrl: string }): OutgoingMail {
+export function recallReminderMail(raw: {
+  to: string[];
+  labName: string;
+  customer: string;
+  instruments: Array<{ label: string; dueDate: string }>;
+  portalUrl: string;
+}): OutgoingMail {
   const input = printableMailInput(raw);
   const lines = input.instruments.map((i) => `  - ${i.label}: due ${i.dueDate}`).join('\n');
   return {

@@ -47,7 +47,10 @@ export function mailTextToHtml(text: string, links: readonly string[] = []): str
     .split(/\n{2,}/)
     .filter((block) => block.trim() !== '')
     .map((block) => `<p style="margin:0 0 12px">${paragraph(block.replace(/^\n+|\n+$/g, ''))}</p>`);
-  const footer = signature === null ? '' : `<hr style="border:0;border-top:1px solid #ccc;margin:16px 0 8px">\n<p style="margin:0;color:#555;font-size:13px">${paragraph(signature)}</p>`;
+  const footer =
+    signature === null
+      ? ''
+      : `<hr style="border:0;border-top:1px solid #ccc;margin:16px 0 8px">\n<p style="margin:0;color:#555;font-size:13px">${paragraph(signature)}</p>`;
   return (
     '<!doctype html>\n<html><head><meta charset="utf-8"></head>\n' +
     `<body style="font-family:sans-serif;font-size:14px;line-height:1.45;color:#222">\n${paragraphs.join('\n')}\n${footer}\n</body></html>\n`

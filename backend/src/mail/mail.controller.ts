@@ -69,11 +69,7 @@ export class MailController {
 
   /** One attachment, by its position in the list GET /api/mail/:id gives (0 first). */
   @Get(':id/attachments/:index')
-  async attachment(
-    @IdParam('id') id: number,
-    @IdParam('index') index: number,
-    @Res({ passthrough: true }) res: Response,
-  ): Promise<StreamableFile> {
+  async attachment(@IdParam('id') id: number, @IdParam('index') index: number, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
     const part = (await parseMessage((await this.find(id)).raw)).attachments[index];
     if (!part) throw new NotFoundException(`Message ${id} has no attachment ${index}`);
     const name = (part.filename ?? `attachment-${index}`).replace(/[^\w.\- ]/g, '_');

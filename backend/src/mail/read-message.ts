@@ -17,7 +17,10 @@ export type ParsedMessage = {
 function headerOf(line: string): { name: string; value: string } {
   const colon = line.indexOf(':');
   const name = line.slice(0, colon).trim();
-  const value = line.slice(colon + 1).replace(/\r?\n[ \t]+/g, ' ').trim();
+  const value = line
+    .slice(colon + 1)
+    .replace(/\r?\n[ \t]+/g, ' ')
+    .trim();
   return { name, value: libmime.decodeWords(value) };
 }
 

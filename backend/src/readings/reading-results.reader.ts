@@ -6,7 +6,16 @@ import type { DataSource, EntityManager } from 'typeorm';
 export type ResultsReading = { id: number; runId: number; seq: number; dial: number | null; frequency: number; excludedReason: string | null };
 
 /** An excluded reading with its reason, who excluded it and when. */
-export type ExcludedReadingRow = { readingId: number; runId: number; seq: number; dial: number | null; frequency: number; reason: string; excludedBy: number; excludedAt: Date };
+export type ExcludedReadingRow = {
+  readingId: number;
+  runId: number;
+  seq: number;
+  dial: number | null;
+  frequency: number;
+  reason: string;
+  excludedBy: number;
+  excludedAt: Date;
+};
 
 /** Readings as job results read them (inside the signing transaction when a manager is given). */
 @Injectable()
@@ -35,7 +44,10 @@ export class ReadingResultsReader {
   /** The frequencies of these readings in sequence order, with their ids. */
   async frequencies(ids: readonly number[], manager?: EntityManager): Promise<Array<{ id: number; frequency: number }>> {
     if (ids.length === 0) return [];
-    const rows: Array<Record<string, unknown>> = await (manager ?? this.dataSource.manager).query('SELECT id, frequency_hz FROM readings WHERE id IN (?) ORDER BY seq', [ids]);
+    const rows: Array<Record<string, unknown>> = await (manager ?? this.dataSource.manager).query(
+      'SELECT id, frequency_hz FROM readings WHERE id IN (?) ORDER BY seq',
+      [ids],
+    );
     return rows.map((r) => ({ id: Number(r.id), frequency: Number(r.frequency_hz) }));
   }
 

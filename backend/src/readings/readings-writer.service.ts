@@ -116,7 +116,8 @@ export class ReadingsWriter {
       }
       let frequency: number;
       try {
-        if (typeof input.frequency !== 'number' && typeof input.frequency !== 'string') throw new Error('frequency is required (a number in Hz or text such as "1.735 MHz")');
+        if (typeof input.frequency !== 'number' && typeof input.frequency !== 'string')
+          throw new Error('frequency is required (a number in Hz or text such as "1.735 MHz")');
         frequency = parseFrequency(input.frequency, 'Hz');
       } catch (error) {
         return refuse('frequency', error instanceof Error ? error.message : String(error));
@@ -149,7 +150,8 @@ export class ReadingsWriter {
         aux = input.aux;
       }
       // Last, so that a reading with a plain error is refused for that (it cannot be confirmed away).
-      if (confirm === 'each' && input.confirmed !== undefined && typeof input.confirmed !== 'boolean') return refuse('confirmed', 'confirmed must be true or false');
+      if (confirm === 'each' && input.confirmed !== undefined && typeof input.confirmed !== 'boolean')
+        return refuse('confirmed', 'confirmed must be true or false');
       if ((frequency < freqLow || frequency > freqHigh) && confirm !== 'all' && !(confirm === 'each' && input.confirmed === true)) {
         const { message } = outsideSpan(input.frequency, frequency, ctx.freqMinHz, ctx.freqMaxHz, SPAN_MARGIN, limits);
         if (confirm === 'each') return rejected.push({ seq, index, field: 'frequency', reason: message, confirmable: true });
@@ -169,9 +171,21 @@ export class ReadingsWriter {
    * With `options.manager` the batch joins the caller's transaction (a CSV import commits many
    * batches at once) and nothing is pushed to stored$: only the caller knows when it commits.
    */
-  async append(ctx: RunWriteContext, inputs: readonly ReadingInput[], source: ReadingSource, author: ReadingAuthor, options: AppendOptions = {}): Promise<AppendResult> {
+  async append(
+    ctx: RunWriteContext,
+    inputs: readonly ReadingInput[],
+    source: ReadingSource,
+    author: ReadingAuthor,
+    options: AppendOptions = {},
+  ): Promise<AppendResult> {
     const columns = authorColumns(source, author);
-    const { rows, rejected } = this.validate(ctx, inputs, Date.now(), options.confirm ?? (source === 'manual' ? 'each' : 'none'), options.counterReadings === true && source === 'bridge');
+    const { rows, rejected } = this.validate(
+      ctx,
+      inputs,
+      Date.now(),
+      options.confirm ?? (source === 'manual' ? 'each' : 'none'),
+      options.counterReadings === true && source === 'bridge',
+    );
     if (rows.length === 0) {
       return { accepted: 0, duplicates: 0, rejected, lastSeq: await this.lastSeq(ctx.runId, options.manager), stored: [] };
     }
@@ -191,7 +205,14 @@ export class ReadingsWriter {
       if (options.skipReadBack) {
         const result = await manager.query(insert);
         const inserted = Number(result.affectedRows ?? 0);
-        if (!options.callerAudits && inserted > 0) await this.recordBatch(manager, ctx.runId, source, author, { accepted: inserted, duplicates: rows.length - inserted, rejected: rejected.length, firstSeq: null, lastSeq: null });
+        if (!options.callerAudits && inserted > 0)
+          await this.recordBatch(manager, ctx.runId, source, author, {
+            accepted: inserted,
+            duplicates: rows.length - inserted,
+            rejected: rejected.length,
+            firstSeq: null,
+            lastSeq: null,
+          });
         return { inserted, stored: [] };
       }
       // RETURNING (MariaDB 10.5+) names exactly the rows this statement stored, in the same round trip:
@@ -205,7 +226,18 @@ export class ReadingsWriter {
         .map(({ id, seq }): StoredReading => {
           const r = bySeq.get(Number(seq))!;
           // No author on each reading: the fan-out would encode it thousands of times a second.
-          return { id: Number(id), seq: Number(seq), t: r.t, dial: r.dial, frequency: r.frequency, aux: r.aux, source, receivedAt: iso, excluded: false, excludedReason: null };
+          return {
+            id: Number(id),
+            seq: Number(seq),
+            t: r.t,
+            dial: r.dial,
+            frequency: r.frequency,
+            aux: r.aux,
+            source,
+            receivedAt: iso,
+            excluded: false,
+            excludedReason: null,
+          };
         })
         .sort((a, b) => a.seq - b.seq);
       if (!options.callerAudits && stored.length > 0) {
@@ -260,8 +292,15 @@ const SQL_SAFE_TIME = /^\d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2}\.\d{3}$/;
  * source (one of three words) or our own time stamp, so nothing needs escaping. A driver's generic
  * escaping of 8,000 values a batch was a measurable share of the server's time on the ingest path.
  */
-function valuesList(runId: number, rows: readonly Row[], source: ReadingSource, received: string, author: { enteredBy: number | null; benchId: number | null }): string {
-  if (!Number.isInteger(runId) || !SQL_SAFE_SOURCE.test(source) || !SQL_SAFE_TIME.test(received)) throw new Error('valuesList: unexpected run id, source or time');
+function valuesList(
+  runId: number,
+  rows: readonly Row[],
+  source: ReadingSource,
+  received: string,
+  author: { enteredBy: number | null; benchId: number | null },
+): string {
+  if (!Number.isInteger(runId) || !SQL_SAFE_SOURCE.test(source) || !SQL_SAFE_TIME.test(received))
+    throw new Error('valuesList: unexpected run id, source or time');
   const id = (x: number | null) => {
     if (x === null) return 'NULL';
     if (!Number.isInteger(x)) throw new Error('valuesList: an author id is not a whole number');
@@ -289,8 +328,10 @@ export const AUTHOR_COLUMNS = 'r.entered_by, eu.name AS entered_by_name, r.bench
 export const AUTHOR_JOINS = 'LEFT JOIN users eu ON eu.id = r.entered_by LEFT JOIN benches eb ON eb.id = r.bench_id';
 
 function authorOf(row: Record<string, unknown>): ReadingAuthor | null {
-  if (row.bench_id !== null && row.bench_id !== undefined) return { kind: 'bench', id: Number(row.bench_id), name: String(row.bench_name ?? `bench ${row.bench_id}`) };
-  if (row.entered_by !== null && row.entered_by !== undefined) return { kind: 'user', id: Number(row.entered_by), name: String(row.entered_by_name ?? `user ${row.entered_by}`) };
+  if (row.bench_id !== null && row.bench_id !== undefined)
+    return { kind: 'bench', id: Number(row.bench_id), name: String(row.bench_name ?? `bench ${row.bench_id}`) };
+  if (row.entered_by !== null && row.entered_by !== undefined)
+    return { kind: 'user', id: Number(row.entered_by), name: String(row.entered_by_name ?? `user ${row.entered_by}`) };
   return null;
 }
 

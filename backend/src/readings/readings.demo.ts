@@ -7,9 +7,17 @@ export type DemoReadingRow = [number, number, number | null, number, number | nu
  * Stores a run's generated demo readings (source import unless told, received as their t says), 1,000 to a
  * multi-row INSERT: the demo's stability run alone has 3,600. Part of the seed's one transaction.
  */
-export async function insertDemoReadings(manager: EntityManager, runId: number, startedAt: Date, rows: readonly DemoReadingRow[], source: 'import' | 'manual' = 'import'): Promise<void> {
+export async function insertDemoReadings(
+  manager: EntityManager,
+  runId: number,
+  startedAt: Date,
+  rows: readonly DemoReadingRow[],
+  source: 'import' | 'manual' = 'import',
+): Promise<void> {
   for (let from = 0; from < rows.length; from += 1000) {
-    const values = rows.slice(from, from + 1000).map(([seq, t, dial, frequency, aux]) => [runId, seq, t, dial, frequency, aux, source, new Date(startedAt.getTime() + t * 1000)]);
+    const values = rows
+      .slice(from, from + 1000)
+      .map(([seq, t, dial, frequency, aux]) => [runId, seq, t, dial, frequency, aux, source, new Date(startedAt.getTime() + t * 1000)]);
     await manager.query('INSERT INTO readings (run_id, seq, t_s, dial, frequency_hz, aux, source, received_at) VALUES ?', [values]);
   }
 }

@@ -72,7 +72,8 @@ export class ReadingsService {
     inputs.forEach((input, index) => {
       if (input !== null && typeof input === 'object' && !Array.isArray(input)) {
         for (const key of Object.keys(input)) {
-          if (!READING_KEYS.includes(key)) problems.push({ seq: null, index, field: key, reason: `${key} is not a reading field (use ${READING_KEYS.join(', ')})` });
+          if (!READING_KEYS.includes(key))
+            problems.push({ seq: null, index, field: key, reason: `${key} is not a reading field (use ${READING_KEYS.join(', ')})` });
         }
       }
     });

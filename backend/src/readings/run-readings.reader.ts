@@ -42,10 +42,11 @@ export class RunReadingsReader extends RunReadingStatsSource {
   async statsFor(runIds: readonly number[]): Promise<Map<number, RunReadingStats>> {
     const out = new Map<number, RunReadingStats>();
     if (runIds.length === 0) return out;
-    const [readings, exclusions]: [Array<{ run_id: number; n: string | number; last: number | null }>, Array<{ run_id: number; n: string | number }>] = await Promise.all([
-      this.dataSource.query('SELECT run_id, COUNT(*) AS n, MAX(seq) AS last FROM readings WHERE run_id IN (?) GROUP BY run_id', [runIds]),
-      this.dataSource.query('SELECT run_id, COUNT(*) AS n FROM reading_exclusions WHERE run_id IN (?) GROUP BY run_id', [runIds]),
-    ]);
+    const [readings, exclusions]: [Array<{ run_id: number; n: string | number; last: number | null }>, Array<{ run_id: number; n: string | number }>] =
+      await Promise.all([
+        this.dataSource.query('SELECT run_id, COUNT(*) AS n, MAX(seq) AS last FROM readings WHERE run_id IN (?) GROUP BY run_id', [runIds]),
+        this.dataSource.query('SELECT run_id, COUNT(*) AS n FROM reading_exclusions WHERE run_id IN (?) GROUP BY run_id', [runIds]),
+      ]);
     const withReadings = readings.filter((row) => row.last !== null).map((row) => Number(row.run_id));
     // The newest reading of each run (by the (run_id, seq) index): how old it is, and whether a bridge sent it.
     const newest: Array<{ run_id: number; received_at: string; source: ReadingSource }> =
@@ -61,7 +62,12 @@ export class RunReadingsReader extends RunReadingStatsSource {
     for (const id of runIds) out.set(id, { readingCount: 0, excludedCount: excludedBy.get(id) ?? 0, lastSeq: 0, newest: null });
     for (const row of readings) {
       const id = Number(row.run_id);
-      out.set(id, { readingCount: Number(row.n), excludedCount: excludedBy.get(id) ?? 0, lastSeq: row.last ? Number(row.last) : 0, newest: newestBy.get(id) ?? null });
+      out.set(id, {
+        readingCount: Number(row.n),
+        excludedCount: excludedBy.get(id) ?? 0,
+        lastSeq: row.last ? Number(row.last) : 0,
+        newest: newestBy.get(id) ?? null,
+      });
     }
     return out;
   }
@@ -83,7 +89,10 @@ export class RunReadingsReader extends RunReadingStatsSource {
 
   /** The seqs of the run's excluded readings. */
   async excludedSeqs(runId: number): Promise<Set<number>> {
-    const rows: Array<{ seq: number }> = await this.dataSource.query('SELECT r.seq FROM reading_exclusions x JOIN readings r ON r.id = x.reading_id WHERE x.run_id = ?', [runId]);
+    const rows: Array<{ seq: number }> = await this.dataSource.query(
+      'SELECT r.seq FROM reading_exclusions x JOIN readings r ON r.id = x.reading_id WHERE x.run_id = ?',
+      [runId],
+    );
     return new Set(rows.map((row) => Number(row.seq)));
   }
 
@@ -136,7 +145,11 @@ export class RunReadingsReader extends RunReadingStatsSource {
     return this.stream((connection) => connection.query({ sql, values: [runId], rowsAsArray: true }), onRow, onFlow);
   }
 
-  private async stream(start: (connection: RawConnection) => StreamingQuery, onRow: (row: StreamedCell[]) => void, onFlow?: (flow: StreamFlow) => void): Promise<void> {
+  private async stream(
+    start: (connection: RawConnection) => StreamingQuery,
+    onRow: (row: StreamedCell[]) => void,
+    onFlow?: (flow: StreamFlow) => void,
+  ): Promise<void> {
     const runner = this.dataSource.createQueryRunner();
     try {
       const connection = (await runner.connect()) as RawConnection;

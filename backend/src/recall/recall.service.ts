@@ -55,7 +55,13 @@ export class RecallService implements OnApplicationBootstrap, OnApplicationShutd
       this.running = runRecall(this.dataSource, (mail) => this.mail.mailer.send(mail), { publicUrl: this.config.publicUrl, now })
         .then(async (result) => {
           if (result.sent > 0) {
-            await this.audit.record({ actorId, entity: 'recall', entityId: 'reminder', action: 'send', changes: { sent: result.sent, instruments: result.notices.map((n) => n.instrumentId) } });
+            await this.audit.record({
+              actorId,
+              entity: 'recall',
+              entityId: 'reminder',
+              action: 'send',
+              changes: { sent: result.sent, instruments: result.notices.map((n) => n.instrumentId) },
+            });
             this.logger.log(`recall reminders sent for ${result.sent} instrument(s)`);
           }
           return result;

@@ -29,7 +29,9 @@ async function dueRows(dataSource: DataSource, until: string): Promise<DueRow[]>
     const organization = organizations.get(i.organizationId);
     if (!organization?.active || sent.has(`${i.id}|${i.nextDueDate}`)) return [];
     const { id, make, model, serial } = i;
-    return [{ id, make, model, serial, due: i.nextDueDate, organization_id: i.organizationId, org_name: organization.name, contact_email: organization.contactEmail }];
+    return [
+      { id, make, model, serial, due: i.nextDueDate, organization_id: i.organizationId, org_name: organization.name, contact_email: organization.contactEmail },
+    ];
   });
 }
 

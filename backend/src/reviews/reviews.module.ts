@@ -20,7 +20,17 @@ import { ReviewsService } from './reviews.service.js';
  */
 @Global()
 @Module({
-  imports: [TypeOrmModule.forFeature([JobReview]), CertificatesModule, SignInThrottleModule, BudgetsModule, RunsModule, InstrumentsModule, StandardsModule, JobsModule, OrganizationsModule],
+  imports: [
+    TypeOrmModule.forFeature([JobReview]),
+    CertificatesModule,
+    SignInThrottleModule,
+    BudgetsModule,
+    RunsModule,
+    InstrumentsModule,
+    StandardsModule,
+    JobsModule,
+    OrganizationsModule,
+  ],
   controllers: [ReviewsController],
   providers: [ReviewsService, JobReviewEventsWriter, { provide: JobReviewEvents, useExisting: JobReviewEventsWriter }],
   exports: [JobReviewEvents],

@@ -2,7 +2,15 @@ import { BadRequestException, ConflictException, ForbiddenException, Inject, Inj
 import { InjectDataSource } from '@nestjs/typeorm';
 import bcrypt from 'bcryptjs';
 import type { DataSource, EntityManager } from 'typeorm';
-import { SIGNING_MEANING, type SignedRecord, type CertificateDetail, type JobReview as JobReviewView, type JobStatus, type ReviewEvent, type ReviewFlag } from '@kilocycle/common/types';
+import {
+  SIGNING_MEANING,
+  type SignedRecord,
+  type CertificateDetail,
+  type JobReview as JobReviewView,
+  type JobStatus,
+  type ReviewEvent,
+  type ReviewFlag,
+} from '@kilocycle/common/types';
 import { selfSignRefusal } from '@kilocycle/common/rules';
 import { AuditLogService } from '../audit/audit-log.service.js';
 import { AuditService } from '../audit/audit.service.js';
@@ -80,7 +88,14 @@ export class ReviewsService {
     return instrument;
   }
 
-  private async changeStatus(manager: EntityManager, actor: AuthUser, job: ReviewedJob, to: JobStatus, action: 'submit' | 'return', comment: string | null): Promise<void> {
+  private async changeStatus(
+    manager: EntityManager,
+    actor: AuthUser,
+    job: ReviewedJob,
+    to: JobStatus,
+    action: 'submit' | 'return',
+    comment: string | null,
+  ): Promise<void> {
     await this.jobStatus.setStatus(job.id, to, manager);
     await manager.insert(JobReview, { jobId: job.id, action, actorId: actor.id, comment });
     // Same shape as the jobs module's status changes, so its "returnComment" reads ours too.
@@ -269,7 +284,11 @@ export class ReviewsService {
    * The job's runs (range, standard, who captured them, reading counts, whether the results use them) and their
    * excluded readings, read from their owners; a signed job names its ranges and standards as they were signed.
    */
-  private async reviewRuns(job: ReviewedJob, results: JobReviewView['results'], frozen: SignedRecord | null): Promise<Pick<JobReviewView, 'runs' | 'excludedReadings'>> {
+  private async reviewRuns(
+    job: ReviewedJob,
+    results: JobReviewView['results'],
+    frozen: SignedRecord | null,
+  ): Promise<Pick<JobReviewView, 'runs' | 'excludedReadings'>> {
     const runs = await this.runResults.jobRuns(job.id);
     const runIds = runs.map((r) => r.id);
     const [ranges, standards, stats, exclusions] = await Promise.all([
@@ -320,7 +339,10 @@ export class ReviewsService {
 
   /** The job's review events, oldest first, with the actors' names. */
   private async history(jobId: number): Promise<ReviewEvent[]> {
-    const rows: Array<Record<string, unknown>> = await this.dataSource.manager.query('SELECT id, action, actor_id, comment, at FROM job_reviews WHERE job_id = ? ORDER BY id', [jobId]);
+    const rows: Array<Record<string, unknown>> = await this.dataSource.manager.query(
+      'SELECT id, action, actor_id, comment, at FROM job_reviews WHERE job_id = ? ORDER BY id',
+      [jobId],
+    );
     const names = await this.actors.namesOf(rows.flatMap((h) => (h.actor_id === null ? [] : [Number(h.actor_id)])));
     return rows.map((h) => ({
       id: Number(h.id),

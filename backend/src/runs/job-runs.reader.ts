@@ -16,12 +16,18 @@ export class JobRunsReader extends JobRunStatsSource {
 
   async runCounts(jobIds: readonly number[]): Promise<Map<number, number>> {
     if (jobIds.length === 0) return new Map();
-    const rows: Array<{ job_id: number; n: number | string }> = await this.dataSource.query('SELECT job_id, COUNT(*) AS n FROM runs WHERE job_id IN (?) GROUP BY job_id', [jobIds]);
+    const rows: Array<{ job_id: number; n: number | string }> = await this.dataSource.query(
+      'SELECT job_id, COUNT(*) AS n FROM runs WHERE job_id IN (?) GROUP BY job_id',
+      [jobIds],
+    );
     return new Map(rows.map((row) => [Number(row.job_id), Number(row.n)]));
   }
 
   async readingCount(jobId: number, manager?: EntityManager): Promise<number> {
     const runs: Array<{ id: number }> = await (manager ?? this.dataSource).query('SELECT id FROM runs WHERE job_id = ?', [jobId]);
-    return this.readings.countFor(runs.map((r) => Number(r.id)), manager);
+    return this.readings.countFor(
+      runs.map((r) => Number(r.id)),
+      manager,
+    );
   }
 }

@@ -56,7 +56,11 @@ export class RunResultsReader {
          FROM runs WHERE id IN (?)`,
       [runIds],
     );
-    return rows.map((row) => ({ started: String(row.started), ended: String(row.ended), supplyVoltage: row.supply_voltage === null ? null : Number(row.supply_voltage) }));
+    return rows.map((row) => ({
+      started: String(row.started),
+      ended: String(row.ended),
+      supplyVoltage: row.supply_voltage === null ? null : Number(row.supply_voltage),
+    }));
   }
 
   /** Every run of the job, oldest first, as the job's review lists them. */

@@ -21,9 +21,19 @@ export type DemoRunSpec = {
 /** Inserts one demo run (closed after `minutes`, or open), part of the seed's one transaction. */
 export async function insertDemoRun(manager: EntityManager, spec: DemoRunSpec): Promise<{ id: number; startedAt: Date }> {
   const result = await manager.insert(Run, {
-    jobId: spec.jobId, rangeId: spec.rangeId, kind: spec.kind, status: spec.minutes === null ? 'open' : 'closed', benchId: spec.benchId ?? null, standardId: spec.standardId,
-    standardOverrideReason: null, supplyVoltage: spec.supplyVoltage ?? null, configuration: spec.configuration, notes: spec.notes ?? null, startedAt: spec.startedAt,
-    endedAt: spec.minutes === null ? null : new Date(spec.startedAt.getTime() + spec.minutes * 60_000), createdById: spec.createdBy,
+    jobId: spec.jobId,
+    rangeId: spec.rangeId,
+    kind: spec.kind,
+    status: spec.minutes === null ? 'open' : 'closed',
+    benchId: spec.benchId ?? null,
+    standardId: spec.standardId,
+    standardOverrideReason: null,
+    supplyVoltage: spec.supplyVoltage ?? null,
+    configuration: spec.configuration,
+    notes: spec.notes ?? null,
+    startedAt: spec.startedAt,
+    endedAt: spec.minutes === null ? null : new Date(spec.startedAt.getTime() + spec.minutes * 60_000),
+    createdById: spec.createdBy,
   });
   return { id: result.identifiers[0].id as number, startedAt: spec.startedAt };
 }

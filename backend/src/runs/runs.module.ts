@@ -27,7 +27,18 @@ import { RunsService } from './runs.service.js';
 @Module({
   imports: [TypeOrmModule.forFeature([Run]), JobsModule, InstrumentsModule, BenchesModule, StandardsModule, BridgePresenceModule],
   controllers: [RunsController, JobRunsController],
-  providers: [RunsService, RunResultsReader, RunComparisonReader, RunContextReader, RunNotesWriter, RunStandardVersionWriter, JobRunsReader, { provide: JobRunStatsSource, useExisting: JobRunsReader }, RangeUseReader, { provide: RangeUseSource, useExisting: RangeUseReader }],
+  providers: [
+    RunsService,
+    RunResultsReader,
+    RunComparisonReader,
+    RunContextReader,
+    RunNotesWriter,
+    RunStandardVersionWriter,
+    JobRunsReader,
+    { provide: JobRunStatsSource, useExisting: JobRunsReader },
+    RangeUseReader,
+    { provide: RangeUseSource, useExisting: RangeUseReader },
+  ],
   exports: [RunsService, RunResultsReader, RunComparisonReader, RunContextReader, RunNotesWriter, RunStandardVersionWriter, JobRunStatsSource, RangeUseSource],
 })
 export class RunsModule {}

@@ -90,9 +90,12 @@ export class RunsService {
     if (query.kind) qb.andWhere('r.kind = :kind', { kind: query.kind });
     if (query.status) qb.andWhere('r.status = :status', { status: query.status });
     if (query.q) {
-      qb.andWhere('(j.number LIKE :q OR g.label LIKE :q OR i.make LIKE :q OR i.model LIKE :q OR i.serial LIKE :q OR r.notes LIKE :q OR r.configuration LIKE :q)', {
-        q: likePattern(query.q),
-      });
+      qb.andWhere(
+        '(j.number LIKE :q OR g.label LIKE :q OR i.make LIKE :q OR i.model LIKE :q OR i.serial LIKE :q OR r.notes LIKE :q OR r.configuration LIKE :q)',
+        {
+          q: likePattern(query.q),
+        },
+      );
     }
     return paginateFlat(qb, query, SORTABLE, '-startedAt', 'r.id', (found) => this.toViews(found));
   }
@@ -138,7 +141,9 @@ export class RunsService {
       }
       if (standardId === null && CALIBRATION_RUN_KINDS.includes(body.kind)) {
         const why = body.benchId != null ? ' (the bench has no default standard)' : '';
-        throw new BadRequestException(`standardId: an ${runKindWords(body.kind)} run needs a reference standard${why}; choose the counter or reference the readings are taken with`);
+        throw new BadRequestException(
+          `standardId: an ${runKindWords(body.kind)} run needs a reference standard${why}; choose the counter or reference the readings are taken with`,
+        );
       }
       const { standard, overrideReason } = await this.usableStandard(manager, actor, standardId, body.standardOverrideReason);
       const result = await manager.insert(Run, {

@@ -42,7 +42,10 @@ export async function seedDemoCertificates({ manager, customerIds, userIds }: De
   const { instrumentId, ranges } = await seedVfo(manager, customerIds.northgate, today);
   const jobId = await seedVfoJob(manager, { instrumentId, organizationId: customerIds.northgate, technicianId: tech, procedureId: guarded, today });
   await seedVfoRuns(manager, { jobId, ranges, standardId: counter.id, technicianId: tech, at });
-  await reviewEvents.record({ jobId, action: 'submit', actorId: tech, comment: 'All three ranges aligned; as-found range 3 was well out.', at: at(-7, 16) }, manager);
+  await reviewEvents.record(
+    { jobId, action: 'submit', actorId: tech, comment: 'All three ranges aligned; as-found range 3 was well out.', at: at(-7, 16) },
+    manager,
+  );
   await issueDemoCertificate(manager, reviewEvents, { jobId, signerId: lead, now: at(-6, 11, 20) });
 }
 
@@ -97,7 +100,10 @@ async function seedVfo(manager: EntityManager, organizationId: number, today: Da
 }
 
 /** The VFO's job, in review, numbered after the year's existing jobs, with the guarded procedure chosen. */
-async function seedVfoJob(manager: EntityManager, input: { instrumentId: number; organizationId: number; technicianId: number; procedureId: number; today: Date }): Promise<number> {
+async function seedVfoJob(
+  manager: EntityManager,
+  input: { instrumentId: number; organizationId: number; technicianId: number; procedureId: number; today: Date },
+): Promise<number> {
   const { instrumentId, organizationId, technicianId, procedureId, today } = input;
   const receivedDate = addDays(today, -12);
   const { id: jobId } = await insertDemoJob(manager, {
@@ -116,7 +122,10 @@ async function seedVfoJob(manager: EntityManager, input: { instrumentId: number;
 }
 
 /** An as-found and an as-left run on every range, three readings a setting from a drifting and a re-aligned LC model. */
-async function seedVfoRuns(manager: EntityManager, input: { jobId: number; ranges: InstrumentRange[]; standardId: number; technicianId: number; at: At }): Promise<void> {
+async function seedVfoRuns(
+  manager: EntityManager,
+  input: { jobId: number; ranges: InstrumentRange[]; standardId: number; technicianId: number; at: At },
+): Promise<void> {
   const { jobId, ranges, standardId, technicianId, at } = input;
   let seed = 600;
   for (const range of ranges) {
@@ -137,7 +146,8 @@ async function seedVfoRuns(manager: EntityManager, input: { jobId: number; range
         startedAt: at(-9 + index, 9 + range.position, 15),
         minutes: 30,
         supplyVoltage: 230,
-        configuration: kind === 'as_found' ? 'In its case, 30 min warm-up, into 50 Ω, counter on 1 s gate' : 'After coil and trimmer alignment; in its case, 30 min warm-up',
+        configuration:
+          kind === 'as_found' ? 'In its case, 30 min warm-up, into 50 Ω, counter on 1 s gate' : 'After coil and trimmer alignment; in its case, 30 min warm-up',
       });
       const noise = seededGaussian(seed++);
       const rows: DemoReadingRow[] = [];

@@ -8,9 +8,4 @@ import { seedDemoBenches } from './live-run.demo.js';
  * Each module that brings demo records adds its `<module>.demo.ts` function here, in dependency order.
  * They run inside the seed's one transaction, after the organisations and accounts.
  */
-export const DEMO_EXTENSIONS: DemoExtension[] = [
-  seedDemoStandards,
-  seedDemoLabRecords,
-  seedDemoCertificates,
-  seedDemoBenches,
-];
+export const DEMO_EXTENSIONS: DemoExtension[] = [seedDemoStandards, seedDemoLabRecords, seedDemoCertificates, seedDemoBenches];

@@ -71,7 +71,9 @@ export async function ensureAdmin(dataSource: DataSource, config: AppConfig, ema
     if (problem) throw new Error(`KC_ADMIN_PASSWORD is refused: ${problem}`);
     let lab = await manager.findOneBy(Organization, { kind: 'lab' });
     if (!lab) {
-      const id = (await manager.insert(Organization, { name: checkEnvironment(process.env).values.KC_LAB_NAME ?? 'Calibration Lab', kind: 'lab', contactEmail: null })).identifiers[0].id as number;
+      const id = (
+        await manager.insert(Organization, { name: checkEnvironment(process.env).values.KC_LAB_NAME ?? 'Calibration Lab', kind: 'lab', contactEmail: null })
+      ).identifiers[0].id as number;
       lab = await manager.findOneByOrFail(Organization, { id });
     }
     const passwordHash = await bcrypt.hash(config.adminPassword!, config.bcryptCost);

@@ -15,7 +15,15 @@ import type { DemoContext } from './demo-seed.js';
 
 // The demo scenario is invented: the instruments, makers, serials and readings below exist nowhere else.
 
-type RangeSpec = { label: string; dialUnit: 'kHz' | 'MHz'; law: DialLaw; dial: [number, number]; hz: [number, number]; tolerance: Tolerance; multipliers: number[] };
+type RangeSpec = {
+  label: string;
+  dialUnit: 'kHz' | 'MHz';
+  law: DialLaw;
+  dial: [number, number];
+  hz: [number, number];
+  tolerance: Tolerance;
+  multipliers: number[];
+};
 type ReadingRow = DemoReadingRow;
 
 const HALF_PERCENT: Tolerance = { kind: 'percent', percent: 0.5 };
@@ -39,7 +47,13 @@ const GENERATOR_RANGES: RangeSpec[] = [
 const receiverLo = (label: string, low: number, high: number): RangeSpec => ({
   label,
   dialUnit: 'MHz',
-  law: { kind: 'table', points: [{ dial: low, frequency: low * 1e6 + 455e3 }, { dial: high, frequency: high * 1e6 + 455e3 }] },
+  law: {
+    kind: 'table',
+    points: [
+      { dial: low, frequency: low * 1e6 + 455e3 },
+      { dial: high, frequency: high * 1e6 + 455e3 },
+    ],
+  },
   dial: [low, high],
   hz: [low * 1e6 + 455e3, high * 1e6 + 455e3],
   tolerance: { kind: 'percent', percent: 0.2 },
@@ -47,8 +61,24 @@ const receiverLo = (label: string, low: number, high: number): RangeSpec => ({
 });
 const RECEIVER_RANGES = [receiverLo('Band 2 LO (signal 1.6–4.0 MHz)', 1.6, 4.0), receiverLo('Band 3 LO (signal 4.0–10.0 MHz)', 4.0, 10.0)];
 const REFERENCE_RANGES: RangeSpec[] = [
-  { label: '5 MHz output', dialUnit: 'MHz', law: { kind: 'direct', unit: 'MHz' }, dial: [4.99, 5.01], hz: [4.99e6, 5.01e6], tolerance: { kind: 'ppm_hz', ppm: 1, hz: 0 }, multipliers: [1] },
-  { label: '1 MHz output', dialUnit: 'MHz', law: { kind: 'direct', unit: 'MHz' }, dial: [0.99, 1.01], hz: [0.99e6, 1.01e6], tolerance: { kind: 'ppm_hz', ppm: 1, hz: 0 }, multipliers: [1] },
+  {
+    label: '5 MHz output',
+    dialUnit: 'MHz',
+    law: { kind: 'direct', unit: 'MHz' },
+    dial: [4.99, 5.01],
+    hz: [4.99e6, 5.01e6],
+    tolerance: { kind: 'ppm_hz', ppm: 1, hz: 0 },
+    multipliers: [1],
+  },
+  {
+    label: '1 MHz output',
+    dialUnit: 'MHz',
+    law: { kind: 'direct', unit: 'MHz' },
+    dial: [0.99, 1.01],
+    hz: [0.99e6, 1.01e6],
+    tolerance: { kind: 'ppm_hz', ppm: 1, hz: 0 },
+    multipliers: [1],
+  },
 ];
 
 type InstrumentFields = Pick<Instrument, 'organizationId' | 'make' | 'model' | 'serial' | 'assetTag' | 'description' | 'nextDueDate'>;
@@ -97,22 +127,58 @@ export async function seedDemoLabRecords({ manager, labId, customerIds, userIds 
 
 async function insertInstruments(scene: LabScene, labId: number, customerIds: DemoContext['customerIds']) {
   const { manager, today } = scene;
-  const generator1 = await insertInstrument(manager, {
-    organizationId: customerIds.northgate, make: 'Harwick Radio', model: 'SG-4 signal generator', serial: 'N-1041', assetTag: 'NRC-07',
-    description: 'Valve signal generator with a kHz-marked band-spread dial; the club station’s bench generator.', nextDueDate: addDays(today, 20),
-  }, GENERATOR_RANGES);
-  const generator2 = await insertInstrument(manager, {
-    organizationId: customerIds.northgate, make: 'Harwick Radio', model: 'SG-4 signal generator', serial: 'N-1187', assetTag: 'NRC-11',
-    description: 'The club’s second SG-4, used for receiver alignment evenings.', nextDueDate: addDays(today, -10),
-  }, GENERATOR_RANGES);
-  const receiver = await insertInstrument(manager, {
-    organizationId: customerIds.saltmarsh, make: 'Marlow & Reade', model: 'CR-7 communications receiver', serial: 'CR7-5520', assetTag: null,
-    description: 'Restoration project; local oscillator measured at the LO test point.', nextDueDate: null,
-  }, RECEIVER_RANGES);
-  const reference = await insertInstrument(manager, {
-    organizationId: labId, make: 'Quarry Lane', model: 'XR-5 crystal reference', serial: 'QL-XR5-01', assetTag: 'QL-014',
-    description: 'The lab’s own 5 MHz / 1 MHz crystal reference, house-built; checked against Bench counter A.', nextDueDate: addDays(today, 150),
-  }, REFERENCE_RANGES);
+  const generator1 = await insertInstrument(
+    manager,
+    {
+      organizationId: customerIds.northgate,
+      make: 'Harwick Radio',
+      model: 'SG-4 signal generator',
+      serial: 'N-1041',
+      assetTag: 'NRC-07',
+      description: 'Valve signal generator with a kHz-marked band-spread dial; the club station’s bench generator.',
+      nextDueDate: addDays(today, 20),
+    },
+    GENERATOR_RANGES,
+  );
+  const generator2 = await insertInstrument(
+    manager,
+    {
+      organizationId: customerIds.northgate,
+      make: 'Harwick Radio',
+      model: 'SG-4 signal generator',
+      serial: 'N-1187',
+      assetTag: 'NRC-11',
+      description: 'The club’s second SG-4, used for receiver alignment evenings.',
+      nextDueDate: addDays(today, -10),
+    },
+    GENERATOR_RANGES,
+  );
+  const receiver = await insertInstrument(
+    manager,
+    {
+      organizationId: customerIds.saltmarsh,
+      make: 'Marlow & Reade',
+      model: 'CR-7 communications receiver',
+      serial: 'CR7-5520',
+      assetTag: null,
+      description: 'Restoration project; local oscillator measured at the LO test point.',
+      nextDueDate: null,
+    },
+    RECEIVER_RANGES,
+  );
+  const reference = await insertInstrument(
+    manager,
+    {
+      organizationId: labId,
+      make: 'Quarry Lane',
+      model: 'XR-5 crystal reference',
+      serial: 'QL-XR5-01',
+      assetTag: 'QL-014',
+      description: 'The lab’s own 5 MHz / 1 MHz crystal reference, house-built; checked against Bench counter A.',
+      nextDueDate: addDays(today, 150),
+    },
+    REFERENCE_RANGES,
+  );
   return { generator1, generator2, receiver, reference };
 }
 
@@ -120,18 +186,37 @@ async function insertInstruments(scene: LabScene, labId: number, customerIds: De
 async function seedGeneratorInReview(scene: LabScene, generator: DemoInstrument): Promise<void> {
   const { manager, today, day, tech } = scene;
   const job = await insertJob(scene, generator, {
-    receivedDate: addDays(today, -20), status: 'in_review', technicianId: tech,
-    conditionReceived: 'Working. Dial reads high at the low end of range A; case and knobs complete.', ambientTempC: 21.5, humidityPct: 46,
+    receivedDate: addDays(today, -20),
+    status: 'in_review',
+    technicianId: tech,
+    conditionReceived: 'Working. Dial reads high at the low end of range A; case and knobs complete.',
+    ambientTempC: 21.5,
+    humidityPct: 46,
   });
   const lowRange = generator.ranges[0]!;
   const settings = Array.from({ length: 11 }, (_, i) => 1750 + 25 * i);
   const asFoundModel = lcOscillator({ inductanceH: 10e-6, strayF: 40e-12, inductanceDrift: 0.045, strayDriftF: -21e-12 });
   const asLeftModel = lcOscillator({ inductanceH: 10e-6, strayF: 40e-12, inductanceDrift: 0.0012, strayDriftF: -0.9e-12 });
-  const asFound = await insertRun(scene, { jobId: job.id, rangeId: lowRange.id, kind: 'as_found', createdBy: tech, startedAt: day(-14, 9, 10), minutes: 25,
-    configuration: 'In its case, 30 min warm-up, output into 50 Ω, counter on 1 s gate' });
+  const asFound = await insertRun(scene, {
+    jobId: job.id,
+    rangeId: lowRange.id,
+    kind: 'as_found',
+    createdBy: tech,
+    startedAt: day(-14, 9, 10),
+    minutes: 25,
+    configuration: 'In its case, 30 min warm-up, output into 50 Ω, counter on 1 s gate',
+  });
   await insertDemoReadings(manager, asFound.id, asFound.startedAt, calibrationReadings(settings, asFoundModel, 11));
-  const asLeft = await insertRun(scene, { jobId: job.id, rangeId: lowRange.id, kind: 'as_left', createdBy: tech, startedAt: day(-13, 14, 5), minutes: 25,
-    configuration: 'After oscillator coil slug and trimmer adjustment; in its case, 30 min warm-up', notes: 'Coil slug turned in about a quarter turn, trimmer reset at 2000 kHz.' });
+  const asLeft = await insertRun(scene, {
+    jobId: job.id,
+    rangeId: lowRange.id,
+    kind: 'as_left',
+    createdBy: tech,
+    startedAt: day(-13, 14, 5),
+    minutes: 25,
+    configuration: 'After oscillator coil slug and trimmer adjustment; in its case, 30 min warm-up',
+    notes: 'Coil slug turned in about a quarter turn, trimmer reset at 2000 kHz.',
+  });
   await insertDemoReadings(manager, asLeft.id, asLeft.startedAt, calibrationReadings(settings, asLeftModel, 12));
   await history(scene, [
     [tech, 'job', job.id, 'create', { number: job.number }, day(-20, 11)],
@@ -148,11 +233,22 @@ async function seedGeneratorInReview(scene: LabScene, generator: DemoInstrument)
 async function seedGeneratorInProgress(scene: LabScene, generator: DemoInstrument): Promise<void> {
   const { today, day, tech } = scene;
   const job = await insertJob(scene, generator, {
-    receivedDate: addDays(today, -5), status: 'in_progress', technicianId: tech,
-    conditionReceived: 'Working; frequency drifts for the first minutes after switch-on.', ambientTempC: 21.8, humidityPct: 44,
+    receivedDate: addDays(today, -5),
+    status: 'in_progress',
+    technicianId: tech,
+    conditionReceived: 'Working; frequency drifts for the first minutes after switch-on.',
+    ambientTempC: 21.8,
+    humidityPct: 44,
   });
-  await insertRun(scene, { jobId: job.id, rangeId: generator.ranges[0]!.id, kind: 'as_found', createdBy: tech, startedAt: day(-1, 10, 0), minutes: null,
-    configuration: 'In its case, output into 50 Ω' });
+  await insertRun(scene, {
+    jobId: job.id,
+    rangeId: generator.ranges[0]!.id,
+    kind: 'as_found',
+    createdBy: tech,
+    startedAt: day(-1, 10, 0),
+    minutes: null,
+    configuration: 'In its case, output into 50 Ω',
+  });
   await history(scene, [[tech, 'job', job.id, 'create', { number: job.number }, day(-5, 10)]]);
 }
 
@@ -160,15 +256,35 @@ async function seedGeneratorInProgress(scene: LabScene, generator: DemoInstrumen
 async function seedReceiverWarmups(scene: LabScene, receiver: DemoInstrument): Promise<void> {
   const { manager, today, day, tech, engineer } = scene;
   const job = await insertJob(scene, receiver, {
-    receivedDate: addDays(today, -10), status: 'in_progress', technicianId: tech,
-    conditionReceived: 'Recapped by the owner; LO drifts noticeably after switch-on.', ambientTempC: 22.0, humidityPct: 50,
+    receivedDate: addDays(today, -10),
+    status: 'in_progress',
+    technicianId: tech,
+    conditionReceived: 'Recapped by the owner; LO drifts noticeably after switch-on.',
+    ambientTempC: 22.0,
+    humidityPct: 50,
   });
   const band3 = receiver.ranges[1]!;
-  const before = await insertRun(scene, { jobId: job.id, rangeId: band3.id, kind: 'warmup', createdBy: engineer, startedAt: day(-9, 8, 30), minutes: 120,
-    configuration: 'Dial at 7.000 MHz, BFO off, cold start after 12 h off; original unregulated HT', notes: 'Before the regulator change.' });
+  const before = await insertRun(scene, {
+    jobId: job.id,
+    rangeId: band3.id,
+    kind: 'warmup',
+    createdBy: engineer,
+    startedAt: day(-9, 8, 30),
+    minutes: 120,
+    configuration: 'Dial at 7.000 MHz, BFO off, cold start after 12 h off; original unregulated HT',
+    notes: 'Before the regulator change.',
+  });
   await insertDemoReadings(manager, before.id, before.startedAt, warmupReadings(warmupCurve(7_453_820, 2_350, 840), 2.0, 21));
-  const after = await insertRun(scene, { jobId: job.id, rangeId: band3.id, kind: 'warmup', createdBy: engineer, startedAt: day(-6, 8, 30), minutes: 120,
-    configuration: 'Dial at 7.000 MHz, BFO off, cold start after 12 h off; gas regulator valve fitted on the oscillator HT', notes: 'After the regulator change.' });
+  const after = await insertRun(scene, {
+    jobId: job.id,
+    rangeId: band3.id,
+    kind: 'warmup',
+    createdBy: engineer,
+    startedAt: day(-6, 8, 30),
+    minutes: 120,
+    configuration: 'Dial at 7.000 MHz, BFO off, cold start after 12 h off; gas regulator valve fitted on the oscillator HT',
+    notes: 'After the regulator change.',
+  });
   await insertDemoReadings(manager, after.id, after.startedAt, warmupReadings(warmupCurve(7_453_905, 900, 520), 2.0, 22));
   await insertDemoComparison(manager, { instrumentId: receiver.id, beforeRunId: before.id, afterRunId: after.id, createdById: engineer });
   await history(scene, [[tech, 'job', job.id, 'create', { number: job.number }, day(-10, 10)]]);
@@ -178,11 +294,22 @@ async function seedReceiverWarmups(scene: LabScene, receiver: DemoInstrument): P
 async function seedReferenceStability(scene: LabScene, reference: DemoInstrument): Promise<void> {
   const { manager, today, day, lead, engineer } = scene;
   const job = await insertJob(scene, reference, {
-    receivedDate: addDays(today, -3), status: 'in_progress', technicianId: null,
-    conditionReceived: 'In service; routine stability check.', ambientTempC: 21.0, humidityPct: 42,
+    receivedDate: addDays(today, -3),
+    status: 'in_progress',
+    technicianId: null,
+    conditionReceived: 'In service; routine stability check.',
+    ambientTempC: 21.0,
+    humidityPct: 42,
   });
-  const stability = await insertRun(scene, { jobId: job.id, rangeId: reference.ranges[0]!.id, kind: 'stability', createdBy: engineer, startedAt: day(-2, 7, 0), minutes: 60,
-    configuration: 'Oven at temperature for 48 h; 1 s gate, one reading a second' });
+  const stability = await insertRun(scene, {
+    jobId: job.id,
+    rangeId: reference.ranges[0]!.id,
+    kind: 'stability',
+    createdBy: engineer,
+    startedAt: day(-2, 7, 0),
+    minutes: 60,
+    configuration: 'Oven at temperature for 48 h; 1 s gate, one reading a second',
+  });
   await insertDemoReadings(manager, stability.id, stability.startedAt, stabilityReadings(5_000_000.0123, 3600, 23));
   await history(scene, [[lead, 'job', job.id, 'create', { number: job.number }, day(-3, 10)]]);
 }
@@ -192,15 +319,33 @@ async function insertInstrument(manager: EntityManager, fields: InstrumentFields
   await manager.insert(
     InstrumentRange,
     ranges.map((r, index) => ({
-      instrumentId: id, position: index + 1, label: r.label, dialUnit: r.dialUnit, dialLaw: r.law,
-      dialMin: r.dial[0], dialMax: r.dial[1], freqMinHz: r.hz[0], freqMaxHz: r.hz[1], tolerance: r.tolerance, multipliers: r.multipliers,
+      instrumentId: id,
+      position: index + 1,
+      label: r.label,
+      dialUnit: r.dialUnit,
+      dialLaw: r.law,
+      dialMin: r.dial[0],
+      dialMax: r.dial[1],
+      freqMinHz: r.hz[0],
+      freqMaxHz: r.hz[1],
+      tolerance: r.tolerance,
+      multipliers: r.multipliers,
     })),
   );
-  return { id, organizationId: fields.organizationId, ranges: await manager.find(InstrumentRange, { where: { instrumentId: id }, order: { position: 'ASC' } }) };
+  return {
+    id,
+    organizationId: fields.organizationId,
+    ranges: await manager.find(InstrumentRange, { where: { instrumentId: id }, order: { position: 'ASC' } }),
+  };
 }
 
 function insertJob(scene: LabScene, instrument: DemoInstrument, spec: Omit<DemoJobSpec, 'number' | 'instrumentId' | 'organizationId'>) {
-  return insertDemoJob(scene.manager, { ...spec, number: scene.number(spec.receivedDate), instrumentId: instrument.id, organizationId: instrument.organizationId });
+  return insertDemoJob(scene.manager, {
+    ...spec,
+    number: scene.number(spec.receivedDate),
+    instrumentId: instrument.id,
+    organizationId: instrument.organizationId,
+  });
 }
 
 function insertRun(scene: LabScene, spec: Omit<DemoRunSpec, 'standardId'>) {
@@ -240,4 +385,3 @@ function stabilityReadings(centreHz: number, count: number, seed: number): Readi
     return [i + 1, i, null, centreHz + walk + 1e-3 * noise(), null];
   });
 }
-

@@ -79,6 +79,9 @@ async function seedLiveRun({ manager, customerIds, userIds }: DemoContext, bench
     notes: 'Live study: start the bridge on Bench 1 (bin/kilocycle bridge …) and watch the drift fit settle.',
   });
   const audit = new AuditService(manager.getRepository(AuditEvent));
-  await audit.record({ actorId: userIds['tech@kilocycle.test'] ?? null, entity: 'job', entityId: job.id, action: 'create', changes: { number: job.number } }, manager);
+  await audit.record(
+    { actorId: userIds['tech@kilocycle.test'] ?? null, entity: 'job', entityId: job.id, action: 'create', changes: { number: job.number } },
+    manager,
+  );
   await audit.record({ actorId: engineer, entity: 'run', entityId: run.id, action: 'create', changes: { jobId: job.id, kind: 'warmup', benchId } }, manager);
 }

@@ -20,7 +20,12 @@ describe('sniffContent()', () => {
   });
 
   test('a UTF-8 byte-order mark is measured and the rest read as text', () => {
-    expect(sniffContent(bytes(0xef, 0xbb, 0xbf, ...text('t;f\r\n1;2\r\n')))).toEqual({ contentType: 'text/plain', description: 'UTF-8 text', text: true, bomLength: 3 });
+    expect(sniffContent(bytes(0xef, 0xbb, 0xbf, ...text('t;f\r\n1;2\r\n')))).toEqual({
+      contentType: 'text/plain',
+      description: 'UTF-8 text',
+      text: true,
+      bomLength: 3,
+    });
   });
 
   test('NUL bytes, many control characters or bytes that are not UTF-8 are not text', () => {

@@ -24,7 +24,8 @@ export function jsonDepthExceeds(buf: Buffer, limit: number): boolean {
   for (let i = 0; i < buf.length; i++) {
     const c = buf[i];
     if (inString) {
-      if (c === 0x5c) i++; // backslash: skip the escaped character
+      if (c === 0x5c)
+        i++; // backslash: skip the escaped character
       else if (c === 0x22) inString = false;
     } else if (c === 0x22) inString = true;
     else if (c === 0x5b || c === 0x7b) {

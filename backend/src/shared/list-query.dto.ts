@@ -4,8 +4,7 @@ import { MAX_PAGE, MAX_PAGE_SIZE, type ListQuery } from '@kilocycle/common/types
 import { SingleLine } from './single-line.decorator.js';
 
 /** Digits only become a number; anything else (1e20, 0x10, 2.0) stays text for @IsInt to refuse by name. */
-export const DecimalInteger = () =>
-  Transform(({ value }) => (typeof value === 'string' && /^\d{1,15}$/.test(value) ? Number(value) : value));
+export const DecimalInteger = () => Transform(({ value }) => (typeof value === 'string' && /^\d{1,15}$/.test(value) ? Number(value) : value));
 
 /** Query parameters every list endpoint takes; endpoints extend it with their own filters. */
 export class ListQueryDto implements ListQuery {

@@ -20,7 +20,10 @@ export async function paginateFlat<E extends ObjectLiteral, T>(
   const pageSize = query.pageSize ?? 25;
   const { column, direction } = sortColumn(query.sort ?? defaultSort, sortable);
   const total = await qb.clone().orderBy().getCount();
-  qb.orderBy(column, direction).addOrderBy(tieBreak, direction).offset((page - 1) * pageSize).limit(pageSize);
+  qb.orderBy(column, direction)
+    .addOrderBy(tieBreak, direction)
+    .offset((page - 1) * pageSize)
+    .limit(pageSize);
   const entities = total === 0 ? [] : await qb.getMany();
   return { items: await map(entities), total };
 }

@@ -23,7 +23,9 @@ export async function paginate<E extends ObjectLiteral, T>(
   if (!column) {
     throw new BadRequestException(`sort must be one of: ${Object.keys(sortable).join(', ')} (got "${field}")`);
   }
-  qb.orderBy(column, descending ? 'DESC' : 'ASC').skip((page - 1) * pageSize).take(pageSize);
+  qb.orderBy(column, descending ? 'DESC' : 'ASC')
+    .skip((page - 1) * pageSize)
+    .take(pageSize);
   const [entities, total] = await qb.getManyAndCount();
   return { items: entities.map(map), total };
 }

@@ -12,8 +12,7 @@ import { IS_OPTIONAL, IsDefined, ValidationTypes, getMetadataStorage } from 'cla
 export function PartialUpdateType<T>(classRef: Type<T>): Type<Partial<T>> {
   const partial = PartialType(classRef, { skipNullProperties: false });
   const metadata = getMetadataStorage().getTargetValidationMetadatas(classRef, '', true, false);
-  const has = (property: string, test: (m: (typeof metadata)[number]) => boolean) =>
-    metadata.some((m) => m.propertyName === property && test(m));
+  const has = (property: string, test: (m: (typeof metadata)[number]) => boolean) => metadata.some((m) => m.propertyName === property && test(m));
   const properties = new Set(metadata.map((m) => m.propertyName));
   for (const property of properties) {
     const nullable = has(property, (m) => m.type === ValidationTypes.CONDITIONAL_VALIDATION && m.name === IS_OPTIONAL);

@@ -4,14 +4,28 @@ import { resultsCsvText, type ResultsCsvRun } from './results-csv.js';
 // 1 000 100 and 1 000 300 Hz: mean 1 000 200 Hz, sample SD √((100² + 100²)/1) = √20000 = 141.421 356 Hz,
 // error +200 Hz = +200 ppm = +0.02 %. A tolerance of 0.25 % of 1 MHz is 2 500 Hz. The excluded third reading
 // (1 000 900 Hz) counts for nothing.
-const range: ResultsCsvRun['range'] = { label: 'Band A', dialUnit: 'kHz', dialLaw: { kind: 'direct', unit: 'kHz' }, tolerance: { kind: 'percent', percent: 0.25 } };
+const range: ResultsCsvRun['range'] = {
+  label: 'Band A',
+  dialUnit: 'kHz',
+  dialLaw: { kind: 'direct', unit: 'kHz' },
+  tolerance: { kind: 'percent', percent: 0.25 },
+};
 
 const cells = (line: string) => line.split(',');
 
 describe('resultsCsvText()', () => {
   test('one line per dial setting, from the included readings only', () => {
     const csv = resultsCsvText('J-0001', [
-      { id: 7, kind: 'as_found', range, readings: [{ dial: 1000, frequency: 1_000_100, excluded: false }, { dial: 1000, frequency: 1_000_300, excluded: false }, { dial: 1000, frequency: 1_000_900, excluded: true }] },
+      {
+        id: 7,
+        kind: 'as_found',
+        range,
+        readings: [
+          { dial: 1000, frequency: 1_000_100, excluded: false },
+          { dial: 1000, frequency: 1_000_300, excluded: false },
+          { dial: 1000, frequency: 1_000_900, excluded: true },
+        ],
+      },
     ]);
     const [header, line, rest] = csv.split('\r\n');
     expect(cells(header!).slice(0, 4)).toEqual(['job', 'run_id', 'run_kind', 'range']);

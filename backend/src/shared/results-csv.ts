@@ -29,8 +29,22 @@ export function resultsCsvText(jobNumber: string, runs: readonly ResultsCsvRun[]
       const analysis = analyseCalibration({ law: run.range.dialLaw, tolerance: run.range.tolerance, readings: usable });
       for (const p of analysis.points) {
         body += csvLine([
-          jobNumber, run.id, run.kind, run.range.label, p.dial, run.range.dialUnit, p.nominal, p.measured, p.n, p.sd,
-          p.errorHz, p.errorPpm, p.errorPercent, p.toleranceHz, p.outlier, null,
+          jobNumber,
+          run.id,
+          run.kind,
+          run.range.label,
+          p.dial,
+          run.range.dialUnit,
+          p.nominal,
+          p.measured,
+          p.n,
+          p.sd,
+          p.errorHz,
+          p.errorPpm,
+          p.errorPercent,
+          p.toleranceHz,
+          p.outlier,
+          null,
         ]);
       }
     } catch (error) {
@@ -50,16 +64,28 @@ export function resultsCsvText(jobNumber: string, runs: readonly ResultsCsvRun[]
 export type ResultsCsvSources = {
   runs: { calibrationRuns(jobId: number, manager?: EntityManager): Promise<Array<{ id: number; kind: RunKind; rangeId: number }>> };
   ranges: { ranges(instrumentId: number, manager?: EntityManager): Promise<Array<ResultsCsvRun['range'] & { id: number }>> };
-  readings: { readings(runIds: readonly number[], manager?: EntityManager): Promise<Array<{ runId: number; dial: number | null; frequency: number; excludedReason: string | null }>> };
+  readings: {
+    readings(
+      runIds: readonly number[],
+      manager?: EntityManager,
+    ): Promise<Array<{ runId: number; dial: number | null; frequency: number; excludedReason: string | null }>>;
+  };
 };
 
 /** The job's results CSV (resultsCsvText) over its as-found and as-left runs, by range order, start and id. */
-export async function resultsCsv(sources: ResultsCsvSources, job: { id: number; number: string; instrumentId: number }, manager?: EntityManager): Promise<string> {
+export async function resultsCsv(
+  sources: ResultsCsvSources,
+  job: { id: number; number: string; instrumentId: number },
+  manager?: EntityManager,
+): Promise<string> {
   const [runs, ranges] = await Promise.all([sources.runs.calibrationRuns(job.id, manager), sources.ranges.ranges(job.instrumentId, manager)]);
   const position = new Map(ranges.map((g, i) => [g.id, i]));
   // Oldest first from the reader; a stable sort by the range's position keeps that order within a range.
   const listed = runs.filter((r) => position.has(r.rangeId)).sort((a, b) => position.get(a.rangeId)! - position.get(b.rangeId)!);
-  const readings = await sources.readings.readings(listed.map((r) => r.id), manager);
+  const readings = await sources.readings.readings(
+    listed.map((r) => r.id),
+    manager,
+  );
   return resultsCsvText(
     job.number,
     listed.map((r) => ({

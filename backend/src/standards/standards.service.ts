@@ -41,8 +41,17 @@ const SORTABLE = {
   active: 's.active',
 };
 const EDITABLE = [
-  'name', 'kind', 'makeModel', 'serial', 'certificateNumber', 'dueDate',
-  'timebaseAccuracyPpm', 'resolutionHz', 'calibrationUPpm', 'calibrationK', 'active',
+  'name',
+  'kind',
+  'makeModel',
+  'serial',
+  'certificateNumber',
+  'dueDate',
+  'timebaseAccuracyPpm',
+  'resolutionHz',
+  'calibrationUPpm',
+  'calibrationK',
+  'active',
 ] as const;
 
 @Injectable()
@@ -108,7 +117,10 @@ export class StandardsService {
       const version = found.version + 1;
       await manager.update(Standard, { id }, { ...patch, version });
       await recordStandardVersion(manager, id, actor.id);
-      await this.audit.record({ actorId: actor.id, entity: 'standard', entityId: id, action: 'update', changes: { ...changes, version: { from: found.version, to: version } } }, manager);
+      await this.audit.record(
+        { actorId: actor.id, entity: 'standard', entityId: id, action: 'update', changes: { ...changes, version: { from: found.version, to: version } } },
+        manager,
+      );
     });
     return this.get(id);
   }

@@ -87,7 +87,13 @@ export class UsersService {
       });
       const newId = result.identifiers[0].id as number;
       await this.audit.record(
-        { actorId: actor.id, entity: 'user', entityId: newId, action: 'create', changes: { email: body.email, role: body.role, organizationId: body.organizationId } },
+        {
+          actorId: actor.id,
+          entity: 'user',
+          entityId: newId,
+          action: 'create',
+          changes: { email: body.email, role: body.role, organizationId: body.organizationId },
+        },
         manager,
       );
       return newId;

@@ -298,11 +298,17 @@ describe('access matrix (e2e, MariaDB): every route × every role × own/other o
         standard: await one('SELECT id FROM standards ORDER BY id LIMIT 1'),
         comparison: await one('SELECT id FROM comparisons ORDER BY id LIMIT 1'),
         mail: await one('SELECT id FROM mail_messages WHERE attachment_count > 0 ORDER BY id LIMIT 1'),
-        certificateNumber: ((await t.dataSource.query("SELECT number FROM certificates WHERE status = 'issued' ORDER BY id LIMIT 1")) as Array<{ number: string }>)[0]?.number,
+        certificateNumber: (
+          (await t.dataSource.query("SELECT number FROM certificates WHERE status = 'issued' ORDER BY id LIMIT 1")) as Array<{ number: string }>
+        )[0]?.number,
       },
       needles: { northgate: await needlesOf(organizationId.northgate), saltmarsh: await needlesOf(organizationId.saltmarsh) },
     };
-    tables = ((await t.dataSource.query('SELECT table_name AS name FROM information_schema.tables WHERE table_schema = DATABASE() AND table_type = ?', ['BASE TABLE'])) as Array<{ name: string }>)
+    tables = (
+      (await t.dataSource.query('SELECT table_name AS name FROM information_schema.tables WHERE table_schema = DATABASE() AND table_type = ?', [
+        'BASE TABLE',
+      ])) as Array<{ name: string }>
+    )
       .map((row) => row.name)
       .filter((name) => name !== 'kc_migrations');
   });
@@ -327,7 +333,9 @@ describe('access matrix (e2e, MariaDB): every route × every role × own/other o
 
   it('every route of the OpenAPI document has an entry in the access matrix, and every entry a route', () => {
     const missing = routes.filter((route) => !(route in ACCESS_MATRIX)).map((route) => `route ${route} has no entry in the access matrix`);
-    const stale = Object.keys(ACCESS_MATRIX).filter((route) => !routes.includes(route)).map((route) => `matrix entry ${route} matches no route`);
+    const stale = Object.keys(ACCESS_MATRIX)
+      .filter((route) => !routes.includes(route))
+      .map((route) => `matrix entry ${route} matches no route`);
     expect([...missing, ...stale]).toEqual([]);
   });
 
@@ -348,7 +356,8 @@ describe('access matrix (e2e, MariaDB): every route × every role × own/other o
     return unresolved ? undefined : filled;
   }
 
-  const ownsIds = (rule: Rule) => Object.values(rule.ids ?? {}).some((kind) => ['instrument', 'job', 'run', 'reading', 'certificate', 'attachment', 'organization', 'user'].includes(kind));
+  const ownsIds = (rule: Rule) =>
+    Object.values(rule.ids ?? {}).some((kind) => ['instrument', 'job', 'run', 'reading', 'certificate', 'attachment', 'organization', 'user'].includes(kind));
 
   async function send(method: string, path: string, rule: Rule, headers: Record<string, string>): Promise<Response> {
     const req = (t.http as unknown as Record<string, (url: string) => import('supertest').Test>)[method.toLowerCase()](path).set(headers);
@@ -382,11 +391,19 @@ describe('access matrix (e2e, MariaDB): every route × every role × own/other o
   // job or run gets a refusal of the filter (400), an empty page or its own records — never theirs.
   it("a client filtering any list by the other organisation's ids is shown none of its records", async () => {
     const problems: string[] = [];
-    const lists = Object.entries(ACCESS_MATRIX).filter(([route, rule]) => route.startsWith('GET ') && rule.roles !== 'public' && rule.roles.includes('client') && !rule.ids);
+    const lists = Object.entries(ACCESS_MATRIX).filter(
+      ([route, rule]) => route.startsWith('GET ') && rule.roles !== 'public' && rule.roles.includes('client') && !rule.ids,
+    );
     expect(lists.length).toBeGreaterThanOrEqual(6);
     for (const customer of ['northgate', 'saltmarsh'] as const) {
       const other = facts.owned[OTHER[customer]];
-      const filters = { organizationId: other.organization, customerId: other.organization, instrumentId: other.instrument, jobId: other.job, runId: other.run };
+      const filters = {
+        organizationId: other.organization,
+        customerId: other.organization,
+        instrumentId: other.instrument,
+        jobId: other.job,
+        runId: other.run,
+      };
       for (const [route] of lists) {
         for (const [name, value] of Object.entries(filters)) {
           const path = `${route.slice(4)}?${name}=${value}`;
@@ -446,7 +463,8 @@ describe('access matrix (e2e, MariaDB): every route × every role × own/other o
           else if (!isWrite) [expected, ok] = ['2xx', (s) => s >= 200 && s <= 299];
           // A form is read by the handler, after the service's own checks (run closed, an engineer on a
           // calibration run): any refusal but the guard's shows the call got past it.
-          else if (rule.body === 'multipart') [expected, ok] = ['a 4xx past the guard', (s, body) => s >= 400 && s < 500 && s !== 401 && !isGuardRefusal(s, body)];
+          else if (rule.body === 'multipart')
+            [expected, ok] = ['a 4xx past the guard', (s, body) => s >= 400 && s < 500 && s !== 401 && !isGuardRefusal(s, body)];
           else [expected, ok] = ['400 (probe body refused after the guard)', (s) => s === 400];
 
           const headers = who === 'anonymous' ? {} : as(who);

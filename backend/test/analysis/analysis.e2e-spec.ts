@@ -3,7 +3,8 @@ import { createTestApp, signInDemo, type AsDemo, type TestApp } from '../support
 
 // Expected values below come from the formulas that generate the readings, not from the code under test.
 
-const relClose = (actual: number, expected: number, tolerance: number) => expect(Math.abs(actual - expected)).toBeLessThanOrEqual(tolerance * Math.abs(expected));
+const relClose = (actual: number, expected: number, tolerance: number) =>
+  expect(Math.abs(actual - expected)).toBeLessThanOrEqual(tolerance * Math.abs(expected));
 
 describe('run analysis (e2e, MariaDB)', () => {
   let t: TestApp;
@@ -34,7 +35,15 @@ describe('run analysis (e2e, MariaDB)', () => {
 
     it('should give back the line the readings were generated from', async () => {
       const runId = await freshRun('as_found');
-      await postReadings(t, as('tech'), runId, dials.flatMap((dial) => [{ dial, frequency: measured(dial) }, { dial, frequency: measured(dial) }]));
+      await postReadings(
+        t,
+        as('tech'),
+        runId,
+        dials.flatMap((dial) => [
+          { dial, frequency: measured(dial) },
+          { dial, frequency: measured(dial) },
+        ]),
+      );
       const res = await analysis(runId);
       expect(res.status).toBe(200);
       expect(res.body).toMatchObject({ state: 'ready', analysis: 'calibration', runKind: 'as_found', readingCount: 18, excludedCount: 0, usedCount: 18 });
@@ -42,15 +51,20 @@ describe('run analysis (e2e, MariaDB)', () => {
       relClose(res.body.fit.slope, slope, 1e-9);
       expect(res.body.fit.r2).toBeCloseTo(1, 12);
       expect(res.body.points).toHaveLength(dials.length);
-      res.body.points.forEach((p: { dial: number; nominal: number; measured: number; n: number; errorHz: number; errorPpm: number; errorPercent: number; toleranceHz: number }, i: number) => {
-        const nominal = dials[i]! * 1e3;
-        const error = offset + slope * nominal;
-        expect(p).toMatchObject({ dial: dials[i], nominal, n: 2 });
-        relClose(p.errorHz, error, 1e-9);
-        relClose(p.errorPpm, (error / nominal) * 1e6, 1e-9);
-        relClose(p.errorPercent, (error / nominal) * 100, 1e-9);
-        relClose(p.toleranceHz, nominal * 0.005, 1e-12);
-      });
+      res.body.points.forEach(
+        (
+          p: { dial: number; nominal: number; measured: number; n: number; errorHz: number; errorPpm: number; errorPercent: number; toleranceHz: number },
+          i: number,
+        ) => {
+          const nominal = dials[i]! * 1e3;
+          const error = offset + slope * nominal;
+          expect(p).toMatchObject({ dial: dials[i], nominal, n: 2 });
+          relClose(p.errorHz, error, 1e-9);
+          relClose(p.errorPpm, (error / nominal) * 1e6, 1e-9);
+          relClose(p.errorPercent, (error / nominal) * 100, 1e-9);
+          relClose(p.toleranceHz, nominal * 0.005, 1e-12);
+        },
+      );
       // A straight error line leaves no tracking error against either line.
       expect(res.body.tracking.bestFit.maxAbsHz).toBeLessThan(1e-6);
       expect(res.body.tracking.endPoint.maxAbsHz).toBeLessThan(1e-6);
@@ -61,7 +75,12 @@ describe('run analysis (e2e, MariaDB)', () => {
 
     it('should work out the LC alignment from the two range ends when the run covers both', async () => {
       const runId = await freshRun('as_found');
-      await postReadings(t, as('tech'), runId, dials.map((dial) => ({ dial, frequency: measured(dial) })));
+      await postReadings(
+        t,
+        as('tech'),
+        runId,
+        dials.map((dial) => ({ dial, frequency: measured(dial) })),
+      );
       const res = await analysis(runId, '?tuningCapLowPf=300');
       const { alignment } = res.body;
       expect(alignment.low).toMatchObject({ dial: 1000, target: 1e6 });
@@ -75,7 +94,12 @@ describe('run analysis (e2e, MariaDB)', () => {
       expect(res.body.alignmentNote).toBeNull();
 
       const partial = await freshRun('as_found');
-      await postReadings(t, as('tech'), partial, [1000, 1200, 1400].map((dial) => ({ dial, frequency: measured(dial) })));
+      await postReadings(
+        t,
+        as('tech'),
+        partial,
+        [1000, 1200, 1400].map((dial) => ({ dial, frequency: measured(dial) })),
+      );
       const half = await analysis(partial);
       expect(half.body.alignment).toBeNull();
       expect(half.body.alignmentNote).toContain('both ends');
@@ -120,12 +144,15 @@ describe('run analysis (e2e, MariaDB)', () => {
 
   describe('runs with no readings yet', () => {
     // A run just opened has nothing to compute: that is a state of the run (200, state "empty"), not an error.
-    it.each(['as_found', 'as_left', 'warmup', 'stability', 'supply_sensitivity', 'keying'])('should answer 200 with state "empty" for a new %s run', async (kind) => {
-      const runId = await freshRun(kind);
-      const res = await analysis(runId);
-      expect(res.status).toBe(200);
-      expect(res.body).toEqual({ runId, runKind: kind, readingCount: 0, excludedCount: 0, usedCount: 0, state: 'empty', analysis: 'none' });
-    });
+    it.each(['as_found', 'as_left', 'warmup', 'stability', 'supply_sensitivity', 'keying'])(
+      'should answer 200 with state "empty" for a new %s run',
+      async (kind) => {
+        const runId = await freshRun(kind);
+        const res = await analysis(runId);
+        expect(res.status).toBe(200);
+        expect(res.body).toEqual({ runId, runKind: kind, readingCount: 0, excludedCount: 0, usedCount: 0, state: 'empty', analysis: 'none' });
+      },
+    );
 
     it('should answer "empty" once every reading is excluded, and the analysis again when readings arrive', async () => {
       const runId = await freshRun('as_found');
@@ -135,12 +162,17 @@ describe('run analysis (e2e, MariaDB)', () => {
       const excluded = await analysis(runId);
       expect(excluded.status).toBe(200);
       expect(excluded.body).toMatchObject({ state: 'empty', analysis: 'none', readingCount: 1, excludedCount: 1, usedCount: 0 });
-      await postReadings(t, as('tech'), runId, [1000, 1500, 2000].map((dial) => ({ dial, frequency: dial * 1e3 + 100 })));
+      await postReadings(
+        t,
+        as('tech'),
+        runId,
+        [1000, 1500, 2000].map((dial) => ({ dial, frequency: dial * 1e3 + 100 })),
+      );
       const ready = await analysis(runId);
       expect(ready.body).toMatchObject({ state: 'ready', analysis: 'calibration', readingCount: 4, excludedCount: 1, usedCount: 3 });
     });
 
-    it('should still hide another organisation\'s empty run (404)', async () => {
+    it("should still hide another organisation's empty run (404)", async () => {
       const runId = await freshRun('warmup');
       expect((await t.http.get(`/api/runs/${runId}/analysis`).set(as('saltmarsh'))).status).toBe(404);
     });
@@ -151,7 +183,10 @@ describe('run analysis (e2e, MariaDB)', () => {
     const fInf = 7_000_000;
     const amplitude = 1200;
     const tau = 900;
-    const readings = Array.from({ length: 2700 }, (_, i) => ({ t: 4 * i, frequency: fInf + amplitude * Math.exp((-4 * i) / tau) + (i % 2 === 0 ? 0.05 : -0.05) }));
+    const readings = Array.from({ length: 2700 }, (_, i) => ({
+      t: 4 * i,
+      frequency: fInf + amplitude * Math.exp((-4 * i) / tau) + (i % 2 === 0 ? 0.05 : -0.05),
+    }));
 
     it('should fit f∞, A and τ, give both settling times, windowed drift, and a series of at most 2,000 points', async () => {
       const runId = await freshRun('warmup');
@@ -187,11 +222,15 @@ describe('run analysis (e2e, MariaDB)', () => {
       expect((await analysis(runId, '?withinHz=-1')).status).toBe(400);
     });
 
-
     it('should mark a settling time beyond the last reading as extrapolated (18 s recorded of a τ = 20 s warm-up)', async () => {
       const runId = await freshRun('warmup');
       // f = 7 MHz + 1 200 Hz·e^(−t/20 s), a reading every 2 s up to 18 s: within 5 Hz only at 20·ln(240) ≈ 110 s.
-      await postReadings(t, as('tech'), runId, Array.from({ length: 10 }, (_, i) => ({ t: 2 * i, frequency: fInf + amplitude * Math.exp((-2 * i) / 20) })));
+      await postReadings(
+        t,
+        as('tech'),
+        runId,
+        Array.from({ length: 10 }, (_, i) => ({ t: 2 * i, frequency: fInf + amplitude * Math.exp((-2 * i) / 20) })),
+      );
       const res = await analysis(runId);
       expect(res.status).toBe(200);
       relClose(res.body.settling.withinSeconds, 20 * Math.log(amplitude / 5), 1e-3);
@@ -199,7 +238,12 @@ describe('run analysis (e2e, MariaDB)', () => {
     });
     it('should answer 422 for a warm-up with too few readings', async () => {
       const runId = await freshRun('warmup');
-      await postReadings(t, as('tech'), runId, [0, 10, 20, 30].map((time) => ({ t: time, frequency: fInf + 10 - time / 10 })));
+      await postReadings(
+        t,
+        as('tech'),
+        runId,
+        [0, 10, 20, 30].map((time) => ({ t: time, frequency: fInf + 10 - time / 10 })),
+      );
       const res = await analysis(runId);
       expect(res.status).toBe(422);
       expect(res.body.code).toBe('too_few_points');
@@ -235,7 +279,12 @@ describe('run analysis (e2e, MariaDB)', () => {
       // f = 3.5 MHz + 2.5 Hz/V × (V − 230).
       const runId = await freshRun('supply_sensitivity');
       const volts = [207, 215, 223, 230, 237, 245, 253];
-      await postReadings(t, as('engineer'), runId, volts.map((v, i) => ({ t: 30 * i, frequency: 3.5e6 + 2.5 * (v - 230), aux: v })));
+      await postReadings(
+        t,
+        as('engineer'),
+        runId,
+        volts.map((v, i) => ({ t: 30 * i, frequency: 3.5e6 + 2.5 * (v - 230), aux: v })),
+      );
       const res = await t.http.get(`/api/runs/${runId}/analysis`).set(as('engineer'));
       expect(res.status).toBe(200);
       relClose(res.body.sensitivity.hzPerVolt, 2.5, 1e-9);
@@ -246,7 +295,10 @@ describe('run analysis (e2e, MariaDB)', () => {
       const runId = await freshRun('keying');
       const up = [7_030_000.4, 7_030_000.6, 7_030_000.5, 7_030_000.5];
       const down = [7_029_965.3, 7_029_965.7, 7_029_965.5, 7_029_965.5];
-      await postReadings(t, as('engineer'), runId, [...up.map((f, i) => ({ t: i, frequency: f, aux: 0 })), ...down.map((f, i) => ({ t: 10 + i, frequency: f, aux: 1 }))]);
+      await postReadings(t, as('engineer'), runId, [
+        ...up.map((f, i) => ({ t: i, frequency: f, aux: 0 })),
+        ...down.map((f, i) => ({ t: 10 + i, frequency: f, aux: 1 })),
+      ]);
       const res = await t.http.get(`/api/runs/${runId}/analysis`).set(as('engineer'));
       expect(res.status).toBe(200);
       relClose(res.body.shift.shiftHz, 7_029_965.5 - 7_030_000.5, 1e-9);

@@ -49,12 +49,27 @@ describe('attachments (e2e, MariaDB)', () => {
   });
 
   it('stores a photo under a random name with the type found in its bytes, and serves it back to the owner’s organisation', async () => {
-    const res = await attach('tech', `/api/instruments/${saltmarshRun.instrumentId}/attachments`, PNG, 'as found – front panel.jpg', 'image/jpeg', 'As found: dial glass cracked');
+    const res = await attach(
+      'tech',
+      `/api/instruments/${saltmarshRun.instrumentId}/attachments`,
+      PNG,
+      'as found – front panel.jpg',
+      'image/jpeg',
+      'As found: dial glass cracked',
+    );
     expect(res.status).toBe(201);
     const view = res.body as Attachment;
     expect(view).toMatchObject({
-      owner: 'instrument', instrumentId: saltmarshRun.instrumentId, jobId: null, originalName: 'as found – front panel.jpg', caption: 'As found: dial glass cracked',
-      contentType: 'image/png', sizeBytes: PNG.length, sha256: createHash('sha256').update(PNG).digest('hex'), uploadedByName: 'Tomas Reyes', url: `/api/attachments/${view.id}`,
+      owner: 'instrument',
+      instrumentId: saltmarshRun.instrumentId,
+      jobId: null,
+      originalName: 'as found – front panel.jpg',
+      caption: 'As found: dial glass cracked',
+      contentType: 'image/png',
+      sizeBytes: PNG.length,
+      sha256: createHash('sha256').update(PNG).digest('hex'),
+      uploadedByName: 'Tomas Reyes',
+      url: `/api/attachments/${view.id}`,
     });
     const files = storedFiles();
     expect(files).toHaveLength(1);
@@ -64,7 +79,9 @@ describe('attachments (e2e, MariaDB)', () => {
     const own = await binary(t.http.get(view.url).set(auth('saltmarsh')));
     expect(own.status).toBe(200);
     expect(own.headers['content-type']).toBe('image/png');
-    expect(own.headers['content-disposition']).toContain("inline; filename=\"as found _ front panel.jpg\"; filename*=UTF-8''as%20found%20%E2%80%93%20front%20panel.jpg");
+    expect(own.headers['content-disposition']).toContain(
+      'inline; filename="as found _ front panel.jpg"; filename*=UTF-8\'\'as%20found%20%E2%80%93%20front%20panel.jpg',
+    );
     expect(Buffer.compare(own.body as Buffer, PNG)).toBe(0);
     expect((await t.http.get(`${view.url}?download=true`).set(auth('engineer'))).headers['content-disposition']).toMatch(/^attachment;/);
     const list = await t.http.get(`/api/instruments/${saltmarshRun.instrumentId}/attachments`).set(auth('saltmarsh'));
@@ -89,7 +106,9 @@ describe('attachments (e2e, MariaDB)', () => {
     const before = storedFiles().length;
     const zip = await attach('tech', `/api/jobs/${saltmarshRun.jobId}/attachments`, ZIP, 'scan.jpg', 'image/jpeg');
     expect(zip.status).toBe(415);
-    expect(zip.body.message).toBe('attachments may be JPEG, PNG, GIF or WebP images, PDF documents or plain text; this file looks like a ZIP archive (an .xlsx, .ods or .docx file is one)');
+    expect(zip.body.message).toBe(
+      'attachments may be JPEG, PNG, GIF or WebP images, PDF documents or plain text; this file looks like a ZIP archive (an .xlsx, .ods or .docx file is one)',
+    );
     const noise = await attach('tech', `/api/jobs/${saltmarshRun.jobId}/attachments`, Buffer.from([0, 1, 2, 3, 250, 251, 0, 9]), 'photo.jpg', 'image/jpeg');
     expect(noise.status).toBe(415);
     expect(noise.body.message).toContain('binary data');
@@ -111,6 +130,9 @@ describe('attachments (e2e, MariaDB)', () => {
     expect(storedFiles()).not.toContain(row.storage_name);
     expect((await t.http.get(res.body.url).set(auth('lead'))).status).toBe(404);
     const [audit] = await t.dataSource.query("SELECT changes FROM audit_events WHERE entity = 'job' AND action = 'detach' ORDER BY id DESC LIMIT 1");
-    expect(typeof audit.changes === 'string' ? JSON.parse(audit.changes) : audit.changes).toMatchObject({ attachmentId: res.body.id, originalName: 'doomed.png' });
+    expect(typeof audit.changes === 'string' ? JSON.parse(audit.changes) : audit.changes).toMatchObject({
+      attachmentId: res.body.id,
+      originalName: 'doomed.png',
+    });
   });
 });

@@ -58,7 +58,11 @@ describe('who captured the data: reading authors, batch audit events, sign-in au
   };
   // Ten settings across the range, each a little high: plainly within ±0.5 % of setting.
   const tenReadings = () => Array.from({ length: 10 }, (_, i) => ({ dial: 1050 + 100 * i, frequency: `${1050 + 100 * i}.15 kHz` }));
-  const sign = (headers: { Authorization: string }, jobId: number) => t.http.post(`/api/jobs/${jobId}/sign`).set(headers).send({ password: headers === lead2 ? 'second-lead-password' : DEMO_PASSWORD, meaning: MEANING });
+  const sign = (headers: { Authorization: string }, jobId: number) =>
+    t.http
+      .post(`/api/jobs/${jobId}/sign`)
+      .set(headers)
+      .send({ password: headers === lead2 ? 'second-lead-password' : DEMO_PASSWORD, meaning: MEANING });
 
   describe('reading authors and one audit event per batch', () => {
     it('should name the user who typed readings, and write one event for the batch in the same request', async () => {
@@ -66,7 +70,10 @@ describe('who captured the data: reading authors, batch audit events, sign-in au
       const res = await t.http.post(`/api/runs/${runId}/readings`).set(as('lead')).send({ readings: tenReadings() });
       expect(res.status).toBe(201);
       expect(res.body.stored[0].author).toEqual({ kind: 'user', id: ids.lead, name: 'Lena Brandt' });
-      const rows: Array<{ entered_by: number | null; bench_id: number | null; source: string }> = await t.dataSource.query('SELECT entered_by, bench_id, source FROM readings WHERE run_id = ?', [runId]);
+      const rows: Array<{ entered_by: number | null; bench_id: number | null; source: string }> = await t.dataSource.query(
+        'SELECT entered_by, bench_id, source FROM readings WHERE run_id = ?',
+        [runId],
+      );
       expect(rows).toHaveLength(10);
       for (const r of rows) expect(r).toEqual({ entered_by: ids.lead, bench_id: null, source: 'manual' });
       const list = await t.http.get(`/api/runs/${runId}/readings`).set(as('tech'));
@@ -107,9 +114,33 @@ describe('who captured the data: reading authors, batch audit events, sign-in au
       expect(batches).toHaveLength(3);
       expect(batches.map((e) => e.actor_id)).toEqual([null, null, null]);
       expect(batches.map((e) => parseChanges(e.changes))).toEqual([
-        { source: 'bridge', accepted: 250, duplicates: 0, rejected: 0, firstSeq: 1, lastSeq: 250, author: { kind: 'bench', id: bench.benchId, name: 'Bench East' } },
-        { source: 'bridge', accepted: 250, duplicates: 0, rejected: 0, firstSeq: 251, lastSeq: 500, author: { kind: 'bench', id: bench.benchId, name: 'Bench East' } },
-        { source: 'bridge', accepted: 125, duplicates: 125, rejected: 0, firstSeq: 501, lastSeq: 625, author: { kind: 'bench', id: bench.benchId, name: 'Bench East' } },
+        {
+          source: 'bridge',
+          accepted: 250,
+          duplicates: 0,
+          rejected: 0,
+          firstSeq: 1,
+          lastSeq: 250,
+          author: { kind: 'bench', id: bench.benchId, name: 'Bench East' },
+        },
+        {
+          source: 'bridge',
+          accepted: 250,
+          duplicates: 0,
+          rejected: 0,
+          firstSeq: 251,
+          lastSeq: 500,
+          author: { kind: 'bench', id: bench.benchId, name: 'Bench East' },
+        },
+        {
+          source: 'bridge',
+          accepted: 125,
+          duplicates: 125,
+          rejected: 0,
+          firstSeq: 501,
+          lastSeq: 625,
+          author: { kind: 'bench', id: bench.benchId, name: 'Bench East' },
+        },
       ]);
       const list = await t.http.get(`/api/runs/${run.runId}/readings?pageSize=1`).set(as('engineer'));
       expect(list.body.items[0].author).toEqual({ kind: 'bench', id: bench.benchId, name: 'Bench East' });
@@ -121,7 +152,10 @@ describe('who captured the data: reading authors, batch audit events, sign-in au
       const res = await t.http.post(`/api/runs/${runId}/imports`).set(as('tech')).attach('file', csv, { filename: 'points.csv', contentType: 'text/csv' });
       expect(res.status).toBe(201);
       expect(res.body.imported).toBe(10);
-      const [row] = await t.dataSource.query('SELECT COUNT(*) AS n, SUM(entered_by = ?) AS mine, SUM(bench_id IS NULL) AS no_bench FROM readings WHERE run_id = ? AND source = ?', [ids.tech, runId, 'import']);
+      const [row] = await t.dataSource.query(
+        'SELECT COUNT(*) AS n, SUM(entered_by = ?) AS mine, SUM(bench_id IS NULL) AS no_bench FROM readings WHERE run_id = ? AND source = ?',
+        [ids.tech, runId, 'import'],
+      );
       expect([Number(row.n), Number(row.mine), Number(row.no_bench)]).toEqual([10, 10, 10]);
       expect(await events('run', runId, 'readings')).toHaveLength(0);
       const imports = await events('run', runId, 'import');
@@ -226,7 +260,10 @@ describe('who captured the data: reading authors, batch audit events, sign-in au
       const last = signIns[signIns.length - 1]!;
       expect(last.actor_id).toBe(userId);
       expect(parseChanges(last.changes)).toEqual({ email: DEMO.engineer, address: expect.stringMatching(/127\.0\.0\.1|::1/) });
-      await t.http.post('/api/auth/logout').set({ Authorization: `Bearer ${login.body.accessToken}` }).expect(204);
+      await t.http
+        .post('/api/auth/logout')
+        .set({ Authorization: `Bearer ${login.body.accessToken}` })
+        .expect(204);
       const out = await events('user', userId, 'sign_out');
       expect(out).toHaveLength(1);
       expect(out[0]!.actor_id).toBe(userId);

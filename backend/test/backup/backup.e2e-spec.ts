@@ -45,13 +45,21 @@ function kilocycle(args: string[], varPath = varDir): { status: number | null; s
 
 /** The table as the mariadb client prints it, over the test server's root socket: independent of the app. */
 function tableDigest(table: string): { count: number; sha256: string } {
-  const out = spawnSync('mariadb', ['--no-defaults', `--socket=${join(varDir, 'mariadb', 'mysqld.sock')}`, '-uroot', '-N', '-B', '-e', `SELECT * FROM ${table} ORDER BY id`, 'kilocycle'], { encoding: 'utf8' });
+  const out = spawnSync(
+    'mariadb',
+    ['--no-defaults', `--socket=${join(varDir, 'mariadb', 'mysqld.sock')}`, '-uroot', '-N', '-B', '-e', `SELECT * FROM ${table} ORDER BY id`, 'kilocycle'],
+    { encoding: 'utf8' },
+  );
   if (out.status !== 0) throw new Error(out.stderr);
   return { count: out.stdout.split('\n').filter(Boolean).length, sha256: createHash('sha256').update(out.stdout).digest('hex') };
 }
 
 function sqlValue(statement: string): string {
-  const out = spawnSync('mariadb', ['--no-defaults', `--socket=${join(varDir, 'mariadb', 'mysqld.sock')}`, '-uroot', '-N', '-B', '-e', statement, 'kilocycle'], { encoding: 'utf8' });
+  const out = spawnSync(
+    'mariadb',
+    ['--no-defaults', `--socket=${join(varDir, 'mariadb', 'mysqld.sock')}`, '-uroot', '-N', '-B', '-e', statement, 'kilocycle'],
+    { encoding: 'utf8' },
+  );
   if (out.status !== 0) throw new Error(out.stderr);
   return out.stdout.trim();
 }
@@ -68,7 +76,11 @@ function filesDigest(dir: string): Record<string, string> {
     }
   };
   for (const sub of ['keys', 'certificates', 'uploads']) walk(join(dir, sub));
-  for (const f of ['jwt-secret', 'db-password']) if (existsSync(join(dir, f))) out[`/${f}`] = createHash('sha256').update(readFileSync(join(dir, f))).digest('hex');
+  for (const f of ['jwt-secret', 'db-password'])
+    if (existsSync(join(dir, f)))
+      out[`/${f}`] = createHash('sha256')
+        .update(readFileSync(join(dir, f)))
+        .digest('hex');
   return out;
 }
 
@@ -106,15 +118,22 @@ describe('backup and restore (bin/kilocycle, own MariaDB and var directory)', ()
     const [cert] = await app.dataSource.query("SELECT id, number FROM certificates WHERE status = 'issued' AND signature IS NOT NULL ORDER BY id LIMIT 1");
     certificateId = Number(cert.id);
     certificateNumber = String(cert.number);
-    const pdf = await app.http.get(`/api/certificates/${certificateId}/pdf`).set(as('lead')).buffer(true).parse((res, cb) => {
-      const chunks: Buffer[] = [];
-      res.on('data', (c: Buffer) => chunks.push(c));
-      res.on('end', () => cb(null, Buffer.concat(chunks)));
-    });
+    const pdf = await app.http
+      .get(`/api/certificates/${certificateId}/pdf`)
+      .set(as('lead'))
+      .buffer(true)
+      .parse((res, cb) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () => cb(null, Buffer.concat(chunks)));
+      });
     expect(pdf.status).toBe(200);
     pdfBefore = pdf.body as Buffer;
     const [instrument] = await app.dataSource.query('SELECT id FROM instruments ORDER BY id LIMIT 1');
-    const attached = await app.http.post(`/api/instruments/${instrument.id}/attachments`).set(as('tech')).attach('file', PNG, { filename: 'front panel.png', contentType: 'image/png' });
+    const attached = await app.http
+      .post(`/api/instruments/${instrument.id}/attachments`)
+      .set(as('tech'))
+      .attach('file', PNG, { filename: 'front panel.png', contentType: 'image/png' });
     expect(attached.status).toBe(201);
     attachmentId = Number(attached.body.id);
     await stopApp();
@@ -156,13 +175,22 @@ describe('backup and restore (bin/kilocycle, own MariaDB and var directory)', ()
     expect(manifest.database.counts.certificates).toBe(certificatesBefore.count);
     const paths = (manifest.files as { path: string }[]).map((f) => f.path);
     const [pdfName] = readdirSync(join(varDir, 'certificates'));
-    expect(paths).toEqual(expect.arrayContaining([
-      'database.sql', 'files/keys/certificate-signing.key.pem', 'files/keys/certificate-signing.pub.pem',
-      `files/certificates/${pdfName}`, 'files/jwt-secret', 'files/db-password',
-    ]));
+    expect(paths).toEqual(
+      expect.arrayContaining([
+        'database.sql',
+        'files/keys/certificate-signing.key.pem',
+        'files/keys/certificate-signing.pub.pem',
+        `files/certificates/${pdfName}`,
+        'files/jwt-secret',
+        'files/db-password',
+      ]),
+    );
     expect(paths.some((p) => p.startsWith('files/uploads/attachments/'))).toBe(true);
     // Every member but the list itself is named in the manifest and in SHA256SUMS.
-    const summed = readFileSync(join(top, 'SHA256SUMS'), 'utf8').trim().split('\n').map((l) => l.slice(66));
+    const summed = readFileSync(join(top, 'SHA256SUMS'), 'utf8')
+      .trim()
+      .split('\n')
+      .map((l) => l.slice(66));
     expect(summed.sort()).toEqual(['manifest.json', ...paths].sort());
     expect(readFileSync(join(top, 'database.sql'), 'utf8')).toContain('CREATE TABLE `readings`');
   });
@@ -219,21 +247,31 @@ describe('backup and restore (bin/kilocycle, own MariaDB and var directory)', ()
     expect(tableDigest('certificates')).toEqual(certificatesBefore);
 
     const { app, as } = await startApp();
-    const pdf = await app.http.get(`/api/certificates/${certificateId}/pdf`).set(as('lead')).buffer(true).parse((r, cb) => {
-      const chunks: Buffer[] = [];
-      r.on('data', (c: Buffer) => chunks.push(c));
-      r.on('end', () => cb(null, Buffer.concat(chunks)));
-    });
+    const pdf = await app.http
+      .get(`/api/certificates/${certificateId}/pdf`)
+      .set(as('lead'))
+      .buffer(true)
+      .parse((r, cb) => {
+        const chunks: Buffer[] = [];
+        r.on('data', (c: Buffer) => chunks.push(c));
+        r.on('end', () => cb(null, Buffer.concat(chunks)));
+      });
     expect(pdf.status).toBe(200);
     expect(Buffer.compare(pdf.body as Buffer, pdfBefore)).toBe(0);
-    const check = await app.http.post(`/api/public/certificates/${certificateNumber}/check`).attach('file', pdfBefore, { filename: 'certificate.pdf', contentType: 'application/pdf' });
+    const check = await app.http
+      .post(`/api/public/certificates/${certificateNumber}/check`)
+      .attach('file', pdfBefore, { filename: 'certificate.pdf', contentType: 'application/pdf' });
     expect(check.status).toBe(200);
     expect(check.body).toMatchObject({ match: true, signatureValid: true });
-    const attachment = await app.http.get(`/api/attachments/${attachmentId}`).set(as('tech')).buffer(true).parse((r, cb) => {
-      const chunks: Buffer[] = [];
-      r.on('data', (c: Buffer) => chunks.push(c));
-      r.on('end', () => cb(null, Buffer.concat(chunks)));
-    });
+    const attachment = await app.http
+      .get(`/api/attachments/${attachmentId}`)
+      .set(as('tech'))
+      .buffer(true)
+      .parse((r, cb) => {
+        const chunks: Buffer[] = [];
+        r.on('data', (c: Buffer) => chunks.push(c));
+        r.on('end', () => cb(null, Buffer.concat(chunks)));
+      });
     expect(attachment.status).toBe(200);
     expect(Buffer.compare(attachment.body as Buffer, PNG)).toBe(0);
     await stopApp();
@@ -253,7 +291,11 @@ describe('backup and restore (bin/kilocycle, own MariaDB and var directory)', ()
     // The real server process: exits non-zero with the message, and no stack trace.
     const main = join(REPO_ROOT, 'backend', 'dist', 'main.js');
     expect(existsSync(join(REPO_ROOT, 'backend', 'dist', 'certificates', 'signing-key-check.js'))).toBe(true); // build first
-    const server = spawnSync(process.execPath, [main], { env: { ...childEnv(), KC_SMTP_PORT: '0', KC_RECALL_DISABLED: '1' }, encoding: 'utf8', timeout: 30_000 });
+    const server = spawnSync(process.execPath, [main], {
+      env: { ...childEnv(), KC_SMTP_PORT: '0', KC_RECALL_DISABLED: '1' },
+      encoding: 'utf8',
+      timeout: 30_000,
+    });
     expect(server.status).toBe(1);
     expect(server.stderr).toContain('Restore var/keys from your backup');
     expect(server.stderr).not.toMatch(/^\s+at /m);

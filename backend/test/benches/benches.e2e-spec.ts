@@ -46,7 +46,13 @@ describe('benches and bench tokens (e2e, MariaDB)', () => {
     expect(run).toMatchObject({ kind: 'warmup', status: 'open', job_status: 'in_progress' });
     const { token } = (await t.http.post(`/api/benches/${list.body.items[0].id}/token`).set(as('admin'))).body;
     const socket = await connect(url, NAMESPACES.ingest, token, sockets);
-    expect(await request(socket, INGEST_EVENTS.attach, { runId: run.id })).toMatchObject({ ok: true, lastSeq: 0, kind: 'warmup', benchName: 'Bench 1', range: { dialMin: 7000, dialMax: 7200 } });
+    expect(await request(socket, INGEST_EVENTS.attach, { runId: run.id })).toMatchObject({
+      ok: true,
+      lastSeq: 0,
+      kind: 'warmup',
+      benchName: 'Bench 1',
+      range: { dialMin: 7000, dialMax: 7200 },
+    });
   });
 
   it('should let the admin create and edit benches, lab roles read them, and refuse clients', async () => {
@@ -54,12 +60,23 @@ describe('benches and bench tokens (e2e, MariaDB)', () => {
     expect((await t.http.post('/api/benches').set(as('lead')).send({ name: 'Bench Z' })).status).toBe(403);
     const created = await t.http.post('/api/benches').set(as('admin')).send({ name: '  Bench Z ', location: 'Back room' });
     expect(created.status).toBe(201);
-    expect(created.body).toEqual({ id: expect.any(Number), name: 'Bench Z', location: 'Back room', defaultStandardId: null, defaultStandardName: null, hasToken: false, tokenIssuedAt: null, active: true });
+    expect(created.body).toEqual({
+      id: expect.any(Number),
+      name: 'Bench Z',
+      location: 'Back room',
+      defaultStandardId: null,
+      defaultStandardName: null,
+      hasToken: false,
+      tokenIssuedAt: null,
+      active: true,
+    });
     expect((await t.http.post('/api/benches').set(as('admin')).send({ name: 'Bench Z' })).status).toBe(409);
     const bad = await t.http.post('/api/benches').set(as('admin')).send({ name: 'Bench Y', defaultStandardId: 99999, colour: 'red' });
     expect(bad.status).toBe(400);
     expect(bad.body.message).toEqual(expect.arrayContaining(['property colour should not exist']));
-    expect((await t.http.post('/api/benches').set(as('admin')).send({ name: 'Bench Y', defaultStandardId: 99999 })).body.message).toContain('no reference standard 99999');
+    expect((await t.http.post('/api/benches').set(as('admin')).send({ name: 'Bench Y', defaultStandardId: 99999 })).body.message).toContain(
+      'no reference standard 99999',
+    );
     const patched = await t.http.patch(`/api/benches/${created.body.id}`).set(as('admin')).send({ location: 'Front room' });
     expect(patched.body.location).toBe('Front room');
     for (const who of ['lead', 'tech', 'engineer'] as const) {
@@ -80,7 +97,8 @@ describe('benches and bench tokens (e2e, MariaDB)', () => {
     expect(issued.body).toEqual({ benchId: bench.id, token: expect.stringMatching(/^kcb_[A-Za-z0-9_-]{43}$/) });
     const [row] = await t.dataSource.query('SELECT token_hash FROM benches WHERE id = ?', [bench.id]);
     expect(row.token_hash).toBe(sha256(issued.body.token));
-    const everything = JSON.stringify(await t.dataSource.query('SELECT * FROM benches')) + JSON.stringify(await t.dataSource.query('SELECT * FROM audit_events'));
+    const everything =
+      JSON.stringify(await t.dataSource.query('SELECT * FROM benches')) + JSON.stringify(await t.dataSource.query('SELECT * FROM audit_events'));
     expect(everything).not.toContain(issued.body.token);
     expect((await t.http.get(`/api/benches/${bench.id}`).set(as('admin'))).body).toMatchObject({ hasToken: true, tokenIssuedAt: expect.any(String) });
 
@@ -94,10 +112,16 @@ describe('benches and bench tokens (e2e, MariaDB)', () => {
     const revoked = await t.http.delete(`/api/benches/${bench.id}/token`).set(as('admin'));
     expect(revoked.status).toBe(200);
     expect(revoked.body).toMatchObject({ hasToken: false, tokenIssuedAt: null });
-    await expect(connect(url, NAMESPACES.ingest, second.body.token, sockets)).rejects.toMatchObject({ message: expect.stringContaining('revoked'), data: { code: 'bad_token' } });
+    await expect(connect(url, NAMESPACES.ingest, second.body.token, sockets)).rejects.toMatchObject({
+      message: expect.stringContaining('revoked'),
+      data: { code: 'bad_token' },
+    });
     const audit = await auditOf(bench.id);
     expect(audit.map((a: { action: string; actor_id: number | null }) => [a.action, a.actor_id !== null])).toEqual([
-      ['create', true], ['token_issue', true], ['token_issue', true], ['token_revoke', true],
+      ['create', true],
+      ['token_issue', true],
+      ['token_issue', true],
+      ['token_revoke', true],
     ]);
   });
 

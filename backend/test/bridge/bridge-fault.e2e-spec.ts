@@ -46,16 +46,26 @@ describe('bridge under faults (e2e, real processes, MariaDB)', () => {
 
     const started = Date.now();
     bridge = startNode(DIST.bridge, [
-      '--server', `http://127.0.0.1:${linkPort}`,
-      '--token', bench.token,
-      '--run', String(run.runId),
-      '--source', 'simulate:stable',
-      '--interval', '0.75',
-      '--count', String(READINGS),
-      '--batch', '100',
-      '--spool', spool,
-      '--timeout', '3000',
-      '--status-every', '250',
+      '--server',
+      `http://127.0.0.1:${linkPort}`,
+      '--token',
+      bench.token,
+      '--run',
+      String(run.runId),
+      '--source',
+      'simulate:stable',
+      '--interval',
+      '0.75',
+      '--count',
+      String(READINGS),
+      '--batch',
+      '100',
+      '--spool',
+      spool,
+      '--timeout',
+      '3000',
+      '--status-every',
+      '250',
     ]);
 
     // Cut the link every 350 ms while the bridge runs; kill the server outright after the 8th cut.
@@ -79,11 +89,15 @@ describe('bridge under faults (e2e, real processes, MariaDB)', () => {
     expect(restarted).toBe(true);
     expect(link.cuts).toBeGreaterThanOrEqual(20);
     expect(maxSpooled).toBeGreaterThan(0); // the spool really was used
-    const [row] = await ds.query(
-      'SELECT COUNT(*) AS n, COUNT(DISTINCT seq) AS distinct_seqs, MIN(seq) AS lo, MAX(seq) AS hi FROM readings WHERE run_id = ?',
-      [run.runId],
-    );
-    expect({ n: Number(row.n), distinct: Number(row.distinct_seqs), lo: Number(row.lo), hi: Number(row.hi) }).toEqual({ n: READINGS, distinct: READINGS, lo: 1, hi: READINGS });
+    const [row] = await ds.query('SELECT COUNT(*) AS n, COUNT(DISTINCT seq) AS distinct_seqs, MIN(seq) AS lo, MAX(seq) AS hi FROM readings WHERE run_id = ?', [
+      run.runId,
+    ]);
+    expect({ n: Number(row.n), distinct: Number(row.distinct_seqs), lo: Number(row.lo), hi: Number(row.hi) }).toEqual({
+      n: READINGS,
+      distinct: READINGS,
+      lo: 1,
+      hi: READINGS,
+    });
     expect(statSync(spool).size).toBe(0);
     expect(bridge.stderr()).toContain('every reading acknowledged');
     process.stderr.write(`fault test: ${READINGS} readings, ${link.cuts} cuts, 1 server restart, spool peak ${maxSpooled}, ${elapsed.toFixed(1)} s\n`);

@@ -27,7 +27,19 @@ describe('the bridge and the counter simulator (e2e, real processes, MariaDB)', 
   });
 
   const bridge = (token: string, runId: number, source: string, extra: string[] = []) => {
-    const child = startNode(DIST.bridge, ['--server', url, '--token', token, '--run', String(runId), '--source', source, '--spool', join(dir, `run-${runId}-${children.length}.jsonl`), ...extra]);
+    const child = startNode(DIST.bridge, [
+      '--server',
+      url,
+      '--token',
+      token,
+      '--run',
+      String(runId),
+      '--source',
+      source,
+      '--spool',
+      join(dir, `run-${runId}-${children.length}.jsonl`),
+      ...extra,
+    ]);
     children.push(child);
     return child;
   };
@@ -49,7 +61,9 @@ describe('the bridge and the counter simulator (e2e, real processes, MariaDB)', 
       expect(child.stdout()).toBe('');
       expect(child.stderr()).toContain('every reading acknowledged');
       const rows = await t.dataSource.query('SELECT seq, dial, frequency_hz, source FROM readings WHERE run_id = ? ORDER BY seq LIMIT 3', [run.runId]);
-      expect(rows.map((r: { seq: number; dial: number; frequency_hz: number; source: string }) => [Number(r.seq), Number(r.dial), Number(r.frequency_hz), r.source])).toEqual([
+      expect(
+        rows.map((r: { seq: number; dial: number; frequency_hz: number; source: string }) => [Number(r.seq), Number(r.dial), Number(r.frequency_hz), r.source]),
+      ).toEqual([
         [1, 3500, 3_503_870, 'bridge'],
         [2, 5500, 5_506_125.5, 'bridge'],
         [3, 7500, 7_508_000, 'bridge'],
@@ -132,7 +146,18 @@ describe('the bridge and the counter simulator (e2e, real processes, MariaDB)', 
     children.push(first);
     first.process.stdin!.end('7050000\n');
     await exitsWith(first, 0);
-    const unreachable = startNode(DIST.bridge, ['--server', 'http://127.0.0.1:9', '--token', token, '--run', String(run.runId), '--source', 'stdin', '--spool', spool]);
+    const unreachable = startNode(DIST.bridge, [
+      '--server',
+      'http://127.0.0.1:9',
+      '--token',
+      token,
+      '--run',
+      String(run.runId),
+      '--source',
+      'stdin',
+      '--spool',
+      spool,
+    ]);
     children.push(unreachable);
     await waitFor('the bridge to report the server unreachable', () => unreachable.stderr().includes('unreachable'), 10000);
     unreachable.process.kill('SIGINT');
@@ -144,7 +169,20 @@ describe('the bridge and the counter simulator (e2e, real processes, MariaDB)', 
     const { token, benchId } = await createBench(t.dataSource);
     const run = await createRun(t.dataSource, { organizationId: org, benchId });
     const spool = join(dir, 'left-over.jsonl');
-    writeFileSync(spool, JSON.stringify({ run: run.runId, readings: [{ seq: 1, t: 0.5, frequency: 7e6 }, { seq: 2, t: 1.5, frequency: 7.000001e6 }] }) + '\n' + '{"run":' + run.runId + ',"readings":[{"seq":3');
+    writeFileSync(
+      spool,
+      JSON.stringify({
+        run: run.runId,
+        readings: [
+          { seq: 1, t: 0.5, frequency: 7e6 },
+          { seq: 2, t: 1.5, frequency: 7.000001e6 },
+        ],
+      }) +
+        '\n' +
+        '{"run":' +
+        run.runId +
+        ',"readings":[{"seq":3',
+    );
     const child = startNode(DIST.bridge, ['--server', url, '--token', token, '--run', String(run.runId), '--source', 'stdin', '--spool', spool]);
     children.push(child);
     child.process.stdin!.end('7000002\n');

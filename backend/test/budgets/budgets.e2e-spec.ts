@@ -37,8 +37,22 @@ describe('procedures, budgets and results (e2e, MariaDB)', () => {
       extraComponents: [{ name: 'Cable movement', distribution: 'normal', value: 2, unit: 'Hz', divisor: 2 }],
     };
     expect((await t.http.post('/api/procedures').set(as('tech')).send(body)).status).toBe(403);
-    expect((await t.http.post('/api/procedures').set(as('lead')).send({ ...body, decisionRule: 'lenient' })).status).toBe(400);
-    expect((await t.http.post('/api/procedures').set(as('lead')).send({ ...body, extraComponents: [{ name: 'x', distribution: 'normal', value: -1, unit: 'Hz' }] })).status).toBe(400);
+    expect(
+      (
+        await t.http
+          .post('/api/procedures')
+          .set(as('lead'))
+          .send({ ...body, decisionRule: 'lenient' })
+      ).status,
+    ).toBe(400);
+    expect(
+      (
+        await t.http
+          .post('/api/procedures')
+          .set(as('lead'))
+          .send({ ...body, extraComponents: [{ name: 'x', distribution: 'normal', value: -1, unit: 'Hz' }] })
+      ).status,
+    ).toBe(400);
     const created = await t.http.post('/api/procedures').set(as('lead')).send(body);
     expect(created.status).toBe(201);
     expect(created.body).toMatchObject({ ...body, isDefault: false, active: true });
@@ -154,7 +168,11 @@ describe('procedures, budgets and results (e2e, MariaDB)', () => {
     const [run] = await t.dataSource.query("SELECT id FROM runs WHERE job_id = ? AND kind = 'as_left'", [jobId]);
     const [reading] = await t.dataSource.query('SELECT id FROM readings WHERE run_id = ? ORDER BY seq LIMIT 1', [run.id]);
     // The lab-records rules refuse exclusions in review; this one is recorded as if made before submission.
-    await t.dataSource.query('INSERT INTO reading_exclusions (reading_id, run_id, reason, excluded_by) VALUES (?, ?, ?, 3)', [reading.id, run.id, 'counter gate left on 0.1 s']);
+    await t.dataSource.query('INSERT INTO reading_exclusions (reading_id, run_id, reason, excluded_by) VALUES (?, ?, ?, 3)', [
+      reading.id,
+      run.id,
+      'counter gate left on 0.1 s',
+    ]);
     const results: JobResults = (await t.http.get(`/api/jobs/${jobId}/results`).set(as('northgate'))).body;
     expect(results.flags).toContainEqual(expect.objectContaining({ kind: 'excluded_reading', readingId: Number(reading.id), severity: 'info' }));
     expect(results.ranges[0]!.points[0]!.asLeft!.n).toBe(1);

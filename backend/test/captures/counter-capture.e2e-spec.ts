@@ -106,7 +106,11 @@ describe('bridge presence and counter-assisted capture (e2e, MariaDB)', () => {
 
     it('should keep showing no bridge on a run with typed readings only, with the age of its newest reading', async () => {
       const run = await calibrationRun();
-      await t.http.post(`/api/runs/${run.runId}/readings`).set(as('tech')).send({ readings: [{ dial: 5000, frequency: 5_000_100 }] }).expect(201);
+      await t.http
+        .post(`/api/runs/${run.runId}/readings`)
+        .set(as('tech'))
+        .send({ readings: [{ dial: 5000, frequency: 5_000_100 }] })
+        .expect(201);
       const bridge = (await getRun(run.runId)).bridge;
       expect(bridge.connected).toBe(false);
       expect(bridge.since).toBeNull();
@@ -132,14 +136,22 @@ describe('bridge presence and counter-assisted capture (e2e, MariaDB)', () => {
       const run = await calibrationRun();
       await attachBridge(run.token, run.runId);
       expect((await t.http.post(`/api/runs/${run.runId}/capture`).set(as('tech')).send({ dial: 'abc' }).expect(400)).body.message).toMatch(/^dial: /);
-      expect((await t.http.post(`/api/runs/${run.runId}/capture`).set(as('tech')).send({ dial: 9000 }).expect(400)).body.message).toContain('outside the range');
+      expect((await t.http.post(`/api/runs/${run.runId}/capture`).set(as('tech')).send({ dial: 9000 }).expect(400)).body.message).toContain(
+        'outside the range',
+      );
       await t.http.post(`/api/runs/${run.runId}/capture`).set(as('tech')).send({}).expect(400);
-      await t.http.post(`/api/runs/${run.runId}/capture`).set(as('tech')).send({ dial: { x: 1 } }).expect(400);
+      await t.http
+        .post(`/api/runs/${run.runId}/capture`)
+        .set(as('tech'))
+        .send({ dial: { x: 1 } })
+        .expect(400);
       await t.http.post(`/api/runs/${run.runId}/capture`).set(as('saltmarsh')).send({ dial: 5000 }).expect(403);
       const study = await createRun(t.dataSource, { organizationId: org, benchId: run.benchId, kind: 'warmup' });
       expect((await t.http.post(`/api/runs/${study.runId}/capture`).set(as('tech')).send({ dial: 5000 }).expect(409)).body.message).toContain('warm-up run');
       await t.http.post(`/api/runs/${run.runId}/capture`).set(as('tech')).send({ dial: 5000 }).expect(201);
-      expect((await t.http.post(`/api/runs/${run.runId}/capture`).set(as('tech')).send({ dial: 6000 }).expect(409)).body.message).toContain('dial 5000 is still waiting');
+      expect((await t.http.post(`/api/runs/${run.runId}/capture`).set(as('tech')).send({ dial: 6000 }).expect(409)).body.message).toContain(
+        'dial 5000 is still waiting',
+      );
       await t.http.delete(`/api/runs/${run.runId}/capture`).set(as('tech')).expect(200);
     });
   });
@@ -184,7 +196,10 @@ describe('bridge presence and counter-assisted capture (e2e, MariaDB)', () => {
       const stored = await t.dataSource.query('SELECT dial, frequency_hz FROM readings WHERE run_id = ? ORDER BY seq', [run.runId]);
       expect(stored.filter((r: { dial: number | null }) => r.dial === null)).toHaveLength(6);
       expect(stored.filter((r: { dial: number | null }) => r.dial !== null)).toHaveLength(1);
-      const [audit] = await t.dataSource.query("SELECT actor_id, changes FROM audit_events WHERE entity = 'run' AND entity_id = ? AND action = 'counter_capture'", [String(run.runId)]);
+      const [audit] = await t.dataSource.query(
+        "SELECT actor_id, changes FROM audit_events WHERE entity = 'run' AND entity_id = ? AND action = 'counter_capture'",
+        [String(run.runId)],
+      );
       expect(audit).toBeDefined();
 
       // After it settles, a reading without a dial is refused again.
@@ -215,12 +230,20 @@ describe('bridge presence and counter-assisted capture (e2e, MariaDB)', () => {
       const run = await calibrationRun();
       // The procedure's settings: validated (N of 1 is refused), then a 5 s timeout and N = 3.
       await t.http.patch(`/api/procedures/${procedureId}`).set(as('lead')).send({ captureSettleCount: 1 }).expect(400);
-      await t.http.patch(`/api/procedures/${procedureId}`).set(as('lead')).send({ captureTimeoutS: 5, captureSettleCount: 3, dialMarks: [3500, 4000, 5000] }).expect(200);
+      await t.http
+        .patch(`/api/procedures/${procedureId}`)
+        .set(as('lead'))
+        .send({ captureTimeoutS: 5, captureSettleCount: 3, dialMarks: [3500, 4000, 5000] })
+        .expect(200);
       try {
         const bridge = await attachBridge(run.token, run.runId);
         const page = await watch(run.runId);
         // The procedure's marks, in order: the first the run has no reading at is proposed.
-        await t.http.post(`/api/runs/${run.runId}/readings`).set(as('tech')).send({ readings: [{ dial: 3500, frequency: 3_500_100 }] }).expect(201);
+        await t.http
+          .post(`/api/runs/${run.runId}/readings`)
+          .set(as('tech'))
+          .send({ readings: [{ dial: 3500, frequency: 3_500_100 }] })
+          .expect(201);
         expect((await t.http.get(`/api/runs/${run.runId}/capture`).set(as('tech')).expect(200)).body).toMatchObject({ capture: null, nextMark: 4000 });
 
         const ended = nextCapture(page, 'timed_out');

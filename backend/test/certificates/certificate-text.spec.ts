@@ -62,7 +62,18 @@ function hostile(): CertificatePdfData {
       },
     ],
     standards: [
-      { id: 1, name: 'Counter\tC1', makeModel: 'Test counter', serial: 'CT-1\nFORGED', certificateNumber: 'C-1', dueDate: '2099-01-01', timebaseAccuracyPpm: 0.1, resolutionHz: 0.1, calibrationUPpm: 0.01, calibrationK: 2 },
+      {
+        id: 1,
+        name: 'Counter\tC1',
+        makeModel: 'Test counter',
+        serial: 'CT-1\nFORGED',
+        certificateNumber: 'C-1',
+        dueDate: '2099-01-01',
+        timebaseAccuracyPpm: 0.1,
+        resolutionHz: 0.1,
+        calibrationUPpm: 0.01,
+        calibrationK: 2,
+      },
     ],
     decision: 'pass',
     outcomes: { asFound: null, asLeft: null, asFoundFinalRanges: [], summary: 'As found: within tolerance.' },
@@ -81,7 +92,14 @@ function hostile(): CertificatePdfData {
       assetTag: 'AT-9\u001b[2J',
       description: 'Two-band signal generator.\nDial cord replaced 1998.',
     },
-    job: { number: 'J-2025-0001', receivedDate: '2025-03-01', conditionReceived: 'Case cracked.\r\n\r\n\r\n\r\n\r\nKnob missing.\u0000', ambientTempC: 21.5, humidityPct: 40, supplyVoltages: [] },
+    job: {
+      number: 'J-2025-0001',
+      receivedDate: '2025-03-01',
+      conditionReceived: 'Case cracked.\r\n\r\n\r\n\r\n\r\nKnob missing.\u0000',
+      ambientTempC: 21.5,
+      humidityPct: 40,
+      supplyVoltages: [],
+    },
     calibrationDates: { first: '2025-03-02', last: '2025-03-02' },
     issuedAt: new Date('2025-03-03T10:00:00Z'),
     results,
@@ -138,7 +156,9 @@ describe('renderCertificatePdf() with hostile text', () => {
     try {
       const file = join(dir, 'certificate.pdf');
       writeFileSync(file, pdf);
-      const lines = execFileSync('pdftotext', ['-layout', file, '-'], { encoding: 'utf8' }).split('\n').map((l) => l.trim());
+      const lines = execFileSync('pdftotext', ['-layout', file, '-'], { encoding: 'utf8' })
+        .split('\n')
+        .map((l) => l.trim());
       expect(lines.find((l) => l.startsWith('Serial number'))).toMatch(/^Serial number\s+SN 1234 Calibration: PASS$/);
       expect(lines.filter((l) => l.startsWith('Calibration: PASS'))).toEqual([]);
       expect(lines.find((l) => l.startsWith('Make and model'))).toMatch(/^Make and model\s+Test Works TG-1 mk II$/);

@@ -39,15 +39,22 @@ describe('review, signing and certificates (e2e, MariaDB)', () => {
   });
 
   const jobBySerial = async (serial: string): Promise<{ id: number; status: string }> => {
-    const [row] = await t.dataSource.query('SELECT j.id, j.status FROM jobs j JOIN instruments i ON i.id = j.instrument_id WHERE i.serial = ? ORDER BY j.id DESC LIMIT 1', [serial]);
+    const [row] = await t.dataSource.query(
+      'SELECT j.id, j.status FROM jobs j JOIN instruments i ON i.id = j.instrument_id WHERE i.serial = ? ORDER BY j.id DESC LIMIT 1',
+      [serial],
+    );
     return { id: Number(row.id), status: String(row.status) };
   };
   const download = async (id: number, who: Who = 'lead'): Promise<Buffer> => {
-    const res = await t.http.get(`/api/certificates/${id}/pdf`).set(as(who)).buffer(true).parse((response, done) => {
-      const chunks: Buffer[] = [];
-      response.on('data', (c: Buffer) => chunks.push(c));
-      response.on('end', () => done(null, Buffer.concat(chunks)));
-    });
+    const res = await t.http
+      .get(`/api/certificates/${id}/pdf`)
+      .set(as(who))
+      .buffer(true)
+      .parse((response, done) => {
+        const chunks: Buffer[] = [];
+        response.on('data', (c: Buffer) => chunks.push(c));
+        response.on('end', () => done(null, Buffer.concat(chunks)));
+      });
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toContain('application/pdf');
     return res.body as Buffer;
@@ -68,7 +75,13 @@ describe('review, signing and certificates (e2e, MariaDB)', () => {
     it('should show the public verification view without sign-in and without measurement data', async () => {
       const res = await t.http.get(`/api/public/certificates/${demoCertificate.number}`);
       expect(res.status).toBe(200);
-      expect(res.body).toMatchObject({ number: demoCertificate.number, revision: 1, status: 'issued', customer: 'Northgate Radio Club', sha256: demoCertificate.sha256 });
+      expect(res.body).toMatchObject({
+        number: demoCertificate.number,
+        revision: 1,
+        status: 'issued',
+        customer: 'Northgate Radio Club',
+        sha256: demoCertificate.sha256,
+      });
       expect(res.body.instrument).toContain('VFO-3');
       expect(res.body.issuedAt).toBe(demoCertificate.issuedAt);
       expect(JSON.stringify(res.body)).not.toMatch(/measured|budget|nominal/);
@@ -84,9 +97,25 @@ describe('review, signing and certificates (e2e, MariaDB)', () => {
         expect(text).toContain(`Page ${i + 1} of ${pages.length}`);
       });
       const all = pages.join(' ');
-      for (const words of ['Calibration Certificate', 'Northgate Radio Club', 'Harwick Radio', 'VFO-3 variable frequency oscillator', 'N-0952', 'NRC-03',
-        'Lena Brandt', 'Calibration lead (authorised signatory)', 'reviewed and approved for issue', 'ILAC-G8', 'guard band w = U', 'JCGM 100:2008',
-        'approximately 95 %', 'End of certificate', `/verify/${demoCertificate.number}`, 'Condition as received', 'ambient temperature 21.2 °C']) {
+      for (const words of [
+        'Calibration Certificate',
+        'Northgate Radio Club',
+        'Harwick Radio',
+        'VFO-3 variable frequency oscillator',
+        'N-0952',
+        'NRC-03',
+        'Lena Brandt',
+        'Calibration lead (authorised signatory)',
+        'reviewed and approved for issue',
+        'ILAC-G8',
+        'guard band w = U',
+        'JCGM 100:2008',
+        'approximately 95 %',
+        'End of certificate',
+        `/verify/${demoCertificate.number}`,
+        'Condition as received',
+        'ambient temperature 21.2 °C',
+      ]) {
         expect(all).toContain(words);
       }
       // Every point's nominal, U and k as printed in the results table.
@@ -104,8 +133,9 @@ describe('review, signing and certificates (e2e, MariaDB)', () => {
     it('should state at every point the U, k, ν_eff, guard band and decision a GUM budget and ILAC-G8 worked by hand give', async () => {
       const results = demoCertificate.results as JobResults;
       expect(results.decisionRule).toBe('guarded');
-      const [procedure] = await t.dataSource.query(
-        'SELECT p.* FROM procedures p JOIN job_procedures jp ON jp.procedure_id = p.id WHERE jp.job_id = ?', [demoCertificate.jobId]);
+      const [procedure] = await t.dataSource.query('SELECT p.* FROM procedures p JOIN job_procedures jp ON jp.procedure_id = p.id WHERE jp.job_id = ?', [
+        demoCertificate.jobId,
+      ]);
       const json = <T>(v: unknown): T => (typeof v === 'string' ? JSON.parse(v) : v) as T;
       let checked = 0;
       const decisions = new Set<string>();
@@ -119,7 +149,9 @@ describe('review, signing and certificates (e2e, MariaDB)', () => {
           const [std] = await t.dataSource.query('SELECT s.* FROM runs r JOIN standards s ON s.id = r.standard_id WHERE r.id = ?', [runId]);
           expect((await t.dataSource.query('SELECT 1 FROM run_budgets WHERE run_id = ?', [runId])).length).toBe(0); // procedure figures apply
           const readings: Array<{ dial: number; frequency_hz: number }> = await t.dataSource.query(
-            'SELECT r.dial, r.frequency_hz FROM readings r LEFT JOIN reading_exclusions e ON e.reading_id = r.id WHERE r.run_id = ? AND e.reading_id IS NULL', [runId]);
+            'SELECT r.dial, r.frequency_hz FROM readings r LEFT JOIN reading_exclusions e ON e.reading_id = r.id WHERE r.run_id = ? AND e.reading_id IS NULL',
+            [runId],
+          );
           for (const p of range.points) {
             const m = p[kind]!;
             const nominal = p.dial * slope;
@@ -193,8 +225,9 @@ describe('review, signing and certificates (e2e, MariaDB)', () => {
       const results: JobResults = (await t.http.get(`/api/jobs/${job1}/results`).set(as('lead'))).body;
       const point = results.ranges[0]!.points[3]!.asLeft!;
       const [std] = await t.dataSource.query('SELECT s.* FROM runs r JOIN standards s ON s.id = r.standard_id WHERE r.id = ?', [asLeftRun.id]);
-      const samples = (await t.dataSource.query('SELECT frequency_hz FROM readings WHERE run_id = ? AND dial = ?', [asLeftRun.id, results.ranges[0]!.points[3]!.dial]))
-        .map((r: { frequency_hz: number }) => Number(r.frequency_hz));
+      const samples = (
+        await t.dataSource.query('SELECT frequency_hz FROM readings WHERE run_id = ? AND dial = ?', [asLeftRun.id, results.ranges[0]!.points[3]!.dial])
+      ).map((r: { frequency_hz: number }) => Number(r.frequency_hz));
       const n = samples.length;
       const mean = samples.reduce((a: number, b: number) => a + b, 0) / n;
       const s = Math.sqrt(samples.reduce((a: number, b: number) => a + (b - mean) ** 2, 0) / (n - 1));
@@ -260,14 +293,24 @@ describe('review, signing and certificates (e2e, MariaDB)', () => {
       const attempts: Array<[string, () => Promise<{ status: number }>]> = [
         ['run budget', () => t.http.put(`/api/runs/${runs[0]!.id}/budget`).set(as('lead')).send({ driftHz: 5 })],
         ['job procedure', () => t.http.put(`/api/jobs/${job1}/procedure`).set(as('lead')).send({ procedureId: 1 })],
-        ['sign again', () => t.http.post(`/api/jobs/${job1}/sign`).set(as('lead')).send({ password: 'kilocycle-demo', meaning: 'reviewed and approved for issue' })],
+        [
+          'sign again',
+          () => t.http.post(`/api/jobs/${job1}/sign`).set(as('lead')).send({ password: 'kilocycle-demo', meaning: 'reviewed and approved for issue' }),
+        ],
         ['return', () => t.http.post(`/api/jobs/${job1}/return`).set(as('lead')).send({ comment: 'please redo' })],
         ['submit', () => t.http.post(`/api/jobs/${job1}/submit`).set(as('tech')).send({})],
         ['job fields', () => t.http.patch(`/api/jobs/${job1}`).set(as('lead')).send({ notes: 'changed after signing' })],
         ['job status', () => t.http.patch(`/api/jobs/${job1}`).set(as('lead')).send({ status: 'in_progress' })],
         ['new run', () => t.http.post(`/api/jobs/${job1}/runs`).set(as('tech')).send({ rangeId: runs[0]!.range_id, kind: 'as_left' })],
         ['run fields', () => t.http.patch(`/api/runs/${runs[0]!.id}`).set(as('tech')).send({ notes: 'changed' })],
-        ['readings', () => t.http.post(`/api/runs/${runs[0]!.id}/readings`).set(as('tech')).send({ readings: [{ dial: 1800, frequency: 1_800_000 }] })],
+        [
+          'readings',
+          () =>
+            t.http
+              .post(`/api/runs/${runs[0]!.id}/readings`)
+              .set(as('tech'))
+              .send({ readings: [{ dial: 1800, frequency: 1_800_000 }] }),
+        ],
         ['exclusion', () => t.http.post(`/api/runs/${runs[0]!.id}/readings/${reading.id}/exclusion`).set(as('tech')).send({ reason: 'after signing' })],
       ];
       for (const [what, attempt] of attempts) {
@@ -281,7 +324,9 @@ describe('review, signing and certificates (e2e, MariaDB)', () => {
       const raw = await t.http.post(`/api/public/certificates/${issued.number}/check`).set('Content-Type', 'application/pdf').send(pdf);
       expect(raw.status).toBe(200);
       expect(raw.body).toMatchObject({ match: true, revision: 1, status: 'issued', signatureValid: true, sha256: issued.sha256 });
-      const multipart = await t.http.post(`/api/public/certificates/${issued.number}/check`).attach('file', pdf, { filename: 'cert.pdf', contentType: 'application/pdf' });
+      const multipart = await t.http
+        .post(`/api/public/certificates/${issued.number}/check`)
+        .attach('file', pdf, { filename: 'cert.pdf', contentType: 'application/pdf' });
       expect(multipart.body.match).toBe(true);
       const changed = Buffer.from(pdf);
       changed[Math.floor(changed.length / 2)] ^= 0x01;
@@ -306,7 +351,12 @@ describe('review, signing and certificates (e2e, MariaDB)', () => {
       const list = await t.http.get('/api/certificates').set(as('saltmarsh'));
       expect(list.body.items.map((c: { id: number }) => c.id)).not.toContain(issued.id);
       const [{ file_name }] = await t.dataSource.query('SELECT file_name FROM certificates WHERE id = ?', [issued.id]);
-      for (const path of [`/api/certificates/${file_name}`, `/api/certificates/${file_name}/pdf`, `/var/certificates/${file_name}`, `/certificates/${file_name}`]) {
+      for (const path of [
+        `/api/certificates/${file_name}`,
+        `/api/certificates/${file_name}/pdf`,
+        `/var/certificates/${file_name}`,
+        `/certificates/${file_name}`,
+      ]) {
         const res = await t.http.get(path).set(as('saltmarsh'));
         expect(res.text ?? '').not.toContain('%PDF');
         if (path.startsWith('/api')) expect(res.status).toBe(404);
@@ -325,7 +375,10 @@ describe('review, signing and certificates (e2e, MariaDB)', () => {
       expect(publicView.body).not.toHaveProperty('amendmentPending');
       expect(JSON.stringify(publicView.body)).not.toContain('draft');
       expect((await t.http.get(`/api/certificates/${amend.body.id}`).set(as('northgate'))).status).toBe(404);
-      const signed = await t.http.post(`/api/jobs/${job1}/sign`).set(as('lead')).send({ password: 'kilocycle-demo', meaning: 'reviewed and approved for issue' });
+      const signed = await t.http
+        .post(`/api/jobs/${job1}/sign`)
+        .set(as('lead'))
+        .send({ password: 'kilocycle-demo', meaning: 'reviewed and approved for issue' });
       expect(signed.status).toBe(200);
       expect(signed.body).toMatchObject({ number: issued.number, revision: 2, status: 'issued', replacesRevision: 1 });
       const text = (await pdfPages(await download(signed.body.id))).join(' ');
@@ -337,12 +390,22 @@ describe('review, signing and certificates (e2e, MariaDB)', () => {
       const latest = await t.http.get(`/api/public/certificates/${issued.number}`);
       expect(latest.body).toMatchObject({ revision: 2, status: 'issued' });
       expect(latest.body).not.toHaveProperty('amendmentPending');
-      expect(latest.body.revisions.map((r: { revision: number; status: string }) => [r.revision, r.status])).toEqual([[2, 'issued'], [1, 'superseded']]);
+      expect(latest.body.revisions.map((r: { revision: number; status: string }) => [r.revision, r.status])).toEqual([
+        [2, 'issued'],
+        [1, 'superseded'],
+      ]);
     });
 
     it('should withdraw a certificate (lead only)', async () => {
       const [{ id }] = await t.dataSource.query("SELECT id FROM certificates WHERE job_id = ? AND status = 'issued'", [job1]);
-      expect((await t.http.post(`/api/certificates/${id}/withdraw`).set(as('tech')).send({ reason: 'x'.repeat(5) })).status).toBe(403);
+      expect(
+        (
+          await t.http
+            .post(`/api/certificates/${id}/withdraw`)
+            .set(as('tech'))
+            .send({ reason: 'x'.repeat(5) })
+        ).status,
+      ).toBe(403);
       const res = await t.http.post(`/api/certificates/${id}/withdraw`).set(as('lead')).send({ reason: 'Instrument found damaged in transit after issue' });
       expect(res.status).toBe(200);
       expect(res.body.status).toBe('withdrawn');
@@ -362,7 +425,10 @@ describe('review, signing and certificates (e2e, MariaDB)', () => {
       const readings = dials.flatMap((d, i) => [0, 1].map((k) => ({ dial: d, frequency: d * 1000 + 900 + 3 * i + k })));
       expect((await t.http.post(`/api/runs/${asFound.id}/readings`).set(as('tech')).send({ readings })).status).toBeLessThan(300);
       // The lead measures the as-left run: the lead's own capture.
-      const asLeft = await t.http.post(`/api/jobs/${job2}/runs`).set(as('lead')).send({ rangeId: asFound.rangeId, kind: 'as_left', standardId: asFound.standardId });
+      const asLeft = await t.http
+        .post(`/api/jobs/${job2}/runs`)
+        .set(as('lead'))
+        .send({ rangeId: asFound.rangeId, kind: 'as_left', standardId: asFound.standardId });
       expect(asLeft.status).toBe(201);
       const left = dials.flatMap((d, i) => [0, 1].map((k) => ({ dial: d, frequency: d * 1000 + 20 + i + k })));
       expect((await t.http.post(`/api/runs/${asLeft.body.id}/readings`).set(as('lead')).send({ readings: left })).status).toBeLessThan(300);
@@ -380,16 +446,24 @@ describe('review, signing and certificates (e2e, MariaDB)', () => {
     });
 
     it('should refuse a lead signing runs they captured, audited, until the admin allows it', async () => {
-      const refused = await t.http.post(`/api/jobs/${job2}/sign`).set(as('lead')).send({ password: 'kilocycle-demo', meaning: 'reviewed and approved for issue' });
+      const refused = await t.http
+        .post(`/api/jobs/${job2}/sign`)
+        .set(as('lead'))
+        .send({ password: 'kilocycle-demo', meaning: 'reviewed and approved for issue' });
       expect(refused.status).toBe(403);
       // The lead opened the as-left run and typed its 12 readings; the refusal says so.
       expect(refused.body.message).toMatch(/^You opened run (\d+) and entered 12 readings of run \1: another lead must sign/);
-      const [{ n }] = await t.dataSource.query("SELECT COUNT(*) AS n FROM audit_events WHERE entity = 'job' AND entity_id = ? AND action = 'sign_refused'", [String(job2)]);
+      const [{ n }] = await t.dataSource.query("SELECT COUNT(*) AS n FROM audit_events WHERE entity = 'job' AND entity_id = ? AND action = 'sign_refused'", [
+        String(job2),
+      ]);
       expect(Number(n)).toBe(1);
       expect((await t.http.patch('/api/settings').set(as('lead')).send({ allowSelfSign: true })).status).toBe(403);
       const settings = await t.http.patch('/api/settings').set(as('admin')).send({ allowSelfSign: true });
       expect(settings.body.allowSelfSign).toBe(true);
-      const signed = await t.http.post(`/api/jobs/${job2}/sign`).set(as('lead')).send({ password: 'kilocycle-demo', meaning: 'reviewed and approved for issue' });
+      const signed = await t.http
+        .post(`/api/jobs/${job2}/sign`)
+        .set(as('lead'))
+        .send({ password: 'kilocycle-demo', meaning: 'reviewed and approved for issue' });
       expect(signed.status).toBe(200);
       expect(signed.body.status).toBe('issued');
       await t.http.patch('/api/settings').set(as('admin')).send({ allowSelfSign: false });

@@ -48,20 +48,42 @@ describe('as-found and as-left outcomes (e2e, MariaDB)', () => {
 
   it('should state both outcomes in the results of a job found out of tolerance and adjusted', async () => {
     const orgs = await organizationIds(t, as('lead'));
-    const created = await instrumentWithJob(t, as('tech'), { organizationId: orgs['Northgate Radio Club']!, ranges: [khzRange('Band A 1000–2000 kHz', 1000, 2000)] });
+    const created = await instrumentWithJob(t, as('tech'), {
+      organizationId: orgs['Northgate Radio Club']!,
+      ranges: [khzRange('Band A 1000–2000 kHz', 1000, 2000)],
+    });
     jobId = created.jobId;
     const [standard] = await t.dataSource.query('SELECT id FROM standards WHERE due_date > CURRENT_DATE ORDER BY id LIMIT 1');
-    for (const [kind, error] of [['as_found', foundError], ['as_left', () => LEFT_ERROR]] as const) {
+    for (const [kind, error] of [
+      ['as_found', foundError],
+      ['as_left', () => LEFT_ERROR],
+    ] as const) {
       const runId = await openRun(t, as('tech'), jobId, { rangeId: created.rangeIds[0], kind, standardId: Number(standard.id) });
       // Two readings ±0.5 Hz about the target: their mean is the target itself.
-      await postReadings(t, as('tech'), runId, DIALS.flatMap((dial) => [-0.5, 0.5].map((d) => ({ dial, frequency: dial * 1e3 + error(dial) + d }))));
-      const budget = await t.http.put(`/api/runs/${runId}/budget`).set(as('tech')).send({ dialHalfDivision: 1.5, driftPpm: 0, driftHz: 0, extraComponents: [] });
+      await postReadings(
+        t,
+        as('tech'),
+        runId,
+        DIALS.flatMap((dial) => [-0.5, 0.5].map((d) => ({ dial, frequency: dial * 1e3 + error(dial) + d }))),
+      );
+      const budget = await t.http
+        .put(`/api/runs/${runId}/budget`)
+        .set(as('tech'))
+        .send({ dialHalfDivision: 1.5, driftPpm: 0, driftHz: 0, extraComponents: [] });
       expect(budget.status).toBe(200);
     }
     const results: JobResults = (await t.http.get(`/api/jobs/${jobId}/results`).set(as('tech'))).body;
     expect(results.outcomes.asFound).toEqual({
-      decision: 'fail', settings: 10, pass: 7, conditionalPass: 0, conditionalFail: 0, fail: 3,
-      outOfTolerance: 3, conditional: 0, undecided: 0, words: 'out of tolerance at 3 of 10 settings',
+      decision: 'fail',
+      settings: 10,
+      pass: 7,
+      conditionalPass: 0,
+      conditionalFail: 0,
+      fail: 3,
+      outOfTolerance: 3,
+      conditional: 0,
+      undecided: 0,
+      words: 'out of tolerance at 3 of 10 settings',
     });
     expect(results.outcomes.asLeft).toMatchObject({ decision: 'pass', settings: 10, pass: 10, outOfTolerance: 0, words: 'within tolerance' });
     expect(results.outcomes.summary).toBe('As found: out of tolerance at 3 of 10 settings; as left: within tolerance.');
@@ -76,7 +98,10 @@ describe('as-found and as-left outcomes (e2e, MariaDB)', () => {
   });
 
   it('should keep the as-found outcome on the certificate row, for the lab and the customer', async () => {
-    const signed = await t.http.post(`/api/jobs/${jobId}/sign`).set(as('lead')).send({ password: 'kilocycle-demo', meaning: 'reviewed and approved for issue' });
+    const signed = await t.http
+      .post(`/api/jobs/${jobId}/sign`)
+      .set(as('lead'))
+      .send({ password: 'kilocycle-demo', meaning: 'reviewed and approved for issue' });
     expect(signed.status).toBe(200);
     certificate = signed.body;
     expect(certificate).toMatchObject({ status: 'issued', decision: 'pass', asFoundDecision: 'fail' });
@@ -102,28 +127,40 @@ describe('as-found and as-left outcomes (e2e, MariaDB)', () => {
   });
 
   it('should print both outcomes on page 1, per setting the as-found and as-left error, U, k and decision, and the low-TUR settings', async () => {
-    const res = await t.http.get(`/api/certificates/${certificate.id}/pdf`).set(as('northgate')).buffer(true).parse((response, done) => {
-      const chunks: Buffer[] = [];
-      response.on('data', (c: Buffer) => chunks.push(c));
-      response.on('end', () => done(null, Buffer.concat(chunks)));
-    });
+    const res = await t.http
+      .get(`/api/certificates/${certificate.id}/pdf`)
+      .set(as('northgate'))
+      .buffer(true)
+      .parse((response, done) => {
+        const chunks: Buffer[] = [];
+        response.on('data', (c: Buffer) => chunks.push(c));
+        response.on('end', () => done(null, Buffer.concat(chunks)));
+      });
     expect(res.status).toBe(200);
     const pages = await pdfPages(res.body as Buffer);
     expect(pages[0]).toContain('As found (before adjustment) Out of tolerance at 3 of 10 settings');
     expect(pages[0]).toContain('As left (after adjustment) Within tolerance');
     const all = pages.join(' ');
-    for (const words of ['As found (before adjustment) As left (after adjustment)', 'Measured (kHz) Error (Hz) U (Hz) k Decision Measured (kHz) Error (Hz) U (Hz) k Decision']) {
+    for (const words of [
+      'As found (before adjustment) As left (after adjustment)',
+      'Measured (kHz) Error (Hz) U (Hz) k Decision Measured (kHz) Error (Hz) U (Hz) k Decision',
+    ]) {
       expect(all).toContain(words);
     }
     const U = '1 700'; // U_BY_HAND to two significant digits
-    const grouped = (v: number) => Math.round(v).toString().replace(/\B(?=(\d{3})+$)/g, ' ');
+    const grouped = (v: number) =>
+      Math.round(v)
+        .toString()
+        .replace(/\B(?=(\d{3})+$)/g, ' ');
     for (const dial of DIALS) {
       // Errors rounded to U's last digit (hundreds of Hz); frequencies in kHz to a tenth (the same place).
       const found = `${((dial * 1e3 + foundError(dial)) / 1e3).toFixed(1).replace(/\B(?=(\d{3})+\.)/g, ' ')} +${grouped(Math.round(foundError(dial) / 100) * 100)} ${U} 2.00 ${FOUND_OUT.has(dial) ? 'fail' : 'pass'}`;
       const left = `${((dial * 1e3 + LEFT_ERROR) / 1e3).toFixed(1).replace(/\B(?=(\d{3})+\.)/g, ' ')} +${LEFT_ERROR} ${U} 2.00 pass`;
       expect(all).toContain(`${found} ${left}`);
     }
-    expect(all).toContain('As found, before adjustment, the instrument was out of tolerance at 3 of 10 settings: Band A 1000–2000 kHz at 1000, 1500, 1900 kHz.');
+    expect(all).toContain(
+      'As found, before adjustment, the instrument was out of tolerance at 3 of 10 settings: Band A 1000–2000 kHz at 1000, 1500, 1900 kHz.',
+    );
     // The TUR sentence lists what it announces: range, setting and ratio, as found and as left.
     expect(LOW_TUR).toEqual([1000, 1100, 1200, 1300]);
     const entries = LOW_TUR.map((d) => {
@@ -140,7 +177,10 @@ describe('as-found and as-left outcomes (e2e, MariaDB)', () => {
       "UPDATE certificates SET results = JSON_REMOVE(results, '$.outcomes'), record = IF(record IS NULL, NULL, JSON_REMOVE(record, '$.results.outcomes')) WHERE id = ?",
       [certificate.id],
     );
-    const [stored] = await t.dataSource.query("SELECT JSON_CONTAINS_PATH(results, 'one', '$.outcomes') AS r, JSON_CONTAINS_PATH(record, 'one', '$.results.outcomes') AS s FROM certificates WHERE id = ?", [certificate.id]);
+    const [stored] = await t.dataSource.query(
+      "SELECT JSON_CONTAINS_PATH(results, 'one', '$.outcomes') AS r, JSON_CONTAINS_PATH(record, 'one', '$.results.outcomes') AS s FROM certificates WHERE id = ?",
+      [certificate.id],
+    );
     expect([Number(stored.r), Number(stored.s ?? 0)]).toEqual([0, 0]);
     const detail: CertificateDetail = (await t.http.get(`/api/certificates/${certificate.id}`).set(as('northgate'))).body;
     expect(detail.results!.outcomes.summary).toBe('As found: out of tolerance at 3 of 10 settings; as left: within tolerance.');

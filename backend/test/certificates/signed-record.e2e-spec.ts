@@ -21,12 +21,16 @@ describe('the signed record (e2e, MariaDB)', () => {
   const readings = dials.flatMap((dial, i) => [0, 1, 2].map((rep) => ({ dial, frequency: dial * 1e3 + errorsHz[i]! + (rep - 1) * 0.4 })));
 
   const text = async (path: string, who: Parameters<AsDemo>[0] = 'lead'): Promise<string> => {
-    const res = await t.http.get(path).set(as(who)).buffer(true).parse((response, done) => {
-      let body = '';
-      response.setEncoding('utf8');
-      response.on('data', (c: string) => (body += c));
-      response.on('end', () => done(null, body));
-    });
+    const res = await t.http
+      .get(path)
+      .set(as(who))
+      .buffer(true)
+      .parse((response, done) => {
+        let body = '';
+        response.setEncoding('utf8');
+        response.on('data', (c: string) => (body += c));
+        response.on('end', () => done(null, body));
+      });
     expect({ path, status: res.status }).toEqual({ path, status: 200 });
     return res.body as string;
   };
@@ -58,7 +62,10 @@ describe('the signed record (e2e, MariaDB)', () => {
     standard = standards.body.items[0];
     const made = await calibratedJob('Frozen Works');
     expect((await t.http.post(`/api/jobs/${made.jobId}/submit`).set(as('tech')).send({})).status).toBe(200);
-    const sign = await t.http.post(`/api/jobs/${made.jobId}/sign`).set(as('lead')).send({ password: 'kilocycle-demo', meaning: 'reviewed and approved for issue' });
+    const sign = await t.http
+      .post(`/api/jobs/${made.jobId}/sign`)
+      .set(as('lead'))
+      .send({ password: 'kilocycle-demo', meaning: 'reviewed and approved for issue' });
     expect(sign.status).toBe(200);
     signed = { ...made, number: sign.body.number };
     open = await calibratedJob('Open Works');
@@ -71,7 +78,9 @@ describe('the signed record (e2e, MariaDB)', () => {
     const [row] = await t.dataSource.query('SELECT record FROM certificates WHERE number = ?', [signed.number]);
     const record = typeof row.record === 'string' ? JSON.parse(row.record) : row.record;
     expect(record.procedure).toMatchObject({ id: procedure.id, version: 1, decisionRule: 'guarded', driftPpm: 0.1 });
-    expect(record.standards).toEqual([expect.objectContaining({ id: standard.id, version: standard.version, timebaseAccuracyPpm: standard.timebaseAccuracyPpm })]);
+    expect(record.standards).toEqual([
+      expect.objectContaining({ id: standard.id, version: standard.version, timebaseAccuracyPpm: standard.timebaseAccuracyPpm }),
+    ]);
     expect(record.instrument).toMatchObject({ make: 'Frozen Works', ranges: [expect.objectContaining({ label: 'Band A 1000–2000 kHz' })] });
     expect(record.customer.name).toBe('Saltmarsh Restoration Works');
     const runs = await t.dataSource.query('SELECT standard_version FROM runs WHERE job_id = ?', [signed.jobId]);
@@ -97,16 +106,28 @@ describe('the signed record (e2e, MariaDB)', () => {
     expect(before.open.ranges[0]!.points[5]!.asFound!.decision).toBe(before.open.ranges[0]!.points[5]!.asFound!.decision);
 
     const edits: Array<[string, () => Promise<{ status: number }>]> = [
-      ['procedure drift allowance and decision rule', () => t.http.patch(`/api/procedures/${procedure.id}`).set(as('lead')).send({ driftPpm: 40, decisionRule: 'simple' })],
-      ['standard time-base accuracy and due date', () => t.http.patch(`/api/standards/${standard.id}`).set(as('lead')).send({ timebaseAccuracyPpm: 2, dueDate: '2031-01-31' })],
-      ['instrument make, serial and range label', async () => {
-        const instrument = (await t.http.get(`/api/instruments/${signed.instrumentId}`).set(as('admin'))).body;
-        return t.http.patch(`/api/instruments/${signed.instrumentId}`).set(as('admin')).send({
-          make: 'Renamed Works',
-          serial: 'CHANGED-1',
-          ranges: instrument.ranges.map((r: Record<string, unknown>) => ({ ...r, position: undefined, label: 'Band A (relabelled)' })),
-        });
-      }],
+      [
+        'procedure drift allowance and decision rule',
+        () => t.http.patch(`/api/procedures/${procedure.id}`).set(as('lead')).send({ driftPpm: 40, decisionRule: 'simple' }),
+      ],
+      [
+        'standard time-base accuracy and due date',
+        () => t.http.patch(`/api/standards/${standard.id}`).set(as('lead')).send({ timebaseAccuracyPpm: 2, dueDate: '2031-01-31' }),
+      ],
+      [
+        'instrument make, serial and range label',
+        async () => {
+          const instrument = (await t.http.get(`/api/instruments/${signed.instrumentId}`).set(as('admin'))).body;
+          return t.http
+            .patch(`/api/instruments/${signed.instrumentId}`)
+            .set(as('admin'))
+            .send({
+              make: 'Renamed Works',
+              serial: 'CHANGED-1',
+              ranges: instrument.ranges.map((r: Record<string, unknown>) => ({ ...r, position: undefined, label: 'Band A (relabelled)' })),
+            });
+        },
+      ],
       ['customer name', () => t.http.patch(`/api/organizations/${customerId}`).set(as('admin')).send({ name: 'Saltmarsh Works (renamed)' })],
     ];
     for (const [what, edit] of edits) {
@@ -121,10 +142,16 @@ describe('the signed record (e2e, MariaDB)', () => {
     const review = (await t.http.get(`/api/reviews/${signed.jobId}`).set(as('lead'))).body;
     expect(review.results).toEqual(before.review.results);
     expect(review.job).toEqual(before.review.job);
-    expect(review.runs.map((r: { rangeLabel: string; standardName: string; standardDueDate: string }) => [r.rangeLabel, r.standardName, r.standardDueDate]))
-      .toEqual(before.review.runs.map((r: { rangeLabel: string; standardName: string; standardDueDate: string }) => [r.rangeLabel, r.standardName, r.standardDueDate]));
+    expect(
+      review.runs.map((r: { rangeLabel: string; standardName: string; standardDueDate: string }) => [r.rangeLabel, r.standardName, r.standardDueDate]),
+    ).toEqual(
+      before.review.runs.map((r: { rangeLabel: string; standardName: string; standardDueDate: string }) => [r.rangeLabel, r.standardName, r.standardDueDate]),
+    );
     const listed = (await t.http.get(`/api/certificates?jobId=${signed.jobId}`).set(as('lead'))).body.items[0];
-    expect({ instrument: listed.instrumentLabel, customer: listed.organizationName }).toEqual({ instrument: before.listed.instrumentLabel, customer: before.listed.organizationName });
+    expect({ instrument: listed.instrumentLabel, customer: listed.organizationName }).toEqual({
+      instrument: before.listed.instrumentLabel,
+      customer: before.listed.organizationName,
+    });
     expect(listed.instrumentLabel).toContain('Frozen Works');
 
     // The open job computes with the newest versions: the rule, U and the decision at 1500 kHz all moved.

@@ -39,7 +39,12 @@ async function insertReadings(ds: DataSource, runId: number, rows: Row[]): Promi
 /** A second run on the first run's job and range. */
 async function sibling(ds: DataSource, of: { jobId: number; rangeId: number }, kind: string): Promise<number> {
   const [creator] = await ds.query("SELECT id FROM users WHERE role = 'engineer' LIMIT 1");
-  const result = await ds.query("INSERT INTO runs (job_id, range_id, kind, status, started_at, created_by) VALUES (?, ?, ?, 'closed', UTC_TIMESTAMP(3), ?)", [of.jobId, of.rangeId, kind, creator.id]);
+  const result = await ds.query("INSERT INTO runs (job_id, range_id, kind, status, started_at, created_by) VALUES (?, ?, ?, 'closed', UTC_TIMESTAMP(3), ?)", [
+    of.jobId,
+    of.rangeId,
+    kind,
+    creator.id,
+  ]);
   return Number(result.insertId);
 }
 
@@ -85,7 +90,10 @@ describe('comparisons (e2e, MariaDB)', () => {
   });
 
   it('compares two warm-ups: fits, curves aligned at power-on, and every difference a Welch interval that jstat reproduces', async () => {
-    const res = await t.http.post('/api/comparisons/compute').set(auth('engineer')).send({ runIds: [before.runId, afterId], labels });
+    const res = await t.http
+      .post('/api/comparisons/compute')
+      .set(auth('engineer'))
+      .send({ runIds: [before.runId, afterId], labels });
     expect(res.status).toBe(200);
     const result = res.body as ComparisonResult;
     expect(result).toMatchObject({ instrumentId: before.instrumentId, kind: 'warmup', confidence: 0.95, options: { withinHz: 5, windowSeconds: 600 } });
@@ -120,9 +128,13 @@ describe('comparisons (e2e, MariaDB)', () => {
     // Fit-based quantities carry ν = n − 3.
     expect(row('tau').values[0]!.df).toBe(717);
 
-    expect(row('tau').differences[1]!.sentence).toMatch(/^after: gas regulator valve: time constant τ lower by [\d.]+ s \(95 % interval [\d.]+ to [\d.]+ s lower\)$/);
+    expect(row('tau').differences[1]!.sentence).toMatch(
+      /^after: gas regulator valve: time constant τ lower by [\d.]+ s \(95 % interval [\d.]+ to [\d.]+ s lower\)$/,
+    );
     expect(row('settlingTime').name).toBe('settling time (within 5 Hz)');
-    expect(row('settledDriftRate').differences[1]!.sentence).toMatch(/^after: gas regulator valve: settled drift rate (lower|higher) by [\d.]+ Hz\/min \(95 % interval [\d.]+( Hz\/min (lower|higher))? to [\d.]+ Hz\/min (lower|higher)/);
+    expect(row('settledDriftRate').differences[1]!.sentence).toMatch(
+      /^after: gas regulator valve: settled drift rate (lower|higher) by [\d.]+ Hz\/min \(95 % interval [\d.]+( Hz\/min (lower|higher))? to [\d.]+ Hz\/min (lower|higher)/,
+    );
     expect(row('adev10s').differences[1]!.sentence).toMatch(/Allan deviation at 10 s (lower|higher|unchanged).* × 10⁻\S+/);
   });
 
@@ -130,7 +142,11 @@ describe('comparisons (e2e, MariaDB)', () => {
     const list = await t.http.get('/api/comparisons').query({ q: 'gas regulator valve' }).set(auth('engineer'));
     expect(list.body.total).toBe(1);
     const demo = list.body.items[0] as SavedComparison;
-    expect(demo).toMatchObject({ kind: 'warmup', instrumentLabel: 'Marlow & Reade CR-7 communications receiver s/n CR7-5520', labels: ['before: original unregulated HT', 'after: gas regulator valve on the oscillator HT'] });
+    expect(demo).toMatchObject({
+      kind: 'warmup',
+      instrumentLabel: 'Marlow & Reade CR-7 communications receiver s/n CR7-5520',
+      labels: ['before: original unregulated HT', 'after: gas regulator valve on the oscillator HT'],
+    });
     const res = await t.http.get(`/api/comparisons/${demo.id}/result`).set(auth('engineer'));
     expect(res.status).toBe(200);
     const result = res.body as ComparisonResult;
@@ -148,7 +164,11 @@ describe('comparisons (e2e, MariaDB)', () => {
     expect((await post({ runIds: [before.runId, afterId], labels: ['only one'] })).body.message).toContain('one label per run');
     const stability = await sibling(t.dataSource, before, 'stability');
     expect((await post({ runIds: [before.runId, stability] })).body.message).toContain('not both');
-    const other = await createRun(t.dataSource, { organizationId: await organizationId(t.dataSource, DEMO_CUSTOMERS.northgate), benchId: null, kind: 'warmup' });
+    const other = await createRun(t.dataSource, {
+      organizationId: await organizationId(t.dataSource, DEMO_CUSTOMERS.northgate),
+      benchId: null,
+      kind: 'warmup',
+    });
     expect((await post({ runIds: [before.runId, other.runId] })).body.message).toContain('one instrument');
     const calibration = await sibling(t.dataSource, before, 'as_found');
     expect((await post({ runIds: [before.runId, calibration] })).body.message).toContain('only warmup and stability runs');
@@ -159,9 +179,20 @@ describe('comparisons (e2e, MariaDB)', () => {
     const second = await sibling(t.dataSource, before, 'stability');
     const quiet = gaussian(5);
     const noisy = gaussian(6);
-    await insertReadings(t.dataSource, first, Array.from({ length: 1200 }, (_, i) => ({ t: i, f: 5e6 + 0.01 * quiet() })));
-    await insertReadings(t.dataSource, second, Array.from({ length: 1200 }, (_, i) => ({ t: i, f: 5e6 + 0.03 * noisy() })));
-    const res = await t.http.post('/api/comparisons/compute').set(auth('lead')).send({ runIds: [first, second] });
+    await insertReadings(
+      t.dataSource,
+      first,
+      Array.from({ length: 1200 }, (_, i) => ({ t: i, f: 5e6 + 0.01 * quiet() })),
+    );
+    await insertReadings(
+      t.dataSource,
+      second,
+      Array.from({ length: 1200 }, (_, i) => ({ t: i, f: 5e6 + 0.03 * noisy() })),
+    );
+    const res = await t.http
+      .post('/api/comparisons/compute')
+      .set(auth('lead'))
+      .send({ runIds: [first, second] });
     expect(res.status).toBe(200);
     const result = res.body as ComparisonResult;
     expect(result.rows.map((r) => r.quantity)).toEqual(['settledDriftRate', 'adev1s', 'adev10s', 'adev100s']);
@@ -172,7 +203,9 @@ describe('comparisons (e2e, MariaDB)', () => {
     expect(adev1.values[0]!.value).toBeGreaterThan(1.7e-9);
     expect(adev1.values[0]!.value).toBeLessThan(2.3e-9);
     expect(adev1.values[0]!.low).toBeLessThan(adev1.values[0]!.value);
-    expect(adev1.differences[1]!.sentence).toMatch(/^run \d+: Allan deviation at 1 s higher by [\d.]+ × 10⁻⁹ \(95 % interval [\d.]+ to [\d.]+ × 10⁻⁹ higher\)$/);
+    expect(adev1.differences[1]!.sentence).toMatch(
+      /^run \d+: Allan deviation at 1 s higher by [\d.]+ × 10⁻⁹ \(95 % interval [\d.]+ to [\d.]+ × 10⁻⁹ higher\)$/,
+    );
     expect(result.runs[0]!.fitProblem).toContain('not fitted');
     expect(result.runs[0]!.stability!.adev[0]!.tau).toBe(1);
   });
@@ -180,9 +213,17 @@ describe('comparisons (e2e, MariaDB)', () => {
   it('shows supply sensitivity and keying shift of the same instrument', async () => {
     const supply = await sibling(t.dataSource, before, 'supply_sensitivity');
     const noise = gaussian(9);
-    await insertReadings(t.dataSource, supply, [200, 210, 220, 230, 240, 250].flatMap((v, k) => [0, 1, 2].map((j) => ({ t: k * 30 + j, f: 7_000_000 - 1.5 * (v - 220) + 0.2 * noise(), aux: v }))));
+    await insertReadings(
+      t.dataSource,
+      supply,
+      [200, 210, 220, 230, 240, 250].flatMap((v, k) => [0, 1, 2].map((j) => ({ t: k * 30 + j, f: 7_000_000 - 1.5 * (v - 220) + 0.2 * noise(), aux: v }))),
+    );
     const keying = await sibling(t.dataSource, before, 'keying');
-    await insertReadings(t.dataSource, keying, Array.from({ length: 40 }, (_, i) => ({ t: i, f: 7_000_000 + (i % 2 === 1 ? -42 : 0) + 0.5 * noise(), aux: i % 2 })));
+    await insertReadings(
+      t.dataSource,
+      keying,
+      Array.from({ length: 40 }, (_, i) => ({ t: i, f: 7_000_000 + (i % 2 === 1 ? -42 : 0) + 0.5 * noise(), aux: i % 2 })),
+    );
     const res = await t.http.get(`/api/instruments/${before.instrumentId}/sensitivity`).set(auth('tech'));
     expect(res.status).toBe(200);
     const block = res.body as InstrumentSensitivity;
@@ -190,7 +231,10 @@ describe('comparisons (e2e, MariaDB)', () => {
     expect(block.supplySensitivity[0]).toMatchObject({ runId: supply, n: 18, problem: null });
     expect(Math.abs(block.supplySensitivity[0]!.hzPerVolt! + 1.5)).toBeLessThan(4 * block.supplySensitivity[0]!.seHzPerVolt!);
     expect(block.keying[0]!.shift!.shiftHz).toBeCloseTo(-42, 0);
-    const compared = await t.http.post('/api/comparisons/compute').set(auth('engineer')).send({ runIds: [before.runId, afterId] });
+    const compared = await t.http
+      .post('/api/comparisons/compute')
+      .set(auth('engineer'))
+      .send({ runIds: [before.runId, afterId] });
     expect((compared.body as ComparisonResult).sensitivity.keying[0]!.runId).toBe(keying);
     expect((await t.http.get(`/api/instruments/${before.instrumentId}/sensitivity`).set(auth('saltmarsh'))).status).toBe(403);
   });
@@ -202,13 +246,42 @@ describe('comparisons (e2e, MariaDB)', () => {
       .send({ title: 'CR-7 LO warm-up: regulator change', notes: 'Cold starts after 12 h off.', runIds: [before.runId, afterId], labels, windowSeconds: 300 });
     expect(created.status).toBe(201);
     const saved = created.body as SavedComparison;
-    expect(saved).toMatchObject({ instrumentId: before.instrumentId, kind: 'warmup', runIds: [before.runId, afterId], labels, windowSeconds: 300, withinHz: null, createdByName: 'Ellis Okafor' });
-    expect((await t.http.post('/api/comparisons').set(auth('tech')).send({ title: 'x', runIds: [before.runId, afterId] })).status).toBe(403);
-    expect((await t.http.post('/api/comparisons').set(auth('admin')).send({ title: 'x', runIds: [before.runId, afterId] })).status).toBe(403);
+    expect(saved).toMatchObject({
+      instrumentId: before.instrumentId,
+      kind: 'warmup',
+      runIds: [before.runId, afterId],
+      labels,
+      windowSeconds: 300,
+      withinHz: null,
+      createdByName: 'Ellis Okafor',
+    });
+    expect(
+      (
+        await t.http
+          .post('/api/comparisons')
+          .set(auth('tech'))
+          .send({ title: 'x', runIds: [before.runId, afterId] })
+      ).status,
+    ).toBe(403);
+    expect(
+      (
+        await t.http
+          .post('/api/comparisons')
+          .set(auth('admin'))
+          .send({ title: 'x', runIds: [before.runId, afterId] })
+      ).status,
+    ).toBe(403);
     for (const path of ['/api/comparisons', `/api/comparisons/${saved.id}`, `/api/comparisons/${saved.id}/result`, `/api/comparisons/${saved.id}/export.csv`]) {
       expect((await t.http.get(path).set(auth('saltmarsh'))).status).toBe(403);
     }
-    expect((await t.http.post('/api/comparisons/compute').set(auth('saltmarsh')).send({ runIds: [before.runId, afterId] })).status).toBe(403);
+    expect(
+      (
+        await t.http
+          .post('/api/comparisons/compute')
+          .set(auth('saltmarsh'))
+          .send({ runIds: [before.runId, afterId] })
+      ).status,
+    ).toBe(403);
 
     const list = await t.http.get('/api/comparisons').query({ instrumentId: before.instrumentId, q: 'regulator' }).set(auth('tech'));
     expect(list.body).toEqual({ items: [saved], total: 1 });
@@ -226,11 +299,21 @@ describe('comparisons (e2e, MariaDB)', () => {
     expect(tauAfter[13]).toMatch(/^after: gas regulator valve: time constant τ lower by/);
     expect(lines.filter((l) => l[0] === 'keying shift (key down − key up)')).toHaveLength(1);
 
-    const patched = await t.http.patch(`/api/comparisons/${saved.id}`).set(auth('lead')).send({ title: 'Regulator change', labels: ['before', 'after'], windowSeconds: null });
+    const patched = await t.http
+      .patch(`/api/comparisons/${saved.id}`)
+      .set(auth('lead'))
+      .send({ title: 'Regulator change', labels: ['before', 'after'], windowSeconds: null });
     expect(patched.status).toBe(200);
     expect(patched.body).toMatchObject({ title: 'Regulator change', labels: ['before', 'after'], windowSeconds: null });
     expect((await t.http.patch(`/api/comparisons/${saved.id}`).set(auth('tech')).send({ title: 'x' })).status).toBe(403);
-    expect((await t.http.patch(`/api/comparisons/${saved.id}`).set(auth('lead')).send({ runIds: [before.runId] })).status).toBe(400);
+    expect(
+      (
+        await t.http
+          .patch(`/api/comparisons/${saved.id}`)
+          .set(auth('lead'))
+          .send({ runIds: [before.runId] })
+      ).status,
+    ).toBe(400);
 
     expect((await t.http.delete(`/api/comparisons/${saved.id}`).set(auth('engineer'))).status).toBe(204);
     expect((await t.http.get(`/api/comparisons/${saved.id}`).set(auth('engineer'))).status).toBe(404);

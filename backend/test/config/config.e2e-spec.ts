@@ -21,7 +21,14 @@ describe('settings at start (e2e)', () => {
 
   it('should refuse to start with bad settings, listing each bad key, its value and what it must be, without a stack trace', async () => {
     if (!existsSync(MAIN)) throw new Error(`${MAIN} is missing: build first (npm run build -w common && npm run build -w backend)`);
-    const child = startNode(MAIN, [], { KC_PORT: '0', KC_JWT_TTL: '86400x', KC_RECALL_DISABLED: 'perhaps', KC_DB_PORT: '3317', KC_MODE: 'prod', KC_UNHEARD_OF: '1' });
+    const child = startNode(MAIN, [], {
+      KC_PORT: '0',
+      KC_JWT_TTL: '86400x',
+      KC_RECALL_DISABLED: 'perhaps',
+      KC_DB_PORT: '3317',
+      KC_MODE: 'prod',
+      KC_UNHEARD_OF: '1',
+    });
     let timer: NodeJS.Timeout | undefined;
     const code = await Promise.race([child.exited, new Promise<'timeout'>((resolve) => (timer = setTimeout(() => resolve('timeout'), 20_000)))]);
     clearTimeout(timer);
@@ -54,7 +61,8 @@ describe('settings at start (e2e)', () => {
     t = await createTestApp({ reset: false });
     expect(await notices(t)).toBe(0);
     // The run ends with its audit event (no actor: the timer); wait for it, then look at what it did.
-    const sent = () => t!.dataSource.query("SELECT actor_id FROM audit_events WHERE entity = 'recall' AND action = 'send'") as Promise<Array<{ actor_id: number | null }>>;
+    const sent = () =>
+      t!.dataSource.query("SELECT actor_id FROM audit_events WHERE entity = 'recall' AND action = 'send'") as Promise<Array<{ actor_id: number | null }>>;
     const until = Date.now() + 15_000;
     while ((await sent()).length === 0 && Date.now() < until) await sleep(100);
     expect(await sent()).toEqual([{ actor_id: null }]);

@@ -32,17 +32,21 @@ describe('CSV exports (e2e, MariaDB)', () => {
     await t.close();
   });
 
-  it("streams every reading of a run with the excluded flag and reason, escaped for spreadsheets", async () => {
+  it('streams every reading of a run with the excluded flag and reason, escaped for spreadsheets', async () => {
     const run = await createRun(t.dataSource, { organizationId: saltmarsh, benchId: null, kind: 'warmup' });
     const rows = Array.from({ length: 25_000 }, (_, i): [number, number | null, number] => [i * 0.5, null, 7_000_000 + i / 1000]);
     await insertReadings(run.runId, rows);
     await exclude(run.runId, 3, '=HYPERLINK("x"), counter glitch');
-    const res = await t.http.get(`/api/runs/${run.runId}/readings.csv`).set(auth('tech')).buffer(true).parse((r, cb) => {
-      let text = '';
-      r.setEncoding('utf8');
-      r.on('data', (c: string) => (text += c));
-      r.on('end', () => cb(null, text));
-    });
+    const res = await t.http
+      .get(`/api/runs/${run.runId}/readings.csv`)
+      .set(auth('tech'))
+      .buffer(true)
+      .parse((r, cb) => {
+        let text = '';
+        r.setEncoding('utf8');
+        r.on('data', (c: string) => (text += c));
+        r.on('end', () => cb(null, text));
+      });
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('text/csv; charset=utf-8');
     expect(res.headers['content-disposition']).toMatch(/^attachment; filename="T-.*-run-\d+-readings.csv"/);
@@ -59,7 +63,11 @@ describe('CSV exports (e2e, MariaDB)', () => {
   it('writes each number as entered, without the float noise of unit arithmetic', async () => {
     const run = await createRun(t.dataSource, { organizationId: saltmarsh, benchId: null, kind: 'as_found' });
     // "1820.7497 kHz" in hertz is 1820749.7000000002 as a double; 0.1 + 0.2 s is 0.30000000000000004.
-    await insertReadings(run.runId, [[0.1 + 0.2, 1820.7, 1820.7497 * 1000], [12.5, 1850, 1_850_003.125], [60, 1900.05, 1_900_049.999_999]]);
+    await insertReadings(run.runId, [
+      [0.1 + 0.2, 1820.7, 1820.7497 * 1000],
+      [12.5, 1850, 1_850_003.125],
+      [60, 1900.05, 1_900_049.999_999],
+    ]);
     const res = await t.http.get(`/api/runs/${run.runId}/readings.csv`).set(auth('tech'));
     expect(res.status).toBe(200);
     const lines = parse(res.text);
@@ -73,14 +81,22 @@ describe('CSV exports (e2e, MariaDB)', () => {
 
   it('an exported file imports again into another run as it was', async () => {
     const source = await createRun(t.dataSource, { organizationId: saltmarsh, benchId: null, kind: 'warmup' });
-    await insertReadings(source.runId, [[0, 7000, 7_000_010.25], [10, 7000, 7_000_005.5], [20, 7000, 7_000_003.125]]);
+    await insertReadings(source.runId, [
+      [0, 7000, 7_000_010.25],
+      [10, 7000, 7_000_005.5],
+      [20, 7000, 7_000_003.125],
+    ]);
     const exported = await t.http.get(`/api/runs/${source.runId}/readings.csv`).set(auth('tech'));
     const target = await createRun(t.dataSource, { organizationId: saltmarsh, benchId: null, kind: 'warmup' });
     const imported = await t.http.post(`/api/runs/${target.runId}/imports`).set(auth('tech')).attach('file', Buffer.from(exported.text), 'export.csv');
     expect(imported.status).toBe(201);
     expect(imported.body).toMatchObject({ imported: 3, columns: { time: 't_s', dial: 'dial', frequency: 'frequency_hz', aux: 'aux', unit: null } });
     const back = await t.dataSource.query('SELECT t_s, dial, frequency_hz FROM readings WHERE run_id = ? ORDER BY seq', [target.runId]);
-    expect(back.map((r: Record<string, number>) => [Number(r.t_s), Number(r.dial), Number(r.frequency_hz)])).toEqual([[0, 7000, 7_000_010.25], [10, 7000, 7_000_005.5], [20, 7000, 7_000_003.125]]);
+    expect(back.map((r: Record<string, number>) => [Number(r.t_s), Number(r.dial), Number(r.frequency_hz)])).toEqual([
+      [0, 7000, 7_000_010.25],
+      [10, 7000, 7_000_005.5],
+      [20, 7000, 7_000_003.125],
+    ]);
   });
 
   it("gives a client its own organisation's exports and answers 404 for another's", async () => {
@@ -98,7 +114,13 @@ describe('CSV exports (e2e, MariaDB)', () => {
 
   it("lists a job's results per calibration run and dial setting: nominal, mean, n, errors and tolerance", async () => {
     const run = await createRun(t.dataSource, { organizationId: saltmarsh, benchId: null, kind: 'as_found' });
-    await insertReadings(run.runId, [[0, 4000, 4_000_400], [60, 4000, 4_000_600], [120, 7000, 7_001_000], [180, 7000, 7_001_100], [240, 7000, 9_999_999]]);
+    await insertReadings(run.runId, [
+      [0, 4000, 4_000_400],
+      [60, 4000, 4_000_600],
+      [120, 7000, 7_001_000],
+      [180, 7000, 7_001_100],
+      [240, 7000, 9_999_999],
+    ]);
     await exclude(run.runId, 5, 'wrong range');
     const res = await t.http.get(`/api/jobs/${run.jobId}/results.csv`).set(auth('tech'));
     expect(res.status).toBe(200);
@@ -106,7 +128,20 @@ describe('CSV exports (e2e, MariaDB)', () => {
     expect(header).toEqual([...RESULTS_CSV_COLUMNS]);
     const named = rows.map((row) => Object.fromEntries(header!.map((h, i) => [h, row[i]])));
     expect(named).toHaveLength(2);
-    expect(named[0]).toMatchObject({ run_id: String(run.runId), run_kind: 'as_found', range: 'Band A', dial: '4000', dial_unit: 'kHz', nominal_hz: '4000000', measured_mean_hz: '4000500', n: '2', error_hz: '500', tolerance_hz: '20000', outlier: 'false', note: '' });
+    expect(named[0]).toMatchObject({
+      run_id: String(run.runId),
+      run_kind: 'as_found',
+      range: 'Band A',
+      dial: '4000',
+      dial_unit: 'kHz',
+      nominal_hz: '4000000',
+      measured_mean_hz: '4000500',
+      n: '2',
+      error_hz: '500',
+      tolerance_hz: '20000',
+      outlier: 'false',
+      note: '',
+    });
     expect(Number(named[0]!.error_ppm)).toBeCloseTo(125, 9);
     expect(Number(named[0]!.error_percent)).toBeCloseTo(0.0125, 12);
     expect(Number(named[0]!.sd_hz)).toBeCloseTo(Math.sqrt(20_000), 9);

@@ -42,7 +42,30 @@ const BAD_QUERY = ['1e20', '-1', '0', '0x10', 'NaN', '', '1.5', 'null', '9'.repe
 /** Any JSON value, some of them awkward: nulls, huge strings, extreme numbers, deep-ish nests. */
 const noise: fc.Arbitrary<unknown> = fc.oneof(
   { weight: 4, arbitrary: fc.jsonValue({ maxDepth: 3 }) },
-  { weight: 2, arbitrary: fc.constantFrom<unknown>(null, '', ' ', '\u0000', -1, 0, -0, 1e308, -1e308, 2 ** 53 + 1, 2147483648, '0x10', '1e20', true, false, [], {}, [null], { '': null }) },
+  {
+    weight: 2,
+    arbitrary: fc.constantFrom<unknown>(
+      null,
+      '',
+      ' ',
+      '\u0000',
+      -1,
+      0,
+      -0,
+      1e308,
+      -1e308,
+      2 ** 53 + 1,
+      2147483648,
+      '0x10',
+      '1e20',
+      true,
+      false,
+      [],
+      {},
+      [null],
+      { '': null },
+    ),
+  },
   { weight: 1, arbitrary: fc.constant(HUGE) },
   { weight: 2, arbitrary: fc.string({ unit: 'binary', maxLength: 40 }) },
 );
@@ -55,7 +78,9 @@ const nested = (depth: number, kind: 'array' | 'object') =>
 
 function fieldsArb(fields: BodyField[]): fc.Arbitrary<Record<string, unknown>> {
   if (fields.length === 0) return fc.constant({});
-  return fc.subarray(fields).chain((chosen) => fc.tuple(...chosen.map(() => noise)).map((values) => Object.fromEntries(chosen.map((f, i) => [f.name, values[i]]))));
+  return fc
+    .subarray(fields)
+    .chain((chosen) => fc.tuple(...chosen.map(() => noise)).map((values) => Object.fromEntries(chosen.map((f, i) => [f.name, values[i]]))));
 }
 
 const json = (value: unknown) => Buffer.from(JSON.stringify(value), 'utf8');
@@ -97,11 +122,16 @@ function bodyArb(route: WriteRoute): fc.Arbitrary<{ body: Buffer; contentType: s
       contentType: 'application/json',
       fault: `${field.name} of the wrong type`,
     })),
-    fc.tuple(fieldsArb(fields), fc.jsonValue({ maxDepth: 2 }).filter((v) => v === null || typeof v !== 'object' || Array.isArray(v))).map(([, top]) => ({
-      body: json(Array.isArray(top) ? top : [top]),
-      contentType: 'application/json',
-      fault: 'a body that is an array, not an object',
-    })),
+    fc
+      .tuple(
+        fieldsArb(fields),
+        fc.jsonValue({ maxDepth: 2 }).filter((v) => v === null || typeof v !== 'object' || Array.isArray(v)),
+      )
+      .map(([, top]) => ({
+        body: json(Array.isArray(top) ? top : [top]),
+        contentType: 'application/json',
+        fault: 'a body that is an array, not an object',
+      })),
     fc.tuple(fieldsArb(fields), fc.string({ minLength: 1, maxLength: 12 })).map(([value, key]) => ({
       body: Buffer.from(new URLSearchParams({ ...Object.fromEntries(Object.entries(value).map(([k, v]) => [k, String(v)])), [`zz_${key}`]: 'x' }).toString()),
       contentType: 'application/x-www-form-urlencoded',
@@ -153,7 +183,9 @@ describe('fuzzing every write route with bad requests (e2e, MariaDB)', () => {
     // Common practice, no published source: a lab system of this size has dozens of write routes; a
     // handful would mean the route discovery broke, not that the API shrank.
     expect(routes.length).toBeGreaterThanOrEqual(30);
-    expect(routes.map((r) => `${r.method} ${r.path}`)).toEqual(expect.arrayContaining(['POST /api/auth/login', 'PATCH /api/users/:id', 'PATCH /api/settings', 'POST /api/comparisons/compute']));
+    expect(routes.map((r) => `${r.method} ${r.path}`)).toEqual(
+      expect.arrayContaining(['POST /api/auth/login', 'PATCH /api/users/:id', 'PATCH /api/settings', 'POST /api/comparisons/compute']),
+    );
   });
 
   it(`at least ${MIN_REQUESTS} bad requests across them: no 5xx, each within 2 s, no row added or removed`, async () => {
@@ -185,7 +217,8 @@ describe('fuzzing every write route with bad requests (e2e, MariaDB)', () => {
         { seed, numRuns: perRoute, endOnFailure: true },
       );
       // The first failing request of the route, as sent; KC_FUZZ_SEED=<SEED> replays the whole run.
-      if (details.failed) failures.push(`seed ${seed}: ${details.errorInstance instanceof Error ? details.errorInstance.message : String(details.errorInstance)}`);
+      if (details.failed)
+        failures.push(`seed ${seed}: ${details.errorInstance instanceof Error ? details.errorInstance.message : String(details.errorInstance)}`);
     }
     expect(failures).toEqual([]);
     expect(sent).toBeGreaterThanOrEqual(MIN_REQUESTS);

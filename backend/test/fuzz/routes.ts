@@ -37,7 +37,10 @@ const WRITE: Partial<Record<RequestMethod, WriteMethod>> = {
 };
 
 function joinPath(...parts: (string | string[] | undefined)[]): string {
-  const segments = parts.flatMap((p) => (Array.isArray(p) ? p[0] : p) ?? '').flatMap((p) => p.split('/')).filter(Boolean);
+  const segments = parts
+    .flatMap((p) => (Array.isArray(p) ? p[0] : p) ?? '')
+    .flatMap((p) => p.split('/'))
+    .filter(Boolean);
   return `/${segments.join('/')}`;
 }
 

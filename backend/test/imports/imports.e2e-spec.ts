@@ -32,7 +32,9 @@ describe('CSV import (e2e, MariaDB)', () => {
   const upload = (who: keyof typeof DEMO, runId: number, file: Buffer, name: string, query: Record<string, string> = {}) =>
     t.http.post(`/api/runs/${runId}/imports`).query(query).set(auth(who)).attach('file', file, { filename: name, contentType: 'text/csv' });
   const readings = (runId: number) =>
-    t.dataSource.query('SELECT seq, t_s, dial, frequency_hz, source FROM readings WHERE run_id = ? ORDER BY seq', [runId]) as Promise<Array<Record<string, number | string>>>;
+    t.dataSource.query('SELECT seq, t_s, dial, frequency_hz, source FROM readings WHERE run_id = ? ORDER BY seq', [runId]) as Promise<
+      Array<Record<string, number | string>>
+    >;
   type RunOptions = Parameters<typeof createRun>[1];
   const newRun = (kind: RunOptions['kind'] = 'warmup', extra: Partial<RunOptions> = {}): Promise<RunFixture> =>
     createRun(t.dataSource, { organizationId: org, benchId: null, kind, ...extra });
@@ -54,7 +56,11 @@ describe('CSV import (e2e, MariaDB)', () => {
     expect(body.message).toContain('3 rows are not valid: nothing was imported');
     expect(body.imported).toBe(0);
     expect(body.rejectedCount).toBe(3);
-    expect(body.rejected.map((r) => [r.line, r.column])).toEqual([[5, 'Counter'], [8, 'Dial setting'], [10, 'Elapsed (s)']]);
+    expect(body.rejected.map((r) => [r.line, r.column])).toEqual([
+      [5, 'Counter'],
+      [8, 'Dial setting'],
+      [10, 'Elapsed (s)'],
+    ]);
     expect(body.rejected[0]!.reason).toContain("'abc'");
     expect(body.rejected[1]!.reason).toContain('outside the range');
     expect(body.rowCount).toBe(9);
@@ -77,10 +83,12 @@ describe('CSV import (e2e, MariaDB)', () => {
     expect(new Set(stored.map((r) => r.source))).toEqual(new Set(['import']));
     const [{ notes }] = await t.dataSource.query('SELECT notes FROM runs WHERE id = ?', [run.runId]);
     expect(notes).toMatch(/^Cold start\.\n\nImport of "bench log.csv" on .* by Tomas Reyes: 6 readings imported, 3 rows skipped:/);
-    expect(notes).toContain("- line 5, Counter: ");
+    expect(notes).toContain('- line 5, Counter: ');
     expect(notes).toContain('- line 8, Dial setting: ');
     expect(notes).toContain('- line 10, Elapsed (s): ');
-    const [audit] = await t.dataSource.query("SELECT changes FROM audit_events WHERE entity = 'run' AND entity_id = ? AND action = 'import'", [String(run.runId)]);
+    const [audit] = await t.dataSource.query("SELECT changes FROM audit_events WHERE entity = 'run' AND entity_id = ? AND action = 'import'", [
+      String(run.runId),
+    ]);
     expect(typeof audit.changes === 'string' ? JSON.parse(audit.changes) : audit.changes).toMatchObject({ mode: 'valid', imported: 6, skipped: 3 });
   });
 
@@ -100,7 +108,11 @@ describe('CSV import (e2e, MariaDB)', () => {
       .attach('file', tsv, { filename: 'log.tsv', contentType: 'text/tab-separated-values' });
     expect(mapped.status).toBe(201);
     expect(mapped.body).toMatchObject({ imported: 3, delimiter: '\t', columns: { time: 'A', frequency: 'B', unit: 'C', dial: null } });
-    expect((await readings(tsvRun.runId)).map((r) => [Number(r.t_s), Number(r.frequency_hz)])).toEqual([[0, 7_001_250], [60, 7_001_500], [3600, 7_002_000]]);
+    expect((await readings(tsvRun.runId)).map((r) => [Number(r.t_s), Number(r.frequency_hz)])).toEqual([
+      [0, 7_001_250],
+      [60, 7_001_500],
+      [3600, 7_002_000],
+    ]);
   });
 
   it('counts lines right after a quoted cell that holds a line break, and reads semicolon files with comma decimals', async () => {
@@ -177,10 +189,23 @@ describe('CSV import (e2e, MariaDB)', () => {
     expect(res.body.importId).toBe(importId);
     const progress = await t.http.get(`/api/imports/${importId}/progress`).set(auth('tech'));
     expect(progress.status).toBe(200);
-    expect(progress.body as ImportProgress).toMatchObject({ importId, runId: run.runId, phase: 'done', fraction: 1, rowsDone: 9, rowsRejected: 3, imported: 6, bytesTotal: MIXED.length, bytesDone: MIXED.length });
+    expect(progress.body as ImportProgress).toMatchObject({
+      importId,
+      runId: run.runId,
+      phase: 'done',
+      fraction: 1,
+      rowsDone: 9,
+      rowsRejected: 3,
+      imported: 6,
+      bytesTotal: MIXED.length,
+      bytesDone: MIXED.length,
+    });
     expect((await t.http.get(`/api/imports/${importId}/progress`).set(auth('engineer'))).status).toBe(404);
     const failed = await upload('tech', run.runId, PNG, 'x.csv', { importId: 'page-upload-0002' });
     expect(failed.status).toBe(415);
-    expect((await t.http.get('/api/imports/page-upload-0002/progress').set(auth('tech'))).body).toMatchObject({ phase: 'failed', message: expect.stringContaining('PNG') });
+    expect((await t.http.get('/api/imports/page-upload-0002/progress').set(auth('tech'))).body).toMatchObject({
+      phase: 'failed',
+      message: expect.stringContaining('PNG'),
+    });
   });
 });

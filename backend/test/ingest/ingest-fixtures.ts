@@ -38,15 +38,22 @@ export async function createRun(
      VALUES (?, 1, 'Band A', 'kHz', ?, 3500, 7500, 3500000, 7500000, ?, '[1]')`,
     [instrument.insertId, JSON.stringify({ kind: 'direct', unit: 'kHz' }), JSON.stringify({ kind: 'percent', percent: 0.5 })],
   );
-  const job = await ds.query(
-    "INSERT INTO jobs (number, instrument_id, organization_id, status, received_date) VALUES (?, ?, ?, ?, CURRENT_DATE())",
-    [`T-${tag}`, instrument.insertId, options.organizationId, options.jobStatus ?? 'in_progress'],
-  );
+  const job = await ds.query('INSERT INTO jobs (number, instrument_id, organization_id, status, received_date) VALUES (?, ?, ?, ?, CURRENT_DATE())', [
+    `T-${tag}`,
+    instrument.insertId,
+    options.organizationId,
+    options.jobStatus ?? 'in_progress',
+  ]);
   const [creator] = await ds.query("SELECT id FROM users WHERE role = 'technician' LIMIT 1");
-  const run = await ds.query(
-    'INSERT INTO runs (job_id, range_id, kind, status, bench_id, started_at, created_by) VALUES (?, ?, ?, ?, ?, ?, ?)',
-    [job.insertId, range.insertId, options.kind ?? 'warmup', options.status ?? 'open', options.benchId, options.startedAt ?? new Date(), creator.id],
-  );
+  const run = await ds.query('INSERT INTO runs (job_id, range_id, kind, status, bench_id, started_at, created_by) VALUES (?, ?, ?, ?, ?, ?, ?)', [
+    job.insertId,
+    range.insertId,
+    options.kind ?? 'warmup',
+    options.status ?? 'open',
+    options.benchId,
+    options.startedAt ?? new Date(),
+    creator.id,
+  ]);
   return { runId: Number(run.insertId), jobId: Number(job.insertId), rangeId: Number(range.insertId), organizationId: options.organizationId };
 }
 

@@ -42,7 +42,10 @@ describe('/ingest namespace (e2e, MariaDB)', () => {
 
   describe('handshake', () => {
     it('should refuse a connection without a token, naming what to send', async () => {
-      await expect(connect(url, NAMESPACES.ingest, undefined, sockets)).rejects.toMatchObject({ message: expect.stringContaining('no bench token'), data: { code: 'no_token' } });
+      await expect(connect(url, NAMESPACES.ingest, undefined, sockets)).rejects.toMatchObject({
+        message: expect.stringContaining('no bench token'),
+        data: { code: 'no_token' },
+      });
     });
 
     it('should refuse a wrong token with a reason', async () => {
@@ -63,7 +66,14 @@ describe('/ingest namespace (e2e, MariaDB)', () => {
     it('should answer the run, its last seq and its range', async () => {
       const socket = await connect(url, NAMESPACES.ingest, bench.token, sockets);
       const ack = await request<AttachReply>(socket, INGEST_EVENTS.attach, { runId: run.runId });
-      expect(ack).toMatchObject({ ok: true, runId: run.runId, lastSeq: 0, kind: 'warmup', benchId: bench.benchId, range: { dialUnit: 'kHz', dialMin: 3500, dialMax: 7500 } });
+      expect(ack).toMatchObject({
+        ok: true,
+        runId: run.runId,
+        lastSeq: 0,
+        kind: 'warmup',
+        benchId: bench.benchId,
+        range: { dialUnit: 'kHz', dialMin: 3500, dialMax: 7500 },
+      });
     });
 
     it("should refuse someone else's run with a reason and an error event, and store nothing", async () => {
@@ -81,8 +91,16 @@ describe('/ingest namespace (e2e, MariaDB)', () => {
       const closed = await createRun(t.dataSource, { organizationId: saltmarsh, benchId: bench.benchId, status: 'closed' });
       const review = await createRun(t.dataSource, { organizationId: saltmarsh, benchId: bench.benchId, jobStatus: 'in_review' });
       const socket = await connect(url, NAMESPACES.ingest, bench.token, sockets);
-      expect(await request(socket, INGEST_EVENTS.attach, { runId: closed.runId })).toEqual({ ok: false, code: 'run_closed', error: expect.stringContaining('closed') });
-      expect(await request(socket, INGEST_EVENTS.attach, { runId: review.runId })).toEqual({ ok: false, code: 'job_locked', error: expect.stringContaining('in review') });
+      expect(await request(socket, INGEST_EVENTS.attach, { runId: closed.runId })).toEqual({
+        ok: false,
+        code: 'run_closed',
+        error: expect.stringContaining('closed'),
+      });
+      expect(await request(socket, INGEST_EVENTS.attach, { runId: review.runId })).toEqual({
+        ok: false,
+        code: 'job_locked',
+        error: expect.stringContaining('in review'),
+      });
       expect(await request(socket, INGEST_EVENTS.attach, { runId: 999999 })).toEqual({ ok: false, code: 'run_not_found', error: 'there is no run 999999' });
       expect(await request(socket, INGEST_EVENTS.attach, { runId: 'seven' })).toMatchObject({ ok: false, code: 'bad_request' });
     });
@@ -108,9 +126,15 @@ describe('/ingest namespace (e2e, MariaDB)', () => {
       expect(again).toMatchObject({ ok: true, accepted: 10, duplicates: 10, lastSeq: 110 });
       expect(again.ok && again.duplicateSeqs).toEqual(readings(91, 10).map((r) => r.seq));
       // A different reading under a stored seq is a conflict, not a duplicate: the sender renumbers it.
-      const clash = await send(socket, { runId: fresh.runId, readings: [{ seq: 5, t: 5, frequency: 7_100_000 }, { seq: 6, t: 6, frequency: 7_000_006 }] });
+      const clash = await send(socket, {
+        runId: fresh.runId,
+        readings: [
+          { seq: 5, t: 5, frequency: 7_100_000 },
+          { seq: 6, t: 6, frequency: 7_000_006 },
+        ],
+      });
       expect(clash).toMatchObject({ ok: true, accepted: 0, duplicates: 1, duplicateSeqs: [6], conflictSeqs: [5] });
-      const [row] = await t.dataSource.query("SELECT COUNT(*) AS n, COUNT(DISTINCT seq) AS d, MIN(source) AS s FROM readings WHERE run_id = ?", [fresh.runId]);
+      const [row] = await t.dataSource.query('SELECT COUNT(*) AS n, COUNT(DISTINCT seq) AS d, MIN(source) AS s FROM readings WHERE run_id = ?', [fresh.runId]);
       expect({ n: Number(row.n), d: Number(row.d), s: row.s }).toEqual({ n: 110, d: 110, s: 'bridge' });
       // A new connection continues after the last seq.
       const second = await connect(url, NAMESPACES.ingest, bench.token, sockets);
@@ -127,10 +151,18 @@ describe('/ingest namespace (e2e, MariaDB)', () => {
 
     it('should answer malformed payloads with a reason and keep the connection', async () => {
       const socket = await attached();
-      expect(await send(socket, '{"runId": 1, "readings": [')).toMatchObject({ ok: false, code: 'bad_request', error: expect.stringContaining('not valid JSON') });
+      expect(await send(socket, '{"runId": 1, "readings": [')).toMatchObject({
+        ok: false,
+        code: 'bad_request',
+        error: expect.stringContaining('not valid JSON'),
+      });
       expect(await send(socket, 42)).toMatchObject({ ok: false, code: 'bad_request', error: expect.stringContaining('must be an object') });
       expect(await send(socket, null)).toMatchObject({ ok: false, code: 'bad_request' });
-      expect(await send(socket, { runId: run.runId, readings: 'lots' })).toMatchObject({ ok: false, code: 'bad_request', error: expect.stringContaining('readings must be a list') });
+      expect(await send(socket, { runId: run.runId, readings: 'lots' })).toMatchObject({
+        ok: false,
+        code: 'bad_request',
+        error: expect.stringContaining('readings must be a list'),
+      });
       expect(await send(socket, { readings: [] })).toMatchObject({ ok: false, code: 'bad_request', error: expect.stringContaining('runId') });
       expect(socket.connected).toBe(true);
       expect(await readingCount(t.dataSource, run.runId)).toBe(0);
@@ -178,15 +210,35 @@ describe('/ingest namespace (e2e, MariaDB)', () => {
       if (!ack.ok) throw new Error(ack.error);
       expect(ack.accepted).toBe(0);
       expect(ack.rejected.map((r) => [r.index, r.field])).toEqual([
-        [0, 'frequency'], [1, 'frequency'], [2, 'frequency'], [3, 'frequency'], [4, 'frequency'], [5, 'frequency'], [6, 'frequency'],
-        [7, 't'], [8, 't'], [9, 'dial'], [10, 'seq'], [11, 'seq'], [12, 'seq'], [13, 'aux'], [14, 'reading'],
+        [0, 'frequency'],
+        [1, 'frequency'],
+        [2, 'frequency'],
+        [3, 'frequency'],
+        [4, 'frequency'],
+        [5, 'frequency'],
+        [6, 'frequency'],
+        [7, 't'],
+        [8, 't'],
+        [9, 'dial'],
+        [10, 'seq'],
+        [11, 'seq'],
+        [12, 'seq'],
+        [13, 'aux'],
+        [14, 'reading'],
       ]);
       for (const r of ack.rejected) expect(r.reason.length).toBeGreaterThan(10);
       expect(ack.rejected[2].reason).toMatch(/negative/i);
       expect(ack.rejected[3].reason).toMatch(/limit/);
       expect(await readingCount(t.dataSource, run.runId)).toBe(0);
       // Good readings in a batch with bad ones are stored; the bad ones are each named.
-      const mixed = await send(socket, { runId: run.runId, readings: [{ seq: 1, frequency: 7e6 }, { seq: 2, frequency: -1 }, { seq: 3, frequency: '7.000 001 MHz' }] });
+      const mixed = await send(socket, {
+        runId: run.runId,
+        readings: [
+          { seq: 1, frequency: 7e6 },
+          { seq: 2, frequency: -1 },
+          { seq: 3, frequency: '7.000 001 MHz' },
+        ],
+      });
       expect(mixed).toMatchObject({ ok: true, accepted: 2, duplicates: 0, rejected: [{ seq: 2, index: 1, field: 'frequency' }], lastSeq: 3 });
     });
 
@@ -196,16 +248,20 @@ describe('/ingest namespace (e2e, MariaDB)', () => {
     });
 
     it('should serve many benches at once, each its own run', async () => {
-      const runs = await Promise.all(Array.from({ length: 5 }, async () => {
-        const b = await createBench(t.dataSource);
-        return { b, r: await createRun(t.dataSource, { organizationId: saltmarsh, benchId: b.benchId }) };
-      }));
-      const acks = await Promise.all(runs.map(async ({ b, r }) => {
-        const socket = await attached(b.token, r.runId);
-        const results = [];
-        for (let k = 0; k < 5; k++) results.push(await send(socket, { runId: r.runId, readings: readings(1 + k * 200, 200) }));
-        return results;
-      }));
+      const runs = await Promise.all(
+        Array.from({ length: 5 }, async () => {
+          const b = await createBench(t.dataSource);
+          return { b, r: await createRun(t.dataSource, { organizationId: saltmarsh, benchId: b.benchId }) };
+        }),
+      );
+      const acks = await Promise.all(
+        runs.map(async ({ b, r }) => {
+          const socket = await attached(b.token, r.runId);
+          const results = [];
+          for (let k = 0; k < 5; k++) results.push(await send(socket, { runId: r.runId, readings: readings(1 + k * 200, 200) }));
+          return results;
+        }),
+      );
       for (const list of acks) expect(list.every((a) => a.ok && a.accepted === 200)).toBe(true);
       for (const { r } of runs) expect(await readingCount(t.dataSource, r.runId)).toBe(1000);
     });
@@ -223,7 +279,14 @@ describe('/ingest namespace (e2e, MariaDB)', () => {
       const later = await connect(url, NAMESPACES.ingest, bench.token, sockets);
       expect(await request<AttachReply>(later, INGEST_EVENTS.attach, { runId: fresh.runId })).toMatchObject({ ok: true, lastSeq: 0 });
       expect(await send(later, { runId: fresh.runId, readings: readings(1, 5) })).toEqual({
-        ok: true, runId: fresh.runId, accepted: 5, duplicates: 0, rejected: [], lastSeq: 5, duplicateSeqs: [], conflictSeqs: [],
+        ok: true,
+        runId: fresh.runId,
+        accepted: 5,
+        duplicates: 0,
+        rejected: [],
+        lastSeq: 5,
+        duplicateSeqs: [],
+        conflictSeqs: [],
       });
       const third = await connect(url, NAMESPACES.ingest, bench.token, sockets);
       expect(await request<AttachReply>(third, INGEST_EVENTS.attach, { runId: fresh.runId })).toMatchObject({ ok: true, lastSeq: 5 });
@@ -236,7 +299,10 @@ describe('/ingest namespace (e2e, MariaDB)', () => {
       socket.on(INGEST_EVENTS.refused, (e: RefusedEvent) => events.push(e));
       // What mysql2 says when the database is unreachable mid-batch.
       const failure = Object.assign(new Error('connect ECONNREFUSED 127.0.0.1:3317 while running INSERT IGNORE INTO readings (run_id, seq) VALUES (1, 2)'), {
-        code: 'ECONNREFUSED', errno: -111, address: '127.0.0.1', port: 3317,
+        code: 'ECONNREFUSED',
+        errno: -111,
+        address: '127.0.0.1',
+        port: 3317,
       });
       const writer = t.app.get(ReadingsWriter);
       const spy = jest.spyOn(writer, 'append').mockRejectedValueOnce(failure);

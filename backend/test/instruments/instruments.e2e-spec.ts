@@ -20,7 +20,10 @@ describe('instruments and ranges (e2e, MariaDB)', () => {
   describe('GET /api/instruments', () => {
     it('should page and sort server-side', async () => {
       const [{ n }] = await t.dataSource.query('SELECT COUNT(*) AS n FROM instruments');
-      const serials = (await t.dataSource.query('SELECT serial FROM instruments')).map((r: { serial: string }) => r.serial).sort().reverse();
+      const serials = (await t.dataSource.query('SELECT serial FROM instruments'))
+        .map((r: { serial: string }) => r.serial)
+        .sort()
+        .reverse();
       const first = await t.http.get('/api/instruments?page=1&pageSize=2&sort=-serial').set(as('tech'));
       expect(first.status).toBe(200);
       expect(first.body.total).toBe(Number(n));
@@ -45,7 +48,13 @@ describe('instruments and ranges (e2e, MariaDB)', () => {
     it('should carry each instrument’s ranges in position order', async () => {
       const generator = await bySerial('N-1041');
       expect(generator.ranges.map((r) => r.position)).toEqual([1, 2, 3, 4]);
-      expect(generator.ranges[0]).toMatchObject({ dialUnit: 'kHz', dialMin: 1750, dialMax: 2000, multipliers: [1, 2, 4], tolerance: { kind: 'percent', percent: 0.5 } });
+      expect(generator.ranges[0]).toMatchObject({
+        dialUnit: 'kHz',
+        dialMin: 1750,
+        dialMax: 2000,
+        multipliers: [1, 2, 4],
+        tolerance: { kind: 'percent', percent: 0.5 },
+      });
     });
 
     it('should show a client only its own organisation’s instruments', async () => {
@@ -86,13 +95,22 @@ describe('instruments and ranges (e2e, MariaDB)', () => {
     });
 
     it('should answer 400 naming the field for missing and malformed fields', async () => {
-      const missing = await t.http.post('/api/instruments').set(as('tech')).send({ ...body(), make: '', nextDueDate: 'soon' });
+      const missing = await t.http
+        .post('/api/instruments')
+        .set(as('tech'))
+        .send({ ...body(), make: '', nextDueDate: 'soon' });
       expect(missing.status).toBe(400);
       expect(missing.body.message).toEqual(expect.arrayContaining(['make must not be empty', 'nextDueDate must be a date (YYYY-MM-DD)']));
       const badRange = await t.http
         .post('/api/instruments')
         .set(as('tech'))
-        .send({ ...body(), ranges: [{ ...khzRange('Coil 1', 4000, 1700), freqMinHz: 4e6, freqMaxHz: 1.7e6 }, { ...khzRange('Coil 2', 1, 2), dialLaw: { kind: 'spiral' } }] });
+        .send({
+          ...body(),
+          ranges: [
+            { ...khzRange('Coil 1', 4000, 1700), freqMinHz: 4e6, freqMaxHz: 1.7e6 },
+            { ...khzRange('Coil 2', 1, 2), dialLaw: { kind: 'spiral' } },
+          ],
+        });
       expect(badRange.status).toBe(400);
       expect(badRange.body.message).toEqual(
         expect.arrayContaining([
@@ -101,18 +119,33 @@ describe('instruments and ranges (e2e, MariaDB)', () => {
           "ranges[1].dialLaw.kind: must be 'direct' or 'table'",
         ]),
       );
-      const nested = await t.http.post('/api/instruments').set(as('tech')).send({ ...body(), ranges: [{ ...khzRange('Coil 1', 1, 2), multipliers: [0] }] });
+      const nested = await t.http
+        .post('/api/instruments')
+        .set(as('tech'))
+        .send({ ...body(), ranges: [{ ...khzRange('Coil 1', 1, 2), multipliers: [0] }] });
       expect(nested.status).toBe(400);
       expect(nested.body.message.join(' ')).toContain('multipliers must be 1 or more');
-      const mismatched = await t.http.post('/api/instruments').set(as('tech')).send({ ...body(), ranges: [{ ...khzRange('Coil 1', 1, 2), dialLaw: { kind: 'direct', unit: 'MHz' } }] });
+      const mismatched = await t.http
+        .post('/api/instruments')
+        .set(as('tech'))
+        .send({ ...body(), ranges: [{ ...khzRange('Coil 1', 1, 2), dialLaw: { kind: 'direct', unit: 'MHz' } }] });
       expect(mismatched.body.message).toEqual([expect.stringContaining('ranges[0].dialLaw.unit: a direct-reading dial reads in its own unit')]);
     });
 
     it('should create an instrument with its ranges in one go, audit it, and refuse the same make, model and serial twice', async () => {
       const res = await t.http.post('/api/instruments').set(as('tech')).send(body());
       expect(res.status).toBe(201);
-      expect(res.body).toMatchObject({ make: 'Pellow', serial: 'P-330', organizationName: 'Northgate Radio Club', nextDueDate: '2026-04-30', recallIntervalMonths: 12 });
-      expect(res.body.ranges.map((r: { label: string; position: number }) => [r.position, r.label])).toEqual([[1, 'Coil 1'], [2, 'Coil 2']]);
+      expect(res.body).toMatchObject({
+        make: 'Pellow',
+        serial: 'P-330',
+        organizationName: 'Northgate Radio Club',
+        nextDueDate: '2026-04-30',
+        recallIntervalMonths: 12,
+      });
+      expect(res.body.ranges.map((r: { label: string; position: number }) => [r.position, r.label])).toEqual([
+        [1, 'Coil 1'],
+        [2, 'Coil 2'],
+      ]);
       const rows = await t.dataSource.query('SELECT COUNT(*) AS n FROM instrument_ranges WHERE instrument_id = ?', [res.body.id]);
       expect(Number(rows[0].n)).toBe(2);
       const [audit] = await t.dataSource.query("SELECT action, changes FROM audit_events WHERE entity = 'instrument' AND entity_id = ?", [String(res.body.id)]);
@@ -123,7 +156,12 @@ describe('instruments and ranges (e2e, MariaDB)', () => {
     });
 
     it('should replace the ranges in one transaction: keep, change, add and remove', async () => {
-      const created = (await t.http.post('/api/instruments').set(as('tech')).send({ ...body(), serial: 'P-331' })).body as InstrumentBody;
+      const created = (
+        await t.http
+          .post('/api/instruments')
+          .set(as('tech'))
+          .send({ ...body(), serial: 'P-331' })
+      ).body as InstrumentBody;
       const [coil1, coil2] = created.ranges;
       const res = await t.http
         .patch(`/api/instruments/${created.id}`)
@@ -131,14 +169,16 @@ describe('instruments and ranges (e2e, MariaDB)', () => {
         .send({ assetTag: 'NRC-22', ranges: [{ ...khzRange('Coil 2 (relabelled)', 3900, 9000, [1, 2]), id: coil2!.id }, khzRange('Coil 3', 8800, 20000)] });
       expect(res.status).toBe(200);
       expect(res.body.assetTag).toBe('NRC-22');
-      expect(res.body.ranges.map((r: { id: number; label: string; position: number }) => [r.position, r.label])).toEqual([[1, 'Coil 2 (relabelled)'], [2, 'Coil 3']]);
+      expect(res.body.ranges.map((r: { id: number; label: string; position: number }) => [r.position, r.label])).toEqual([
+        [1, 'Coil 2 (relabelled)'],
+        [2, 'Coil 3'],
+      ]);
       expect(res.body.ranges[0].id).toBe(coil2!.id);
       const gone = await t.dataSource.query('SELECT id FROM instrument_ranges WHERE id = ?', [coil1!.id]);
       expect(gone).toEqual([]);
-      const [audit] = await t.dataSource.query(
-        "SELECT changes FROM audit_events WHERE entity = 'instrument' AND entity_id = ? AND action = 'update'",
-        [String(created.id)],
-      );
+      const [audit] = await t.dataSource.query("SELECT changes FROM audit_events WHERE entity = 'instrument' AND entity_id = ? AND action = 'update'", [
+        String(created.id),
+      ]);
       expect(parseChanges(audit.changes).ranges).toEqual({ added: ['Coil 3'], removed: ['Coil 1'], changed: ['Coil 2 (relabelled)'] });
     });
 
@@ -150,11 +190,16 @@ describe('instruments and ranges (e2e, MariaDB)', () => {
       expect(removed.status).toBe(409);
       expect(removed.body.message).toContain('already has runs and cannot be removed');
       const retoleranced = full.ranges.map((r: Record<string, unknown>, i: number) => (i === 0 ? { ...r, tolerance: { kind: 'percent', percent: 1 } } : r));
-      const changed = await t.http.patch(`/api/instruments/${generator.id}`).set(as('tech')).send({ ranges: retoleranced.map(({ position: _p, ...r }: Record<string, unknown>) => r) });
+      const changed = await t.http
+        .patch(`/api/instruments/${generator.id}`)
+        .set(as('tech'))
+        .send({ ranges: retoleranced.map(({ position: _p, ...r }: Record<string, unknown>) => r) });
       expect(changed.status).toBe(409);
       expect(changed.body.message).toContain('its tolerance cannot change');
       // A new label and multipliers on a used range are fine.
-      const relabelled = full.ranges.map(({ position: _p, ...r }: Record<string, unknown>, i: number) => (i === 0 ? { ...r, label: 'A  160 m band-spread', multipliers: [1, 2] } : r));
+      const relabelled = full.ranges.map(({ position: _p, ...r }: Record<string, unknown>, i: number) =>
+        i === 0 ? { ...r, label: 'A  160 m band-spread', multipliers: [1, 2] } : r,
+      );
       const ok = await t.http.patch(`/api/instruments/${generator.id}`).set(as('tech')).send({ ranges: relabelled });
       expect(ok.status).toBe(200);
       expect(ok.body.ranges[0]).toMatchObject({ id: full.ranges[0].id, label: 'A  160 m band-spread', multipliers: [1, 2] });
@@ -163,7 +208,10 @@ describe('instruments and ranges (e2e, MariaDB)', () => {
     it('should refuse a range id that belongs to another instrument', async () => {
       const generator = await bySerial('N-1041');
       const receiver = await bySerial('CR7-5520');
-      const res = await t.http.patch(`/api/instruments/${generator.id}`).set(as('tech')).send({ ranges: [{ ...khzRange('X', 1, 2), id: receiver.ranges[0]!.id }] });
+      const res = await t.http
+        .patch(`/api/instruments/${generator.id}`)
+        .set(as('tech'))
+        .send({ ranges: [{ ...khzRange('X', 1, 2), id: receiver.ranges[0]!.id }] });
       expect(res.status).toBe(400);
       expect(res.body.message).toContain('ranges[0].id');
     });
@@ -181,7 +229,11 @@ describe('instruments and ranges (e2e, MariaDB)', () => {
         [2, 3.5e6, 4.0e6],
         [4, 7.0e6, 8.0e6],
       ]);
-      expect(rangeA.map((r: { bands: Array<{ name: string; full: boolean }> }) => r.bands.map((b) => `${b.name}${b.full ? '' : ' (part)'}`))).toEqual([['160 m'], ['80 m'], ['40 m']]);
+      expect(rangeA.map((r: { bands: Array<{ name: string; full: boolean }> }) => r.bands.map((b) => `${b.name}${b.full ? '' : ' (part)'}`))).toEqual([
+        ['160 m'],
+        ['80 m'],
+        ['40 m'],
+      ]);
     });
 
     it('should give the nominal and the corrected dial setting for a wanted frequency', async () => {
@@ -243,7 +295,10 @@ describe('instruments and ranges (e2e, MariaDB)', () => {
       const generator = await bySerial('N-1041');
       const res = await t.http.get(`/api/instruments/${generator.id}/band-plan?region=1&wantedHz=3700000`).set(as('tech'));
       expect(res.status).toBe(200);
-      expect(res.body.wanted.settings.find((s: { rangeId: number }) => s.rangeId === generator.ranges[0]!.id)).toMatchObject({ multiplier: 2, fundamentalHz: 1_850_000 });
+      expect(res.body.wanted.settings.find((s: { rangeId: number }) => s.rangeId === generator.ranges[0]!.id)).toMatchObject({
+        multiplier: 2,
+        fundamentalHz: 1_850_000,
+      });
     });
 
     it('should refuse a region that is not an ITU region with a band table, naming the problem', async () => {

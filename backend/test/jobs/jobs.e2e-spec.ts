@@ -1,7 +1,15 @@
 import { instrumentWithJob, openRun, organizationIds, parseChanges } from '../support/lab-fixtures.js';
 import { createTestApp, DEMO, signInDemo, type AsDemo, type TestApp } from '../support/test-app.js';
 
-type JobBody = { id: number; number: string; status: string; organizationName: string; instrumentLabel: string; runCount: number; returnComment: string | null };
+type JobBody = {
+  id: number;
+  number: string;
+  status: string;
+  organizationName: string;
+  instrumentLabel: string;
+  runCount: number;
+  returnComment: string | null;
+};
 
 describe('jobs and their workflow (e2e, MariaDB)', () => {
   let t: TestApp;
@@ -42,7 +50,9 @@ describe('jobs and their workflow (e2e, MariaDB)', () => {
       const northgate = await t.http.get(`/api/jobs?organizationId=${orgs['Northgate Radio Club']}&sort=-number`).set(as('engineer'));
       const [{ n }] = await t.dataSource.query('SELECT COUNT(*) AS n FROM jobs WHERE organization_id = ?', [orgs['Northgate Radio Club']]);
       expect(northgate.body.total).toBe(Number(n));
-      expect(northgate.body.items.map((j: JobBody) => j.instrumentLabel)).toEqual(expect.arrayContaining([expect.stringContaining('N-1041'), expect.stringContaining('N-1187')]));
+      expect(northgate.body.items.map((j: JobBody) => j.instrumentLabel)).toEqual(
+        expect.arrayContaining([expect.stringContaining('N-1041'), expect.stringContaining('N-1187')]),
+      );
     });
 
     it('should show a client only its organisation’s jobs, 404 another’s by id, and 403 on writes', async () => {
@@ -99,11 +109,17 @@ describe('jobs and their workflow (e2e, MariaDB)', () => {
       const empty = await patch('tech', { status: 'in_review' });
       expect(empty.status).toBe(409);
       expect(empty.body.message).toContain('no readings');
-      await t.http.post(`/api/runs/${runId}/readings`).set(as('tech')).send({ readings: [{ dial: 1500, frequency: '1.4991 MHz' }] });
+      await t.http
+        .post(`/api/runs/${runId}/readings`)
+        .set(as('tech'))
+        .send({ readings: [{ dial: 1500, frequency: '1.4991 MHz' }] });
       expect((await patch('tech', { status: 'in_review', comment: 'Ready' })).body.status).toBe('in_review');
 
       // While in review the record takes no readings.
-      const frozen = await t.http.post(`/api/runs/${runId}/readings`).set(as('tech')).send({ readings: [{ dial: 1600, frequency: 1.6e6 }] });
+      const frozen = await t.http
+        .post(`/api/runs/${runId}/readings`)
+        .set(as('tech'))
+        .send({ readings: [{ dial: 1600, frequency: 1.6e6 }] });
       expect(frozen.status).toBe(409);
       expect(frozen.body.message).toContain('in review');
 
@@ -117,18 +133,27 @@ describe('jobs and their workflow (e2e, MariaDB)', () => {
       expect(noComment.body.message.join(' ')).toContain('comment');
       const returned = await t.http.post(`/api/jobs/${jobId}/return`).set(as('lead')).send({ comment: 'Add the high end of the range.' });
       expect(returned.status).toBeLessThan(300);
-      expect((await t.http.get(`/api/jobs/${jobId}`).set(as('tech'))).body).toMatchObject({ status: 'returned', returnComment: 'Add the high end of the range.' });
-      expect((await t.http.post(`/api/runs/${runId}/readings`).set(as('tech')).send({ readings: [{ dial: 2000, frequency: 1.9987e6 }] })).status).toBe(201);
+      expect((await t.http.get(`/api/jobs/${jobId}`).set(as('tech'))).body).toMatchObject({
+        status: 'returned',
+        returnComment: 'Add the high end of the range.',
+      });
+      expect(
+        (
+          await t.http
+            .post(`/api/runs/${runId}/readings`)
+            .set(as('tech'))
+            .send({ readings: [{ dial: 2000, frequency: 1.9987e6 }] })
+        ).status,
+      ).toBe(201);
       expect((await patch('tech', { status: 'in_review' })).body).toMatchObject({ status: 'in_review', returnComment: null });
 
       const issued = await patch('lead', { status: 'issued' });
       expect(issued.status).toBe(409);
       expect(issued.body.message).toContain('sign');
 
-      const events = await t.dataSource.query(
-        "SELECT changes FROM audit_events WHERE entity = 'job' AND entity_id = ? AND action = 'status' ORDER BY id",
-        [String(jobId)],
-      );
+      const events = await t.dataSource.query("SELECT changes FROM audit_events WHERE entity = 'job' AND entity_id = ? AND action = 'status' ORDER BY id", [
+        String(jobId),
+      ]);
       expect(events.map((e: { changes: unknown }) => parseChanges(e.changes).to)).toEqual(['in_progress', 'in_review', 'returned', 'in_review']);
     });
 
@@ -148,7 +173,13 @@ describe('jobs and their workflow (e2e, MariaDB)', () => {
       const res = await t.http.get(`/api/audit?jobId=${job.id}&sort=at`).set(as('lead'));
       expect(res.status).toBe(200);
       expect(res.body.items.map((e: { entity: string; action: string }) => `${e.entity}:${e.action}`)).toEqual([
-        'job:create', 'run:create', 'job:status', 'run:status', 'run:create', 'run:status', 'job:status',
+        'job:create',
+        'run:create',
+        'job:status',
+        'run:status',
+        'run:create',
+        'run:status',
+        'job:status',
       ]);
       expect(res.body.items[0].actorName).toBe('Tomas Reyes');
       expect((await t.http.get(`/api/audit?entity=job&entityId=${job.id}`).set(as('tech'))).body.total).toBe(3);

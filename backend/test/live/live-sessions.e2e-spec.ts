@@ -82,7 +82,9 @@ describe('/live sessions end when they should (e2e, MariaDB)', () => {
   function forge(claims: Record<string, unknown>, alg: 'HS256' | 'HS512'): string {
     const part = (value: unknown) => Buffer.from(JSON.stringify(value)).toString('base64url');
     const body = `${part({ alg, typ: 'JWT' })}.${part(claims)}`;
-    const signature = createHmac(alg === 'HS256' ? 'sha256' : 'sha512', secret).update(body).digest('base64url');
+    const signature = createHmac(alg === 'HS256' ? 'sha256' : 'sha512', secret)
+      .update(body)
+      .digest('base64url');
     return `${body}.${signature}`;
   }
 
@@ -147,7 +149,10 @@ describe('/live sessions end when they should (e2e, MariaDB)', () => {
   });
 
   it("should cut a client's socket within 1 s when its organisation is deactivated", async () => {
-    const org = await t.http.post('/api/organizations').set(admin).send({ name: `Session Test Co ${randomUUID().slice(0, 6)}`, kind: 'customer' });
+    const org = await t.http
+      .post('/api/organizations')
+      .set(admin)
+      .send({ name: `Session Test Co ${randomUUID().slice(0, 6)}`, kind: 'customer' });
     expect(org.status).toBe(201);
     const client = await newAccount({ role: 'client', organizationId: org.body.id as number });
     const page = await connect(url, NAMESPACES.live, client.token, sockets);

@@ -38,7 +38,10 @@ describe('/live namespace (e2e, MariaDB)', () => {
   const nextLive = (socket: Socket) => new Promise<LiveReadingsEvent>((resolve) => socket.once(LIVE_EVENTS.readings, resolve));
 
   it('should refuse a browser without a session or with a bad one', async () => {
-    await expect(connect(url, NAMESPACES.live, undefined, sockets)).rejects.toMatchObject({ message: expect.stringContaining('sign in'), data: { code: 'bad_session' } });
+    await expect(connect(url, NAMESPACES.live, undefined, sockets)).rejects.toMatchObject({
+      message: expect.stringContaining('sign in'),
+      data: { code: 'bad_session' },
+    });
     await expect(connect(url, NAMESPACES.live, 'not.a.jwt', sockets)).rejects.toMatchObject({ data: { code: 'bad_session' } });
   });
 
@@ -47,10 +50,20 @@ describe('/live namespace (e2e, MariaDB)', () => {
     expect(await request<JoinReply>(page, LIVE_EVENTS.join, { runId: saltmarshRun.runId })).toEqual({ ok: true, runId: saltmarshRun.runId, lastSeq: 0 });
     const arriving = nextLive(page);
     const source = await benchSocket(saltmarshRun.runId);
-    await request(source, INGEST_EVENTS.readings, { runId: saltmarshRun.runId, readings: [{ seq: 2, t: 2, frequency: 7_000_020 }, { seq: 1, t: 1, frequency: 7_000_010 }, { seq: 3, frequency: -1 }] });
+    await request(source, INGEST_EVENTS.readings, {
+      runId: saltmarshRun.runId,
+      readings: [
+        { seq: 2, t: 2, frequency: 7_000_020 },
+        { seq: 1, t: 1, frequency: 7_000_010 },
+        { seq: 3, frequency: -1 },
+      ],
+    });
     const event = await arriving;
     expect(event.runId).toBe(saltmarshRun.runId);
-    expect(event.readings.map((r) => [r.seq, r.t, r.frequency, r.source])).toEqual([[1, 1, 7_000_010, 'bridge'], [2, 2, 7_000_020, 'bridge']]);
+    expect(event.readings.map((r) => [r.seq, r.t, r.frequency, r.source])).toEqual([
+      [1, 1, 7_000_010, 'bridge'],
+      [2, 2, 7_000_020, 'bridge'],
+    ]);
     // The batch's author (the bench) once, beside the readings, not on each one.
     expect(event.author).toMatchObject({ kind: 'bench' });
     expect(event.readings.every((r) => !('author' in r))).toBe(true);
@@ -62,7 +75,11 @@ describe('/live namespace (e2e, MariaDB)', () => {
     const own = await browser('saltmarsh');
     expect(await request<JoinReply>(own, LIVE_EVENTS.join, { runId: saltmarshRun.runId })).toMatchObject({ ok: true });
     const foreign = await browser('northgate');
-    expect(await request<JoinReply>(foreign, LIVE_EVENTS.join, { runId: saltmarshRun.runId })).toEqual({ ok: false, code: 'run_not_found', error: `there is no run ${saltmarshRun.runId}` });
+    expect(await request<JoinReply>(foreign, LIVE_EVENTS.join, { runId: saltmarshRun.runId })).toEqual({
+      ok: false,
+      code: 'run_not_found',
+      error: `there is no run ${saltmarshRun.runId}`,
+    });
     expect(await request<JoinReply>(foreign, LIVE_EVENTS.join, { runId: northgateRun.runId })).toMatchObject({ ok: true });
     // The northgate page must hear nothing from the saltmarsh run.
     const leaked: LiveReadingsEvent[] = [];
@@ -84,7 +101,10 @@ describe('/live namespace (e2e, MariaDB)', () => {
     const heard: LiveReadingsEvent[] = [];
     page.on(LIVE_EVENTS.readings, (e: LiveReadingsEvent) => heard.push(e));
     const source = await benchSocket(northgateRun.runId);
-    expect(await request(source, INGEST_EVENTS.readings, { runId: northgateRun.runId, readings: [{ seq: 1, frequency: 7e6 }] })).toMatchObject({ ok: true, accepted: 1 });
+    expect(await request(source, INGEST_EVENTS.readings, { runId: northgateRun.runId, readings: [{ seq: 1, frequency: 7e6 }] })).toMatchObject({
+      ok: true,
+      accepted: 1,
+    });
     await new Promise((r) => setTimeout(r, 100));
     expect(heard).toEqual([]);
   });
@@ -94,7 +114,10 @@ describe('/live namespace (e2e, MariaDB)', () => {
     const page = await browser('engineer');
     await request(page, LIVE_EVENTS.join, { runId: run.runId });
     const arriving = nextLive(page);
-    const typed = await t.http.post(`/api/runs/${run.runId}/readings`).set('Authorization', `Bearer ${tokens.tech}`).send({ readings: [{ frequency: '7.050 MHz' }] });
+    const typed = await t.http
+      .post(`/api/runs/${run.runId}/readings`)
+      .set('Authorization', `Bearer ${tokens.tech}`)
+      .send({ readings: [{ frequency: '7.050 MHz' }] });
     expect(typed.status).toBeLessThan(300);
     const event = await arriving;
     expect(event.readings.map((r) => [r.seq, r.frequency, r.source])).toEqual([[1, 7_050_000, 'manual']]);

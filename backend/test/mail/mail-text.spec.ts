@@ -46,13 +46,15 @@ describe('e-mail text', () => {
 
 // Where a reply goes, said truthfully whatever the settings: the lab's address (sent as Reply-To), or the sender.
 describe('mail sign-off', () => {
-  test('names the lab\'s contact address when there is one', () => {
+  test("names the lab's contact address when there is one", () => {
     expect(mailSignOff({ name: 'Fenwick Lab', email: 'desk@fenwick.test' }, 'no-reply@fenwick.test')).toBe(
       '\n\n-- \nSent by Kilocycle for Fenwick Lab. Replies to this message go to Fenwick Lab at desk@fenwick.test.',
     );
   });
   test('says a no-reply sender is not read, and names any other sender as where replies go', () => {
-    expect(mailSignOff({ name: 'Fenwick Lab', email: null }, 'noreply@fenwick.test')).toContain('from an address that is not read: to answer, contact Fenwick Lab directly.');
+    expect(mailSignOff({ name: 'Fenwick Lab', email: null }, 'noreply@fenwick.test')).toContain(
+      'from an address that is not read: to answer, contact Fenwick Lab directly.',
+    );
     expect(mailSignOff({ name: 'Fenwick Lab', email: null }, 'office@fenwick.test')).toContain('Replies to this message go to office@fenwick.test.');
   });
   test('the HTML part sets the signature apart and keeps line breaks', () => {

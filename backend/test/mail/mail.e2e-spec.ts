@@ -32,7 +32,12 @@ describe('mail: the local SMTP fake and the outbox (e2e, MariaDB)', () => {
     expect(list.status).toBe(200);
     expect(list.body.total).toBe(1);
     const item = list.body.items[0];
-    expect(item).toMatchObject({ kind: 'other', to: ['someone@example.test', 'other@example.test'], subject: 'Prüfung 7 001.250 kHz — ±0.5 %', attachmentCount: 1 });
+    expect(item).toMatchObject({
+      kind: 'other',
+      to: ['someone@example.test', 'other@example.test'],
+      subject: 'Prüfung 7 001.250 kHz — ±0.5 %',
+      attachmentCount: 1,
+    });
     const view: MailMessageView = (await t.http.get(`/api/mail/${item.id}`).set(admin)).body;
     expect(view.text).toContain('line two: Ω and µs');
     expect(view.attachments).toEqual([{ filename: 'Zertifikat Nr 1.pdf', contentType: 'application/pdf', size: attachment.length }]);
@@ -56,7 +61,9 @@ describe('mail: the local SMTP fake and the outbox (e2e, MariaDB)', () => {
     await new Promise<void>((resolve) => blocker.listen(0, '127.0.0.1', resolve));
     const taken = (blocker.address() as { port: number }).port;
     const warnings: string[] = [];
-    const mailer = new Mailer(t.dataSource, { host: null, port: taken, secure: false, user: null, password: null, from: 'Test <t@example.test>' }, (m) => warnings.push(m));
+    const mailer = new Mailer(t.dataSource, { host: null, port: taken, secure: false, user: null, password: null, from: 'Test <t@example.test>' }, (m) =>
+      warnings.push(m),
+    );
     try {
       await mailer.start();
       expect(mailer.port).not.toBe(taken);
@@ -93,7 +100,7 @@ describe('mail: the local SMTP fake and the outbox (e2e, MariaDB)', () => {
       return (await t.http.get(`/api/mail/${list.body.items[0].id}`).set(admin)).body as MailMessageView;
     };
 
-    it('should set Reply-To to the lab\'s contact address and say so in the footer, text and HTML alike', async () => {
+    it("should set Reply-To to the lab's contact address and say so in the footer, text and HTML alike", async () => {
       const view = await sendReturned('9101');
       expect(header(view, 'Reply-To')).toEqual([`${LAB} <${LAB_EMAIL}>`]);
       expect(view.from).toMatch(/no-reply@/);

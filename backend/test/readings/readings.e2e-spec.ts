@@ -27,7 +27,14 @@ describe('readings (e2e, MariaDB)', () => {
       const res = await t.http
         .post(`/api/runs/${runId}/readings`)
         .set(as('tech'))
-        .send({ readings: [{ dial: 1735, frequency: '1735 kHz' }, { dial: '1735', frequency: '1.735 MHz' }, { dial: 1735, frequency: '1735000' }, { dial: 1750, frequency: 1749012.5 }] });
+        .send({
+          readings: [
+            { dial: 1735, frequency: '1735 kHz' },
+            { dial: '1735', frequency: '1.735 MHz' },
+            { dial: 1735, frequency: '1735000' },
+            { dial: 1750, frequency: 1749012.5 },
+          ],
+        });
       expect(res.status).toBe(201);
       expect(res.body).toMatchObject({ accepted: 4, duplicates: 0, rejected: [], lastSeq: 4 });
       expect(res.body.stored.map((r: ReadingBody) => [r.seq, r.dial, r.frequency, r.source])).toEqual([
@@ -36,15 +43,26 @@ describe('readings (e2e, MariaDB)', () => {
         [3, 1735, 1_735_000, 'manual'],
         [4, 1750, 1_749_012.5, 'manual'],
       ]);
-      const next = await t.http.post(`/api/runs/${runId}/readings`).set(as('tech')).send({ readings: [{ dial: 1800, frequency: 1_798_400 }] });
+      const next = await t.http
+        .post(`/api/runs/${runId}/readings`)
+        .set(as('tech'))
+        .send({ readings: [{ dial: 1800, frequency: 1_798_400 }] });
       expect(next.body).toMatchObject({ accepted: 1, lastSeq: 5 });
     });
 
     it('should count a repeated seq as a duplicate and store it once', async () => {
       const runId = await freshRun();
-      const batch = { readings: [{ seq: 1, dial: 1200, frequency: 1.2e6 }, { seq: 2, dial: 1300, frequency: 1.3e6 }] };
+      const batch = {
+        readings: [
+          { seq: 1, dial: 1200, frequency: 1.2e6 },
+          { seq: 2, dial: 1300, frequency: 1.3e6 },
+        ],
+      };
       expect((await t.http.post(`/api/runs/${runId}/readings`).set(as('tech')).send(batch)).body).toMatchObject({ accepted: 2, duplicates: 0 });
-      const again = await t.http.post(`/api/runs/${runId}/readings`).set(as('tech')).send({ readings: [...batch.readings, { seq: 3, dial: 1400, frequency: 1.4e6 }] });
+      const again = await t.http
+        .post(`/api/runs/${runId}/readings`)
+        .set(as('tech'))
+        .send({ readings: [...batch.readings, { seq: 3, dial: 1400, frequency: 1.4e6 }] });
       expect(again.body).toMatchObject({ accepted: 1, duplicates: 2, lastSeq: 3 });
       expect(await count(runId)).toBe(3);
     });
@@ -59,7 +77,10 @@ describe('readings (e2e, MariaDB)', () => {
       ['an unknown field', { dial: 1500, frequency: 1.5e6, temperature: 21 }, 'readings[0].temperature:'],
     ])('should answer 400 naming the field for %s and write nothing', async (_name, reading, message) => {
       const runId = await freshRun();
-      const res = await t.http.post(`/api/runs/${runId}/readings`).set(as('tech')).send({ readings: [reading] });
+      const res = await t.http
+        .post(`/api/runs/${runId}/readings`)
+        .set(as('tech'))
+        .send({ readings: [reading] });
       expect(res.status).toBe(400);
       expect(res.body.message[0]).toContain(message);
       expect(await count(runId)).toBe(0);
@@ -70,25 +91,43 @@ describe('readings (e2e, MariaDB)', () => {
       const res = await t.http
         .post(`/api/runs/${runId}/readings`)
         .set(as('tech'))
-        .send({ readings: [{ dial: 1100, frequency: 1.1e6 }, { dial: 1200, frequency: 1.2e6 }, { dial: 'twelve', frequency: 1.3e6 }] });
+        .send({
+          readings: [
+            { dial: 1100, frequency: 1.1e6 },
+            { dial: 1200, frequency: 1.2e6 },
+            { dial: 'twelve', frequency: 1.3e6 },
+          ],
+        });
       expect(res.status).toBe(400);
       expect(res.body.message).toEqual([expect.stringContaining('readings[2].dial:')]);
       expect(res.body.rejected).toEqual([expect.objectContaining({ index: 2, field: 'dial' })]);
       expect(await count(runId)).toBe(0);
       // A dial just inside the 10 % margin is taken (range 1000–2000, margin 100).
-      expect((await t.http.post(`/api/runs/${runId}/readings`).set(as('tech')).send({ readings: [{ dial: 2099, frequency: 2.099e6 }] })).status).toBe(201);
+      expect(
+        (
+          await t.http
+            .post(`/api/runs/${runId}/readings`)
+            .set(as('tech'))
+            .send({ readings: [{ dial: 2099, frequency: 2.099e6 }] })
+        ).status,
+      ).toBe(201);
     });
 
     it('should answer 400 for an empty or oversized batch', async () => {
       const runId = await freshRun();
-      expect((await t.http.post(`/api/runs/${runId}/readings`).set(as('tech')).send({ readings: [] })).body.message).toEqual(['readings must hold at least 1 reading']);
+      expect((await t.http.post(`/api/runs/${runId}/readings`).set(as('tech')).send({ readings: [] })).body.message).toEqual([
+        'readings must hold at least 1 reading',
+      ]);
       const many = Array.from({ length: 1001 }, (_, i) => ({ dial: 1500, frequency: 1.5e6 + i }));
       expect((await t.http.post(`/api/runs/${runId}/readings`).set(as('tech')).send({ readings: many })).status).toBe(400);
     });
 
     it('should refuse readings for a closed run or a job in review with 409', async () => {
       const closedRun = (await t.http.get('/api/runs?kind=as_left&q=N-1041').set(as('tech'))).body.items[0];
-      const res = await t.http.post(`/api/runs/${closedRun.id}/readings`).set(as('tech')).send({ readings: [{ dial: 1800, frequency: 1.8e6 }] });
+      const res = await t.http
+        .post(`/api/runs/${closedRun.id}/readings`)
+        .set(as('tech'))
+        .send({ readings: [{ dial: 1800, frequency: 1.8e6 }] });
       expect(res.status).toBe(409);
       expect(res.body.message).toBe(`run ${closedRun.id} is closed`);
     });
@@ -105,7 +144,12 @@ describe('readings (e2e, MariaDB)', () => {
   describe('readings are never edited or deleted', () => {
     it('should have no route to change or remove a reading', async () => {
       const runId = await freshRun();
-      const stored = (await t.http.post(`/api/runs/${runId}/readings`).set(as('tech')).send({ readings: [{ dial: 1500, frequency: 1.5e6 }] })).body.stored[0];
+      const stored = (
+        await t.http
+          .post(`/api/runs/${runId}/readings`)
+          .set(as('tech'))
+          .send({ readings: [{ dial: 1500, frequency: 1.5e6 }] })
+      ).body.stored[0];
       for (const method of ['put', 'patch', 'delete'] as const) {
         const one = await t.http[method](`/api/runs/${runId}/readings/${stored.id}`).set(as('admin')).send({ frequency: 1.6e6 });
         expect([404, 405]).toContain(one.status);
@@ -118,7 +162,9 @@ describe('readings (e2e, MariaDB)', () => {
 
     it('should be refused by the database itself: UPDATE and DELETE raise the trigger’s error', async () => {
       const [reading] = await t.dataSource.query('SELECT id FROM readings LIMIT 1');
-      await expect(t.dataSource.query('UPDATE readings SET frequency_hz = 1 WHERE id = ?', [reading.id])).rejects.toThrow('readings are never changed or removed');
+      await expect(t.dataSource.query('UPDATE readings SET frequency_hz = 1 WHERE id = ?', [reading.id])).rejects.toThrow(
+        'readings are never changed or removed',
+      );
       await expect(t.dataSource.query('DELETE FROM readings WHERE id = ?', [reading.id])).rejects.toThrow('readings are never changed or removed');
     });
   });
@@ -140,14 +186,27 @@ describe('readings (e2e, MariaDB)', () => {
 
     it('should exclude a reading with a reason, audit it, flag it in the list and refuse a second exclusion', async () => {
       const runId = await freshRun();
-      const stored = (await t.http.post(`/api/runs/${runId}/readings`).set(as('tech')).send({ readings: [{ dial: 1500, frequency: 1.5e6 }, { dial: 1600, frequency: 1.69e6 }] })).body.stored;
+      const stored = (
+        await t.http
+          .post(`/api/runs/${runId}/readings`)
+          .set(as('tech'))
+          .send({
+            readings: [
+              { dial: 1500, frequency: 1.5e6 },
+              { dial: 1600, frequency: 1.69e6 },
+            ],
+          })
+      ).body.stored;
       const target = stored[1];
       const short = await t.http.post(`/api/runs/${runId}/readings/${target.id}/exclusion`).set(as('tech')).send({ reason: 'no' });
       expect(short.status).toBe(400);
       expect(short.body.message).toEqual(['reason must be at least 3 characters']);
       const missing = await t.http.post(`/api/runs/${runId}/readings/${target.id}/exclusion`).set(as('tech')).send({});
       expect(missing.status).toBe(400);
-      const res = await t.http.post(`/api/runs/${runId}/readings/${target.id}/exclusion`).set(as('tech')).send({ reason: 'Counter caught the second harmonic' });
+      const res = await t.http
+        .post(`/api/runs/${runId}/readings/${target.id}/exclusion`)
+        .set(as('tech'))
+        .send({ reason: 'Counter caught the second harmonic' });
       expect(res.status).toBe(201);
       expect(res.body).toMatchObject({ id: target.id, seq: 2, frequency: 1.69e6, excluded: true, excludedReason: 'Counter caught the second harmonic' });
       const list = await t.http.get(`/api/runs/${runId}/readings`).set(as('tech'));
@@ -179,7 +238,9 @@ describe('readings (e2e, MariaDB)', () => {
       expect((await t.http.get(`/api/runs/${northgateRun.id}/readings`).set(as('northgate'))).body.total).toBe(22);
       expect((await t.http.get(`/api/runs/${northgateRun.id}/readings`).set(as('saltmarsh'))).status).toBe(404);
       const someReading = (await t.http.get(`/api/runs/${northgateRun.id}/readings?pageSize=1`).set(as('admin'))).body.items[0];
-      expect((await t.http.post(`/api/runs/${northgateRun.id}/readings/${someReading.id}/exclusion`).set(as('saltmarsh')).send({ reason: 'peek' })).status).toBe(403);
+      expect(
+        (await t.http.post(`/api/runs/${northgateRun.id}/readings/${someReading.id}/exclusion`).set(as('saltmarsh')).send({ reason: 'peek' })).status,
+      ).toBe(403);
     });
   });
 });

@@ -37,7 +37,9 @@ describe('capture guardrail: readings outside the range span (e2e, MariaDB)', ()
   const rangeA = () => [khzRange('A  1750–2000 kHz', 1750, 2000)];
   const freshRun = async (kind = 'as_found') => {
     const { jobId, rangeIds } = await instrumentWithJob(t, as('tech'), { organizationId: orgs['Northgate Radio Club']!, ranges: rangeA() });
-    const standardId = Number((await t.dataSource.query("SELECT id FROM standards WHERE kind = 'counter' AND active = 1 AND due_date >= CURRENT_DATE() LIMIT 1"))[0].id);
+    const standardId = Number(
+      (await t.dataSource.query("SELECT id FROM standards WHERE kind = 'counter' AND active = 1 AND due_date >= CURRENT_DATE() LIMIT 1"))[0].id,
+    );
     return openRun(t, as('tech'), jobId, { rangeId: rangeIds[0], kind, standardId });
   };
   const post = (runId: number, readings: unknown[]) => t.http.post(`/api/runs/${runId}/readings`).set(as('tech')).send({ readings });
@@ -64,7 +66,14 @@ describe('capture guardrail: readings outside the range span (e2e, MariaDB)', ()
 
     it('takes a reading just inside the margin and refuses one just outside (limits 1 725 and 2 025 kHz)', async () => {
       const runId = await freshRun();
-      expect((await post(runId, [{ dial: 1750, frequency: '1725 kHz' }, { dial: 2000, frequency: '2025 kHz' }])).status).toBe(201);
+      expect(
+        (
+          await post(runId, [
+            { dial: 1750, frequency: '1725 kHz' },
+            { dial: 2000, frequency: '2025 kHz' },
+          ])
+        ).status,
+      ).toBe(201);
       const low = await post(runId, [{ dial: 1750, frequency: '1724.9 kHz' }]);
       expect(low.status).toBe(422);
       expect(low.body.message[0]).toBe(
@@ -75,7 +84,10 @@ describe('capture guardrail: readings outside the range span (e2e, MariaDB)', ()
 
     it('answers 400 when a plain error comes with the slip (a slip alone is not enough to confirm past it), and stores nothing', async () => {
       const runId = await freshRun();
-      const res = await post(runId, [{ dial: 1900, frequency: '1900' }, { dial: 'nineteen', frequency: '1900 kHz' }]);
+      const res = await post(runId, [
+        { dial: 1900, frequency: '1900' },
+        { dial: 'nineteen', frequency: '1900 kHz' },
+      ]);
       expect(res.status).toBe(400);
       expect(res.body.message).toEqual([`readings[0].frequency: ${SLIP_1900}`, expect.stringContaining('readings[1].dial:')]);
       const bad = await post(runId, [{ dial: 1900, frequency: '1900', confirmed: 'yes' }]);

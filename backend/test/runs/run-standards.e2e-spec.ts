@@ -14,18 +14,21 @@ describe('runs: reference standards and corrections (e2e, MariaDB)', () => {
     t = await createTestApp();
     as = await signInDemo(t.http);
     orgs = await organizationIds(t, as('admin'));
-    const house = await t.http.post('/api/standards').set(as('lead')).send({
-      name: 'House rubidium reference',
-      kind: 'reference',
-      makeModel: 'Quarry Lane RB-1',
-      serial: 'QL-RB-02',
-      certificateNumber: 'QL-C-2291',
-      dueDate: `${new Date().getUTCFullYear() + 1}-06-30`,
-      timebaseAccuracyPpm: 0.001,
-      resolutionHz: 0.001,
-      calibrationUPpm: 0.0005,
-      calibrationK: 2,
-    });
+    const house = await t.http
+      .post('/api/standards')
+      .set(as('lead'))
+      .send({
+        name: 'House rubidium reference',
+        kind: 'reference',
+        makeModel: 'Quarry Lane RB-1',
+        serial: 'QL-RB-02',
+        certificateNumber: 'QL-C-2291',
+        dueDate: `${new Date().getUTCFullYear() + 1}-06-30`,
+        timebaseAccuracyPpm: 0.001,
+        resolutionHz: 0.001,
+        calibrationUPpm: 0.0005,
+        calibrationK: 2,
+      });
     if (house.status !== 201) throw new Error(`standard: ${house.status} ${JSON.stringify(house.body)}`);
     const rows = await t.dataSource.query('SELECT id, name FROM standards');
     standards = Object.fromEntries(rows.map((r: { id: number; name: string }) => [r.name, Number(r.id)]));
@@ -48,7 +51,9 @@ describe('runs: reference standards and corrections (e2e, MariaDB)', () => {
       for (const kind of ['as_found', 'as_left']) {
         const res = await t.http.post(`/api/jobs/${jobId}/runs`).set(as('tech')).send({ rangeId: rangeIds[0], kind });
         expect(res.status).toBe(400);
-        expect(res.body.message).toBe(`standardId: an ${kind.replace('_', '-')} run needs a reference standard; choose the counter or reference the readings are taken with`);
+        expect(res.body.message).toBe(
+          `standardId: an ${kind.replace('_', '-')} run needs a reference standard; choose the counter or reference the readings are taken with`,
+        );
         const explicit = await t.http.post(`/api/jobs/${jobId}/runs`).set(as('tech')).send({ rangeId: rangeIds[0], kind, standardId: null });
         expect(explicit.status).toBe(400);
       }
@@ -59,7 +64,9 @@ describe('runs: reference standards and corrections (e2e, MariaDB)', () => {
 
     it("takes the bench's default standard, and says so when the bench has none", async () => {
       const { jobId, rangeIds } = await fresh();
-      const withDefault = (await t.dataSource.query("INSERT INTO benches (name, default_standard_id, active) VALUES ('Std bench A', ?, 1)", [standards['Bench counter A']])).insertId;
+      const withDefault = (
+        await t.dataSource.query("INSERT INTO benches (name, default_standard_id, active) VALUES ('Std bench A', ?, 1)", [standards['Bench counter A']])
+      ).insertId;
       const without = (await t.dataSource.query("INSERT INTO benches (name, default_standard_id, active) VALUES ('Std bench none', NULL, 1)")).insertId;
       const bare = await t.http.post(`/api/jobs/${jobId}/runs`).set(as('tech')).send({ rangeId: rangeIds[0], kind: 'as_found', benchId: without });
       expect(bare.status).toBe(400);
@@ -79,11 +86,10 @@ describe('runs: reference standards and corrections (e2e, MariaDB)', () => {
       const [creator] = await t.dataSource.query("SELECT id FROM users WHERE role = 'technician' LIMIT 1");
       const asLeft = Number(
         (
-          await t.dataSource.query("INSERT INTO runs (job_id, range_id, kind, status, started_at, created_by) VALUES (?, ?, 'as_left', 'open', UTC_TIMESTAMP(3), ?)", [
-            jobId,
-            rangeIds[0],
-            creator.id,
-          ])
+          await t.dataSource.query(
+            "INSERT INTO runs (job_id, range_id, kind, status, started_at, created_by) VALUES (?, ?, 'as_left', 'open', UTC_TIMESTAMP(3), ?)",
+            [jobId, rangeIds[0], creator.id],
+          )
         ).insertId,
       );
       await postReadings(t, as('tech'), asLeft, inSpan);
@@ -112,15 +118,31 @@ describe('runs: reference standards and corrections (e2e, MariaDB)', () => {
   describe('PATCH /api/runs/:id corrections', () => {
     it('stores a correction of standard, supply, configuration and notes with its reason, audited with from and to', async () => {
       const { jobId, rangeIds } = await fresh();
-      const runId = await openRun(t, as('tech'), jobId, { rangeId: rangeIds[0], kind: 'as_found', standardId: standards['Bench counter A'], configuration: 'In its case' });
+      const runId = await openRun(t, as('tech'), jobId, {
+        rangeId: rangeIds[0],
+        kind: 'as_found',
+        standardId: standards['Bench counter A'],
+        configuration: 'In its case',
+      });
       const reason = 'The reference was the house standard, not counter A; supply read on the variac';
       const res = await t.http
         .patch(`/api/runs/${runId}`)
         .set(as('tech'))
         .send({ standardId: standards['House rubidium reference'], supplyVoltage: 117.5, configuration: 'Out of its case', notes: 'Lid off', reason });
       expect(res.status).toBe(200);
-      expect(res.body).toMatchObject({ standardId: standards['House rubidium reference'], standardName: 'House rubidium reference', supplyVoltage: 117.5, configuration: 'Out of its case', notes: 'Lid off' });
-      expect(await runRow(runId)).toMatchObject({ standard_id: standards['House rubidium reference'], supply_voltage: 117.5, configuration: 'Out of its case', notes: 'Lid off' });
+      expect(res.body).toMatchObject({
+        standardId: standards['House rubidium reference'],
+        standardName: 'House rubidium reference',
+        supplyVoltage: 117.5,
+        configuration: 'Out of its case',
+        notes: 'Lid off',
+      });
+      expect(await runRow(runId)).toMatchObject({
+        standard_id: standards['House rubidium reference'],
+        supply_voltage: 117.5,
+        configuration: 'Out of its case',
+        notes: 'Lid off',
+      });
       const trail = await events(runId);
       expect(trail.map((e) => e.action)).toEqual(['create', 'update']);
       const me = await t.http.get('/api/auth/me').set(as('tech'));
@@ -161,7 +183,10 @@ describe('runs: reference standards and corrections (e2e, MariaDB)', () => {
       expect(leadWithout.status).toBe(409);
       expect(leadWithout.body.message).toContain('standardOverrideReason');
       const override = 'Counter A away for repair; B checked against the house reference the same day.';
-      const lead = await t.http.patch(`/api/runs/${runId}`).set(as('lead')).send({ standardId: lapsed, standardOverrideReason: override, reason: 'B was on the bench' });
+      const lead = await t.http
+        .patch(`/api/runs/${runId}`)
+        .set(as('lead'))
+        .send({ standardId: lapsed, standardOverrideReason: override, reason: 'B was on the bench' });
       expect(lead.status).toBe(200);
       expect(lead.body).toMatchObject({ standardId: lapsed, standardOverrideReason: override });
       expect((await events(runId)).map((e) => e.action)).toEqual(['create', 'update', 'standard_override']);

@@ -39,7 +39,9 @@ describe('runs (e2e, MariaDB)', () => {
     it('should show a client only its organisation’s runs and 404 another’s by id', async () => {
       const mine = await t.http.get('/api/runs?pageSize=100').set(as('saltmarsh'));
       expect(mine.body.items.length).toBeGreaterThanOrEqual(2);
-      expect(new Set(mine.body.items.map((r: RunBody & { organizationId: number }) => r.organizationId))).toEqual(new Set([orgs['Saltmarsh Restoration Works']]));
+      expect(new Set(mine.body.items.map((r: RunBody & { organizationId: number }) => r.organizationId))).toEqual(
+        new Set([orgs['Saltmarsh Restoration Works']]),
+      );
       const northgateRun = (await t.http.get('/api/runs?kind=as_left').set(as('admin'))).body.items[0];
       expect((await t.http.get(`/api/runs/${northgateRun.id}`).set(as('saltmarsh'))).status).toBe(404);
       expect((await t.http.get(`/api/runs/${northgateRun.id}`).set(as('northgate'))).status).toBe(200);
@@ -64,7 +66,10 @@ describe('runs (e2e, MariaDB)', () => {
       const { jobId, rangeIds } = await fresh();
       const calibration = await t.http.post(`/api/jobs/${jobId}/runs`).set(as('engineer')).send({ rangeId: rangeIds[0], kind: 'as_found' });
       expect(calibration.status).toBe(403);
-      const study = await t.http.post(`/api/jobs/${jobId}/runs`).set(as('engineer')).send({ rangeId: rangeIds[0], kind: 'warmup', supplyVoltage: 230, configuration: 'cold start' });
+      const study = await t.http
+        .post(`/api/jobs/${jobId}/runs`)
+        .set(as('engineer'))
+        .send({ rangeId: rangeIds[0], kind: 'warmup', supplyVoltage: 230, configuration: 'cold start' });
       expect(study.status).toBe(201);
       expect(study.body).toMatchObject({ kind: 'warmup', status: 'open', supplyVoltage: 230, readingCount: 0, lastSeq: 0, createdByName: 'Ellis Okafor' });
       expect((await t.http.post(`/api/jobs/${jobId}/runs`).set(as('northgate')).send({ rangeId: rangeIds[0], kind: 'warmup' })).status).toBe(403);
@@ -74,14 +79,20 @@ describe('runs (e2e, MariaDB)', () => {
       const { jobId, rangeIds } = await fresh();
       const lapsed = standards['Bench counter B (spare)'];
       const body = { rangeId: rangeIds[0], kind: 'as_found', standardId: lapsed };
-      const tech = await t.http.post(`/api/jobs/${jobId}/runs`).set(as('tech')).send({ ...body, standardOverrideReason: 'I would like to use it anyway' });
+      const tech = await t.http
+        .post(`/api/jobs/${jobId}/runs`)
+        .set(as('tech'))
+        .send({ ...body, standardOverrideReason: 'I would like to use it anyway' });
       expect(tech.status).toBe(409);
       expect(tech.body.message).toMatch(/Bench counter B \(spare\)" was due for calibration on \d{4}-\d{2}-\d{2}; only a lead can override/);
       const leadWithout = await t.http.post(`/api/jobs/${jobId}/runs`).set(as('lead')).send(body);
       expect(leadWithout.status).toBe(409);
       expect(leadWithout.body.message).toContain('standardOverrideReason');
       const reason = 'Counter A away for repair; B checked against the house reference this morning, within 0.2 ppm.';
-      const lead = await t.http.post(`/api/jobs/${jobId}/runs`).set(as('lead')).send({ ...body, standardOverrideReason: reason });
+      const lead = await t.http
+        .post(`/api/jobs/${jobId}/runs`)
+        .set(as('lead'))
+        .send({ ...body, standardOverrideReason: reason });
       expect(lead.status).toBe(201);
       expect(lead.body).toMatchObject({ standardId: lapsed, standardName: 'Bench counter B (spare)', standardOverrideReason: reason });
       const [audit] = await t.dataSource.query(
@@ -92,13 +103,18 @@ describe('runs (e2e, MariaDB)', () => {
       expect(audit.actor_id).toBe(me.body.id);
       expect(parseChanges(audit.changes)).toMatchObject({ standardId: lapsed, reason });
       // An in-date standard needs no reason.
-      const inDate = await t.http.post(`/api/jobs/${jobId}/runs`).set(as('tech')).send({ rangeId: rangeIds[0], kind: 'as_left', standardId: standards['Bench counter A'] });
+      const inDate = await t.http
+        .post(`/api/jobs/${jobId}/runs`)
+        .set(as('tech'))
+        .send({ rangeId: rangeIds[0], kind: 'as_left', standardId: standards['Bench counter A'] });
       expect(inDate.status).toBe(201);
     });
 
     it('should take the bench’s default standard and allow one open run per bench', async () => {
       const { jobId, rangeIds } = await fresh();
-      const result = await t.dataSource.query("INSERT INTO benches (name, default_standard_id, active) VALUES ('Runs test bench', ?, 1)", [standards['Bench counter A']]);
+      const result = await t.dataSource.query("INSERT INTO benches (name, default_standard_id, active) VALUES ('Runs test bench', ?, 1)", [
+        standards['Bench counter A'],
+      ]);
       const benchId = result.insertId;
       const first = await t.http.post(`/api/jobs/${jobId}/runs`).set(as('tech')).send({ rangeId: rangeIds[0], kind: 'warmup', benchId });
       expect(first.status).toBe(201);
@@ -122,7 +138,10 @@ describe('runs (e2e, MariaDB)', () => {
       expect(closed.body.refusal).toBe(`run ${runId} is closed`);
       expect((await t.http.patch(`/api/runs/${runId}`).set(as('tech')).send({ status: 'closed' })).status).toBe(409);
       expect((await t.http.patch(`/api/runs/${runId}`).set(as('tech')).send({ status: 'open' })).status).toBe(400);
-      const readings = await t.http.post(`/api/runs/${runId}/readings`).set(as('tech')).send({ readings: [{ dial: 1500, frequency: 1.5e6 }] });
+      const readings = await t.http
+        .post(`/api/runs/${runId}/readings`)
+        .set(as('tech'))
+        .send({ readings: [{ dial: 1500, frequency: 1.5e6 }] });
       expect(readings.status).toBe(409);
       expect(readings.body.message).toContain('closed');
       const events = await t.dataSource.query("SELECT action FROM audit_events WHERE entity = 'run' AND entity_id = ? ORDER BY id", [String(runId)]);

@@ -49,13 +49,19 @@ describe('bad requests answer 4xx and change nothing (e2e, MariaDB)', () => {
     });
 
     it('32 levels of brackets inside a string are text, not nesting: the request reaches validation', async () => {
-      const res = await t.http.post('/api/auth/login').set('Content-Type', 'application/json').send(`{"email":"${'['.repeat(40)}","password":"x"}`);
+      const res = await t.http
+        .post('/api/auth/login')
+        .set('Content-Type', 'application/json')
+        .send(`{"email":"${'['.repeat(40)}","password":"x"}`);
       expect(res.status).toBe(400);
       expect(text(res)).toContain('email');
     });
 
     it('a body over 1 MB answers 413', async () => {
-      const res = await t.http.post('/api/auth/login').set('Content-Type', 'application/json').send(`{"email":"${'a'.repeat(1_100_000)}"}`);
+      const res = await t.http
+        .post('/api/auth/login')
+        .set('Content-Type', 'application/json')
+        .send(`{"email":"${'a'.repeat(1_100_000)}"}`);
       expect(res.status).toBe(413);
     });
 
@@ -154,10 +160,7 @@ describe('bad requests answer 4xx and change nothing (e2e, MariaDB)', () => {
       const run = await createRun(t.dataSource, { organizationId: org, benchId: null, kind: 'warmup' });
       before = await counts();
       const file = Buffer.from(`time,frequency\n0,7001000\n1,"${'7'.repeat(4_100_000)}\n`, 'utf8');
-      const res = await t.http
-        .post(`/api/runs/${run.runId}/imports`)
-        .set(as('tech'))
-        .attach('file', file, { filename: 'long.csv', contentType: 'text/csv' });
+      const res = await t.http.post(`/api/runs/${run.runId}/imports`).set(as('tech')).attach('file', file, { filename: 'long.csv', contentType: 'text/csv' });
       expect(res.status).toBe(400);
       expect(text(res)).toMatch(/a line runs on for more than 4 million characters/);
       expect(res.body.imported).toBe(0);

@@ -35,8 +35,15 @@ describe('single-line text fields (e2e, MariaDB)', () => {
     ['model', 'TG-1\tmk II'],
     ['assetTag', 'TAG\u2028PASS'],
   ])('POST /api/instruments refuses a %s with a control character, storing nothing', async (field, value) => {
-    const [instrumentsBefore, rangesBefore, auditBefore] = [await count('SELECT COUNT(*) AS n FROM instruments'), await count('SELECT COUNT(*) AS n FROM instrument_ranges'), await auditCount()];
-    const res = await t.http.post('/api/instruments').set(as('lead')).send(instrument({ [field]: value }));
+    const [instrumentsBefore, rangesBefore, auditBefore] = [
+      await count('SELECT COUNT(*) AS n FROM instruments'),
+      await count('SELECT COUNT(*) AS n FROM instrument_ranges'),
+      await auditCount(),
+    ];
+    const res = await t.http
+      .post('/api/instruments')
+      .set(as('lead'))
+      .send(instrument({ [field]: value }));
     expect(res.status).toBe(400);
     expect(res.body.message).toEqual([message(field)]);
     expect(await count('SELECT COUNT(*) AS n FROM instruments')).toBe(instrumentsBefore);
@@ -45,10 +52,15 @@ describe('single-line text fields (e2e, MariaDB)', () => {
   });
 
   it('PATCH /api/instruments/:id refuses a serial or a range label with a line break and changes nothing', async () => {
-    const created = await t.http.post('/api/instruments').set(as('lead')).send(instrument({ serial: `SL-${process.pid}-patch` }));
+    const created = await t.http
+      .post('/api/instruments')
+      .set(as('lead'))
+      .send(instrument({ serial: `SL-${process.pid}-patch` }));
     expect(created.status).toBe(201);
     const id = created.body.id as number;
-    const before = JSON.stringify(await t.dataSource.query('SELECT * FROM instruments WHERE id = ?', [id])) + JSON.stringify(await t.dataSource.query('SELECT * FROM instrument_ranges WHERE instrument_id = ? ORDER BY id', [id]));
+    const before =
+      JSON.stringify(await t.dataSource.query('SELECT * FROM instruments WHERE id = ?', [id])) +
+      JSON.stringify(await t.dataSource.query('SELECT * FROM instrument_ranges WHERE instrument_id = ? ORDER BY id', [id]));
     const auditBefore = await auditCount();
 
     const serial = await t.http.patch(`/api/instruments/${id}`).set(as('lead')).send({ serial: 'SL-1\nSL-2' });
@@ -56,18 +68,26 @@ describe('single-line text fields (e2e, MariaDB)', () => {
     expect(serial.body.message).toEqual(expect.arrayContaining([message('serial')]));
 
     const range = { ...created.body.ranges[0], label: 'Band A\r\nBand B' };
-    const label = await t.http.patch(`/api/instruments/${id}`).set(as('lead')).send({ ranges: [range] });
+    const label = await t.http
+      .patch(`/api/instruments/${id}`)
+      .set(as('lead'))
+      .send({ ranges: [range] });
     expect(label.status).toBe(400);
     expect(label.body.message).toEqual(expect.arrayContaining([expect.stringContaining(message('label'))]));
     expect(label.body.message.join(' ')).toContain('ranges.0.label');
 
-    const after = JSON.stringify(await t.dataSource.query('SELECT * FROM instruments WHERE id = ?', [id])) + JSON.stringify(await t.dataSource.query('SELECT * FROM instrument_ranges WHERE instrument_id = ? ORDER BY id', [id]));
+    const after =
+      JSON.stringify(await t.dataSource.query('SELECT * FROM instruments WHERE id = ?', [id])) +
+      JSON.stringify(await t.dataSource.query('SELECT * FROM instrument_ranges WHERE instrument_id = ? ORDER BY id', [id]));
     expect(after).toBe(before);
     expect(await auditCount()).toBe(auditBefore);
   });
 
   it('a multi-line description keeps its line breaks', async () => {
-    const res = await t.http.post('/api/instruments').set(as('lead')).send(instrument({ serial: `SL-${process.pid}-ml`, description: 'Two-band signal generator.\nDial cord replaced 1998.' }));
+    const res = await t.http
+      .post('/api/instruments')
+      .set(as('lead'))
+      .send(instrument({ serial: `SL-${process.pid}-ml`, description: 'Two-band signal generator.\nDial cord replaced 1998.' }));
     expect(res.status).toBe(201);
     const [row] = await t.dataSource.query('SELECT description FROM instruments WHERE id = ?', [res.body.id]);
     expect(row.description).toBe('Two-band signal generator.\nDial cord replaced 1998.');
@@ -88,7 +108,10 @@ describe('single-line text fields (e2e, MariaDB)', () => {
     };
     const standardsBefore = await count('SELECT COUNT(*) AS n FROM standards');
     const auditBefore = await auditCount();
-    const post = await t.http.post('/api/standards').set(as('lead')).send({ ...valid, name: 'Reference\tSL-1' });
+    const post = await t.http
+      .post('/api/standards')
+      .set(as('lead'))
+      .send({ ...valid, name: 'Reference\tSL-1' });
     expect(post.status).toBe(400);
     expect(post.body.message).toEqual(expect.arrayContaining([message('name')]));
     expect(await count('SELECT COUNT(*) AS n FROM standards')).toBe(standardsBefore);
@@ -104,10 +127,13 @@ describe('single-line text fields (e2e, MariaDB)', () => {
   });
 
   it('users: POST refuses a name with CR LF and creates no account', async () => {
-    const res = await t.http
-      .post('/api/users')
-      .set(as('admin'))
-      .send({ email: 'one.line@kilocycle.test', name: 'One\r\nLine', role: 'technician', organizationId: orgs['Saltmarsh Restoration Works'], password: 'a-good-long-password' });
+    const res = await t.http.post('/api/users').set(as('admin')).send({
+      email: 'one.line@kilocycle.test',
+      name: 'One\r\nLine',
+      role: 'technician',
+      organizationId: orgs['Saltmarsh Restoration Works'],
+      password: 'a-good-long-password',
+    });
     expect(res.status).toBe(400);
     expect(res.body.message).toEqual(expect.arrayContaining([message('name')]));
     expect(await count('SELECT COUNT(*) AS n FROM users WHERE email = ?', ['one.line@kilocycle.test'])).toBe(0);
@@ -134,10 +160,15 @@ describe('single-line text fields (e2e, MariaDB)', () => {
     const bench = await t.http.post('/api/benches').set(as('admin')).send({ name: 'Bench\r\n2' });
     expect(bench.status).toBe(400);
     expect(bench.body.message).toEqual([message('name')]);
-    const procedure = await t.http
-      .post('/api/procedures')
-      .set(as('lead'))
-      .send({ name: 'Proc\u007f', method: 'Line one.\nLine two.', decisionRule: 'simple', dialHalfDivisionPercentOfSpan: 0.1, driftPpm: 0, driftHz: 0, extraComponents: [] });
+    const procedure = await t.http.post('/api/procedures').set(as('lead')).send({
+      name: 'Proc\u007f',
+      method: 'Line one.\nLine two.',
+      decisionRule: 'simple',
+      dialHalfDivisionPercentOfSpan: 0.1,
+      driftPpm: 0,
+      driftHz: 0,
+      extraComponents: [],
+    });
     expect(procedure.status).toBe(400);
     // The multi-line method is fine; only the name is refused.
     expect(procedure.body.message).toEqual([message('name')]);

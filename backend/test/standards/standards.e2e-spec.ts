@@ -58,7 +58,10 @@ describe('reference standards (e2e, MariaDB)', () => {
     });
 
     it('should answer 400 naming each bad field', async () => {
-      const res = await t.http.post('/api/standards').set(as('lead')).send({ ...valid, dueDate: '30/06/2099', resolutionHz: 0, kind: 'sundial', colour: 'red' });
+      const res = await t.http
+        .post('/api/standards')
+        .set(as('lead'))
+        .send({ ...valid, dueDate: '30/06/2099', resolutionHz: 0, kind: 'sundial', colour: 'red' });
       expect(res.status).toBe(400);
       expect(res.body.message).toEqual(
         expect.arrayContaining([
@@ -85,10 +88,9 @@ describe('reference standards (e2e, MariaDB)', () => {
       const res = await t.http.patch(`/api/standards/${lapsed.id}`).set(as('admin')).send({ dueDate: '2099-01-31', certificateNumber: 'WRL-25-01999' });
       expect(res.status).toBe(200);
       expect(res.body).toMatchObject({ dueDate: '2099-01-31', overdue: false });
-      const [row] = await t.dataSource.query(
-        "SELECT changes FROM audit_events WHERE entity = 'standard' AND entity_id = ? AND action = 'update'",
-        [String(lapsed.id)],
-      );
+      const [row] = await t.dataSource.query("SELECT changes FROM audit_events WHERE entity = 'standard' AND entity_id = ? AND action = 'update'", [
+        String(lapsed.id),
+      ]);
       const changes = typeof row.changes === 'string' ? JSON.parse(row.changes) : row.changes;
       expect(changes.dueDate).toEqual({ from: lapsed.dueDate, to: '2099-01-31' });
       expect((await t.http.patch('/api/standards/999999').set(as('admin')).send({ active: false })).status).toBe(404);

@@ -23,7 +23,13 @@ export type ByHandPoint = {
   driftPpm: number;
   driftHz: number;
   /** A procedure's extra lines. */
-  extras: Array<{ value: number; unit: 'Hz' | 'ppm'; distribution: 'normal' | 'rectangular' | 'triangular' | 'u_shaped'; divisor?: number; dof?: number | null }>;
+  extras: Array<{
+    value: number;
+    unit: 'Hz' | 'ppm';
+    distribution: 'normal' | 'rectangular' | 'triangular' | 'u_shaped';
+    divisor?: number;
+    dof?: number | null;
+  }>;
 };
 
 export type ByHandBudget = { mean: number; n: number; uc: number; nuEff: number; k: number; Uunrounded: number; U: number };
@@ -69,7 +75,12 @@ export function budgetByHand(p: ByHandPoint): ByHandBudget {
   return { mean, n, uc, nuEff, k, Uunrounded, U: twoSignificant(Uunrounded) };
 }
 
-export type ByHandDecision = { decision: 'pass' | 'conditional_pass' | 'conditional_fail' | 'fail'; guardBandHz: number; acceptanceLimitHz: number; tur: number };
+export type ByHandDecision = {
+  decision: 'pass' | 'conditional_pass' | 'conditional_fail' | 'fail';
+  guardBandHz: number;
+  acceptanceLimitHz: number;
+  tur: number;
+};
 
 /** ILAC-G8:09/2019 4.2.1–4.2.3 with w = U (the unrounded k·u_c) for the guarded rules; e = |error|. */
 export function decisionByHand(errorHz: number, toleranceHz: number, U: number, rule: 'simple' | 'guarded' | 'guarded_binary'): ByHandDecision {

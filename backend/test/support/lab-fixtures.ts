@@ -70,7 +70,10 @@ export async function inDateStandard(t: TestApp): Promise<number> {
 /** Posts readings in batches of 1,000 (the most one request takes). */
 export async function postReadings(t: TestApp, headers: Headers, runId: number, readings: Array<Record<string, unknown>>): Promise<void> {
   for (let from = 0; from < readings.length; from += 1000) {
-    const res = await t.http.post(`/api/runs/${runId}/readings`).set(headers).send({ readings: readings.slice(from, from + 1000) });
+    const res = await t.http
+      .post(`/api/runs/${runId}/readings`)
+      .set(headers)
+      .send({ readings: readings.slice(from, from + 1000) });
     if (res.status !== 201) throw new Error(`readings: ${res.status} ${JSON.stringify(res.body).slice(0, 500)}`);
   }
 }

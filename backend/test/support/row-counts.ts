@@ -5,9 +5,11 @@ import type { DataSource } from 'typeorm';
  * estimate information_schema.TABLE_ROWS gives). The list of tables is read once per data source.
  */
 export async function rowCounter(ds: DataSource, skip: string[] = ['migrations']): Promise<() => Promise<Record<string, number>>> {
-  const tables = ((await ds.query(
-    "SELECT table_name AS name FROM information_schema.tables WHERE table_schema = DATABASE() AND table_type = 'BASE TABLE' ORDER BY table_name",
-  )) as Array<{ name: string }>)
+  const tables = (
+    (await ds.query(
+      "SELECT table_name AS name FROM information_schema.tables WHERE table_schema = DATABASE() AND table_type = 'BASE TABLE' ORDER BY table_name",
+    )) as Array<{ name: string }>
+  )
     .map((row) => row.name)
     .filter((name) => !skip.includes(name));
   const sql = `SELECT ${tables.map((name) => `(SELECT COUNT(*) FROM \`${name}\`) AS \`${name}\``).join(', ')}`;
@@ -19,5 +21,7 @@ export async function rowCounter(ds: DataSource, skip: string[] = ['migrations']
 
 /** The tables whose count differs between two snapshots, as "table before→after". */
 export function countChanges(before: Record<string, number>, after: Record<string, number>): string[] {
-  return Object.keys(before).filter((name) => before[name] !== after[name]).map((name) => `${name} ${before[name]}→${after[name]}`);
+  return Object.keys(before)
+    .filter((name) => before[name] !== after[name])
+    .map((name) => `${name} ${before[name]}→${after[name]}`);
 }

@@ -13,20 +13,32 @@ export class ThrowawayMariaDb {
 
   async init(): Promise<void> {
     this.port = await freePort();
-    execFileSync('mariadb-install-db', [
-      '--no-defaults', `--datadir=${join(this.dir, 'data')}`, '--user=root',
-      '--auth-root-authentication-method=normal', '--skip-test-db',
-    ], { stdio: 'ignore' });
+    execFileSync(
+      'mariadb-install-db',
+      ['--no-defaults', `--datadir=${join(this.dir, 'data')}`, '--user=root', '--auth-root-authentication-method=normal', '--skip-test-db'],
+      { stdio: 'ignore' },
+    );
     await this.start();
     this.sql("CREATE DATABASE kc; CREATE USER 'kc'@'127.0.0.1' IDENTIFIED BY 'kc-test-pw'; GRANT ALL ON kc.* TO 'kc'@'127.0.0.1';");
   }
 
   async start(): Promise<void> {
-    this.process = spawn('mariadbd', [
-      '--no-defaults', `--datadir=${join(this.dir, 'data')}`, `--socket=${this.socket}`, `--port=${this.port}`,
-      '--bind-address=127.0.0.1', `--pid-file=${join(this.dir, 'pid')}`, `--log-error=${join(this.dir, 'err.log')}`,
-      '--user=root', '--skip-name-resolve', '--innodb-buffer-pool-size=32M',
-    ], { stdio: 'ignore' });
+    this.process = spawn(
+      'mariadbd',
+      [
+        '--no-defaults',
+        `--datadir=${join(this.dir, 'data')}`,
+        `--socket=${this.socket}`,
+        `--port=${this.port}`,
+        '--bind-address=127.0.0.1',
+        `--pid-file=${join(this.dir, 'pid')}`,
+        `--log-error=${join(this.dir, 'err.log')}`,
+        '--user=root',
+        '--skip-name-resolve',
+        '--innodb-buffer-pool-size=32M',
+      ],
+      { stdio: 'ignore' },
+    );
     for (let i = 0; i < 120; i += 1) {
       try {
         execFileSync('mariadb-admin', ['--no-defaults', `--socket=${this.socket}`, '-uroot', 'ping'], { stdio: 'ignore' });

@@ -52,7 +52,10 @@ describe('accounts: role and organisation kind, password policy (e2e, MariaDB)',
     it('should refuse guessable passwords on creation with a message, and create nothing', async () => {
       const before = await count();
       for (const password of [' '.repeat(12), '123456789012', person.email, person.name, 'oberholzer12']) {
-        const res = await t.http.post('/api/users').set(as('admin')).send({ ...person, organizationId: labId, password });
+        const res = await t.http
+          .post('/api/users')
+          .set(as('admin'))
+          .send({ ...person, organizationId: labId, password });
         expect(res.status).toBe(400);
         expect(res.body.message).toEqual([expect.stringMatching(/^password is too easy to guess/)]);
       }
@@ -63,14 +66,23 @@ describe('accounts: role and organisation kind, password policy (e2e, MariaDB)',
       const strong72 = 'Quartz-ladder-violet-mains-hum-1735kHz-'.padEnd(72, 'x7');
       expect(Buffer.byteLength(strong72)).toBe(72);
       const tooLong = `${strong72}y`;
-      const refused = await t.http.post('/api/users').set(as('admin')).send({ ...person, organizationId: labId, password: tooLong });
+      const refused = await t.http
+        .post('/api/users')
+        .set(as('admin'))
+        .send({ ...person, organizationId: labId, password: tooLong });
       expect(refused.status).toBe(400);
       expect(refused.body.message).toEqual([expect.stringMatching(/^password must be at most 72 bytes in UTF-8 \(it has 73\)/)]);
       // Multi-byte characters count by bytes: 25 × "周" is 75 bytes though 25 characters.
-      const wide = await t.http.post('/api/users').set(as('admin')).send({ ...person, organizationId: labId, password: '周'.repeat(25) });
+      const wide = await t.http
+        .post('/api/users')
+        .set(as('admin'))
+        .send({ ...person, organizationId: labId, password: '周'.repeat(25) });
       expect(wide.status).toBe(400);
       expect(wide.body.message).toEqual([expect.stringMatching(/at most 72 bytes .*it has 75/)]);
-      const created = await t.http.post('/api/users').set(as('admin')).send({ ...person, organizationId: labId, password: strong72 });
+      const created = await t.http
+        .post('/api/users')
+        .set(as('admin'))
+        .send({ ...person, organizationId: labId, password: strong72 });
       expect(created.status).toBe(201);
       expect(typeof (await tokenFor(t.http, person.email, strong72))).toBe('string');
     });
@@ -83,7 +95,10 @@ describe('accounts: role and organisation kind, password policy (e2e, MariaDB)',
         expect(res.status).toBe(400);
         expect(res.body.message).toEqual([expect.stringMatching(/^password is too easy to guess/)]);
       }
-      const long = await t.http.patch(`/api/users/${id}`).set(as('admin')).send({ password: 'z'.repeat(73) });
+      const long = await t.http
+        .patch(`/api/users/${id}`)
+        .set(as('admin'))
+        .send({ password: 'z'.repeat(73) });
       expect(long.status).toBe(400);
       const [{ password_hash: after }] = await t.dataSource.query('SELECT password_hash FROM users WHERE id = ?', [id]);
       expect(after).toBe(before);

@@ -46,12 +46,18 @@ describe('users and organisations (e2e, MariaDB)', () => {
 
   describe('POST /api/users and PATCH /api/users/:id', () => {
     it.each(['lead', 'tech', 'engineer', 'northgate'] as const)('should answer 403 when %s tries to create a user', async (who) => {
-      const res = await t.http.post('/api/users').set(as(who)).send({ email: 'x@kilocycle.test', name: 'X', role: 'technician', organizationId: 1, password: 'long-enough-password' });
+      const res = await t.http
+        .post('/api/users')
+        .set(as(who))
+        .send({ email: 'x@kilocycle.test', name: 'X', role: 'technician', organizationId: 1, password: 'long-enough-password' });
       expect(res.status).toBe(403);
     });
 
     it('should answer 400 naming the field for an unknown field and a short password', async () => {
-      const res = await t.http.post('/api/users').set(as('admin')).send({ email: 'new@kilocycle.test', name: 'New', role: 'technician', organizationId: 1, password: 'short', shoeSize: 44 });
+      const res = await t.http
+        .post('/api/users')
+        .set(as('admin'))
+        .send({ email: 'new@kilocycle.test', name: 'New', role: 'technician', organizationId: 1, password: 'short', shoeSize: 44 });
       expect(res.status).toBe(400);
       expect(res.body.message).toEqual(expect.arrayContaining(['property shoeSize should not exist', 'password must be at least 12 characters']));
     });
@@ -59,20 +65,29 @@ describe('users and organisations (e2e, MariaDB)', () => {
     it('should create a technician who can then sign in, and audit it', async () => {
       const orgs = await t.http.get('/api/organizations?kind=lab').set(as('admin'));
       const labId = orgs.body.items[0].id;
-      const res = await t.http.post('/api/users').set(as('admin')).send({ email: 'New.Tech@kilocycle.test', name: 'New Tech', role: 'technician', organizationId: labId, password: 'a-good-long-password' });
+      const res = await t.http
+        .post('/api/users')
+        .set(as('admin'))
+        .send({ email: 'New.Tech@kilocycle.test', name: 'New Tech', role: 'technician', organizationId: labId, password: 'a-good-long-password' });
       expect(res.status).toBe(201);
       expect(res.body).toMatchObject({ email: 'new.tech@kilocycle.test', role: 'technician', active: true });
       const login = await t.http.post('/api/auth/login').send({ email: 'new.tech@kilocycle.test', password: 'a-good-long-password' });
       expect(login.status).toBe(200);
       const [audit] = await t.dataSource.query('SELECT action, actor_id FROM audit_events WHERE entity = ? AND entity_id = ?', ['user', String(res.body.id)]);
       expect(audit.action).toBe('create');
-      const dup = await t.http.post('/api/users').set(as('admin')).send({ email: 'new.tech@kilocycle.test', name: 'Again', role: 'technician', organizationId: labId, password: 'a-good-long-password' });
+      const dup = await t.http
+        .post('/api/users')
+        .set(as('admin'))
+        .send({ email: 'new.tech@kilocycle.test', name: 'Again', role: 'technician', organizationId: labId, password: 'a-good-long-password' });
       expect(dup.status).toBe(409);
     });
 
     it('should refuse a client account in the lab organisation', async () => {
       const orgs = await t.http.get('/api/organizations?kind=lab').set(as('admin'));
-      const res = await t.http.post('/api/users').set(as('admin')).send({ email: 'c@kilocycle.test', name: 'C', role: 'client', organizationId: orgs.body.items[0].id, password: 'a-good-long-password' });
+      const res = await t.http
+        .post('/api/users')
+        .set(as('admin'))
+        .send({ email: 'c@kilocycle.test', name: 'C', role: 'client', organizationId: orgs.body.items[0].id, password: 'a-good-long-password' });
       expect(res.status).toBe(400);
       expect(res.body.message).toContain('customer organisation');
     });
@@ -104,7 +119,10 @@ describe('users and organisations (e2e, MariaDB)', () => {
 
     it('should let the admin create and deactivate a customer, and refuse others', async () => {
       expect((await t.http.post('/api/organizations').set(as('lead')).send({ name: 'Hilltop Amateur Society', kind: 'customer' })).status).toBe(403);
-      const created = await t.http.post('/api/organizations').set(as('admin')).send({ name: 'Hilltop Amateur Society', kind: 'customer', contactEmail: 'sec@hilltop.test' });
+      const created = await t.http
+        .post('/api/organizations')
+        .set(as('admin'))
+        .send({ name: 'Hilltop Amateur Society', kind: 'customer', contactEmail: 'sec@hilltop.test' });
       expect(created.status).toBe(201);
       const off = await t.http.patch(`/api/organizations/${created.body.id}`).set(as('admin')).send({ active: false });
       expect(off.body.active).toBe(false);

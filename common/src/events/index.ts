@@ -48,15 +48,7 @@ export function runRoom(runId: number): string {
 
 /** Why the server refused something; the bridge stops on the permanent ones and retries `server_error`. */
 export type IngestErrorCode =
-  | 'bad_request'
-  | 'batch_too_large'
-  | 'not_attached'
-  | 'run_not_found'
-  | 'not_assigned'
-  | 'run_closed'
-  | 'job_locked'
-  | 'forbidden'
-  | 'server_error';
+  'bad_request' | 'batch_too_large' | 'not_attached' | 'run_not_found' | 'not_assigned' | 'run_closed' | 'job_locked' | 'forbidden' | 'server_error';
 
 /** The answer to a refused request: nothing was written. */
 export type Refusal = { ok: false; code: IngestErrorCode; error: string };

@@ -17,7 +17,10 @@ import type { Estimate } from './welch-from-estimates.js';
  */
 export function adevEstimate(point: Pick<StabilityPoint, 'deviation' | 'edf'>): Estimate {
   if (!(point.deviation >= 0) || !Number.isFinite(point.deviation) || !(point.edf > 0)) {
-    throw new MetrologyError('bad_argument', `adevEstimate requires a deviation of zero or more and edf greater than zero (got ${point.deviation}, ${point.edf})`);
+    throw new MetrologyError(
+      'bad_argument',
+      `adevEstimate requires a deviation of zero or more and edf greater than zero (got ${point.deviation}, ${point.edf})`,
+    );
   }
   return { value: point.deviation, se: point.deviation / Math.sqrt(2 * point.edf), df: point.edf };
 }

@@ -88,11 +88,7 @@ export const OUTLIER_STUDENTISED_LIMIT = 3;
  * analyseCalibration({ law: { kind: 'direct', unit: 'kHz' }, readings: [{ dial: 1750, frequency: 1_735_000 }] })
  *   .points[0].errorPercent; // => -0.857…
  */
-export function analyseCalibration(input: {
-  law: DialLaw;
-  tolerance?: Tolerance;
-  readings: ReadonlyArray<CalibrationReading>;
-}): CalibrationAnalysis {
+export function analyseCalibration(input: { law: DialLaw; tolerance?: Tolerance; readings: ReadonlyArray<CalibrationReading> }): CalibrationAnalysis {
   const fn = 'analyseCalibration';
   const groups = new Map<number, number[]>();
   for (const reading of input.readings) {

@@ -96,7 +96,10 @@ export function combineUncertainty(components: ReadonlyArray<UncertaintyComponen
   for (const line of lines) sumSquares += line.contribution ** 2;
   const uc = Math.sqrt(sumSquares);
   if (!(uc > 0)) throw new MetrologyError('zero_uncertainty', `${fn}: the combined uncertainty is zero; a budget needs at least one non-zero component`);
-  const nuEff = welchSatterthwaite(uc, lines.map((line) => [line.contribution, line.dof] as const));
+  const nuEff = welchSatterthwaite(
+    uc,
+    lines.map((line) => [line.contribution, line.dof] as const),
+  );
   const k = nuEff === Number.POSITIVE_INFINITY ? 2 : coverageFactor(Math.max(1, Math.floor(nuEff)), COVERAGE_95_45);
   const Uunrounded = k * uc;
   return { components: lines, uc, nuEff, k, U: roundUncertainty(Uunrounded), Uunrounded, coverage: 0.9545 };

@@ -31,7 +31,8 @@ export type CounterSettle = {
  */
 export function counterSettled(readings: readonly number[], count: number, toleranceHz: number): CounterSettle {
   const fn = 'counterSettled';
-  if (!Number.isInteger(count) || count < 2) throw new MetrologyError('bad_argument', `${fn} requires N, the readings that must agree, to be a whole number of 2 or more (got ${count})`);
+  if (!Number.isInteger(count) || count < 2)
+    throw new MetrologyError('bad_argument', `${fn} requires N, the readings that must agree, to be a whole number of 2 or more (got ${count})`);
   assertNonNegative(fn, 'the tolerance (Hz)', toleranceHz);
   assertFiniteArray(fn, 'the readings', readings);
   const judged = readings.slice(Math.max(0, readings.length - count));

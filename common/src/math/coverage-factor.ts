@@ -38,10 +38,7 @@ export function coverageFactor(nu: number, p: number = COVERAGE_95_45): number {
   if (nu > LARGE_DOF) {
     const z = p === COVERAGE_95_45 ? 2 : jstat.normal.inv(upper, 0, 1);
     return (
-      z +
-      (z ** 3 + z) / (4 * nu) +
-      (5 * z ** 5 + 16 * z ** 3 + 3 * z) / (96 * nu ** 2) +
-      (3 * z ** 7 + 19 * z ** 5 + 17 * z ** 3 - 15 * z) / (384 * nu ** 3)
+      z + (z ** 3 + z) / (4 * nu) + (5 * z ** 5 + 16 * z ** 3 + 3 * z) / (96 * nu ** 2) + (3 * z ** 7 + 19 * z ** 5 + 17 * z ** 3 - 15 * z) / (384 * nu ** 3)
     );
   }
   return jstat.studentt.inv(upper, nu);

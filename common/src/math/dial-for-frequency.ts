@@ -33,7 +33,10 @@ export function dialForFrequency(points: ReadonlyArray<{ dial: number; measured:
     }
     const sign = Math.sign(dFrequency);
     if (sign === 0 || (direction !== 0 && sign !== direction)) {
-      throw new MetrologyError('not_monotonic', `${fn} requires the measured frequency to rise or fall steadily with the dial (it turns near dial ${sorted[i]!.dial})`);
+      throw new MetrologyError(
+        'not_monotonic',
+        `${fn} requires the measured frequency to rise or fall steadily with the dial (it turns near dial ${sorted[i]!.dial})`,
+      );
     }
     direction = sign;
   }

@@ -7,9 +7,7 @@ import { MetrologyError } from './metrology-error.js';
  * frequency unit, or a table of dial-to-frequency points (frequencies in Hz) read by
  * linear interpolation.
  */
-export type DialLaw =
-  | { kind: 'direct'; unit: FrequencyUnit }
-  | { kind: 'table'; points: ReadonlyArray<{ dial: number; frequency: number }> };
+export type DialLaw = { kind: 'direct'; unit: FrequencyUnit } | { kind: 'table'; points: ReadonlyArray<{ dial: number; frequency: number }> };
 
 /** How far beyond the ends of a table law a dial value may be read, as a fraction of the table's dial span. */
 export const TABLE_EXTRAPOLATION_FRACTION = 0.1;

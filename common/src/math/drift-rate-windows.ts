@@ -21,12 +21,7 @@ export type DriftWindow = { tStart: number; tEnd: number; rateHzPerMin: number; 
  *   'not_sorted', 'bad_argument' (W or step ≤ 0), 'too_short' (record shorter than one window)
  * @example driftRateWindows([0, 60, 120, 180], [0, 1, 2, 3], 120); // => [{ tStart: 0, tEnd: 120, rateHzPerMin: 1, n: 3 }]
  */
-export function driftRateWindows(
-  t: ArrayLike<number>,
-  f: ArrayLike<number>,
-  windowSeconds: number,
-  opts: { stepSeconds?: number } = {},
-): DriftWindow[] {
+export function driftRateWindows(t: ArrayLike<number>, f: ArrayLike<number>, windowSeconds: number, opts: { stepSeconds?: number } = {}): DriftWindow[] {
   const fn = 'driftRateWindows';
   assertSameLength(fn, t, f);
   if (t.length < 3) throw new MetrologyError('too_few_points', `${fn} requires at least 3 data points`);

@@ -149,7 +149,8 @@ export function fitWarmup(t: ArrayLike<number>, f: ArrayLike<number>, opts: { li
     const variance = state.ssr / (n - parameterCount);
     const small = (tolerance: number, relative: number) =>
       step.every(
-        (s, j) => Math.abs(s) <= tolerance * Math.sqrt(Math.max(variance * inverse[j]![j]!, 0)) || Math.abs(s) <= relative * Math.max(1, Math.abs(parameters[j]!)),
+        (s, j) =>
+          Math.abs(s) <= tolerance * Math.sqrt(Math.max(variance * inverse[j]![j]!, 0)) || Math.abs(s) <= relative * Math.max(1, Math.abs(parameters[j]!)),
       );
     if (small(1e-6, 1e-12)) {
       converged = true;
@@ -292,8 +293,20 @@ function normalEquations(series: Series, p: number[], u0: number, linearTerm: bo
   const inverseTauSquared = 1 / (tau * tau);
   let ssr = 0;
   // Accumulate in locals (unrolled) for speed on 10⁶ points.
-  let s00 = 0, s01 = 0, s02 = 0, s03 = 0, s11 = 0, s12 = 0, s13 = 0, s22 = 0, s23 = 0, s33 = 0;
-  let r0 = 0, r1 = 0, r2 = 0, r3 = 0;
+  let s00 = 0,
+    s01 = 0,
+    s02 = 0,
+    s03 = 0,
+    s11 = 0,
+    s12 = 0,
+    s13 = 0,
+    s22 = 0,
+    s23 = 0,
+    s33 = 0;
+  let r0 = 0,
+    r1 = 0,
+    r2 = 0,
+    r3 = 0;
   const { u: us, g: gs } = series;
   for (let i = 0; i < us.length; i++) {
     const u = us[i]!;
@@ -302,10 +315,21 @@ function normalEquations(series: Series, p: number[], u0: number, linearTerm: bo
     const j2 = amplitude * e * du * inverseTauSquared;
     const residual = gs[i]! - (c0 + amplitude * e + c1 * u);
     ssr += residual * residual;
-    s00 += 1; s01 += e; s02 += j2; s11 += e * e; s12 += e * j2; s22 += j2 * j2;
-    r0 += residual; r1 += e * residual; r2 += j2 * residual;
+    s00 += 1;
+    s01 += e;
+    s02 += j2;
+    s11 += e * e;
+    s12 += e * j2;
+    s22 += j2 * j2;
+    r0 += residual;
+    r1 += e * residual;
+    r2 += j2 * residual;
     if (linearTerm) {
-      s03 += u; s13 += e * u; s23 += j2 * u; s33 += u * u; r3 += u * residual;
+      s03 += u;
+      s13 += e * u;
+      s23 += j2 * u;
+      s33 += u * u;
+      r3 += u * residual;
     }
   }
   const entries = [

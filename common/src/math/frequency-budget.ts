@@ -70,7 +70,15 @@ export function frequencyBudget(input: FrequencyBudgetInput): { components: Unce
       sensitivity: 1,
       dof: null,
     },
-    { name: 'Counter resolution (±1 count)', kind: 'B', distribution: 'rectangular', value: input.counterResolutionHz, divisor: rectangular, sensitivity: 1, dof: null },
+    {
+      name: 'Counter resolution (±1 count)',
+      kind: 'B',
+      distribution: 'rectangular',
+      value: input.counterResolutionHz,
+      divisor: rectangular,
+      sensitivity: 1,
+      dof: null,
+    },
   ];
   const notes: string[] = [];
   if (input.measuredSamples.length >= 2) {

@@ -54,13 +54,7 @@ export { settlingTimeUncertainty } from './settling-time-uncertainty.js';
 
 // Uncertainty and decision (§5.6)
 export { COVERAGE_95_45, coverageFactor } from './coverage-factor.js';
-export {
-  combineUncertainty,
-  DISTRIBUTION_DIVISORS,
-  welchSatterthwaite,
-  type CombinedUncertainty,
-  type UncertaintyComponent,
-} from './combine-uncertainty.js';
+export { combineUncertainty, DISTRIBUTION_DIVISORS, welchSatterthwaite, type CombinedUncertainty, type UncertaintyComponent } from './combine-uncertainty.js';
 export { roundResultToUncertainty, roundUncertainty } from './round-uncertainty.js';
 export { frequencyBudget, type FrequencyBudgetInput } from './frequency-budget.js';
 export { decide, TUR_FLAG_BELOW, type Decision, type DecisionResult, type DecisionRule } from './decide.js';

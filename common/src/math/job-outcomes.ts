@@ -15,7 +15,10 @@ function outcomeWords(o: Omit<JobOutcome, 'words'>): string {
   if (o.outOfTolerance > 0) {
     words = `out of tolerance at ${o.outOfTolerance} of ${plural(n, 'setting')}`;
     if (o.conditionalFail > 0) {
-      words += o.conditionalFail === o.outOfTolerance ? ', conditionally (beyond the limit by less than U)' : ` (${o.conditionalFail} of them conditionally: beyond the limit by less than U)`;
+      words +=
+        o.conditionalFail === o.outOfTolerance
+          ? ', conditionally (beyond the limit by less than U)'
+          : ` (${o.conditionalFail} of them conditionally: beyond the limit by less than U)`;
     }
   } else if (o.conditionalPass > 0) {
     words = `within tolerance, conditionally at ${o.conditionalPass} of ${plural(n, 'setting')} (inside the limit by less than U)`;

@@ -19,10 +19,7 @@ export type SettlingCriterion = { kind: 'within_hz'; hz: number } | { kind: 'rat
  * @throws {MetrologyError} 'bad_argument' for a criterion value ≤ 0 or an unknown kind, or a fit with τ ≤ 0
  * @example settlingTime({ fInf: 7e6, amplitude: -100, tau: 600, linear: null }, { kind: 'within_hz', hz: 1 }); // => 2763.1…
  */
-export function settlingTime(
-  fit: Pick<WarmupFit, 'amplitude' | 'tau' | 'linear'>,
-  criterion: SettlingCriterion,
-): number | null {
+export function settlingTime(fit: Pick<WarmupFit, 'amplitude' | 'tau' | 'linear'>, criterion: SettlingCriterion): number | null {
   const fn = 'settlingTime';
   assertPositive(fn, 'the fit time constant', fit.tau);
   const amplitude = fit.amplitude;

@@ -36,7 +36,10 @@ export type WelchDifference = {
  */
 export function welchDifference(a: SampleSummary, b: SampleSummary, confidence = 0.95): WelchDifference {
   const fn = 'welchDifference';
-  for (const [label, sample] of [['a', a], ['b', b]] as const) {
+  for (const [label, sample] of [
+    ['a', a],
+    ['b', b],
+  ] as const) {
     assertFinite(fn, `${label}.mean`, sample.mean);
     assertFinite(fn, `${label}.sd`, sample.sd);
     if (!Number.isInteger(sample.n) || sample.n < 2) {

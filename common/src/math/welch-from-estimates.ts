@@ -29,7 +29,10 @@ const NORMAL_DF = 1e7;
  */
 export function welchFromEstimates(a: Estimate, b: Estimate, confidence = 0.95): WelchDifference {
   const fn = 'welchFromEstimates';
-  for (const [label, estimate] of [['a', a], ['b', b]] as const) {
+  for (const [label, estimate] of [
+    ['a', a],
+    ['b', b],
+  ] as const) {
     assertFinite(fn, `${label}.value`, estimate.value);
     assertFinite(fn, `${label}.se`, estimate.se);
     if (estimate.se < 0) throw new MetrologyError('bad_argument', `${fn} requires ${label}.se of zero or more (got ${estimate.se})`);

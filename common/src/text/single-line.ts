@@ -39,12 +39,7 @@ export function singleLineMessage(field: string): string {
  * @example printableLine('Signal\r\ngenerator\tmk II\u0007'); // => 'Signal generator mk II'
  */
 export function printableLine(text: string): string {
-  return text
-    .replace(LINE_BREAKS, ' ')
-    .replace(/\t/g, ' ')
-    .replace(CONTROL_CHARACTERS, '')
-    .replace(/ {2,}/g, ' ')
-    .trim();
+  return text.replace(LINE_BREAKS, ' ').replace(/\t/g, ' ').replace(CONTROL_CHARACTERS, '').replace(/ {2,}/g, ' ').trim();
 }
 
 /**

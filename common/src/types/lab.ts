@@ -404,12 +404,7 @@ export type KeyingRunAnalysis = ReadyAnalysisBasis & {
 };
 
 export type RunAnalysis =
-  | CalibrationRunAnalysis
-  | WarmupRunAnalysis
-  | StabilityRunAnalysis
-  | SupplySensitivityRunAnalysis
-  | KeyingRunAnalysis
-  | EmptyRunAnalysis;
+  CalibrationRunAnalysis | WarmupRunAnalysis | StabilityRunAnalysis | SupplySensitivityRunAnalysis | KeyingRunAnalysis | EmptyRunAnalysis;
 
 // ---- Band planner (GET /api/instruments/:id/band-plan?region=2&wantedHz=…) ----
 

@@ -178,7 +178,10 @@ export type SavedComparison = {
 };
 export type CreateComparisonRequest = ComparisonOptions & { title: string; notes?: string | null; runIds: number[]; labels?: string[] };
 /** Options sent as null go back to the defaults. */
-export type UpdateComparisonRequest = Partial<Omit<CreateComparisonRequest, 'withinHz' | 'windowSeconds'>> & { withinHz?: number | null; windowSeconds?: number | null };
+export type UpdateComparisonRequest = Partial<Omit<CreateComparisonRequest, 'withinHz' | 'windowSeconds'>> & {
+  withinHz?: number | null;
+  windowSeconds?: number | null;
+};
 /** Sort on title, createdAt (default -createdAt) or updatedAt; q searches title and notes. */
 export type ListComparisonsQuery = ListQuery & { instrumentId?: number };
 
@@ -259,8 +262,22 @@ export type ImportProgress = {
 export const READINGS_CSV_COLUMNS = ['seq', 't_s', 'dial', 'frequency_hz', 'aux', 'source', 'received_at', 'excluded', 'excluded_reason'] as const;
 /** Columns of GET /api/jobs/:id/results.csv, in order: one line per calibration run and dial setting. */
 export const RESULTS_CSV_COLUMNS = [
-  'job', 'run_id', 'run_kind', 'range', 'dial', 'dial_unit', 'nominal_hz', 'measured_mean_hz', 'n', 'sd_hz',
-  'error_hz', 'error_ppm', 'error_percent', 'tolerance_hz', 'outlier', 'note',
+  'job',
+  'run_id',
+  'run_kind',
+  'range',
+  'dial',
+  'dial_unit',
+  'nominal_hz',
+  'measured_mean_hz',
+  'n',
+  'sd_hz',
+  'error_hz',
+  'error_ppm',
+  'error_percent',
+  'tolerance_hz',
+  'outlier',
+  'note',
 ] as const;
 
 // ---- Attachments (photos and documents on instruments and jobs) ----

@@ -4,4 +4,13 @@ export { parseFrequency } from './parse-frequency.js';
 export { parseNumber } from './parse-number.js';
 export { UnitParseError } from './unit-parse-error.js';
 export { MetrologyError, type MetrologyErrorCode } from '../math/metrology-error.js';
-export { SPAN_MARGIN, checkFrequencySpan, isWithinSpan, outsideSpan, probableFrequency, spanLimits, type OutsideSpan, type SpanLimits } from './frequency-span.js';
+export {
+  SPAN_MARGIN,
+  checkFrequencySpan,
+  isWithinSpan,
+  outsideSpan,
+  probableFrequency,
+  spanLimits,
+  type OutsideSpan,
+  type SpanLimits,
+} from './frequency-span.js';

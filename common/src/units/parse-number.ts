@@ -67,9 +67,7 @@ function checkGroups(part: string, which: 'integer' | 'fraction', input: string)
   const groups = part.split(GROUP_SPACES);
   const ok =
     groups.every((group) => group.length >= 1 && group.length <= 3) &&
-    (which === 'integer'
-      ? groups.slice(1).every((group) => group.length === 3)
-      : groups.slice(0, -1).every((group) => group.length === 3));
+    (which === 'integer' ? groups.slice(1).every((group) => group.length === 3) : groups.slice(0, -1).every((group) => group.length === 3));
   if (!ok) {
     throw new UnitParseError('bad_grouping', `'${input}' groups its ${which} digits oddly: use groups of three separated by one space`, input);
   }

@@ -22,9 +22,7 @@ export async function axeViolations(page: Page): Promise<Result[]> {
 export function describeViolations(violations: readonly Result[]): string {
   return violations
     .map((violation) => {
-      const nodes = violation.nodes
-        .slice(0, 8)
-        .map((node) => `    ${node.target.join(' ')}: ${(node.failureSummary ?? '').replace(/\s+/g, ' ').trim()}`);
+      const nodes = violation.nodes.slice(0, 8).map((node) => `    ${node.target.join(' ')}: ${(node.failureSummary ?? '').replace(/\s+/g, ' ').trim()}`);
       const more = violation.nodes.length > 8 ? [`    … and ${violation.nodes.length - 8} more`] : [];
       return [`  ${violation.id} (${violation.impact}, ${violation.nodes.length}×): ${violation.help}`, ...nodes, ...more].join('\n');
     })

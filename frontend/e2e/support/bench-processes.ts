@@ -17,7 +17,9 @@ export const OSCILLATOR_MODEL = join(BRIDGE_DIST, 'oscillator-model.js');
 export function assertBridgeBuilt(extra: string[] = []) {
   const missing = [BRIDGE, COUNTER_SIM, ...extra].filter((file) => !existsSync(file));
   if (missing.length > 0) {
-    throw new Error(`the bridge and counter simulator are not built (missing ${missing.join(', ')}): run \`bin/kilocycle test browser\`, which builds them first, or \`npm run build\``);
+    throw new Error(
+      `the bridge and counter simulator are not built (missing ${missing.join(', ')}): run \`bin/kilocycle test browser\`, which builds them first, or \`npm run build\``,
+    );
   }
 }
 
@@ -53,5 +55,4 @@ export async function until<T>(what: string, check: () => T | null | undefined, 
 }
 
 /** The port a counter simulator started with `--port 0` says it answers on. */
-export const simulatorPort = (counter: Child) =>
-  until('the counter simulator to listen', () => /answering SCPI on [\d.]+:(\d+)/.exec(counter.output())?.[1]);
+export const simulatorPort = (counter: Child) => until('the counter simulator to listen', () => /answering SCPI on [\d.]+:(\d+)/.exec(counter.output())?.[1]);

@@ -12,7 +12,11 @@ export async function sessionToken(page: Page): Promise<string> {
 export async function apiRequest<T>(token: string, method: string, path: string, body?: unknown): Promise<T> {
   const response = await fetch(`${BASE_URL}/api${path}`, {
     method,
-    headers: { ...(token ? { Authorization: `Bearer ${token}` } : {}), Accept: 'application/json', ...(body === undefined ? {} : { 'Content-Type': 'application/json' }) },
+    headers: {
+      ...(token ? { Authorization: `Bearer ${token}` } : {}),
+      Accept: 'application/json',
+      ...(body === undefined ? {} : { 'Content-Type': 'application/json' }),
+    },
     body: body === undefined ? undefined : JSON.stringify(body),
   });
   const text = await response.text();
@@ -34,7 +38,10 @@ type TestInstrument = { organizationId: number; make: string; model: string; ser
  * An invented instrument with one direct-reading 1750–2000 kHz range, for a test's own records (the browser tests
  * share the demo ones, so a test that writes readings or changes state works on its own).
  */
-export function createTestInstrument(token: string, { organizationId, make, model, serial, label = 'A  1750–2000 kHz', tolerancePercent = 0.5 }: TestInstrument) {
+export function createTestInstrument(
+  token: string,
+  { organizationId, make, model, serial, label = 'A  1750–2000 kHz', tolerancePercent = 0.5 }: TestInstrument,
+) {
   return apiRequest<Instrument>(token, 'POST', '/instruments', {
     organizationId,
     make,

@@ -57,8 +57,7 @@ export function toApiError(status: number, body: unknown): ApiError {
     const record = body as Record<string, unknown>;
     const { message } = record;
     if (typeof message === 'string' && message.trim()) messages = [message.trim()];
-    else if (Array.isArray(message))
-      messages = message.filter((m): m is string => typeof m === 'string' && m.trim() !== '').map((m) => m.trim());
+    else if (Array.isArray(message)) messages = message.filter((m): m is string => typeof m === 'string' && m.trim() !== '').map((m) => m.trim());
     if (typeof record.error === 'string') error = record.error;
   } else if (typeof body === 'string' && body.trim() && body.length < 300 && !body.trimStart().startsWith('<')) {
     messages = [body.trim()];
@@ -150,11 +149,7 @@ async function request<T>(method: string, path: string, body: unknown, options: 
   const headers: Record<string, string> = { Accept: 'application/json', ...authHeaders() };
   if (body !== undefined) headers['Content-Type'] = 'application/json';
 
-  const response = await send(
-    buildUrl(path, params),
-    { method, headers, body: body === undefined ? undefined : JSON.stringify(body), signal },
-    shouldNotify,
-  );
+  const response = await send(buildUrl(path, params), { method, headers, body: body === undefined ? undefined : JSON.stringify(body), signal }, shouldNotify);
   const data = await readBody(response);
   if (response.ok) return data as T;
   throw refused(response.status, data, { notify: shouldNotify, handleUnauthorized, warnSessionEnded: shouldNotify });
@@ -228,7 +223,15 @@ export type UploadOptions = {
  * ends the session); rejects only when the server cannot be reached, with an ApiError of status 0, or when
  * aborted.
  */
-export function uploadWithProgress({ method = 'POST', path, body, headers = {}, onUploadProgress, signal, authenticated = true }: UploadOptions): Promise<UploadResult> {
+export function uploadWithProgress({
+  method = 'POST',
+  path,
+  body,
+  headers = {},
+  onUploadProgress,
+  signal,
+  authenticated = true,
+}: UploadOptions): Promise<UploadResult> {
   return new Promise<UploadResult>((resolve, reject) => {
     const xhr = new XMLHttpRequest();
     xhr.open(method, apiUrl(path));

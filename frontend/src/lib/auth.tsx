@@ -85,9 +85,7 @@ export function RequireAuth({ children }: GuardProps) {
 }
 
 function sameUser(a: SessionUser, b: SessionUser) {
-  return (
-    a.id === b.id && a.email === b.email && a.name === b.name && a.role === b.role && a.organizationId === b.organizationId
-  );
+  return a.id === b.id && a.email === b.email && a.name === b.name && a.role === b.role && a.organizationId === b.organizationId;
 }
 
 type RequireRoleProps = GuardProps & { roles: readonly Role[] };

@@ -14,12 +14,7 @@ let cachedSession: Session | null = null;
 function isSession(value: unknown): value is Session {
   if (typeof value !== 'object' || value === null) return false;
   const candidate = value as Partial<Session>;
-  return (
-    typeof candidate.accessToken === 'string' &&
-    typeof candidate.user === 'object' &&
-    candidate.user !== null &&
-    typeof candidate.user.role === 'string'
-  );
+  return typeof candidate.accessToken === 'string' && typeof candidate.user === 'object' && candidate.user !== null && typeof candidate.user.role === 'string';
 }
 
 function readRaw(): string | null {

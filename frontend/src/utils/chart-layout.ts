@@ -23,7 +23,11 @@ export function niceExtreme(value: number): number {
  * (rounded as the chart rounds its domain) print as, plus the tick marks, a gap, and the rotated axis
  * title. Never less than `min`.
  */
-export function yAxisWidth(values: readonly number[], format: (v: number) => string, options: { fontSize?: number; monospace?: boolean; title?: boolean; min?: number } = {}): number {
+export function yAxisWidth(
+  values: readonly number[],
+  format: (v: number) => string,
+  options: { fontSize?: number; monospace?: boolean; title?: boolean; min?: number } = {},
+): number {
   const { fontSize = 11, monospace = true, title = true, min = 48 } = options;
   const finite = values.filter((v) => Number.isFinite(v));
   if (finite.length === 0) return min;

@@ -6,21 +6,40 @@ import { QueryBoolean } from '../../shared/dto-helpers.js';
 const finite = { allowNaN: false, allowInfinity: false } as const;
 
 export class RunAnalysisQueryDto implements RunAnalysisQuery {
-  @IsOptional() @Type(() => Number) @IsNumber(finite, { message: 'tuningCapLowPf must be a number (pF)' }) @Min(0.001, { message: 'tuningCapLowPf must be greater than zero' }) @Max(1e6)
+  @IsOptional()
+  @Type(() => Number)
+  @IsNumber(finite, { message: 'tuningCapLowPf must be a number (pF)' })
+  @Min(0.001, { message: 'tuningCapLowPf must be greater than zero' })
+  @Max(1e6)
   tuningCapLowPf?: number;
 
-  @IsOptional() @Type(() => Number) @IsNumber(finite, { message: 'withinHz must be a number (Hz)' }) @Min(1e-9, { message: 'withinHz must be greater than zero' })
+  @IsOptional()
+  @Type(() => Number)
+  @IsNumber(finite, { message: 'withinHz must be a number (Hz)' })
+  @Min(1e-9, { message: 'withinHz must be greater than zero' })
   withinHz?: number;
 
-  @IsOptional() @Type(() => Number) @IsNumber(finite, { message: 'rateHzPerMin must be a number (Hz/min)' }) @Min(1e-9, { message: 'rateHzPerMin must be greater than zero' })
+  @IsOptional()
+  @Type(() => Number)
+  @IsNumber(finite, { message: 'rateHzPerMin must be a number (Hz/min)' })
+  @Min(1e-9, { message: 'rateHzPerMin must be greater than zero' })
   rateHzPerMin?: number;
 
-  @IsOptional() @Type(() => Number) @IsNumber(finite, { message: 'windowSeconds must be a number (s)' }) @Min(1, { message: 'windowSeconds must be at least 1' }) @Max(31 * 86400)
+  @IsOptional()
+  @Type(() => Number)
+  @IsNumber(finite, { message: 'windowSeconds must be a number (s)' })
+  @Min(1, { message: 'windowSeconds must be at least 1' })
+  @Max(31 * 86400)
   windowSeconds?: number;
 
-  @IsOptional() @QueryBoolean() @IsBoolean({ message: 'linear must be true or false' })
+  @IsOptional()
+  @QueryBoolean()
+  @IsBoolean({ message: 'linear must be true or false' })
   linear?: boolean;
 
-  @IsOptional() @Type(() => Number) @IsNumber(finite, { message: 'referenceHz must be a number (Hz)' }) @Min(1e-3, { message: 'referenceHz must be greater than zero' })
+  @IsOptional()
+  @Type(() => Number)
+  @IsNumber(finite, { message: 'referenceHz must be a number (Hz)' })
+  @Min(1e-3, { message: 'referenceHz must be greater than zero' })
   referenceHz?: number;
 }

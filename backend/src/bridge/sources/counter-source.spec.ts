@@ -40,8 +40,21 @@ describe('source addresses', () => {
   });
 
   it('should read serial addresses and their line settings', () => {
-    expect(parseSerialAddress('serial:/dev/ttyUSB0?baud=9600')).toEqual({ path: '/dev/ttyUSB0', baudRate: 9600, dataBits: 8, parity: 'none', stopBits: 1, query: null });
-    expect(parseSerialAddress('serial:/dev/ttyS1?baud=4800&bits=7&parity=even&stop=2&query=FETC?')).toMatchObject({ baudRate: 4800, dataBits: 7, parity: 'even', stopBits: 2, query: 'FETC?' });
+    expect(parseSerialAddress('serial:/dev/ttyUSB0?baud=9600')).toEqual({
+      path: '/dev/ttyUSB0',
+      baudRate: 9600,
+      dataBits: 8,
+      parity: 'none',
+      stopBits: 1,
+      query: null,
+    });
+    expect(parseSerialAddress('serial:/dev/ttyS1?baud=4800&bits=7&parity=even&stop=2&query=FETC?')).toMatchObject({
+      baudRate: 4800,
+      dataBits: 7,
+      parity: 'even',
+      stopBits: 2,
+      query: 'FETC?',
+    });
     expect(() => parseSerialAddress('serial:/dev/ttyUSB0?speed=9600')).toThrow('unknown serial setting "speed"');
     expect(() => parseSerialAddress('serial:/dev/ttyUSB0?parity=mark')).toThrow('parity');
   });

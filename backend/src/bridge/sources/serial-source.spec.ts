@@ -3,7 +3,16 @@ import type { AttachAck } from '@kilocycle/common/events';
 import type { Captured } from './counter-source.js';
 import { parseSerialAddress, SerialSource, type SerialPortLike } from './serial-source.js';
 
-const attach = { ok: true, runId: 1, lastSeq: 0, kind: 'warmup', startedAt: new Date().toISOString(), benchId: 1, benchName: 'Bench 1', range: { label: 'A', dialUnit: 'kHz', dialMin: 3500, dialMax: 7500, freqMinHz: 3.5e6, freqMaxHz: 7.5e6 } } satisfies AttachAck;
+const attach = {
+  ok: true,
+  runId: 1,
+  lastSeq: 0,
+  kind: 'warmup',
+  startedAt: new Date().toISOString(),
+  benchId: 1,
+  benchName: 'Bench 1',
+  range: { label: 'A', dialUnit: 'kHz', dialMin: 3500, dialMax: 7500, freqMinHz: 3.5e6, freqMaxHz: 7.5e6 },
+} satisfies AttachAck;
 
 /** A serial port simulated by serialport's own mock binding. */
 function mockPort(path: string, answer?: (command: string) => string | null) {

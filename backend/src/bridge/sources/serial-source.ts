@@ -10,7 +10,14 @@ export type SerialPortFactory = (address: SerialAddress) => Promise<SerialPortLi
 /** The real port, through the serialport package (loaded only when a serial source is used). */
 const openSerialPort: SerialPortFactory = async (address) => {
   const { SerialPort } = await import('serialport');
-  return new SerialPort({ path: address.path, baudRate: address.baudRate, dataBits: address.dataBits, parity: address.parity, stopBits: address.stopBits, autoOpen: false });
+  return new SerialPort({
+    path: address.path,
+    baudRate: address.baudRate,
+    dataBits: address.dataBits,
+    parity: address.parity,
+    stopBits: address.stopBits,
+    autoOpen: false,
+  });
 };
 
 export type SerialAddress = { path: string; baudRate: number; dataBits: 5 | 6 | 7 | 8; parity: 'none' | 'even' | 'odd'; stopBits: 1 | 2; query: string | null };

@@ -100,9 +100,19 @@ export class CreateProcedureDto implements CreateProcedureRequest {
   isDefault?: boolean;
 
   @OptionalNotNull() @IsInt() @Min(CAPTURE_LIMITS.settleCount.min) @Max(CAPTURE_LIMITS.settleCount.max) captureSettleCount?: number;
-  @OptionalNotNull() @IsNumber({ allowNaN: false, allowInfinity: false }) @Min(CAPTURE_LIMITS.toleranceHz.min) @Max(CAPTURE_LIMITS.toleranceHz.max) captureToleranceHz?: number;
+  @OptionalNotNull()
+  @IsNumber({ allowNaN: false, allowInfinity: false })
+  @Min(CAPTURE_LIMITS.toleranceHz.min)
+  @Max(CAPTURE_LIMITS.toleranceHz.max)
+  captureToleranceHz?: number;
   @OptionalNotNull() @IsInt() @Min(CAPTURE_LIMITS.timeoutS.min) @Max(CAPTURE_LIMITS.timeoutS.max) captureTimeoutS?: number;
-  @OptionalNotNull() @IsArray() @ArrayMaxSize(CAPTURE_LIMITS.dialMarks.max) @IsNumber({ allowNaN: false, allowInfinity: false }, { each: true }) @Min(-1e9, { each: true }) @Max(1e9, { each: true }) dialMarks?: number[];
+  @OptionalNotNull()
+  @IsArray()
+  @ArrayMaxSize(CAPTURE_LIMITS.dialMarks.max)
+  @IsNumber({ allowNaN: false, allowInfinity: false }, { each: true })
+  @Min(-1e9, { each: true })
+  @Max(1e9, { each: true })
+  dialMarks?: number[];
 }
 
 export class UpdateProcedureDto extends PartialUpdateType(CreateProcedureDto) implements UpdateProcedureRequest {

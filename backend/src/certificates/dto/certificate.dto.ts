@@ -1,12 +1,7 @@
 import { FIELD_LIMITS } from '@kilocycle/common/rules';
 import { Transform, Type } from 'class-transformer';
 import { IsBoolean, IsInt, IsOptional, IsString, Matches, Max, MaxLength, Min, MinLength } from 'class-validator';
-import type {
-  AmendCertificateRequest,
-  ListCertificatesQuery,
-  UpdateCertificateSettingsRequest,
-  WithdrawCertificateRequest,
-} from '@kilocycle/common/types';
+import type { AmendCertificateRequest, ListCertificatesQuery, UpdateCertificateSettingsRequest, WithdrawCertificateRequest } from '@kilocycle/common/types';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
 import { SingleLine } from '../../shared/single-line.decorator.js';
 import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';

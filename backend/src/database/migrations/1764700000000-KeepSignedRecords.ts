@@ -11,16 +11,24 @@ export class KeepSignedRecords1764700000000 implements MigrationInterface {
   name = 'KeepSignedRecords1764700000000';
 
   public async up(queryRunner: QueryRunner): Promise<void> {
-    await queryRunner.query(`CREATE TABLE \`standard_versions\` (\`id\` int NOT NULL AUTO_INCREMENT, \`standard_id\` int NOT NULL, \`version\` int NOT NULL, \`figures\` json NOT NULL, \`created_by\` int NULL, \`created_at\` datetime(3) NOT NULL DEFAULT CURRENT_TIMESTAMP(3), UNIQUE INDEX \`UQ_standard_versions_standard_version\` (\`standard_id\`, \`version\`), PRIMARY KEY (\`id\`)) ENGINE=InnoDB`);
-    await queryRunner.query(`CREATE TABLE \`procedure_versions\` (\`id\` int NOT NULL AUTO_INCREMENT, \`procedure_id\` int NOT NULL, \`version\` int NOT NULL, \`figures\` json NOT NULL, \`created_by\` int NULL, \`created_at\` datetime(3) NOT NULL DEFAULT CURRENT_TIMESTAMP(3), UNIQUE INDEX \`UQ_procedure_versions_procedure_version\` (\`procedure_id\`, \`version\`), PRIMARY KEY (\`id\`)) ENGINE=InnoDB`);
+    await queryRunner.query(
+      `CREATE TABLE \`standard_versions\` (\`id\` int NOT NULL AUTO_INCREMENT, \`standard_id\` int NOT NULL, \`version\` int NOT NULL, \`figures\` json NOT NULL, \`created_by\` int NULL, \`created_at\` datetime(3) NOT NULL DEFAULT CURRENT_TIMESTAMP(3), UNIQUE INDEX \`UQ_standard_versions_standard_version\` (\`standard_id\`, \`version\`), PRIMARY KEY (\`id\`)) ENGINE=InnoDB`,
+    );
+    await queryRunner.query(
+      `CREATE TABLE \`procedure_versions\` (\`id\` int NOT NULL AUTO_INCREMENT, \`procedure_id\` int NOT NULL, \`version\` int NOT NULL, \`figures\` json NOT NULL, \`created_by\` int NULL, \`created_at\` datetime(3) NOT NULL DEFAULT CURRENT_TIMESTAMP(3), UNIQUE INDEX \`UQ_procedure_versions_procedure_version\` (\`procedure_id\`, \`version\`), PRIMARY KEY (\`id\`)) ENGINE=InnoDB`,
+    );
     await queryRunner.query(`ALTER TABLE \`standards\` ADD \`version\` int NOT NULL DEFAULT '1'`);
     await queryRunner.query(`ALTER TABLE \`procedures\` ADD \`version\` int NOT NULL DEFAULT '1'`);
     await queryRunner.query(`ALTER TABLE \`runs\` ADD \`standard_version\` int NULL`);
     await queryRunner.query(`ALTER TABLE \`certificates\` ADD \`record\` json NULL`);
     await queryRunner.query(`ALTER TABLE \`certificates\` ADD \`instrument_label\` varchar(400) NULL`);
     await queryRunner.query(`ALTER TABLE \`certificates\` ADD \`customer_name\` varchar(200) NULL`);
-    await queryRunner.query(`ALTER TABLE \`standard_versions\` ADD CONSTRAINT \`FK_standard_versions_standard\` FOREIGN KEY (\`standard_id\`) REFERENCES \`standards\`(\`id\`) ON DELETE RESTRICT ON UPDATE NO ACTION`);
-    await queryRunner.query(`ALTER TABLE \`procedure_versions\` ADD CONSTRAINT \`FK_procedure_versions_procedure\` FOREIGN KEY (\`procedure_id\`) REFERENCES \`procedures\`(\`id\`) ON DELETE RESTRICT ON UPDATE NO ACTION`);
+    await queryRunner.query(
+      `ALTER TABLE \`standard_versions\` ADD CONSTRAINT \`FK_standard_versions_standard\` FOREIGN KEY (\`standard_id\`) REFERENCES \`standards\`(\`id\`) ON DELETE RESTRICT ON UPDATE NO ACTION`,
+    );
+    await queryRunner.query(
+      `ALTER TABLE \`procedure_versions\` ADD CONSTRAINT \`FK_procedure_versions_procedure\` FOREIGN KEY (\`procedure_id\`) REFERENCES \`procedures\`(\`id\`) ON DELETE RESTRICT ON UPDATE NO ACTION`,
+    );
     await queryRunner.query(
       `INSERT INTO \`standard_versions\` (\`standard_id\`, \`version\`, \`figures\`)
        SELECT id, 1, JSON_OBJECT('id', id, 'version', 1, 'name', name, 'makeModel', make_model, 'serial', serial,

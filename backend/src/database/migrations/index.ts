@@ -10,4 +10,15 @@ import { AddUserTokenVersion1764820000000 } from './1764820000000-AddUserTokenVe
 import { AddCounterCapture1764900000000 } from './1764900000000-AddCounterCapture.js';
 
 /** Every migration, oldest first. Listed as classes so jest (ESM) and the build load the same code. */
-export const MIGRATIONS = [CreateAccounts1764633600000, CreateLabRecords1764637200000, CreateCertificates1764643600000, CreateStudiesAndAttachments1764654000000, AddReadingSortIndexes1764660000000, KeepSignedRecords1764700000000, AddReadingAuthors1764730000000, AddCertificateAsFoundDecision1764750000000, AddUserTokenVersion1764820000000, AddCounterCapture1764900000000];
+export const MIGRATIONS = [
+  CreateAccounts1764633600000,
+  CreateLabRecords1764637200000,
+  CreateCertificates1764643600000,
+  CreateStudiesAndAttachments1764654000000,
+  AddReadingSortIndexes1764660000000,
+  KeepSignedRecords1764700000000,
+  AddReadingAuthors1764730000000,
+  AddCertificateAsFoundDecision1764750000000,
+  AddUserTokenVersion1764820000000,
+  AddCounterCapture1764900000000,
+];

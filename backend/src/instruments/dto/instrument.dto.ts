@@ -42,14 +42,21 @@ const finite = { allowNaN: false, allowInfinity: false } as const;
 
 /** One range in an instrument's POST/PATCH; dialLaw and tolerance (unions) are checked by the service. */
 export class RangeInputDto implements RangeInput {
-  @OptionalNotNull() @IsInt({ message: 'id must be a whole number' }) @Min(1)
+  @OptionalNotNull()
+  @IsInt({ message: 'id must be a whole number' })
+  @Min(1)
   id?: number;
 
   /** Accepted so a range can be sent back as it was read; the order of the list decides the positions. */
-  @OptionalNotNull() @IsInt({ message: 'position must be a whole number' })
+  @OptionalNotNull()
+  @IsInt({ message: 'position must be a whole number' })
   position?: number;
 
-  @IsString() @Trim() @MinLength(1, { message: 'label must not be empty' }) @MaxLength(FIELD_LIMITS.range.label.max) @SingleLine()
+  @IsString()
+  @Trim()
+  @MinLength(1, { message: 'label must not be empty' })
+  @MaxLength(FIELD_LIMITS.range.label.max)
+  @SingleLine()
   label: string;
 
   @IsIn(DIAL_UNITS, { message: `dialUnit must be one of: ${DIAL_UNITS.join(', ')}` })
@@ -64,10 +71,14 @@ export class RangeInputDto implements RangeInput {
   @IsNumber(finite, { message: 'dialMax must be a number' })
   dialMax: number;
 
-  @IsNumber(finite, { message: 'freqMinHz must be a number' }) @Min(1e-3, { message: 'freqMinHz must be greater than zero' }) @Max(1e11)
+  @IsNumber(finite, { message: 'freqMinHz must be a number' })
+  @Min(1e-3, { message: 'freqMinHz must be greater than zero' })
+  @Max(1e11)
   freqMinHz: number;
 
-  @IsNumber(finite, { message: 'freqMaxHz must be a number' }) @Min(1e-3, { message: 'freqMaxHz must be greater than zero' }) @Max(1e11)
+  @IsNumber(finite, { message: 'freqMaxHz must be a number' })
+  @Min(1e-3, { message: 'freqMaxHz must be greater than zero' })
+  @Max(1e11)
   freqMaxHz: number;
 
   @IsObject({ message: "tolerance must be an object: {kind: 'percent', percent} or {kind: 'ppm_hz', ppm, hz}" })
@@ -83,28 +94,54 @@ export class RangeInputDto implements RangeInput {
 }
 
 export class CreateInstrumentDto implements CreateInstrumentRequest {
-  @IsInt({ message: 'organizationId must be a whole number' }) @Min(1)
+  @IsInt({ message: 'organizationId must be a whole number' })
+  @Min(1)
   organizationId: number;
 
-  @IsString() @Trim() @MinLength(1, { message: 'make must not be empty' }) @MaxLength(FIELD_LIMITS.instrument.text.max) @SingleLine()
+  @IsString()
+  @Trim()
+  @MinLength(1, { message: 'make must not be empty' })
+  @MaxLength(FIELD_LIMITS.instrument.text.max)
+  @SingleLine()
   make: string;
 
-  @IsString() @Trim() @MinLength(1, { message: 'model must not be empty' }) @MaxLength(FIELD_LIMITS.instrument.text.max) @SingleLine()
+  @IsString()
+  @Trim()
+  @MinLength(1, { message: 'model must not be empty' })
+  @MaxLength(FIELD_LIMITS.instrument.text.max)
+  @SingleLine()
   model: string;
 
-  @IsString() @Trim() @MinLength(1, { message: 'serial must not be empty' }) @MaxLength(FIELD_LIMITS.instrument.text.max) @SingleLine()
+  @IsString()
+  @Trim()
+  @MinLength(1, { message: 'serial must not be empty' })
+  @MaxLength(FIELD_LIMITS.instrument.text.max)
+  @SingleLine()
   serial: string;
 
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @Trim() @MaxLength(FIELD_LIMITS.instrument.text.max) @SingleLine()
+  @IsOptional()
+  @ValidateIf((_o, v) => v !== null)
+  @IsString()
+  @Trim()
+  @MaxLength(FIELD_LIMITS.instrument.text.max)
+  @SingleLine()
   assetTag?: string | null;
 
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(FIELD_LIMITS.notes.max)
+  @IsOptional()
+  @ValidateIf((_o, v) => v !== null)
+  @IsString()
+  @MaxLength(FIELD_LIMITS.notes.max)
   description?: string | null;
 
-  @OptionalNotNull() @IsInt({ message: 'recallIntervalMonths must be a whole number' }) @Min(FIELD_LIMITS.instrument.recallIntervalMonths.min) @Max(FIELD_LIMITS.instrument.recallIntervalMonths.max)
+  @OptionalNotNull()
+  @IsInt({ message: 'recallIntervalMonths must be a whole number' })
+  @Min(FIELD_LIMITS.instrument.recallIntervalMonths.min)
+  @Max(FIELD_LIMITS.instrument.recallIntervalMonths.max)
   recallIntervalMonths?: number;
 
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsDateOnly('nextDueDate')
+  @IsOptional()
+  @ValidateIf((_o, v) => v !== null)
+  @IsDateOnly('nextDueDate')
   nextDueDate?: string | null;
 
   @OptionalNotNull()
@@ -119,20 +156,32 @@ export class CreateInstrumentDto implements CreateInstrumentRequest {
 export class UpdateInstrumentDto extends PartialUpdateType(OmitType(CreateInstrumentDto, ['organizationId'] as const)) implements UpdateInstrumentRequest {}
 
 export class ListInstrumentsQueryDto extends ListQueryDto implements ListInstrumentsQuery {
-  @IsOptional() @Type(() => Number) @IsInt({ message: 'organizationId must be a whole number' }) @Min(1)
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt({ message: 'organizationId must be a whole number' })
+  @Min(1)
   organizationId?: number;
 
-  @IsOptional() @IsDateOnly('dueBefore')
+  @IsOptional()
+  @IsDateOnly('dueBefore')
   dueBefore?: string;
 
-  @IsOptional() @QueryBoolean() @IsBoolean({ message: 'overdue must be true or false' })
+  @IsOptional()
+  @QueryBoolean()
+  @IsBoolean({ message: 'overdue must be true or false' })
   overdue?: boolean;
 }
 
 export class BandPlanQueryDto implements BandPlanQuery {
-  @IsOptional() @Type(() => Number) @IsIn([...ITU_REGIONS_WITH_BANDS], { message: `region must be an ITU region with a band table: ${ITU_REGIONS_WITH_BANDS.join(', ')}` })
+  @IsOptional()
+  @Type(() => Number)
+  @IsIn([...ITU_REGIONS_WITH_BANDS], { message: `region must be an ITU region with a band table: ${ITU_REGIONS_WITH_BANDS.join(', ')}` })
   region?: ItuRegion;
 
-  @IsOptional() @Type(() => Number) @IsNumber(finite, { message: 'wantedHz must be a number in Hz' }) @Min(1, { message: 'wantedHz must be greater than zero' }) @Max(1e11)
+  @IsOptional()
+  @Type(() => Number)
+  @IsNumber(finite, { message: 'wantedHz must be a number in Hz' })
+  @Min(1, { message: 'wantedHz must be greater than zero' })
+  @Max(1e11)
   wantedHz?: number;
 }

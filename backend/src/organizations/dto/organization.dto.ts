@@ -2,12 +2,7 @@ import { FIELD_LIMITS } from '@kilocycle/common/rules';
 import { OmitType } from '@nestjs/mapped-types';
 import { Transform } from 'class-transformer';
 import { IsBoolean, IsEmail, IsIn, IsOptional, IsString, MaxLength, MinLength, ValidateIf } from 'class-validator';
-import {
-  ORGANIZATION_KINDS,
-  type CreateOrganizationRequest,
-  type OrganizationKind,
-  type UpdateOrganizationRequest,
-} from '@kilocycle/common/types';
+import { ORGANIZATION_KINDS, type CreateOrganizationRequest, type OrganizationKind, type UpdateOrganizationRequest } from '@kilocycle/common/types';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
 import { SingleLine } from '../../shared/single-line.decorator.js';
 import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';

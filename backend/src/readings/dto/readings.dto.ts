@@ -1,6 +1,13 @@
 import { FIELD_LIMITS } from '@kilocycle/common/rules';
 import { ArrayMaxSize, ArrayMinSize, IsArray, IsBoolean, IsInt, IsOptional, IsString, Matches, Max, MaxLength, Min, MinLength } from 'class-validator';
-import { MAX_PAGE, MAX_PAGE_SIZE, type AppendReadingsRequest, type ExcludeReadingRequest, type ListReadingsQuery, type ReadingInput } from '@kilocycle/common/types';
+import {
+  MAX_PAGE,
+  MAX_PAGE_SIZE,
+  type AppendReadingsRequest,
+  type ExcludeReadingRequest,
+  type ListReadingsQuery,
+  type ReadingInput,
+} from '@kilocycle/common/types';
 import { QueryBoolean, Trim } from '../../shared/dto-helpers.js';
 import { DecimalInteger } from '../../shared/list-query.dto.js';
 import { MAX_BATCH } from '../readings-writer.service.js';
@@ -23,15 +30,27 @@ export class ExcludeReadingDto implements ExcludeReadingRequest {
 
 export class ListReadingsQueryDto implements ListReadingsQuery {
   // The same bounds as every other list (ListQueryDto): ?page=1e20 was a SQL error here too.
-  @IsOptional() @DecimalInteger() @IsInt() @Min(1) @Max(MAX_PAGE)
+  @IsOptional()
+  @DecimalInteger()
+  @IsInt()
+  @Min(1)
+  @Max(MAX_PAGE)
   page?: number;
 
-  @IsOptional() @DecimalInteger() @IsInt() @Min(1) @Max(MAX_PAGE_SIZE)
+  @IsOptional()
+  @DecimalInteger()
+  @IsInt()
+  @Min(1)
+  @Max(MAX_PAGE_SIZE)
   pageSize?: number;
 
-  @IsOptional() @IsString() @Matches(/^-?[a-zA-Z]+$/, { message: 'sort must be a field name, optionally preceded by - for descending' })
+  @IsOptional()
+  @IsString()
+  @Matches(/^-?[a-zA-Z]+$/, { message: 'sort must be a field name, optionally preceded by - for descending' })
   sort?: string;
 
-  @IsOptional() @QueryBoolean() @IsBoolean({ message: 'excluded must be true or false' })
+  @IsOptional()
+  @QueryBoolean()
+  @IsBoolean({ message: 'excluded must be true or false' })
   excluded?: boolean;
 }

@@ -20,58 +20,101 @@ const finite = { allowNaN: false, allowInfinity: false } as const;
 const kindMessage = `kind must be one of: ${RUN_KINDS.join(', ')}`;
 
 export class CreateRunDto implements CreateRunRequest {
-  @IsInt({ message: 'rangeId must be a whole number' }) @Min(1)
+  @IsInt({ message: 'rangeId must be a whole number' })
+  @Min(1)
   rangeId: number;
 
   @IsIn(RUN_KINDS, { message: kindMessage })
   kind: RunKind;
 
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsInt({ message: 'benchId must be a whole number' }) @Min(1)
+  @IsOptional()
+  @ValidateIf((_o, v) => v !== null)
+  @IsInt({ message: 'benchId must be a whole number' })
+  @Min(1)
   benchId?: number | null;
 
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsInt({ message: 'standardId must be a whole number' }) @Min(1)
+  @IsOptional()
+  @ValidateIf((_o, v) => v !== null)
+  @IsInt({ message: 'standardId must be a whole number' })
+  @Min(1)
   standardId?: number | null;
 
-  @OptionalNotNull() @IsString() @Trim() @MinLength(FIELD_LIMITS.run.overrideReason.min, { message: `standardOverrideReason must be at least ${FIELD_LIMITS.run.overrideReason.min} characters` }) @MaxLength(FIELD_LIMITS.run.overrideReason.max)
+  @OptionalNotNull()
+  @IsString()
+  @Trim()
+  @MinLength(FIELD_LIMITS.run.overrideReason.min, { message: `standardOverrideReason must be at least ${FIELD_LIMITS.run.overrideReason.min} characters` })
+  @MaxLength(FIELD_LIMITS.run.overrideReason.max)
   standardOverrideReason?: string;
 
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsNumber(finite, { message: 'supplyVoltage must be a number' }) @Min(FIELD_LIMITS.run.supplyVoltage.min) @Max(FIELD_LIMITS.run.supplyVoltage.max)
+  @IsOptional()
+  @ValidateIf((_o, v) => v !== null)
+  @IsNumber(finite, { message: 'supplyVoltage must be a number' })
+  @Min(FIELD_LIMITS.run.supplyVoltage.min)
+  @Max(FIELD_LIMITS.run.supplyVoltage.max)
   supplyVoltage?: number | null;
 
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
+  @IsOptional()
+  @ValidateIf((_o, v) => v !== null)
+  @IsString()
+  @MaxLength(5000)
   configuration?: string | null;
 
-  @IsOptional() @ValidateIf((_o, v) => v !== null) @IsString() @MaxLength(5000)
+  @IsOptional()
+  @ValidateIf((_o, v) => v !== null)
+  @IsString()
+  @MaxLength(5000)
   notes?: string | null;
 }
 
 export class UpdateRunDto extends PartialUpdateType(OmitType(CreateRunDto, ['rangeId', 'kind', 'benchId'] as const)) implements UpdateRunRequest {
-  @OptionalNotNull() @IsIn(['closed'], { message: 'status can only be set to closed (a closed run stays closed)' })
+  @OptionalNotNull()
+  @IsIn(['closed'], { message: 'status can only be set to closed (a closed run stays closed)' })
   status?: 'closed';
 
-  @OptionalNotNull() @IsString({ message: 'reason must be text' }) @Trim() @MinLength(FIELD_LIMITS.run.correctionReason.min, { message: `reason must be at least ${FIELD_LIMITS.run.correctionReason.min} characters` }) @MaxLength(FIELD_LIMITS.run.correctionReason.max)
+  @OptionalNotNull()
+  @IsString({ message: 'reason must be text' })
+  @Trim()
+  @MinLength(FIELD_LIMITS.run.correctionReason.min, { message: `reason must be at least ${FIELD_LIMITS.run.correctionReason.min} characters` })
+  @MaxLength(FIELD_LIMITS.run.correctionReason.max)
   reason?: string;
 }
 
 export class ListRunsQueryDto extends ListQueryDto implements ListRunsQuery {
-  @IsOptional() @Type(() => Number) @IsInt({ message: 'organizationId must be a whole number' }) @Min(1)
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt({ message: 'organizationId must be a whole number' })
+  @Min(1)
   organizationId?: number;
 
-  @IsOptional() @Type(() => Number) @IsInt({ message: 'instrumentId must be a whole number' }) @Min(1)
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt({ message: 'instrumentId must be a whole number' })
+  @Min(1)
   instrumentId?: number;
 
-  @IsOptional() @Type(() => Number) @IsInt({ message: 'jobId must be a whole number' }) @Min(1)
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt({ message: 'jobId must be a whole number' })
+  @Min(1)
   jobId?: number;
 
-  @IsOptional() @Type(() => Number) @IsInt({ message: 'rangeId must be a whole number' }) @Min(1)
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt({ message: 'rangeId must be a whole number' })
+  @Min(1)
   rangeId?: number;
 
-  @IsOptional() @Type(() => Number) @IsInt({ message: 'benchId must be a whole number' }) @Min(1)
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt({ message: 'benchId must be a whole number' })
+  @Min(1)
   benchId?: number;
 
-  @IsOptional() @IsIn(RUN_KINDS, { message: kindMessage })
+  @IsOptional()
+  @IsIn(RUN_KINDS, { message: kindMessage })
   kind?: RunKind;
 
-  @IsOptional() @IsIn(RUN_STATUSES, { message: `status must be one of: ${RUN_STATUSES.join(', ')}` })
+  @IsOptional()
+  @IsIn(RUN_STATUSES, { message: `status must be one of: ${RUN_STATUSES.join(', ')}` })
   status?: RunStatus;
 }

@@ -1,12 +1,6 @@
 import { FIELD_LIMITS } from '@kilocycle/common/rules';
 import { IsBoolean, IsIn, IsNumber, IsOptional, IsString, Max, MaxLength, Min, MinLength } from 'class-validator';
-import {
-  STANDARD_KINDS,
-  type CreateStandardRequest,
-  type ListStandardsQuery,
-  type StandardKind,
-  type UpdateStandardRequest,
-} from '@kilocycle/common/types';
+import { STANDARD_KINDS, type CreateStandardRequest, type ListStandardsQuery, type StandardKind, type UpdateStandardRequest } from '@kilocycle/common/types';
 import { IsDateOnly, QueryBoolean, Trim } from '../../shared/dto-helpers.js';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
 import { SingleLine } from '../../shared/single-line.decorator.js';
@@ -72,21 +66,27 @@ export class CreateStandardDto implements CreateStandardRequest {
 }
 
 export class UpdateStandardDto extends PartialUpdateType(CreateStandardDto) implements UpdateStandardRequest {
-  @OptionalNotNull() @IsBoolean()
+  @OptionalNotNull()
+  @IsBoolean()
   active?: boolean;
 }
 
 export class ListStandardsQueryDto extends ListQueryDto implements ListStandardsQuery {
-  @IsOptional() @IsIn(STANDARD_KINDS, { message: kindMessage })
+  @IsOptional()
+  @IsIn(STANDARD_KINDS, { message: kindMessage })
   kind?: StandardKind;
 
-  @IsOptional() @QueryBoolean() @IsBoolean({ message: 'active must be true or false' })
+  @IsOptional()
+  @QueryBoolean()
+  @IsBoolean({ message: 'active must be true or false' })
   active?: boolean;
 
-  @IsOptional() @QueryBoolean() @IsBoolean({ message: 'overdue must be true or false' })
+  @IsOptional()
+  @QueryBoolean()
+  @IsBoolean({ message: 'overdue must be true or false' })
   overdue?: boolean;
 
-  @IsOptional() @IsDateOnly('dueBefore')
+  @IsOptional()
+  @IsDateOnly('dueBefore')
   dueBefore?: string;
 }
-

@@ -2,13 +2,7 @@ import { FIELD_LIMITS } from '@kilocycle/common/rules';
 import { OmitType } from '@nestjs/mapped-types';
 import { Transform, Type } from 'class-transformer';
 import { IsBoolean, IsEmail, IsIn, IsInt, IsOptional, IsString, MaxLength, Min, MinLength } from 'class-validator';
-import {
-  MIN_PASSWORD_LENGTH,
-  ROLES,
-  type CreateUserRequest,
-  type Role,
-  type UpdateUserRequest,
-} from '@kilocycle/common/types';
+import { MIN_PASSWORD_LENGTH, ROLES, type CreateUserRequest, type Role, type UpdateUserRequest } from '@kilocycle/common/types';
 import { ListQueryDto } from '../../shared/list-query.dto.js';
 import { SingleLine } from '../../shared/single-line.decorator.js';
 import { OptionalNotNull } from '../../shared/optional-not-null.decorator.js';

@@ -35,8 +35,11 @@ describe('alignLC()', () => {
           const added = result.parallelCapChangePf! * 1e-12;
           const lowAfter = resonance(lAfter, cLowNow + added);
           const highAfter = resonance(lAfter, cHighNow + added);
-          return Math.abs(lowAfter / targets.low - 1) < 1e-9 && Math.abs(highAfter / targets.high - 1) < 1e-9 &&
-            Math.abs(result.parallelCapChangeFraction * cLowNow * 1e12 - result.parallelCapChangePf!) < 1e-9 * Math.abs(result.parallelCapChangePf! || 1);
+          return (
+            Math.abs(lowAfter / targets.low - 1) < 1e-9 &&
+            Math.abs(highAfter / targets.high - 1) < 1e-9 &&
+            Math.abs(result.parallelCapChangeFraction * cLowNow * 1e12 - result.parallelCapChangePf!) < 1e-9 * Math.abs(result.parallelCapChangePf! || 1)
+          );
         },
       ),
       { numRuns: 300 },

@@ -21,7 +21,13 @@ describe('AMATEUR_BANDS_BY_REGION (ITU Radio Regulations, Article 5, edition 202
     const rows = ituRows.filter((row) => Number(row.region) === region);
     expect(rows).toHaveLength(10);
     expect(bandsForRegion(region).map((b) => [b.name, b.lowHz, b.highHz, b.status, b.note])).toEqual(
-      rows.map((row) => [row.band, Number(row.lower_kHz) * 1000, Number(row.upper_kHz) * 1000, row.amateur_status, row.rr_note ? row.rr_note.replace(/^"|"$/g, '') : null]),
+      rows.map((row) => [
+        row.band,
+        Number(row.lower_kHz) * 1000,
+        Number(row.upper_kHz) * 1000,
+        row.amateur_status,
+        row.rr_note ? row.rr_note.replace(/^"|"$/g, '') : null,
+      ]),
     );
   });
   test('every band lies inside 1.8-30 MHz, lowest first, with no overlaps', () => {
@@ -64,9 +70,11 @@ describe('AMATEUR_BANDS_BY_REGION (ITU Radio Regulations, Article 5, edition 202
   });
   test('Region 2 other than 60 m matches amateur_hf_bands_region2_us.csv (Hamlib bandplan.h, 47 CFR 97.301)', () => {
     const rows = readCsv('radio/amateur_hf_bands_region2_us.csv').filter((row) => row.lower_kHz !== 'channelised');
-    expect(bandsForRegion(2).filter((b) => b.name !== '60 m').map((b) => [b.name, b.lowHz, b.highHz])).toEqual(
-      rows.map((row) => [row.band, Number(row.lower_kHz) * 1000, Number(row.upper_kHz) * 1000]),
-    );
+    expect(
+      bandsForRegion(2)
+        .filter((b) => b.name !== '60 m')
+        .map((b) => [b.name, b.lowHz, b.highHz]),
+    ).toEqual(rows.map((row) => [row.band, Number(row.lower_kHz) * 1000, Number(row.upper_kHz) * 1000]));
   });
   test('US 60 m channel centres match amateur_60m_us_channels.csv (47 CFR 97.305(c))', () => {
     expect(US_60M_CHANNELS_HZ).toEqual(readCsv('radio/amateur_60m_us_channels.csv').map((row) => Number(row.center_kHz) * 1000));
@@ -98,7 +106,13 @@ describe('planBands()', () => {
     expect(rows.every((row) => row.bands[0]!.full)).toBe(true);
   });
   test('in Region 1, 3.5-4.0 MHz covers 80 m whole and 7.0-7.3 MHz covers 40 m whole (band edges from the ITU RR fixture)', () => {
-    const rows = planBands([{ label: 'A', lowHz: 1.75e6, highHz: 2.0e6, multipliers: [1, 2, 4] }, { label: 'B', lowHz: 7.0e6, highHz: 7.3e6, multipliers: [1] }], 1);
+    const rows = planBands(
+      [
+        { label: 'A', lowHz: 1.75e6, highHz: 2.0e6, multipliers: [1, 2, 4] },
+        { label: 'B', lowHz: 7.0e6, highHz: 7.3e6, multipliers: [1] },
+      ],
+      1,
+    );
     expect(rows.map((row) => row.bands.map((b) => `${b.name}${b.full ? '' : ' part'}`))).toEqual([['160 m'], ['80 m'], ['40 m'], ['40 m']]);
     // 1.75-2.0 MHz holds Region 1's 1810-1850 kHz whole; ×2 gives 3.5-4.0 MHz, beyond 80 m's 3.8 MHz top.
     expect(rows[1]!.bands[0]).toEqual({ name: '80 m', coveredLowHz: 3.5e6, coveredHighHz: 3.8e6, full: true });
@@ -106,7 +120,17 @@ describe('planBands()', () => {
   });
   test('5.3-5.4 MHz reaches 60 m in every region, 6.0-6.5 MHz at ×1 reaches nothing', () => {
     for (const region of [1, 2, 3] as const) {
-      expect(names(planBands([{ label: 'F', lowHz: 5.3e6, highHz: 5.4e6, multipliers: [1] }, { label: 'G', lowHz: 6.0e6, highHz: 6.5e6, multipliers: [1] }], region))).toEqual([['60 m'], []]);
+      expect(
+        names(
+          planBands(
+            [
+              { label: 'F', lowHz: 5.3e6, highHz: 5.4e6, multipliers: [1] },
+              { label: 'G', lowHz: 6.0e6, highHz: 6.5e6, multipliers: [1] },
+            ],
+            region,
+          ),
+        ),
+      ).toEqual([['60 m'], []]);
     }
   });
   test('a band touched only at one edge is not counted', () => {

@@ -38,7 +38,20 @@ describe('dialToNominal()', () => {
     expect(errorCode(() => dialToNominal(kHzDial, Number.NaN))).toBe('not_finite');
     expect(errorCode(() => dialToNominal(kHzDial, 0))).toBe('bad_frequency');
     expect(errorCode(() => dialToNominal({ kind: 'table', points: [{ dial: 0, frequency: 1 }] }, 0))).toBe('too_few_points');
-    expect(errorCode(() => dialToNominal({ kind: 'table', points: [{ dial: 0, frequency: 1 }, { dial: 0, frequency: 2 }] }, 0))).toBe('bad_dial');
+    expect(
+      errorCode(() =>
+        dialToNominal(
+          {
+            kind: 'table',
+            points: [
+              { dial: 0, frequency: 1 },
+              { dial: 0, frequency: 2 },
+            ],
+          },
+          0,
+        ),
+      ),
+    ).toBe('bad_dial');
     expect(errorCode(() => dialToNominal({ kind: 'direct', unit: 'GHz' as never }, 1))).toBe('unknown_unit');
   });
 });
@@ -171,14 +184,43 @@ describe('dialForFrequency()', () => {
     expect(dialForFrequency(points, 1_990_000)).toBe(2000);
   });
   test('works for a dial whose frequency falls as the dial rises', () => {
-    expect(dialForFrequency([{ dial: 0, measured: 2e6 }, { dial: 100, measured: 1e6 }], 1.5e6)).toBe(50);
+    expect(
+      dialForFrequency(
+        [
+          { dial: 0, measured: 2e6 },
+          { dial: 100, measured: 1e6 },
+        ],
+        1.5e6,
+      ),
+    ).toBe(50);
   });
   test('refuses targets outside the measured span and non-monotonic data', () => {
     expect(errorCode(() => dialForFrequency(points, 1_700_000))).toBe('outside_span');
     expect(errorCode(() => dialForFrequency(points, 2_000_000))).toBe('outside_span');
-    expect(errorCode(() => dialForFrequency([{ dial: 0, measured: 1 }, { dial: 1, measured: 3 }, { dial: 2, measured: 2 }], 2.5))).toBe('not_monotonic');
+    expect(
+      errorCode(() =>
+        dialForFrequency(
+          [
+            { dial: 0, measured: 1 },
+            { dial: 1, measured: 3 },
+            { dial: 2, measured: 2 },
+          ],
+          2.5,
+        ),
+      ),
+    ).toBe('not_monotonic');
     expect(errorCode(() => dialForFrequency([{ dial: 0, measured: 1 }], 1))).toBe('too_few_points');
-    expect(errorCode(() => dialForFrequency([{ dial: 0, measured: 1 }, { dial: 0, measured: 2 }], 1))).toBe('bad_dial');
+    expect(
+      errorCode(() =>
+        dialForFrequency(
+          [
+            { dial: 0, measured: 1 },
+            { dial: 0, measured: 2 },
+          ],
+          1,
+        ),
+      ),
+    ).toBe('bad_dial');
   });
 });
 
@@ -201,13 +243,30 @@ describe('dialForFrequencyEstimate()', () => {
     expectRelative(high.dial, 2000 + 1250 / 129, 1e-14, 'high end');
     expect(high.extrapolated).toBe(true);
     // A dial whose frequency falls as it rises: beyond its high-frequency end lies below its lowest dial.
-    const falling = dialForFrequencyEstimate([{ dial: 0, measured: 2e6 }, { dial: 100, measured: 1e6 }], 2.5e6);
+    const falling = dialForFrequencyEstimate(
+      [
+        { dial: 0, measured: 2e6 },
+        { dial: 100, measured: 1e6 },
+      ],
+      2.5e6,
+    );
     expect(falling).toEqual({ dial: -50, extrapolated: true, measuredFrom: 0, measuredTo: 100 });
   });
   test('refuses a setting beyond the dial span, and keeps every other refusal of dialForFrequency', () => {
     expect(errorCode(() => dialForFrequencyEstimate(points, 2_000_000, { min: 1700, max: 2005 }))).toBe('outside_span');
     expect(dialForFrequencyEstimate(points, 2_000_000, { min: 1700, max: 2020 }).extrapolated).toBe(true);
-    expect(errorCode(() => dialForFrequencyEstimate([{ dial: 0, measured: 1 }, { dial: 1, measured: 3 }, { dial: 2, measured: 2 }], 4))).toBe('not_monotonic');
+    expect(
+      errorCode(() =>
+        dialForFrequencyEstimate(
+          [
+            { dial: 0, measured: 1 },
+            { dial: 1, measured: 3 },
+            { dial: 2, measured: 2 },
+          ],
+          4,
+        ),
+      ),
+    ).toBe('not_monotonic');
     expect(errorCode(() => dialForFrequencyEstimate([{ dial: 0, measured: 1 }], 2))).toBe('too_few_points');
     expect(errorCode(() => dialForFrequencyEstimate(points, Number.NaN))).toBe('not_finite');
   });

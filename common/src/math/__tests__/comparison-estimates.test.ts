@@ -78,7 +78,12 @@ describe('overlappingAdevAt()', () => {
     const gaussian = seededGaussian(7);
     const y = Array.from({ length: 500 }, () => 1e-9 * gaussian());
     const octaves = overlappingAdev(y, 2, { confidence: 0.95 });
-    const at = overlappingAdevAt(y, 2, octaves.map((p) => p.tau), { confidence: 0.95 });
+    const at = overlappingAdevAt(
+      y,
+      2,
+      octaves.map((p) => p.tau),
+      { confidence: 0.95 },
+    );
     octaves.forEach((point, i) => expect(at[i]).toEqual(point));
   });
 
@@ -188,7 +193,15 @@ describe('warmupCovariance() and settlingTimeUncertainty()', () => {
   });
 
   test('is 0 ± 0 when the amplitude is already inside the band, and refuses a band of 0', () => {
-    const covariance = { parameters: ['fInf', 'amplitude', 'tau'] as Array<'fInf' | 'amplitude' | 'tau'>, matrix: [[1, 0, 0], [0, 1, 0], [0, 0, 1]], df: 10 };
+    const covariance = {
+      parameters: ['fInf', 'amplitude', 'tau'] as Array<'fInf' | 'amplitude' | 'tau'>,
+      matrix: [
+        [1, 0, 0],
+        [0, 1, 0],
+        [0, 0, 1],
+      ],
+      df: 10,
+    };
     expect(settlingTimeUncertainty({ amplitude: 3, tau: 100, linear: null }, covariance, 5)).toEqual({ seconds: 0, se: 0, df: 10 });
     expect(errorCode(() => settlingTimeUncertainty({ amplitude: 3, tau: 100, linear: null }, covariance, 0))).toBe('bad_argument');
   });

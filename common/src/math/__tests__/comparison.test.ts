@@ -73,10 +73,14 @@ describe('describeDifference()', () => {
     );
   });
   test('an increase wholly above zero, with no unit', () => {
-    expect(describeDifference('run 2', 'ratio', '', { difference: 0.5, low: 0.25, high: 0.75 })).toBe('run 2: ratio higher by 0.50 (95 % interval 0.25 to 0.75 higher)');
+    expect(describeDifference('run 2', 'ratio', '', { difference: 0.5, low: 0.25, high: 0.75 })).toBe(
+      'run 2: ratio higher by 0.50 (95 % interval 0.25 to 0.75 higher)',
+    );
   });
   test('an end that rounds to zero reads "no change"', () => {
-    expect(describeDifference('after', 'f∞', 'Hz', { difference: -5, low: -10, high: -0.001 })).toBe('after: f∞ lower by 5.0 Hz (95 % interval 10.0 Hz lower to no change)');
+    expect(describeDifference('after', 'f∞', 'Hz', { difference: -5, low: -10, high: -0.001 })).toBe(
+      'after: f∞ lower by 5.0 Hz (95 % interval 10.0 Hz lower to no change)',
+    );
   });
   test('no difference at all', () => {
     expect(describeDifference('after', 'τ', 's', { difference: 0, low: -2, high: 2, confidence: 0.9 })).toBe(

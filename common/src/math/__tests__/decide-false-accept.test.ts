@@ -23,9 +23,7 @@ function falseAcceptNearerLimit(errorHz: number, toleranceHz: number, uc: number
 describe('decide() with the unrounded expanded uncertainty', () => {
   test('guarded binary: 7 498.995 Hz against ±7 500 Hz with u_c = 0.52451 Hz, k = 2 fails (AL = 7 498.951 Hz)', () => {
     // One normal Type B line of 0.52451 Hz: infinite degrees of freedom, so k = 2 (GUM Table G.2, ν = ∞).
-    const budget = combineUncertainty([
-      { name: 'u_c', kind: 'B', distribution: 'normal', value: 0.52451, divisor: 1, sensitivity: 1, dof: null },
-    ]);
+    const budget = combineUncertainty([{ name: 'u_c', kind: 'B', distribution: 'normal', value: 0.52451, divisor: 1, sensitivity: 1, dof: null }]);
     expect(budget.k).toBe(2);
     expect(budget.Uunrounded).toBeCloseTo(1.04902, 10);
     expect(budget.U).toBe(1.0); // what the certificate prints
@@ -53,7 +51,10 @@ describe('decide() with the unrounded expanded uncertainty', () => {
     tur: fc.double({ min: 1.0001, max: 30, noNaN: true }),
     // Offset of |e| from the acceptance limit, in units of U, uniform (fast-check's doubles crowd near 0): mostly
     // within ±10 % of the limit.
-    offset: fc.oneof(fc.integer({ min: -1000, max: 1000 }).map((i) => i / 10_000), fc.integer({ min: -300, max: 100 }).map((i) => i / 100)),
+    offset: fc.oneof(
+      fc.integer({ min: -1000, max: 1000 }).map((i) => i / 10_000),
+      fc.integer({ min: -300, max: 100 }).map((i) => i / 100),
+    ),
     negative: fc.boolean(),
     rule: fc.constantFrom('guarded_binary', 'guarded') as fc.Arbitrary<DecisionRule>,
   });

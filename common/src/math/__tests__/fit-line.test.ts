@@ -36,7 +36,10 @@ describe('fitLine()', () => {
   });
 
   test('Norris shifted by 1e6 in x keeps the slope to 1e-9 (centred sums)', () => {
-    const shifted = fitLine(x.map((v) => v + 1e6), y);
+    const shifted = fitLine(
+      x.map((v) => v + 1e6),
+      y,
+    );
     expectRelative(shifted.slope, certified.B1.estimate, 1e-9, 'slope on shifted Norris');
   });
 
@@ -48,7 +51,10 @@ describe('fitLine()', () => {
         fc.integer({ min: 3, max: 50 }),
         (intercept, slope, n) => {
           const xs = Array.from({ length: n }, (_, i) => i * 0.5 - 3);
-          const result = fitLine(xs, xs.map((v) => intercept + slope * v));
+          const result = fitLine(
+            xs,
+            xs.map((v) => intercept + slope * v),
+          );
           return Math.abs(result.slope - slope) <= 1e-9 * (1 + Math.abs(slope)) && result.residualSd <= 1e-9 * (1 + Math.abs(intercept) + Math.abs(slope));
         },
       ),

@@ -14,12 +14,31 @@ const CF = 'conditional_fail';
 const F = 'fail';
 
 describe('jobOutcomes()', () => {
-  test('three of ten as-found settings out of tolerance, all passing as left (the issue\'s sentence)', () => {
-    const pairs: Array<[Side, Side]> = [[P, P], [P, P], [F, P], [P, P], [F, P], [P, P], [P, P], [F, P], [P, P], [P, P]];
+  test("three of ten as-found settings out of tolerance, all passing as left (the issue's sentence)", () => {
+    const pairs: Array<[Side, Side]> = [
+      [P, P],
+      [P, P],
+      [F, P],
+      [P, P],
+      [F, P],
+      [P, P],
+      [P, P],
+      [F, P],
+      [P, P],
+      [P, P],
+    ];
     const o = jobOutcomes([range('Band A', pairs)]);
     expect(o.asFound).toEqual({
-      decision: 'fail', settings: 10, pass: 7, conditionalPass: 0, conditionalFail: 0, fail: 3,
-      outOfTolerance: 3, conditional: 0, undecided: 0, words: 'out of tolerance at 3 of 10 settings',
+      decision: 'fail',
+      settings: 10,
+      pass: 7,
+      conditionalPass: 0,
+      conditionalFail: 0,
+      fail: 3,
+      outOfTolerance: 3,
+      conditional: 0,
+      undecided: 0,
+      words: 'out of tolerance at 3 of 10 settings',
     });
     expect(o.asLeft).toMatchObject({ decision: 'pass', settings: 10, pass: 10, outOfTolerance: 0, words: 'within tolerance' });
     expect(o.asFoundFinalRanges).toEqual([]);
@@ -28,23 +47,52 @@ describe('jobOutcomes()', () => {
 
   test('settings are counted over every range; the worst decision is fail over conditional fail over conditional pass', () => {
     const o = jobOutcomes([
-      range('Band A', [[P, P], [CP, P], [CF, CP]]),
-      range('Band B', [[P, P], [P, CP]]),
+      range('Band A', [
+        [P, P],
+        [CP, P],
+        [CF, CP],
+      ]),
+      range('Band B', [
+        [P, P],
+        [P, CP],
+      ]),
     ]);
-    expect(o.asFound).toMatchObject({ decision: 'conditional_fail', settings: 5, pass: 3, conditionalPass: 1, conditionalFail: 1, fail: 0, outOfTolerance: 1, conditional: 2 });
+    expect(o.asFound).toMatchObject({
+      decision: 'conditional_fail',
+      settings: 5,
+      pass: 3,
+      conditionalPass: 1,
+      conditionalFail: 1,
+      fail: 0,
+      outOfTolerance: 1,
+      conditional: 2,
+    });
     expect(o.asFound!.words).toBe('out of tolerance at 1 of 5 settings, conditionally (beyond the limit by less than U)');
     expect(o.asLeft).toMatchObject({ decision: 'conditional_pass', settings: 5, pass: 3, conditionalPass: 2, outOfTolerance: 0, conditional: 2 });
     expect(o.asLeft!.words).toBe('within tolerance, conditionally at 2 of 5 settings (inside the limit by less than U)');
   });
 
   test('fail and conditional fail together are both out of tolerance', () => {
-    const o = jobOutcomes([range('R', [[F, P], [CF, P], [CF, P], [P, P]])]);
+    const o = jobOutcomes([
+      range('R', [
+        [F, P],
+        [CF, P],
+        [CF, P],
+        [P, P],
+      ]),
+    ]);
     expect(o.asFound).toMatchObject({ decision: 'fail', fail: 1, conditionalFail: 2, outOfTolerance: 3, conditional: 2 });
     expect(o.asFound!.words).toBe('out of tolerance at 3 of 4 settings (2 of them conditionally: beyond the limit by less than U)');
   });
 
   test('as found only: the as-found results are said to be the final ones', () => {
-    const o = jobOutcomes([range('Band A', [[P, undefined], [P, undefined], [P, undefined]])]);
+    const o = jobOutcomes([
+      range('Band A', [
+        [P, undefined],
+        [P, undefined],
+        [P, undefined],
+      ]),
+    ]);
     expect(o.asLeft).toBeNull();
     expect(o.asFound).toMatchObject({ decision: 'pass', settings: 3, pass: 3 });
     expect(o.asFoundFinalRanges).toEqual(['Band A']);
@@ -53,7 +101,10 @@ describe('jobOutcomes()', () => {
 
   test('one range adjusted, two not: the summary names the ranges whose as-found results are final', () => {
     const o = jobOutcomes([
-      range('Band A', [[F, P], [P, P]]),
+      range('Band A', [
+        [F, P],
+        [P, P],
+      ]),
       range('Band B', [[P, undefined]]),
       range('Band C', [[P, undefined]]),
     ]);
@@ -66,10 +117,21 @@ describe('jobOutcomes()', () => {
   });
 
   test('settings with no decision are counted apart and never read as a pass', () => {
-    const o = jobOutcomes([range('R', [[null, P], [null, null], [P, P]])]);
+    const o = jobOutcomes([
+      range('R', [
+        [null, P],
+        [null, null],
+        [P, P],
+      ]),
+    ]);
     expect(o.asFound).toMatchObject({ decision: 'pass', settings: 3, pass: 1, undecided: 2 });
     expect(o.asFound!.words).toBe('within tolerance; no decision at 2 of 3 settings');
-    const none = jobOutcomes([range('R', [[null, undefined], [null, undefined]])]);
+    const none = jobOutcomes([
+      range('R', [
+        [null, undefined],
+        [null, undefined],
+      ]),
+    ]);
     expect(none.asFound).toMatchObject({ decision: null, settings: 2, undecided: 2, words: 'no decision at any of the 2 settings' });
   });
 
@@ -85,7 +147,14 @@ describe('jobOutcomes()', () => {
 });
 
 describe('withOutcomes()', () => {
-  const stored = { ranges: [range('R', [[F, P], [P, P]])] } as unknown as Parameters<typeof withOutcomes>[0];
+  const stored = {
+    ranges: [
+      range('R', [
+        [F, P],
+        [P, P],
+      ]),
+    ],
+  } as unknown as Parameters<typeof withOutcomes>[0];
 
   test('derives the outcomes of results stored without them', () => {
     expect(withOutcomes(stored).outcomes.summary).toBe('As found: out of tolerance at 1 of 2 settings; as left: within tolerance.');

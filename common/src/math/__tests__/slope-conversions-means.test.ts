@@ -10,14 +10,28 @@ describe('dialSlope (numerical derivative of the dial law)', () => {
   });
 
   test('a table law has the slope of the segment the dial lies in (hand-worked: 1 MHz over 100 divisions, then 3 MHz over 100)', () => {
-    const law = { kind: 'table' as const, points: [{ dial: 0, frequency: 1e6 }, { dial: 100, frequency: 2e6 }, { dial: 200, frequency: 5e6 }] };
+    const law = {
+      kind: 'table' as const,
+      points: [
+        { dial: 0, frequency: 1e6 },
+        { dial: 100, frequency: 2e6 },
+        { dial: 200, frequency: 5e6 },
+      ],
+    };
     expectRelative(dialSlope(law, 25, 200), 10_000, 1e-9, 'first segment');
     expectRelative(dialSlope(law, 150, 200), 30_000, 1e-9, 'second segment');
   });
 
   test('one-sided at the table law’s extrapolation limit, and an error beyond it', () => {
     // The law reads up to 10 % of the span (20 divisions) past the last point: dial 220 has only a lower neighbour.
-    const law = { kind: 'table' as const, points: [{ dial: 0, frequency: 1e6 }, { dial: 100, frequency: 2e6 }, { dial: 200, frequency: 5e6 }] };
+    const law = {
+      kind: 'table' as const,
+      points: [
+        { dial: 0, frequency: 1e6 },
+        { dial: 100, frequency: 2e6 },
+        { dial: 200, frequency: 5e6 },
+      ],
+    };
     expectRelative(dialSlope(law, 220, 200), 30_000, 1e-9, 'at the limit');
     expect(() => dialSlope(law, 400, 200)).toThrow(MetrologyError);
     expect(() => dialSlope(law, 400, 200)).toThrow('the dial law gives no slope at dial 400');
@@ -32,7 +46,12 @@ describe('ppm ↔ Hz', () => {
   });
 
   test('the two are inverse of each other', () => {
-    for (const [ppm, f] of [[0.01, 10e6], [-3.2, 1.8e6], [50, 100e3]] as const) expectRelative(hzToPpm(ppmToHz(ppm, f), f), ppm, 1e-12, `${ppm} ppm at ${f} Hz`);
+    for (const [ppm, f] of [
+      [0.01, 10e6],
+      [-3.2, 1.8e6],
+      [50, 100e3],
+    ] as const)
+      expectRelative(hzToPpm(ppmToHz(ppm, f), f), ppm, 1e-12, `${ppm} ppm at ${f} Hz`);
   });
 });
 

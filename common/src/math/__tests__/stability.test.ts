@@ -87,10 +87,16 @@ describe('overlappingAdev()', () => {
         fc.double({ min: 1e-3, max: 1e3, noNaN: true }),
         fc.double({ min: -1e3, max: 1e3, noNaN: true }),
         (y, scale, offset) => {
-          const constant = overlappingAdev(y.map(() => offset), 1); // exactly 0, not merely small
+          const constant = overlappingAdev(
+            y.map(() => offset),
+            1,
+          ); // exactly 0, not merely small
           if (!constant.every((row) => row.deviation === 0 && row.ciLow === 0 && row.ciHigh === 0)) return false;
           const base = overlappingAdev(y, 1);
-          const scaled = overlappingAdev(y.map((v) => v * scale + offset), 1);
+          const scaled = overlappingAdev(
+            y.map((v) => v * scale + offset),
+            1,
+          );
           // Tolerance: 1e-9 relative, plus rounding of the inputs themselves (about 1e-12 of their size).
           const inputSize = scale * Math.max(...y.map(Math.abs)) + Math.abs(offset);
           return base.every((row, i) => Math.abs(scaled[i]!.deviation - scale * row.deviation) <= 1e-9 * scale * row.deviation + 1e-12 * inputSize);
@@ -137,9 +143,18 @@ describe('modifiedAdev()', () => {
   test('MDEV of a constant is 0 and scales linearly (property)', () => {
     fc.assert(
       fc.property(fc.array(sample, { minLength: 6, maxLength: 60 }), fc.double({ min: 1e-3, max: 1e3, noNaN: true }), (y, scale) => {
-        if (!modifiedAdev(y.map(() => 3), 1).every((row) => row.deviation === 0)) return false;
+        if (
+          !modifiedAdev(
+            y.map(() => 3),
+            1,
+          ).every((row) => row.deviation === 0)
+        )
+          return false;
         const base = modifiedAdev(y, 1);
-        const scaled = modifiedAdev(y.map((v) => v * scale), 1);
+        const scaled = modifiedAdev(
+          y.map((v) => v * scale),
+          1,
+        );
         // 1e-9 relative, plus rounding of the sums relative to the size of the data (about 1e-12).
         const inputSize = scale * Math.max(...y.map(Math.abs));
         return base.every((row, i) => Math.abs(scaled[i]!.deviation - scale * row.deviation) <= 1e-9 * scale * row.deviation + 1e-12 * inputSize);

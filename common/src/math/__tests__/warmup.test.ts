@@ -77,10 +77,31 @@ describe('fitWarmup()', () => {
 
   test('data that cannot support the model are refused with a clear code', () => {
     const flat = Array.from({ length: 50 }, (_, i) => i);
-    expect(errorCode(() => fitWarmup(flat, flat.map(() => 7e6)))).toBe('no_curvature');
-    expect(errorCode(() => fitWarmup(flat, flat.map((s) => 7e6 + 0.3 * s)))).toBe('no_curvature');
+    expect(
+      errorCode(() =>
+        fitWarmup(
+          flat,
+          flat.map(() => 7e6),
+        ),
+      ),
+    ).toBe('no_curvature');
+    expect(
+      errorCode(() =>
+        fitWarmup(
+          flat,
+          flat.map((s) => 7e6 + 0.3 * s),
+        ),
+      ),
+    ).toBe('no_curvature');
     const gaussian = seededGaussian(8);
-    expect(errorCode(() => fitWarmup(flat, flat.map(() => 7e6 + gaussian())))).toBe('no_curvature');
+    expect(
+      errorCode(() =>
+        fitWarmup(
+          flat,
+          flat.map(() => 7e6 + gaussian()),
+        ),
+      ),
+    ).toBe('no_curvature');
   });
 
   test('bad input gives typed errors', () => {
@@ -143,7 +164,11 @@ describe('driftRateWindows()', () => {
   });
   test('windows over a gap are left out, not invented', () => {
     const t = [0, 10, 20, 30, 40, 50, 60, 200, 210, 220, 230, 240];
-    const windows = driftRateWindows(t, t.map((s) => s), 60);
+    const windows = driftRateWindows(
+      t,
+      t.map((s) => s),
+      60,
+    );
     expect(windows.map((w) => w.tStart)).toEqual([0, 180]);
   });
   test('bad input', () => {
@@ -194,7 +219,12 @@ describe('warmupSettling()', () => {
   test('a record past both times marks neither; a settling time at the last reading itself is inside the record', () => {
     expect(warmupSettling([0, 3000], model, criteria)).toMatchObject({ withinExtrapolated: false, rateExtrapolated: false });
     // Within 100 Hz at t = 0 (|A| = 100): settled from power-on, inside any record.
-    expect(warmupSettling([0], model, { withinHz: 100, rateHzPerMin: 10 })).toMatchObject({ withinSeconds: 0, withinExtrapolated: false, rateSeconds: 0, rateExtrapolated: false });
+    expect(warmupSettling([0], model, { withinHz: 100, rateHzPerMin: 10 })).toMatchObject({
+      withinSeconds: 0,
+      withinExtrapolated: false,
+      rateSeconds: 0,
+      rateExtrapolated: false,
+    });
   });
   test('a rule never met is null and not an extrapolation', () => {
     // A linear drift of 0.02 Hz/s = 1.2 Hz/min never falls below 1 Hz/min.

@@ -58,7 +58,9 @@ describe('printableLine()', () => {
 
 describe('printableText()', () => {
   test('keeps line breaks, as LF, whatever the convention', () => {
-    expect(printableText('Dial cord slips.\r\nCase cracked.\rKnob missing.\u2028Fuse blown.')).toBe('Dial cord slips.\nCase cracked.\nKnob missing.\nFuse blown.');
+    expect(printableText('Dial cord slips.\r\nCase cracked.\rKnob missing.\u2028Fuse blown.')).toBe(
+      'Dial cord slips.\nCase cracked.\nKnob missing.\nFuse blown.',
+    );
   });
 
   test('at most one empty line; spaces at line ends and the ends trimmed', () => {

@@ -7,7 +7,17 @@ export type ConfidenceBar = { x: number; low: number; high: number };
  * each point's interval on the chart's own scales (log or linear) as a vertical line with caps.
  * Place it inside the chart's surface (a LineChart's children, or a ChartsSurface).
  */
-export function ConfidenceBars({ bars, color, testId = 'confidence-bars', cap = 4 }: { bars: readonly ConfidenceBar[]; color: string; testId?: string; cap?: number }) {
+export function ConfidenceBars({
+  bars,
+  color,
+  testId = 'confidence-bars',
+  cap = 4,
+}: {
+  bars: readonly ConfidenceBar[];
+  color: string;
+  testId?: string;
+  cap?: number;
+}) {
   const x = useXScale<'log'>();
   const y = useYScale<'log'>();
   return (

@@ -72,13 +72,7 @@ export function AppLayout({ children }: { children: ReactNode }) {
     <Box sx={{ display: 'flex', minHeight: '100vh' }}>
       <AppBar position="fixed" sx={{ zIndex: (t) => t.zIndex.drawer + 1 }}>
         <Toolbar variant="dense" sx={{ gap: 1.5 }}>
-          <IconButton
-            color="inherit"
-            edge="start"
-            aria-label="Open navigation"
-            onClick={() => setMobileOpen(true)}
-            sx={{ display: { md: 'none' } }}
-          >
+          <IconButton color="inherit" edge="start" aria-label="Open navigation" onClick={() => setMobileOpen(true)} sx={{ display: { md: 'none' } }}>
             <MenuIcon />
           </IconButton>
           <Logo />

@@ -193,7 +193,8 @@ export type FormOption = { value: string; label: ReactNode; disabled?: boolean }
 export function FormSelectField<T extends FieldValues, TOut>({
   options,
   ...rest
-}: FieldProps<T, TOut> & FieldChange & { options: readonly FormOption[] } & Omit<TextFieldProps, 'name' | 'value' | 'onChange' | 'onBlur' | 'select' | 'children'>) {
+}: FieldProps<T, TOut> &
+  FieldChange & { options: readonly FormOption[] } & Omit<TextFieldProps, 'name' | 'value' | 'onChange' | 'onBlur' | 'select' | 'children'>) {
   return (
     <FormTextField {...rest} select>
       {options.map((option) => (
@@ -223,7 +224,12 @@ export function FormSwitch<T extends FieldValues, TOut>({ control, name, label, 
 }
 
 /** A row of radio buttons with a group label, bound to a string form field. */
-export function FormRadioGroup<T extends FieldValues, TOut>({ control, name, label, options }: FieldProps<T, TOut> & { label: ReactNode; options: readonly FormOption[] }) {
+export function FormRadioGroup<T extends FieldValues, TOut>({
+  control,
+  name,
+  label,
+  options,
+}: FieldProps<T, TOut> & { label: ReactNode; options: readonly FormOption[] }) {
   const labelId = useId();
   return (
     <Controller

@@ -14,16 +14,15 @@ export function SafetyCaution({ compact = false, children }: { compact?: boolean
       {compact ? (
         <>
           {children ? <>{children} </> : null}
-          Much of this equipment holds hundreds of volts, and filter capacitors keep their charge after switch-off. Follow your
-          local electrical codes and licensed practice. Kilocycle does not judge whether a procedure is safe.
+          Much of this equipment holds hundreds of volts, and filter capacitors keep their charge after switch-off. Follow your local electrical codes and
+          licensed practice. Kilocycle does not judge whether a procedure is safe.
         </>
       ) : (
         <>
           {children ? <>{children} </> : null}
-          Much of this equipment holds hundreds of volts, and filter capacitors keep their charge after switch-off: discharge
-          them, keep one hand out of the chassis, and work through an isolation transformer. Follow your local electrical codes
-          and licensed practice. Tests on the air need the operator’s licence and a clean signal. Kilocycle records
-          measurements; it does not judge whether a procedure is safe.
+          Much of this equipment holds hundreds of volts, and filter capacitors keep their charge after switch-off: discharge them, keep one hand out of the
+          chassis, and work through an isolation transformer. Follow your local electrical codes and licensed practice. Tests on the air need the operator’s
+          licence and a clean signal. Kilocycle records measurements; it does not judge whether a procedure is safe.
         </>
       )}
     </Alert>

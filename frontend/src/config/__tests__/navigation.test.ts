@@ -31,7 +31,8 @@ describe('navigation', () => {
   });
 
   it('gives lab staff the standards and benches, and nobody outside the lab', () => {
-    for (const role of ['admin', 'lead', 'technician', 'engineer'] as const) expect(labels(role)).toEqual(expect.arrayContaining(['Jobs', 'Instruments', 'Standards', 'Benches']));
+    for (const role of ['admin', 'lead', 'technician', 'engineer'] as const)
+      expect(labels(role)).toEqual(expect.arrayContaining(['Jobs', 'Instruments', 'Standards', 'Benches']));
     expect(labels('client')).not.toContain('Standards');
     expect(labels('client')).not.toContain('Benches');
     expect(rolesFor('/benches')).toEqual(['admin', 'lead', 'technician', 'engineer']);

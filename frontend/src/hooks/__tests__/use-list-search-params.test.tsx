@@ -4,7 +4,9 @@ import { MemoryRouter } from 'react-router-dom';
 import { describe, expect, it } from 'vitest';
 import { useListSearchParams } from '../use-list-search-params';
 
-const at = (search: string) => ({ children }: { children: ReactNode }) => <MemoryRouter initialEntries={[`/list${search}`]}>{children}</MemoryRouter>;
+const at =
+  (search: string) =>
+  ({ children }: { children: ReactNode }) => <MemoryRouter initialEntries={[`/list${search}`]}>{children}</MemoryRouter>;
 
 describe('useListSearchParams()', () => {
   // The API refuses a page past 100,000 and a page size past 500 (400): a hand-edited address clamps instead.

@@ -92,9 +92,7 @@ describe('api', () => {
     setSession(previous);
     const navigate = vi.fn();
     setNavigator(navigate);
-    mockFetch([
-      { method: 'POST', path: '/api/auth/login', status: 401, body: { statusCode: 401, message: 'Invalid e-mail or password' } },
-    ]);
+    mockFetch([{ method: 'POST', path: '/api/auth/login', status: 401, body: { statusCode: 401, message: 'Invalid e-mail or password' } }]);
 
     await expect(api.post('/auth/login', { email: 'x@y.test', password: 'wrong' })).rejects.toMatchObject({
       status: 401,

@@ -9,7 +9,7 @@ import { apiUrl, fetchFile, filenameFromDisposition, uploadWithProgress, type Up
 describe('filenameFromDisposition()', () => {
   it('reads the plain and the encoded forms, preferring the encoded one', () => {
     expect(filenameFromDisposition('attachment; filename="QL-2026-0001-rev1.pdf"')).toBe('QL-2026-0001-rev1.pdf');
-    expect(filenameFromDisposition("attachment; filename=\"x.csv\"; filename*=UTF-8''Pr%C3%BCfung.csv")).toBe('Prüfung.csv');
+    expect(filenameFromDisposition('attachment; filename="x.csv"; filename*=UTF-8\'\'Pr%C3%BCfung.csv')).toBe('Prüfung.csv');
     expect(filenameFromDisposition(null)).toBeNull();
   });
 });
@@ -107,7 +107,10 @@ describe('uploadWithProgress()', () => {
     xhr.upload.onprogress!({ loaded: 2048, total: 0, lengthComputable: false });
     xhr.answer(400, { statusCode: 400, message: '2 rows refused', rejected: [] });
     expect(await done).toEqual({ status: 400, ok: false, data: { statusCode: 400, message: '2 rows refused', rejected: [] } });
-    expect(progress).toEqual([{ loaded: 512, total: 2048 }, { loaded: 2048, total: null }]);
+    expect(progress).toEqual([
+      { loaded: 512, total: 2048 },
+      { loaded: 2048, total: null },
+    ]);
     expect(getSession()).not.toBeNull();
   });
 

@@ -22,7 +22,6 @@ import { RunsTable } from '@/features/runs/components/runs-table';
 import { ApiError } from '@/lib/api-client';
 import { useCurrentUser } from '@/lib/auth';
 
-
 export default function InstrumentRoute() {
   const { instrumentId } = useParams();
   const id = Number(instrumentId);
@@ -34,7 +33,9 @@ export default function InstrumentRoute() {
   if (instrument.isPending) return <FullPageSpinner label="Loading the instrument" />;
   if (instrument.isError) {
     const missing = instrument.error instanceof ApiError && instrument.error.status === 404;
-    return <Alert severity={missing ? 'info' : 'error'}>{missing ? 'There is no such instrument, or it is not yours to see.' : instrument.error.message}</Alert>;
+    return (
+      <Alert severity={missing ? 'info' : 'error'}>{missing ? 'There is no such instrument, or it is not yours to see.' : instrument.error.message}</Alert>
+    );
   }
   const i = instrument.data;
   const canEdit = BENCH_ROLES.includes(user.role);

@@ -92,7 +92,11 @@ export function CalibrationRun({ run, role }: { run: Run; role: Role }) {
               }
             />
           )}
-          {data ? <FitSummary analysis={data} /> : <Alert severity="info">{empty ? `${empty} The fit appears with the first readings.` : (problem ?? 'Loading the analysis…')}</Alert>}
+          {data ? (
+            <FitSummary analysis={data} />
+          ) : (
+            <Alert severity="info">{empty ? `${empty} The fit appears with the first readings.` : (problem ?? 'Loading the analysis…')}</Alert>
+          )}
           {data && <CorrectionTable analysis={data} />}
         </Box>
         <Box sx={{ display: 'grid', gridTemplateColumns: 'minmax(0, 1fr)', gap: 2, minWidth: 0 }}>

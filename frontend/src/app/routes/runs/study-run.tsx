@@ -94,7 +94,14 @@ export function AuxRun({ run, role }: { run: Run; role: Role }) {
           <SafetyCaution />
         </Box>
       )}
-      <AuxView kind={kind} analysis={data} problem={analysisProblem(analysis.error)} empty={noReadingsNotice(analysis.data, analysis.error)} points={points} skipAnimation={skipChartAnimation} />
+      <AuxView
+        kind={kind}
+        analysis={data}
+        problem={analysisProblem(analysis.error)}
+        empty={noReadingsNotice(analysis.data, analysis.error)}
+        points={points}
+        skipAnimation={skipChartAnimation}
+      />
       <Box sx={{ mt: 2 }}>
         <ReadingsTable
           runId={run.id}

@@ -12,7 +12,9 @@ describe('<AppLayout>', () => {
     renderWithApp(<AppLayout>page</AppLayout>);
 
     const nav = screen.getByRole('navigation', { name: 'Main' });
-    const links = within(nav).getAllByRole('link').map((link) => link.textContent);
+    const links = within(nav)
+      .getAllByRole('link')
+      .map((link) => link.textContent);
     expect(links).toEqual(['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches', 'Certificates', 'Outbox', 'Users', 'Organisations']);
     expect(within(nav).getByRole('link', { name: 'Users' }).getAttribute('href')).toBe('/admin/users');
     // A list holds only list items (axe's "list" rule): one item per link.
@@ -28,7 +30,11 @@ describe('<AppLayout>', () => {
     renderWithApp(<AppLayout>page</AppLayout>);
 
     const nav = screen.getByRole('navigation', { name: 'Main' });
-    expect(within(nav).getAllByRole('link').map((link) => link.textContent)).toEqual(['Overview', 'Jobs', 'Instruments', 'Certificates']);
+    expect(
+      within(nav)
+        .getAllByRole('link')
+        .map((link) => link.textContent),
+    ).toEqual(['Overview', 'Jobs', 'Instruments', 'Certificates']);
     expect(within(nav).queryByRole('link', { name: 'Users' })).toBeNull();
   });
 

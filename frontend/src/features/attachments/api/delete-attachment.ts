@@ -14,7 +14,9 @@ export function useDeleteAttachment({ onSuccess }: { onSuccess?: () => void } = 
     mutationFn: deleteAttachment,
     onSuccess: async (_data, attachment) => {
       queryClient.removeQueries({ queryKey: getAttachmentFileQueryOptions(attachment).queryKey });
-      await queryClient.invalidateQueries({ queryKey: getAttachmentsQueryOptions(attachment.owner, (attachment.owner === 'instrument' ? attachment.instrumentId : attachment.jobId) ?? 0).queryKey });
+      await queryClient.invalidateQueries({
+        queryKey: getAttachmentsQueryOptions(attachment.owner, (attachment.owner === 'instrument' ? attachment.instrumentId : attachment.jobId) ?? 0).queryKey,
+      });
       onSuccess?.();
     },
   });

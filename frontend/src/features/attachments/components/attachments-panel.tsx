@@ -52,7 +52,15 @@ function Thumbnail({ attachment, onOpen }: { attachment: Attachment; onOpen: () 
   const image = isImage(attachment);
   const file = useAttachmentFile(attachment, image);
   const url = useObjectUrl(file.data);
-  const box = { width: '100%', height: 140, borderRadius: 1, bgcolor: 'action.hover', display: 'flex', alignItems: 'center', justifyContent: 'center' } as const;
+  const box = {
+    width: '100%',
+    height: 140,
+    borderRadius: 1,
+    bgcolor: 'action.hover',
+    display: 'flex',
+    alignItems: 'center',
+    justifyContent: 'center',
+  } as const;
   if (!image) {
     const Icon = attachment.contentType === 'application/pdf' ? PictureAsPdfOutlined : DescriptionOutlined;
     return (
@@ -83,7 +91,12 @@ function ImageViewer({ attachment, onClose }: { attachment: Attachment; onClose:
       <DialogTitle>{attachment.caption ?? attachment.originalName}</DialogTitle>
       <DialogContent>
         {url ? (
-          <Box component="img" src={url} alt={attachment.caption ?? attachment.originalName} sx={{ maxWidth: '100%', maxHeight: '75vh', display: 'block', mx: 'auto' }} />
+          <Box
+            component="img"
+            src={url}
+            alt={attachment.caption ?? attachment.originalName}
+            sx={{ maxWidth: '100%', maxHeight: '75vh', display: 'block', mx: 'auto' }}
+          />
         ) : (
           <Skeleton variant="rectangular" height={400} />
         )}

@@ -205,7 +205,11 @@ export function BandPlanner({ instrumentId, dialUnits }: { instrumentId: number;
                               size="small"
                               color={band.full ? 'success' : 'default'}
                               variant={band.full ? 'filled' : 'outlined'}
-                              label={band.full ? `${band.name} whole band` : `${band.name} part: ${formatHzShort(band.coveredLowHz)} – ${formatHzShort(band.coveredHighHz)}`}
+                              label={
+                                band.full
+                                  ? `${band.name} whole band`
+                                  : `${band.name} part: ${formatHzShort(band.coveredLowHz)} – ${formatHzShort(band.coveredHighHz)}`
+                              }
                               sx={{ height: 22, fontSize: '0.75rem', fontFamily: numberSx.fontFamily }}
                             />
                           ))}

@@ -73,15 +73,25 @@ export function BenchTokenDialog({ benchName, token, onClose }: BenchTokenDialog
       <DialogTitle id={titleId}>Bridge token for {benchName}</DialogTitle>
       <DialogContent>
         <Alert severity="warning" sx={{ mb: 2 }}>
-          This is the only time the token is shown: the lab keeps only a hash of it. Copy it to the bench computer now. The
-          bench’s previous token no longer works.
+          This is the only time the token is shown: the lab keeps only a hash of it. Copy it to the bench computer now. The bench’s previous token no longer
+          works.
         </Alert>
         {token && (
           <Box sx={{ display: 'grid', gap: 2 }}>
             <CopyBox label="Token" text={token} />
             <Box sx={{ display: 'grid', gridTemplateColumns: { xs: '1fr', sm: '1fr 2fr' }, gap: 2 }}>
-              <TextField label="Run number" value={run} onChange={(e) => setRun(e.target.value.replace(/\D/g, ''))} helperText="The run this bench streams into (shown on the run’s page)" />
-              <TextField label="Source" value={source} onChange={(e) => setSource(e.target.value.trim())} helperText="scpi://host:5025, serial:/dev/ttyUSB0?baud=9600, stdin or simulate:warmup" />
+              <TextField
+                label="Run number"
+                value={run}
+                onChange={(e) => setRun(e.target.value.replace(/\D/g, ''))}
+                helperText="The run this bench streams into (shown on the run’s page)"
+              />
+              <TextField
+                label="Source"
+                value={source}
+                onChange={(e) => setSource(e.target.value.trim())}
+                helperText="scpi://host:5025, serial:/dev/ttyUSB0?baud=9600, stdin or simulate:warmup"
+              />
             </Box>
             <CopyBox label="Command" text={bridgeCommand({ server, token, run, source })} />
             <SafetyCaution />

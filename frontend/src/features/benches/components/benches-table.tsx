@@ -60,7 +60,13 @@ export function BenchesTable({ isAdmin }: { isAdmin: boolean }) {
         headerName: 'Status',
         width: 110,
         renderCell: ({ row }) => (
-          <Chip size="small" variant="outlined" color={row.active ? 'success' : 'default'} label={row.active ? 'In use' : 'Out of use'} sx={{ height: 20, fontSize: '0.75rem' }} />
+          <Chip
+            size="small"
+            variant="outlined"
+            color={row.active ? 'success' : 'default'}
+            label={row.active ? 'In use' : 'Out of use'}
+            sx={{ height: 20, fontSize: '0.75rem' }}
+          />
         ),
       },
       ...(isAdmin
@@ -84,7 +90,12 @@ export function BenchesTable({ isAdmin }: { isAdmin: boolean }) {
                     Issue bridge token
                   </Button>
                   {row.hasToken && (
-                    <Button size="small" color="error" aria-label={`Revoke the token of ${row.name}`} onClick={() => setConfirm({ bench: row, action: 'revoke' })}>
+                    <Button
+                      size="small"
+                      color="error"
+                      aria-label={`Revoke the token of ${row.name}`}
+                      onClick={() => setConfirm({ bench: row, action: 'revoke' })}
+                    >
                       Revoke
                     </Button>
                   )}
@@ -104,13 +115,7 @@ export function BenchesTable({ isAdmin }: { isAdmin: boolean }) {
         <SearchField label="Search" placeholder="Bench name or location" value={list.q} onChange={(q) => list.update({ q })} />
       </Box>
       <Paper variant="outlined" sx={{ height: 'calc(100vh - 230px)', minHeight: 320 }}>
-        <ServerDataGrid
-          label="Benches"
-          result={benches}
-          list={list}
-          emptyText="No benches yet."
-          columns={columns}
-        />
+        <ServerDataGrid label="Benches" result={benches} list={list} emptyText="No benches yet." columns={columns} />
       </Paper>
       <ConfirmDialog
         open={confirm !== null}
@@ -129,14 +134,12 @@ export function BenchesTable({ isAdmin }: { isAdmin: boolean }) {
           <>
             {confirm.action === 'issue' ? (
               <>
-                <strong>{confirm.bench.name}</strong> already has a token. A new one replaces it: a bridge running with the
-                old token is cut off at once and refused until it is started again with the new one. Readings it still holds
-                stay in its spool file and are sent once it runs again.
+                <strong>{confirm.bench.name}</strong> already has a token. A new one replaces it: a bridge running with the old token is cut off at once and
+                refused until it is started again with the new one. Readings it still holds stay in its spool file and are sent once it runs again.
               </>
             ) : (
               <>
-                The bridge on <strong>{confirm.bench.name}</strong> is cut off at once and refused from then on. Readings it
-                still holds stay in its spool file.
+                The bridge on <strong>{confirm.bench.name}</strong> is cut off at once and refused from then on. Readings it still holds stay in its spool file.
               </>
             )}
           </>

@@ -47,8 +47,8 @@ export function CertificateActions({ certificate, action, onClose }: Certificate
         title={`Amend ${certificate.number}`}
         intro={
           <Typography variant="body2">
-            Revision {certificate.revision} is marked superseded at once and stays downloadable. Revision {certificate.revision + 1} is
-            issued when the job is signed again and carries “replaces revision {certificate.revision}”.
+            Revision {certificate.revision} is marked superseded at once and stays downloadable. Revision {certificate.revision + 1} is issued when the job is
+            signed again and carries “replaces revision {certificate.revision}”.
           </Typography>
         }
         reasonLabel="Reason for the amendment"
@@ -69,8 +69,7 @@ export function CertificateActions({ certificate, action, onClose }: Certificate
         title={`Withdraw ${name}?`}
         intro={
           <Typography variant="body2">
-            The verification page will show this certificate as withdrawn, with no replacement. Use an amendment instead if a
-            corrected revision is to follow.
+            The verification page will show this certificate as withdrawn, with no replacement. Use an amendment instead if a corrected revision is to follow.
           </Typography>
         }
         reasonLabel="Reason for withdrawal"

@@ -167,7 +167,11 @@ function Table({ shape, embedded, verifyPath, jobPath, height }: { shape: Shape 
           <Box sx={{ display: 'flex', alignItems: 'center' }}>
             <DownloadCertificateButton certificate={row} />
             {isLead && row.status === 'issued' && (
-              <IconButton size="small" aria-label={`More for ${row.number} revision ${row.revision}`} onClick={(e) => setMenu({ anchor: e.currentTarget, certificate: row })}>
+              <IconButton
+                size="small"
+                aria-label={`More for ${row.number} revision ${row.revision}`}
+                onClick={(e) => setMenu({ anchor: e.currentTarget, certificate: row })}
+              >
                 <MoreVertOutlined fontSize="small" />
               </IconButton>
             )}
@@ -202,7 +206,8 @@ function Table({ shape, embedded, verifyPath, jobPath, height }: { shape: Shape 
         // Embedded, the grid is as tall as its rows (a customer has a handful of certificates; two lines each on a
         // phone); on its own page it fills the screen.
         sx={{
-          height: height ?? (embedded ? Math.min(Math.max(certificates.data?.items.length ?? 1, 1), 10) * (layout.phone ? 200 : 36) + 100 : 'calc(100vh - 240px)'),
+          height:
+            height ?? (embedded ? Math.min(Math.max(certificates.data?.items.length ?? 1, 1), 10) * (layout.phone ? 200 : 36) + 100 : 'calc(100vh - 240px)'),
           minHeight: embedded ? 0 : 300,
         }}
       >

@@ -30,7 +30,10 @@ export function AdevChart({ result, fileTitle }: { result: ComparisonResult; fil
       .filter((s) => s !== null);
     const bars = result.runs.map((run) => (run.stability?.adev ?? []).filter((p) => p.deviation > 0).map((p) => ({ x: p.tau, low: p.ciLow, high: p.ciHigh })));
     // The y range holds every interval, not only the points, so that no bar is cut at the plot's edge.
-    const ys = bars.flat().flatMap((b) => [b.low, b.high]).concat(built.flatMap((s) => s.data.filter((v): v is number => v !== null)));
+    const ys = bars
+      .flat()
+      .flatMap((b) => [b.low, b.high])
+      .concat(built.flatMap((s) => s.data.filter((v): v is number => v !== null)));
     const positive = ys.filter((v) => v > 0 && Number.isFinite(v));
     const yMin = positive.length ? Math.min(...positive) / 1.2 : undefined;
     const yMax = positive.length ? Math.max(...positive) * 1.2 : undefined;
@@ -56,7 +59,16 @@ export function AdevChart({ result, fileTitle }: { result: ComparisonResult; fil
         <LineChart
           height={340}
           hideLegend
-          xAxis={[{ data: x, scaleType: 'log', label: 'Averaging time τ (s)', height: 50, tickInterval: xTicks.length >= 2 ? xTicks : 'auto', valueFormatter: (v: number) => formatAxisNumber(v) }]}
+          xAxis={[
+            {
+              data: x,
+              scaleType: 'log',
+              label: 'Averaging time τ (s)',
+              height: 50,
+              tickInterval: xTicks.length >= 2 ? xTicks : 'auto',
+              valueFormatter: (v: number) => formatAxisNumber(v),
+            },
+          ]}
           yAxis={[
             {
               scaleType: 'log',

@@ -157,8 +157,7 @@ export function ComparisonBuilder({ existing, canSave, onSaved }: ComparisonBuil
         ) : (
           <>
             <Typography variant="body2" color="text.secondary" sx={{ mb: 1 }}>
-              Tick {MIN_COMPARED_RUNS} to {MAX_COMPARED_RUNS} runs and say what each one is. The earliest is the reference: the others are
-              compared with it.
+              Tick {MIN_COMPARED_RUNS} to {MAX_COMPARED_RUNS} runs and say what each one is. The earliest is the reference: the others are compared with it.
             </Typography>
             <Box sx={{ overflowX: 'auto' }}>
               <Table size="small" aria-label="Runs to compare" sx={{ '& td, & th': { py: 0.25, px: 1 } }}>

@@ -15,9 +15,8 @@ export function ComparisonResultView({ result, fileTitle }: { result: Comparison
     // minmax(0, 1fr): a wide table scrolls inside its own panel instead of widening the page.
     <Box sx={{ display: 'grid', gridTemplateColumns: 'minmax(0, 1fr)', gap: 2 }}>
       <Typography variant="body2" color="text.secondary">
-        {result.instrumentLabel} · {result.kind === 'warmup' ? 'warm-up' : 'stability'} runs aligned at power-on · settled when within{' '}
-        {result.options.withinHz} Hz of f∞ · settled drift rate over {formatDuration(result.options.windowSeconds)} windows · intervals at{' '}
-        {Math.round(result.confidence * 100)} %
+        {result.instrumentLabel} · {result.kind === 'warmup' ? 'warm-up' : 'stability'} runs aligned at power-on · settled when within {result.options.withinHz}{' '}
+        Hz of f∞ · settled drift rate over {formatDuration(result.options.windowSeconds)} windows · intervals at {Math.round(result.confidence * 100)} %
       </Typography>
       <ErrorBoundary>
         <ComparedRuns result={result} />

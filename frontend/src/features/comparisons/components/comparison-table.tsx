@@ -31,7 +31,11 @@ export function ComparisonTable({ result, fileTitle }: { result: ComparisonResul
         <Typography variant="h3" component="h3" sx={{ flex: 1 }}>
           Differences, with 95 % intervals
         </Typography>
-        <Button size="small" startIcon={<DownloadOutlined fontSize="small" />} onClick={() => saveText(comparisonTableCsv(result), `${slug(fileTitle)}-table.csv`)}>
+        <Button
+          size="small"
+          startIcon={<DownloadOutlined fontSize="small" />}
+          onClick={() => saveText(comparisonTableCsv(result), `${slug(fileTitle)}-table.csv`)}
+        >
           CSV
         </Button>
       </Box>
@@ -75,7 +79,9 @@ export function ComparisonTable({ result, fileTitle }: { result: ComparisonResul
                     {row.values.map((value, i) => (
                       <TableCell key={i} sx={num}>
                         {value ? (
-                          <Tooltip title={`95 % interval ${formatInterval(value.low, value.high, row.unit, value.se)} · ${Number.isFinite(value.df) ? `${Math.round(value.df)} degrees of freedom` : 'exact'}`}>
+                          <Tooltip
+                            title={`95 % interval ${formatInterval(value.low, value.high, row.unit, value.se)} · ${Number.isFinite(value.df) ? `${Math.round(value.df)} degrees of freedom` : 'exact'}`}
+                          >
                             <span>{formatEstimate(value, row.unit)}</span>
                           </Tooltip>
                         ) : (

@@ -27,13 +27,7 @@ export function SaveComparisonDialog({ open, heading, initialTitle, initialNotes
       submitLabel="Save"
       pendingLabel="Saving…"
     >
-      <FormTextField
-        control={form.control}
-        name="title"
-        label="Title"
-        required
-        helperText="e.g. “VFO warm-up before and after the new regulator”"
-      />
+      <FormTextField control={form.control} name="title" label="Title" required helperText="e.g. “VFO warm-up before and after the new regulator”" />
       <FormTextField
         control={form.control}
         name="notes"

@@ -51,7 +51,7 @@ export function SensitivityPanel({ sensitivity }: { sensitivity: InstrumentSensi
                   <TableCell sx={numberSx}>{formatDate(entry.startedAt)}</TableCell>
                   <TableCell sx={num}>
                     {entry.hzPerVolt === null
-                      ? entry.problem ?? '—'
+                      ? (entry.problem ?? '—')
                       : `${formatSignificant(entry.hzPerVolt, 3)} ± ${formatSignificant(entry.seHzPerVolt ?? 0, 2)} Hz/V`}
                   </TableCell>
                   <TableCell sx={num}>{entry.n}</TableCell>

@@ -67,18 +67,40 @@ export function comparisonTableCsv(result: ComparisonResult): string {
       const value = row.values[i];
       const diff = row.differences[i];
       lines.push(
-        [row.name, row.unit, run.runId, run.label, value?.value, value?.se, value?.low, value?.high, diff?.difference, diff?.low, diff?.high, diff?.sentence, row.problems[i]]
+        [
+          row.name,
+          row.unit,
+          run.runId,
+          run.label,
+          value?.value,
+          value?.se,
+          value?.low,
+          value?.high,
+          diff?.difference,
+          diff?.low,
+          diff?.high,
+          diff?.sentence,
+          row.problems[i],
+        ]
           .map(csvCell)
           .join(','),
       );
     });
   }
   for (const entry of result.sensitivity.supplySensitivity) {
-    lines.push(['supply sensitivity', 'Hz/V', entry.runId, entry.jobNumber, entry.hzPerVolt, entry.seHzPerVolt, '', '', '', '', '', '', entry.problem].map(csvCell).join(','));
+    lines.push(
+      ['supply sensitivity', 'Hz/V', entry.runId, entry.jobNumber, entry.hzPerVolt, entry.seHzPerVolt, '', '', '', '', '', '', entry.problem]
+        .map(csvCell)
+        .join(','),
+    );
   }
   for (const entry of result.sensitivity.keying) {
     const s = entry.shift;
-    lines.push(['keying shift (key down − key up)', 'Hz', entry.runId, entry.jobNumber, s?.shiftHz, s?.seHz, s?.low, s?.high, '', '', '', '', entry.problem].map(csvCell).join(','));
+    lines.push(
+      ['keying shift (key down − key up)', 'Hz', entry.runId, entry.jobNumber, s?.shiftHz, s?.seHz, s?.low, s?.high, '', '', '', '', entry.problem]
+        .map(csvCell)
+        .join(','),
+    );
   }
   return `${lines.join('\r\n')}\r\n`;
 }

@@ -15,9 +15,7 @@ export type ImportReadingsInput = {
 };
 
 /** The import's outcome: its report, or why it was refused (with the report of bad rows when there is one). */
-export type ImportOutcome =
-  | { ok: true; report: ImportReport }
-  | { ok: false; status: number; message: string; report: ImportReport | null };
+export type ImportOutcome = { ok: true; report: ImportReport } | { ok: false; status: number; message: string; report: ImportReport | null };
 
 const LIMIT_MESSAGES: Record<number, string> = {
   413: 'The file is larger than the import limit.',
@@ -34,7 +32,16 @@ export function newImportId(): string {
 }
 
 /** Uploads the file as multipart field `file`, with the chosen column mapping; bytes sent are reported as they go. */
-export async function importReadings({ runId, file, mode, confirmed = false, mapping, importId, onUploadProgress, signal }: ImportReadingsInput): Promise<ImportOutcome> {
+export async function importReadings({
+  runId,
+  file,
+  mode,
+  confirmed = false,
+  mapping,
+  importId,
+  onUploadProgress,
+  signal,
+}: ImportReadingsInput): Promise<ImportOutcome> {
   const form = new FormData();
   form.append('mapping', JSON.stringify(mapping));
   form.append('file', file, file.name);

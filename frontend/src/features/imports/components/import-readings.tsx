@@ -168,7 +168,10 @@ export function ImportReadings({ runId, needsTime, needsDial, disabled, refusal 
       setOutcome({
         ok: false,
         status: 0,
-        message: error instanceof DOMException && error.name === 'AbortError' ? 'The upload was cancelled; nothing was imported.' : 'The server could not be reached; nothing was imported.',
+        message:
+          error instanceof DOMException && error.name === 'AbortError'
+            ? 'The upload was cancelled; nothing was imported.'
+            : 'The server could not be reached; nothing was imported.',
         report: null,
       });
     } finally {
@@ -200,9 +203,9 @@ export function ImportReadings({ runId, needsTime, needsDial, disabled, refusal 
           {step === 'choose' && (
             <Box>
               <Typography variant="body2" sx={{ mb: 2 }}>
-                One reading a row, under a header line. Columns may come in any order and be named as you like: you say which is
-                which on the next step. Frequencies may carry their unit (“1735 kHz”) or take it from a unit column or the header.
-                Up to {DEFAULT_IMPORT_MAX_MB} MB unless the lab has set another limit.
+                One reading a row, under a header line. Columns may come in any order and be named as you like: you say which is which on the next step.
+                Frequencies may carry their unit (“1735 kHz”) or take it from a unit column or the header. Up to {DEFAULT_IMPORT_MAX_MB} MB unless the lab has
+                set another limit.
               </Typography>
               <Box
                 onDragOver={(event) => event.preventDefault()}
@@ -360,9 +363,7 @@ export function ImportReadings({ runId, needsTime, needsDial, disabled, refusal 
             uploadFraction < 1 && <Button onClick={() => abort.current?.abort()}>Cancel the upload</Button>
           ) : step === 'finished' ? (
             <>
-              {!outcome?.ok && preview && (
-                <Button onClick={() => setStep('map')}>Change the columns or mode</Button>
-              )}
+              {!outcome?.ok && preview && <Button onClick={() => setStep('map')}>Change the columns or mode</Button>}
               <Button variant="contained" onClick={close}>
                 Close
               </Button>

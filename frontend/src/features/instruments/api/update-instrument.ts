@@ -55,7 +55,8 @@ export const rangeDraftSchema = z
     if (Number.isFinite(dialMin) && Number.isFinite(dialMax) && !(dialMax > dialMin)) refuse(['dialMax'], 'The dial’s top must be above its bottom');
     const freqMinHz = frequency('freqMin');
     const freqMaxHz = frequency('freqMax');
-    if (Number.isFinite(freqMinHz) && Number.isFinite(freqMaxHz) && !(freqMaxHz > freqMinHz)) refuse(['freqMax'], 'The top frequency must be above the bottom one');
+    if (Number.isFinite(freqMinHz) && Number.isFinite(freqMaxHz) && !(freqMaxHz > freqMinHz))
+      refuse(['freqMax'], 'The top frequency must be above the bottom one');
 
     if (draft.dialUnit === 'div' && draft.lawKind === 'direct') refuse(['lawKind'], 'A dial in divisions needs a table of dial and frequency');
     const points = draft.table.map((row, index) => ({

@@ -89,7 +89,12 @@ function InstrumentFormDialog({ open, title, initial, owners, busy, error, submi
         <FormTextField control={form.control} name="model" label="Model" required />
         <FormTextField control={form.control} name="serial" label="Serial number" required />
         <FormTextField control={form.control} name="assetTag" label="Asset tag" />
-        <FormTextField control={form.control} name="recallIntervalMonths" label="Recall interval (months)" slotProps={{ htmlInput: { inputMode: 'numeric' } }} />
+        <FormTextField
+          control={form.control}
+          name="recallIntervalMonths"
+          label="Recall interval (months)"
+          slotProps={{ htmlInput: { inputMode: 'numeric' } }}
+        />
         <FormTextField control={form.control} name="nextDueDate" label="Next due" type="date" slotProps={{ inputLabel: { shrink: true } }} />
       </Box>
       <FormTextField control={form.control} name="description" label="Description" multiline minRows={2} />

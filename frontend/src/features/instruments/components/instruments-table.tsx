@@ -128,13 +128,7 @@ export function InstrumentsTable({ owners = [] }: InstrumentsTableProps) {
         <SelectFilter label="Due" value={due} options={DUE_OPTIONS} onChange={(v) => list.update({ due: v })} allLabel="Any date" minWidth={180} />
       </Box>
       <Paper variant="outlined" sx={{ height: 'calc(100vh - 230px)', minHeight: 360 }}>
-        <ServerDataGrid
-          label="Instruments"
-          result={instruments}
-          list={list}
-          emptyText="No instruments match these filters."
-          columns={columns}
-        />
+        <ServerDataGrid label="Instruments" result={instruments} list={list} emptyText="No instruments match these filters." columns={columns} />
       </Paper>
     </>
   );

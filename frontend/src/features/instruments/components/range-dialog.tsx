@@ -85,7 +85,13 @@ export function RangeDialog({ open, initial, busy, error, onClose, onSave }: Ran
           control={control}
           name="lawKind"
           render={({ field: law }) => (
-            <ToggleButtonGroup exclusive size="small" value={law.value} onChange={(_e, value: 'direct' | 'table' | null) => value && law.onChange(value)} aria-label="Dial law">
+            <ToggleButtonGroup
+              exclusive
+              size="small"
+              value={law.value}
+              onChange={(_e, value: 'direct' | 'table' | null) => value && law.onChange(value)}
+              aria-label="Dial law"
+            >
               <ToggleButton value="direct" disabled={dialUnit === 'div'}>
                 Direct reading
               </ToggleButton>

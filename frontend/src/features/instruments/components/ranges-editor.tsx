@@ -81,7 +81,11 @@ export function RangesEditor({ instrument, canEdit }: RangesEditorProps) {
       ) : (
         <Box sx={{ overflowX: 'auto' }}>
           {/* Figures stay on one line; the label and the law may wrap, so the row fits and its actions stay in view. */}
-          <Table size="small" aria-label="Ranges" sx={{ '& td, & th': { whiteSpace: 'nowrap', px: 1 }, '& td.wraps': { whiteSpace: 'pre-wrap', minWidth: 96 } }}>
+          <Table
+            size="small"
+            aria-label="Ranges"
+            sx={{ '& td, & th': { whiteSpace: 'nowrap', px: 1 }, '& td.wraps': { whiteSpace: 'pre-wrap', minWidth: 96 } }}
+          >
             <TableHead>
               <TableRow>
                 <TableCell>#</TableCell>
@@ -94,7 +98,18 @@ export function RangesEditor({ instrument, canEdit }: RangesEditorProps) {
                 {canEdit && (
                   <TableCell align="right">
                     {/* Named for screen readers; the icons below say it to the eye. */}
-                    <Box component="span" sx={{ position: 'absolute', width: '1px', height: '1px', margin: '-1px', overflow: 'hidden', clip: 'rect(0 0 0 0)', whiteSpace: 'nowrap' }}>
+                    <Box
+                      component="span"
+                      sx={{
+                        position: 'absolute',
+                        width: '1px',
+                        height: '1px',
+                        margin: '-1px',
+                        overflow: 'hidden',
+                        clip: 'rect(0 0 0 0)',
+                        whiteSpace: 'nowrap',
+                      }}
+                    >
                       Actions
                     </Box>
                   </TableCell>
@@ -169,8 +184,8 @@ export function RangesEditor({ instrument, canEdit }: RangesEditorProps) {
       >
         {removing && (
           <>
-            Range <strong>{removing.label}</strong> goes from this instrument. A range that already has runs cannot be removed:
-            its record stays with those runs.
+            Range <strong>{removing.label}</strong> goes from this instrument. A range that already has runs cannot be removed: its record stays with those
+            runs.
             {messages.length > 0 && <Box sx={{ color: 'error.main', mt: 1 }}>{messages.join('; ')}</Box>}
           </>
         )}

@@ -53,10 +53,7 @@ export function toDraft(range: InstrumentRange): RangeDraft {
     label: range.label,
     dialUnit: range.dialUnit,
     lawKind: range.dialLaw.kind,
-    table:
-      range.dialLaw.kind === 'table'
-        ? range.dialLaw.points.map((p) => ({ dial: String(p.dial), frequency: plain(p.frequency) }))
-        : EMPTY_RANGE.table,
+    table: range.dialLaw.kind === 'table' ? range.dialLaw.points.map((p) => ({ dial: String(p.dial), frequency: plain(p.frequency) })) : EMPTY_RANGE.table,
     dialMin: String(range.dialMin),
     dialMax: String(range.dialMax),
     freqMin: plain(range.freqMinHz),

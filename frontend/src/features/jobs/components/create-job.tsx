@@ -18,7 +18,10 @@ function today() {
   return `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, '0')}-${String(d.getDate()).padStart(2, '0')}`;
 }
 
-const unit = (text: string) => ({ input: { endAdornment: <InputAdornment position="end">{text}</InputAdornment> }, htmlInput: { inputMode: 'decimal' as const } });
+const unit = (text: string) => ({
+  input: { endAdornment: <InputAdornment position="end">{text}</InputAdornment> },
+  htmlInput: { inputMode: 'decimal' as const },
+});
 
 type CreateJobProps = {
   /** Instruments matching what was typed in the picker (the route searches the API). */

@@ -39,7 +39,10 @@ function describe(event: AuditEventView): string {
     const seqs = c.firstSeq !== null && c.firstSeq !== undefined ? `, seq ${str(c.firstSeq)}–${str(c.lastSeq)}` : '';
     return `${str(c.accepted)} (${str(c.source)})${by}${seqs}`;
   }
-  if (event.action === 'budget') return Object.keys(c).filter((k) => k !== 'jobId' && k !== 'jobNumber').join(', ');
+  if (event.action === 'budget')
+    return Object.keys(c)
+      .filter((k) => k !== 'jobId' && k !== 'jobNumber')
+      .join(', ');
   return '';
 }
 

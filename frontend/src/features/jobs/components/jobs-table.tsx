@@ -86,7 +86,14 @@ export function JobsTable({ customers = [] }: JobsTableProps) {
     <>
       <Box sx={{ display: 'flex', gap: 1.5, mb: 1.5, flexWrap: 'wrap', alignItems: 'center' }}>
         <SearchField label="Search" placeholder="Job number, instrument or customer" value={list.q} onChange={(q) => list.update({ q })} />
-        <SelectFilter label="Status" value={status} options={STATUS_OPTIONS} onChange={(v) => list.update({ status: v })} allLabel="Any status" minWidth={190} />
+        <SelectFilter
+          label="Status"
+          value={status}
+          options={STATUS_OPTIONS}
+          onChange={(v) => list.update({ status: v })}
+          allLabel="Any status"
+          minWidth={190}
+        />
         {customers.length > 0 && (
           <SelectFilter
             label="Customer"

@@ -120,7 +120,15 @@ export function MailMessage({ id, outboxPath }: { id: number; outboxPath: string
       <Paper variant="outlined" sx={{ p: 2, mb: 2 }}>
         <Box
           component="dl"
-          sx={{ display: 'grid', gridTemplateColumns: 'max-content 1fr', columnGap: 2, rowGap: 0.5, m: 0, '& dt': { color: 'text.secondary' }, '& dd': { m: 0 } }}
+          sx={{
+            display: 'grid',
+            gridTemplateColumns: 'max-content 1fr',
+            columnGap: 2,
+            rowGap: 0.5,
+            m: 0,
+            '& dt': { color: 'text.secondary' },
+            '& dd': { m: 0 },
+          }}
         >
           <dt>From</dt>
           <dd>{m.from}</dd>

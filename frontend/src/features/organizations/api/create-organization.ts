@@ -9,9 +9,16 @@ import { getOrganizationsQueryOptions } from './get-organizations';
 /** The new-organisation form: checked before sending; the server checks again and its messages are shown as they come. */
 export const createOrganizationSchema = z
   .object({
-    name: z.string().trim().min(1, 'Enter the organisation’s name').max(FIELD_LIMITS.organization.name.max, `At most ${FIELD_LIMITS.organization.name.max} characters`),
+    name: z
+      .string()
+      .trim()
+      .min(1, 'Enter the organisation’s name')
+      .max(FIELD_LIMITS.organization.name.max, `At most ${FIELD_LIMITS.organization.name.max} characters`),
     kind: z.enum(ORGANIZATION_KINDS),
-    contactEmail: z.string().trim().refine((email) => !email || looksLikeEmail(email), 'Enter a valid e-mail address, or leave it empty'),
+    contactEmail: z
+      .string()
+      .trim()
+      .refine((email) => !email || looksLikeEmail(email), 'Enter a valid e-mail address, or leave it empty'),
   })
   .transform(({ contactEmail, ...rest }): CreateOrganizationRequest => ({ ...rest, ...(contactEmail ? { contactEmail } : {}) }));
 

@@ -104,9 +104,7 @@ export function OrganizationsTable() {
               size="small"
               color={row.active ? 'error' : 'primary'}
               disabled={own || (update.isPending && update.variables?.id === row.id)}
-              onClick={() =>
-                row.active ? setPending(row) : update.mutate({ id: row.id, changes: { active: true } })
-              }
+              onClick={() => (row.active ? setPending(row) : update.mutate({ id: row.id, changes: { active: true } }))}
               aria-label={`${row.active ? 'Deactivate' : 'Activate'} ${row.name}`}
             >
               {row.active ? 'Deactivate' : 'Activate'}
@@ -134,13 +132,7 @@ export function OrganizationsTable() {
         <SelectFilter label="Status" value={active} options={STATUS_OPTIONS} onChange={(v) => list.update({ active: v })} />
       </Box>
       <Paper variant="outlined" sx={{ height: 'calc(100vh - 230px)', minHeight: 360 }}>
-        <ServerDataGrid
-          label="Organisations"
-          result={organizations}
-          list={list}
-          emptyText="No organisations match these filters."
-          columns={columns}
-        />
+        <ServerDataGrid label="Organisations" result={organizations} list={list} emptyText="No organisations match these filters." columns={columns} />
       </Paper>
       <ConfirmDialog
         open={pending !== null}
@@ -153,8 +145,8 @@ export function OrganizationsTable() {
       >
         {pending && (
           <>
-            <strong>{pending.name}</strong> will no longer be offered for new accounts or work. Its records, instruments and
-            certificates are kept, and you can activate it again later.
+            <strong>{pending.name}</strong> will no longer be offered for new accounts or work. Its records, instruments and certificates are kept, and you can
+            activate it again later.
           </>
         )}
       </ConfirmDialog>

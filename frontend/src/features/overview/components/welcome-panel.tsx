@@ -49,9 +49,7 @@ export function WelcomePanel() {
           <dt>Role</dt>
           <dd>{ROLE_LABELS[user.role]}</dd>
           <dt>Organisation</dt>
-          <dd data-testid="organization-name">
-            {organization.data ? organization.data.name : organization.isError ? <Num>#{user.organizationId}</Num> : '…'}
-          </dd>
+          <dd data-testid="organization-name">{organization.data ? organization.data.name : organization.isError ? <Num>#{user.organizationId}</Num> : '…'}</dd>
         </Box>
         <Typography>{ROLE_DUTIES[user.role]}</Typography>
       </Paper>
@@ -76,10 +74,9 @@ export function WelcomePanel() {
 
       {labStaff && user.role !== 'admin' && (
         <Alert severity="warning" variant="outlined">
-          Much of the equipment that comes through the lab holds hazardous voltages, often for a long time after it is
-          switched off. Discharge filter capacitors, keep one hand out of the chassis, use an isolation transformer, and
-          work to your local electrical codes and licensed practice. Kilocycle records the work; it cannot tell you that a
-          procedure is safe.
+          Much of the equipment that comes through the lab holds hazardous voltages, often for a long time after it is switched off. Discharge filter
+          capacitors, keep one hand out of the chassis, use an isolation transformer, and work to your local electrical codes and licensed practice. Kilocycle
+          records the work; it cannot tell you that a procedure is safe.
         </Alert>
       )}
     </Box>

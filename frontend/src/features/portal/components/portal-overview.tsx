@@ -83,7 +83,12 @@ function InstrumentsPanel() {
               <TableCell>
                 {i.make} {i.model}
                 <PhoneSecondLine
-                  parts={[`s/n ${i.serial}`, i.assetTag && `asset ${i.assetTag}`, `${i.ranges.length} ${i.ranges.length === 1 ? 'range' : 'ranges'}`, `every ${i.recallIntervalMonths} months`]}
+                  parts={[
+                    `s/n ${i.serial}`,
+                    i.assetTag && `asset ${i.assetTag}`,
+                    `${i.ranges.length} ${i.ranges.length === 1 ? 'range' : 'ranges'}`,
+                    `every ${i.recallIntervalMonths} months`,
+                  ]}
                 />
               </TableCell>
               <TableCell sx={{ ...numberSx, ...HIDE_ON_PHONE }}>{i.serial}</TableCell>

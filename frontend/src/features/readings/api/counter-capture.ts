@@ -8,7 +8,8 @@ export function getCaptureState(runId: number): Promise<CaptureState> {
   return api.get<CaptureState>(`/runs/${runId}/capture`);
 }
 
-export const getCaptureStateQueryOptions = (runId: number) => queryOptions({ queryKey: [...sharedQueryKeys.runs, runId, 'capture'], queryFn: () => getCaptureState(runId) });
+export const getCaptureStateQueryOptions = (runId: number) =>
+  queryOptions({ queryKey: [...sharedQueryKeys.runs, runId, 'capture'], queryFn: () => getCaptureState(runId) });
 
 export function useCaptureState({ runId, enabled = true }: { runId: number; enabled?: boolean }) {
   return useQuery({ ...getCaptureStateQueryOptions(runId), enabled });

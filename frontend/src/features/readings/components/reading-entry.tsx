@@ -46,7 +46,8 @@ export type CounterAssist = {
 
 /** The waiting line: how many counter readings so far and their spread against the procedure's band. */
 function waitingText(c: CounterCapture): string {
-  const spread = c.spreadHz === null ? 'no reading yet' : `spread ${formatNumber(c.spreadHz, c.spreadHz < 10 ? 2 : 0)} Hz over the last ${Math.min(c.count, c.settleCount)}`;
+  const spread =
+    c.spreadHz === null ? 'no reading yet' : `spread ${formatNumber(c.spreadHz, c.spreadHz < 10 ? 2 : 0)} Hz over the last ${Math.min(c.count, c.settleCount)}`;
   return `Waiting for the counter to settle at dial ${formatNumber(c.dial, Number.isInteger(c.dial) ? 0 : 3)}: ${c.count} reading${c.count === 1 ? '' : 's'}, ${spread} (needs ${c.settleCount} within ${formatNumber(c.toleranceHz, c.toleranceHz < 10 ? 2 : 0)} Hz, up to ${c.timeoutS} s). Esc abandons it.`;
 }
 
@@ -68,7 +69,13 @@ export function understandFrequency(text: string, freqMinHz: number, freqMaxHz: 
     } catch {
       outside = null; // a range without a usable span: the server decides
     }
-    return { ok: true, hz, far: outside !== null, probableHz: outside?.probableHz ?? null, text: `= ${formatHz(hz)} (${formatNumber(hz, Number.isInteger(hz) ? 0 : 1)} Hz)` };
+    return {
+      ok: true,
+      hz,
+      far: outside !== null,
+      probableHz: outside?.probableHz ?? null,
+      text: `= ${formatHz(hz)} (${formatNumber(hz, Number.isInteger(hz) ? 0 : 1)} Hz)`,
+    };
   } catch (error) {
     return { ok: false, text: error instanceof Error ? error.message : String(error) };
   }
@@ -239,7 +246,10 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
         onError: (error) => {
           const reason = error instanceof ApiError ? error.messages.join('; ') : 'the server could not be reached; press Enter to try again.';
           // No bridge live: the person can still type the counter reading, with the switch off.
-          const hint = error instanceof ApiError && error.status === 409 && /no bridge/.test(reason) ? ' Turn off “Counter fills the reading” to type the counter yourself.' : '';
+          const hint =
+            error instanceof ApiError && error.status === 409 && /no bridge/.test(reason)
+              ? ' Turn off “Counter fills the reading” to type the counter yourself.'
+              : '';
           setProblem({ field: 'dial', message: `Not taken — ${reason}.${hint}`.replace('..', '.') });
           dialRef.current?.focus();
         },
@@ -251,7 +261,10 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
     if (!waiting || abandonCapture.isPending) return;
     abandonCapture.mutate(
       { runId },
-      { onError: (error) => setProblem({ field: null, message: `Not abandoned — ${error instanceof ApiError ? error.messages.join('; ') : 'the server could not be reached'}` }) },
+      {
+        onError: (error) =>
+          setProblem({ field: null, message: `Not abandoned — ${error instanceof ApiError ? error.messages.join('; ') : 'the server could not be reached'}` }),
+      },
     );
   };
 
@@ -322,8 +335,8 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
         </Typography>
       ) : (
         <Typography variant="body2" color="text.secondary" sx={{ mb: 1.5 }}>
-          Dial, <kbd>Tab</kbd>, counter as shown (<Num>1735 kHz</Num>, <Num>1.7352 MHz</Num> or <Num>1735200</Num> in Hz),{' '}
-          <kbd>Enter</kbd>. Repeat a setting as often as you like.
+          Dial, <kbd>Tab</kbd>, counter as shown (<Num>1735 kHz</Num>, <Num>1.7352 MHz</Num> or <Num>1735200</Num> in Hz), <kbd>Enter</kbd>. Repeat a setting as
+          often as you like.
         </Typography>
       )}
       {assist && !readOnly && (
@@ -338,7 +351,12 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
         noValidate
         onSubmit={submit}
         aria-label="Reading entry"
-        sx={{ display: 'grid', gridTemplateColumns: { xs: 'minmax(0, 1fr)', sm: counterMode ? 'minmax(0, 1fr) auto' : 'minmax(0, 1fr) minmax(0, 2fr) auto' }, gap: 1.5, alignItems: 'start' }}
+        sx={{
+          display: 'grid',
+          gridTemplateColumns: { xs: 'minmax(0, 1fr)', sm: counterMode ? 'minmax(0, 1fr) auto' : 'minmax(0, 1fr) minmax(0, 2fr) auto' },
+          gap: 1.5,
+          alignItems: 'start',
+        }}
       >
         <TextField
           label={`Dial (${dialUnit})`}
@@ -391,7 +409,11 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
       <Box aria-live="polite" sx={{ minHeight: 24, mt: 0.5 }}>
         {waiting && counterMode ? (
           <Box sx={{ display: 'flex', gap: 1, alignItems: 'center', flexWrap: 'wrap' }}>
-            <Typography variant="body2" data-testid="capture-waiting" sx={{ flex: '1 1 16rem', minWidth: 0, overflowWrap: 'anywhere', fontVariantNumeric: 'tabular-nums' }}>
+            <Typography
+              variant="body2"
+              data-testid="capture-waiting"
+              sx={{ flex: '1 1 16rem', minWidth: 0, overflowWrap: 'anywhere', fontVariantNumeric: 'tabular-nums' }}
+            >
               {waitingText(waiting)}
             </Typography>
             <Button size="small" color="inherit" onClick={abandon} disabled={abandonCapture.isPending}>

@@ -34,8 +34,8 @@ function ExcludeDialog({ runId, reading, unit, onClose, onExcluded }: ExcludeDia
       intro={
         reading && (
           <>
-            Dial <Num>{reading.dial ?? '—'}</Num>, <Num>{formatHz(reading.frequency, unit)}</Num>. The reading stays on record, struck
-            through with your reason, and leaves the fits. This cannot be undone.
+            Dial <Num>{reading.dial ?? '—'}</Num>, <Num>{formatHz(reading.frequency, unit)}</Num>. The reading stays on record, struck through with your reason,
+            and leaves the fits. This cannot be undone.
           </>
         )
       }
@@ -50,7 +50,13 @@ function ExcludeDialog({ runId, reading, unit, onClose, onExcluded }: ExcludeDia
       pendingLabel="Excluding…"
       submitColor="error"
     >
-      <FormTextField control={form.control} name="reason" label="Reason" required helperText="E.g. counter gate still counting, wrong dial setting, lead moved" />
+      <FormTextField
+        control={form.control}
+        name="reason"
+        label="Reason"
+        required
+        helperText="E.g. counter gate still counting, wrong dial setting, lead moved"
+      />
     </FormDialog>
   );
 }
@@ -138,7 +144,14 @@ export function ReadingsTable({ runId, unit, resolutionHz = 0.1, showDial = true
         width: 140,
         sortable: false,
         valueGetter: (_v, row) => (row.author === null ? '' : row.author.kind === 'bench' ? `Bench ${row.author.name}` : row.author.name),
-        renderCell: ({ row, value }) => (row.author === null ? <Box component="span" sx={{ color: 'text.secondary' }}>—</Box> : <span title={value}>{value}</span>),
+        renderCell: ({ row, value }) =>
+          row.author === null ? (
+            <Box component="span" sx={{ color: 'text.secondary' }}>
+              —
+            </Box>
+          ) : (
+            <span title={value}>{value}</span>
+          ),
       },
       {
         field: 'receivedAt',

@@ -1,7 +1,16 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
 import { io } from 'socket.io-client';
-import { LIVE_EVENTS, NAMESPACES, type JoinReply, type LiveBridgeEvent, type LiveCaptureEvent, type LiveExclusionEvent, type LiveReadingsEvent, type RunBridgeChange } from '@kilocycle/common/events';
+import {
+  LIVE_EVENTS,
+  NAMESPACES,
+  type JoinReply,
+  type LiveBridgeEvent,
+  type LiveCaptureEvent,
+  type LiveExclusionEvent,
+  type LiveReadingsEvent,
+  type RunBridgeChange,
+} from '@kilocycle/common/events';
 import type { Reading } from '@kilocycle/common/types';
 import { getSession } from '@/lib/session';
 import { runAnalysisQueryKey, runDetailQueryKey } from '@/lib/query-keys';

@@ -1,6 +1,14 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { FIELD_LIMITS } from '@kilocycle/common/rules';
-import { CAPTURE_LIMITS, COMPONENT_DISTRIBUTIONS, DECISION_RULES, type CreateProcedureRequest, type ExtraComponent, type Procedure, type UpdateProcedureRequest } from '@kilocycle/common/types';
+import {
+  CAPTURE_LIMITS,
+  COMPONENT_DISTRIBUTIONS,
+  DECISION_RULES,
+  type CreateProcedureRequest,
+  type ExtraComponent,
+  type Procedure,
+  type UpdateProcedureRequest,
+} from '@kilocycle/common/types';
 import { z } from 'zod';
 import { api } from '@/lib/api-client';
 import { sharedQueryKeys } from '@/lib/query-keys';
@@ -27,7 +35,8 @@ export const extraComponentsSchema = z.array(extraComponentDraftSchema).transfor
     const dof = Number(d.dof);
     if (!d.name.trim()) refuse('give it a name');
     else if (d.value.trim() === '' || !Number.isFinite(value) || value < 0) refuse('the value must be a number of zero or more');
-    else if (d.distribution === 'normal' && d.divisor.trim() !== '' && !(Number.isFinite(divisor) && divisor >= 0.001)) refuse('the coverage factor must be a positive number');
+    else if (d.distribution === 'normal' && d.divisor.trim() !== '' && !(Number.isFinite(divisor) && divisor >= 0.001))
+      refuse('the coverage factor must be a positive number');
     else if (d.dof.trim() !== '' && !(Number.isFinite(dof) && dof >= 1)) refuse('degrees of freedom must be 1 or more (leave empty for infinite)');
     else
       components.push({

@@ -19,11 +19,7 @@ export const signJobSchema = z.object({
  * nor 403 is treated as an expired sign-in here: the dialog shows the server's message and stays open.
  */
 export function signJob({ jobId, password }: SignJobInput): Promise<CertificateDetail> {
-  return api.post<CertificateDetail>(
-    `/jobs/${jobId}/sign`,
-    { password, meaning: SIGNING_MEANING },
-    { notify: false, handleUnauthorized: false },
-  );
+  return api.post<CertificateDetail>(`/jobs/${jobId}/sign`, { password, meaning: SIGNING_MEANING }, { notify: false, handleUnauthorized: false });
 }
 
 export function useSignJob({ onSuccess }: { onSuccess?: (certificate: CertificateDetail) => void } = {}) {

@@ -20,10 +20,30 @@ export function ErrorChart({ range, height = 260 }: ErrorChartProps) {
   const hasAsLeft = range.points.some((p) => p.asLeft);
   const series = [
     ...(hasAsFound
-      ? [{ id: 'as-found', label: 'As found', data: range.points.map((p) => p.asFound?.errorHz ?? null), color: '#c98a1b', connectNulls: true, curve: 'linear' as const, showMark: true }]
+      ? [
+          {
+            id: 'as-found',
+            label: 'As found',
+            data: range.points.map((p) => p.asFound?.errorHz ?? null),
+            color: '#c98a1b',
+            connectNulls: true,
+            curve: 'linear' as const,
+            showMark: true,
+          },
+        ]
       : []),
     ...(hasAsLeft
-      ? [{ id: 'as-left', label: 'As left', data: range.points.map((p) => p.asLeft?.errorHz ?? null), color: '#1f4e55', connectNulls: true, curve: 'linear' as const, showMark: true }]
+      ? [
+          {
+            id: 'as-left',
+            label: 'As left',
+            data: range.points.map((p) => p.asLeft?.errorHz ?? null),
+            color: '#1f4e55',
+            connectNulls: true,
+            curve: 'linear' as const,
+            showMark: true,
+          },
+        ]
       : []),
     { id: 'tol-high', label: 'Tolerance', data: range.points.map((p) => p.toleranceHz), color: '#b3261e', showMark: false, curve: 'linear' as const },
     { id: 'tol-low', data: range.points.map((p) => -p.toleranceHz), color: '#b3261e', showMark: false, curve: 'linear' as const },
@@ -38,7 +58,7 @@ export function ErrorChart({ range, height = 260 }: ErrorChartProps) {
   return (
     <LineChart
       height={height}
-     
+
       xAxis={[
         {
           data: x,

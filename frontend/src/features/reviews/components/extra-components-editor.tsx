@@ -42,8 +42,7 @@ type ExtraComponentsEditorProps = {
 
 /** Budget lines beyond the standard six (cabling, loading…), each with its distribution and size. */
 export function ExtraComponentsEditor({ value, onChange, disabled, error }: ExtraComponentsEditorProps) {
-  const set = (index: number, changes: Partial<ExtraComponentDraft>) =>
-    onChange(value.map((d, i) => (i === index ? { ...d, ...changes } : d)));
+  const set = (index: number, changes: Partial<ExtraComponentDraft>) => onChange(value.map((d, i) => (i === index ? { ...d, ...changes } : d)));
   return (
     <Box>
       {error && (

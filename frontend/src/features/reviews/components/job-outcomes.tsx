@@ -47,7 +47,15 @@ export function JobOutcomesSummary({ outcomes, compact = false }: { outcomes: Ou
     <Box
       component="dl"
       aria-label="Outcomes"
-      sx={{ display: 'grid', gridTemplateColumns: { xs: '1fr', sm: 'max-content max-content 1fr' }, columnGap: 1.5, rowGap: 0.75, alignItems: 'center', m: 0, '& dd': { m: 0 } }}
+      sx={{
+        display: 'grid',
+        gridTemplateColumns: { xs: '1fr', sm: 'max-content max-content 1fr' },
+        columnGap: 1.5,
+        rowGap: 0.75,
+        alignItems: 'center',
+        m: 0,
+        '& dd': { m: 0 },
+      }}
     >
       {SIDES.map(({ key, long }) => (
         <Box key={key} sx={{ display: 'contents' }}>

@@ -51,8 +51,8 @@ export function JobSummary({ review }: { review: JobReview }) {
       )}
       {amendment && (
         <Typography variant="body2" sx={{ mt: 1, color: 'warning.dark' }}>
-          Amendment of certificate {amendment.certificateNumber}: signing issues revision {amendment.revision}, replacing revision{' '}
-          {amendment.replacesRevision}. Reason: {amendment.reason}
+          Amendment of certificate {amendment.certificateNumber}: signing issues revision {amendment.revision}, replacing revision {amendment.replacesRevision}.
+          Reason: {amendment.reason}
         </Typography>
       )}
     </Paper>

@@ -49,7 +49,9 @@ export function ProcedureDialog({ procedure, canEdit, onClose }: ProcedureDialog
         `Saving a change makes version ${procedure.version + 1}. Open jobs use it at once; signed jobs keep the version they were signed with.`
       }
       form={form}
-      onSubmit={({ active, ...body }) => (procedure ? save.mutate({ id: procedure.id, changes: { ...body, active } }) : save.mutate({ id: null, changes: body }))}
+      onSubmit={({ active, ...body }) =>
+        procedure ? save.mutate({ id: procedure.id, changes: { ...body, active } }) : save.mutate({ id: null, changes: body })
+      }
       onClose={onClose}
       pending={save.isPending}
       error={save.error}
@@ -83,13 +85,19 @@ export function ProcedureDialog({ procedure, canEdit, onClose }: ProcedureDialog
           Budget defaults
         </Typography>
         <Box sx={{ display: 'grid', gridTemplateColumns: { xs: '1fr', sm: 'repeat(3, 1fr)' }, gap: 2 }}>
-          <FormTextField control={control} name="dialHalfDivisionPercentOfSpan" label="Half a dial division (% of span)" inputMode="decimal" disabled={disabled} />
+          <FormTextField
+            control={control}
+            name="dialHalfDivisionPercentOfSpan"
+            label="Half a dial division (% of span)"
+            inputMode="decimal"
+            disabled={disabled}
+          />
           <FormTextField control={control} name="driftPpm" label="Drift allowance (± ppm)" inputMode="decimal" disabled={disabled} />
           <FormTextField control={control} name="driftHz" label="Drift allowance (± Hz)" inputMode="decimal" disabled={disabled} />
         </Box>
         <Typography variant="body2" color="text.secondary">
-          The standard’s time base, its calibration, the counter’s ±1 count and the repeatability come from the run and the standard;
-          these figures and the extra components below are added to them.
+          The standard’s time base, its calibration, the counter’s ±1 count and the repeatability come from the run and the standard; these figures and the
+          extra components below are added to them.
         </Typography>
         <Controller
           control={control}
@@ -114,8 +122,8 @@ export function ProcedureDialog({ procedure, canEdit, onClose }: ProcedureDialog
           disabled={disabled}
         />
         <Typography variant="body2" color="text.secondary">
-          With a bridge live, the technician types only the dial: the setting is stored once the last N counter readings lie within the
-          band, as their mean, with their spread feeding the repeatability.
+          With a bridge live, the technician types only the dial: the setting is stored once the last N counter readings lie within the band, as their mean,
+          with their spread feeding the repeatability.
         </Typography>
         <Box sx={{ display: 'flex', gap: 3 }}>
           <FormSwitch control={control} name="isDefault" label="Default for new jobs" disabled={disabled} />

@@ -59,8 +59,7 @@ export function ProceduresTable({ canEdit }: { canEdit: boolean }) {
               <TableRow key={p.id} hover>
                 <TableCell>
                   <Typography variant="body2" sx={{ fontWeight: 500 }}>
-                    {p.name}{' '}
-                    {p.isDefault && <Chip size="small" color="primary" variant="outlined" label="default" sx={{ height: 18, fontSize: '0.7rem' }} />}
+                    {p.name} {p.isDefault && <Chip size="small" color="primary" variant="outlined" label="default" sx={{ height: 18, fontSize: '0.7rem' }} />}
                   </Typography>
                 </TableCell>
                 <TableCell>{DECISION_RULE_LABELS[p.decisionRule]}</TableCell>

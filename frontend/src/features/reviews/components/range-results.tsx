@@ -55,7 +55,19 @@ function Tur({ point }: { point: MeasuredPoint }) {
   );
 }
 
-function MeasuredCells({ point, unit, withTur, side, onPick }: { point: MeasuredPoint | null; unit: ReturnType<typeof rangeUnit>; withTur: boolean; side: Side; onPick: (side: Side) => void }) {
+function MeasuredCells({
+  point,
+  unit,
+  withTur,
+  side,
+  onPick,
+}: {
+  point: MeasuredPoint | null;
+  unit: ReturnType<typeof rangeUnit>;
+  withTur: boolean;
+  side: Side;
+  onPick: (side: Side) => void;
+}) {
   const count = withTur ? 5 : 4;
   if (!point) {
     return (
@@ -111,7 +123,15 @@ function FitSummary({ title, summary }: { title: string; summary: RunFitSummary 
       {fit ? (
         <Box
           component="dl"
-          sx={{ display: 'grid', gridTemplateColumns: { xs: 'minmax(0, 1fr)', sm: 'max-content minmax(0, 1fr)' }, columnGap: 2, rowGap: 0.25, m: 0, '& dt': { color: 'text.secondary' }, '& dd': { m: 0, ...numberSx } }}
+          sx={{
+            display: 'grid',
+            gridTemplateColumns: { xs: 'minmax(0, 1fr)', sm: 'max-content minmax(0, 1fr)' },
+            columnGap: 2,
+            rowGap: 0.25,
+            m: 0,
+            '& dt': { color: 'text.secondary' },
+            '& dd': { m: 0, ...numberSx },
+          }}
         >
           <dt>Intercept at 0 Hz</dt>
           <dd>

@@ -37,13 +37,7 @@ export function ReviewActions({ review, onSigned }: ReviewActionsProps) {
       ) : (
         signButton
       )}
-      <ReturnDialog
-        open={dialog === 'return'}
-        jobId={job.id}
-        jobNumber={job.number}
-        technician={job.technicianName}
-        onClose={() => setDialog(null)}
-      />
+      <ReturnDialog open={dialog === 'return'} jobId={job.id} jobNumber={job.number} technician={job.technicianName} onClose={() => setDialog(null)} />
       <SignDialog
         open={dialog === 'sign'}
         jobId={job.id}

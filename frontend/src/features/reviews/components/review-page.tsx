@@ -46,7 +46,14 @@ export function ReviewPage({ jobId, queuePath, jobPath, runPath }: ReviewPagePro
   if (review.isPending) return <FullPageSpinner label="Loading the review" />;
   if (review.isError) {
     return (
-      <Alert severity="error" action={<Button component={RouterLink} to={queuePath}>Back to the queue</Button>}>
+      <Alert
+        severity="error"
+        action={
+          <Button component={RouterLink} to={queuePath}>
+            Back to the queue
+          </Button>
+        }
+      >
         The review could not be loaded: {review.error.message}
       </Alert>
     );
@@ -66,8 +73,7 @@ export function ReviewPage({ jobId, queuePath, jobPath, runPath }: ReviewPagePro
         title={`Review of job ${job.number}`}
         description={
           <>
-            {job.instrumentLabel} · {job.organizationName}{' '}
-            <Chip size="small" label={STATUS_LABELS[job.status]} sx={{ height: 20, ml: 0.5, mr: 1.5 }} />
+            {job.instrumentLabel} · {job.organizationName} <Chip size="small" label={STATUS_LABELS[job.status]} sx={{ height: 20, ml: 0.5, mr: 1.5 }} />
             <JobOutcomesSummary outcomes={data.results.outcomes} compact />
             {jobPath && (
               <Button component={RouterLink} to={jobPath} size="small" sx={{ ml: 1 }}>

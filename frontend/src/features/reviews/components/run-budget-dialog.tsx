@@ -45,7 +45,12 @@ export function RunBudgetDialog({ runId, title, dialUnit, canEdit, onClose }: Ru
   const overrideExtras = form.watch('overrideExtras');
   const { control } = form;
 
-  const field = (name: 'dialHalfDivision' | 'driftPpm' | 'driftHz' | 'counterResolutionHz', label: string, unit: string, follows: number | null | undefined) => (
+  const field = (
+    name: 'dialHalfDivision' | 'driftPpm' | 'driftHz' | 'counterResolutionHz',
+    label: string,
+    unit: string,
+    follows: number | null | undefined,
+  ) => (
     <FormTextField
       control={control}
       name={name}

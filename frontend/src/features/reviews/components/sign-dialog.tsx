@@ -38,9 +38,8 @@ export function SignDialog({ open, jobId, jobNumber, customer, instrument, onClo
           {SIGNING_MEANING.charAt(0).toUpperCase() + SIGNING_MEANING.slice(1)}
         </Typography>
         <Typography variant="body2" sx={{ mt: 0.5 }}>
-          Signed by {user.name}, {ROLE_LABELS[user.role].toLowerCase()}, at the time you confirm. The certificate PDF is made once,
-          stored with its hash, and mailed to the customer. The job’s runs, readings and budgets cannot be changed afterwards; a
-          correction is a new revision.
+          Signed by {user.name}, {ROLE_LABELS[user.role].toLowerCase()}, at the time you confirm. The certificate PDF is made once, stored with its hash, and
+          mailed to the customer. The job’s runs, readings and budgets cannot be changed afterwards; a correction is a new revision.
         </Typography>
       </Alert>
     </>

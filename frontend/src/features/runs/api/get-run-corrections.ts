@@ -5,7 +5,10 @@ import { sharedQueryKeys } from '@/lib/query-keys';
 
 /** Corrections of a run's details (audit action update on the run), newest first (lab staff only). */
 export function getRunCorrections(runId: number): Promise<ListResponse<AuditEventView>> {
-  return api.get<ListResponse<AuditEventView>>('/audit', { params: { entity: 'run', entityId: String(runId), action: 'update', sort: '-at', pageSize: 100 }, notify: false });
+  return api.get<ListResponse<AuditEventView>>('/audit', {
+    params: { entity: 'run', entityId: String(runId), action: 'update', sort: '-at', pageSize: 100 },
+    notify: false,
+  });
 }
 
 export const getRunCorrectionsQueryOptions = (runId: number) =>

@@ -5,7 +5,10 @@ import { sharedQueryKeys } from '@/lib/query-keys';
 
 /** The run's file imports (audit action import on the run: file, mode, rows, imported, skipped), newest first (lab staff only). */
 export function getRunImports(runId: number): Promise<ListResponse<AuditEventView>> {
-  return api.get<ListResponse<AuditEventView>>('/audit', { params: { entity: 'run', entityId: String(runId), action: 'import', sort: '-at', pageSize: 100 }, notify: false });
+  return api.get<ListResponse<AuditEventView>>('/audit', {
+    params: { entity: 'run', entityId: String(runId), action: 'import', sort: '-at', pageSize: 100 },
+    notify: false,
+  });
 }
 
 // Under ['runs', …] so that an import, which refreshes ['runs'], refreshes this list too.

@@ -26,11 +26,18 @@ export function openRunSchema(asksReason: (standardId: number | null) => boolean
     })
     .superRefine((run, context) => {
       if (CALIBRATION_RUN_KINDS.includes(run.kind) && run.standardId === null)
-        context.addIssue({ code: 'custom', path: ['standardId'], message: 'Choose the reference standard: as-found and as-left results are stated against it' });
+        context.addIssue({
+          code: 'custom',
+          path: ['standardId'],
+          message: 'Choose the reference standard: as-found and as-left results are stated against it',
+        });
       if (asksReason(run.standardId) && run.overrideReason.length < REASON.min)
         context.addIssue({ code: 'custom', path: ['overrideReason'], message: `Write why the lapsed standard is used (at least ${REASON.min} characters)` });
     })
-    .transform(({ overrideReason, ...body }): CreateRunRequest => ({ ...body, ...(asksReason(body.standardId) ? { standardOverrideReason: overrideReason } : {}) }));
+    .transform(({ overrideReason, ...body }): CreateRunRequest => ({
+      ...body,
+      ...(asksReason(body.standardId) ? { standardOverrideReason: overrideReason } : {}),
+    }));
 }
 
 export type OpenRunInput = { jobId: number; body: CreateRunRequest };

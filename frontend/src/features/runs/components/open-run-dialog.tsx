@@ -38,7 +38,11 @@ type OpenRunDialogProps = {
  * The standard to pre-select: the chosen bench's default, or with no bench chosen the default of the
  * first bench that has one (a lab measures typed readings with its bench counter too).
  */
-export function preselectedStandard(benches: readonly BenchChoice[], benchId: string, standards: readonly StandardChoice[]): { id: string; bench: string } | null {
+export function preselectedStandard(
+  benches: readonly BenchChoice[],
+  benchId: string,
+  standards: readonly StandardChoice[],
+): { id: string; bench: string } | null {
   const bench = benchId ? benches.find((b) => b.value === benchId) : benches.find((b) => b.defaultStandardId !== null);
   const id = bench?.defaultStandardId ?? null;
   if (!bench || id === null || !standards.some((s) => s.value === id)) return null;
@@ -150,7 +154,14 @@ export function OpenRunDialog({ jobId, role, ranges, benches, standards, onOpene
               </MenuItem>
             ))}
           </FormTextField>
-          <FormSelectField control={form.control} name="kind" label="Kind" required options={kinds.map((k) => ({ value: k, label: RUN_KIND_LABELS[k] }))} onValueChange={kindChanged} />
+          <FormSelectField
+            control={form.control}
+            name="kind"
+            label="Kind"
+            required
+            options={kinds.map((k) => ({ value: k, label: RUN_KIND_LABELS[k] }))}
+            onValueChange={kindChanged}
+          />
           <FormSelectField
             control={form.control}
             name="benchId"

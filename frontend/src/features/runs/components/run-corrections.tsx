@@ -53,7 +53,11 @@ export function RunCorrections({ runId, embedded = false }: { runId: number; emb
             {correctionChanges(event).map((c, i) => (
               <Box component="span" key={c.field}>
                 {i > 0 && '; '}
-                {c.field} <Box component="span" sx={{ color: 'text.secondary' }}>{c.from}</Box> → <strong>{c.to}</strong>
+                {c.field}{' '}
+                <Box component="span" sx={{ color: 'text.secondary' }}>
+                  {c.from}
+                </Box>{' '}
+                → <strong>{c.to}</strong>
               </Box>
             ))}
             {typeof event.changes?.reason === 'string' && (

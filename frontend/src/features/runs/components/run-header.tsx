@@ -53,8 +53,11 @@ export function RunHeader({ run, canWrite, extra }: RunHeaderProps) {
         <Link component={RouterLink} to={instrumentPath(run.instrumentId)}>
           {run.instrumentLabel}
         </Link>{' '}
-        · range <Box component="span" sx={{ whiteSpace: 'pre' }}>{run.rangeLabel}</Box> · {run.benchName ?? 'no bench'} ·{' '}
-        {run.standardName ?? 'no standard'} · started <Num>{formatDateTime(run.startedAt)}</Num>
+        · range{' '}
+        <Box component="span" sx={{ whiteSpace: 'pre' }}>
+          {run.rangeLabel}
+        </Box>{' '}
+        · {run.benchName ?? 'no bench'} · {run.standardName ?? 'no standard'} · started <Num>{formatDateTime(run.startedAt)}</Num>
         {run.endedAt && (
           <>
             {' '}

@@ -7,7 +7,10 @@ import { isoDate, requiredText, typedNumber } from '@/utils/form-schema';
 import { getStandardsQueryOptions } from '@/lib/get-standards';
 
 const { standard: LIMITS } = FIELD_LIMITS;
-const within = ({ min, max }: { min: number; max: number }, message: string) => (n: number) => (n < min || n > max ? message : null);
+const within =
+  ({ min, max }: { min: number; max: number }, message: string) =>
+  (n: number) =>
+    n < min || n > max ? message : null;
 
 /** The reference-standard form (new and edit; `active` is only sent by the edit). */
 export const standardSchema = z.object({

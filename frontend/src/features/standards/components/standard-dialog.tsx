@@ -8,7 +8,10 @@ import { useUpdateStandard } from '../api/update-standard';
 
 export const STANDARD_KIND_LABELS: Record<StandardKind, string> = { counter: 'Frequency counter', reference: 'Frequency reference' };
 
-type Draft = Record<'name' | 'makeModel' | 'serial' | 'certificateNumber' | 'dueDate' | 'timebaseAccuracyPpm' | 'resolutionHz' | 'calibrationUPpm' | 'calibrationK', string> & {
+type Draft = Record<
+  'name' | 'makeModel' | 'serial' | 'certificateNumber' | 'dueDate' | 'timebaseAccuracyPpm' | 'resolutionHz' | 'calibrationUPpm' | 'calibrationK',
+  string
+> & {
   kind: StandardKind;
   active: boolean;
 };
@@ -61,10 +64,7 @@ export function StandardDialog({ open, standard, onClose }: StandardDialogProps)
     <FormDialog
       open={open}
       title={standard ? `Edit ${standard.name} (version ${standard.version})` : 'New reference standard'}
-      intro={
-        standard &&
-        `Saving a change makes version ${standard.version + 1}. Open jobs use it at once; signed jobs keep the version they were signed with.`
-      }
+      intro={standard && `Saving a change makes version ${standard.version + 1}. Open jobs use it at once; signed jobs keep the version they were signed with.`}
       form={form}
       onSubmit={({ active, ...body }) => (standard ? update.mutate({ id: standard.id, changes: { ...body, active } }) : create.mutate(body))}
       onClose={onClose}
@@ -80,14 +80,25 @@ export function StandardDialog({ open, standard, onClose }: StandardDialogProps)
     >
       <Box sx={{ display: 'grid', gridTemplateColumns: '1fr 1fr', gap: 2 }}>
         <FormTextField control={form.control} name="name" label="Name" helperText="As the bench knows it, e.g. Bench counter A" />
-        <FormSelectField control={form.control} name="kind" label="Kind" options={STANDARD_KINDS.map((kind) => ({ value: kind, label: STANDARD_KIND_LABELS[kind] }))} />
+        <FormSelectField
+          control={form.control}
+          name="kind"
+          label="Kind"
+          options={STANDARD_KINDS.map((kind) => ({ value: kind, label: STANDARD_KIND_LABELS[kind] }))}
+        />
         <FormTextField control={form.control} name="makeModel" label="Make and model" />
         <FormTextField control={form.control} name="serial" label="Serial number" slotProps={mono} />
         <FormTextField control={form.control} name="certificateNumber" label="Its certificate number" slotProps={mono} />
         <FormTextField control={form.control} name="dueDate" label="Calibration due" type="date" slotProps={{ inputLabel: { shrink: true } }} />
         <FormTextField control={form.control} name="timebaseAccuracyPpm" label="Time-base accuracy (± ppm)" slotProps={mono} />
         <FormTextField control={form.control} name="resolutionHz" label="Resolution (Hz, one count)" slotProps={mono} />
-        <FormTextField control={form.control} name="calibrationUPpm" label="Its calibration U (ppm)" helperText="Expanded uncertainty from its certificate" slotProps={mono} />
+        <FormTextField
+          control={form.control}
+          name="calibrationUPpm"
+          label="Its calibration U (ppm)"
+          helperText="Expanded uncertainty from its certificate"
+          slotProps={mono}
+        />
         <FormTextField control={form.control} name="calibrationK" label="Coverage factor k" slotProps={mono} />
       </Box>
       {standard && <FormSwitch control={form.control} name="active" label="In use (a standard out of use cannot be chosen for new runs)" />}

@@ -91,7 +91,13 @@ export function StandardsTable({ canEdit }: { canEdit: boolean }) {
         headerName: 'Status',
         width: 110,
         renderCell: ({ row }) => (
-          <Chip size="small" variant="outlined" label={row.active ? 'In use' : 'Out of use'} color={row.active ? 'success' : 'default'} sx={{ height: 20, fontSize: '0.75rem' }} />
+          <Chip
+            size="small"
+            variant="outlined"
+            label={row.active ? 'In use' : 'Out of use'}
+            color={row.active ? 'success' : 'default'}
+            sx={{ height: 20, fontSize: '0.75rem' }}
+          />
         ),
       },
       ...(canEdit

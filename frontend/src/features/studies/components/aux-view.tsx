@@ -34,8 +34,22 @@ export function AuxView({ kind, analysis, problem, empty = null, points, skipAni
   const series = supply
     ? [{ id: 'readings', label: 'Readings', data: points.map(toPoint), markerSize: 4, color: theme.palette.primary.main, valueFormatter: format }]
     : [
-        { id: 'up', label: 'Key up', data: points.filter((p) => p.aux === 0).map(toPoint), markerSize: 4, color: theme.palette.primary.main, valueFormatter: format },
-        { id: 'down', label: 'Key down', data: points.filter((p) => p.aux !== 0).map(toPoint), markerSize: 4, color: theme.palette.error.main, valueFormatter: format },
+        {
+          id: 'up',
+          label: 'Key up',
+          data: points.filter((p) => p.aux === 0).map(toPoint),
+          markerSize: 4,
+          color: theme.palette.primary.main,
+          valueFormatter: format,
+        },
+        {
+          id: 'down',
+          label: 'Key down',
+          data: points.filter((p) => p.aux !== 0).map(toPoint),
+          markerSize: 4,
+          color: theme.palette.error.main,
+          valueFormatter: format,
+        },
       ];
   return (
     <Box sx={{ display: 'grid', gridTemplateColumns: { xs: '1fr', lg: '2fr 1fr' }, gap: 2, alignItems: 'start' }}>

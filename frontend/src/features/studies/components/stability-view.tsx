@@ -133,7 +133,11 @@ export function StabilityView({ analysis, problem, empty = null, skipAnimation }
                 <ChartsSurface>
                   <ChartsGrid horizontal vertical />
                   <LinePlot />
-                  <ConfidenceBars testId="adev-confidence-bars" bars={adev.map((p) => ({ x: p.tau, low: p.ciLow, high: p.ciHigh }))} color={theme.palette.primary.dark} />
+                  <ConfidenceBars
+                    testId="adev-confidence-bars"
+                    bars={adev.map((p) => ({ x: p.tau, low: p.ciLow, high: p.ciHigh }))}
+                    color={theme.palette.primary.dark}
+                  />
                   <MarkPlot />
                   <ChartsAxis />
                 </ChartsSurface>
@@ -163,8 +167,7 @@ export function StabilityView({ analysis, problem, empty = null, skipAnimation }
             <Alert severity="warning">
               {gaps.gaps.length > 0 && (
                 <>
-                  {gaps.gaps.length} gap{gaps.gaps.length === 1 ? '' : 's'},{' '}
-                  {gaps.gaps.reduce((n, g) => n + g.missing, 0)} readings missing:{' '}
+                  {gaps.gaps.length} gap{gaps.gaps.length === 1 ? '' : 's'}, {gaps.gaps.reduce((n, g) => n + g.missing, 0)} readings missing:{' '}
                   {gaps.gaps.slice(0, 5).map((g, i) => (
                     <span key={g.index}>
                       {i > 0 && ', '}

@@ -66,9 +66,7 @@ export function warmupChartData(analysis: WarmupRunAnalysis | null, latest: read
   const fitted: (number | null)[] | null = analysis?.fit ? t.map((_, i) => seriesFitted[i] ?? null) : null;
   // Residuals from the fit show what the curve hides: noise, steps, a drift the model does not describe.
   const residual = view === 'residual' && fitted !== null;
-  const points = residual
-    ? xs.flatMap((x, i) => (fitted[i] == null ? [] : [{ id: i, x, y: f[i]! - fitted[i]! }]))
-    : xs.map((x, i) => ({ id: i, x, y: f[i]! }));
+  const points = residual ? xs.flatMap((x, i) => (fitted[i] == null ? [] : [{ id: i, x, y: f[i]! - fitted[i]! }])) : xs.map((x, i) => ({ id: i, x, y: f[i]! }));
   return { xs, perUnit, points, fitted: residual ? null : fitted, residual };
 }
 
@@ -143,7 +141,16 @@ export function WarmupView({ analysis, problem, empty = null, latest, skipAnimat
               series={series}
               skipAnimation={skipAnimation}
               margin={{ top: 8, right: 16, bottom: 8, left: 8 }}
-              xAxis={[{ id: 't', scaleType: 'linear', data: chart.xs, label: `Time since power-on (${chart.perUnit === 60 ? 'min' : 's'})`, height: 50, tickLabelStyle: tickStyle }]}
+              xAxis={[
+                {
+                  id: 't',
+                  scaleType: 'linear',
+                  data: chart.xs,
+                  label: `Time since power-on (${chart.perUnit === 60 ? 'min' : 's'})`,
+                  height: 50,
+                  tickLabelStyle: tickStyle,
+                },
+              ]}
               yAxis={[
                 {
                   id: 'f',
@@ -182,7 +189,12 @@ export function WarmupView({ analysis, problem, empty = null, latest, skipAnimat
         {analysis && (
           <>
             <Figures>
-              <Figure label="Settled frequency f∞" value={formatHzTo(analysis.fit.fInf, 0.01)} detail={`± ${formatSignificant(analysis.fit.seFInf, 2)} Hz`} testId="fit-finf" />
+              <Figure
+                label="Settled frequency f∞"
+                value={formatHzTo(analysis.fit.fInf, 0.01)}
+                detail={`± ${formatSignificant(analysis.fit.seFInf, 2)} Hz`}
+                testId="fit-finf"
+              />
               <Figure label="Amplitude A" value={formatSignedHz(analysis.fit.amplitude)} detail={`± ${formatSignificant(analysis.fit.seAmplitude, 2)} Hz`} />
               <Figure
                 label="Time constant τ"
@@ -190,9 +202,7 @@ export function WarmupView({ analysis, problem, empty = null, latest, skipAnimat
                 detail={`± ${formatSignificant(analysis.fit.seTau, 2)} s${analysis.fit.tau >= 60 ? ` (${formatDuration(analysis.fit.tau)})` : ''}`}
                 testId="fit-tau"
               />
-              {analysis.fit.linear !== null && (
-                <Figure label="Linear term" value={`${formatNumber(analysis.fit.linear * 60, 3, true)} Hz/min`} />
-              )}
+              {analysis.fit.linear !== null && <Figure label="Linear term" value={`${formatNumber(analysis.fit.linear * 60, 3, true)} Hz/min`} />}
               <Figure label="Residual SD" value={`${formatNumber(analysis.fit.residualSd, 2)} Hz`} detail={`${formatCount(analysis.usedCount)} readings`} />
               <Figure
                 label={`Settled within ${analysis.settling.withinHz} Hz`}

@@ -136,13 +136,7 @@ export function UsersTable({ organizations }: UsersTableProps) {
         <SelectFilter label="Status" value={active} options={STATUS_OPTIONS} onChange={(v) => list.update({ active: v })} />
       </Box>
       <Paper variant="outlined" sx={{ height: 'calc(100vh - 230px)', minHeight: 360 }}>
-        <ServerDataGrid
-          label="Users"
-          result={users}
-          list={list}
-          emptyText="No users match these filters."
-          columns={columns}
-        />
+        <ServerDataGrid label="Users" result={users} list={list} emptyText="No users match these filters." columns={columns} />
       </Paper>
       <ConfirmDialog
         open={pending !== null}
@@ -155,8 +149,8 @@ export function UsersTable({ organizations }: UsersTableProps) {
       >
         {pending && (
           <>
-            <strong>{pending.name}</strong> ({pending.email}) will be signed out at once and can no longer sign in. Their
-            records stay as they are, and you can activate the account again later.
+            <strong>{pending.name}</strong> ({pending.email}) will be signed out at once and can no longer sign in. Their records stay as they are, and you can
+            activate the account again later.
           </>
         )}
       </ConfirmDialog>

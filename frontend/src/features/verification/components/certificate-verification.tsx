@@ -32,10 +32,9 @@ function CheckOutcome({ number, result, fileName }: { number: string; result: Ce
   if (!result.match) {
     return (
       <Alert severity="error" icon={<CancelOutlined />} role="alert" data-testid="check-result">
-        <AlertTitle>Not the issued certificate</AlertTitle>
-        “{fileName}” does not match any issued revision of certificate {number}: its bytes differ from the file the laboratory
-        stored when it was signed. It may have been altered, or it may be a different document. Do not rely on it; ask the
-        laboratory for a copy.
+        <AlertTitle>Not the issued certificate</AlertTitle>“{fileName}” does not match any issued revision of certificate {number}: its bytes differ from the
+        file the laboratory stored when it was signed. It may have been altered, or it may be a different document. Do not rely on it; ask the laboratory for a
+        copy.
         <Typography variant="caption" component="div" sx={{ ...numberSx, mt: 1, wordBreak: 'break-all', whiteSpace: 'normal' }}>
           SHA-256 of your file: {result.sha256}
         </Typography>
@@ -100,7 +99,15 @@ function Details({ certificate, checked }: { certificate: PublicCertificate; che
       <Paper variant="outlined" sx={{ p: 2.5, mb: 2 }}>
         <Box
           component="dl"
-          sx={{ display: 'grid', gridTemplateColumns: 'max-content 1fr', columnGap: 3, rowGap: 0.75, m: 0, '& dt': { color: 'text.secondary' }, '& dd': { m: 0 } }}
+          sx={{
+            display: 'grid',
+            gridTemplateColumns: 'max-content 1fr',
+            columnGap: 3,
+            rowGap: 0.75,
+            m: 0,
+            '& dt': { color: 'text.secondary' },
+            '& dd': { m: 0 },
+          }}
         >
           <dt>Certificate</dt>
           <dd>
@@ -198,8 +205,8 @@ export function CertificateVerification({ number, onOtherNumber }: CertificateVe
           Is your copy the issued one?
         </Typography>
         <Typography variant="body2" color="text.secondary" sx={{ mb: 2 }}>
-          Choose the PDF you were given. It is compared byte for byte with the file the laboratory stored when the certificate
-          was signed; any change at all, even one character, makes it differ.
+          Choose the PDF you were given. It is compared byte for byte with the file the laboratory stored when the certificate was signed; any change at all,
+          even one character, makes it differ.
         </Typography>
         <PdfDropZone onFile={onFile} disabled={check.isPending} label="Certificate PDF to check" />
         <Box sx={{ mt: 2 }} aria-live="polite">

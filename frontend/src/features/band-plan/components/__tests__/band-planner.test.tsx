@@ -16,7 +16,16 @@ const regionOne: BandPlanResponse = {
     { name: '160 m', lowHz: 1_810_000, highHz: 1_850_000, status: 'primary', note: 'RR 5.96: more nationally' },
     { name: '60 m', lowHz: 5_351_500, highHz: 5_366_500, status: 'secondary', note: null },
   ],
-  rows: [{ rangeId: 11, rangeLabel: 'A', multiplier: 1, outLowHz: 1_750_000, outHighHz: 2_000_000, bands: [{ name: '160 m', coveredLowHz: 1_810_000, coveredHighHz: 1_850_000, full: true }] }],
+  rows: [
+    {
+      rangeId: 11,
+      rangeLabel: 'A',
+      multiplier: 1,
+      outLowHz: 1_750_000,
+      outHighHz: 2_000_000,
+      bands: [{ name: '160 m', coveredLowHz: 1_810_000, coveredHighHz: 1_850_000, full: true }],
+    },
+  ],
   wanted: null,
 };
 
@@ -24,7 +33,10 @@ describe('<BandPlanner>', () => {
   it('offers the three ITU regions, keeps the choice in the address, and shows the chosen region’s bands with the licence note', async () => {
     signInAs({ role: 'technician' });
     const { requests } = mockFetch([{ path: '/api/instruments/5/band-plan', body: regionOne }]);
-    renderWithApp(<BandPlanner instrumentId={5} dialUnits={{ 11: 'kHz' }} />, { path: '/instruments/5/band-plan', initialEntry: '/instruments/5/band-plan?region=1' });
+    renderWithApp(<BandPlanner instrumentId={5} dialUnits={{ 11: 'kHz' }} />, {
+      path: '/instruments/5/band-plan',
+      initialEntry: '/instruments/5/band-plan?region=1',
+    });
 
     const table = await screen.findByRole('table', { name: 'Amateur bands of ITU Region 1' });
     expect(new URL(requests[0]!.url, 'http://localhost').searchParams.get('region')).toBe('1');
@@ -53,7 +65,13 @@ describe('<BandPlanner>', () => {
 
   it('shows the server’s refusal in words', async () => {
     signInAs({ role: 'technician' });
-    mockFetch([{ path: '/api/instruments/5/band-plan', status: 400, body: { statusCode: 400, message: ['region must be an ITU region with a band table: 1, 2, 3'], error: 'Bad Request' } }]);
+    mockFetch([
+      {
+        path: '/api/instruments/5/band-plan',
+        status: 400,
+        body: { statusCode: 400, message: ['region must be an ITU region with a band table: 1, 2, 3'], error: 'Bad Request' },
+      },
+    ]);
     renderWithApp(<BandPlanner instrumentId={5} dialUnits={{}} />, { path: '/instruments/5/band-plan' });
     expect(await screen.findByText(/region must be an ITU region with a band table: 1, 2, 3/)).toBeTruthy();
   });

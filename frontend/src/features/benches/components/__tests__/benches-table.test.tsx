@@ -6,7 +6,15 @@ import { renderWithApp, signInAs } from '@/testing/test-utils';
 import { BenchesTable } from '../benches-table';
 
 const bench = (overrides: Partial<Bench>): Bench => ({
-  id: 1, name: 'Bench 1', location: 'Workshop', defaultStandardId: null, defaultStandardName: null, hasToken: false, tokenIssuedAt: null, active: true, ...overrides,
+  id: 1,
+  name: 'Bench 1',
+  location: 'Workshop',
+  defaultStandardId: null,
+  defaultStandardName: null,
+  hasToken: false,
+  tokenIssuedAt: null,
+  active: true,
+  ...overrides,
 });
 const TOKEN = 'kcb_abcdefghijklmnopqrstuvwxyzABCDEFGHIJKLMNOPQ';
 

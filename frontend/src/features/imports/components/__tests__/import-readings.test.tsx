@@ -25,7 +25,11 @@ describe('<ImportReadings>', () => {
     const table = within(dialog).getByRole('table', { name: 'Preview of the file' });
     const rows = within(table).getAllByRole('row');
     expect(rows).toHaveLength(4);
-    expect(within(rows[3]!).getAllByRole('cell').map((c) => c.textContent)).toEqual(['4', '1800', '1799.99', 'warm, settled']);
+    expect(
+      within(rows[3]!)
+        .getAllByRole('cell')
+        .map((c) => c.textContent),
+    ).toEqual(['4', '1800', '1799.99', 'warm, settled']);
     expect(within(dialog).getByRole('combobox', { name: /Dial setting/ }).textContent).toBe('Setting');
     expect(within(dialog).getByRole('combobox', { name: /Frequency/ }).textContent).toBe('Counter (kHz)');
     expect(within(dialog).getByRole('combobox', { name: /^Time/ }).textContent).toMatch(/not in the file/);

@@ -5,7 +5,8 @@ import { mockFetch } from '@/testing/fetch-mock';
 import { renderWithApp, signInAs } from '@/testing/test-utils';
 import { MailMessage } from '../mail-message';
 
-const HTML = '<!doctype html>\n<html><head><meta charset="utf-8"></head><body><p>Hello &lt;b&gt;</p><script>parent.document.title = "owned"</script></body></html>';
+const HTML =
+  '<!doctype html>\n<html><head><meta charset="utf-8"></head><body><p>Hello &lt;b&gt;</p><script>parent.document.title = "owned"</script></body></html>';
 
 const message = (overrides: Partial<MailMessageView> = {}): MailMessageView => ({
   id: 41,

@@ -5,7 +5,14 @@ import { mockFetch } from '@/testing/fetch-mock';
 import { renderWithApp, signInAs } from '@/testing/test-utils';
 import { WelcomePanel } from '../welcome-panel';
 
-const organization = (id: number, name: string): Organization => ({ id, name, kind: id === 1 ? 'lab' : 'customer', contactEmail: null, active: true, createdAt: '2026-01-05T09:00:00.000Z' });
+const organization = (id: number, name: string): Organization => ({
+  id,
+  name,
+  kind: id === 1 ? 'lab' : 'customer',
+  contactEmail: null,
+  active: true,
+  createdAt: '2026-01-05T09:00:00.000Z',
+});
 
 describe('<WelcomePanel>', () => {
   it('greets the person with their role, organisation (by name) and what that role does', async () => {

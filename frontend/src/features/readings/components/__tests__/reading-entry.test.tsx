@@ -87,13 +87,18 @@ describe('<ReadingEntry>', () => {
     expect(fetchMock).not.toHaveBeenCalled();
   });
 
-  it('should show the server\'s refusal of a reading outside the span and store it as typed on one more Enter, with confirmed', async () => {
+  it("should show the server's refusal of a reading outside the span and store it as typed on one more Enter, with confirmed", async () => {
     signInAs({ role: 'technician' });
     const slip = '1900 read as 1.900 kHz, outside this range (1 750–2 000 kHz) by more than 10 % of its span; did you mean 1 900 kHz?';
     const stored = createReading({ seq: 1, dial: 1900, frequency: 1900 });
     // The first answer is the refusal; once it is taken, the second (the confirmed reading stored).
     const routes = [
-      { method: 'POST', path: '/api/runs/7/readings', status: 422, body: { statusCode: 422, error: 'Unprocessable Entity', message: [`readings[0].frequency: ${slip}`] } },
+      {
+        method: 'POST',
+        path: '/api/runs/7/readings',
+        status: 422,
+        body: { statusCode: 422, error: 'Unprocessable Entity', message: [`readings[0].frequency: ${slip}`] },
+      },
       { method: 'POST', path: '/api/runs/7/readings', status: 201, body: createAppendAnswer([stored]) },
     ];
     const { requests } = mockFetch(routes);
@@ -127,7 +132,12 @@ describe('<ReadingEntry>', () => {
   it('should go back to the counter with its text selected on Escape, and send nothing', async () => {
     signInAs({ role: 'technician' });
     const { requests } = mockFetch([
-      { method: 'POST', path: '/api/runs/7/readings', status: 422, body: { statusCode: 422, error: 'Unprocessable Entity', message: ['readings[0].frequency: 1900 read as 1.900 kHz, outside this range'] } },
+      {
+        method: 'POST',
+        path: '/api/runs/7/readings',
+        status: 422,
+        body: { statusCode: 422, error: 'Unprocessable Entity', message: ['readings[0].frequency: 1900 read as 1.900 kHz, outside this range'] },
+      },
     ]);
     const { dial, counter, form } = renderEntry();
     fireEvent.change(dial, { target: { value: '1900' } });
@@ -178,12 +188,20 @@ describe('<ReadingEntry> with the counter filling the reading', () => {
     message: null,
   };
 
-  it('should send only the dial on Enter while the bridge is live, and show the server\'s refusal when it has none', async () => {
+  it("should send only the dial on Enter while the bridge is live, and show the server's refusal when it has none", async () => {
     signInAs({ role: 'technician' });
     const { requests } = mockFetch([
-      { method: 'POST', path: '/api/runs/7/capture', status: 409, body: { statusCode: 409, error: 'Conflict', message: 'no bridge is connected for run 7 (offline since 10:02:03 UTC): start the bridge' } },
+      {
+        method: 'POST',
+        path: '/api/runs/7/capture',
+        status: 409,
+        body: { statusCode: 409, error: 'Conflict', message: 'no bridge is connected for run 7 (offline since 10:02:03 UTC): start the bridge' },
+      },
     ]);
-    renderWithApp(<ReadingEntry runId={7} dialUnit="kHz" freqMinHz={1_750_000} freqMaxHz={2_000_000} counter={{ bridgeLive: true, capture: null, nextMark: null }} />, { path: '/runs/7' });
+    renderWithApp(
+      <ReadingEntry runId={7} dialUnit="kHz" freqMinHz={1_750_000} freqMaxHz={2_000_000} counter={{ bridgeLive: true, capture: null, nextMark: null }} />,
+      { path: '/runs/7' },
+    );
     expect(screen.queryByLabelText('Counter')).toBeNull();
     const dial = screen.getByLabelText('Dial (kHz)') as HTMLInputElement;
     fireEvent.change(dial, { target: { value: '1800' } });
@@ -195,18 +213,28 @@ describe('<ReadingEntry> with the counter filling the reading', () => {
 
   it('should show the waiting line with the spread so far, and abandon the setting on Esc', async () => {
     signInAs({ role: 'technician' });
-    const { requests } = mockFetch([{ method: 'DELETE', path: '/api/runs/7/capture', status: 200, body: { ...waiting, status: 'abandoned', message: 'abandoned' } }]);
-    renderWithApp(<ReadingEntry runId={7} dialUnit="kHz" freqMinHz={1_750_000} freqMaxHz={2_000_000} counter={{ bridgeLive: true, capture: waiting, nextMark: null }} />, { path: '/runs/7' });
-    expect(screen.getByTestId('capture-waiting').textContent).toContain('Waiting for the counter to settle at dial 1 800: 3 readings, spread 4.20 Hz over the last 3 (needs 5 within 5.00 Hz');
+    const { requests } = mockFetch([
+      { method: 'DELETE', path: '/api/runs/7/capture', status: 200, body: { ...waiting, status: 'abandoned', message: 'abandoned' } },
+    ]);
+    renderWithApp(
+      <ReadingEntry runId={7} dialUnit="kHz" freqMinHz={1_750_000} freqMaxHz={2_000_000} counter={{ bridgeLive: true, capture: waiting, nextMark: null }} />,
+      { path: '/runs/7' },
+    );
+    expect(screen.getByTestId('capture-waiting').textContent).toContain(
+      'Waiting for the counter to settle at dial 1 800: 3 readings, spread 4.20 Hz over the last 3 (needs 5 within 5.00 Hz',
+    );
     fireEvent.keyDown(screen.getByLabelText('Dial (kHz)'), { key: 'Escape' });
     await waitFor(() => expect(requests).toHaveLength(1));
     expect(requests[0]!.method).toBe('DELETE');
   });
 
-  it('should propose the procedure\'s next dial mark in the dial field', () => {
+  it("should propose the procedure's next dial mark in the dial field", () => {
     signInAs({ role: 'technician' });
     mockFetch([]);
-    renderWithApp(<ReadingEntry runId={7} dialUnit="kHz" freqMinHz={1_750_000} freqMaxHz={2_000_000} counter={{ bridgeLive: true, capture: null, nextMark: 1900 }} />, { path: '/runs/7' });
+    renderWithApp(
+      <ReadingEntry runId={7} dialUnit="kHz" freqMinHz={1_750_000} freqMaxHz={2_000_000} counter={{ bridgeLive: true, capture: null, nextMark: 1900 }} />,
+      { path: '/runs/7' },
+    );
     expect((screen.getByLabelText('Dial (kHz)') as HTMLInputElement).value).toBe('1900');
   });
 });

@@ -48,8 +48,17 @@ describe('useLiveReadings()', () => {
     signInAs();
     const client: QueryClient = createQueryClient();
     const reading = (seq: number, excluded = false): Reading => ({
-      id: 40 + seq, seq, t: seq * 2, dial: 1750, frequency: 1_750_010 + seq, aux: null, source: 'manual', receivedAt: '2026-03-01T09:00:00Z',
-      excluded, excludedReason: excluded ? 'Counter gate misread' : null, author: null,
+      id: 40 + seq,
+      seq,
+      t: seq * 2,
+      dial: 1750,
+      frequency: 1_750_010 + seq,
+      aux: null,
+      source: 'manual',
+      receivedAt: '2026-03-01T09:00:00Z',
+      excluded,
+      excludedReason: excluded ? 'Counter gate misread' : null,
+      author: null,
     });
     // What the run page holds in its cache: the live latest readings, a page of the readings table, the run and its analysis.
     client.setQueryData(['readings', 7, 'latest'], [reading(1), reading(2), reading(3)]);
@@ -57,7 +66,9 @@ describe('useLiveReadings()', () => {
     client.setQueryData(['runs', 'detail', 7], { id: 7 });
     client.setQueryData(['runs', 'analysis', 7], { runId: 7 });
     client.setQueryData(['runs', 'analysis', 8], { runId: 8 });
-    renderHook(() => useLiveReadings(7), { wrapper: ({ children }: { children: ReactNode }) => <QueryClientProvider client={client}>{children}</QueryClientProvider> });
+    renderHook(() => useLiveReadings(7), {
+      wrapper: ({ children }: { children: ReactNode }) => <QueryClientProvider client={client}>{children}</QueryClientProvider>,
+    });
 
     const event: LiveExclusionEvent = { runId: 7, reading: reading(2, true) };
     act(() => handlers.get(LIVE_EVENTS.excluded)!(event));
@@ -79,7 +90,9 @@ describe('useLiveReadings()', () => {
     signInAs();
     const client = createQueryClient();
     client.setQueryData(['runs', 'analysis', 7], { runId: 7 });
-    renderHook(() => useLiveReadings(7), { wrapper: ({ children }: { children: ReactNode }) => <QueryClientProvider client={client}>{children}</QueryClientProvider> });
+    renderHook(() => useLiveReadings(7), {
+      wrapper: ({ children }: { children: ReactNode }) => <QueryClientProvider client={client}>{children}</QueryClientProvider>,
+    });
     act(() => handlers.get(LIVE_EVENTS.excluded)!({ runId: 8, reading: { id: 1, seq: 1 } }));
     expect(client.getQueryState(['runs', 'analysis', 7])!.isInvalidated).toBe(false);
   });

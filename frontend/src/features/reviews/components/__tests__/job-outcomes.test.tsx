@@ -5,7 +5,17 @@ import { renderWithApp, signInAs } from '@/testing/test-utils';
 import { JobOutcomesSummary } from '../job-outcomes';
 
 const side = (o: Partial<JobOutcome>): JobOutcome => ({
-  decision: 'pass', settings: 10, pass: 10, conditionalPass: 0, conditionalFail: 0, fail: 0, outOfTolerance: 0, conditional: 0, undecided: 0, words: 'within tolerance', ...o,
+  decision: 'pass',
+  settings: 10,
+  pass: 10,
+  conditionalPass: 0,
+  conditionalFail: 0,
+  fail: 0,
+  outOfTolerance: 0,
+  conditional: 0,
+  undecided: 0,
+  words: 'within tolerance',
+  ...o,
 });
 const foundOut: JobOutcomes = {
   asFound: side({ decision: 'fail', pass: 7, fail: 3, outOfTolerance: 3, words: 'out of tolerance at 3 of 10 settings' }),

@@ -43,7 +43,12 @@ describe('<SignDialog>', () => {
   it('shows the server’s refusal, keeps the dialog open and the session alive when the password is refused', async () => {
     signInAs({ role: 'lead' }, 'lead-token');
     const { requests } = mockFetch([
-      { method: 'POST', path: '/api/jobs/7/sign', status: 401, body: { statusCode: 401, message: 'Password is not right: the job was not signed', error: 'Unauthorized' } },
+      {
+        method: 'POST',
+        path: '/api/jobs/7/sign',
+        status: 401,
+        body: { statusCode: 401, message: 'Password is not right: the job was not signed', error: 'Unauthorized' },
+      },
     ]);
     const { dialog, onSigned, onClose } = renderDialog();
     fireEvent.change(within(dialog).getByLabelText(/your password/i), { target: { value: 'not-my-password' } });

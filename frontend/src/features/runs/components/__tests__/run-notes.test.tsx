@@ -12,19 +12,29 @@ Import of "warmup.csv" on 2026-11-30 09:12 UTC by Tomas Reyes: 498 readings impo
 
 const run = (notes: string | null) => ({ id: 41, kind: 'warmup', status: 'open', notes }) as unknown as Run;
 const event = (action: string, changes: Record<string, unknown>, id: number): AuditEventView => ({
-  id, actorId: 3, actorName: 'Tomas Reyes', at: '2026-11-30T09:12:00.000Z', entity: 'run', entityId: '41', action, changes,
+  id,
+  actorId: 3,
+  actorName: 'Tomas Reyes',
+  at: '2026-11-30T09:12:00.000Z',
+  entity: 'run',
+  entityId: '41',
+  action,
+  changes,
 });
 
 /** Answers GET /api/audit by its action parameter, as the server filters it. */
 function serveAudit(byAction: Record<string, AuditEventView[]>) {
   const urls: string[] = [];
-  vi.stubGlobal('fetch', vi.fn(async (input: RequestInfo | URL) => {
-    const url = new URL(typeof input === 'string' ? input : input instanceof URL ? input.href : input.url, 'http://localhost');
-    urls.push(url.pathname + url.search);
-    if (url.pathname !== '/api/audit') throw new Error(`Unhandled request in test: ${url.href}`);
-    const items = byAction[url.searchParams.get('action') ?? ''] ?? [];
-    return new Response(JSON.stringify({ items, total: items.length }), { headers: { 'Content-Type': 'application/json' } });
-  }));
+  vi.stubGlobal(
+    'fetch',
+    vi.fn(async (input: RequestInfo | URL) => {
+      const url = new URL(typeof input === 'string' ? input : input instanceof URL ? input.href : input.url, 'http://localhost');
+      urls.push(url.pathname + url.search);
+      if (url.pathname !== '/api/audit') throw new Error(`Unhandled request in test: ${url.href}`);
+      const items = byAction[url.searchParams.get('action') ?? ''] ?? [];
+      return new Response(JSON.stringify({ items, total: items.length }), { headers: { 'Content-Type': 'application/json' } });
+    }),
+  );
   return urls;
 }
 
@@ -48,7 +58,9 @@ describe('<RunNotes>', () => {
     expect(text).toContain('- line 7, frequency: not a number');
     expect(text).toContain('- line 12, time: earlier than the line before');
     const imports = await within(panel).findByRole('region', { name: 'Imports into this run' });
-    const items = within(imports).getAllByRole('listitem').map((li) => li.textContent);
+    const items = within(imports)
+      .getAllByRole('listitem')
+      .map((li) => li.textContent);
     expect(items[0]).toContain('“warmup.csv”: 498 readings imported of 500 rows, 2 rows skipped, listed in the notes above (valid rows only)');
     expect(items[1]).toContain('“first.csv”: 1 200 readings imported of 1 200 rows, none skipped');
     const corrections = await within(panel).findByRole('region', { name: 'Corrections of this run' });

@@ -66,8 +66,8 @@ export function AlignmentPanel({ analysis }: { analysis: CalibrationRunAnalysis 
       ) : (
         <>
           <Typography variant="body2" color="text.secondary" sx={{ mb: 1 }}>
-            For f = 1/(2π√(LC)), from dial <Num>{alignment.low.dial}</Num> and <Num>{alignment.high.dial}</Num>: the coil and trimmer
-            moves that put both ends on their marks at once.
+            For f = 1/(2π√(LC)), from dial <Num>{alignment.low.dial}</Num> and <Num>{alignment.high.dial}</Num>: the coil and trimmer moves that put both ends
+            on their marks at once.
           </Typography>
           <Box component="dl" sx={{ display: 'grid', gridTemplateColumns: 'auto 1fr', columnGap: 2, rowGap: 0.5, m: 0 }}>
             <Row label="Low end now">

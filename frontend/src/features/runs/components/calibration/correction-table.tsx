@@ -42,7 +42,10 @@ export function CorrectionTable({ analysis }: { analysis: CalibrationRunAnalysis
         return { ok: true as const, text: `${text}, extrapolated beyond the settings measured (dial ${measured})` };
       } catch (error) {
         if (error instanceof MetrologyError && error.code === 'outside_span') {
-          return { ok: false as const, text: `${formatHz(hz)} lies beyond this range’s dial (${formatNumber(dialMin, decimals)} to ${formatNumber(dialMax, decimals)} ${dialUnit})` };
+          return {
+            ok: false as const,
+            text: `${formatHz(hz)} lies beyond this range’s dial (${formatNumber(dialMin, decimals)} to ${formatNumber(dialMax, decimals)} ${dialUnit})`,
+          };
         }
         throw error;
       }

@@ -31,7 +31,13 @@ export function FitSummary({ analysis }: { analysis: CalibrationRunAnalysis }) {
   const { fit, tracking, outliers, points } = analysis;
   // The line's value at the centre of the measured span: the error a person would expect there, unlike the
   // intercept, which lies at 0 Hz, far outside any range, and can have the opposite sign of every error measured.
-  const midSpan = fit && points.length > 0 ? lineAtMidSpan(fit, points.map((p) => p.nominal)) : null;
+  const midSpan =
+    fit && points.length > 0
+      ? lineAtMidSpan(
+          fit,
+          points.map((p) => p.nominal),
+        )
+      : null;
   return (
     <Paper variant="outlined" sx={{ p: 2 }} data-testid="fit-summary">
       <Typography variant="h3" component="h2" sx={{ mb: 1 }}>
@@ -45,7 +51,11 @@ export function FitSummary({ analysis }: { analysis: CalibrationRunAnalysis }) {
         />
         {fit && midSpan ? (
           <>
-            <Figure label="Error at mid-span" value={formatSignedHz(midSpan.errorHz)} detail={`the line at ${formatHz(midSpan.nominalHz)}, mid-way across the settings`} />
+            <Figure
+              label="Error at mid-span"
+              value={formatSignedHz(midSpan.errorHz)}
+              detail={`the line at ${formatHz(midSpan.nominalHz)}, mid-way across the settings`}
+            />
             <Figure
               label="Intercept at 0 Hz"
               value={formatSignedHz(fit.offsetHz)}

@@ -32,7 +32,9 @@ export function PaddingCalculator({ unit = 'kHz' }: { unit?: FrequencyUnit }) {
 
   const ready = f1.trim() && cap.trim();
   const shift: Outcome =
-    ready && f2.trim() ? attempt(() => `${formatNumber(paddingForShift(parseFrequency(f1, unit), parseFrequency(f2, unit), parseNumber(cap)), 2, true)} pF in parallel`) : null;
+    ready && f2.trim()
+      ? attempt(() => `${formatNumber(paddingForShift(parseFrequency(f1, unit), parseFrequency(f2, unit), parseNumber(cap)), 2, true)} pF in parallel`)
+      : null;
   const padded: Outcome =
     ready && padder.trim() ? attempt(() => `gives ${formatHz(frequencyWithPadder(parseFrequency(f1, unit), parseNumber(cap), parseNumber(padder)))}`) : null;
 

@@ -9,10 +9,38 @@ function analysis(settling: Partial<WarmupRunAnalysis['settling']>): WarmupRunAn
   const t = [0, 2, 4, 6, 8, 10, 12, 14];
   const fitted = t.map((s) => 7_050_000 - 400 * Math.exp(-s / 50));
   return {
-    runId: 9, runKind: 'warmup', readingCount: 8, excludedCount: 0, usedCount: 8, state: 'ready', analysis: 'warmup',
-    fit: { fInf: 7_050_000, amplitude: -400, tau: 50, linear: null, seFInf: 1, seAmplitude: 1, seTau: 0.5, seLinear: null, residualSd: 0.2, n: 8, converged: true, fittedPoints: 8 },
+    runId: 9,
+    runKind: 'warmup',
+    readingCount: 8,
+    excludedCount: 0,
+    usedCount: 8,
+    state: 'ready',
+    analysis: 'warmup',
+    fit: {
+      fInf: 7_050_000,
+      amplitude: -400,
+      tau: 50,
+      linear: null,
+      seFInf: 1,
+      seAmplitude: 1,
+      seTau: 0.5,
+      seLinear: null,
+      residualSd: 0.2,
+      n: 8,
+      converged: true,
+      fittedPoints: 8,
+    },
     summary: { driftFirstHourHz: 400, firstHourCovered: false, settledAtSeconds: 227, driftPer10MinAfterSettlingHz: null },
-    settling: { withinHz: 5, withinSeconds: 227, withinExtrapolated: true, rateHzPerMin: 1, rateSeconds: 494, rateExtrapolated: true, lastReadingSeconds: 14, ...settling },
+    settling: {
+      withinHz: 5,
+      withinSeconds: 227,
+      withinExtrapolated: true,
+      rateHzPerMin: 1,
+      rateSeconds: 494,
+      rateExtrapolated: true,
+      lastReadingSeconds: 14,
+      ...settling,
+    },
     drift: { windowSeconds: 600, windows: [] },
     series: { t, frequency: fitted, fitted },
   };
@@ -30,7 +58,14 @@ describe('<WarmupView> settling times', () => {
 
   it('says nothing of the kind once the record reaches the settling time, and "never" when the rule is never met', () => {
     signInAs({ role: 'engineer' });
-    renderWithApp(<WarmupView analysis={analysis({ withinExtrapolated: false, rateSeconds: null, rateExtrapolated: false, lastReadingSeconds: 600 })} problem={null} latest={[]} skipAnimation />);
+    renderWithApp(
+      <WarmupView
+        analysis={analysis({ withinExtrapolated: false, rateSeconds: null, rateExtrapolated: false, lastReadingSeconds: 600 })}
+        problem={null}
+        latest={[]}
+        skipAnimation
+      />,
+    );
     expect(screen.getByTestId('settled-within').textContent).not.toContain('extrapolated');
     expect(screen.getByTestId('settled-rate').textContent).toContain('never, by this rule');
   });
@@ -45,7 +80,17 @@ describe('warmupChartData(): the curve drawn is the one the server sent', () => 
     return { ...base, series: { t: base.series.t, frequency: sent.map((v) => v + 1), fitted: sent } };
   };
   const live = (seq: number, t: number, frequency: number): Reading => ({
-    id: 100 + seq, seq, t, dial: null, frequency, aux: null, source: 'bridge', receivedAt: '2026-01-01T00:00:00Z', excluded: false, excludedReason: null, author: null,
+    id: 100 + seq,
+    seq,
+    t,
+    dial: null,
+    frequency,
+    aux: null,
+    source: 'bridge',
+    receivedAt: '2026-01-01T00:00:00Z',
+    excluded: false,
+    excludedReason: null,
+    author: null,
   });
 
   it('draws the server’s fitted values at the analysed times, and none yet for a reading newer than the analysis', () => {

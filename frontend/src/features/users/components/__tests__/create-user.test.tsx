@@ -49,10 +49,11 @@ describe('<CreateUser>', () => {
     fireEvent.click(within(dialog).getByRole('button', { name: 'Create user' }));
 
     const alert = await within(dialog).findByRole('alert');
-    expect(within(alert).getAllByRole('listitem').map((li) => li.textContent)).toEqual([
-      'email must be an e-mail address',
-      'a client must belong to a customer organisation',
-    ]);
+    expect(
+      within(alert)
+        .getAllByRole('listitem')
+        .map((li) => li.textContent),
+    ).toEqual(['email must be an e-mail address', 'a client must belong to a customer organisation']);
     expect(requests[0].body).toEqual({
       email: 'nia@northgate.test',
       name: 'Nia Penrose',

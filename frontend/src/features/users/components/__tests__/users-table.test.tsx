@@ -12,10 +12,7 @@ describe('<UsersTable>', () => {
       {
         path: '/api/users',
         body: {
-          items: [
-            createUser({ id: 1, name: 'Ada Marsh', role: 'admin' }),
-            createUser({ id: 3, name: 'Tomas Reyes', email: 'tech@kilocycle.test' }),
-          ],
+          items: [createUser({ id: 1, name: 'Ada Marsh', role: 'admin' }), createUser({ id: 3, name: 'Tomas Reyes', email: 'tech@kilocycle.test' })],
           total: 2,
         },
       },

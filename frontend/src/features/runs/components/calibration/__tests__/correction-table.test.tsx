@@ -12,7 +12,16 @@ const points = [
 ];
 const analysis = {
   analysis: 'calibration',
-  range: { id: 1, label: 'Band 1', dialUnit: 'kHz', dialMin: 1700, dialMax: 2050, freqMinHz: 1_700_000, freqMaxHz: 2_050_000, tolerance: { kind: 'percent', value: 0.5 } },
+  range: {
+    id: 1,
+    label: 'Band 1',
+    dialUnit: 'kHz',
+    dialMin: 1700,
+    dialMax: 2050,
+    freqMinHz: 1_700_000,
+    freqMaxHz: 2_050_000,
+    tolerance: { kind: 'percent', value: 0.5 },
+  },
   points,
   corrections: points.map((p) => ({ dial: p.dial, nominal: p.nominal, measured: p.measured, correctionHz: p.nominal - p.measured })),
 } as unknown as CalibrationRunAnalysis;
