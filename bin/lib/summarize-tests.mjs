@@ -23,8 +23,9 @@ for (const file of files) {
   const p = report.numPassedTests ?? 0;
   const f = report.numFailedTests ?? 0;
   const s = (report.numPendingTests ?? 0) + (report.numTodoTests ?? 0);
-  // A test file that failed to load has no tests in it but still failed.
-  const brokenFiles = (report.testResults ?? []).filter((r) => r.status === 'failed' && (r.assertionResults ?? []).length === 0).length;
+  // A test file that failed to load, or whose beforeAll failed (its tests then show as skipped), has no
+  // failed test in it but still failed: it counts as one.
+  const brokenFiles = (report.testResults ?? []).filter((r) => r.status === 'failed' && !(r.assertionResults ?? []).some((a) => a.status === 'failed')).length;
   const suite = file.replace(/\.json$/, '');
   const secondsFile = join(dir, `${suite}.seconds`);
   const took = existsSync(secondsFile) ? `  (${formatSeconds(Number(readFileSync(secondsFile, 'utf8')))})` : '';

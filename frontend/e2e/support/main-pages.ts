@@ -15,7 +15,10 @@ export const DEMO_ACCOUNTS: Record<DemoRole, string> = {
 
 /** The demo records the main pages show, found through the API (never by their demo names, which may change). */
 export type DemoRecords = {
-  /** A job with runs that are under review (its review page has data, fits and budget). */
+  /**
+   * A job whose review page has data, fits and budget: the one in review, or, once the review-and-sign test has
+   * signed it (the browser files share one database and their order is not fixed), a signed one.
+   */
   reviewJobId: number;
   /** A calibration run with readings that is still open for capture. */
   captureRunId: number;
@@ -41,7 +44,9 @@ export async function findDemoRecords(): Promise<DemoRecords> {
   const lead = await apiLogin(DEMO_ACCOUNTS.lead, DEMO_PASSWORD);
   const runs = (await apiGet<ListResponse<RunRow>>(lead, '/runs?pageSize=200')).items;
   const calibration = (run: RunRow) => run.kind === 'as_found' || run.kind === 'as_left';
-  const review = pick(runs, (run) => run.jobStatus === 'in_review', 'job in review');
+  const review =
+    runs.find((run) => run.jobStatus === 'in_review' && run.readingCount > 0) ??
+    pick(runs, (run) => (run.jobStatus === 'approved' || run.jobStatus === 'issued') && calibration(run) && run.readingCount > 0, 'job in review or signed');
   const open = runs.find((run) => calibration(run) && run.status === 'open');
   const withReadings = pick(runs, (run) => calibration(run) && run.readingCount > 0, 'calibration run with readings');
   const study = pick(runs, (run) => (run.kind === 'warmup' || run.kind === 'stability') && run.readingCount > 0, 'study run with readings');
