@@ -1,8 +1,8 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Bench, ListResponse, Organization, Reading, Run } from '@kilocycle/common/types';
+import type { ListResponse, Reading, Run } from '@kilocycle/common/types';
 import { keepScreenshot, launchBrowser, onNewPage, signIn } from './support/browser';
-import { apiGet, createTestInstrument, openJob, sessionToken } from './support/lab';
+import { apiGet, ownJobAtBench, sessionToken } from './support/lab';
 
 // Issue 12, guardrails at capture: the new-run dialog pre-selects the bench's default standard and offers
 // no "None" for a calibration run; on a 1.75–2.0 MHz range, dial 1900 with counter `1900` (1.9 kHz) is
@@ -30,17 +30,7 @@ async function guardrails(page: Page) {
   const token = await sessionToken(page);
 
   // An instrument of our own with a 1.75–2.0 MHz range (other browser tests share the demo ones), and a job for it.
-  const orgs = await apiGet<ListResponse<Organization>>(token, '/organizations?pageSize=100');
-  const customer = orgs.items.find((o) => o.name === 'Northgate Radio Club') ?? orgs.items[0]!;
-  const instrument = await createTestInstrument(token, {
-    organizationId: customer.id,
-    make: 'Harwick Radio',
-    model: 'SG-4 signal generator',
-    serial: `E2E-G-${Date.now()}`,
-  });
-  const job = await openJob(token, instrument.id);
-  const benches = await apiGet<ListResponse<Bench>>(token, '/benches?active=true&sort=name&pageSize=200');
-  const bench = benches.items.find((b) => b.defaultStandardId !== null)!;
+  const { job, bench } = await ownJobAtBench(token, 'SG-4 signal generator', `E2E-G-${Date.now()}`);
   expect(bench.defaultStandardName).toBeTruthy();
 
   // 1. The new-run dialog: as-found, the bench's default standard already chosen, no "None" to pick.

@@ -1,8 +1,8 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Bench, ListResponse, Organization, Reading, Run } from '@kilocycle/common/types';
+import type { ListResponse, Reading, Run } from '@kilocycle/common/types';
 import { DEMO_PASSWORD, keepScreenshot, launchBrowser, onNewPage, signIn } from './support/browser';
-import { apiGet, apiLogin, apiRequest, createTestInstrument, openJob, sessionToken } from './support/lab';
+import { apiGet, apiLogin, apiRequest, ownJobAtBench, sessionToken } from './support/lab';
 
 // A technician has an as-found run open on the bench page (typed readings, no bench attached); the lead, on
 // another screen, excludes one of its readings. The technician's page shows the exclusion and the refit at once,
@@ -29,17 +29,7 @@ async function exclusionSeenLive(page: Page) {
   const token = await sessionToken(page);
 
   // An instrument and job of our own (other browser tests share the demo ones), a run against an in-date standard.
-  const orgs = await apiGet<ListResponse<Organization>>(token, '/organizations?pageSize=100');
-  const customer = orgs.items.find((o) => o.name === 'Northgate Radio Club') ?? orgs.items[0]!;
-  const instrument = await createTestInstrument(token, {
-    organizationId: customer.id,
-    make: 'Harwick Radio',
-    model: 'VFO-3 variable frequency oscillator',
-    serial: `E2E-X-${Date.now()}`,
-  });
-  const job = await openJob(token, instrument.id);
-  const benches = await apiGet<ListResponse<Bench>>(token, '/benches?active=true&sort=name&pageSize=200');
-  const standardId = benches.items.find((b) => b.defaultStandardId !== null)!.defaultStandardId;
+  const { instrument, job, standardId } = await ownJobAtBench(token, 'VFO-3 variable frequency oscillator', `E2E-X-${Date.now()}`);
   const run = await apiRequest<Run>(token, 'POST', `/jobs/${job.id}/runs`, { rangeId: instrument.ranges[0]!.id, kind: 'as_found', standardId });
   expect(run.benchId).toBeNull();
   // Five settings across 1750–2000 kHz, the dial reading about 0.4 % high.

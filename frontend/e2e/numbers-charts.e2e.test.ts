@@ -1,8 +1,8 @@
 import type { Browser, Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Bench, ListResponse, Organization, Run } from '@kilocycle/common/types';
+import type { Run } from '@kilocycle/common/types';
 import { BASE_URL, DEMO_PASSWORD, keepScreenshot, launchBrowser, signIn } from './support/browser';
-import { apiGet, apiLogin, apiRequest, createTestInstrument, openJob } from './support/lab';
+import { apiLogin, apiRequest, ownJobAtBench } from './support/lab';
 import { findDemoRecords, waitForPageSettled, type DemoRecords } from './support/main-pages';
 import { patientPage } from './support/patient-page';
 
@@ -70,20 +70,10 @@ describe('numbers and charts (browser)', () => {
     demo = await findDemoRecords();
     const tech = await apiLogin('tech@kilocycle.test', DEMO_PASSWORD);
     const engineer = await apiLogin('engineer@kilocycle.test', DEMO_PASSWORD);
-    const orgs = await apiGet<ListResponse<Organization>>(tech, '/organizations?pageSize=100');
-    const customer = orgs.items.find((o) => o.name === 'Northgate Radio Club') ?? orgs.items[0]!;
-    const instrument = await createTestInstrument(tech, {
-      organizationId: customer.id,
-      make: 'Harwick Radio',
-      model: 'SG-4 signal generator',
-      serial: `E2E-N-${Date.now()}`,
-    });
+    const { instrument, job, standardId } = await ownJobAtBench(tech, 'SG-4 signal generator', `E2E-N-${Date.now()}`);
     const rangeId = instrument.ranges[0]!.id;
-    const job = await openJob(tech, instrument.id);
 
     // A calibration file without a time column, with one reading 9.4 kHz off (an outlier that widens the error axis).
-    const benches = await apiGet<ListResponse<Bench>>(tech, '/benches?active=true&sort=name&pageSize=200');
-    const standardId = benches.items.find((b) => b.defaultStandardId !== null)!.defaultStandardId;
     const calibration = await apiRequest<Run>(tech, 'POST', `/jobs/${job.id}/runs`, { rangeId, kind: 'as_found', standardId });
     calibrationRunId = calibration.id;
     const jitter = noise(11);

@@ -1,5 +1,5 @@
 import type { Page } from 'playwright-core';
-import type { Instrument, Job } from '@kilocycle/common/types';
+import type { Bench, Instrument, Job, ListResponse, Organization } from '@kilocycle/common/types';
 import { BASE_URL } from './browser';
 
 /** The signed-in page's session token, to set up or check data through the same API the page uses. */
@@ -66,3 +66,17 @@ export function createTestInstrument(
 /** A job for the instrument, received today. */
 export const openJob = (token: string, instrumentId: number) =>
   apiRequest<Job>(token, 'POST', '/jobs', { instrumentId, receivedDate: new Date().toISOString().slice(0, 10) });
+
+/**
+ * A test's own instrument (for the demo's customer club, else the first organisation) with a job received
+ * today, and the first active bench that has a default standard, with that standard's id.
+ */
+export async function ownJobAtBench(token: string, model: string, serial: string) {
+  const orgs = await apiGet<ListResponse<Organization>>(token, '/organizations?pageSize=100');
+  const customer = orgs.items.find((o) => o.name === 'Northgate Radio Club') ?? orgs.items[0]!;
+  const instrument = await createTestInstrument(token, { organizationId: customer.id, make: 'Harwick Radio', model, serial });
+  const job = await openJob(token, instrument.id);
+  const benches = await apiGet<ListResponse<Bench>>(token, '/benches?active=true&sort=name&pageSize=200');
+  const bench = benches.items.find((b) => b.defaultStandardId !== null)!;
+  return { instrument, job, bench, standardId: bench.defaultStandardId! };
+}
