@@ -1,5 +1,6 @@
 import { Injectable } from '@nestjs/common';
 import { RunReadingsReader, type SeriesColumns } from '../readings/run-readings.reader.js';
+import { RunContextReader } from '../runs/run-context.reader.js';
 
 /** A run's readings as columns, in seq order; NaN stands for an empty dial or aux. */
 export type RunSeries = {
@@ -23,10 +24,15 @@ const ALL_COLUMNS: SeriesColumns = { dial: true, aux: true };
  */
 @Injectable()
 export class RunSeriesLoader {
-  constructor(private readonly readings: RunReadingsReader) {}
+  constructor(
+    private readonly readings: RunReadingsReader,
+    private readonly runs: RunContextReader,
+  ) {}
 
-  counts(runId: number): Promise<RunCounts> {
-    return this.readings.counts(runId);
+  /** The run's reading and exclusion counts from its counters (kept with every batch and exclusion: nothing is counted). */
+  async counts(runId: number): Promise<RunCounts> {
+    const counters = await this.runs.counters(runId);
+    return { readingCount: counters?.readingCount ?? 0, excludedCount: counters?.excludedCount ?? 0 };
   }
 
   /** Columns not asked for come back as NaN. */

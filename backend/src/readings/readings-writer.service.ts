@@ -13,6 +13,7 @@ import {
 import { outsideSpan, parseFrequency, parseNumber, SPAN_MARGIN, spanLimits } from '@kilocycle/common/units';
 import { AuditService } from '../audit/audit.service.js';
 import { RunContextReader, type RunWriteContext } from '../runs/run-context.reader.js';
+import { RunCountersWriter } from '../runs/run-counters.writer.js';
 
 export type { RunWriteContext };
 
@@ -77,6 +78,7 @@ export class ReadingsWriter {
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly audit: AuditService,
     private readonly runs: RunContextReader,
+    private readonly counters: RunCountersWriter,
   ) {}
 
   /** The run as the write path needs it (from the runs module), or null when there is no such run. */
@@ -164,8 +166,9 @@ export class ReadingsWriter {
 
   /**
    * Validates and stores a batch, each reading with its author (the user, or the bench for the bridge).
-   * Readings without a seq (typed at the bench) are numbered after the run's last one under a lock on
-   * the run row; readings with a seq (the bridge) need no lock. A batch that stores anything writes one
+   * Every batch first locks its run's row and reads the run's last seq there (writers of one run take turns):
+   * readings without a seq (typed at the bench) are numbered after it, and the run's counters (readings, last
+   * seq) move in the same transaction as the INSERT, so the answer's lastSeq is exact. A batch that stores anything writes one
    * audit event (entity run, action readings: counts, seq range, source, author) in the same
    * transaction as its INSERT, so the answer, sent after the commit, covers both.
    * With `options.manager` the batch joins the caller's transaction (a CSV import commits many
@@ -189,14 +192,13 @@ export class ReadingsWriter {
     if (rows.length === 0) {
       return { accepted: 0, duplicates: 0, rejected, lastSeq: await this.lastSeq(ctx.runId, options.manager), stored: [] };
     }
-    const needsNumbers = rows.some((r) => r.seq === null);
-    const write = async (manager: EntityManager): Promise<{ inserted: number; stored: StoredReading[] }> => {
-      if (needsNumbers) {
-        await this.runs.lock(ctx.runId, manager);
-        const [{ last }] = await manager.query('SELECT COALESCE(MAX(seq), 0) AS last FROM readings WHERE run_id = ?', [ctx.runId]);
-        let next = Number(last);
-        for (const row of rows) if (row.seq === null) row.seq = ++next;
-      }
+    const write = async (manager: EntityManager): Promise<{ inserted: number; stored: StoredReading[]; lastSeq: number }> => {
+      const last = await this.counters.lockLastSeq(ctx.runId, manager);
+      if (last === null) throw new Error(`ReadingsWriter: run ${ctx.runId} is gone`);
+      let next = last;
+      for (const row of rows) if (row.seq === null) row.seq = ++next;
+      let topSeq = last;
+      for (const row of rows) if (row.seq! > topSeq) topSeq = row.seq!;
       // The receipt time is set here rather than by the column default, so the views pushed to the
       // browsers carry exactly what is stored without reading the rows back.
       const receivedAt = new Date();
@@ -205,6 +207,7 @@ export class ReadingsWriter {
       if (options.skipReadBack) {
         const result = await manager.query(insert);
         const inserted = Number(result.affectedRows ?? 0);
+        await this.counters.addReadings(ctx.runId, inserted, topSeq, manager);
         if (!options.callerAudits && inserted > 0)
           await this.recordBatch(manager, ctx.runId, source, author, {
             accepted: inserted,
@@ -213,7 +216,7 @@ export class ReadingsWriter {
             firstSeq: null,
             lastSeq: null,
           });
-        return { inserted, stored: [] };
+        return { inserted, stored: [], lastSeq: topSeq };
       }
       // RETURNING (MariaDB 10.5+) names exactly the rows this statement stored, in the same round trip:
       // a duplicate (run, seq) is skipped and not returned, and rows another connection stores in the
@@ -240,6 +243,7 @@ export class ReadingsWriter {
           };
         })
         .sort((a, b) => a.seq - b.seq);
+      await this.counters.addReadings(ctx.runId, stored.length, topSeq, manager);
       if (!options.callerAudits && stored.length > 0) {
         await this.recordBatch(manager, ctx.runId, source, author, {
           accepted: stored.length,
@@ -249,11 +253,11 @@ export class ReadingsWriter {
           lastSeq: stored[stored.length - 1]!.seq,
         });
       }
-      return { inserted: stored.length, stored };
+      // A valid reading not stored now was stored before, at or below the run's last seq: so this is the run's last seq.
+      return { inserted: stored.length, stored, lastSeq: topSeq };
     };
     // The INSERT and its audit event commit together; a batch that stores nothing writes no event.
-    const { inserted, stored } = options.manager ? await write(options.manager) : await this.dataSource.transaction(write);
-    const lastSeq = await this.lastSeq(ctx.runId, options.manager);
+    const { inserted, stored, lastSeq } = options.manager ? await write(options.manager) : await this.dataSource.transaction(write);
     if (!options.manager && stored.length > 0) this.stored$.next({ runId: ctx.runId, author, readings: stored });
     return { accepted: inserted, duplicates: rows.length - inserted, rejected, lastSeq, stored };
   }
@@ -278,9 +282,9 @@ export class ReadingsWriter {
     );
   }
 
+  /** The run's last stored seq, from its counters (0 before its first reading or when there is no such run). */
   async lastSeq(runId: number, manager?: EntityManager): Promise<number> {
-    const [{ last }] = await (manager ?? this.dataSource).query('SELECT COALESCE(MAX(seq), 0) AS last FROM readings WHERE run_id = ?', [runId]);
-    return Number(last);
+    return (await this.runs.counters(runId, manager))?.lastSeq ?? 0;
   }
 }
 

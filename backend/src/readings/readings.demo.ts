@@ -1,4 +1,5 @@
 import type { EntityManager } from 'typeorm';
+import { addReadingsToRun } from '../runs/run-counters.writer.js';
 
 /** A demo reading: [seq, t in seconds since the run started, dial or null, frequency in Hz, aux or null]. */
 export type DemoReadingRow = [number, number, number | null, number, number | null];
@@ -20,4 +21,11 @@ export async function insertDemoReadings(
       .map(([seq, t, dial, frequency, aux]) => [runId, seq, t, dial, frequency, aux, source, new Date(startedAt.getTime() + t * 1000)]);
     await manager.query('INSERT INTO readings (run_id, seq, t_s, dial, frequency_hz, aux, source, received_at) VALUES ?', [values]);
   }
+  // The run's counters, as the write path keeps them.
+  await addReadingsToRun(
+    manager,
+    runId,
+    rows.length,
+    rows.reduce((top, [seq]) => Math.max(top, seq), 0),
+  );
 }

@@ -1,7 +1,7 @@
 import { Global, Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { RunsModule } from '../runs/runs.module.js';
-import { RunReadingStatsSource } from '../shared/run-reading-stats.js';
+import { NewestReadingSource } from '../shared/newest-reading.js';
 import { ReadingExclusion } from './reading-exclusion.entity.js';
 import { Reading } from './reading.entity.js';
 import { ReadingResultsReader } from './reading-results.reader.js';
@@ -16,15 +16,15 @@ import { RunReadingsReader } from './run-readings.reader.js';
  * same instance, so the live gateway pushes what any path stores. The readers answer what other modules
  * ask about a run's readings.
  *
- * Global for one reason: runs (which this module imports for a run's write context) reads reading counts
- * through the RunReadingStatsSource token declared in shared/, which this module provides; without
+ * Global for one reason: runs (which this module imports for a run's write context) reads a run's newest reading
+ * through the NewestReadingSource token declared in shared/, which this module provides; without
  * importing readings, runs can only see it if the token is global. The dependency stays one way.
  */
 @Global()
 @Module({
   imports: [TypeOrmModule.forFeature([Reading, ReadingExclusion]), RunsModule],
   controllers: [ReadingsController],
-  providers: [ReadingsService, ReadingsWriter, ReadingResultsReader, RunReadingsReader, { provide: RunReadingStatsSource, useExisting: RunReadingsReader }],
-  exports: [ReadingsWriter, ReadingResultsReader, RunReadingsReader, RunReadingStatsSource],
+  providers: [ReadingsService, ReadingsWriter, ReadingResultsReader, RunReadingsReader, { provide: NewestReadingSource, useExisting: RunReadingsReader }],
+  exports: [ReadingsWriter, ReadingResultsReader, RunReadingsReader, NewestReadingSource],
 })
 export class ReadingsModule {}

@@ -3,6 +3,8 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import type { DataSource } from 'typeorm';
 import type { AppendReadingsResponse, ListResponse, Reading as ReadingView, ReadingInput } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
+import { RunContextReader } from '../runs/run-context.reader.js';
+import { RunCountersWriter } from '../runs/run-counters.writer.js';
 import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { runRefusalReason } from '@kilocycle/common/rules';
 import { assertMayWriteRun } from '../shared/run-write-guard.js';
@@ -19,6 +21,8 @@ export class ReadingsService {
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly writer: ReadingsWriter,
     private readonly audit: AuditService,
+    private readonly counters: RunCountersWriter,
+    private readonly runs: RunContextReader,
   ) {}
 
   /** The run's write context if the actor may see the run; 404 otherwise. */
@@ -35,27 +39,34 @@ export class ReadingsService {
     const pageSize = query.pageSize ?? 100;
     const { column, direction } = sortColumn(query.sort ?? 'seq', SORTABLE);
     const filter = query.excluded === true ? ' AND x.reading_id IS NOT NULL' : query.excluded === false ? ' AND x.reading_id IS NULL' : '';
-    const countSql =
-      filter === ''
-        ? 'SELECT COUNT(*) AS total FROM readings r WHERE r.run_id = ?'
-        : `SELECT COUNT(*) AS total FROM readings r LEFT JOIN reading_exclusions x ON x.reading_id = r.id WHERE r.run_id = ?${filter}`;
+    // The total comes from the run's counters, kept with every batch and exclusion: nothing is counted here.
+    const counters = await this.runs.counters(runId);
+    const all = counters?.readingCount ?? 0;
+    const excluded = counters?.excludedCount ?? 0;
+    const total = query.excluded === true ? excluded : query.excluded === false ? all - excluded : all;
+    const offset = (page - 1) * pageSize;
+    if (offset >= total) return { items: [], total };
+    // A page past the middle is read from the other end (the index serves both directions), so the last page
+    // of a million-reading run skips a few rows instead of a million; its rows are put back in order after.
+    const fromEnd = offset > total / 2;
+    const flip = (d: 'ASC' | 'DESC') => (fromEnd ? (d === 'ASC' ? 'DESC' : 'ASC') : d);
+    const limit = fromEnd ? Math.min(pageSize, total - offset) : pageSize;
+    const skip = fromEnd ? Math.max(0, total - offset - pageSize) : offset;
     // Ties break on the row id, which the (run_id, frequency_hz) and (run_id, t_s) indexes carry: no sort step.
-    const order = column === 'r.seq' || column === 'r.id' ? `${column} ${direction}` : `${column} ${direction}, r.id ${direction}`;
+    const order = column === 'r.seq' || column === 'r.id' ? `${column} ${flip(direction)}` : `${column} ${flip(direction)}, r.id ${flip(direction)}`;
     const exclusionJoin = filter === '' ? '' : ' LEFT JOIN reading_exclusions x ON x.reading_id = r.id';
     // Deferred join: the page's ids come from the (run_id, seq) index alone; only those rows are read whole.
-    const [[{ total }], rows] = await Promise.all([
-      this.dataSource.query(countSql, [runId]),
-      this.dataSource.query(
-        `SELECT r.id, r.seq, r.t_s, r.dial, r.frequency_hz, r.aux, r.source, r.received_at, x.reason AS excluded_reason, ${AUTHOR_COLUMNS}
-           FROM (SELECT r.id FROM readings r${exclusionJoin} WHERE r.run_id = ?${filter} ORDER BY ${order} LIMIT ? OFFSET ?) page
-           JOIN readings r ON r.id = page.id
-           LEFT JOIN reading_exclusions x ON x.reading_id = r.id
-           ${AUTHOR_JOINS}
-          ORDER BY ${order}`,
-        [runId, pageSize, (page - 1) * pageSize],
-      ),
-    ]);
-    return { items: (rows as Array<Record<string, unknown>>).map((row) => toReadingView(row)), total: Number(total) };
+    const rows: Array<Record<string, unknown>> = await this.dataSource.query(
+      `SELECT r.id, r.seq, r.t_s, r.dial, r.frequency_hz, r.aux, r.source, r.received_at, x.reason AS excluded_reason, ${AUTHOR_COLUMNS}
+         FROM (SELECT r.id FROM readings r${exclusionJoin} WHERE r.run_id = ?${filter} ORDER BY ${order} LIMIT ? OFFSET ?) page
+         JOIN readings r ON r.id = page.id
+         LEFT JOIN reading_exclusions x ON x.reading_id = r.id
+         ${AUTHOR_JOINS}
+        ORDER BY ${order}`,
+      [runId, limit, skip],
+    );
+    if (fromEnd) rows.reverse();
+    return { items: rows.map((row) => toReadingView(row)), total };
   }
 
   /**
@@ -117,6 +128,7 @@ export class ReadingsService {
       if (!reading) throw new NotFoundException(`Reading ${readingId} not found in run ${runId}`);
       if (reading.excluded !== null) throw new ConflictException(`reading ${readingId} (seq ${reading.seq}) is already excluded`);
       await manager.query('INSERT INTO reading_exclusions (reading_id, run_id, reason, excluded_by) VALUES (?, ?, ?, ?)', [readingId, runId, reason, actor.id]);
+      await this.counters.addExclusion(runId, manager);
       await this.audit.record(
         { actorId: actor.id, entity: 'reading', entityId: readingId, action: 'exclude', changes: { runId, seq: Number(reading.seq), reason } },
         manager,

@@ -2,7 +2,7 @@ import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import type { DataSource, EntityManager } from 'typeorm';
 import type { ReadingSource } from '@kilocycle/common/types';
-import { RunReadingStatsSource, type RunReadingStats } from '../shared/run-reading-stats.js';
+import { NewestReadingSource, type NewestReading } from '../shared/newest-reading.js';
 
 /** One row of a streamed query, as the driver gives it (rowsAsArray). */
 export type StreamedCell = number | string | Date | null;
@@ -30,61 +30,23 @@ export type CalibrationReading = { dial: number; frequency: number; excluded: bo
  * transaction needs take the caller's EntityManager last.
  */
 @Injectable()
-export class RunReadingsReader extends RunReadingStatsSource {
+export class RunReadingsReader extends NewestReadingSource {
   constructor(@InjectDataSource() private readonly dataSource: DataSource) {
     super();
   }
 
   /**
-   * Reading count, exclusion count, last seq and the newest reading's receipt per run, for the runs list
-   * page: three grouped queries on the (run_id, seq) index, as the list has always made them.
+   * The reading at each run's last seq (its newest), for the runs list page: one point lookup per run on the
+   * (run_id, seq) index, whatever the runs hold.
    */
-  async statsFor(runIds: readonly number[]): Promise<Map<number, RunReadingStats>> {
-    const out = new Map<number, RunReadingStats>();
-    if (runIds.length === 0) return out;
-    const [readings, exclusions]: [Array<{ run_id: number; n: string | number; last: number | null }>, Array<{ run_id: number; n: string | number }>] =
-      await Promise.all([
-        this.dataSource.query('SELECT run_id, COUNT(*) AS n, MAX(seq) AS last FROM readings WHERE run_id IN (?) GROUP BY run_id', [runIds]),
-        this.dataSource.query('SELECT run_id, COUNT(*) AS n FROM reading_exclusions WHERE run_id IN (?) GROUP BY run_id', [runIds]),
-      ]);
-    const withReadings = readings.filter((row) => row.last !== null).map((row) => Number(row.run_id));
-    // The newest reading of each run (by the (run_id, seq) index): how old it is, and whether a bridge sent it.
-    const newest: Array<{ run_id: number; received_at: string; source: ReadingSource }> =
-      withReadings.length === 0
-        ? []
-        : await this.dataSource.query(
-            `SELECT r.run_id, r.received_at, r.source FROM readings r
-               JOIN (SELECT run_id, MAX(seq) AS seq FROM readings WHERE run_id IN (?) GROUP BY run_id) m ON m.run_id = r.run_id AND m.seq = r.seq`,
-            [withReadings],
-          );
-    const excludedBy = new Map(exclusions.map((row) => [Number(row.run_id), Number(row.n)]));
-    const newestBy = new Map(newest.map((row) => [Number(row.run_id), { receivedAt: new Date(row.received_at), source: row.source }]));
-    for (const id of runIds) out.set(id, { readingCount: 0, excludedCount: excludedBy.get(id) ?? 0, lastSeq: 0, newest: null });
-    for (const row of readings) {
-      const id = Number(row.run_id);
-      out.set(id, {
-        readingCount: Number(row.n),
-        excludedCount: excludedBy.get(id) ?? 0,
-        lastSeq: row.last ? Number(row.last) : 0,
-        newest: newestBy.get(id) ?? null,
-      });
-    }
-    return out;
-  }
-
-  async countFor(runIds: readonly number[], manager?: EntityManager): Promise<number> {
-    if (runIds.length === 0) return 0;
-    const [{ n }] = await (manager ?? this.dataSource).query('SELECT COUNT(*) AS n FROM readings WHERE run_id IN (?)', [runIds]);
-    return Number(n);
-  }
-
-  /** One run's reading and exclusion counts. */
-  async counts(runId: number): Promise<{ readingCount: number; excludedCount: number }> {
-    const [row] = await this.dataSource.query(
-      'SELECT (SELECT COUNT(*) FROM readings WHERE run_id = ?) AS n, (SELECT COUNT(*) FROM reading_exclusions WHERE run_id = ?) AS x',
-      [runId, runId],
+  async newest(runs: ReadonlyArray<{ runId: number; lastSeq: number }>): Promise<Map<number, NewestReading>> {
+    const wanted = runs.filter((r) => r.lastSeq > 0);
+    if (wanted.length === 0) return new Map();
+    const rows: Array<{ run_id: number; received_at: string; source: ReadingSource }> = await this.dataSource.query(
+      `SELECT run_id, received_at, source FROM readings WHERE ${wanted.map(() => '(run_id = ? AND seq = ?)').join(' OR ')}`,
+      wanted.flatMap((r) => [r.runId, r.lastSeq]),
     );
-    return { readingCount: Number(row.n), excludedCount: Number(row.x) };
+    return new Map(rows.map((row) => [Number(row.run_id), { receivedAt: new Date(row.received_at), source: row.source }]));
   }
 
   /** The seqs of the run's excluded readings. */

@@ -22,7 +22,6 @@ import { RunResultsReader } from '../runs/run-results.reader.js';
 import { RangeResultsReader } from '../instruments/range-results.reader.js';
 import { StandardResultsReader } from '../standards/standard-results.reader.js';
 import { ActorDirectory } from '../shared/actor-directory.js';
-import { RunReadingStatsSource } from '../shared/run-reading-stats.js';
 import { CertificateIssuer } from '../certificates/certificate-issuer.service.js';
 import { CertificateSettingsReader } from '../certificates/certificate-settings.reader.js';
 import { CertificatesService } from '../certificates/certificates.service.js';
@@ -60,7 +59,6 @@ export class ReviewsService {
     private readonly signedRecords: SignedRecordReader,
     private readonly rangeResults: RangeResultsReader,
     private readonly standardResults: StandardResultsReader,
-    private readonly readingStats: RunReadingStatsSource,
     private readonly actors: ActorDirectory,
     private readonly jobs: ReviewJobsReader,
     private readonly jobStatus: JobStatusWriter,
@@ -291,10 +289,9 @@ export class ReviewsService {
   ): Promise<Pick<JobReviewView, 'runs' | 'excludedReadings'>> {
     const runs = await this.runResults.jobRuns(job.id);
     const runIds = runs.map((r) => r.id);
-    const [ranges, standards, stats, exclusions] = await Promise.all([
+    const [ranges, standards, exclusions] = await Promise.all([
       this.rangeResults.ranges(job.instrumentId),
       this.standardResults.references(runs.flatMap((r) => (r.standardId === null ? [] : [r.standardId]))),
-      this.readingStats.statsFor(runIds),
       this.readingResults.exclusions(runIds),
     ]);
     const names = await this.actors.namesOf([...runs.map((r) => r.createdBy), ...exclusions.map((e) => e.excludedBy)]);
@@ -318,8 +315,8 @@ export class ReviewsService {
           createdByName: names.get(r.createdBy) ?? '',
           startedAt: r.startedAt.toISOString(),
           endedAt: r.endedAt ? r.endedAt.toISOString() : null,
-          readingCount: stats.get(r.id)?.readingCount ?? 0,
-          excludedCount: stats.get(r.id)?.excludedCount ?? 0,
+          readingCount: r.readingCount,
+          excludedCount: r.excludedCount,
           used: used.has(r.id),
         };
       }),

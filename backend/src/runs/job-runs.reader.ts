@@ -2,15 +2,11 @@ import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import type { DataSource, EntityManager } from 'typeorm';
 import { JobRunStatsSource } from '../shared/job-run-stats.js';
-import { RunReadingStatsSource } from '../shared/run-reading-stats.js';
 
 /** A job's runs as the jobs module asks about them; provided as JobRunStatsSource (see shared/job-run-stats.ts). */
 @Injectable()
 export class JobRunsReader extends JobRunStatsSource {
-  constructor(
-    @InjectDataSource() private readonly dataSource: DataSource,
-    private readonly readings: RunReadingStatsSource,
-  ) {
+  constructor(@InjectDataSource() private readonly dataSource: DataSource) {
     super();
   }
 
@@ -23,11 +19,9 @@ export class JobRunsReader extends JobRunStatsSource {
     return new Map(rows.map((row) => [Number(row.job_id), Number(row.n)]));
   }
 
+  /** How many readings the job's runs hold together, from their counters, in the caller's transaction when one is given. */
   async readingCount(jobId: number, manager?: EntityManager): Promise<number> {
-    const runs: Array<{ id: number }> = await (manager ?? this.dataSource).query('SELECT id FROM runs WHERE job_id = ?', [jobId]);
-    return this.readings.countFor(
-      runs.map((r) => Number(r.id)),
-      manager,
-    );
+    const [{ n }] = await (manager ?? this.dataSource).query('SELECT COALESCE(SUM(reading_count), 0) AS n FROM runs WHERE job_id = ?', [jobId]);
+    return Number(n);
   }
 }

@@ -22,6 +22,9 @@ export type RunWriteContext = {
   startedAt: Date;
 };
 
+/** A run's reading counters as the write path keeps them (runs.reading_count, excluded_count, last_seq). */
+export type RunCounters = { readingCount: number; excludedCount: number; lastSeq: number };
+
 /** A run's place: whose it is and which job it belongs to (for scope checks and file names). */
 export type RunScope = { runId: number; organizationId: number; jobNumber: string };
 
@@ -68,9 +71,10 @@ export class RunContextReader {
     return row ? { jobId: Number(row.job_id), rangeId: Number(row.range_id) } : null;
   }
 
-  /** Locks the run row (FOR UPDATE) in the caller's transaction: readings numbered after the run's last one wait here. */
-  async lock(runId: number, manager: EntityManager): Promise<void> {
-    await manager.query('SELECT id FROM runs WHERE id = ? FOR UPDATE', [runId]);
+  /** One run's reading counters as the write path keeps them (no lock), or null when there is no such run. */
+  async counters(runId: number, manager?: EntityManager): Promise<RunCounters | null> {
+    const [row] = await (manager ?? this.dataSource).query('SELECT reading_count, excluded_count, last_seq FROM runs WHERE id = ?', [runId]);
+    return row ? { readingCount: Number(row.reading_count), excludedCount: Number(row.excluded_count), lastSeq: Number(row.last_seq) } : null;
   }
 
   /** Locks the run and its job (FOR UPDATE, run first) and reads both statuses, in the caller's transaction; null when there is no such run. */

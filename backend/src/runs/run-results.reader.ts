@@ -24,6 +24,9 @@ export type ReviewRunRow = {
   createdBy: number;
   startedAt: Date;
   endedAt: Date | null;
+  /** The run's counters, kept by the readings write path. */
+  readingCount: number;
+  excludedCount: number;
 };
 
 /** Runs as job results, reviews and certificates read them (inside the caller's transaction when a manager is given). */
@@ -66,7 +69,7 @@ export class RunResultsReader {
   /** Every run of the job, oldest first, as the job's review lists them. */
   async jobRuns(jobId: number, manager?: EntityManager): Promise<ReviewRunRow[]> {
     const rows: Array<Record<string, unknown>> = await (manager ?? this.dataSource.manager).query(
-      `SELECT id, kind, range_id, status, standard_id, standard_override_reason, created_by, started_at, ended_at
+      `SELECT id, kind, range_id, status, standard_id, standard_override_reason, created_by, started_at, ended_at, reading_count, excluded_count
          FROM runs WHERE job_id = ? ORDER BY started_at, id`,
       [jobId],
     );
@@ -80,6 +83,8 @@ export class RunResultsReader {
       createdBy: Number(row.created_by),
       startedAt: new Date(row.started_at as string),
       endedAt: row.ended_at === null ? null : new Date(row.ended_at as string),
+      readingCount: Number(row.reading_count),
+      excludedCount: Number(row.excluded_count),
     }));
   }
 }

@@ -73,6 +73,18 @@ export class Run {
   @Column({ name: 'created_by', type: 'int' })
   createdById: number;
 
+  // The counters below are kept by the readings write path (RunCountersWriter) in the batch's own transaction;
+  // an entity save never writes them, so a run loaded before a batch cannot put back an older count.
+  @Column({ name: 'reading_count', type: 'int', default: 0, insert: false, update: false })
+  readingCount: number;
+
+  @Column({ name: 'excluded_count', type: 'int', default: 0, insert: false, update: false })
+  excludedCount: number;
+
+  /** The highest seq stored in the run; 0 before its first reading. */
+  @Column({ name: 'last_seq', type: 'int', default: 0, insert: false, update: false })
+  lastSeq: number;
+
   @ManyToOne(() => User, { onDelete: 'RESTRICT' })
   @JoinColumn({ name: 'created_by', foreignKeyConstraintName: 'FK_runs_created_by' })
   createdBy: Relation<User>;

@@ -10,6 +10,7 @@ import { RangeUseSource } from '../shared/range-use.js';
 import { JobRunsReader } from './job-runs.reader.js';
 import { RangeUseReader } from './range-use.reader.js';
 import { RunContextReader } from './run-context.reader.js';
+import { RunCountersWriter } from './run-counters.writer.js';
 import { RunNotesWriter } from './run-notes.writer.js';
 import { RunStandardVersionWriter } from './run-standard-version.writer.js';
 import { Run } from './run.entity.js';
@@ -32,6 +33,7 @@ import { RunsService } from './runs.service.js';
     RunResultsReader,
     RunComparisonReader,
     RunContextReader,
+    RunCountersWriter,
     RunNotesWriter,
     RunStandardVersionWriter,
     JobRunsReader,
@@ -39,6 +41,16 @@ import { RunsService } from './runs.service.js';
     RangeUseReader,
     { provide: RangeUseSource, useExisting: RangeUseReader },
   ],
-  exports: [RunsService, RunResultsReader, RunComparisonReader, RunContextReader, RunNotesWriter, RunStandardVersionWriter, JobRunStatsSource, RangeUseSource],
+  exports: [
+    RunsService,
+    RunResultsReader,
+    RunComparisonReader,
+    RunContextReader,
+    RunCountersWriter,
+    RunNotesWriter,
+    RunStandardVersionWriter,
+    JobRunStatsSource,
+    RangeUseSource,
+  ],
 })
 export class RunsModule {}

@@ -16,7 +16,7 @@ import { paginateFlat } from '../shared/page-query.js';
 import { likePattern } from '../shared/paginate.js';
 import { StandardUseReader, type StandardUse } from '../standards/standard-use.reader.js';
 import type { CreateRunDto, ListRunsQueryDto, UpdateRunDto } from './dto/run.dto.js';
-import { RunReadingStatsSource } from '../shared/run-reading-stats.js';
+import { NewestReadingSource } from '../shared/newest-reading.js';
 import { assertMayWriteRun } from '../shared/run-write-guard.js';
 import { Run } from './run.entity.js';
 
@@ -71,7 +71,7 @@ export class RunsService {
     private readonly audit: AuditService,
     private readonly jobs: JobsService,
     private readonly presence: BridgePresence,
-    private readonly readingStats: RunReadingStatsSource,
+    private readonly newestReadings: NewestReadingSource,
     private readonly jobScopes: JobScopeReader,
     private readonly ranges: RangeResultsReader,
     private readonly benches: RunBenchReader,
@@ -304,14 +304,15 @@ export class RunsService {
 
   private async toViews(found: Run[]): Promise<RunView[]> {
     if (found.length === 0) return [];
-    const stats = await this.readingStats.statsFor(found.map((r) => r.id));
+    // The counts are the run's own counters; only the newest reading (for the bridge's state) is looked up.
+    const newest = await this.newestReadings.newest(found.map((r) => ({ runId: r.id, lastSeq: r.lastSeq })));
     return found.map((r) => {
-      const row = stats.get(r.id);
+      const last = newest.get(r.id);
       return toRunView(r, {
-        readingCount: row?.readingCount ?? 0,
-        excludedCount: row?.excludedCount ?? 0,
-        lastSeq: row?.lastSeq ?? 0,
-        bridge: this.bridgeOf(r.id, row?.newest ? { at: row.newest.receivedAt, source: row.newest.source } : null),
+        readingCount: r.readingCount,
+        excludedCount: r.excludedCount,
+        lastSeq: r.lastSeq,
+        bridge: this.bridgeOf(r.id, last ? { at: last.receivedAt, source: last.source } : null),
       });
     });
   }

@@ -8,6 +8,7 @@ import { AddReadingAuthors1764730000000 } from './1764730000000-AddReadingAuthor
 import { AddCertificateAsFoundDecision1764750000000 } from './1764750000000-AddCertificateAsFoundDecision.js';
 import { AddUserTokenVersion1764820000000 } from './1764820000000-AddUserTokenVersion.js';
 import { AddCounterCapture1764900000000 } from './1764900000000-AddCounterCapture.js';
+import { AddRunCounters1764950000000 } from './1764950000000-AddRunCounters.js';
 
 /** Every migration, oldest first. Listed as classes so jest (ESM) and the build load the same code. */
 export const MIGRATIONS = [
@@ -21,4 +22,5 @@ export const MIGRATIONS = [
   AddCertificateAsFoundDecision1764750000000,
   AddUserTokenVersion1764820000000,
   AddCounterCapture1764900000000,
+  AddRunCounters1764950000000,
 ];
