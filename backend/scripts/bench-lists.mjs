@@ -95,6 +95,8 @@ for (const seed of [11, 12]) {
     for (let i = from; i < Math.min(from + 1000, READINGS); i++) rows.push([run.insertId, i + 1, i, null, curve(i) + 1.5 * noise(), null, 'import']);
     await ds.query('INSERT INTO readings (run_id, seq, t_s, dial, frequency_hz, aux, source) VALUES ?', [rows]);
   }
+  // The run's counters, as the app's write path keeps them (these rows bypass it).
+  await ds.query('UPDATE runs SET reading_count = ?, last_seq = ? WHERE id = ?', [READINGS, READINGS, run.insertId]);
   runIds.push(run.insertId);
 }
 const [runId, secondRunId] = runIds;
