@@ -218,10 +218,8 @@ export class ReadingsWriter {
           });
         return { inserted, stored: [], lastSeq: topSeq };
       }
-      // RETURNING (MariaDB 10.5+) names exactly the rows this statement stored, in the same round trip:
-      // a duplicate (run, seq) is skipped and not returned, and rows another connection stores in the
-      // same run at the same moment never mix in (reading back by id range could pick those up).
-      const returned = (await manager.query(`${insert} RETURNING id, seq`)) as Array<{ id: number | string; seq: number }>;
+      const result = (await manager.query(insert)) as { affectedRows?: number; insertId?: number | string };
+      const returned = await this.storedIds(manager, ctx.runId, rows, Number(result.affectedRows ?? 0), Number(result.insertId ?? 0));
       const bySeq = new Map<number, Row>();
       for (const r of rows) if (!bySeq.has(r.seq!)) bySeq.set(r.seq!, r);
       const iso = receivedAt.toISOString();
@@ -260,6 +258,37 @@ export class ReadingsWriter {
     const { inserted, stored, lastSeq } = options.manager ? await write(options.manager) : await this.dataSource.transaction(write);
     if (!options.manager && stored.length > 0) this.stored$.next({ runId: ctx.runId, author, readings: stored });
     return { accepted: inserted, duplicates: rows.length - inserted, rejected, lastSeq, stored };
+  }
+
+  /**
+   * The id and seq of each row the INSERT IGNORE just stored. The batch holds its run's row lock (lockLastSeq), so
+   * no other statement stores readings in this run until it commits: every reading of the run with an id from the
+   * statement's first one on is this statement's. When every row was stored and the server hands a multi-row
+   * INSERT one block of ids (innodb_autoinc_lock_mode 0 or 1, MariaDB's default 1), the ids are that block in
+   * row order and nothing is read back; otherwise (a duplicate was skipped, or lock mode 2) they are read back
+   * by that rule. Before, RETURNING sent every stored row back: a result set of a thousand rows per batch for
+   * the server to build and the app to parse.
+   */
+  private async storedIds(
+    manager: EntityManager,
+    runId: number,
+    rows: readonly Row[],
+    inserted: number,
+    firstId: number,
+  ): Promise<Array<{ id: number | string; seq: number }>> {
+    if (inserted === 0) return [];
+    if (inserted === rows.length && (await this.consecutiveIds())) return rows.map((r, i) => ({ id: firstId + i, seq: r.seq! }));
+    return manager.query('SELECT id, seq FROM readings WHERE run_id = ? AND id >= ?', [runId, firstId]);
+  }
+
+  private blockIds: Promise<boolean> | null = null;
+  /** Whether the database gives a multi-row INSERT consecutive ids (asked once per process). */
+  private consecutiveIds(): Promise<boolean> {
+    this.blockIds ??= this.dataSource
+      .query('SELECT @@innodb_autoinc_lock_mode AS mode')
+      .then(([row]: Array<{ mode: number | string }>) => Number(row.mode) !== 2)
+      .catch(() => false);
+    return this.blockIds;
   }
 
   /** One audit event for one stored batch (not one per reading: a bench may send thousands a second). */
