@@ -177,7 +177,7 @@ async function watcher(runId) {
   const reply = await socket.timeout(5000).emitWithAck('join', { runId });
   if (!reply.ok) throw new Error(reply.error);
   const w = { socket, received: 0 };
-  socket.on('readings', (e) => (w.received += e.readings.length));
+  socket.on('readings', (e) => (w.received += e.seq.length));
   return w;
 }
 

@@ -13,6 +13,7 @@ import {
   type LiveCaptureEvent,
   type LiveExclusionEvent,
   type LiveReadingsEvent,
+  toLiveReadingsEvent,
 } from '@kilocycle/common/events';
 import type { AuthUser } from '../shared/auth-user.js';
 import { AuthService } from '../auth/auth.service.js';
@@ -74,7 +75,7 @@ export class LiveGateway implements OnGatewayInit, OnModuleDestroy {
       this.writer.stored$.subscribe(({ runId, author, readings }) => {
         // socket.io encodes a broadcast even for an empty room: skip runs nobody is watching.
         if (!nsp.adapter.rooms.get(runRoom(runId))?.size) return;
-        const event: LiveReadingsEvent = { runId, author, readings };
+        const event: LiveReadingsEvent = toLiveReadingsEvent(runId, author, readings);
         nsp.to(runRoom(runId)).emit(LIVE_EVENTS.readings, event);
       }),
       this.writer.excluded$.subscribe(({ runId, reading }) => {

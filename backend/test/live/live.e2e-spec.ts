@@ -1,5 +1,13 @@
 import type { Socket } from 'socket.io-client';
-import { INGEST_EVENTS, LIVE_EVENTS, NAMESPACES, type JoinReply, type LiveExclusionEvent, type LiveReadingsEvent } from '@kilocycle/common/events';
+import {
+  INGEST_EVENTS,
+  LIVE_EVENTS,
+  NAMESPACES,
+  type JoinReply,
+  type LiveExclusionEvent,
+  type LiveReadingsEvent,
+  liveReadings,
+} from '@kilocycle/common/events';
 import { DEMO_CUSTOMERS } from '../../src/seed/demo-seed.js';
 import { connect, createBench, createRun, listen, organizationId, request, type RunFixture } from '../ingest/ingest-fixtures.js';
 import { createTestApp, DEMO, tokenFor, type TestApp } from '../support/test-app.js';
@@ -60,13 +68,13 @@ describe('/live namespace (e2e, MariaDB)', () => {
     });
     const event = await arriving;
     expect(event.runId).toBe(saltmarshRun.runId);
-    expect(event.readings.map((r) => [r.seq, r.t, r.frequency, r.source])).toEqual([
+    expect(liveReadings(event).map((r) => [r.seq, r.t, r.frequency, r.source])).toEqual([
       [1, 1, 7_000_010, 'bridge'],
       [2, 2, 7_000_020, 'bridge'],
     ]);
-    // The batch's author (the bench) once, beside the readings, not on each one.
+    // The batch's author (the bench) once, beside the readings' columns, not on each one.
     expect(event.author).toMatchObject({ kind: 'bench' });
-    expect(event.readings.every((r) => !('author' in r))).toBe(true);
+    expect(Object.keys(event).sort()).toEqual(['author', 'aux', 'dial', 'frequency', 'id', 'receivedAt', 'runId', 'seq', 'source', 't']);
     const [stored] = await t.dataSource.query('SELECT COUNT(*) AS n FROM readings WHERE run_id = ?', [saltmarshRun.runId]);
     expect(Number(stored.n)).toBe(2);
   });
@@ -87,7 +95,7 @@ describe('/live namespace (e2e, MariaDB)', () => {
     const arriving = nextLive(own);
     const source = await benchSocket(saltmarshRun.runId);
     await request(source, INGEST_EVENTS.readings, { runId: saltmarshRun.runId, readings: [{ seq: 10, frequency: 7_000_100 }] });
-    expect((await arriving).readings.map((r) => r.seq)).toEqual([10]);
+    expect((await arriving).seq).toEqual([10]);
     await new Promise((r) => setTimeout(r, 100));
     expect(leaked).toEqual([]);
   });
@@ -120,10 +128,10 @@ describe('/live namespace (e2e, MariaDB)', () => {
       .send({ readings: [{ frequency: '7.050 MHz' }] });
     expect(typed.status).toBeLessThan(300);
     const event = await arriving;
-    expect(event.readings.map((r) => [r.seq, r.frequency, r.source])).toEqual([[1, 7_050_000, 'manual']]);
+    expect(liveReadings(event).map((r) => [r.seq, r.frequency, r.source])).toEqual([[1, 7_050_000, 'manual']]);
     const excluded = new Promise<LiveExclusionEvent>((resolve) => page.once(LIVE_EVENTS.excluded, resolve));
     const res = await t.http
-      .post(`/api/runs/${run.runId}/readings/${event.readings[0].id}/exclusion`)
+      .post(`/api/runs/${run.runId}/readings/${event.id[0]}/exclusion`)
       .set('Authorization', `Bearer ${tokens.tech}`)
       .send({ reason: 'counter gate left at 10 ms' });
     expect(res.status).toBeLessThan(300);

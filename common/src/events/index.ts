@@ -1,5 +1,5 @@
 import type { CounterCapture } from '../types/captures.js';
-import type { IngestAck, RangeSpan, Reading, ReadingAuthor, ReadingInput, RunKind } from '../types/lab.js';
+import type { IngestAck, RangeSpan, Reading, ReadingInput, RunKind } from '../types/lab.js';
 
 /** Socket.io namespaces and event names shared by the server, the bridge and the browser. */
 export const NAMESPACES = { ingest: '/ingest', live: '/live' } as const;
@@ -98,13 +98,6 @@ export type JoinAck = { ok: true; runId: number; lastSeq: number };
 export type JoinReply = JoinAck | Refusal;
 export type LeaveReply = { ok: true; runId: number } | Refusal;
 
-/**
- * Readings just stored in a run (in seq order), as the bench page and the study pages show them. Every
- * reading of a batch has the same author, sent once beside them (not on each of thousands of readings a
- * second); the page puts it on each reading it keeps.
- */
-export type LiveReadingsEvent = { runId: number; author: ReadingAuthor | null; readings: Array<Omit<Reading, 'author'>> };
-
 /** A reading just excluded (with its reason): the page marks it and refits without it. */
 export type LiveExclusionEvent = { runId: number; reading: Reading };
 
@@ -116,3 +109,5 @@ export type RunBridgeChange = Omit<LiveBridgeEvent, 'runId'>;
 
 /** A counter-assisted setting's progress or end (types/captures.ts); `sentAt` is the server's time of sending. */
 export type LiveCaptureEvent = { runId: number; capture: CounterCapture; sentAt: string };
+
+export { liveReadings, toLiveReadingsEvent, type LiveReadingsEvent, type StoredReadingView } from './live-readings.js';

@@ -3,6 +3,7 @@ import { useEffect, useRef, useState } from 'react';
 import { io } from 'socket.io-client';
 import {
   LIVE_EVENTS,
+  liveReadings,
   NAMESPACES,
   type JoinReply,
   type LiveBridgeEvent,
@@ -88,9 +89,9 @@ export function useLiveReadings(runId: number, { enabled = true, onReadings, onC
       setStatus((s) => ({ ...s, state: 'offline', message: `Cannot reach the live feed: ${error.message}` }));
     });
     socket.on(LIVE_EVENTS.readings, (event: LiveReadingsEvent) => {
-      if (event.runId !== runId || event.readings.length === 0) return;
-      // The batch's author comes once beside its readings.
-      const readings: Reading[] = event.readings.map((r) => ({ ...r, author: event.author ?? null }));
+      if (event.runId !== runId || event.seq.length === 0) return;
+      // The batch comes as columns, its author once beside them.
+      const readings: Reading[] = liveReadings(event);
       queryClient.setQueryData<Reading[]>(key, (current) => mergeReadings(current, readings));
       setStatus((s) => ({ ...s, lastArrivalAt: Date.now() }));
       callback.current?.(readings);

@@ -1,7 +1,7 @@
 import { QueryClientProvider, type QueryClient } from '@tanstack/react-query';
 import { act, renderHook } from '@testing-library/react';
 import type { ReactNode } from 'react';
-import { LIVE_EVENTS, type LiveExclusionEvent } from '@kilocycle/common/events';
+import { LIVE_EVENTS, type LiveExclusionEvent, type LiveReadingsEvent } from '@kilocycle/common/events';
 import type { Reading } from '@kilocycle/common/types';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { createQueryClient } from '@/lib/react-query';
@@ -84,6 +84,57 @@ describe('useLiveReadings()', () => {
     // The live list is kept by the stream, not refetched; another run is left alone.
     expect(client.getQueryState(['readings', 7, 'latest'])!.isInvalidated).toBe(false);
     expect(client.getQueryState(['runs', 'analysis', 8])!.isInvalidated).toBe(false);
+  });
+
+  it("should add a batch that arrives as columns to the run's latest readings, each with the batch's author", () => {
+    signInAs();
+    const client = createQueryClient();
+    renderHook(() => useLiveReadings(7), {
+      wrapper: ({ children }: { children: ReactNode }) => <QueryClientProvider client={client}>{children}</QueryClientProvider>,
+    });
+    const author = { kind: 'bench' as const, id: 2, name: 'Bench West' };
+    const event: LiveReadingsEvent = {
+      runId: 7,
+      author,
+      source: 'bridge',
+      receivedAt: '2026-03-01T09:00:05.250Z',
+      id: [61, 62],
+      seq: [1, 2],
+      t: [0.5, 1],
+      dial: [null, null],
+      frequency: [7_049_990.5, 7_049_991.25],
+      aux: [20.5, null],
+    };
+    act(() => handlers.get(LIVE_EVENTS.readings)!(event));
+    act(() => handlers.get(LIVE_EVENTS.readings)!({ ...event, runId: 8, seq: [9], id: [99] }));
+    expect(client.getQueryData<Reading[]>(['readings', 7, 'latest'])).toEqual([
+      {
+        id: 61,
+        seq: 1,
+        t: 0.5,
+        dial: null,
+        frequency: 7_049_990.5,
+        aux: 20.5,
+        source: 'bridge',
+        receivedAt: '2026-03-01T09:00:05.250Z',
+        excluded: false,
+        excludedReason: null,
+        author,
+      },
+      {
+        id: 62,
+        seq: 2,
+        t: 1,
+        dial: null,
+        frequency: 7_049_991.25,
+        aux: null,
+        source: 'bridge',
+        receivedAt: '2026-03-01T09:00:05.250Z',
+        excluded: false,
+        excludedReason: null,
+        author,
+      },
+    ]);
   });
 
   it('should ignore an exclusion in another run', () => {
