@@ -355,7 +355,7 @@ async function largeRun() {
       const f = new Float64Array(N);
       let i = 0;
       const started = performance.now();
-      const sql = 'SELECT t_s, frequency_hz FROM readings WHERE run_id = ? ORDER BY seq';
+      const sql = 'SELECT t_s, frequency_hz FROM readings FORCE INDEX (UQ_readings_run_seq) WHERE run_id = ? ORDER BY seq';
       const query = prepared
         ? streamConn.execute({ sql, values: [big.runId], rowsAsArray: true })
         : streamConn.query({ sql, values: [big.runId], rowsAsArray: true, typeCast: true });

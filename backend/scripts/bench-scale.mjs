@@ -370,7 +370,11 @@ function streamRun(runId, count) {
     let i = 0;
     const started = performance.now();
     conn
-      .execute({ sql: 'SELECT t_s, frequency_hz FROM readings WHERE run_id = ? ORDER BY seq', values: [runId], rowsAsArray: true })
+      .execute({
+        sql: 'SELECT t_s, frequency_hz FROM readings FORCE INDEX (UQ_readings_run_seq) WHERE run_id = ? ORDER BY seq',
+        values: [runId],
+        rowsAsArray: true,
+      })
       .on('result', (r) => {
         t[i] = Number(r[0]);
         f[i] = Number(r[1]);

@@ -94,6 +94,8 @@ function grow(old: Omit<RunSeries, 'count'>, capacity: number): Omit<RunSeries, 
 export function includedByTime(series: RunSeries): { t: Float64Array; frequency: Float64Array; aux: Float64Array } {
   let n = 0;
   for (let i = 0; i < series.count; i++) if (series.excluded[i] === 0) n++;
+  // Nothing excluded and already in time order (the usual case): the series' own columns, read only, no copy.
+  if (n === series.count && inTimeOrder(series.t)) return { t: series.t, frequency: series.frequency, aux: series.aux };
   const order = new Uint32Array(n);
   let k = 0;
   let sorted = true;
@@ -114,4 +116,9 @@ export function includedByTime(series: RunSeries): { t: Float64Array; frequency:
     aux[j] = series.aux[i]!;
   }
   return { t, frequency, aux };
+}
+
+function inTimeOrder(t: Float64Array): boolean {
+  for (let i = 1; i < t.length; i++) if (t[i]! < t[i - 1]!) return false;
+  return true;
 }

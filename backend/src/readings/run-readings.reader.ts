@@ -88,9 +88,12 @@ export class RunReadingsReader extends NewestReadingSource {
    * Streams the run's readings in seq order as row arrays [seq, t_s, dial, frequency_hz, aux] (columns not
    * asked for are null) straight from the driver: no entities, no per-row objects. A prepared statement, so
    * the doubles arrive in binary rather than as text to parse: about 2.5 times faster than a plain query.
+   * The (run_id, seq) index is named: once the run is a large share of a large table (a million of four
+   * million readings, say), MariaDB's estimate picks a scan of the whole table and a sort instead, which grows
+   * with the table rather than with the run (the scale benchmark measured 1.14–1.60 s against 0.89–1.08 s).
    */
   streamSeries(runId: number, columns: SeriesColumns, onRow: (row: StreamedCell[]) => void): Promise<void> {
-    const sql = `SELECT seq, t_s, ${columns.dial ? 'dial' : 'NULL'}, frequency_hz, ${columns.aux ? 'aux' : 'NULL'} FROM readings WHERE run_id = ? ORDER BY seq`;
+    const sql = `SELECT seq, t_s, ${columns.dial ? 'dial' : 'NULL'}, frequency_hz, ${columns.aux ? 'aux' : 'NULL'} FROM readings FORCE INDEX (UQ_readings_run_seq) WHERE run_id = ? ORDER BY seq`;
     return this.stream((connection) => connection.execute({ sql, values: [runId], rowsAsArray: true }), onRow);
   }
 
@@ -102,7 +105,7 @@ export class RunReadingsReader extends NewestReadingSource {
    */
   streamExport(runId: number, onRow: (row: StreamedCell[]) => void, onFlow: (flow: StreamFlow) => void): Promise<void> {
     const sql = `SELECT r.seq, r.t_s, r.dial, r.frequency_hz, r.aux, r.source, r.received_at, x.reason
-                   FROM readings r LEFT JOIN reading_exclusions x ON x.reading_id = r.id
+                   FROM readings r FORCE INDEX (UQ_readings_run_seq) LEFT JOIN reading_exclusions x ON x.reading_id = r.id
                   WHERE r.run_id = ? ORDER BY r.seq`;
     return this.stream((connection) => connection.query({ sql, values: [runId], rowsAsArray: true }), onRow, onFlow);
   }

@@ -52,9 +52,14 @@ export function warmupSummary(
     while (from < n && t[from]! < settledAtSeconds) from++;
     const count = n - from;
     if (count >= 3 && t[n - 1]! - t[from]! >= 600) {
-      const tail = fitLine(Array.prototype.slice.call(t, from) as number[], Array.prototype.slice.call(f, from) as number[]);
+      const tail = fitLine(tailFrom(t, from), tailFrom(f, from));
       driftPer10MinAfterSettlingHz = tail.slope * 600;
     }
   }
   return { driftFirstHourHz, firstHourCovered: t[n - 1]! >= 3600, settledAtSeconds, driftPer10MinAfterSettlingHz };
+}
+
+/** The values from `from` on: a view of a typed array (no copy of a million readings), a slice of anything else. */
+function tailFrom(values: ArrayLike<number>, from: number): ArrayLike<number> {
+  return ArrayBuffer.isView(values) ? (values as Float64Array).subarray(from) : (Array.prototype.slice.call(values, from) as number[]);
 }
