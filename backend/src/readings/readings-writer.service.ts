@@ -193,33 +193,46 @@ export class ReadingsWriter {
       return { accepted: 0, duplicates: 0, rejected, lastSeq: await this.lastSeq(ctx.runId, options.manager), stored: [] };
     }
     const write = async (manager: EntityManager): Promise<{ inserted: number; stored: StoredReading[]; lastSeq: number }> => {
-      const last = await this.counters.lockLastSeq(ctx.runId, manager);
-      if (last === null) throw new Error(`ReadingsWriter: run ${ctx.runId} is gone`);
-      let next = last;
-      for (const row of rows) if (row.seq === null) row.seq = ++next;
-      let topSeq = last;
-      for (const row of rows) if (row.seq! > topSeq) topSeq = row.seq!;
       // The receipt time is set here rather than by the column default, so the views pushed to the
       // browsers carry exactly what is stored without reading the rows back.
       const receivedAt = new Date();
       const received = receivedAt.toISOString().replace('T', ' ').slice(0, 23);
-      const insert = `INSERT IGNORE INTO readings (run_id, seq, t_s, dial, frequency_hz, aux, source, received_at, entered_by, bench_id) VALUES ${valuesList(ctx.runId, rows, source, received, columns)}`;
-      if (options.skipReadBack) {
-        const result = await manager.query(insert);
-        const inserted = Number(result.affectedRows ?? 0);
-        await this.counters.addReadings(ctx.runId, inserted, topSeq, manager);
-        if (!options.callerAudits && inserted > 0)
-          await this.recordBatch(manager, ctx.runId, source, author, {
-            accepted: inserted,
-            duplicates: rows.length - inserted,
-            rejected: rejected.length,
-            firstSeq: null,
-            lastSeq: null,
-          });
-        return { inserted, stored: [], lastSeq: topSeq };
+      const insertSql = () =>
+        `INSERT IGNORE INTO readings (run_id, seq, t_s, dial, frequency_hz, aux, source, received_at, entered_by, bench_id) VALUES ${valuesList(ctx.runId, rows, source, received, columns)}`;
+      type InsertResult = { affectedRows?: number; insertId?: number | string };
+      let last: number | null;
+      let result: InsertResult;
+      if (rows.every((r) => r.seq !== null)) {
+        // Numbered by the sender (a bench): the lock and the INSERT are queued on the connection together, so the
+        // INSERT goes the moment the lock is granted instead of after this process's next turn (other batches'
+        // work) while the run's other writers wait on the lock.
+        [last, result] = await Promise.all([this.counters.lockLastSeq(ctx.runId, manager), manager.query(insertSql()) as Promise<InsertResult>]);
+      } else {
+        last = await this.counters.lockLastSeq(ctx.runId, manager);
+        let next = last ?? 0;
+        for (const row of rows) if (row.seq === null) row.seq = ++next;
+        result = (await manager.query(insertSql())) as InsertResult;
       }
-      const result = (await manager.query(insert)) as { affectedRows?: number; insertId?: number | string };
-      const returned = await this.storedIds(manager, ctx.runId, rows, Number(result.affectedRows ?? 0), Number(result.insertId ?? 0));
+      if (last === null) throw new Error(`ReadingsWriter: run ${ctx.runId} is gone`);
+      let topSeq = last;
+      for (const row of rows) if (row.seq! > topSeq) topSeq = row.seq!;
+      const insertedRows = Number(result.affectedRows ?? 0);
+      if (options.skipReadBack) {
+        await Promise.all([
+          this.counters.addReadings(ctx.runId, insertedRows, topSeq, manager),
+          !options.callerAudits && insertedRows > 0
+            ? this.recordBatch(manager, ctx.runId, source, author, {
+                accepted: insertedRows,
+                duplicates: rows.length - insertedRows,
+                rejected: rejected.length,
+                firstSeq: null,
+                lastSeq: null,
+              })
+            : null,
+        ]);
+        return { inserted: insertedRows, stored: [], lastSeq: topSeq };
+      }
+      const returned = await this.storedIds(manager, ctx.runId, rows, insertedRows, Number(result.insertId ?? 0));
       const bySeq = new Map<number, Row>();
       for (const r of rows) if (!bySeq.has(r.seq!)) bySeq.set(r.seq!, r);
       const iso = receivedAt.toISOString();
@@ -241,16 +254,19 @@ export class ReadingsWriter {
           };
         })
         .sort((a, b) => a.seq - b.seq);
-      await this.counters.addReadings(ctx.runId, stored.length, topSeq, manager);
-      if (!options.callerAudits && stored.length > 0) {
-        await this.recordBatch(manager, ctx.runId, source, author, {
-          accepted: stored.length,
-          duplicates: rows.length - stored.length,
-          rejected: rejected.length,
-          firstSeq: stored[0]!.seq,
-          lastSeq: stored[stored.length - 1]!.seq,
-        });
-      }
+      // The counters and the audit event, queued together on the connection (see above).
+      await Promise.all([
+        this.counters.addReadings(ctx.runId, stored.length, topSeq, manager),
+        !options.callerAudits && stored.length > 0
+          ? this.recordBatch(manager, ctx.runId, source, author, {
+              accepted: stored.length,
+              duplicates: rows.length - stored.length,
+              rejected: rejected.length,
+              firstSeq: stored[0]!.seq,
+              lastSeq: stored[stored.length - 1]!.seq,
+            })
+          : null,
+      ]);
       // A valid reading not stored now was stored before, at or below the run's last seq: so this is the run's last seq.
       return { inserted: stored.length, stored, lastSeq: topSeq };
     };
