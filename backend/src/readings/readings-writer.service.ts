@@ -198,7 +198,7 @@ export class ReadingsWriter {
       const receivedAt = new Date();
       const received = receivedAt.toISOString().replace('T', ' ').slice(0, 23);
       const insertSql = () =>
-        `INSERT IGNORE INTO readings (run_id, seq, t_s, dial, frequency_hz, aux, source, received_at, entered_by, bench_id) VALUES ${valuesList(ctx.runId, rows, source, received, columns)}`;
+        `INSERT IGNORE INTO readings (run_id, seq, t_s, dial, frequency_hz, aux, source, received_at, ${columns.benchId === null ? 'entered_by' : 'bench_id'}) VALUES ${valuesList(ctx.runId, rows, source, received, columns)}`;
       type InsertResult = { affectedRows?: number; insertId?: number | string };
       let last: number | null;
       let result: InsertResult;
@@ -360,7 +360,9 @@ function valuesList(
     if (typeof x !== 'number' || !Number.isFinite(x)) throw new Error('valuesList: a value is not a finite number');
     return String(x);
   };
-  const tail = `,'${source}','${received}',${id(author.enteredBy)},${id(author.benchId)})`;
+  // One author column: the other (entered_by for a bench, bench_id for a user) keeps its NULL default, a value
+  // fewer on every row of a thousand-reading batch.
+  const tail = `,'${source}','${received}',${author.benchId === null ? id(author.enteredBy) : id(author.benchId)})`;
   let sql = '';
   for (let i = 0; i < rows.length; i++) {
     const r = rows[i];
