@@ -138,6 +138,43 @@ describe('run counters (e2e, MariaDB)', () => {
     expect(lastPage.body.items.map((r: { seq: number }) => r.seq)).toEqual(all.slice(80, 97));
   });
 
+  it('should answer each of many batches sent at once with exactly what it stored, whichever transaction wrote it', async () => {
+    // Five benches on five runs send at the same moment, one of them the same batch twice: the write path may put
+    // several batches in one transaction, and each answer, counter and audit event must still be its own.
+    const org = await organizationId(t.dataSource, DEMO_CUSTOMERS.saltmarsh);
+    const lanes = await Promise.all(
+      Array.from({ length: 5 }, async () => {
+        const own = await createBench(t.dataSource);
+        const ownRun = await createRun(t.dataSource, { organizationId: org, benchId: own.benchId });
+        const s = await connect(url, NAMESPACES.ingest, own.token, sockets);
+        expect(await request<AttachReply>(s, INGEST_EVENTS.attach, { runId: ownRun.runId })).toMatchObject({ ok: true });
+        return { socket: s, runId: ownRun.runId };
+      }),
+    );
+    const sendTo = (lane: (typeof lanes)[number], readings: unknown[]) =>
+      request<IngestBatchReply>(lane.socket, INGEST_EVENTS.readings, { runId: lane.runId, readings });
+    const [twiceA, twiceB, ...others] = await Promise.all([
+      sendTo(lanes[0]!, batch(1, 300)),
+      sendTo(lanes[0]!, batch(1, 300)),
+      ...lanes.slice(1).map((lane, i) => sendTo(lane, batch(1, 100 * (i + 1)))),
+    ]);
+    // The same batch twice: one stored it, the other found it stored.
+    expect([twiceA, twiceB].map((a) => (a.ok ? [a.accepted, a.duplicates, a.lastSeq] : a)).sort()).toEqual([
+      [0, 300, 300],
+      [300, 0, 300],
+    ]);
+    others.forEach((ack, i) => expect(ack).toMatchObject({ ok: true, accepted: 100 * (i + 1), duplicates: 0, lastSeq: 100 * (i + 1) }));
+    for (const [i, lane] of lanes.entries()) {
+      const n = i === 0 ? 300 : 100 * i;
+      await expectKeptEqualsCounted(lane.runId, { readingCount: n, lastSeq: n, excludedCount: 0 });
+      // One audit event per batch that stored something, with its own counts.
+      const events = await t.dataSource.query("SELECT changes FROM audit_events WHERE entity = 'run' AND entity_id = ? AND action = 'readings'", [
+        String(lane.runId),
+      ]);
+      expect(events.map((e: { changes: unknown }) => (typeof e.changes === 'string' ? JSON.parse(e.changes) : e.changes).accepted)).toEqual([n]);
+    }
+  });
+
   it("should fill every existing run's counters from its readings when the migration runs", async () => {
     const runner: QueryRunner = t.dataSource.createQueryRunner();
     const migration = new AddRunCounters1764950000000();
