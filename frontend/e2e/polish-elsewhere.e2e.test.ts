@@ -82,7 +82,9 @@ describe('elsewhere polish (browser)', () => {
       await page.waitForURL(/\/jobs\/\d+$/);
       const notice = page.getByTestId('notice');
       await notice.getByText(/^Job J\d{4}-\d{4} opened for/).waitFor();
-      // It sits in the app bar's empty middle, over no part of the page (it ends above the page's heading).
+      // It sits in the app bar's empty middle, over no part of the page (it ends above the page's heading, once
+      // the job page has drawn it: the notice can come first).
+      await page.getByRole('heading', { level: 1 }).waitFor();
       const box = (await notice.boundingBox())!;
       const bar = (await page.locator('header').first().boundingBox())!;
       const heading = (await page.getByRole('heading', { level: 1 }).boundingBox())!;
