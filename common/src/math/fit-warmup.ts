@@ -30,6 +30,8 @@ export type WarmupFit = {
 export const WARMUP_MAX_FIT_POINTS = 2000;
 
 type Series = { u: Float64Array; g: Float64Array; weight: Float64Array };
+/** The readings as given, with the scaling u = t·uScale, g = (f − fRef)·gScale applied as they are read. */
+type Readings = { t: ArrayLike<number>; f: ArrayLike<number>; uScale: number; fRef: number; gScale: number };
 
 /**
  * Warm-up drift fit (PRODUCT §5.3): f(t) = f∞ + A·e^(−t/τ), optionally + c·t, by
@@ -73,31 +75,41 @@ export function fitWarmup(t: ArrayLike<number>, f: ArrayLike<number>, opts: { li
   if (t.length < parameterCount + 3) {
     throw new MetrologyError('too_few_points', `${fn} requires at least ${parameterCount + 3} data points`);
   }
-  assertFiniteArray(fn, 't', t);
-  assertFiniteArray(fn, 'f', f);
   const n = t.length;
-  for (let i = 1; i < n; i++) {
-    if (t[i]! < t[i - 1]!) throw new MetrologyError('not_sorted', `${fn} requires times in ascending order (index ${i})`);
+  // One pass for finiteness, order and the sum: a million readings are read once here, not three times. The
+  // guards themselves run only when something is wrong, to throw their own message for the first bad index.
+  let sum = 0;
+  let allFinite = true;
+  let unsortedAt = -1;
+  for (let i = 0; i < n; i++) {
+    const ti = t[i]!;
+    const fi = f[i]!;
+    if (!Number.isFinite(ti) || !Number.isFinite(fi)) {
+      allFinite = false;
+      break;
+    }
+    if (unsortedAt < 0 && i > 0 && ti < t[i - 1]!) unsortedAt = i;
+    sum += fi;
   }
+  if (!allFinite) {
+    assertFiniteArray(fn, 't', t);
+    assertFiniteArray(fn, 'f', f);
+  }
+  if (unsortedAt >= 0) throw new MetrologyError('not_sorted', `${fn} requires times in ascending order (index ${unsortedAt})`);
   const tFirst = t[0]!;
   const span = t[n - 1]! - tFirst;
   if (!(span > 0)) throw new MetrologyError('too_short', `${fn} requires readings spread over time`);
 
-  // Scaling: u = t/span, g = (f − mean)/sd.
-  let sum = 0;
-  for (let i = 0; i < n; i++) sum += f[i]!;
+  // Scaling: u = t/span, g = (f − mean)/sd. The readings themselves stay as they are: every pass over all of
+  // them scales on the fly (a million readings would otherwise need three more arrays of 8 MB).
   const fRef = sum / n;
   let sumSquares = 0;
   for (let i = 0; i < n; i++) sumSquares += (f[i]! - fRef) ** 2;
   const fScale = Math.sqrt(sumSquares / n);
   if (!(fScale > 0)) throw new MetrologyError('no_curvature', `${fn}: the frequency does not change, so there is no warm-up to fit`);
   const u0 = tFirst / span;
-  const full: Series = { u: new Float64Array(n), g: new Float64Array(n), weight: new Float64Array(n).fill(1) };
-  for (let i = 0; i < n; i++) {
-    full.u[i] = t[i]! / span;
-    full.g[i] = (f[i]! - fRef) / fScale;
-  }
-  const fitted = n > WARMUP_MAX_FIT_POINTS ? binMeans(full, WARMUP_MAX_FIT_POINTS) : full;
+  const full: Readings = { t, f, uScale: 1 / span, fRef, gScale: 1 / fScale };
+  const fitted = n > WARMUP_MAX_FIT_POINTS ? binMeans(full, WARMUP_MAX_FIT_POINTS) : binMeans(full, n);
 
   // 1. Starting values by variable projection over a grid of τ.
   const spacing = 1 / (fitted.u.length - 1);
@@ -234,8 +246,10 @@ export function evaluateWarmup(fit: Pick<WarmupFit, 'fInf' | 'amplitude' | 'tau'
   return fit.fInf + fit.amplitude * Math.exp(-t / fit.tau) + (fit.linear ?? 0) * t;
 }
 
-function binMeans(series: Series, bins: number): Series {
-  const n = series.u.length;
+// Means of equal-count consecutive bins, scaled, weighted by their counts (bins = n gives every reading its own).
+function binMeans(readings: Readings, bins: number): Series {
+  const { t, f, uScale, fRef, gScale } = readings;
+  const n = t.length;
   const out: Series = { u: new Float64Array(bins), g: new Float64Array(bins), weight: new Float64Array(bins) };
   for (let b = 0; b < bins; b++) {
     const from = Math.floor((b * n) / bins);
@@ -243,8 +257,8 @@ function binMeans(series: Series, bins: number): Series {
     let su = 0;
     let sg = 0;
     for (let i = from; i < to; i++) {
-      su += series.u[i]!;
-      sg += series.g[i]!;
+      su += t[i]! * uScale;
+      sg += (f[i]! - fRef) * gScale;
     }
     const count = to - from;
     out.u[b] = su / count;
@@ -284,15 +298,16 @@ function linearPart(series: Series, tau: number, u0: number, linearTerm: boolean
 }
 
 // JᵀJ, Jᵀr and SSR of the full model over every reading.
-function normalEquations(series: Series, p: number[], u0: number, linearTerm: boolean): { jtj: number[][]; jtr: number[]; ssr: number } {
+function normalEquations(readings: Readings, p: number[], u0: number, linearTerm: boolean): { jtj: number[][]; jtr: number[]; ssr: number } {
   const size = linearTerm ? 4 : 3;
   const jtj = Array.from({ length: size }, () => new Array<number>(size).fill(0));
   const jtr = new Array<number>(size).fill(0);
   const [c0, amplitude, tau] = p as [number, number, number];
   const c1 = linearTerm ? p[3]! : 0;
-  const inverseTauSquared = 1 / (tau * tau);
+  const inverseTau = 1 / tau;
+  const inverseTauSquared = inverseTau * inverseTau;
   let ssr = 0;
-  // Accumulate in locals (unrolled) for speed on 10⁶ points.
+  // Accumulate in locals (unrolled), multiplying rather than dividing, for speed on 10⁶ points.
   let s00 = 0,
     s01 = 0,
     s02 = 0,
@@ -307,13 +322,13 @@ function normalEquations(series: Series, p: number[], u0: number, linearTerm: bo
     r1 = 0,
     r2 = 0,
     r3 = 0;
-  const { u: us, g: gs } = series;
-  for (let i = 0; i < us.length; i++) {
-    const u = us[i]!;
+  const { t, f, uScale, fRef, gScale } = readings;
+  for (let i = 0; i < t.length; i++) {
+    const u = t[i]! * uScale;
     const du = u - u0;
-    const e = Math.exp(-du / tau);
+    const e = Math.exp(-du * inverseTau);
     const j2 = amplitude * e * du * inverseTauSquared;
-    const residual = gs[i]! - (c0 + amplitude * e + c1 * u);
+    const residual = (f[i]! - fRef) * gScale - (c0 + amplitude * e + c1 * u);
     ssr += residual * residual;
     s00 += 1;
     s01 += e;
@@ -324,13 +339,13 @@ function normalEquations(series: Series, p: number[], u0: number, linearTerm: bo
     r0 += residual;
     r1 += e * residual;
     r2 += j2 * residual;
-    if (linearTerm) {
-      s03 += u;
-      s13 += e * u;
-      s23 += j2 * u;
-      s33 += u * u;
-      r3 += u * residual;
-    }
+    // The linear term's sums are kept whether or not the model has one (c1 is then 0 and they go unused):
+    // without a branch in it this loop runs about twice as fast (measured on a million readings).
+    s03 += u;
+    s13 += e * u;
+    s23 += j2 * u;
+    s33 += u * u;
+    r3 += u * residual;
   }
   const entries = [
     [s00, s01, s02, s03],
