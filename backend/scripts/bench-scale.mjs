@@ -14,6 +14,7 @@
 //   (d) GET /api/runs/:id/analysis on that run, cold (the server's first analysis of it) and warm; and (d2)
 //       the cold analysis of a second such run, once the server's analysis code is compiled.
 // KC_BENCH_KEEP=1 keeps the filled database; KC_SCALE_REUSE=1 then skips (a)'s fill on the next run.
+// KC_BENCH_SERVER_FLAGS passes node flags to the server (e.g. --cpu-prof --cpu-prof-dir=DIR).
 // The last line reads `scale N readings: slowest list page X ms, cold analysis R × stream`.
 import { spawn } from 'node:child_process';
 import { existsSync, readdirSync, statSync } from 'node:fs';
@@ -235,7 +236,9 @@ await diskUse();
 // ---- the server ---------------------------------------------------------------------------------
 
 const port = await freePort();
-const server = spawn(process.execPath, [join(backend, 'dist', 'main.js')], {
+// KC_BENCH_SERVER_FLAGS passes node flags to the server, e.g. --cpu-prof to see where its time goes.
+const serverFlags = (process.env.KC_BENCH_SERVER_FLAGS ?? '').split(' ').filter(Boolean);
+const server = spawn(process.execPath, [...serverFlags, join(backend, 'dist', 'main.js')], {
   cwd: root,
   env: { ...process.env, KC_PORT: String(port), KC_HOST: '127.0.0.1', KC_DB_NAME: DB, KC_RECALL_DISABLED: '1', NODE_OPTIONS: '' },
   stdio: ['ignore', 'ignore', 'inherit'],

@@ -4,7 +4,16 @@ import { RunContextReader } from '../runs/run-context.reader.js';
 
 /** A run's readings as columns, in seq order; NaN stands for an empty dial or aux. */
 export type RunSeries = {
+  /** Readings the run had when it was read, excluded ones too. */
+  readingCount: number;
+  /** How many of those are excluded. */
+  excludedCount: number;
+  /** Rows held in the columns: every reading, or only the included ones when the excluded were left out. */
   count: number;
+  /** Indexes of the excluded rows held, ascending (noted as they were read; none when they were left out). */
+  excludedAt: number[];
+  /** Whether t never goes back from one reading to the next (checked as they were read). */
+  inTimeOrder: boolean;
   seq: Float64Array;
   t: Float64Array;
   dial: Float64Array;
@@ -35,12 +44,18 @@ export class RunSeriesLoader {
     return { readingCount: counters?.readingCount ?? 0, excludedCount: counters?.excludedCount ?? 0 };
   }
 
-  /** Columns not asked for come back as NaN. */
-  async load(runId: number, expected: number, columns: SeriesColumns = ALL_COLUMNS): Promise<RunSeries> {
+  /**
+   * Columns not asked for come back as NaN. With keepExcluded false the excluded readings are counted but not
+   * held (what the time-series analyses want: no copy of a million readings to leave a few out).
+   */
+  async load(runId: number, expected: number, columns: SeriesColumns = ALL_COLUMNS, keepExcluded = true): Promise<RunSeries> {
     const excludedSeqs = await this.readings.excludedSeqs(runId);
     let capacity = Math.max(expected, 16);
     let series = allocate(capacity);
     let count = 0;
+    let readingCount = 0;
+    const excludedAt: number[] = [];
+    let inTimeOrder = true;
     await this.readings.streamSeries(runId, columns, (row) => {
       // Readings may arrive while we read: grow rather than overrun.
       if (count === capacity) {
@@ -48,16 +63,26 @@ export class RunSeriesLoader {
         series = grow(series, capacity);
       }
       const seq = Number(row[0]);
+      const excluded = excludedSeqs.has(seq);
+      readingCount += 1;
+      if (excluded && !keepExcluded) return;
+      const t = Number(row[1]);
+      if (count > 0 && t < series.t[count - 1]!) inTimeOrder = false;
       series.seq[count] = seq;
-      series.t[count] = Number(row[1]);
+      series.t[count] = t;
       series.dial[count] = row[2] === null ? Number.NaN : Number(row[2]);
       series.frequency[count] = Number(row[3]);
       series.aux[count] = row[4] === null ? Number.NaN : Number(row[4]);
-      series.excluded[count] = excludedSeqs.has(seq) ? 1 : 0;
+      series.excluded[count] = excluded ? 1 : 0;
+      if (excluded) excludedAt.push(count);
       count += 1;
     });
     return {
+      readingCount,
+      excludedCount: keepExcluded ? excludedAt.length : readingCount - count,
       count,
+      excludedAt,
+      inTimeOrder,
       seq: series.seq.subarray(0, count),
       t: series.t.subarray(0, count),
       dial: series.dial.subarray(0, count),
@@ -68,7 +93,9 @@ export class RunSeriesLoader {
   }
 }
 
-function allocate(capacity: number): Omit<RunSeries, 'count'> {
+type Columns = Pick<RunSeries, 'seq' | 't' | 'dial' | 'frequency' | 'aux' | 'excluded'>;
+
+function allocate(capacity: number): Columns {
   return {
     seq: new Float64Array(capacity),
     t: new Float64Array(capacity),
@@ -79,7 +106,7 @@ function allocate(capacity: number): Omit<RunSeries, 'count'> {
   };
 }
 
-function grow(old: Omit<RunSeries, 'count'>, capacity: number): Omit<RunSeries, 'count'> {
+function grow(old: Columns, capacity: number): Columns {
   const next = allocate(capacity);
   next.seq.set(old.seq);
   next.t.set(old.t);
@@ -92,10 +119,11 @@ function grow(old: Omit<RunSeries, 'count'>, capacity: number): Omit<RunSeries, 
 
 /** Included readings in time order: t and frequency (and aux), for the time-series analyses. */
 export function includedByTime(series: RunSeries): { t: Float64Array; frequency: Float64Array; aux: Float64Array } {
-  let n = 0;
-  for (let i = 0; i < series.count; i++) if (series.excluded[i] === 0) n++;
+  const n = series.count - series.excludedAt.length;
   // Nothing excluded and already in time order (the usual case): the series' own columns, read only, no copy.
-  if (n === series.count && inTimeOrder(series.t)) return { t: series.t, frequency: series.frequency, aux: series.aux };
+  if (n === series.count && series.inTimeOrder) return { t: series.t, frequency: series.frequency, aux: series.aux };
+  // In time order with a few readings excluded: copy the stretches between them (block copies, no index).
+  if (series.inTimeOrder) return withoutExcluded(series, n);
   const order = new Uint32Array(n);
   let k = 0;
   let sorted = true;
@@ -118,7 +146,20 @@ export function includedByTime(series: RunSeries): { t: Float64Array; frequency:
   return { t, frequency, aux };
 }
 
-function inTimeOrder(t: Float64Array): boolean {
-  for (let i = 1; i < t.length; i++) if (t[i]! < t[i - 1]!) return false;
-  return true;
+function withoutExcluded(series: RunSeries, n: number): { t: Float64Array; frequency: Float64Array; aux: Float64Array } {
+  const out = { t: new Float64Array(n), frequency: new Float64Array(n), aux: new Float64Array(n) };
+  let to = 0;
+  let from = 0;
+  // The stretches between excluded readings, found from their indexes (a loop over each of a million flags
+  // costs a tenth of a second while the code is still cold).
+  for (const end of [...series.excludedAt, series.count]) {
+    if (end > from) {
+      out.t.set(series.t.subarray(from, end), to);
+      out.frequency.set(series.frequency.subarray(from, end), to);
+      out.aux.set(series.aux.subarray(from, end), to);
+      to += end - from;
+    }
+    from = end + 1;
+  }
+  return out;
 }

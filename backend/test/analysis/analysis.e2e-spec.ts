@@ -222,6 +222,34 @@ describe('run analysis (e2e, MariaDB)', () => {
       expect((await analysis(runId, '?withinHz=-1')).status).toBe(400);
     });
 
+    it('should count excluded readings and fit without them (two counter glitches of +5 kHz)', async () => {
+      const runId = await freshRun('warmup');
+      const glitches = [
+        { t: 402, frequency: fInf + 5000 },
+        { t: 6002, frequency: fInf + 5000 },
+      ];
+      await postReadings(
+        t,
+        as('tech'),
+        runId,
+        [...readings, ...glitches].sort((a, b) => a.t - b.t),
+      );
+      const spoilt = await analysis(runId);
+      expect(spoilt.body).toMatchObject({ readingCount: 2702, excludedCount: 0, usedCount: 2702 });
+      expect(Math.abs(spoilt.body.fit.fInf - fInf)).toBeGreaterThan(0.5);
+      const highest = (await t.http.get(`/api/runs/${runId}/readings?sort=-frequency&pageSize=2`).set(as('tech'))).body.items;
+      expect(highest.map((r: { frequency: number }) => r.frequency)).toEqual([fInf + 5000, fInf + 5000]);
+      for (const reading of highest) {
+        await t.http.post(`/api/runs/${runId}/readings/${reading.id}/exclusion`).set(as('tech')).send({ reason: 'Counter gate glitch' }).expect(201);
+      }
+      const res = await analysis(runId);
+      expect(res.body).toMatchObject({ analysis: 'warmup', readingCount: 2702, excludedCount: 2, usedCount: 2700 });
+      relClose(res.body.fit.fInf, fInf, 1e-9);
+      relClose(res.body.fit.amplitude, amplitude, 1e-4);
+      relClose(res.body.fit.tau, tau, 1e-4);
+      expect(res.body.series.frequency).not.toContain(fInf + 5000);
+    });
+
     it('should mark a settling time beyond the last reading as extrapolated (18 s recorded of a τ = 20 s warm-up)', async () => {
       const runId = await freshRun('warmup');
       // f = 7 MHz + 1 200 Hz·e^(−t/20 s), a reading every 2 s up to 18 s: within 5 Hz only at 20·ln(240) ≈ 110 s.
