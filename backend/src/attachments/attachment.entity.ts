@@ -5,13 +5,13 @@ import { Job } from '../jobs/job.entity.js';
 import { User } from '../users/user.entity.js';
 
 /**
- * A photo or document on an instrument or a job (exactly one of the two). The bytes live under
- * var/uploads/attachments with a random name; they are served only by id, after the scope check.
+ * A photo or document on an instrument or a job (exactly one of the two). The bytes live in the file store
+ * (storage module, `stored_files`), which every app node reads; they are served only by id, after the scope check.
  */
 @Entity('attachments')
 @Index('IDX_attachments_instrument', ['instrumentId'])
 @Index('IDX_attachments_job', ['jobId'])
-@Index('UQ_attachments_storage_name', ['storageName'], { unique: true })
+@Index('UQ_attachments_file', ['fileId'], { unique: true })
 export class Attachment {
   @PrimaryGeneratedColumn()
   id: number;
@@ -30,9 +30,9 @@ export class Attachment {
   @JoinColumn({ name: 'job_id', foreignKeyConstraintName: 'FK_attachments_job' })
   job: Relation<Job> | null;
 
-  /** 32 random hex digits: the file's name on disk, never shown. */
-  @Column({ name: 'storage_name', type: 'char', length: 32 })
-  storageName: string;
+  /** The bytes in the file store; NULL only when the file was already missing as files moved from var/ into the database. */
+  @Column({ name: 'file_id', type: 'int', nullable: true })
+  fileId: number | null;
 
   @Column({ name: 'original_name', type: 'varchar', length: 255 })
   originalName: string;

@@ -3,9 +3,10 @@ import { TypeOrmModule } from '@nestjs/typeorm';
 import { Attachment } from './attachment.entity.js';
 import { AttachmentsController } from './attachments.controller.js';
 import { AttachmentsService } from './attachments.service.js';
+import { StorageModule } from '../storage/storage.module.js';
 
 @Module({
-  imports: [TypeOrmModule.forFeature([Attachment])],
+  imports: [TypeOrmModule.forFeature([Attachment]), StorageModule],
   controllers: [AttachmentsController],
   providers: [AttachmentsService],
 })

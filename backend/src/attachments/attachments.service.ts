@@ -1,9 +1,6 @@
-import { BadRequestException, Inject, Injectable, Logger, NotFoundException, UnsupportedMediaTypeException } from '@nestjs/common';
+import { BadRequestException, Inject, Injectable, NotFoundException, UnsupportedMediaTypeException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import type { Request, Response } from 'express';
-import { createHash, randomBytes } from 'node:crypto';
-import { createReadStream, mkdirSync } from 'node:fs';
-import { rename, stat } from 'node:fs/promises';
 import { basename, join } from 'node:path';
 import { pipeline } from 'node:stream/promises';
 import type { DataSource } from 'typeorm';
@@ -17,6 +14,7 @@ import {
 import { AuditService } from '../audit/audit.service.js';
 import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { APP_CONFIG, type AppConfig } from '../config/config.module.js';
+import { FileStore } from '../storage/file-store.service.js';
 import { attachmentDisposition } from '../shared/csv.js';
 import { megabytesFromEnv, readHead, receiveUpload, removeQuietly } from '../shared/multipart-upload.js';
 import { Attachment } from './attachment.entity.js';
@@ -53,32 +51,22 @@ function cleanName(name: string): string {
   return (cleaned === '' ? 'attachment' : cleaned).slice(0, 255);
 }
 
-async function sha256Of(path: string): Promise<string> {
-  const hash = createHash('sha256');
-  await pipeline(createReadStream(path), hash);
-  return hash.digest('hex');
-}
-
 /**
  * Photos and documents on instruments and jobs. The type is decided from the file's bytes (magic
- * numbers, or UTF-8 text), never from its name or declared type; the file is kept under
- * var/uploads/attachments with 128 random bits as its name and is only ever served by id, after the
- * same organisation check as the record it belongs to.
+ * numbers, or UTF-8 text), never from its name or declared type. The upload waits in this node's var/tmp
+ * while it is checked, then its bytes go to the file store (MariaDB, which every node reads) in the same
+ * transaction as the attachment row; it is only ever served by id, after the same organisation check as the
+ * record it belongs to.
  */
 @Injectable()
 export class AttachmentsService {
   readonly maxBytes = megabytesFromEnv('KC_ATTACHMENT_MAX_MB', DEFAULT_ATTACHMENT_MAX_MB);
-  private readonly logger = new Logger('Attachments');
-
   constructor(
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly audit: AuditService,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
+    private readonly files: FileStore,
   ) {}
-
-  private get storeDir(): string {
-    return join(this.config.varDir, 'uploads', 'attachments');
-  }
 
   /** The owner's organisation, if the actor may see the owner; 404 otherwise. */
   private async visibleOwner(actor: AuthUser, owner: AttachmentOwner, id: number): Promise<number> {
@@ -93,28 +81,25 @@ export class AttachmentsService {
   async upload(actor: AuthUser, owner: AttachmentOwner, ownerId: number, req: Request, res: Response): Promise<AttachmentView> {
     await this.visibleOwner(actor, owner, ownerId);
     const upload = await receiveUpload(req, res, { dir: join(this.config.varDir, 'tmp'), maxBytes: this.maxBytes, field: 'file' });
-    let stored: string | null = null;
     try {
       const sniffed = sniffContent(await readHead(upload.path));
       const contentType: AttachmentContentType | null = sniffed.contentType;
       if (contentType === null) throw new UnsupportedMediaTypeException(`attachments may be ${ACCEPTED_WORDS}; this file looks like ${sniffed.description}`);
       const caption = upload.fields.caption?.trim() || null;
       if (caption !== null && caption.length > MAX_CAPTION) throw new BadRequestException(`caption must be at most ${MAX_CAPTION} characters`);
-      const sha256 = await sha256Of(upload.path);
-      const storageName = randomBytes(16).toString('hex');
-      mkdirSync(this.storeDir, { recursive: true, mode: 0o700 });
-      stored = join(this.storeDir, storageName);
-      await rename(upload.path, stored);
       const originalName = cleanName(upload.originalName);
       const id = await this.dataSource.transaction(async (manager) => {
+        // The bytes and the row that names them commit together: a failed insert leaves no stored file.
+        const stored = await this.files.put('attachment', { path: upload.path }, manager);
+        const sha256 = stored.sha256;
         const result = await manager.insert(Attachment, {
           instrumentId: owner === 'instrument' ? ownerId : null,
           jobId: owner === 'job' ? ownerId : null,
-          storageName,
+          fileId: stored.id,
           originalName,
           caption,
           contentType,
-          sizeBytes: upload.size,
+          sizeBytes: stored.sizeBytes,
           sha256,
           uploadedById: actor.id,
         });
@@ -125,17 +110,15 @@ export class AttachmentsService {
             entity: owner,
             entityId: ownerId,
             action: 'attach',
-            changes: { attachmentId: newId, originalName, contentType, sizeBytes: upload.size, sha256 },
+            changes: { attachmentId: newId, originalName, contentType, sizeBytes: stored.sizeBytes, sha256 },
           },
           manager,
         );
         return newId;
       });
-      stored = null;
       return this.view(id);
     } finally {
       await removeQuietly(upload.path);
-      if (stored) await removeQuietly(stored);
     }
   }
 
@@ -145,19 +128,16 @@ export class AttachmentsService {
     return { items: rows.map(toView), total: rows.length };
   }
 
-  /** Streams the bytes with the type found at upload; 404 when the actor may not see the owner. */
+  /** Streams the bytes from the file store, part by part, with the type found at upload; 404 when the actor may not see the owner. */
   async serve(actor: AuthUser, id: number, download: boolean, res: Response): Promise<void> {
     const row = await this.visible(actor, id);
-    const path = join(this.storeDir, row.storageName);
-    const size = await stat(path)
-      .then((s) => s.size)
-      .catch(() => null);
-    if (size === null) throw new NotFoundException(`the file of attachment ${id} is missing from the store`);
+    const info = row.fileId !== null ? await this.files.info(row.fileId, 'attachment') : null;
+    if (!info) throw new NotFoundException(`the file of attachment ${id} is missing from the store`);
     res.setHeader('Content-Type', row.contentType === 'text/plain' ? 'text/plain; charset=utf-8' : row.contentType);
-    res.setHeader('Content-Length', String(size));
+    res.setHeader('Content-Length', String(info.sizeBytes));
     res.setHeader('Content-Disposition', attachmentDisposition(row.originalName, download ? 'attachment' : 'inline'));
     res.setHeader('Cache-Control', 'private, no-store');
-    await pipeline(createReadStream(path), res).catch((error: unknown) => {
+    await pipeline(this.files.stream(info), res).catch((error: unknown) => {
       // A reader that goes away half-way is not a server error; anything before the first byte is.
       if (!res.headersSent) throw error;
     });
@@ -167,6 +147,7 @@ export class AttachmentsService {
     const row = await this.visible(actor, id);
     await this.dataSource.transaction(async (manager) => {
       await manager.delete(Attachment, { id });
+      if (row.fileId !== null) await this.files.remove(row.fileId, manager);
       await this.audit.record(
         {
           actorId: actor.id,
@@ -178,9 +159,6 @@ export class AttachmentsService {
         manager,
       );
     });
-    await removeQuietly(join(this.storeDir, row.storageName)).catch((error: unknown) =>
-      this.logger.warn(`attachment ${id}: the file could not be removed: ${String(error)}`),
-    );
   }
 
   private async visible(actor: AuthUser, id: number): Promise<AttachmentRow> {

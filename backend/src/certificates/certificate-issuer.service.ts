@@ -15,12 +15,13 @@ import { RunStandardVersionWriter } from '../runs/run-standard-version.writer.js
 import { JobReviewEvents } from '../shared/job-review-events.js';
 import { StandardResultsReader } from '../standards/standard-results.reader.js';
 import { CertificateRecipientsReader } from '../users/certificate-recipients.reader.js';
-import { issueCertificate, withCertificateFile, type IssueDeps, type IssueInput, type IssueOutcome } from './issue-certificate.js';
+import { FileStore } from '../storage/file-store.service.js';
+import { issueCertificate, type IssueDeps, type IssueInput, type IssueOutcome } from './issue-certificate.js';
 
 /**
  * Signing a job for the reviews module, which checks the signer first: issueCertificate over the owners'
- * injected readers and writers, in one transaction with the job's "sign" review event (the PDF file goes
- * if the transaction fails).
+ * injected readers and writers, in one transaction with the job's "sign" review event and the stored PDF
+ * (nothing of it stays if the transaction fails).
  */
 @Injectable()
 export class CertificateIssuer {
@@ -42,16 +43,18 @@ export class CertificateIssuer {
     readings: ReadingResultsReader,
     recipients: CertificateRecipientsReader,
     audit: AuditService,
+    files: FileStore,
   ) {
     this.deps = {
       config,
       results,
+      files,
       readers: { jobs, jobStatus, instruments, ranges, organizations, runs, runStandards, standards, readings, recipients, audit },
     };
   }
 
   issue(input: IssueInput): Promise<IssueOutcome> {
-    return withCertificateFile(this.dataSource, async (manager) => {
+    return this.dataSource.transaction(async (manager) => {
       const outcome = await issueCertificate(manager, this.deps, input);
       await this.reviewEvents.record(outcome.reviewEvent, manager);
       return outcome;

@@ -61,10 +61,14 @@ export class Certificate {
   @Column({ name: 'issued_at', type: 'datetime', precision: 3, nullable: true })
   issuedAt: Date | null;
 
-  /** Random file name under var/certificates; never derived from the number, never served by path. */
-  @Index('UQ_certificates_file_name', { unique: true })
-  @Column({ name: 'file_name', type: 'varchar', length: 80, nullable: true })
-  fileName: string | null;
+  /**
+   * The PDF in the file store (storage module, `stored_files`), which every app node reads; served only by the
+   * certificate's id after the scope check. NULL on a draft, and on a revision whose file was already missing
+   * when files moved from var/certificates into the database.
+   */
+  @Index('UQ_certificates_pdf_file', { unique: true })
+  @Column({ name: 'pdf_file_id', type: 'int', nullable: true })
+  pdfFileId: number | null;
 
   @Column({ type: 'char', length: 64, nullable: true })
   sha256: string | null;

@@ -2,6 +2,7 @@ import type { EntityManager } from 'typeorm';
 import { JobResultsService } from '../budgets/job-results.service.js';
 import { loadConfig } from '../config/config.module.js';
 import type { JobReviewEvents } from '../shared/job-review-events.js';
+import { FileStore } from '../storage/file-store.service.js';
 import { writeSettings } from './certificate-settings.js';
 import { issueCertificate, issueReadersOver } from './issue-certificate.js';
 
@@ -25,7 +26,12 @@ export async function issueDemoCertificate(
 ): Promise<void> {
   const issued = await issueCertificate(
     manager,
-    { config: loadConfig(), results: JobResultsService.over(manager.connection), readers: issueReadersOver(manager.connection) },
+    {
+      config: loadConfig(),
+      results: JobResultsService.over(manager.connection),
+      readers: issueReadersOver(manager.connection),
+      files: new FileStore(manager.connection),
+    },
     input,
   );
   // The job's review history is the reviews module's: issuing hands its "sign" event back to record.

@@ -5,6 +5,7 @@ import { InstrumentsModule } from '../instruments/instruments.module.js';
 import { JobsModule } from '../jobs/jobs.module.js';
 import { OrganizationsModule } from '../organizations/organizations.module.js';
 import { StandardsModule } from '../standards/standards.module.js';
+import { StorageModule } from '../storage/storage.module.js';
 import { Certificate } from './certificate.entity.js';
 import { CertificateIssuer } from './certificate-issuer.service.js';
 import { CertificateSettingsReader } from './certificate-settings.reader.js';
@@ -22,8 +23,16 @@ import { SigningKeyCheck } from './signing-key-check.js';
  */
 @Global()
 @Module({
-  // The owners of what a certificate is signed from (runs, readings, users and audit are global).
-  imports: [TypeOrmModule.forFeature([Certificate, Setting]), JobsModule, InstrumentsModule, OrganizationsModule, StandardsModule, BudgetsModule],
+  // The owners of what a certificate is signed from (runs, readings, users and audit are global), and the file store that keeps the PDFs.
+  imports: [
+    TypeOrmModule.forFeature([Certificate, Setting]),
+    JobsModule,
+    InstrumentsModule,
+    OrganizationsModule,
+    StandardsModule,
+    BudgetsModule,
+    StorageModule,
+  ],
   controllers: [CertificatesController, SettingsController, PublicCertificatesController],
   providers: [
     CertificatesService,

@@ -1,7 +1,5 @@
 import { ConflictException, Inject, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
-import { existsSync, readFileSync } from 'node:fs';
-import { join } from 'node:path';
 import type { DataSource, SelectQueryBuilder } from 'typeorm';
 import type {
   Certificate as CertificateView,
@@ -20,11 +18,12 @@ import { JobScopeReader } from '../jobs/job-scope.reader.js';
 import { JobStatusWriter } from '../jobs/job-status.writer.js';
 import { instrumentLabel } from '../shared/instrument-label.js';
 import { JobReviewEvents } from '../shared/job-review-events.js';
+import { FileStore } from '../storage/file-store.service.js';
 import { likePattern, paginate } from '../shared/paginate.js';
 import { Certificate } from './certificate.entity.js';
 import { readSettings, writeSettings } from './certificate-settings.js';
 import type { AmendCertificateDto, ListCertificatesQueryDto, UpdateSettingsDto } from './dto/certificate.dto.js';
-import { certificatesDir, verifyUrl } from './issue-certificate.js';
+import { verifyUrl } from './issue-certificate.js';
 import { loadSigningKey, sha256Hex, verifyCertificateSignature } from './signing-key.js';
 
 const SORTABLE = {
@@ -45,6 +44,7 @@ export class CertificatesService {
     private readonly jobs: JobScopeReader,
     private readonly jobStatus: JobStatusWriter,
     private readonly reviewEvents: JobReviewEvents,
+    private readonly files: FileStore,
   ) {}
 
   toView(c: Certificate): CertificateView {
@@ -66,7 +66,7 @@ export class CertificatesService {
       signingMeaning: c.signingMeaning,
       issuedAt: c.issuedAt?.toISOString() ?? null,
       sha256: c.sha256,
-      pdfUrl: c.fileName ? `/api/certificates/${c.id}/pdf` : null,
+      pdfUrl: c.pdfFileId !== null ? `/api/certificates/${c.id}/pdf` : null,
       verifyUrl: verifyUrl(this.config.publicUrl, c.number),
       replacesRevision: c.replacesRevision,
       amendmentReason: c.amendmentReason,
@@ -91,7 +91,7 @@ export class CertificatesService {
       'c.signedAt',
       'c.signingMeaning',
       'c.issuedAt',
-      'c.fileName',
+      'c.pdfFileId',
       'c.sha256',
       'c.replacesRevision',
       'c.amendmentReason',
@@ -163,14 +163,13 @@ export class CertificatesService {
     };
   }
 
-  /** The stored file of a certificate the user may see; the file name never comes from the request. */
+  /** The stored PDF of a certificate the user may see, from the file store every node reads; nothing of the request names the file. */
   async pdf(user: AuthUser, id: number): Promise<{ data: Buffer; name: string }> {
     const c = await this.find(user, id);
-    if (!c.fileName) throw new NotFoundException(`Certificate ${id} has no PDF yet (an amendment in preparation)`);
-    const path = join(certificatesDir(this.config.varDir), c.fileName);
-    if (!/^[0-9a-f]{40}\.pdf$/.test(c.fileName) || !existsSync(path))
-      throw new NotFoundException(`The PDF of certificate ${c.number} is missing from the store`);
-    return { data: readFileSync(path), name: `${c.number}-rev${c.revision}.pdf` };
+    if (c.status === 'draft') throw new NotFoundException(`Certificate ${id} has no PDF yet (an amendment in preparation)`);
+    const data = c.pdfFileId !== null ? await this.files.get(c.pdfFileId, 'certificate-pdf') : null;
+    if (!data) throw new NotFoundException(`The PDF of certificate ${c.number} revision ${c.revision} is missing from the store`);
+    return { data, name: `${c.number}-rev${c.revision}.pdf` };
   }
 
   /**

@@ -1,7 +1,4 @@
 import { ConflictException } from '@nestjs/common';
-import { randomBytes } from 'node:crypto';
-import { mkdirSync, rmSync, writeFileSync } from 'node:fs';
-import { join } from 'node:path';
 import type { DataSource, EntityManager } from 'typeorm';
 import { SIGNING_MEANING, type JobOutcomes, type JobResults, type SignedRecord } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
@@ -16,6 +13,7 @@ import { RunResultsReader } from '../runs/run-results.reader.js';
 import { RunStandardVersionWriter } from '../runs/run-standard-version.writer.js';
 import { StandardResultsReader } from '../standards/standard-results.reader.js';
 import { CertificateRecipientsReader } from '../users/certificate-recipients.reader.js';
+import type { FileStore } from '../storage/file-store.service.js';
 import type { AppConfig } from '../config/config.module.js';
 import { instrumentLabel } from '../shared/instrument-label.js';
 import type { JobReviewEvent } from '../shared/job-review-events.js';
@@ -41,7 +39,8 @@ export type IssueReaders = {
   recipients: CertificateRecipientsReader;
   audit: AuditService;
 };
-export type IssueDeps = { config: Pick<AppConfig, 'varDir' | 'publicUrl'>; results: JobResultsService; readers: IssueReaders };
+/** `files` keeps the PDF where every app node reads it, in the signing transaction. */
+export type IssueDeps = { config: Pick<AppConfig, 'varDir' | 'publicUrl'>; results: JobResultsService; readers: IssueReaders; files: FileStore };
 
 /** The readers over one data source, for code run outside Nest (the demo seed). */
 export function issueReadersOver(dataSource: DataSource): IssueReaders {
@@ -66,7 +65,8 @@ export type IssueOutcome = {
   revision: number;
   replacesRevision: number | null;
   pdf: Buffer;
-  filePath: string;
+  /** The PDF's id in the file store. */
+  pdfFileId: number;
   downloadName: string;
   sha256: string;
   recipients: string[];
@@ -79,10 +79,6 @@ export type IssueOutcome = {
   /** The job's "sign" review event, for the caller to record in the same transaction (reviews owns that history). */
   reviewEvent: JobReviewEvent;
 };
-
-export function certificatesDir(varDir: string): string {
-  return join(varDir, 'certificates');
-}
 
 export function verifyUrl(publicUrl: string, number: string): string {
   return `${publicUrl}/verify/${encodeURIComponent(number)}`;
@@ -107,9 +103,9 @@ function blockers(results: JobResults): string[] {
  * Signs a job and issues its certificate, inside the caller's transaction: re-computes the results,
  * refuses when something blocks issue, moves the job in_review → approved → issued, numbers the
  * certificate (or takes the pending amendment's revision), renders the PDF once, hashes and seals it
- * with the server's Ed25519 key, writes it under var/certificates with a random name, and records the
- * certificate row, the review event and the audit trail. The caller removes `filePath` when its
- * transaction fails, and mails after it commits. The seed uses this same path.
+ * with the server's Ed25519 key, stores it in the file store and records the certificate row naming it, the
+ * review event and the audit trail, all in the caller's transaction (a failure leaves neither row nor file).
+ * The caller mails after it commits. The seed uses this same path.
  */
 export async function issueCertificate(manager: EntityManager, deps: IssueDeps, input: IssueInput): Promise<IssueOutcome> {
   const now = input.now ?? new Date();
@@ -149,8 +145,9 @@ export async function issueCertificate(manager: EntityManager, deps: IssueDeps, 
   const sha256 = sha256Hex(pdf);
   const key = loadSigningKey(deps.config.varDir);
   const signature = signCertificate(key, number, revision, sha256);
-  const fileName = `${randomBytes(20).toString('hex')}.pdf`;
-  const row = certificateRow({ number, revision, job, signer, meaning, now, fileName, sha256, signature, keyId: key.keyId, results, record });
+  // In this transaction: if anything below fails, the stored PDF goes with the certificate row.
+  const stored = await deps.files.put('certificate-pdf', pdf, manager);
+  const row = certificateRow({ number, revision, job, signer, meaning, now, pdfFileId: stored.id, sha256, signature, keyId: key.keyId, results, record });
   const certificateId = await storeCertificate(manager, draft, row, now);
   await recordIssue(manager, deps.readers, {
     job,
@@ -167,15 +164,13 @@ export async function issueCertificate(manager: EntityManager, deps: IssueDeps, 
   });
   const clientEmails = await deps.readers.recipients.clientEmails(job.organizationId, manager);
   const recipients = [...new Set([customer.contactEmail, ...clientEmails].filter((e): e is string => !!e))];
-  // Written last, just before the caller commits; removed by the caller if the commit fails.
-  const filePath = writeCertificateFile(deps.config.varDir, fileName, pdf);
   return {
     certificateId,
     number,
     revision,
     replacesRevision: draft?.replacesRevision ?? null,
     pdf,
-    filePath,
+    pdfFileId: stored.id,
     downloadName: `${number}-rev${revision}.pdf`,
     sha256,
     recipients,
@@ -215,7 +210,7 @@ type RowInput = {
   signer: Signer;
   meaning: string;
   now: Date;
-  fileName: string;
+  pdfFileId: number;
   sha256: string;
   signature: string;
   keyId: string;
@@ -225,7 +220,7 @@ type RowInput = {
 
 /** The certificate row as issued: who signed and when, the file, its digest and seal, and the results and record signed. */
 function certificateRow(input: RowInput): Partial<Certificate> {
-  const { number, revision, job, signer, meaning, now, fileName, sha256, signature, keyId, results, record } = input;
+  const { number, revision, job, signer, meaning, now, pdfFileId, sha256, signature, keyId, results, record } = input;
   return {
     number,
     revision,
@@ -237,7 +232,7 @@ function certificateRow(input: RowInput): Partial<Certificate> {
     signedAt: now,
     signingMeaning: meaning,
     issuedAt: now,
-    fileName,
+    pdfFileId,
     sha256,
     signature,
     keyId,
@@ -361,15 +356,6 @@ async function recordIssue(manager: EntityManager, readers: IssueReaders, issue:
   );
 }
 
-/** Writes the sealed PDF under var/certificates (owner and group only) and returns its path. */
-function writeCertificateFile(varDir: string, fileName: string, pdf: Buffer): string {
-  const dir = certificatesDir(varDir);
-  mkdirSync(dir, { recursive: true, mode: 0o750 });
-  const filePath = join(dir, fileName);
-  writeFileSync(filePath, pdf, { mode: 0o640, flag: 'wx' });
-  return filePath;
-}
-
 type CaptureInput = {
   job: ReviewedJob;
   deps: IssueDeps;
@@ -466,19 +452,4 @@ async function stampStandardVersions(manager: EntityManager, readers: IssueReade
   const standardIds = (await readers.runs.calibrationRuns(jobId, manager)).flatMap((r) => (used.has(r.id) && r.standardId !== null ? [r.standardId] : []));
   const versions = await readers.standards.references(standardIds, manager);
   await readers.runStandards.stamp(usedRunIds, new Map([...versions].map(([id, s]) => [id, s.version])), manager);
-}
-
-/** Runs `work` (which issues a certificate) in a transaction; the PDF file goes if the transaction fails. */
-export async function withCertificateFile<T extends { filePath: string }>(dataSource: DataSource, work: (manager: EntityManager) => Promise<T>): Promise<T> {
-  let written: string | null = null;
-  try {
-    return await dataSource.transaction(async (manager) => {
-      const outcome = await work(manager);
-      written = outcome.filePath;
-      return outcome;
-    });
-  } catch (error) {
-    if (written) rmSync(written, { force: true });
-    throw error;
-  }
 }

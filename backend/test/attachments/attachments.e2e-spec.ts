@@ -1,4 +1,4 @@
-// Before the app loads: attachments go to a private var directory, with a 20 kB limit for the size test.
+// Before the app loads: a private var directory (uploads wait in its tmp/), with a 20 kB limit for the size test.
 import { createHash } from 'node:crypto';
 import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -28,7 +28,11 @@ describe('attachments (e2e, MariaDB)', () => {
     if (caption !== undefined) req.field('caption', caption);
     return req.attach('file', file, { filename: name, contentType: declared });
   };
-  const storedFiles = () => (existsSync(join(varDir, 'uploads', 'attachments')) ? readdirSync(join(varDir, 'uploads', 'attachments')) : []);
+  // The attachments' files, as the file store keeps them (head rows of stored_files).
+  const storedFiles = async (): Promise<number[]> =>
+    (await t.dataSource.query("SELECT id FROM stored_files WHERE kind = 'attachment' AND file_id IS NULL ORDER BY id")).map((r: { id: number }) =>
+      Number(r.id),
+    );
   const binary = (req: ReturnType<TestApp['http']['get']>) =>
     req.buffer(true).parse((res, cb) => {
       const chunks: Buffer[] = [];
@@ -48,7 +52,7 @@ describe('attachments (e2e, MariaDB)', () => {
     rmSync(varDir, { recursive: true, force: true });
   });
 
-  it('stores a photo under a random name with the type found in its bytes, and serves it back to the owner’s organisation', async () => {
+  it('stores a photo in the file store with the type found in its bytes, and serves it back to the owner’s organisation', async () => {
     const res = await attach(
       'tech',
       `/api/instruments/${saltmarshRun.instrumentId}/attachments`,
@@ -71,10 +75,14 @@ describe('attachments (e2e, MariaDB)', () => {
       uploadedByName: 'Tomas Reyes',
       url: `/api/attachments/${view.id}`,
     });
-    const files = storedFiles();
-    expect(files).toHaveLength(1);
-    expect(files[0]).toMatch(/^[0-9a-f]{32}$/);
+    const [row] = await t.dataSource.query('SELECT file_id FROM attachments WHERE id = ?', [view.id]);
+    expect(await storedFiles()).toEqual([Number(row.file_id)]);
+    const [stored] = await t.dataSource.query('SELECT sha256, size_bytes, content FROM stored_files WHERE id = ?', [row.file_id]);
+    expect({ sha256: stored.sha256, size: Number(stored.size_bytes) }).toEqual({ sha256: view.sha256, size: PNG.length });
+    expect(Buffer.compare(stored.content as Buffer, PNG)).toBe(0);
+    // Nothing of it stays on this node's disk: the upload left var/tmp and nothing went to var/uploads.
     expect(readdirSync(join(varDir, 'tmp'))).toEqual([]);
+    expect(existsSync(join(varDir, 'uploads'))).toBe(false);
 
     const own = await binary(t.http.get(view.url).set(auth('saltmarsh')));
     expect(own.status).toBe(200);
@@ -103,7 +111,7 @@ describe('attachments (e2e, MariaDB)', () => {
     expect(text.status).toBe(201);
     expect(text.body.contentType).toBe('text/plain');
     expect((await t.http.get(text.body.url).set(auth('tech'))).headers['content-type']).toBe('text/plain; charset=utf-8');
-    const before = storedFiles().length;
+    const before = (await storedFiles()).length;
     const zip = await attach('tech', `/api/jobs/${saltmarshRun.jobId}/attachments`, ZIP, 'scan.jpg', 'image/jpeg');
     expect(zip.status).toBe(415);
     expect(zip.body.message).toBe(
@@ -114,20 +122,21 @@ describe('attachments (e2e, MariaDB)', () => {
     expect(noise.body.message).toContain('binary data');
     const big = await attach('tech', `/api/jobs/${saltmarshRun.jobId}/attachments`, Buffer.concat([PNG, Buffer.alloc(25 * 1024)]), 'big.png');
     expect(big.status).toBe(413);
-    expect(storedFiles().length).toBe(before);
+    expect((await storedFiles()).length).toBe(before);
     expect(readdirSync(join(varDir, 'tmp'))).toEqual([]);
   });
 
-  it('only technicians, leads and admins attach; only leads and admins delete, which is audited and removes the file', async () => {
+  it('only technicians, leads and admins attach; only leads and admins delete, which is audited and removes the stored file', async () => {
     expect((await attach('engineer', `/api/jobs/${saltmarshRun.jobId}/attachments`, PNG, 'x.png')).status).toBe(403);
     expect((await attach('saltmarsh', `/api/jobs/${saltmarshRun.jobId}/attachments`, PNG, 'x.png')).status).toBe(403);
     expect((await attach('tech', '/api/jobs/999999/attachments', PNG, 'x.png')).status).toBe(404);
     const res = await attach('tech', `/api/jobs/${saltmarshRun.jobId}/attachments`, PNG, 'doomed.png');
-    const [row] = await t.dataSource.query('SELECT storage_name FROM attachments WHERE id = ?', [res.body.id]);
-    expect(storedFiles()).toContain(row.storage_name);
+    const [row] = await t.dataSource.query('SELECT file_id FROM attachments WHERE id = ?', [res.body.id]);
+    expect(await storedFiles()).toContain(Number(row.file_id));
     expect((await t.http.delete(res.body.url).set(auth('tech'))).status).toBe(403);
     expect((await t.http.delete(res.body.url).set(auth('lead'))).status).toBe(204);
-    expect(storedFiles()).not.toContain(row.storage_name);
+    expect(await storedFiles()).not.toContain(Number(row.file_id));
+    expect(await t.dataSource.query('SELECT id FROM stored_files WHERE id = ? OR file_id = ?', [row.file_id, row.file_id])).toEqual([]);
     expect((await t.http.get(res.body.url).set(auth('lead'))).status).toBe(404);
     const [audit] = await t.dataSource.query("SELECT changes FROM audit_events WHERE entity = 'job' AND action = 'detach' ORDER BY id DESC LIMIT 1");
     expect(typeof audit.changes === 'string' ? JSON.parse(audit.changes) : audit.changes).toMatchObject({

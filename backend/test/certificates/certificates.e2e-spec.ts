@@ -350,13 +350,9 @@ describe('review, signing and certificates (e2e, MariaDB)', () => {
       expect((await t.http.get(`/api/certificates/${issued.id}/pdf`).set(as('saltmarsh'))).status).toBe(404);
       const list = await t.http.get('/api/certificates').set(as('saltmarsh'));
       expect(list.body.items.map((c: { id: number }) => c.id)).not.toContain(issued.id);
-      const [{ file_name }] = await t.dataSource.query('SELECT file_name FROM certificates WHERE id = ?', [issued.id]);
-      for (const path of [
-        `/api/certificates/${file_name}`,
-        `/api/certificates/${file_name}/pdf`,
-        `/var/certificates/${file_name}`,
-        `/certificates/${file_name}`,
-      ]) {
+      // The stored file's own id is no way in either: only the certificate's id, after the scope check.
+      const [{ pdf_file_id }] = await t.dataSource.query('SELECT pdf_file_id FROM certificates WHERE id = ?', [issued.id]);
+      for (const path of [`/api/stored-files/${pdf_file_id}`, `/api/files/${pdf_file_id}`, `/var/certificates/${pdf_file_id}`]) {
         const res = await t.http.get(path).set(as('saltmarsh'));
         expect(res.text ?? '').not.toContain('%PDF');
         if (path.startsWith('/api')) expect(res.status).toBe(404);

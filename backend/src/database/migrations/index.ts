@@ -9,6 +9,7 @@ import { AddCertificateAsFoundDecision1764750000000 } from './1764750000000-AddC
 import { AddUserTokenVersion1764820000000 } from './1764820000000-AddUserTokenVersion.js';
 import { AddCounterCapture1764900000000 } from './1764900000000-AddCounterCapture.js';
 import { AddRunCounters1764950000000 } from './1764950000000-AddRunCounters.js';
+import { StoreFilesInDatabase1765000000000 } from './1765000000000-StoreFilesInDatabase.js';
 
 /** Every migration, oldest first. Listed as classes so jest (ESM) and the build load the same code. */
 export const MIGRATIONS = [
@@ -23,4 +24,5 @@ export const MIGRATIONS = [
   AddUserTokenVersion1764820000000,
   AddCounterCapture1764900000000,
   AddRunCounters1764950000000,
+  StoreFilesInDatabase1765000000000,
 ];
