@@ -1,7 +1,7 @@
 // Backup and restore through the real commands (bin/kilocycle backup | restore | db), on a var directory
 // and a private MariaDB of this test's own (its own port), so the shared var/ and server are never touched.
 import { spawnSync } from 'node:child_process';
-import { createHash } from 'node:crypto';
+import { createHash, randomBytes } from 'node:crypto';
 import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
@@ -84,7 +84,8 @@ function filesDigest(dir: string): Record<string, string> {
   return out;
 }
 
-const PNG = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.alloc(300, 5)]);
+/** 1.5 MiB: two parts in the file store, so the dump carries a file split over rows. */
+const PNG = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), randomBytes(1.5 * 1024 * 1024)]);
 
 describe('backup and restore (bin/kilocycle, own MariaDB and var directory)', () => {
   let t: TestApp | null = null;
@@ -149,7 +150,7 @@ describe('backup and restore (bin/kilocycle, own MariaDB and var directory)', ()
     rmSync(work, { recursive: true, force: true });
   });
 
-  it('writes one archive with the dump, the keys, the PDFs, the uploads, the secrets, a manifest and checksums', () => {
+  it('writes one archive with the dump (stored PDFs and attachments inside it), the keys, the secrets, a manifest and checksums', () => {
     const res = kilocycle(['backup', '--to', archives]);
     expect(res.stderr).toBe('');
     expect(res.status).toBe(0);
@@ -174,25 +175,35 @@ describe('backup and restore (bin/kilocycle, own MariaDB and var directory)', ()
     expect(manifest.database.counts.readings).toBe(readingsBefore.count);
     expect(manifest.database.counts.certificates).toBe(certificatesBefore.count);
     const paths = (manifest.files as { path: string }[]).map((f) => f.path);
-    const [pdfName] = readdirSync(join(varDir, 'certificates'));
     expect(paths).toEqual(
       expect.arrayContaining([
         'database.sql',
         'files/keys/certificate-signing.key.pem',
         'files/keys/certificate-signing.pub.pem',
-        `files/certificates/${pdfName}`,
         'files/jwt-secret',
         'files/db-password',
       ]),
     );
-    expect(paths.some((p) => p.startsWith('files/uploads/attachments/'))).toBe(true);
+    // PDFs and attachments live in the database (stored_files), not under var/: the dump carries them.
+    expect(existsSync(join(varDir, 'certificates'))).toBe(false);
+    expect(existsSync(join(varDir, 'uploads'))).toBe(false);
+    expect(paths.some((p) => p.startsWith('files/certificates/') || p.startsWith('files/uploads/'))).toBe(false);
     // Every member but the list itself is named in the manifest and in SHA256SUMS.
     const summed = readFileSync(join(top, 'SHA256SUMS'), 'utf8')
       .trim()
       .split('\n')
       .map((l) => l.slice(66));
     expect(summed.sort()).toEqual(['manifest.json', ...paths].sort());
-    expect(readFileSync(join(top, 'database.sql'), 'utf8')).toContain('CREATE TABLE `readings`');
+    const dump = readFileSync(join(top, 'database.sql'), 'utf8');
+    expect(dump).toContain('CREATE TABLE `readings`');
+    expect(dump).toContain('CREATE TABLE `stored_files`');
+    // mariadb-dump --hex-blob writes each part as 0x…: the PDF's first bytes and the photo's last are in it.
+    expect(dump).toContain(pdfBefore.subarray(0, 256).toString('hex').toUpperCase());
+    expect(dump).toContain(
+      PNG.subarray(PNG.length - 256)
+        .toString('hex')
+        .toUpperCase(),
+    );
   });
 
   it('refuses a damaged archive (one byte flipped, or a member changed) and changes nothing', () => {
