@@ -26,6 +26,13 @@ export type AppConfig = {
   recall: { disabled: boolean; delayMs: number };
   /** Proxies whose X-Forwarded-For is believed (KC_TRUSTED_PROXIES); empty: the socket's address is the client's. */
   trustedProxies: string[];
+  /**
+   * Several app nodes sharing state (KC_REDIS_URL set): live fan-out and throttles in Redis. Null for the one
+   * process of `bin/kilocycle start`, which keeps them in memory.
+   */
+  cluster: { redisUrl: string } | null;
+  /** The certificate signing key's PEM file when given (KC_SIGNING_KEY_FILE); null: var/keys, made on first use. */
+  signingKeyFile: string | null;
 };
 
 const here = dirname(fileURLToPath(import.meta.url));
@@ -39,6 +46,26 @@ function secretFromFile(varDir: string, fileName: string): string {
   mkdirSync(dirname(path), { recursive: true });
   const secret = randomBytes(32).toString('hex');
   writeFileSync(path, secret + '\n', { mode: 0o600 });
+  return secret;
+}
+
+/** A file named by a setting must be there and readable: the start is refused (ConfigError) otherwise. */
+function givenFile(key: string, path: string, what: string): string {
+  const full = resolve(path);
+  try {
+    readFileSync(full);
+  } catch (error) {
+    const reason = (error as NodeJS.ErrnoException).code === 'ENOENT' ? 'it does not exist' : 'it cannot be read';
+    throw new ConfigError([{ key, value: path, must: `name a readable file holding ${what} (${reason})` }]);
+  }
+  return full;
+}
+
+/** The shared session secret from KC_JWT_SECRET_FILE (never created: every node must read the same one). */
+function givenSecret(path: string): string {
+  const secret = readFileSync(givenFile('KC_JWT_SECRET_FILE', path, 'the session secret'), 'utf8').trim();
+  if (secret.length < 32)
+    throw new ConfigError([{ key: 'KC_JWT_SECRET_FILE', value: path, must: 'hold a secret of 32 characters or more (e.g. openssl rand -hex 32)' }]);
   return secret;
 }
 
@@ -69,13 +96,15 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
       user: v.KC_DB_USER ?? 'kilocycle',
       password: dbPassword,
     },
-    jwtSecret: v.KC_JWT_SECRET ?? secretFromFile(varDir, 'jwt-secret'),
+    jwtSecret: v.KC_JWT_SECRET ?? (v.KC_JWT_SECRET_FILE ? givenSecret(v.KC_JWT_SECRET_FILE) : secretFromFile(varDir, 'jwt-secret')),
     jwtTtlSeconds: v.KC_JWT_TTL ?? 8 * 3600,
     adminPassword: v.KC_ADMIN_PASSWORD ?? null,
     adminEmail: v.KC_ADMIN_EMAIL ?? 'admin@localhost',
     bcryptCost: 10,
     recall: { disabled: v.KC_RECALL_DISABLED ?? false, delayMs: v.KC_RECALL_DELAY_MS ?? 60_000 },
     trustedProxies: v.KC_TRUSTED_PROXIES ?? [],
+    cluster: v.KC_REDIS_URL ? { redisUrl: v.KC_REDIS_URL } : null,
+    signingKeyFile: v.KC_SIGNING_KEY_FILE ? givenFile('KC_SIGNING_KEY_FILE', v.KC_SIGNING_KEY_FILE, 'a certificate signing key (PEM)') : null,
   };
 }
 

@@ -119,6 +119,14 @@ export class EnvironmentVariables {
   @IsOptional() @IsString() KC_DB_PASSWORD?: string;
 
   @IsOptional() @IsString() @MinLength(1) KC_JWT_SECRET?: string;
+  @IsOptional() @IsString() @MinLength(1) KC_JWT_SECRET_FILE?: string;
+  @IsOptional() @IsString() @MinLength(1) KC_SIGNING_KEY_FILE?: string;
+  @IsOptional()
+  @IsUrl(
+    { require_protocol: true, protocols: ['redis', 'rediss'], require_tld: false },
+    { message: 'a redis:// or rediss:// address, like redis://127.0.0.1:6379' },
+  )
+  KC_REDIS_URL?: string;
   @IsOptional() @apply(...integer(60, 2_592_000, 'a number of seconds')) KC_JWT_TTL?: number;
   @IsOptional()
   @ValidateBy(
@@ -197,6 +205,8 @@ export type ConfigProblem = { key: string; value: string; must: string };
 
 export type EnvironmentCheck = { values: EnvironmentVariables; problems: ConfigProblem[]; warnings: string[] };
 
+const SHARED = 'every node of a cluster must read the same file, and a node never makes its own';
+
 const SECRET_KEYS = new Set(['KC_DB_PASSWORD', 'KC_JWT_SECRET', 'KC_ADMIN_PASSWORD', 'KC_SMTP_PASSWORD']);
 
 /** Checks every KC_* value at once; pure (no I/O), so the CLI, seeds and tests use it as main does. */
@@ -230,6 +240,15 @@ export function checkEnvironment(env: Record<string, unknown>): EnvironmentCheck
       must: 'be 32 characters or more in production mode (e.g. openssl rand -hex 32), or unset to use var/jwt-secret',
     });
   }
+  // Several nodes: each must hold the same session secret and certificate key, and none may make its own.
+  if (values.KC_REDIS_URL !== undefined && !has('KC_REDIS_URL')) {
+    if (values.KC_JWT_SECRET === undefined && values.KC_JWT_SECRET_FILE === undefined) {
+      problems.push({ key: 'KC_JWT_SECRET_FILE', value: '', must: `be set (or KC_JWT_SECRET) when KC_REDIS_URL is: ${SHARED}` });
+    }
+    if (values.KC_SIGNING_KEY_FILE === undefined) {
+      problems.push({ key: 'KC_SIGNING_KEY_FILE', value: '', must: `be set when KC_REDIS_URL is: ${SHARED}` });
+    }
+  }
   problems.sort((a, b) => a.key.localeCompare(b.key));
   return { values, problems, warnings };
 }
@@ -248,6 +267,9 @@ const KNOWN_KEYS: readonly string[] = [
   'KC_DB_USER',
   'KC_DB_PASSWORD',
   'KC_JWT_SECRET',
+  'KC_JWT_SECRET_FILE',
+  'KC_SIGNING_KEY_FILE',
+  'KC_REDIS_URL',
   'KC_JWT_TTL',
   'KC_ADMIN_EMAIL',
   'KC_ADMIN_PASSWORD',
