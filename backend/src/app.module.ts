@@ -9,6 +9,7 @@ import { BudgetsModule } from './budgets/budgets.module.js';
 import { CertificatesModule } from './certificates/certificates.module.js';
 import { APP_CONFIG, type AppConfig } from './config/app-config.js';
 import { ComparisonsModule } from './comparisons/comparisons.module.js';
+import { ClusterModule } from './cluster/cluster.module.js';
 import { ConfigModule } from './config/config.module.js';
 import { typeormOptions } from './database/typeorm-options.js';
 import { ExportsModule } from './exports/exports.module.js';
@@ -30,6 +31,7 @@ import { UsersModule } from './users/users.module.js';
 @Module({
   imports: [
     ConfigModule,
+    ClusterModule,
     TypeOrmModule.forRootAsync({
       inject: [APP_CONFIG],
       useFactory: (config: AppConfig) => ({ ...typeormOptions(config), autoLoadEntities: true, retryAttempts: 3, retryDelay: 1000 }),

@@ -11,7 +11,7 @@ async function bootstrap(): Promise<void> {
   // The app module is loaded only now: its ConfigModule checks the same environment again.
   const { AppModule } = await import('./app.module.js');
   const app = await NestFactory.create<NestExpressApplication>(AppModule, { logger: ['error', 'warn'] });
-  setupApp(app, config);
+  await setupApp(app, config);
   app.enableShutdownHooks();
   await app.listen(config.port, config.host);
   console.log(`Kilocycle is serving on http://${config.host}:${config.port} (${config.mode} mode)`);

@@ -5,17 +5,24 @@ import { json, urlencoded, type NextFunction, type Request, type Response } from
 import helmet from 'helmet';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
+import { RedisIoAdapter, SharedRedis } from './cluster/cluster.module.js';
 import type { AppConfig } from './config/app-config.js';
 import { APP_VERSION } from './health/health.controller.js';
 import { MAX_JSON_BODY, verifyFormBody, verifyJsonBody } from './shared/json-body.js';
 
-/** Everything main.ts and the e2e tests both need: prefix, validation, headers, docs, the built frontend. */
-export function setupApp(app: INestApplication, config: AppConfig): void {
+/**
+ * Everything main.ts and the e2e tests both need: prefix, validation, headers, docs, the built frontend,
+ * and in cluster mode socket.io through Redis (connected here, before the gateways start: a node whose
+ * Redis does not answer refuses to start).
+ */
+export async function setupApp(app: INestApplication, config: AppConfig): Promise<void> {
   const express = app as NestExpressApplication;
   // X-Forwarded-For only from the proxies named in KC_TRUSTED_PROXIES (none by default): otherwise any
   // local client could rotate it and sidestep the per-address sign-in limits.
   express.set('trust proxy', config.trustedProxies.length > 0 ? config.trustedProxies : false);
   app.setGlobalPrefix('api');
+  // Cluster mode: socket.io's rooms through Redis, so every node's sockets see every node's events.
+  if (config.cluster) app.useWebSocketAdapter(await RedisIoAdapter.connect(app, app.get(SharedRedis)));
   app.useGlobalPipes(new ValidationPipe({ whitelist: true, forbidNonWhitelisted: true, transform: true, stopAtFirstError: false }));
   app.use(
     helmet({

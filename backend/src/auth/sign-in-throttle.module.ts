@@ -3,15 +3,25 @@ import { Module } from '@nestjs/common';
 // all of @nestjs/common; these two need only its Injectable (see test/support/jest-resolver.cjs).
 import { ThrottlerStorage } from '@nestjs/throttler/dist/throttler-storage.interface.js';
 import { ThrottlerStorageService } from '@nestjs/throttler/dist/throttler.service.js';
+import { SharedRedis } from '../cluster/cluster.module.js';
+import { RedisThrottlerStorage } from './redis-throttler.storage.js';
 import { SignInThrottle } from './sign-in-throttle.service.js';
 
 /**
- * Sign-in and sign-off throttling. The counts live in @nestjs/throttler's in-memory storage for now
- * (one app process per lab); a later issue provides a Redis ThrottlerStorage here instead, so several
- * nodes share them. Imported by the auth and reviews modules (one instance: Nest modules are singletons).
+ * Sign-in and sign-off throttling. The counts live in @nestjs/throttler's in-memory storage for the one
+ * process of `bin/kilocycle start`, and in the shared Redis in cluster mode (KC_REDIS_URL), so that failures
+ * spread over several nodes add up. Imported by the auth and reviews modules (one instance: Nest modules are
+ * singletons).
  */
 @Module({
-  providers: [{ provide: ThrottlerStorage, useClass: ThrottlerStorageService }, SignInThrottle],
+  providers: [
+    {
+      provide: ThrottlerStorage,
+      inject: [SharedRedis],
+      useFactory: (redis: SharedRedis) => (redis.enabled ? new RedisThrottlerStorage(redis) : new ThrottlerStorageService()),
+    },
+    SignInThrottle,
+  ],
   exports: [SignInThrottle],
 })
 export class SignInThrottleModule {}

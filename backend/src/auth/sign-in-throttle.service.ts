@@ -38,8 +38,8 @@ function waitWords(seconds: number): string {
  * Sign-in and sign-off throttling on @nestjs/throttler's ThrottlerStorage. Each failure is one hit that
  * lives as long as it should count; a check asks with limit L whether L hits are alive (the storage then
  * answers isBlocked and the seconds until the oldest expires, adding only a hit of 1 ms when not blocked).
- * The storage is the package's in-memory one today; a later issue plugs a Redis storage into the same
- * ThrottlerStorage token so several app nodes share the counts.
+ * The storage is the package's in-memory one for a single process, RedisThrottlerStorage in cluster mode
+ * (see SignInThrottleModule), so several app nodes share the counts.
  */
 @Injectable()
 export class SignInThrottle {

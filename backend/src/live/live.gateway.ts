@@ -17,6 +17,7 @@ import {
 } from '@kilocycle/common/events';
 import type { AuthUser } from '../shared/auth-user.js';
 import { AuthService } from '../auth/auth.service.js';
+import { SharedRedis } from '../cluster/cluster.module.js';
 import { AccountSessions, type SessionsEnded } from '../shared/account-sessions.js';
 import { BridgePresence } from '../shared/bridge-presence.js';
 import { CounterCaptureService } from '../ingest/counter-capture.service.js';
@@ -49,7 +50,17 @@ export class LiveGateway implements OnGatewayInit, OnModuleDestroy {
     private readonly sessions: AccountSessions,
     private readonly presence: BridgePresence,
     private readonly captures: CounterCaptureService,
+    private readonly redis: SharedRedis,
   ) {}
+
+  /**
+   * Whether anyone may watch the run: socket.io encodes a broadcast even for an empty room, so runs nobody
+   * watches are skipped. Only this node's rooms are known here, so in cluster mode every event goes out
+   * (through Redis, to the nodes whose browsers watch it).
+   */
+  private watched(nsp: Namespace, runId: number): boolean {
+    return this.redis.enabled || (nsp.adapter.rooms.get(runRoom(runId))?.size ?? 0) > 0;
+  }
 
   afterInit(nsp: Namespace): void {
     nsp.use((socket, next) => {
@@ -73,23 +84,22 @@ export class LiveGateway implements OnGatewayInit, OnModuleDestroy {
     this.subscriptions.push(
       this.sessions.ended$.subscribe((ended) => this.closeSessions(nsp, ended)),
       this.writer.stored$.subscribe(({ runId, author, readings }) => {
-        // socket.io encodes a broadcast even for an empty room: skip runs nobody is watching.
-        if (!nsp.adapter.rooms.get(runRoom(runId))?.size) return;
+        if (!this.watched(nsp, runId)) return;
         const event: LiveReadingsEvent = toLiveReadingsEvent(runId, author, readings);
         nsp.to(runRoom(runId)).emit(LIVE_EVENTS.readings, event);
       }),
       this.writer.excluded$.subscribe(({ runId, reading }) => {
-        if (!nsp.adapter.rooms.get(runRoom(runId))?.size) return;
+        if (!this.watched(nsp, runId)) return;
         const event: LiveExclusionEvent = { runId, reading };
         nsp.to(runRoom(runId)).emit(LIVE_EVENTS.excluded, event);
       }),
       this.presence.changes$.subscribe(({ runId, connected, since }) => {
-        if (!nsp.adapter.rooms.get(runRoom(runId))?.size) return;
+        if (!this.watched(nsp, runId)) return;
         const event: LiveBridgeEvent = { runId, connected, since: since.toISOString() };
         nsp.to(runRoom(runId)).emit(LIVE_EVENTS.bridge, event);
       }),
       this.captures.events$.subscribe((capture) => {
-        if (!nsp.adapter.rooms.get(runRoom(capture.runId))?.size) return;
+        if (!this.watched(nsp, capture.runId)) return;
         const event: LiveCaptureEvent = { runId: capture.runId, capture, sentAt: new Date().toISOString() };
         nsp.to(runRoom(capture.runId)).emit(LIVE_EVENTS.capture, event);
       }),

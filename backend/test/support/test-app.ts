@@ -46,7 +46,7 @@ export async function createTestApp(options: { reset?: boolean } = {}): Promise<
   if (options.reset !== false) await resetDatabase();
   const moduleRef = await Test.createTestingModule({ imports: [AppModule] }).compile();
   const app = moduleRef.createNestApplication<NestExpressApplication>({ logger: ['error'] });
-  setupApp(app, loadConfig());
+  await setupApp(app, loadConfig());
   await app.init();
   const dataSource = app.get(DataSource);
   return { app, http: request(app.getHttpServer()), dataSource, close: () => app.close() };

@@ -1,0 +1,135 @@
+import { generateKeyPairSync, randomBytes } from 'node:crypto';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { Socket } from 'socket.io-client';
+import { INGEST_EVENTS, LIVE_EVENTS, NAMESPACES, type LiveReadingsEvent, liveReadings } from '@kilocycle/common/events';
+import { RedisUnreachableError } from '../../src/cluster/cluster.module.js';
+import { DEMO_CUSTOMERS } from '../../src/seed/demo-seed.js';
+import { connect, createBench, createRun, listen, organizationId, request, type RunFixture } from '../ingest/ingest-fixtures.js';
+import { startPrivateRedis, type PrivateRedis } from '../support/private-redis.js';
+import { createTestApp, DEMO, tokenFor, type TestApp } from '../support/test-app.js';
+
+/** Creates an app with these settings in the environment (its configuration is read while it is built). */
+async function appWith(env: Record<string, string>, reset: boolean): Promise<TestApp> {
+  const saved = Object.fromEntries(Object.keys(env).map((key) => [key, process.env[key]]));
+  Object.assign(process.env, env);
+  try {
+    return await createTestApp({ reset });
+  } finally {
+    for (const [key, value] of Object.entries(saved)) {
+      if (value === undefined) delete process.env[key];
+      else process.env[key] = value;
+    }
+  }
+}
+
+describe('two app nodes sharing Redis (e2e, MariaDB + redis-server)', () => {
+  let redis: PrivateRedis;
+  let keys: string;
+  let clusterEnv: Record<string, string>;
+  let nodeA: TestApp;
+  let nodeB: TestApp;
+  let urlA: string;
+  let urlB: string;
+  let sockets: Socket[] = [];
+
+  beforeAll(async () => {
+    redis = await startPrivateRedis();
+    // The files every node shares (the session secret and the certificate key): made here, as an operator would.
+    keys = mkdtempSync(join(tmpdir(), 'kc-cluster-keys-'));
+    writeFileSync(join(keys, 'jwt-secret'), randomBytes(32).toString('hex'));
+    writeFileSync(join(keys, 'signing.key.pem'), generateKeyPairSync('ed25519').privateKey.export({ type: 'pkcs8', format: 'pem' }));
+    clusterEnv = { KC_REDIS_URL: redis.url, KC_JWT_SECRET_FILE: join(keys, 'jwt-secret'), KC_SIGNING_KEY_FILE: join(keys, 'signing.key.pem') };
+    nodeA = await appWith(clusterEnv, true);
+    nodeB = await appWith(clusterEnv, false);
+    urlA = await listen(nodeA);
+    urlB = await listen(nodeB);
+  });
+  afterEach(() => {
+    for (const s of sockets) s.disconnect();
+    sockets = [];
+  });
+  afterAll(async () => {
+    await nodeA?.close();
+    await nodeB?.close();
+    await redis?.stop();
+    rmSync(keys, { recursive: true, force: true });
+  });
+
+  it('should show a browser on node B the readings a bench streams into node A, within a second', async () => {
+    const bench = await createBench(nodeA.dataSource);
+    const run: RunFixture = await createRun(nodeA.dataSource, {
+      organizationId: await organizationId(nodeA.dataSource, DEMO_CUSTOMERS.saltmarsh),
+      benchId: bench.benchId,
+    });
+    // Signed in on node A, watching on node B: one shared session secret.
+    const page = await connect(urlB, NAMESPACES.live, await tokenFor(nodeA.http, DEMO.tech), sockets);
+    expect(await request(page, LIVE_EVENTS.join, { runId: run.runId })).toMatchObject({ ok: true, runId: run.runId });
+    const arriving = new Promise<LiveReadingsEvent>((resolve) => page.once(LIVE_EVENTS.readings, resolve));
+    const source = await connect(urlA, NAMESPACES.ingest, bench.token, sockets);
+    expect(await request(source, INGEST_EVENTS.attach, { runId: run.runId })).toMatchObject({ ok: true });
+    const sent = Date.now();
+    await request(source, INGEST_EVENTS.readings, {
+      runId: run.runId,
+      readings: [
+        { seq: 1, t: 1, frequency: 7_000_010 },
+        { seq: 2, t: 2, frequency: 7_000_020 },
+      ],
+    });
+    const event = await Promise.race([arriving, new Promise<never>((_, reject) => setTimeout(() => reject(new Error('nothing on node B in 1 s')), 1000))]);
+    expect(Date.now() - sent).toBeLessThan(1000);
+    expect(liveReadings(event).map((r) => [r.seq, r.frequency])).toEqual([
+      [1, 7_000_010],
+      [2, 7_000_020],
+    ]);
+  });
+
+  it('should add up failed sign-ins spread over both nodes: after five, the account waits on either', async () => {
+    const nodes = [nodeA, nodeB];
+    for (let attempt = 0; attempt < 5; attempt++) {
+      const res = await nodes[attempt % 2]!.http.post('/api/auth/login').send({ email: DEMO.engineer, password: 'not the password' });
+      expect(res.status).toBe(401);
+    }
+    // Node B saw two of the five failures: in memory it would let the sixth try through.
+    for (const node of nodes) {
+      const held = await node.http.post('/api/auth/login').send({ email: DEMO.engineer, password: 'not the password' });
+      expect(held.status).toBe(429);
+      expect(held.body.message).toMatch(/Too many failed sign-ins for this account/);
+      expect(Number(held.headers['retry-after'])).toBeGreaterThanOrEqual(1);
+    }
+  });
+
+  it('should report Redis in readiness: 503 on both nodes while it is gone, 200 once it is back', async () => {
+    for (const node of [nodeA, nodeB]) {
+      expect((await node.http.get('/api/health/ready')).body).toMatchObject({ status: 'ok', info: { database: { status: 'up' }, redis: { status: 'up' } } });
+    }
+    await redis.stop();
+    for (const node of [nodeA, nodeB]) {
+      const gone = await node.http.get('/api/health/ready');
+      expect(gone.status).toBe(503);
+      expect(gone.body).toMatchObject({ error: { redis: { status: 'down' } }, info: { database: { status: 'up' } } });
+      expect((await node.http.get('/api/health/live')).status).toBe(200);
+      // A sign-in cannot be counted, so it is refused rather than let through unthrottled; nothing is written.
+      const refused = await node.http.post('/api/auth/login').send({ email: DEMO.lead, password: 'not the password' });
+      expect(refused.status).toBe(503);
+      expect(refused.body.message).toMatch(/shared sign-in counts cannot be reached/);
+    }
+    redis = await startPrivateRedis(redis.port);
+    for (const node of [nodeA, nodeB]) {
+      let ready = await node.http.get('/api/health/ready');
+      for (let i = 0; i < 40 && ready.status !== 200; i += 1) {
+        await new Promise((r) => setTimeout(r, 250));
+        ready = await node.http.get('/api/health/ready');
+      }
+      expect(ready.status).toBe(200);
+    }
+  });
+
+  it('should refuse to start a node whose Redis does not answer, saying so', async () => {
+    const gone = await startPrivateRedis();
+    await gone.stop();
+    await expect(appWith({ ...clusterEnv, KC_REDIS_URL: gone.url }, false)).rejects.toThrow(RedisUnreachableError);
+    await expect(appWith({ ...clusterEnv, KC_REDIS_URL: gone.url }, false)).rejects.toThrow(/does not answer .*start it, or fix KC_REDIS_URL/);
+  });
+});
