@@ -22,10 +22,19 @@ describe('GET /api/health (e2e, a MariaDB this test stops and restarts)', () => 
     expect(up.status).toBe(200);
     expect(up.body).toMatchObject({ status: 'ok', database: 'up' });
 
+    const ready = await t.http.get('/api/health/ready');
+    expect(ready.status).toBe(200);
+    expect(ready.body).toMatchObject({ status: 'ok', info: { database: { status: 'up' } } });
+
     await db.stop();
     const down = await t.http.get('/api/health');
     expect(down.status).toBe(503);
     expect(down.body).toMatchObject({ database: 'down' });
+    // Not ready (a balancer stops sending requests here), yet alive (nothing to restart).
+    const notReady = await t.http.get('/api/health/ready');
+    expect(notReady.status).toBe(503);
+    expect(notReady.body).toMatchObject({ status: 'error', error: { database: { status: 'down' } } });
+    expect((await t.http.get('/api/health/live')).status).toBe(200);
     // The process keeps serving other routes while the database is away.
     expect((await t.http.get('/api/auth/me')).status).toBe(401);
 
@@ -37,5 +46,6 @@ describe('GET /api/health (e2e, a MariaDB this test stops and restarts)', () => 
     }
     expect(again.status).toBe(200);
     expect(again.body.database).toBe('up');
+    expect((await t.http.get('/api/health/ready')).status).toBe(200);
   });
 });
