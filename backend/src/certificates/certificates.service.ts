@@ -317,13 +317,13 @@ export class CertificatesService {
     const sha256 = sha256Hex(file);
     const hit = rows.find((r) => r.status !== 'draft' && r.sha256 === sha256);
     if (!hit || !hit.signature) return { match: false, sha256 };
-    const key = loadSigningKey(this.config.varDir);
+    const key = loadSigningKey(this.config);
     const signatureValid = hit.keyId === key.keyId && verifyCertificateSignature(key, hit.number, hit.revision, sha256, hit.signature);
     return { match: signatureValid, revision: hit.revision, status: hit.status, sha256, signatureValid };
   }
 
   signingKey(): CertificateSigningKey {
-    const key = loadSigningKey(this.config.varDir);
+    const key = loadSigningKey(this.config);
     return { algorithm: 'Ed25519', keyId: key.keyId, publicKeyPem: key.publicKeyPem };
   }
 

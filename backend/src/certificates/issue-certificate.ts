@@ -40,7 +40,7 @@ export type IssueReaders = {
   audit: AuditService;
 };
 /** `files` keeps the PDF where every app node reads it, in the signing transaction. */
-export type IssueDeps = { config: Pick<AppConfig, 'varDir' | 'publicUrl'>; results: JobResultsService; readers: IssueReaders; files: FileStore };
+export type IssueDeps = { config: Pick<AppConfig, 'varDir' | 'signingKeyFile' | 'publicUrl'>; results: JobResultsService; readers: IssueReaders; files: FileStore };
 
 /** The readers over one data source, for code run outside Nest (the demo seed). */
 export function issueReadersOver(dataSource: DataSource): IssueReaders {
@@ -143,7 +143,7 @@ export async function issueCertificate(manager: EntityManager, deps: IssueDeps, 
   const url = verifyUrl(deps.config.publicUrl, number);
   const pdf = await renderCertificatePdf(pdfDataOf(record, { number, revision, draft, replaced, now, url }));
   const sha256 = sha256Hex(pdf);
-  const key = loadSigningKey(deps.config.varDir);
+  const key = loadSigningKey(deps.config);
   const signature = signCertificate(key, number, revision, sha256);
   // In this transaction: if anything below fails, the stored PDF goes with the certificate row.
   const stored = await deps.files.put('certificate-pdf', pdf, manager);

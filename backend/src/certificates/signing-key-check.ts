@@ -3,7 +3,7 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import { existsSync } from 'node:fs';
 import type { DataSource } from 'typeorm';
 import { APP_CONFIG, type AppConfig } from '../config/config.module.js';
-import { loadSigningKey, signingKeyPaths } from './signing-key.js';
+import { loadSigningKey, signingKeyPath } from './signing-key.js';
 
 /**
  * The key is made lazily on first use. That is right on a first start, and wrong after a database was
@@ -31,7 +31,7 @@ export class SigningKeyCheck implements OnModuleInit {
     const signed = rows.reduce((sum, r) => sum + Number(r.n), 0);
     if (signed === 0) return;
     const keyIds = rows.map((r) => r.keyId ?? 'none').join(', ');
-    const { privatePath } = signingKeyPaths(this.config.varDir);
+    const privatePath = signingKeyPath(this.config);
     if (!existsSync(privatePath)) {
       throw new Error(
         `${signed} issued certificate(s) in database ${this.config.db.name} were signed with key ${keyIds}, but the signing key ` +
@@ -39,7 +39,7 @@ export class SigningKeyCheck implements OnModuleInit {
           'Restore var/keys from your backup: bin/kilocycle restore --keys-only ARCHIVE (or the whole backup: bin/kilocycle restore ARCHIVE), then start again.',
       );
     }
-    const key = loadSigningKey(this.config.varDir);
+    const key = loadSigningKey(this.config);
     const others = rows.filter((r) => r.keyId !== key.keyId).reduce((sum, r) => sum + Number(r.n), 0);
     if (others > 0) {
       this.logger.warn(

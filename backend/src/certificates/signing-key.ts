@@ -12,14 +12,30 @@ export function signingKeyPaths(varDir: string): { dir: string; privatePath: str
   return { dir, privatePath: join(dir, 'certificate-signing.key.pem'), publicPath: join(dir, 'certificate-signing.pub.pem') };
 }
 
+/** Where the key comes from: the shared file a cluster names (KC_SIGNING_KEY_FILE), or var/keys. */
+export type SigningKeyPlace = { varDir: string; signingKeyFile: string | null };
+
+/** The private key's path for this configuration. */
+export function signingKeyPath(place: SigningKeyPlace): string {
+  return place.signingKeyFile ?? signingKeyPaths(place.varDir).privatePath;
+}
+
 /**
- * The server's Ed25519 key for certificates, kept as PEM files under var/keys (never in git), created on
- * first use. keyId: the first 16 hex digits of the SHA-256 of the public key (DER), stored with each
- * signature so a later key change does not break the verification of older certificates.
+ * The server's Ed25519 key for certificates. With KC_SIGNING_KEY_FILE (every node of a cluster reads the
+ * same file) it is read from there and never made. Otherwise it is kept as PEM files under var/keys (never
+ * in git), created on first use. keyId: the first 16 hex digits of the SHA-256 of the public key (DER),
+ * stored with each signature so a later key change does not break the verification of older certificates.
  */
-export function loadSigningKey(varDir: string): SigningKey {
-  const cached = cache.get(varDir);
+export function loadSigningKey(place: SigningKeyPlace): SigningKey {
+  const cacheKey = signingKeyPath(place);
+  const cached = cache.get(cacheKey);
   if (cached) return cached;
+  const key = place.signingKeyFile ? keyFromPem(readFileSync(place.signingKeyFile)) : keyUnderVar(place.varDir);
+  cache.set(cacheKey, key);
+  return key;
+}
+
+function keyUnderVar(varDir: string): SigningKey {
   const { dir, privatePath, publicPath } = signingKeyPaths(varDir);
   if (!existsSync(privatePath)) {
     mkdirSync(dir, { recursive: true, mode: 0o700 });
@@ -32,17 +48,23 @@ export function loadSigningKey(varDir: string): SigningKey {
       if ((error as NodeJS.ErrnoException).code !== 'EEXIST') throw error;
     }
   }
-  const privateKey = createPrivateKey(readFileSync(privatePath));
+  const key = keyFromPem(readFileSync(privatePath));
+  if (!existsSync(publicPath)) writeFileSync(publicPath, key.publicKeyPem, { mode: 0o644 });
+  return key;
+}
+
+function keyFromPem(pem: Buffer): SigningKey {
+  const privateKey = createPrivateKey(pem);
+  if (privateKey.asymmetricKeyType !== 'ed25519') {
+    throw new Error(`the certificate signing key must be an Ed25519 private key (this one is ${privateKey.asymmetricKeyType ?? 'of no known type'})`);
+  }
   const publicKey = createPublicKey(privateKey);
   const publicKeyPem = publicKey.export({ type: 'spki', format: 'pem' }).toString();
   const keyId = createHash('sha256')
     .update(publicKey.export({ type: 'spki', format: 'der' }))
     .digest('hex')
     .slice(0, 16);
-  if (!existsSync(publicPath)) writeFileSync(publicPath, publicKeyPem, { mode: 0o644 });
-  const key = { privateKey, publicKey, publicKeyPem, keyId };
-  cache.set(varDir, key);
-  return key;
+  return { privateKey, publicKey, publicKeyPem, keyId };
 }
 
 /** What the server signs: binds the file's hash to the certificate number and revision. */

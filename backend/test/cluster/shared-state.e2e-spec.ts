@@ -1,10 +1,11 @@
-import { generateKeyPairSync, randomBytes } from 'node:crypto';
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { createHash, createPrivateKey, createPublicKey, generateKeyPairSync, randomBytes } from 'node:crypto';
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Socket } from 'socket.io-client';
 import { INGEST_EVENTS, LIVE_EVENTS, NAMESPACES, type LiveReadingsEvent, liveReadings } from '@kilocycle/common/events';
 import { RedisUnreachableError } from '../../src/cluster/cluster.module.js';
+import { APP_CONFIG, loadConfig, type AppConfig } from '../../src/config/config.module.js';
 import { DEMO_CUSTOMERS } from '../../src/seed/demo-seed.js';
 import { connect, createBench, createRun, listen, organizationId, request, type RunFixture } from '../ingest/ingest-fixtures.js';
 import { startPrivateRedis, type PrivateRedis } from '../support/private-redis.js';
@@ -27,6 +28,7 @@ async function appWith(env: Record<string, string>, reset: boolean): Promise<Tes
 describe('two app nodes sharing Redis (e2e, MariaDB + redis-server)', () => {
   let redis: PrivateRedis;
   let keys: string;
+  let varDirs: string[] = [];
   let clusterEnv: Record<string, string>;
   let nodeA: TestApp;
   let nodeB: TestApp;
@@ -40,9 +42,17 @@ describe('two app nodes sharing Redis (e2e, MariaDB + redis-server)', () => {
     keys = mkdtempSync(join(tmpdir(), 'kc-cluster-keys-'));
     writeFileSync(join(keys, 'jwt-secret'), randomBytes(32).toString('hex'));
     writeFileSync(join(keys, 'signing.key.pem'), generateKeyPairSync('ed25519').privateKey.export({ type: 'pkcs8', format: 'pem' }));
-    clusterEnv = { KC_REDIS_URL: redis.url, KC_JWT_SECRET_FILE: join(keys, 'jwt-secret'), KC_SIGNING_KEY_FILE: join(keys, 'signing.key.pem') };
-    nodeA = await appWith(clusterEnv, true);
-    nodeB = await appWith(clusterEnv, false);
+    clusterEnv = {
+      KC_REDIS_URL: redis.url,
+      KC_JWT_SECRET_FILE: join(keys, 'jwt-secret'),
+      KC_SIGNING_KEY_FILE: join(keys, 'signing.key.pem'),
+      // The database password as this machine has it (the nodes' own var directories do not hold it).
+      KC_DB_PASSWORD: loadConfig().db.password,
+    };
+    // Each node with a var directory of its own, empty: nothing a node needs may live only there.
+    varDirs = [mkdtempSync(join(tmpdir(), 'kc-node-a-')), mkdtempSync(join(tmpdir(), 'kc-node-b-'))];
+    nodeA = await appWith({ ...clusterEnv, KC_VAR_DIR: varDirs[0]! }, true);
+    nodeB = await appWith({ ...clusterEnv, KC_VAR_DIR: varDirs[1]! }, false);
     urlA = await listen(nodeA);
     urlB = await listen(nodeB);
   });
@@ -54,7 +64,7 @@ describe('two app nodes sharing Redis (e2e, MariaDB + redis-server)', () => {
     await nodeA?.close();
     await nodeB?.close();
     await redis?.stop();
-    rmSync(keys, { recursive: true, force: true });
+    for (const dir of [keys, ...varDirs]) rmSync(dir, { recursive: true, force: true });
   });
 
   it('should show a browser on node B the readings a bench streams into node A, within a second', async () => {
@@ -98,6 +108,36 @@ describe('two app nodes sharing Redis (e2e, MariaDB + redis-server)', () => {
       expect(held.body.message).toMatch(/Too many failed sign-ins for this account/);
       expect(Number(held.headers['retry-after'])).toBeGreaterThanOrEqual(1);
     }
+  });
+
+  it('should sign a certificate on node A with the shared key file and verify its PDF through node B, making no key of its own', async () => {
+    const lead = { Authorization: `Bearer ${await tokenFor(nodeA.http, DEMO.lead)}` };
+    const [job] = await nodeA.dataSource.query(
+      "SELECT j.id FROM jobs j JOIN instruments i ON i.id = j.instrument_id WHERE i.serial = 'N-1041' AND j.status = 'in_review'",
+    );
+    const signed = await nodeA.http.post(`/api/jobs/${job.id}/sign`).set(lead).send({ password: 'kilocycle-demo', meaning: 'reviewed and approved for issue' });
+    expect(signed.status).toBe(200);
+    // The key id is the first 16 hex digits of the SHA-256 of the shared public key (DER).
+    const shared = createPublicKey(createPrivateKey(readFileSync(clusterEnv.KC_SIGNING_KEY_FILE!)));
+    const keyId = createHash('sha256')
+      .update(shared.export({ type: 'spki', format: 'der' }))
+      .digest('hex')
+      .slice(0, 16);
+    const [row] = await nodeA.dataSource.query('SELECT key_id FROM certificates WHERE id = ?', [signed.body.id]);
+    expect(row.key_id).toBe(keyId);
+    const pdf = await nodeB.http
+      .get(`/api/certificates/${signed.body.id}/pdf`)
+      .set(lead)
+      .buffer(true)
+      .parse((res, cb) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () => cb(null, Buffer.concat(chunks)));
+      });
+    expect(pdf.status).toBe(200);
+    const check = await nodeB.http.post(`/api/public/certificates/${signed.body.number}/check`).set('Content-Type', 'application/pdf').send(pdf.body);
+    expect(check.body).toMatchObject({ match: true, signatureValid: true });
+    for (const node of [nodeA, nodeB]) expect(existsSync(join(node.app.get<AppConfig>(APP_CONFIG).varDir, 'keys'))).toBe(false);
   });
 
   it('should report Redis in readiness: 503 on both nodes while it is gone, 200 once it is back', async () => {
