@@ -21,6 +21,7 @@ import { ReadingExclusion } from '../readings/reading-exclusion.entity.js';
 import { Reading } from '../readings/reading.entity.js';
 import { Run } from '../runs/run.entity.js';
 import { Standard } from '../standards/standard.entity.js';
+import { StoredFile } from '../storage/stored-file.entity.js';
 import { StandardVersionRow } from '../standards/standard-version.entity.js';
 import { User } from '../users/user.entity.js';
 
@@ -48,6 +49,7 @@ export const ENTITIES = [
   RunBudget,
   JobReview,
   Setting,
+  StoredFile,
   Certificate,
   MailMessage,
   RecallNotice,
