@@ -4,8 +4,10 @@
 // One archive, kilocycle-YYYYMMDD-HHMMSS.tar.gz (UTC), holding one top folder `kilocycle-backup/`:
 //   manifest.json   format, versions, time, database name, migrations, row counts, every file with size and SHA-256
 //   SHA256SUMS      the SHA-256 of manifest.json and of every other member (`sha256sum -c` reads it)
-//   database.sql    mariadb-dump --single-transaction of the Kilocycle database (one consistent snapshot)
-//   files/keys/ files/certificates/ files/uploads/ files/jwt-secret files/db-password   copies from var/
+//   database.sql    mariadb-dump --single-transaction of the Kilocycle database (one consistent snapshot),
+//                   certificate PDFs and attachments included (stored_files)
+//   files/keys/ files/jwt-secret files/db-password   copies from var/ (and files/certificates/,
+//                   files/uploads/ where a Kilocycle from before the file store left those folders)
 //
 // The archive is written and read with Debian's GNU tar and gzip rather than an npm tar package: both are
 // part of every Debian system (no new dependency in the lockfile), they stream a large dump without
