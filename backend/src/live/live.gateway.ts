@@ -28,6 +28,9 @@ import { LiveService } from './live.service.js';
 type LiveSocketData = { user: AuthUser; token: string; expiry?: NodeJS.Timeout };
 type LiveSocket = Socket<Record<string, never>, Record<string, never>, Record<string, never>, LiveSocketData>;
 
+const userRoom = (userId: number) => `user:${userId}`;
+const sessionRoom = (jti: string) => `session:${jti}`;
+
 /** setTimeout's limit (about 24.8 days); a longer session is re-armed when the timer fires. */
 const MAX_TIMER_MS = 2 ** 31 - 1;
 
@@ -77,6 +80,8 @@ export class LiveGateway implements OnGatewayInit, OnModuleDestroy {
         .catch((error: unknown) => refuse(error instanceof Error ? error.message : 'the session is not valid; sign in again'));
     });
     nsp.on('connection', (socket: LiveSocket) => {
+      // Rooms of its account and its session, so that an ended session closes its sockets on every node.
+      void socket.join([userRoom(socket.data.user.id), sessionRoom(socket.data.user.jti)]);
       this.closeAtExpiry(socket);
       socket.on('disconnect', () => clearTimeout(socket.data.expiry));
     });
@@ -120,13 +125,10 @@ export class LiveGateway implements OnGatewayInit, OnModuleDestroy {
     socket.data.expiry.unref();
   }
 
+  /** Closes the sockets of ended sessions, on this node and (through the Redis adapter) on every other. */
   private closeSessions(nsp: Namespace, ended: SessionsEnded): void {
-    const users = new Set(ended.kind === 'users' ? ended.userIds : []);
-    const jti = ended.kind === 'token' ? ended.jti : null;
-    for (const socket of (nsp.sockets as Map<string, LiveSocket>).values()) {
-      const user = socket.data.user;
-      if (user && (users.has(user.id) || user.jti === jti)) socket.disconnect(true);
-    }
+    const rooms = ended.kind === 'users' ? ended.userIds.map(userRoom) : [sessionRoom(ended.jti)];
+    if (rooms.length > 0) nsp.in(rooms).disconnectSockets(true);
   }
 
   /** The session behind a socket, checked again for this event; an ended session closes the socket. */

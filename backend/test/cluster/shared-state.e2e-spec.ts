@@ -95,6 +95,15 @@ describe('two app nodes sharing Redis (e2e, MariaDB + redis-server)', () => {
     ]);
   });
 
+  it('should close a browser socket on node B when its session is signed out on node A', async () => {
+    const token = await tokenFor(nodeA.http, DEMO.engineer);
+    const page = await connect(urlB, NAMESPACES.live, token, sockets);
+    const closed = new Promise<string>((resolve) => page.once('disconnect', resolve));
+    expect((await nodeA.http.post('/api/auth/logout').set({ Authorization: `Bearer ${token}` })).status).toBeLessThan(300);
+    const reason = await Promise.race([closed, new Promise<never>((_, reject) => setTimeout(() => reject(new Error('still open on node B after 2 s')), 2000))]);
+    expect(reason).toBe('io server disconnect');
+  });
+
   it('should add up failed sign-ins spread over both nodes: after five, the account waits on either', async () => {
     const nodes = [nodeA, nodeB];
     for (let attempt = 0; attempt < 5; attempt++) {
