@@ -1,6 +1,7 @@
 import type { INestApplicationContext } from '@nestjs/common';
 import { IoAdapter } from '@nestjs/platform-socket.io';
 import { createAdapter } from '@socket.io/redis-adapter';
+import type { Redis } from 'ioredis';
 import type { SharedRedis } from './shared-redis.js';
 
 /**
@@ -19,7 +20,7 @@ export class RedisIoAdapter extends IoAdapter {
   /** Opens both connections and waits until they are up; RedisUnreachableError when Redis does not answer. */
   static async connect(app: INestApplicationContext, redis: SharedRedis): Promise<RedisIoAdapter> {
     const [publish, subscribe] = await Promise.all([redis.connectReady('socket.io publish'), redis.connectReady('socket.io subscribe')]);
-    return new RedisIoAdapter(app, createAdapter(publish, subscribe));
+    return new RedisIoAdapter(app, createAdapter(answered(publish), subscribe));
   }
 
   // Typed from IoAdapter itself: @nestjs/platform-socket.io brings its own copy of socket.io (one patch
@@ -29,4 +30,20 @@ export class RedisIoAdapter extends IoAdapter {
     server.adapter(this.adapter);
     return server;
   }
+}
+
+/**
+ * The adapter publishes each broadcast and drops the promise: with Redis away, every reading's fan-out
+ * would be an unhandled rejection, which ends a Node process. Each publish here gets a handler (the
+ * connection already logs the loss once); the reading itself is stored and acknowledged before its
+ * fan-out, so a lost broadcast loses nothing but a live update.
+ */
+function answered(client: Redis): Redis {
+  const publish = client.publish.bind(client) as (...args: unknown[]) => Promise<number>;
+  (client as unknown as { publish: (...args: unknown[]) => Promise<number> }).publish = (...args: unknown[]) => {
+    const sent = publish(...args);
+    sent.catch(() => undefined);
+    return sent;
+  };
+  return client;
 }

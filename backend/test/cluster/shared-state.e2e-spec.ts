@@ -153,7 +153,22 @@ describe('two app nodes sharing Redis (e2e, MariaDB + redis-server)', () => {
     for (const node of [nodeA, nodeB]) {
       expect((await node.http.get('/api/health/ready')).body).toMatchObject({ status: 'ok', info: { database: { status: 'up' }, redis: { status: 'up' } } });
     }
+    const bench = await createBench(nodeA.dataSource);
+    const run = await createRun(nodeA.dataSource, { organizationId: await organizationId(nodeA.dataSource, DEMO_CUSTOMERS.saltmarsh), benchId: bench.benchId });
+    const source = await connect(urlA, NAMESPACES.ingest, bench.token, sockets);
+    expect(await request(source, INGEST_EVENTS.attach, { runId: run.runId })).toMatchObject({ ok: true });
+    const unhandled: unknown[] = [];
+    const onUnhandled = (reason: unknown) => unhandled.push(reason);
+    process.on('unhandledRejection', onUnhandled);
     await redis.stop();
+    // Readings still go in (stored and acknowledged; only their live fan-out is lost), and nothing is left unhandled.
+    expect(await request(source, INGEST_EVENTS.readings, { runId: run.runId, readings: [{ seq: 1, t: 1, frequency: 7_000_001 }] })).toMatchObject({
+      ok: true,
+      accepted: 1,
+    });
+    await new Promise((r) => setTimeout(r, 200));
+    process.off('unhandledRejection', onUnhandled);
+    expect(unhandled).toEqual([]);
     for (const node of [nodeA, nodeB]) {
       const gone = await node.http.get('/api/health/ready');
       expect(gone.status).toBe(503);

@@ -46,8 +46,14 @@ export async function createTestApp(options: { reset?: boolean } = {}): Promise<
   if (options.reset !== false) await resetDatabase();
   const moduleRef = await Test.createTestingModule({ imports: [AppModule] }).compile();
   const app = moduleRef.createNestApplication<NestExpressApplication>({ logger: ['error'] });
-  await setupApp(app, loadConfig());
-  await app.init();
+  try {
+    await setupApp(app, loadConfig());
+    await app.init();
+  } catch (error) {
+    // A refused start (a test of one) must not leave its database pool open behind it.
+    await app.close().catch(() => undefined);
+    throw error;
+  }
   const dataSource = app.get(DataSource);
   return { app, http: request(app.getHttpServer()), dataSource, close: () => app.close() };
 }
