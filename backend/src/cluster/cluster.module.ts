@@ -1,6 +1,7 @@
 import { Global, Module } from '@nestjs/common';
 import { SharedRedis } from './shared-redis.js';
 
+export { namedLockIsFree, namedLockName, withNamedLock, type NamedLockOutcome } from './named-lock.js';
 export { RedisIoAdapter } from './redis-io.adapter.js';
 export { RedisUnreachableError, SharedRedis } from './shared-redis.js';
 

@@ -6,7 +6,7 @@ import { LAB_ROLES } from '@kilocycle/common/rules';
 import type { AuthUser } from '../shared/auth-user.js';
 import { CurrentUser, Roles } from '../shared/decorators.js';
 import { ImportQueryDto } from './dto/import-query.dto.js';
-import { ImportProgressStore } from './import-progress.store.js';
+import { ImportProgressService } from './import-progress.service.js';
 import { ImportsService } from './imports.service.js';
 import { IdParam } from '../shared/id-param.decorator.js';
 
@@ -16,7 +16,7 @@ import { IdParam } from '../shared/id-param.decorator.js';
 export class ImportsController {
   constructor(
     private readonly imports: ImportsService,
-    private readonly progress: ImportProgressStore,
+    private readonly progress: ImportProgressService,
   ) {}
 
   /** Multipart field `file` (.csv or .tsv), optional field `mapping`; see ImportReport for the answer. */
@@ -33,9 +33,10 @@ export class ImportsController {
     return this.imports.import(user, id, query, req, res);
   }
 
+  /** The import's state now, for a page opened or reloaded mid-import (the live socket pushes every change: LIVE_EVENTS.importProgress). */
   @Roles(...LAB_ROLES)
   @Get('imports/:importId/progress')
-  getProgress(@CurrentUser() user: AuthUser, @Param('importId') importId: string): ImportProgress {
+  getProgress(@CurrentUser() user: AuthUser, @Param('importId') importId: string): Promise<ImportProgress> {
     return this.progress.get(importId, user.id);
   }
 }

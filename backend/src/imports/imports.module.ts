@@ -1,7 +1,7 @@
 import { Module } from '@nestjs/common';
 import { ReadingsModule } from '../readings/readings.module.js';
 import { RunsModule } from '../runs/runs.module.js';
-import { ImportProgressStore } from './import-progress.store.js';
+import { ImportProgressService } from './import-progress.service.js';
 import { ImportsController } from './imports.controller.js';
 import { ImportsService } from './imports.service.js';
 
@@ -9,6 +9,8 @@ import { ImportsService } from './imports.service.js';
 @Module({
   imports: [ReadingsModule, RunsModule],
   controllers: [ImportsController],
-  providers: [ImportsService, ImportProgressStore],
+  providers: [ImportsService, ImportProgressService],
+  // The live gateway pushes each import's progress to its user's pages.
+  exports: [ImportProgressService],
 })
 export class ImportsModule {}

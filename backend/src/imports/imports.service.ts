@@ -49,7 +49,7 @@ import {
   type ResolvedColumns,
 } from './csv-columns.js';
 import type { ImportQueryDto } from './dto/import-query.dto.js';
-import { ImportProgressStore, type ImportTracker } from './import-progress.store.js';
+import { ImportProgressService, type ImportTracker } from './import-progress.service.js';
 import { ReadingBatch } from './reading-batch.js';
 import { megabytesFromEnv, readHead, receiveUpload, removeQuietly, removeStaleUploads, type ReceivedUpload } from '../shared/multipart-upload.js';
 
@@ -91,7 +91,7 @@ export class ImportsService implements OnModuleInit {
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly writer: ReadingsWriter,
     private readonly audit: AuditService,
-    private readonly progress: ImportProgressStore,
+    private readonly progress: ImportProgressService,
     private readonly runs: RunContextReader,
     private readonly notes: RunNotesWriter,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
@@ -113,7 +113,7 @@ export class ImportsService implements OnModuleInit {
     const mode: ImportMode = query.mode ?? 'all';
     const importId = query.importId ?? randomUUID();
     const length = Number(req.headers['content-length']);
-    const tracker = this.progress.start(importId, actor.id, runId, mode, Number.isFinite(length) && length > 0 ? length : null);
+    const tracker = await this.progress.start(importId, actor.id, runId, mode, Number.isFinite(length) && length > 0 ? length : null);
     let upload: ReceivedUpload | null = null;
     try {
       upload = await receiveUpload(req, res, {
@@ -125,10 +125,10 @@ export class ImportsService implements OnModuleInit {
       // Rows outside the range's span are bad rows unless the person confirmed the file as it is.
       const confirm: SpanConfirmation = query.confirmed === true ? 'all' : 'none';
       const report = await this.process(actor, ctx, upload, mode, importId, query.mapping ?? upload.fields.mapping, tracker, confirm);
-      tracker.finish({ ok: true });
+      await tracker.finish({ ok: true });
       return report;
     } catch (error) {
-      tracker.finish({ ok: false, message: failureMessage(error) });
+      await tracker.finish({ ok: false, message: failureMessage(error) });
       throw error;
     } finally {
       if (upload) await removeQuietly(upload.path);

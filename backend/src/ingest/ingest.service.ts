@@ -15,17 +15,15 @@ const BATCH_EXAMPLE = '{runId, readings: [{seq, t?, dial?, frequency, aux?}, …
 /**
  * The bench protocol without the socket: attach to a run, then store batches through the shared
  * write path. Every refusal is an IngestException with a code and a sentence for the bench operator.
+ *
+ * Nothing here outlives a request, so any app node can take any bridge: which runs a connection attached to
+ * lives on its socket (a bridge that reconnects, on this node or another, attaches again), the lastSeq an
+ * attach answers is the run's counter in MariaDB (runs.last_seq, moved in each batch's own transaction), and a
+ * batch sent again after a lost acknowledgement is kept out by UNIQUE(run_id, seq) with INSERT IGNORE and
+ * answered as duplicates (duplicateSeqs) by comparing with the stored rows.
  */
 @Injectable()
 export class IngestService {
-  /**
-   * The highest seq stored per run by this process. It moves only from what the writer stored: a
-   * refused reading (seq 2147483647 with a bad frequency, say) must not push every later bridge on the
-   * run past the limit. A second bridge that numbers into a batch still in flight gets conflictSeqs
-   * back and renumbers.
-   */
-  private readonly highWater = new Map<number, number>();
-
   constructor(
     private readonly writer: ReadingsWriter,
     private readonly readings: RunReadingsReader,
@@ -36,12 +34,13 @@ export class IngestService {
   async attach(bench: BenchIdentity, payload: unknown): Promise<AttachAck> {
     const runId = runIdOf(payloadObject(payload, '{runId}'));
     const ctx = this.check(bench, runId, await this.writer.loadContext(runId));
+    // From MariaDB, not from this process: the batches a bridge sent through another node count too.
     const [range, lastSeq] = await Promise.all([this.runs.range(runId), this.writer.lastSeq(runId)]);
     if (!range) throw new IngestException('run_not_found', `there is no run ${runId}`);
     return {
       ok: true,
       runId,
-      lastSeq: Math.max(lastSeq, this.highWater.get(runId) ?? 0),
+      lastSeq,
       kind: ctx.kind,
       startedAt: ctx.startedAt.toISOString(),
       benchId: bench.id,
@@ -83,8 +82,6 @@ export class IngestService {
     }
 
     const result = await this.appendRetrying(bench, ctx, inputs);
-    const storedTop = result.stored.reduce((top, r) => Math.max(top, r.seq), 0);
-    if (storedTop > (this.highWater.get(runId) ?? 0)) this.highWater.set(runId, storedTop);
     for (const r of result.rejected) rejected.push({ ...r, index: indexOf[r.index] ?? r.index });
     rejected.sort((a, b) => a.index - b.index);
     const { same, taken } =

@@ -6,12 +6,14 @@ import {
   LIVE_EVENTS,
   NAMESPACES,
   runRoom,
+  userRoom,
   type ConnectRefusal,
   type JoinReply,
   type LeaveReply,
   type LiveBridgeEvent,
   type LiveCaptureEvent,
   type LiveExclusionEvent,
+  type LiveImportProgressEvent,
   type LiveReadingsEvent,
   toLiveReadingsEvent,
 } from '@kilocycle/common/events';
@@ -21,6 +23,7 @@ import { SharedRedis } from '../cluster/cluster.module.js';
 import { AccountSessions, type SessionsEnded } from '../shared/account-sessions.js';
 import { BridgePresence } from '../shared/bridge-presence.js';
 import { CounterCaptureService } from '../ingest/counter-capture.service.js';
+import { ImportProgressService } from '../imports/import-progress.service.js';
 import { errorDetail, toRefusal } from '../shared/socket-refusal.js';
 import { ReadingsWriter } from '../readings/readings-writer.service.js';
 import { LiveService } from './live.service.js';
@@ -37,7 +40,8 @@ const MAX_TIMER_MS = 2 ** 31 - 1;
 /**
  * `/live`: browsers authenticate with the session's JWT and join the room of each run they show;
  * every batch the write path commits (bridge, bench page or import) and every exclusion is pushed to
- * that run's room. A socket lives only as long as its session: every incoming event checks the session
+ * that run's room. Each socket also joins its user's room, where the progress of the user's imports goes
+ * (ImportProgressService.changes$). A socket lives only as long as its session: every incoming event checks the session
  * again, an ended session (sign-out, deactivation, role or password change) closes its sockets at once,
  * and each socket is closed when its token expires.
  */
@@ -54,6 +58,7 @@ export class LiveGateway implements OnGatewayInit, OnModuleDestroy {
     private readonly presence: BridgePresence,
     private readonly captures: CounterCaptureService,
     private readonly redis: SharedRedis,
+    private readonly imports: ImportProgressService,
   ) {}
 
   /**
@@ -83,6 +88,8 @@ export class LiveGateway implements OnGatewayInit, OnModuleDestroy {
       // Rooms of its account and its session, so that an ended session closes its sockets on every node.
       void socket.join([userRoom(socket.data.user.id), sessionRoom(socket.data.user.jti)]);
       this.closeAtExpiry(socket);
+      // The user's own room: the progress of their imports, whichever node runs them.
+      void socket.join(userRoom(socket.data.user.id));
       socket.on('disconnect', () => clearTimeout(socket.data.expiry));
     });
     // Fan-out after the commit: one encode per batch, whatever the number of watchers.
@@ -102,6 +109,11 @@ export class LiveGateway implements OnGatewayInit, OnModuleDestroy {
         if (!this.watched(nsp, runId)) return;
         const event: LiveBridgeEvent = { runId, connected, since: since.toISOString() };
         nsp.to(runRoom(runId)).emit(LIVE_EVENTS.bridge, event);
+      }),
+      this.imports.changes$.subscribe(({ userId, progress }) => {
+        if (!this.redis.enabled && (nsp.adapter.rooms.get(userRoom(userId))?.size ?? 0) === 0) return;
+        const event: LiveImportProgressEvent = progress;
+        nsp.to(userRoom(userId)).emit(LIVE_EVENTS.importProgress, event);
       }),
       this.captures.events$.subscribe((capture) => {
         if (!this.watched(nsp, capture.runId)) return;

@@ -1,10 +1,19 @@
 import type { DataSource } from 'typeorm';
 import type { RecallNotice as RecallNoticeView, RecallRunResult } from '@kilocycle/common/types';
+import { namedLockName } from '../cluster/cluster.module.js';
 import { CertificateSettingsReader } from '../certificates/certificate-settings.reader.js';
 import { RecallInstrumentsReader, type RecallInstrument } from '../instruments/recall-instruments.reader.js';
 import { recallReminderMail, type OutgoingMail } from '../mail/mail.service.js';
 import { OrganizationsReader } from '../organizations/organizations.reader.js';
 import { CertificateRecipientsReader } from '../users/certificate-recipients.reader.js';
+
+/** How long a run asked for by a person (the admin's button, `bin/kilocycle remind`) waits for another node's run to end. */
+export const MANUAL_RUN_WAIT_S = 20;
+
+/** The named lock every pass of the reminder holds, on whichever node or command runs it. */
+export function recallLockName(dataSource: DataSource): string {
+  return namedLockName(dataSource, 'recall');
+}
 
 type DueRow = { id: number; make: string; model: string; serial: string; due: string; organization_id: number; org_name: string; contact_email: string | null };
 

@@ -8,22 +8,9 @@ import { RedisUnreachableError } from '../../src/cluster/cluster.module.js';
 import { APP_CONFIG, loadConfig, type AppConfig } from '../../src/config/config.module.js';
 import { DEMO_CUSTOMERS } from '../../src/seed/demo-seed.js';
 import { connect, createBench, createRun, listen, organizationId, request, type RunFixture } from '../ingest/ingest-fixtures.js';
+import { appWith } from '../support/app-with.js';
 import { startPrivateRedis, type PrivateRedis } from '../support/private-redis.js';
-import { createTestApp, DEMO, tokenFor, type TestApp } from '../support/test-app.js';
-
-/** Creates an app with these settings in the environment (its configuration is read while it is built). */
-async function appWith(env: Record<string, string>, reset: boolean): Promise<TestApp> {
-  const saved = Object.fromEntries(Object.keys(env).map((key) => [key, process.env[key]]));
-  Object.assign(process.env, env);
-  try {
-    return await createTestApp({ reset });
-  } finally {
-    for (const [key, value] of Object.entries(saved)) {
-      if (value === undefined) delete process.env[key];
-      else process.env[key] = value;
-    }
-  }
-}
+import { DEMO, tokenFor, type TestApp } from '../support/test-app.js';
 
 describe('two app nodes sharing Redis (e2e, MariaDB + redis-server)', () => {
   let redis: PrivateRedis;

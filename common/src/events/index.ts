@@ -1,5 +1,6 @@
 import type { CounterCapture } from '../types/captures.js';
 import type { IngestAck, RangeSpan, Reading, ReadingInput, RunKind } from '../types/lab.js';
+import type { ImportProgress } from '../types/studies.js';
 
 /** Socket.io namespaces and event names shared by the server, the bridge and the browser. */
 export const NAMESPACES = { ingest: '/ingest', live: '/live' } as const;
@@ -24,7 +25,8 @@ export const INGEST_EVENTS = {
 
 /**
  * Events on `/live` (browsers). The page connects with `auth: {token}` (the session's JWT), then
- * emits `join` for each run it shows; stored readings arrive as `readings` events.
+ * emits `join` for each run it shows; stored readings arrive as `readings` events. Every socket is also in
+ * its user's own room ({@link userRoom}), where the progress of that user's imports arrives.
  */
 export const LIVE_EVENTS = {
   /** browser → server: {@link JoinRequest}; ack {@link JoinReply}. */
@@ -39,11 +41,18 @@ export const LIVE_EVENTS = {
   bridge: 'bridge',
   /** server → browser: {@link LiveCaptureEvent}, as a counter-assisted setting takes readings, settles or ends. */
   capture: 'capture',
+  /** server → browser, to the importing user's room: {@link LiveImportProgressEvent}, as an import moves (a few times a second at most) and when it ends. */
+  importProgress: 'import-progress',
 } as const;
 
 /** The socket.io room a run's live readings go to. */
 export function runRoom(runId: number): string {
   return `run:${runId}`;
+}
+
+/** The socket.io room of one signed-in user (every `/live` socket of theirs joins it on connect). */
+export function userRoom(userId: number): string {
+  return `user:${userId}`;
 }
 
 /** Why the server refused something; the bridge stops on the permanent ones and retries `server_error`. */
@@ -109,5 +118,11 @@ export type RunBridgeChange = Omit<LiveBridgeEvent, 'runId'>;
 
 /** A counter-assisted setting's progress or end (types/captures.ts); `sentAt` is the server's time of sending. */
 export type LiveCaptureEvent = { runId: number; capture: CounterCapture; sentAt: string };
+
+/**
+ * An import's progress as the server has it now (the whole state, so a page that missed some events is up to
+ * date with the next one); GET /api/imports/:importId/progress answers the same after a reload.
+ */
+export type LiveImportProgressEvent = ImportProgress;
 
 export { liveReadings, toLiveReadingsEvent, type LiveReadingsEvent, type StoredReadingView } from './live-readings.js';

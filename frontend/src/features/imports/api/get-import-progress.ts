@@ -1,8 +1,8 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
+import { queryOptions } from '@tanstack/react-query';
 import type { ImportProgress } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
 
-/** The server's side of the progress bar; 404 until the upload has reached the server. */
+/** The server's side of the progress bar now (after a reload, or events missed); 404 until the upload has reached the server. */
 export function getImportProgress(importId: string): Promise<ImportProgress> {
   return api.get<ImportProgress>(`/imports/${encodeURIComponent(importId)}/progress`, { notify: false });
 }
@@ -12,13 +12,3 @@ export const getImportProgressQueryOptions = (importId: string) =>
     queryKey: ['imports', 'progress', importId],
     queryFn: () => getImportProgress(importId),
   });
-
-/** Polled twice a second while the import runs. */
-export function useImportProgress(importId: string | null, active: boolean) {
-  return useQuery({
-    ...getImportProgressQueryOptions(importId ?? ''),
-    enabled: importId !== null,
-    refetchInterval: active ? 500 : false,
-    retry: false,
-  });
-}

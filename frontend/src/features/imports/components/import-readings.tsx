@@ -23,7 +23,7 @@ import { DEFAULT_IMPORT_MAX_MB, IMPORT_COLUMNS, type ImportColumn, type ImportMa
 import { numberSx } from '@/components/ui/num';
 import { formatBytes } from '@/utils/measurement';
 import { sharedQueryKeys } from '@/lib/query-keys';
-import { useImportProgress } from '../api/get-import-progress';
+import { useImportProgress } from '../hooks/use-import-progress';
 import { importReadings, newImportId, type ImportOutcome } from '../api/import-readings';
 import { guessMapping, previewFile, type ColumnMapping, type CsvPreview } from '../utils/csv-preview';
 import { COLUMN_LABELS, CsvPreviewTable } from './csv-preview-table';
