@@ -31,7 +31,6 @@ import { LiveService } from './live.service.js';
 type LiveSocketData = { user: AuthUser; token: string; expiry?: NodeJS.Timeout };
 type LiveSocket = Socket<Record<string, never>, Record<string, never>, Record<string, never>, LiveSocketData>;
 
-const userRoom = (userId: number) => `user:${userId}`;
 const sessionRoom = (jti: string) => `session:${jti}`;
 
 /** setTimeout's limit (about 24.8 days); a longer session is re-armed when the timer fires. */
@@ -85,11 +84,10 @@ export class LiveGateway implements OnGatewayInit, OnModuleDestroy {
         .catch((error: unknown) => refuse(error instanceof Error ? error.message : 'the session is not valid; sign in again'));
     });
     nsp.on('connection', (socket: LiveSocket) => {
-      // Rooms of its account and its session, so that an ended session closes its sockets on every node.
+      // Rooms of its account (its imports' progress) and its session (an ended session closes its sockets on
+      // every node).
       void socket.join([userRoom(socket.data.user.id), sessionRoom(socket.data.user.jti)]);
       this.closeAtExpiry(socket);
-      // The user's own room: the progress of their imports, whichever node runs them.
-      void socket.join(userRoom(socket.data.user.id));
       socket.on('disconnect', () => clearTimeout(socket.data.expiry));
     });
     // Fan-out after the commit: one encode per batch, whatever the number of watchers.

@@ -71,6 +71,8 @@ const CAPTURE: readonly Role[] = LAB;
 export const ACCESS_MATRIX: Record<string, Rule> = {
   // Public: the health check, sign-in and the verification page.
   'GET /api/health': { roles: 'public' },
+  'GET /api/health/live': { roles: 'public' },
+  'GET /api/health/ready': { roles: 'public' },
   'POST /api/auth/login': { roles: 'public' },
   'GET /api/public/certificates/{number}': { roles: 'public', ids: { number: 'certificateNumber' } },
   'POST /api/public/certificates/{number}/check': { roles: 'public', ids: { number: 'certificateNumber' }, body: 'multipart' },
