@@ -40,7 +40,12 @@ export type IssueReaders = {
   audit: AuditService;
 };
 /** `files` keeps the PDF where every app node reads it, in the signing transaction. */
-export type IssueDeps = { config: Pick<AppConfig, 'varDir' | 'signingKeyFile' | 'publicUrl'>; results: JobResultsService; readers: IssueReaders; files: FileStore };
+export type IssueDeps = {
+  config: Pick<AppConfig, 'varDir' | 'signingKeyFile' | 'publicUrl'>;
+  results: JobResultsService;
+  readers: IssueReaders;
+  files: FileStore;
+};
 
 /** The readers over one data source, for code run outside Nest (the demo seed). */
 export function issueReadersOver(dataSource: DataSource): IssueReaders {
