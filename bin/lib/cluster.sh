@@ -463,13 +463,18 @@ cluster_start() {
 
   # Watch: say once when a part stops by itself (the others keep serving); Ctrl-C or cluster stop ends all.
   local -A gone=()
-  local name
+  local name pid log
   while [ "$stopping" = 0 ]; do
-    for name in haproxy redis $(seq -f 'node-%g' 1 "$nodes"); do
-      if [ -z "${gone[$name]:-}" ] && ! cl_pid_alive "$(cl_pid "$name")"; then
+    for name in primary replica haproxy redis $(seq -f 'node-%g' 1 "$nodes"); do
+      case "$name" in
+        primary) pid="$(cat "$DB_PID" 2>/dev/null || true)"; log="$DB_LOG" ;;
+        replica) pid="$(cat "$REPLICA_PID" 2>/dev/null || true)"; log="$CL_LOGS/replica.log" ;;
+        *) pid="$(cl_pid "$name")"; log="$CL_LOGS/$name.log" ;;
+      esac
+      if [ -z "${gone[$name]:-}" ] && ! cl_pid_alive "$pid"; then
         gone[$name]=1
-        say "$name has stopped by itself; the last lines of its log ($CL_LOGS/$name.log):" >&2
-        tail -5 "$CL_LOGS/$name.log" >&2 || true
+        say "$name has stopped by itself (the rest keeps running; Ctrl-C stops it all); the last lines of $log:" >&2
+        tail -5 "$log" >&2 || true
       fi
     done
     sleep 2 &
