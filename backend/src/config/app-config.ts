@@ -15,7 +15,11 @@ export type AppConfig = {
   publicUrl: string;
   varDir: string;
   frontendDist: string;
-  db: { host: string; port: number; name: string; user: string; password: string };
+  /**
+   * The primary, and the replica for reads when KC_DB_REPLICA_HOST is set (same user, password and database;
+   * port KC_DB_REPLICA_PORT, default 3318); null: every query goes to the primary.
+   */
+  db: { host: string; port: number; name: string; user: string; password: string; replica: { host: string; port: number } | null };
   jwtSecret: string;
   jwtTtlSeconds: number;
   adminPassword: string | null;
@@ -33,6 +37,8 @@ export type AppConfig = {
   cluster: { redisUrl: string } | null;
   /** The certificate signing key's PEM file when given (KC_SIGNING_KEY_FILE); null: var/keys, made on first use. */
   signingKeyFile: string | null;
+  /** This node's name among several (KC_NODE_NAME); null when unset. */
+  nodeName: string | null;
 };
 
 const here = dirname(fileURLToPath(import.meta.url));
@@ -95,6 +101,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
       name: v.KC_DB_NAME ?? 'kilocycle',
       user: v.KC_DB_USER ?? 'kilocycle',
       password: dbPassword,
+      replica: v.KC_DB_REPLICA_HOST ? { host: v.KC_DB_REPLICA_HOST, port: v.KC_DB_REPLICA_PORT ?? 3318 } : null,
     },
     jwtSecret: v.KC_JWT_SECRET ?? (v.KC_JWT_SECRET_FILE ? givenSecret(v.KC_JWT_SECRET_FILE) : secretFromFile(varDir, 'jwt-secret')),
     jwtTtlSeconds: v.KC_JWT_TTL ?? 8 * 3600,
@@ -105,6 +112,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     trustedProxies: v.KC_TRUSTED_PROXIES ?? [],
     cluster: v.KC_REDIS_URL ? { redisUrl: v.KC_REDIS_URL } : null,
     signingKeyFile: v.KC_SIGNING_KEY_FILE ? givenFile('KC_SIGNING_KEY_FILE', v.KC_SIGNING_KEY_FILE, 'a certificate signing key (PEM)') : null,
+    nodeName: v.KC_NODE_NAME ?? null,
   };
 }
 

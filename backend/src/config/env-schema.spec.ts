@@ -143,6 +143,46 @@ describe('the settings schema', () => {
     ]);
   });
 
+  describe('reads from a replica (KC_DB_REPLICA_HOST, KC_DB_REPLICA_PORT) and the node name (KC_NODE_NAME)', () => {
+    it('should take a replica host with its port, or port 3318 by default, and leave it off when unset', () => {
+      expect(loadConfig({ ...SECRET, KC_DB_REPLICA_HOST: 'db-replica.internal', KC_DB_REPLICA_PORT: '3400' }).db.replica).toEqual({
+        host: 'db-replica.internal',
+        port: 3400,
+      });
+      expect(loadConfig({ ...SECRET, KC_DB_REPLICA_HOST: '10.0.0.12' }).db.replica).toEqual({ host: '10.0.0.12', port: 3318 });
+      // The port alone (bin/kilocycle cluster reads it to start the replica) turns nothing on.
+      expect(loadConfig({ ...SECRET, KC_DB_REPLICA_PORT: '3418' }).db.replica).toBeNull();
+      expect(loadConfig({ ...SECRET, KC_NODE_NAME: 'node-2' }).nodeName).toBe('node-2');
+      expect(loadConfig(SECRET).nodeName).toBeNull();
+    });
+
+    it('should refuse a replica host that is not a host, a port out of range, and a node name with other characters', () => {
+      const { problems } = checkEnvironment({ KC_DB_REPLICA_HOST: 'replica host!', KC_DB_REPLICA_PORT: '70000', KC_NODE_NAME: 'node 1' });
+      expect(problems).toEqual([
+        { key: 'KC_DB_REPLICA_HOST', value: 'replica host!', must: 'be a host name or an IP address' },
+        { key: 'KC_DB_REPLICA_PORT', value: '70000', must: 'be a whole number from 1 to 65535' },
+        { key: 'KC_NODE_NAME', value: 'node 1', must: 'be a node name: 1 to 40 letters, digits, - or _' },
+      ]);
+      for (const bad of ['0', '3318.5', '0xCF6'])
+        expect(checkEnvironment({ KC_DB_REPLICA_PORT: bad }).problems.map((p) => p.key)).toEqual(['KC_DB_REPLICA_PORT']);
+      for (const bad of ['a'.repeat(41), 'node/1', 'nœud', 'node.1'])
+        expect(checkEnvironment({ KC_NODE_NAME: bad }).problems.map((p) => p.key)).toEqual(['KC_NODE_NAME']);
+      expect(checkEnvironment({ KC_NODE_NAME: 'a'.repeat(40) }).problems).toEqual([]);
+    });
+
+    it('should refuse a replica that is the primary itself', () => {
+      const { problems } = checkEnvironment({ KC_DB_REPLICA_HOST: '127.0.0.1', KC_DB_REPLICA_PORT: '3317' });
+      expect(problems.map((p) => [p.key, p.value])).toEqual([['KC_DB_REPLICA_HOST', '127.0.0.1:3317']]);
+      expect(problems[0]!.must).toMatch(/name a replica, not the primary itself/);
+      expect(checkEnvironment({ KC_DB_HOST: 'db1', KC_DB_PORT: '3306', KC_DB_REPLICA_HOST: 'db1', KC_DB_REPLICA_PORT: '3306' }).problems).toHaveLength(1);
+      expect(checkEnvironment({ KC_DB_HOST: 'db1', KC_DB_PORT: '3306', KC_DB_REPLICA_HOST: 'db2', KC_DB_REPLICA_PORT: '3306' }).problems).toEqual([]);
+    });
+
+    it('should not warn about KC_REDIS_PORT, which bin/kilocycle cluster reads', () => {
+      expect(checkEnvironment({ KC_REDIS_PORT: '6380' }).warnings).toEqual([]);
+    });
+  });
+
   describe('cluster mode (KC_REDIS_URL)', () => {
     let dir: string;
     beforeAll(() => {

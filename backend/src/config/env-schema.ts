@@ -117,6 +117,11 @@ export class EnvironmentVariables {
   @IsOptional() @Matches(/^[A-Za-z0-9_]{1,64}$/, { message: 'a database name: 1 to 64 letters, digits or _' }) KC_DB_NAME?: string;
   @IsOptional() @Matches(/^[^\s'"`\\]{1,80}$/, { message: 'a database user name: 1 to 80 characters, no spaces or quotes' }) KC_DB_USER?: string;
   @IsOptional() @IsString() KC_DB_PASSWORD?: string;
+  /** A MariaDB replica of the primary for reads (same user, password and database); unset: every query goes to the primary. */
+  @IsOptional() @IsHost() KC_DB_REPLICA_HOST?: string;
+  @Port() KC_DB_REPLICA_PORT?: number;
+  /** This node's name in a cluster (logs, health details); bin/kilocycle cluster sets node-1, node-2 … */
+  @IsOptional() @Matches(/^[A-Za-z0-9_-]{1,40}$/, { message: 'a node name: 1 to 40 letters, digits, - or _' }) KC_NODE_NAME?: string;
 
   @IsOptional() @IsString() @MinLength(1) KC_JWT_SECRET?: string;
   @IsOptional() @IsString() @MinLength(1) KC_JWT_SECRET_FILE?: string;
@@ -190,6 +195,7 @@ export const TOOLING_KEYS: readonly string[] = [
   'KC_DB_ROOT_SOCKET',
   'KC_E2E_SCREENSHOTS',
   'KC_E2E_URL',
+  'KC_REDIS_PORT',
   'KC_SCALE_READINGS',
   'KC_SCALE_REUSE',
   'KC_SUITES',
@@ -249,6 +255,17 @@ export function checkEnvironment(env: Record<string, unknown>): EnvironmentCheck
       problems.push({ key: 'KC_SIGNING_KEY_FILE', value: '', must: `be set when KC_REDIS_URL is: ${SHARED}` });
     }
   }
+  // A replica that is the primary itself would take reads "off" the primary and add nothing.
+  if (values.KC_DB_REPLICA_HOST !== undefined && !has('KC_DB_REPLICA_HOST') && !has('KC_DB_REPLICA_PORT') && !has('KC_DB_HOST') && !has('KC_DB_PORT')) {
+    const sameHost = values.KC_DB_REPLICA_HOST === (values.KC_DB_HOST ?? '127.0.0.1');
+    if (sameHost && (values.KC_DB_REPLICA_PORT ?? 3318) === (values.KC_DB_PORT ?? 3317)) {
+      problems.push({
+        key: 'KC_DB_REPLICA_HOST',
+        value: `${values.KC_DB_REPLICA_HOST}:${values.KC_DB_REPLICA_PORT ?? 3318}`,
+        must: "name a replica, not the primary itself (KC_DB_HOST and KC_DB_PORT): give the replica's own host or KC_DB_REPLICA_PORT",
+      });
+    }
+  }
   problems.sort((a, b) => a.key.localeCompare(b.key));
   return { values, problems, warnings };
 }
@@ -266,6 +283,9 @@ const KNOWN_KEYS: readonly string[] = [
   'KC_DB_NAME',
   'KC_DB_USER',
   'KC_DB_PASSWORD',
+  'KC_DB_REPLICA_HOST',
+  'KC_DB_REPLICA_PORT',
+  'KC_NODE_NAME',
   'KC_JWT_SECRET',
   'KC_JWT_SECRET_FILE',
   'KC_SIGNING_KEY_FILE',

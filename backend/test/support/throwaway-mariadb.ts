@@ -4,12 +4,17 @@ import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 
+/** Server options added to the usual ones (a binlog, a server id …), and whether init makes the app's database and user. */
+export type ThrowawayOptions = { args?: string[]; appDatabase?: boolean };
+
 /** A second, private MariaDB that a test may stop and start at will (the shared one stays up). */
 export class ThrowawayMariaDb {
   readonly dir = mkdtempSync(join(tmpdir(), 'kc-mariadb-'));
   readonly socket = join(this.dir, 'mysqld.sock');
   port = 0;
   private process: ChildProcess | null = null;
+
+  constructor(private readonly options: ThrowawayOptions = {}) {}
 
   async init(): Promise<void> {
     this.port = await freePort();
@@ -19,6 +24,7 @@ export class ThrowawayMariaDb {
       { stdio: 'ignore' },
     );
     await this.start();
+    if (this.options.appDatabase === false) return;
     this.sql("CREATE DATABASE kc; CREATE USER 'kc'@'127.0.0.1' IDENTIFIED BY 'kc-test-pw'; GRANT ALL ON kc.* TO 'kc'@'127.0.0.1';");
   }
 
@@ -36,6 +42,7 @@ export class ThrowawayMariaDb {
         '--user=root',
         '--skip-name-resolve',
         '--innodb-buffer-pool-size=32M',
+        ...(this.options.args ?? []),
       ],
       { stdio: 'ignore' },
     );
@@ -62,6 +69,23 @@ export class ThrowawayMariaDb {
 
   sql(statements: string): void {
     execFileSync('mariadb', ['--no-defaults', `--socket=${this.socket}`, '-uroot', '-e', statements]);
+  }
+
+  /** The first column of the first row of a query's answer, as text ('' when there is none). */
+  value(statement: string): string {
+    return execFileSync('mariadb', ['--no-defaults', `--socket=${this.socket}`, '-uroot', '-N', '-B', '-e', statement], { encoding: 'utf8' })
+      .split('\n')[0]!
+      .split('\t')[0]!;
+  }
+
+  /** A row of SHOW … \G-style status as name → value (e.g. SHOW SLAVE STATUS). */
+  row(statement: string): Record<string, string> {
+    const [head = '', first = ''] = execFileSync('mariadb', ['--no-defaults', `--socket=${this.socket}`, '-uroot', '-B', '-e', statement], {
+      encoding: 'utf8',
+    }).split('\n');
+    const names = head.split('\t');
+    const values = first.split('\t');
+    return Object.fromEntries(names.map((name, i) => [name, values[i] ?? '']));
   }
 
   async destroy(): Promise<void> {
