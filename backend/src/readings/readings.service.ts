@@ -11,6 +11,7 @@ import { assertMayWriteRun } from '../shared/run-write-guard.js';
 import { sortColumn } from '../shared/page-query.js';
 import type { ListReadingsQueryDto } from './dto/readings.dto.js';
 import { AUTHOR_COLUMNS, AUTHOR_JOINS, ReadingsWriter, toReadingView, type RunWriteContext } from './readings-writer.service.js';
+import { replicaQuery } from '../shared/replica-read.js';
 
 const SORTABLE = { seq: 'r.seq', t: 'r.t_s', dial: 'r.dial', frequency: 'r.frequency_hz', id: 'r.id' };
 const READING_KEYS = ['seq', 'dial', 'frequency', 't', 'aux', 'confirmed'];
@@ -56,7 +57,8 @@ export class ReadingsService {
     const order = column === 'r.seq' || column === 'r.id' ? `${column} ${flip(direction)}` : `${column} ${flip(direction)}, r.id ${flip(direction)}`;
     const exclusionJoin = filter === '' ? '' : ' LEFT JOIN reading_exclusions x ON x.reading_id = r.id';
     // Deferred join: the page's ids come from the (run_id, seq) index alone; only those rows are read whole.
-    const rows: Array<Record<string, unknown>> = await this.dataSource.query(
+    const rows = await replicaQuery<Array<Record<string, unknown>>>(
+      this.dataSource,
       `SELECT r.id, r.seq, r.t_s, r.dial, r.frequency_hz, r.aux, r.source, r.received_at, x.reason AS excluded_reason, ${AUTHOR_COLUMNS}
          FROM (SELECT r.id FROM readings r${exclusionJoin} WHERE r.run_id = ?${filter} ORDER BY ${order} LIMIT ? OFFSET ?) page
          JOIN readings r ON r.id = page.id

@@ -3,6 +3,7 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import type { DataSource, EntityManager } from 'typeorm';
 import type { ReadingSource } from '@kilocycle/common/types';
 import { NewestReadingSource, type NewestReading } from '../shared/newest-reading.js';
+import { replicaQuery } from '../shared/replica-read.js';
 
 /** One row of a streamed query, as the driver gives it (rowsAsArray). */
 export type StreamedCell = number | string | Date | null;
@@ -51,7 +52,8 @@ export class RunReadingsReader extends NewestReadingSource {
 
   /** The seqs of the run's excluded readings. */
   async excludedSeqs(runId: number): Promise<Set<number>> {
-    const rows: Array<{ seq: number }> = await this.dataSource.query(
+    const rows = await replicaQuery<Array<{ seq: number }>>(
+      this.dataSource,
       'SELECT r.seq FROM reading_exclusions x JOIN readings r ON r.id = x.reading_id WHERE x.run_id = ?',
       [runId],
     );
@@ -115,7 +117,8 @@ export class RunReadingsReader extends NewestReadingSource {
     onRow: (row: StreamedCell[]) => void,
     onFlow?: (flow: StreamFlow) => void,
   ): Promise<void> {
-    const runner = this.dataSource.createQueryRunner();
+    // On the replica when there is one (the analysis and the export read whole runs).
+    const runner = this.dataSource.createQueryRunner('slave');
     try {
       const connection = (await runner.connect()) as RawConnection;
       onFlow?.(connection);

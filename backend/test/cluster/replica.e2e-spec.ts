@@ -73,6 +73,25 @@ describe('reads from a MariaDB replica (e2e, throwaway primary and GTID replica)
     }
   });
 
+  it("should read a run's readings and its analysis from the replica", async () => {
+    const runId = Number(pair.primary.value("SELECT id FROM kc.runs WHERE kind = 'warmup' AND reading_count > 100 ORDER BY id LIMIT 1"));
+    const count = Number(pair.primary.value(`SELECT reading_count FROM kc.runs WHERE id = ${runId}`));
+    const last = pair.primary.row(`SELECT seq, t_s, frequency_hz FROM kc.readings WHERE run_id = ${runId} ORDER BY seq DESC LIMIT 1`);
+    const [lastSeq, lastT, lastF] = [Number(last.seq), Number(last.t_s), Number(last.frequency_hz)];
+    // Readings are never changed or removed (a trigger says so), so one more is written on the replica alone: only a read
+    // there sees it. It stays there; no later test reads this run.
+    const frequency = lastF + 0.125;
+    pair.replica.sql(
+      `INSERT INTO kc.readings (run_id, seq, t_s, dial, frequency_hz, aux, source) VALUES (${runId}, ${lastSeq + 1}, ${lastT + 1}, NULL, ${frequency}, NULL, 'manual')`,
+    );
+    const page = await t.http.get(`/api/runs/${runId}/readings?sort=-seq&pageSize=1`).set(as('tech'));
+    expect(page.body.items[0]).toMatchObject({ seq: lastSeq + 1, frequency });
+    const analysis = await t.http.get(`/api/runs/${runId}/analysis`).set(as('tech'));
+    expect(analysis.status).toBe(200);
+    expect(analysis.body.readingCount).toBe(count + 1);
+    expect(Number(pair.primary.value(`SELECT COUNT(*) FROM kc.readings WHERE run_id = ${runId}`))).toBe(count);
+  });
+
   it('should write to the primary, and answer a write with what was written (read after write)', async () => {
     const created = await t.http.post('/api/instruments').set(as('tech')).send(newInstrument('RPL-1'));
     expect(created.status).toBe(201);
