@@ -185,12 +185,15 @@ export class EnvironmentVariables {
 
 /** KC_* names that belong to the tooling (test runner, benchmarks, browser tests), not to the app. */
 export const TOOLING_KEYS: readonly string[] = [
+  'KC_BENCH_CLUSTER_PORT',
+  'KC_BENCH_CLUSTER_READINGS',
   'KC_BENCH_DB',
   'KC_BENCH_KEEP',
   'KC_BENCH_ROUNDS',
   'KC_BENCH_SERVER_FLAGS',
   'KC_BENCH_SKIP_LARGE',
   'KC_CHROMIUM',
+  'KC_CLUSTER_TEST_PORT',
   'KC_DB_BUFFER_POOL',
   'KC_DB_ROOT_SOCKET',
   'KC_E2E_SCREENSHOTS',
