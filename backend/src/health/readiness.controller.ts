@@ -1,4 +1,4 @@
-import { Controller, Get } from '@nestjs/common';
+import { Controller, Get, Inject } from '@nestjs/common';
 import { ApiTags } from '@nestjs/swagger';
 import {
   HealthCheck,
@@ -9,6 +9,7 @@ import {
   type HealthIndicatorFunction,
 } from '@nestjs/terminus';
 import { SharedRedis } from '../cluster/cluster.module.js';
+import { APP_CONFIG, type AppConfig } from '../config/config.module.js';
 import { Public } from '../shared/decorators.js';
 
 /**
@@ -25,6 +26,7 @@ export class ReadinessController {
     private readonly database: TypeOrmHealthIndicator,
     private readonly indicators: HealthIndicatorService,
     private readonly redis: SharedRedis,
+    @Inject(APP_CONFIG) private readonly config: AppConfig,
   ) {}
 
   @Public()
@@ -39,6 +41,8 @@ export class ReadinessController {
   @HealthCheck()
   ready(): Promise<HealthCheckResult> {
     const checks: HealthIndicatorFunction[] = [() => this.database.pingCheck('database', { timeout: 3000 })];
+    // Which node answered (KC_NODE_NAME), for whoever reads the balancer's checks.
+    if (this.config.nodeName) checks.push(() => this.indicators.check('node').up({ name: this.config.nodeName }));
     if (this.redis.enabled) {
       checks.push(async () => {
         const redis = this.indicators.check('redis');

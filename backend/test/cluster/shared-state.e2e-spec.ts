@@ -38,8 +38,8 @@ describe('two app nodes sharing Redis (e2e, MariaDB + redis-server)', () => {
     };
     // Each node with a var directory of its own, empty: nothing a node needs may live only there.
     varDirs = [mkdtempSync(join(tmpdir(), 'kc-node-a-')), mkdtempSync(join(tmpdir(), 'kc-node-b-'))];
-    nodeA = await appWith({ ...clusterEnv, KC_VAR_DIR: varDirs[0]! }, true);
-    nodeB = await appWith({ ...clusterEnv, KC_VAR_DIR: varDirs[1]! }, false);
+    nodeA = await appWith({ ...clusterEnv, KC_VAR_DIR: varDirs[0]!, KC_NODE_NAME: 'node-a' }, true);
+    nodeB = await appWith({ ...clusterEnv, KC_VAR_DIR: varDirs[1]!, KC_NODE_NAME: 'node-b' }, false);
     urlA = await listen(nodeA);
     urlB = await listen(nodeB);
   });
@@ -139,6 +139,12 @@ describe('two app nodes sharing Redis (e2e, MariaDB + redis-server)', () => {
   it('should report Redis in readiness: 503 on both nodes while it is gone, 200 once it is back', async () => {
     for (const node of [nodeA, nodeB]) {
       expect((await node.http.get('/api/health/ready')).body).toMatchObject({ status: 'ok', info: { database: { status: 'up' }, redis: { status: 'up' } } });
+    }
+    for (const [node, name] of [
+      [nodeA, 'node-a'],
+      [nodeB, 'node-b'],
+    ] as const) {
+      expect((await node.http.get('/api/health/ready')).body.info.node).toEqual({ status: 'up', name });
     }
     const bench = await createBench(nodeA.dataSource);
     const run = await createRun(nodeA.dataSource, { organizationId: await organizationId(nodeA.dataSource, DEMO_CUSTOMERS.saltmarsh), benchId: bench.benchId });
