@@ -11,6 +11,7 @@ import { connect, createBench, createRun, listen, organizationId, request, type 
 import { appWith } from '../support/app-with.js';
 import { startPrivateRedis, type PrivateRedis } from '../support/private-redis.js';
 import { DEMO, tokenFor, type TestApp } from '../support/test-app.js';
+import { binary } from '../support/binary-body.js';
 
 describe('two app nodes sharing Redis (e2e, MariaDB + redis-server)', () => {
   let redis: PrivateRedis;
@@ -121,15 +122,7 @@ describe('two app nodes sharing Redis (e2e, MariaDB + redis-server)', () => {
       .slice(0, 16);
     const [row] = await nodeA.dataSource.query('SELECT key_id FROM certificates WHERE id = ?', [signed.body.id]);
     expect(row.key_id).toBe(keyId);
-    const pdf = await nodeB.http
-      .get(`/api/certificates/${signed.body.id}/pdf`)
-      .set(lead)
-      .buffer(true)
-      .parse((res, cb) => {
-        const chunks: Buffer[] = [];
-        res.on('data', (c: Buffer) => chunks.push(c));
-        res.on('end', () => cb(null, Buffer.concat(chunks)));
-      });
+    const pdf = await binary(nodeB.http.get(`/api/certificates/${signed.body.id}/pdf`).set(lead));
     expect(pdf.status).toBe(200);
     const check = await nodeB.http.post(`/api/public/certificates/${signed.body.number}/check`).set('Content-Type', 'application/pdf').send(pdf.body);
     expect(check.body).toMatchObject({ match: true, signatureValid: true });

@@ -18,19 +18,12 @@ import { MIGRATIONS } from '../../src/database/migrations/index.js';
 import { typeormOptions } from '../../src/database/typeorm-options.js';
 import { StoredFile } from '../../src/storage/stored-file.entity.js';
 import { createTestApp, DEMO, tokenFor, type TestApp } from '../support/test-app.js';
+import { binary } from '../support/binary-body.js';
 
 /** 1.5 MiB: two parts in the file store. */
 const PHOTO = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), randomBytes(1.5 * 1024 * 1024)]);
 const NOTE = Buffer.from('Owner reports the dial lamp flickers on range C.\n');
 const sha256 = (b: Buffer) => createHash('sha256').update(b).digest('hex');
-
-function binary(req: ReturnType<TestApp['http']['get']>) {
-  return req.buffer(true).parse((res, cb) => {
-    const chunks: Buffer[] = [];
-    res.on('data', (c: Buffer) => chunks.push(c));
-    res.on('end', () => cb(null, Buffer.concat(chunks)));
-  });
-}
 
 async function columns(ds: DataSource, table: string): Promise<string[]> {
   return (await ds.query(`SHOW COLUMNS FROM ${table}`)).map((c: { Field: string }) => c.Field);

@@ -11,18 +11,11 @@ process.env.KC_VAR_DIR = nodeA;
 process.env.KC_JWT_SECRET = randomBytes(32).toString('hex');
 
 import { createTestApp, DEMO, tokenFor, type TestApp } from '../support/test-app.js';
+import { binary } from '../support/binary-body.js';
 
 /** A PNG of 2.5 MiB: three parts in the file store (1 MiB each at most). */
 const PHOTO = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), randomBytes(2.5 * 1024 * 1024)]);
 const sha256 = (b: Buffer) => createHash('sha256').update(b).digest('hex');
-
-function binary(req: ReturnType<TestApp['http']['get']>) {
-  return req.buffer(true).parse((res, cb) => {
-    const chunks: Buffer[] = [];
-    res.on('data', (c: Buffer) => chunks.push(c));
-    res.on('end', () => cb(null, Buffer.concat(chunks)));
-  });
-}
 
 /** Every file under a var directory, relative to it. */
 function filesUnder(dir: string): string[] {
