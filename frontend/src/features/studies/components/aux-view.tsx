@@ -52,7 +52,7 @@ export function AuxView({ kind, analysis, problem, empty = null, points, skipAni
         },
       ];
   return (
-    <Box sx={{ display: 'grid', gridTemplateColumns: { xs: '1fr', lg: '2fr 1fr' }, gap: 2, alignItems: 'start' }}>
+    <Box sx={{ display: 'grid', gridTemplateColumns: { xs: 'minmax(0, 1fr)', lg: 'minmax(0, 2fr) minmax(0, 1fr)' }, gap: 2, alignItems: 'start' }}>
       <Paper variant="outlined" sx={{ p: 2 }}>
         <Typography variant="h3" component="h2" sx={{ mb: 1 }}>
           {supply ? 'Frequency against supply voltage' : 'Frequency, key up and key down'}

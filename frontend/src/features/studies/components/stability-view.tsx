@@ -88,7 +88,7 @@ export function StabilityView({ analysis, problem, empty = null, skipAnimation }
 
   const gaps = analysis.gaps;
   return (
-    <Box sx={{ display: 'grid', gridTemplateColumns: { xs: '1fr', lg: '2fr 1fr' }, gap: 2, alignItems: 'start' }}>
+    <Box sx={{ display: 'grid', gridTemplateColumns: { xs: 'minmax(0, 1fr)', lg: 'minmax(0, 2fr) minmax(0, 1fr)' }, gap: 2, alignItems: 'start' }}>
       <Paper variant="outlined" sx={{ p: 2 }}>
         <Typography variant="h3" component="h2" sx={{ mb: 1 }}>
           Allan deviation

@@ -119,7 +119,7 @@ export function WarmupView({ analysis, problem, empty = null, latest, skipAnimat
   const lastWindow = analysis?.drift.windows[analysis.drift.windows.length - 1] ?? null;
 
   return (
-    <Box sx={{ display: 'grid', gridTemplateColumns: { xs: '1fr', lg: '2fr 1fr' }, gap: 2, alignItems: 'start' }}>
+    <Box sx={{ display: 'grid', gridTemplateColumns: { xs: 'minmax(0, 1fr)', lg: 'minmax(0, 2fr) minmax(0, 1fr)' }, gap: 2, alignItems: 'start' }}>
       <Paper variant="outlined" sx={{ p: 2 }}>
         <Box sx={{ display: 'flex', alignItems: 'center', gap: 2, mb: 1 }}>
           <Typography variant="h3" component="h2" sx={{ flex: 1 }}>
@@ -246,7 +246,7 @@ export function WarmupView({ analysis, problem, empty = null, latest, skipAnimat
             Drift rate by window
           </Typography>
           <Box sx={{ maxHeight: 260, overflow: 'auto' }}>
-            <Table size="small" stickyHeader aria-label="Drift rate by window">
+            <Table size="small" stickyHeader aria-label="Drift rate by window" sx={{ '& td, & th': { px: { xs: 1, sm: 2 } } }}>
               <TableHead>
                 <TableRow>
                   <TableCell>From</TableCell>
