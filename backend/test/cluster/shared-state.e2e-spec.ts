@@ -1,5 +1,5 @@
-import { createHash, createPrivateKey, createPublicKey, generateKeyPairSync, randomBytes } from 'node:crypto';
-import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { createHash, createPrivateKey, createPublicKey } from 'node:crypto';
+import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Socket } from 'socket.io-client';
@@ -8,14 +8,14 @@ import { RedisUnreachableError } from '../../src/cluster/cluster.module.js';
 import { APP_CONFIG, loadConfig, type AppConfig } from '../../src/config/config.module.js';
 import { DEMO_CUSTOMERS } from '../../src/seed/demo-seed.js';
 import { connect, createBench, createRun, listen, organizationId, request, type RunFixture } from '../ingest/ingest-fixtures.js';
-import { appWith } from '../support/app-with.js';
+import { appWith, clusterSettings } from '../support/app-with.js';
 import { startPrivateRedis, type PrivateRedis } from '../support/private-redis.js';
 import { DEMO, tokenFor, type TestApp } from '../support/test-app.js';
 import { binary } from '../support/binary-body.js';
 
 describe('two app nodes sharing Redis (e2e, MariaDB + redis-server)', () => {
   let redis: PrivateRedis;
-  let keys: string;
+  let shared: ReturnType<typeof clusterSettings> | undefined;
   let varDirs: string[] = [];
   let clusterEnv: Record<string, string>;
   let nodeA: TestApp;
@@ -26,17 +26,9 @@ describe('two app nodes sharing Redis (e2e, MariaDB + redis-server)', () => {
 
   beforeAll(async () => {
     redis = await startPrivateRedis();
-    // The files every node shares (the session secret and the certificate key): made here, as an operator would.
-    keys = mkdtempSync(join(tmpdir(), 'kc-cluster-keys-'));
-    writeFileSync(join(keys, 'jwt-secret'), randomBytes(32).toString('hex'));
-    writeFileSync(join(keys, 'signing.key.pem'), generateKeyPairSync('ed25519').privateKey.export({ type: 'pkcs8', format: 'pem' }));
-    clusterEnv = {
-      KC_REDIS_URL: redis.url,
-      KC_JWT_SECRET_FILE: join(keys, 'jwt-secret'),
-      KC_SIGNING_KEY_FILE: join(keys, 'signing.key.pem'),
-      // The database password as this machine has it (the nodes' own var directories do not hold it).
-      KC_DB_PASSWORD: loadConfig().db.password,
-    };
+    shared = clusterSettings(redis.url);
+    // The database password as this machine has it (the nodes' own var directories do not hold it).
+    clusterEnv = { ...shared.env, KC_DB_PASSWORD: loadConfig().db.password };
     // Each node with a var directory of its own, empty: nothing a node needs may live only there.
     varDirs = [mkdtempSync(join(tmpdir(), 'kc-node-a-')), mkdtempSync(join(tmpdir(), 'kc-node-b-'))];
     nodeA = await appWith({ ...clusterEnv, KC_VAR_DIR: varDirs[0]!, KC_NODE_NAME: 'node-a' }, true);
@@ -52,7 +44,8 @@ describe('two app nodes sharing Redis (e2e, MariaDB + redis-server)', () => {
     await nodeA?.close();
     await nodeB?.close();
     await redis?.stop();
-    for (const dir of [keys, ...varDirs]) rmSync(dir, { recursive: true, force: true });
+    shared?.remove();
+    for (const dir of varDirs) rmSync(dir, { recursive: true, force: true });
   });
 
   it('should show a browser on node B the readings a bench streams into node A, within a second', async () => {
