@@ -34,6 +34,15 @@ function mockPort(path: string, answer?: (command: string) => string | null) {
   return { factory, device: () => port!.port! };
 }
 
+/** Waits until `done()` holds, checking every 10 ms; a loaded machine may take far longer than the readings' interval. */
+async function until(done: () => boolean, what: string, limitMs = 10_000): Promise<void> {
+  const deadline = Date.now() + limitMs;
+  while (!done()) {
+    if (Date.now() > deadline) throw new Error(`gave up waiting for ${what}`);
+    await new Promise((r) => setTimeout(r, 10));
+  }
+}
+
 describe('SerialSource', () => {
   afterEach(() => SerialPortMock.binding.reset());
 
@@ -42,10 +51,18 @@ describe('SerialSource', () => {
     const source = new SerialSource(parseSerialAddress('serial:/dev/ttyMOCK0?baud=9600'), { intervalMs: 100, timeoutMs: 500 }, factory);
     const got: Captured[] = [];
     const warnings: string[] = [];
+    let opened = false;
     const running = source.run((r) => got.push(r), { attach, warn: (m) => warnings.push(m) });
-    await new Promise((r) => setTimeout(r, 50));
+    await until(() => {
+      try {
+        opened = device().isOpen;
+      } catch {
+        opened = false;
+      }
+      return opened;
+    }, 'the port to open');
     device().emitData(Buffer.from('+7.05001234E+06\r\nF 7.05 MHz\r\n5500,7050100\r\ngarbage\r\n'));
-    await new Promise((r) => setTimeout(r, 50));
+    await until(() => warnings.some((w) => w.includes('garbage')), 'the last line to be read');
     source.stop();
     await running;
     expect(got).toEqual([{ frequency: 7_050_012.34 }, { dial: 5500, frequency: 7_050_100 }]);
@@ -58,7 +75,7 @@ describe('SerialSource', () => {
     const source = new SerialSource(parseSerialAddress('serial:/dev/ttyMOCK1?baud=4800&query=FETC?'), { intervalMs: 10, timeoutMs: 500, dial: 7050 }, factory);
     const got: Captured[] = [];
     const running = source.run((r) => got.push(r), { attach, warn: () => undefined });
-    await new Promise((r) => setTimeout(r, 120));
+    await until(() => got.length >= 3, 'three answers');
     source.stop();
     await running;
     expect(got.length).toBeGreaterThanOrEqual(3);
