@@ -14,3 +14,6 @@ export { ENGINEER_RUN_KINDS, runWriteRefusal } from './run-write-roles.js';
 export { runKindWords } from './run-kind-words.js';
 export { missingStandards } from './missing-standards.js';
 export { runRefusalReason } from './run-refusal-reason.js';
+export { BILLING_ROLES } from './billing-roles.js';
+export { certificateRelease, type ReleaseFacts } from './certificate-release.js';
+export { quoteTransitionRefusal } from './quote-transitions.js';

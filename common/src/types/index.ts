@@ -7,3 +7,4 @@ export * from './organizations.js';
 export * from './users.js';
 export * from './studies.js';
 export * from './captures.js';
+export * from './billing.js';

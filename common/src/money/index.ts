@@ -1,0 +1,10 @@
+export { divideRounded } from './divide-rounded.js';
+export { MONEY_LIMITS } from './money-limits.js';
+export { lineAmounts, type LineAmounts } from './line-amounts.js';
+export { documentTotals } from './document-totals.js';
+export { creditSplit } from './credit-split.js';
+export { invoiceBalance, issuedInvoiceStatus, type InvoiceMoney } from './invoice-balance.js';
+export { dueDate } from './due-date.js';
+export { currencyDigits } from './currency-digits.js';
+export { formatMoney } from './format-money.js';
+export { parseMoney } from './parse-money.js';
