@@ -58,7 +58,10 @@ export function resolveFactors(fn: string, factors: readonly number[] | undefine
   return factors.map((m) => {
     if (!(Number.isInteger(m) && m >= 1)) throw new MetrologyError('bad_argument', `${fn} requires whole averaging factors of 1 or more (got ${m})`);
     if (m > maxM) {
-      throw new MetrologyError('too_short', `${fn}: the run is too short for averaging factor ${m}; the longest these data allow is ${Math.max(Math.floor(maxM), 0)}`);
+      throw new MetrologyError(
+        'too_short',
+        `${fn}: the run is too short for averaging factor ${m}; the longest these data allow is ${Math.max(Math.floor(maxM), 0)}`,
+      );
     }
     return m;
   });

@@ -16,7 +16,14 @@ export function withGapsMarked(fn: string, values: ArrayLike<number>, gaps: GapR
   let previous = 0;
   let missing = 0;
   for (const gap of gaps) {
-    if (!(Number.isInteger(gap.index) && gap.index > previous - 1 && gap.index >= 1 && gap.index < values.length && Number.isInteger(gap.missing) && gap.missing >= 1)) {
+    if (!(
+      Number.isInteger(gap.index) &&
+      gap.index > previous - 1 &&
+      gap.index >= 1 &&
+      gap.index < values.length &&
+      Number.isInteger(gap.missing) &&
+      gap.missing >= 1
+    )) {
       throw new MetrologyError('bad_argument', `${fn} requires gaps in order, each before a reading (1 … ${values.length - 1}) with a whole missing count ≥ 1`);
     }
     previous = gap.index + 1;

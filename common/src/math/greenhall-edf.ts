@@ -92,7 +92,8 @@ export function greenhallEdf(estimator: EdfEstimator): number {
   const { d, m, phasePoints: N, overlapping, modified, noise } = estimator;
   const alpha = NOISE_ALPHA[noise];
   if (alpha === undefined) throw new MetrologyError('bad_argument', `${fn}: unknown noise type '${String(noise)}'`);
-  if (!(Number.isInteger(m) && m >= 1 && Number.isInteger(N))) throw new MetrologyError('bad_argument', `${fn} requires whole m ≥ 1 and N (got m = ${m}, N = ${N})`);
+  if (!(Number.isInteger(m) && m >= 1 && Number.isInteger(N)))
+    throw new MetrologyError('bad_argument', `${fn} requires whole m ≥ 1 and N (got m = ${m}, N = ${N})`);
   if (d !== 2 && d !== 3) throw new MetrologyError('bad_argument', `${fn} requires d = 2 or 3 (got ${String(d)})`);
   let F = modified ? 1 : m;
   const S = overlapping ? m : 1;

@@ -110,7 +110,11 @@ export function identifyNoise(x: ArrayLike<number>, m: number): NoiseIdentificat
   }
 
   if (points < B1_MIN_POINTS) {
-    return { status: 'too_short', points, message: `too short to identify the noise at m = ${m}: ${points - 1} averaged frequencies, at least ${B1_MIN_POINTS - 1} needed` };
+    return {
+      status: 'too_short',
+      points,
+      message: `too short to identify the noise at m = ${m}: ${points - 1} averaged frequencies, at least ${B1_MIN_POINTS - 1} needed`,
+    };
   }
   const n = points - 1;
   const y = new Float64Array(n);
