@@ -24,6 +24,10 @@ import { Standard } from '../standards/standard.entity.js';
 import { StoredFile } from '../storage/stored-file.entity.js';
 import { StandardVersionRow } from '../standards/standard-version.entity.js';
 import { User } from '../users/user.entity.js';
+import { CreditNote } from '../invoices/credit-note.entity.js';
+import { DocumentSequence } from '../invoices/document-sequence.entity.js';
+import { InvoiceLine } from '../invoices/invoice-line.entity.js';
+import { Invoice } from '../invoices/invoice.entity.js';
 
 /**
  * Every entity, for the stand-alone data source (CLI, seed, benchmarks). Nest modules register their
@@ -57,4 +61,8 @@ export const ENTITIES = [
   Attachment,
   CounterCaptureRow,
   CounterCaptureSample,
+  Invoice,
+  InvoiceLine,
+  CreditNote,
+  DocumentSequence,
 ];
