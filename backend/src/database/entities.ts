@@ -28,6 +28,7 @@ import { CreditNote } from '../invoices/credit-note.entity.js';
 import { DocumentSequence } from '../invoices/document-sequence.entity.js';
 import { InvoiceLine } from '../invoices/invoice-line.entity.js';
 import { Invoice } from '../invoices/invoice.entity.js';
+import { LedgerEntry } from '../invoices/ledger-entry.entity.js';
 
 /**
  * Every entity, for the stand-alone data source (CLI, seed, benchmarks). Nest modules register their
@@ -65,4 +66,5 @@ export const ENTITIES = [
   InvoiceLine,
   CreditNote,
   DocumentSequence,
+  LedgerEntry,
 ];

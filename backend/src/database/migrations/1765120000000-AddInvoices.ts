@@ -1,8 +1,9 @@
 import type { MigrationInterface, QueryRunner } from 'typeorm';
 
 /**
- * Invoices and credit notes (the invoices module): invoices with their lines, credit notes, and the gap-free
- * number sequences of both (one row each, locked by the issuing transaction).
+ * Invoices and credit notes (the invoices module): invoices with their lines, credit notes, the payments and refunds
+ * the ledger records against them, and the gap-free number sequences of both (one row each, locked by the issuing
+ * transaction).
  */
 export class AddInvoices1765120000000 implements MigrationInterface {
   name = 'AddInvoices1765120000000';
@@ -43,9 +44,17 @@ export class AddInvoices1765120000000 implements MigrationInterface {
         'CONSTRAINT `FK_credit_notes_organization` FOREIGN KEY (`organization_id`) REFERENCES `organizations` (`id`) ON DELETE RESTRICT ON UPDATE NO ACTION, ' +
         'CONSTRAINT `FK_credit_notes_issued_by` FOREIGN KEY (`issued_by`) REFERENCES `users` (`id`) ON DELETE RESTRICT ON UPDATE NO ACTION) ENGINE=InnoDB',
     );
+    await queryRunner.query(
+      'CREATE TABLE `invoice_ledger_entries` (`id` int NOT NULL AUTO_INCREMENT, `invoice_id` int NOT NULL, `organization_id` int NOT NULL, `kind` varchar(8) NOT NULL, ' +
+        '`amount_minor` bigint NOT NULL, `payment_id` int NULL, `at` datetime(3) NOT NULL, INDEX `IDX_invoice_ledger_entries_payment` (`payment_id`), ' +
+        'INDEX `IDX_invoice_ledger_entries_organization` (`organization_id`, `at`), PRIMARY KEY (`id`), ' +
+        'CONSTRAINT `FK_invoice_ledger_entries_invoice` FOREIGN KEY (`invoice_id`) REFERENCES `invoices` (`id`) ON DELETE RESTRICT ON UPDATE NO ACTION, ' +
+        'CONSTRAINT `FK_invoice_ledger_entries_organization` FOREIGN KEY (`organization_id`) REFERENCES `organizations` (`id`) ON DELETE RESTRICT ON UPDATE NO ACTION) ENGINE=InnoDB',
+    );
   }
 
   public async down(queryRunner: QueryRunner): Promise<void> {
+    await queryRunner.query('DROP TABLE `invoice_ledger_entries`');
     await queryRunner.query('DROP TABLE `credit_notes`');
     await queryRunner.query('DROP TABLE `invoice_lines`');
     await queryRunner.query('DROP TABLE `invoices`');
