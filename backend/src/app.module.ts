@@ -21,6 +21,8 @@ import { JobsModule } from './jobs/jobs.module.js';
 import { LiveModule } from './live/live.module.js';
 import { MailModule } from './mail/mail.module.js';
 import { OrganizationsModule } from './organizations/organizations.module.js';
+import { PricesModule } from './prices/prices.module.js';
+import { QuotesModule } from './quotes/quotes.module.js';
 import { ReadingsModule } from './readings/readings.module.js';
 import { RecallModule } from './recall/recall.module.js';
 import { ReviewsModule } from './reviews/reviews.module.js';
@@ -59,6 +61,8 @@ import { UsersModule } from './users/users.module.js';
     CertificatesModule,
     ReviewsModule,
     RecallModule,
+    PricesModule,
+    QuotesModule,
   ],
 })
 export class AppModule {}

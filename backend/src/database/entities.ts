@@ -17,6 +17,11 @@ import { MailMessage } from '../mail/mail-message.entity.js';
 import { RecallNotice } from '../recall/recall-notice.entity.js';
 import { JobReview } from '../reviews/job-review.entity.js';
 import { Organization } from '../organizations/organization.entity.js';
+import { CustomerTermsRow } from '../prices/customer-terms.entity.js';
+import { PriceItem } from '../prices/price-item.entity.js';
+import { TaxRate } from '../prices/tax-rate.entity.js';
+import { QuoteLine } from '../quotes/quote-line.entity.js';
+import { Quote } from '../quotes/quote.entity.js';
 import { ReadingExclusion } from '../readings/reading-exclusion.entity.js';
 import { Reading } from '../readings/reading.entity.js';
 import { Run } from '../runs/run.entity.js';
@@ -62,6 +67,11 @@ export const ENTITIES = [
   Attachment,
   CounterCaptureRow,
   CounterCaptureSample,
+  PriceItem,
+  TaxRate,
+  CustomerTermsRow,
+  Quote,
+  QuoteLine,
   Invoice,
   InvoiceLine,
   CreditNote,
