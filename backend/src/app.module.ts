@@ -16,6 +16,7 @@ import { ExportsModule } from './exports/exports.module.js';
 import { HealthModule } from './health/health.module.js';
 import { ImportsModule } from './imports/imports.module.js';
 import { IngestModule } from './ingest/ingest.module.js';
+import { InvoicesModule } from './invoices/invoices.module.js';
 import { InstrumentsModule } from './instruments/instruments.module.js';
 import { JobsModule } from './jobs/jobs.module.js';
 import { LiveModule } from './live/live.module.js';
@@ -63,6 +64,7 @@ import { UsersModule } from './users/users.module.js';
     RecallModule,
     PricesModule,
     QuotesModule,
+    InvoicesModule,
   ],
 })
 export class AppModule {}

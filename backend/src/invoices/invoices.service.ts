@@ -5,6 +5,7 @@ import type { CreditNote as CreditNoteView, Invoice as InvoiceView, ListResponse
 import { creditSplit, dueDate, formatMoney, issuedInvoiceStatus } from '@kilocycle/common/money';
 import { MetrologyError } from '@kilocycle/common/math';
 import { AuditService } from '../audit/audit.service.js';
+import { CertificateSettingsReader } from '../certificates/certificate-settings.reader.js';
 import { APP_CONFIG, type AppConfig } from '../config/config.module.js';
 import { JobScopeReader } from '../jobs/job-scope.reader.js';
 import { creditNoteMail, invoiceIssuedMail, MailService } from '../mail/mail.service.js';
@@ -64,6 +65,7 @@ export class InvoicesService {
     private readonly views: InvoiceViews,
     private readonly files: FileStore,
     private readonly mail: MailService,
+    private readonly settings: CertificateSettingsReader,
     terms: CustomerTermsReader,
     acceptedQuotes: AcceptedQuoteReader,
     proposed: ProposedLinesReader,
@@ -157,33 +159,7 @@ export class InvoicesService {
    * date and due date, the PDF stored, the audit event — one transaction. The customer is mailed after commit.
    */
   async issue(user: AuthUser, id: number, now = new Date()): Promise<InvoiceView> {
-    const { row, pdf } = await this.dataSource.transaction(async (manager) => {
-      const draft = await this.find(user, id, manager, true);
-      if (draft.status !== 'draft') throw new ConflictException(`invoice ${draft.number} is already issued`);
-      const terms = await this.sources.terms.termsFor(draft.organizationId, manager);
-      const lines = (await this.views.one(draft, manager)).lines;
-      if (lines.length === 0) throw new ConflictException('an invoice without lines cannot be issued: add at least one line');
-      let priced = await writeLines(manager, id, lines.map(asInput), terms);
-      const number = await takeDocumentNumber(manager, 'invoice');
-      const issueDate = todayIso(now);
-      const status = issuedInvoiceStatus(priced);
-      await manager.update(Invoice, { id }, { number, status, issuedAt: now, issuedById: user.id, dueDate: dueDate(issueDate, terms.netDays) });
-      priced = await manager.findOneOrFail(Invoice, { where: { id } });
-      const rendered = await this.render(priced, manager);
-      const stored = await this.files.put('invoice-pdf', rendered, manager);
-      await manager.update(Invoice, { id }, { pdfFileId: stored.id });
-      await this.audit.record(
-        {
-          actorId: user.id,
-          entity: 'invoice',
-          entityId: id,
-          action: 'issue',
-          changes: { number, grossMinor: priced.grossMinor, dueDate: priced.dueDate, paymentTerms: terms.paymentTerms, taxRateBasisPoints: priced.taxRateBasisPoints },
-        },
-        manager,
-      );
-      return { row: await manager.findOneOrFail(Invoice, { where: { id } }), pdf: rendered };
-    });
+    const { row, pdf } = await this.dataSource.transaction((manager) => this.issueWithin(manager, id, user.id, now));
     const view = await this.views.one(row, undefined, now);
     const parties = await this.parties(row.organizationId);
     if (parties.customer.contactEmail) {
@@ -204,6 +180,36 @@ export class InvoicesService {
       );
     }
     return view;
+  }
+
+  /** The issuing itself, in the caller's transaction (the route's, or the demo seed's): see issue(). */
+  async issueWithin(manager: EntityManager, id: number, actorId: number | null, now = new Date()): Promise<{ row: Invoice; pdf: Buffer }> {
+    const draft = await manager.findOne(Invoice, { where: { id }, lock: { mode: 'pessimistic_write' } });
+    if (!draft) throw new NotFoundException(`Invoice ${id} not found`);
+    if (draft.status !== 'draft') throw new ConflictException(`invoice ${draft.number} is already issued`);
+    const terms = await this.sources.terms.termsFor(draft.organizationId, manager);
+    const lines = (await this.views.one(draft, manager)).lines;
+    if (lines.length === 0) throw new ConflictException('an invoice without lines cannot be issued: add at least one line');
+    const priced = await writeLines(manager, id, lines.map(asInput), terms);
+    const number = await takeDocumentNumber(manager, 'invoice');
+    const status = issuedInvoiceStatus(priced);
+    const due = dueDate(todayIso(now), terms.netDays);
+    await manager.update(Invoice, { id }, { number, status, issuedAt: now, issuedById: actorId, dueDate: due });
+    const pdf = await this.render(await manager.findOneOrFail(Invoice, { where: { id } }), manager);
+    const stored = await this.files.put('invoice-pdf', pdf, manager);
+    await manager.update(Invoice, { id }, { pdfFileId: stored.id });
+    await this.audit.record(
+      {
+        actorId,
+        entity: 'invoice',
+        entityId: id,
+        action: 'issue',
+        changes: { number, grossMinor: priced.grossMinor, dueDate: due, paymentTerms: terms.paymentTerms, taxRateBasisPoints: priced.taxRateBasisPoints },
+        at: now,
+      },
+      manager,
+    );
+    return { row: await manager.findOneOrFail(Invoice, { where: { id } }), pdf };
   }
 
   /** A credit note against an issued invoice (its net and tax split in the invoice's proportion), with its PDF; mailed after commit. */
@@ -301,9 +307,13 @@ export class InvoicesService {
 
   /** The lab and the customer as printed on a document. */
   async parties(organizationId: number, manager?: EntityManager): Promise<BillingParties> {
-    const [lab, customer] = await Promise.all([this.organizations.lab(manager), this.organizations.byId(organizationId, manager)]);
+    const [lab, customer, settings] = await Promise.all([
+      this.organizations.lab(manager),
+      this.organizations.byId(organizationId, manager),
+      this.settings.read(manager),
+    ]);
     return {
-      lab: { name: lab?.name ?? 'Calibration laboratory', contactEmail: lab?.contactEmail ?? null },
+      lab: { name: lab?.name ?? 'Calibration laboratory', contactEmail: lab?.contactEmail ?? null, address: settings.labAddress },
       customer: { name: customer?.name ?? '', contactEmail: customer?.contactEmail ?? null },
     };
   }
