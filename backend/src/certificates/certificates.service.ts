@@ -53,7 +53,10 @@ export class CertificatesService {
   /** To a client, each certificate's release (held until its job's invoice is paid); the lab's staff are never held. */
   private async withReleases(user: Pick<AuthUser, 'role' | 'organizationId'>, views: CertificateView[]): Promise<CertificateView[]> {
     if (!this.billing || user.role !== 'client' || views.length === 0) return views;
-    const releases = await this.billing.releasesFor(user, views.map((v) => v.jobId));
+    const releases = await this.billing.releasesFor(
+      user,
+      views.map((v) => v.jobId),
+    );
     return views.map((v) => ({ ...v, release: releases.get(v.jobId) }));
   }
 

@@ -27,7 +27,11 @@ export async function writeLines(manager: EntityManager, invoiceId: number, inpu
   const lines = priceLines(inputs, tax.taxRateBasisPoints);
   const totals = totalsOf(lines);
   await manager.delete(InvoiceLine, { invoiceId });
-  if (lines.length > 0) await manager.insert(InvoiceLine, lines.map((l) => ({ ...l, invoiceId })));
+  if (lines.length > 0)
+    await manager.insert(
+      InvoiceLine,
+      lines.map((l) => ({ ...l, invoiceId })),
+    );
   await manager.update(
     Invoice,
     { id: invoiceId },

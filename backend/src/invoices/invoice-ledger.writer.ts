@@ -63,14 +63,22 @@ export class InvoiceLedger {
     manager: EntityManager,
     options: { paymentId?: number | null; actorId?: number | null; at?: Date } = {},
   ): Promise<LedgerResult> {
-    if (!Number.isSafeInteger(amountMinor) || amountMinor <= 0) throw new ConflictException(`a payment must be a whole number of minor units above zero (got ${amountMinor})`);
+    if (!Number.isSafeInteger(amountMinor) || amountMinor <= 0)
+      throw new ConflictException(`a payment must be a whole number of minor units above zero (got ${amountMinor})`);
     const row = await this.locked(invoiceId, manager);
     if (currency.toUpperCase() !== row.currency) throw new ConflictException(`invoice ${row.number} is in ${row.currency}, not ${currency.toUpperCase()}`);
     const at = options.at ?? new Date();
     const paidMinor = row.paidMinor + amountMinor;
     const status = issuedInvoiceStatus({ ...row, paidMinor });
     await manager.update(Invoice, { id: row.id }, { paidMinor, status });
-    await manager.insert(LedgerEntry, { invoiceId: row.id, organizationId: row.organizationId, kind: 'payment', amountMinor, paymentId: options.paymentId ?? null, at });
+    await manager.insert(LedgerEntry, {
+      invoiceId: row.id,
+      organizationId: row.organizationId,
+      kind: 'payment',
+      amountMinor,
+      paymentId: options.paymentId ?? null,
+      at,
+    });
     await this.audit.record(
       {
         actorId: options.actorId ?? null,
@@ -98,7 +106,8 @@ export class InvoiceLedger {
     manager: EntityManager,
     options: { actorId?: number | null; at?: Date } = {},
   ): Promise<CreditNoteView> {
-    if (!Number.isSafeInteger(amountMinor) || amountMinor <= 0) throw new ConflictException(`a refund must be a whole number of minor units above zero (got ${amountMinor})`);
+    if (!Number.isSafeInteger(amountMinor) || amountMinor <= 0)
+      throw new ConflictException(`a refund must be a whole number of minor units above zero (got ${amountMinor})`);
     const row = await this.locked(invoiceId, manager);
     const kept = row.paidMinor - row.refundedMinor;
     if (amountMinor > kept) throw new ConflictException(`invoice ${row.number}: a refund of ${amountMinor} is more than the ${kept} paid and not yet refunded`);
@@ -111,7 +120,11 @@ export class InvoiceLedger {
       manager,
     );
     // The credit note recomputes the state (credited and refunded both moved) and audits itself.
-    const { note, invoice } = await this.invoices.credit(manager, { ...row, refundedMinor }, { amountMinor, reason, paymentId, actorId: options.actorId ?? null, now: at });
+    const { note, invoice } = await this.invoices.credit(
+      manager,
+      { ...row, refundedMinor },
+      { amountMinor, reason, paymentId, actorId: options.actorId ?? null, now: at },
+    );
     return creditNoteView(note, invoice.number, null);
   }
 }

@@ -72,7 +72,14 @@ function linesTable(layout: Layout, lines: readonly BillingLine[], currency: str
   const doc = layout.doc;
   const rowHeight = 14;
   layout.ensure(rowHeight * 3);
-  drawRow(doc, LINE_COLUMNS.map((c) => c.title), doc.y + 2, 'bold', 7.5, HEADER_FILL);
+  drawRow(
+    doc,
+    LINE_COLUMNS.map((c) => c.title),
+    doc.y + 2,
+    'bold',
+    7.5,
+    HEADER_FILL,
+  );
   doc.y += rowHeight + 2;
   lines.forEach((line, i) => {
     layout.ensure(rowHeight + 2);
@@ -107,7 +114,10 @@ function totalsBlock(layout: Layout, rows: Array<[string, string]>, strongLast =
   rows.forEach(([label, amount], i) => {
     const strong = strongLast && i === rows.length - 1;
     const y = doc.y;
-    doc.font(strong ? 'bold' : 'sans').fontSize(strong ? 9.5 : 8.5).fillColor(strong ? INK : MUTED);
+    doc
+      .font(strong ? 'bold' : 'sans')
+      .fontSize(strong ? 9.5 : 8.5)
+      .fillColor(strong ? INK : MUTED);
     doc.text(label, x, y, { width: width - 100, lineBreak: false });
     doc.font(strong ? 'monoBold' : 'mono').fillColor(INK);
     doc.text(amount, x + width - 100, y, { width: 100, align: 'right', lineBreak: false });
@@ -119,15 +129,29 @@ function totalsBlock(layout: Layout, rows: Array<[string, string]>, strongLast =
 function title(layout: Layout, text: string, reference: string, subline: string, warning: string | null): void {
   const doc = layout.doc;
   doc.font('bold').fontSize(20).fillColor(INK).text(text, MARGIN.left, MARGIN.top, { width: CONTENT_WIDTH });
-  doc.font('mono').fontSize(10).fillColor(ACCENT).text(reference, MARGIN.left, doc.y + 2);
-  doc.font('sans').fontSize(8.5).fillColor(MUTED).text(subline, MARGIN.left, doc.y + 2);
-  if (warning) doc.font('bold').fontSize(8.5).fillColor(ALERT).text(warning, MARGIN.left, doc.y + 2, { width: CONTENT_WIDTH });
+  doc
+    .font('mono')
+    .fontSize(10)
+    .fillColor(ACCENT)
+    .text(reference, MARGIN.left, doc.y + 2);
+  doc
+    .font('sans')
+    .fontSize(8.5)
+    .fillColor(MUTED)
+    .text(subline, MARGIN.left, doc.y + 2);
+  if (warning)
+    doc
+      .font('bold')
+      .fontSize(8.5)
+      .fillColor(ALERT)
+      .text(warning, MARGIN.left, doc.y + 2, { width: CONTENT_WIDTH });
   doc.fillColor(INK);
   doc.moveDown(0.5);
 }
 
 function taxWords(invoice: { taxExempt: boolean; taxRegistration: string | null }, rateBasisPoints: number): string {
-  if (invoice.taxExempt) return `Exempt${invoice.taxRegistration ? ` (customer's tax registration ${printableLine(invoice.taxRegistration)})` : ''}: no tax charged`;
+  if (invoice.taxExempt)
+    return `Exempt${invoice.taxRegistration ? ` (customer's tax registration ${printableLine(invoice.taxRegistration)})` : ''}: no tax charged`;
   return `${rateText(rateBasisPoints)} on every line`;
 }
 
@@ -167,7 +191,8 @@ export async function renderInvoicePdf(data: BillingParties & { invoice: Invoice
   layout.heading('Lines', 80);
   linesTable(layout, inv.lines, inv.currency);
   const rows: Array<[string, string]> = [['Net', formatMoney(inv.totals.netMinor, inv.currency)]];
-  for (const rate of inv.totals.byRate) rows.push([`Tax at ${rateText(rate.rateBasisPoints)} on ${formatMoney(rate.netMinor, inv.currency)}`, formatMoney(rate.taxMinor, inv.currency)]);
+  for (const rate of inv.totals.byRate)
+    rows.push([`Tax at ${rateText(rate.rateBasisPoints)} on ${formatMoney(rate.netMinor, inv.currency)}`, formatMoney(rate.taxMinor, inv.currency)]);
   rows.push([`Total (${inv.currency})`, formatMoney(inv.totals.grossMinor, inv.currency)]);
   totalsBlock(layout, rows);
   layout.paragraph(

@@ -3,7 +3,7 @@ import type { BillingLineInput } from '@kilocycle/common/types';
 import { invoiceBalance } from '@kilocycle/common/money';
 import { AuditService } from '../audit/audit.service.js';
 import { CertificateSettingsReader } from '../certificates/certificate-settings.reader.js';
-import { loadConfig } from '../config/app-config.js';
+import { loadConfig } from '../config/config.module.js';
 import { BillingInstrumentsReader } from '../instruments/billing-instruments.reader.js';
 import { JobScopeReader } from '../jobs/job-scope.reader.js';
 import { MailService } from '../mail/mail.service.js';
@@ -70,7 +70,14 @@ export async function seedDemoInvoice(
     const amount = (value: number | 'balance') => (value === 'balance' ? invoiceBalance(row) : value);
     if (step.kind === 'issue') await invoices.issueWithin(manager, invoice.id, input.actorId, step.at);
     else if (step.kind === 'payment') await ledger.recordPayment(invoice.id, amount(step.amountMinor), row.currency, manager, { at: step.at });
-    else await invoices.credit(manager, row, { amountMinor: amount(step.amountMinor), reason: step.reason, paymentId: null, actorId: input.actorId, now: step.at });
+    else
+      await invoices.credit(manager, row, {
+        amountMinor: amount(step.amountMinor),
+        reason: step.reason,
+        paymentId: null,
+        actorId: input.actorId,
+        now: step.at,
+      });
   }
   return manager.findOneByOrFail(Invoice, { id: invoice.id });
 }

@@ -271,7 +271,6 @@ export class InvoicesService {
     const creditedMinor = row.creditedMinor + split.grossMinor;
     const status = issuedInvoiceStatus({ ...row, creditedMinor });
     await manager.update(Invoice, { id: row.id }, { creditedMinor, status });
-    let note = await manager.findOneOrFail(CreditNote, { where: { id } });
     const parties = await this.parties(row.organizationId, manager);
     const names = input.actorId === null ? new Map<number, string>() : await this.people.namesOf([input.actorId], manager);
     const pdf = await renderCreditNotePdf({
@@ -291,7 +290,7 @@ export class InvoicesService {
     });
     const stored = await this.files.put('credit-note-pdf', pdf, manager);
     await manager.update(CreditNote, { id }, { pdfFileId: stored.id });
-    note = await manager.findOneOrFail(CreditNote, { where: { id } });
+    const note = await manager.findOneOrFail(CreditNote, { where: { id } });
     await this.audit.record(
       {
         actorId: input.actorId,

@@ -59,7 +59,14 @@ export class StatementsService {
     ]);
     const numberOf = new Map(rows.map((r) => [r.id, r.number]));
     const dated: Dated[] = [
-      ...rows.map((r) => ({ id: r.id, at: r.issuedAt!, kind: 'invoice' as const, reference: r.number ?? '', invoiceNumber: r.number, amountMinor: r.grossMinor })),
+      ...rows.map((r) => ({
+        id: r.id,
+        at: r.issuedAt!,
+        kind: 'invoice' as const,
+        reference: r.number ?? '',
+        invoiceNumber: r.number,
+        amountMinor: r.grossMinor,
+      })),
       ...entries.map((e) => ({
         id: e.id,
         at: e.at,
@@ -133,7 +140,20 @@ export class StatementsService {
         at: i.issuedAt!,
         order: 0,
         id: i.id,
-        cells: [todayIso(i.issuedAt!), 'invoice', i.number, i.number, job, customer, c, money(i.netMinor, c), money(i.taxMinor, c), money(i.grossMinor, c), '', ''],
+        cells: [
+          todayIso(i.issuedAt!),
+          'invoice',
+          i.number,
+          i.number,
+          job,
+          customer,
+          c,
+          money(i.netMinor, c),
+          money(i.taxMinor, c),
+          money(i.grossMinor, c),
+          '',
+          '',
+        ],
       });
     }
     for (const e of entries) {
@@ -143,7 +163,20 @@ export class StatementsService {
         at: e.at,
         order: e.kind === 'payment' ? 1 : 2,
         id: e.id,
-        cells: [todayIso(e.at), e.kind, e.paymentId !== null ? `payment ${e.paymentId}` : `${e.kind} ${e.id}`, inv.number, job, customer, c, '', '', money(e.amountMinor, c), e.paymentId ?? '', ''],
+        cells: [
+          todayIso(e.at),
+          e.kind,
+          e.paymentId !== null ? `payment ${e.paymentId}` : `${e.kind} ${e.id}`,
+          inv.number,
+          job,
+          customer,
+          c,
+          '',
+          '',
+          money(e.amountMinor, c),
+          e.paymentId ?? '',
+          '',
+        ],
       });
     }
     for (const n of notes) {
@@ -153,7 +186,20 @@ export class StatementsService {
         at: n.issuedAt,
         order: 3,
         id: n.id,
-        cells: [todayIso(n.issuedAt), 'credit_note', n.number, inv.number, job, customer, c, money(n.netMinor, c), money(n.taxMinor, c), money(n.grossMinor, c), n.paymentId ?? '', n.reason],
+        cells: [
+          todayIso(n.issuedAt),
+          'credit_note',
+          n.number,
+          inv.number,
+          job,
+          customer,
+          c,
+          money(n.netMinor, c),
+          money(n.taxMinor, c),
+          money(n.grossMinor, c),
+          n.paymentId ?? '',
+          n.reason,
+        ],
       });
     }
     rows.sort((a, b) => a.at.getTime() - b.at.getTime() || a.order - b.order || a.id - b.id);

@@ -7,9 +7,27 @@ import type { DemoContext } from './demo-seed.js';
 
 // Invented lines for the earlier jobs (the newest job's invoice starts from its quote or the price list).
 const LINES = {
-  dial: (ranges: number): BillingLineInput => ({ code: 'CAL-RNG', description: 'Dial calibration, per range (as found and as left)', unit: 'per_range', quantityMilli: ranges * 1000, unitPriceMinor: 4_500 }),
-  job: (): BillingLineInput => ({ code: 'JOB', description: 'Job handling, report and certificate', unit: 'per_job', quantityMilli: 1000, unitPriceMinor: 3_500 }),
-  study: (milli: number): BillingLineInput => ({ code: 'STAB-H', description: 'Warm-up and stability study, per hour', unit: 'per_hour', quantityMilli: milli, unitPriceMinor: 2_800 }),
+  dial: (ranges: number): BillingLineInput => ({
+    code: 'CAL-RNG',
+    description: 'Dial calibration, per range (as found and as left)',
+    unit: 'per_range',
+    quantityMilli: ranges * 1000,
+    unitPriceMinor: 4_500,
+  }),
+  job: (): BillingLineInput => ({
+    code: 'JOB',
+    description: 'Job handling, report and certificate',
+    unit: 'per_job',
+    quantityMilli: 1000,
+    unitPriceMinor: 3_500,
+  }),
+  study: (milli: number): BillingLineInput => ({
+    code: 'STAB-H',
+    description: 'Warm-up and stability study, per hour',
+    unit: 'per_hour',
+    quantityMilli: milli,
+    unitPriceMinor: 2_800,
+  }),
 };
 
 /**
@@ -94,7 +112,9 @@ export async function seedDemoInvoices({ manager, customerIds, userIds }: DemoCo
 
 /** The customer's job with an issued certificate (the certificate demo's VFO job for Northgate). */
 async function issuedJobOf(manager: EntityManager, organizationId: number): Promise<number> {
-  const [row] = (await manager.query("SELECT id FROM jobs WHERE organization_id = ? AND status = 'issued' ORDER BY id DESC LIMIT 1", [organizationId])) as Array<{
+  const [row] = (await manager.query("SELECT id FROM jobs WHERE organization_id = ? AND status = 'issued' ORDER BY id DESC LIMIT 1", [
+    organizationId,
+  ])) as Array<{
     id: number;
   }>;
   if (!row) throw new Error('the invoices demo needs the certificate demo’s issued job');

@@ -92,7 +92,10 @@ describe('invoices (e2e, MariaDB)', () => {
         "INSERT INTO quote_lines (quote_id, position, code, description, unit, quantity_milli, unit_price_minor, tax_rate_basis_points, net_minor, tax_minor, gross_minor) VALUES (?, 1, 'CAL-RNG', 'Dial calibration, per range', 'per_range', 2000, 4500, 2000, 9000, 1800, 10800)",
         [quoteId],
       );
-      const signed = await t.http.post(`/api/jobs/${jobId}/sign`).set(as('lead')).send({ password: 'kilocycle-demo', meaning: 'reviewed and approved for issue' });
+      const signed = await t.http
+        .post(`/api/jobs/${jobId}/sign`)
+        .set(as('lead'))
+        .send({ password: 'kilocycle-demo', meaning: 'reviewed and approved for issue' });
       expect(signed.status).toBe(200);
       certificateId = signed.body.id;
       const list = await t.http.get(`/api/invoices?jobId=${jobId}`).set(as('lead'));
@@ -100,7 +103,9 @@ describe('invoices (e2e, MariaDB)', () => {
       invoice = list.body.items[0];
       // 2 ranges × €45.00 = €90.00 net, 20 % tax €18.00, €108.00 gross.
       expect(invoice).toMatchObject({ status: 'draft', number: null, quoteId, taxExempt: false, paymentTerms: 'pay_before_release' });
-      expect(invoice.lines).toEqual([expect.objectContaining({ code: 'CAL-RNG', quantityMilli: 2000, unitPriceMinor: 4500, netMinor: 9000, taxMinor: 1800, grossMinor: 10800 })]);
+      expect(invoice.lines).toEqual([
+        expect.objectContaining({ code: 'CAL-RNG', quantityMilli: 2000, unitPriceMinor: 4500, netMinor: 9000, taxMinor: 1800, grossMinor: 10800 }),
+      ]);
       expect((await t.http.get(`/api/invoices?jobId=${jobId}`).set(as('northgate'))).body.total).toBe(0);
       expect((await t.http.get(`/api/invoices/${invoice.id}`).set(as('northgate'))).status).toBe(404);
       // A draft holds the certificate with the words of the release rule.
@@ -147,7 +152,9 @@ describe('invoices (e2e, MariaDB)', () => {
       expect(mail.to).toEqual(['secretary@northgate.test']);
       const detail: MailMessageView = (await t.http.get(`/api/mail/${mail.id}`).set(as('admin'))).body;
       expect(detail.attachments).toEqual([{ filename: `${invoice.number}.pdf`, contentType: 'application/pdf', size: (pdf.body as Buffer).length }]);
-      const audit = await one<{ n: number }>("SELECT COUNT(*) AS n FROM audit_events WHERE entity = 'invoice' AND entity_id = ? AND action = 'issue'", [String(invoice.id)]);
+      const audit = await one<{ n: number }>("SELECT COUNT(*) AS n FROM audit_events WHERE entity = 'invoice' AND entity_id = ? AND action = 'issue'", [
+        String(invoice.id),
+      ]);
       expect(Number(audit.n)).toBe(1);
     });
 
@@ -174,7 +181,9 @@ describe('invoices (e2e, MariaDB)', () => {
       // What the payments module reads: the balance to pay, and 404 for the other customer.
       const payable = await t.app.get(PayableInvoiceReader).payable(invoice.id, { role: 'client', organizationId: northgate });
       expect(payable).toEqual({ id: invoice.id, number: invoice.number, organizationId: northgate, currency: 'EUR', balanceMinor: 26995, status: 'issued' });
-      await expect(t.app.get(PayableInvoiceReader).payable(invoice.id, { role: 'client', organizationId: northgate + 1 })).rejects.toMatchObject({ status: 404 });
+      await expect(t.app.get(PayableInvoiceReader).payable(invoice.id, { role: 'client', organizationId: northgate + 1 })).rejects.toMatchObject({
+        status: 404,
+      });
     });
 
     it('releases the certificate once the ledger records the payment', async () => {
@@ -192,10 +201,20 @@ describe('invoices (e2e, MariaDB)', () => {
       // By hand: invoice net 22496, tax 4499, gross 26995. A credit of €50.00:
       //   tax = round(4499 × 5000 / 26995) = round(833.30…) = 833; net = 5000 − 833 = 4167.
       const { n } = await one<{ n: number }>('SELECT COUNT(*) AS n FROM credit_notes');
-      const res = await t.http.post(`/api/invoices/${invoice.id}/credit-notes`).set(as('lead')).send({ amountMinor: 5000, reason: 'Goodwill: delivery delayed' });
+      const res = await t.http
+        .post(`/api/invoices/${invoice.id}/credit-notes`)
+        .set(as('lead'))
+        .send({ amountMinor: 5000, reason: 'Goodwill: delivery delayed' });
       expect(res.status).toBe(201);
       const note: CreditNote = res.body;
-      expect(note).toMatchObject({ number: `CN-${pad(Number(n) + 1)}`, netMinor: 4167, taxMinor: 833, grossMinor: 5000, invoiceNumber: invoice.number, issuedByName: 'Lena Brandt' });
+      expect(note).toMatchObject({
+        number: `CN-${pad(Number(n) + 1)}`,
+        netMinor: 4167,
+        taxMinor: 833,
+        grossMinor: 5000,
+        invoiceNumber: invoice.number,
+        issuedByName: 'Lena Brandt',
+      });
       const after: Invoice = (await t.http.get(`/api/invoices/${invoice.id}`).set(as('northgate'))).body;
       // Paid 26995, credited 5000: the customer is 5000 in credit; the invoice stays paid.
       expect(after).toMatchObject({ status: 'paid', creditedMinor: 5000, balanceMinor: -5000 });
@@ -250,16 +269,30 @@ describe('invoices (e2e, MariaDB)', () => {
 
     beforeAll(async () => {
       org = Number(
-        (await t.dataSource.query("INSERT INTO organizations (name, kind, contact_email) VALUES ('Harbour Light Society', 'customer', 'accounts@harbour.test')")).insertId,
+        (
+          await t.dataSource.query(
+            "INSERT INTO organizations (name, kind, contact_email) VALUES ('Harbour Light Society', 'customer', 'accounts@harbour.test')",
+          )
+        ).insertId,
       );
-      await t.dataSource.query('INSERT INTO instruments (organization_id, make, model, serial) VALUES (?, ?, ?, ?)', [org, 'Plainfield', 'Signal source', 'HL-1']);
-      await t.dataSource.query("INSERT INTO customer_terms (organization_id, tax_rate_id, payment_terms, net_days) VALUES (?, ?, 'on_account', 30)", [org, rateId]);
+      await t.dataSource.query('INSERT INTO instruments (organization_id, make, model, serial) VALUES (?, ?, ?, ?)', [
+        org,
+        'Plainfield',
+        'Signal source',
+        'HL-1',
+      ]);
+      await t.dataSource.query("INSERT INTO customer_terms (organization_id, tax_rate_id, payment_terms, net_days) VALUES (?, ?, 'on_account', 30)", [
+        org,
+        rateId,
+      ]);
       first = await draftFor(await issuedJob(org, 1), [{ description: 'Calibration', unit: 'per_job', quantityMilli: 1000, unitPriceMinor: 10000 }]);
       second = await draftFor(await issuedJob(org, 2), [{ description: 'Calibration', unit: 'per_job', quantityMilli: 1000, unitPriceMinor: 5000 }]);
       first = (await t.http.post(`/api/invoices/${first.id}/issue`).set(as('lead'))).body;
       second = (await t.http.post(`/api/invoices/${second.id}/issue`).set(as('lead'))).body;
       await pay(first.id, 12000);
-      expect((await t.http.post(`/api/invoices/${second.id}/credit-notes`).set(as('admin')).send({ amountMinor: 1000, reason: 'Adapter not needed' })).status).toBe(201);
+      expect(
+        (await t.http.post(`/api/invoices/${second.id}/credit-notes`).set(as('admin')).send({ amountMinor: 1000, reason: 'Adapter not needed' })).status,
+      ).toBe(201);
       // The second fell due yesterday.
       await t.dataSource.query('UPDATE invoices SET due_date = ? WHERE id = ?', [dayFromToday(-1), second.id]);
     });
@@ -270,7 +303,14 @@ describe('invoices (e2e, MariaDB)', () => {
       const res = await t.http.get(`/api/organizations/${org}/statement`).set(as('lead'));
       expect(res.status).toBe(200);
       const s: Statement = res.body;
-      expect(s).toMatchObject({ organizationName: 'Harbour Light Society', currency: 'EUR', openMinor: 5000, overdueMinor: 5000, paidMinor: 12000, creditMinor: 1000 });
+      expect(s).toMatchObject({
+        organizationName: 'Harbour Light Society',
+        currency: 'EUR',
+        openMinor: 5000,
+        overdueMinor: 5000,
+        paidMinor: 12000,
+        creditMinor: 1000,
+      });
       expect(s.lines.map((l) => [l.kind, l.amountMinor, l.balanceMinor])).toEqual([
         ['invoice', 12000, 12000],
         ['invoice', 6000, 18000],
@@ -288,7 +328,9 @@ describe('invoices (e2e, MariaDB)', () => {
       const res = await t.http.get(`/api/invoices/export.csv?from=${dayFromToday(0)}&to=${dayFromToday(0)}`).set(as('lead'));
       expect(res.status).toBe(200);
       expect(res.headers['content-type']).toContain('text/csv');
-      const rows = Papa.parse<Record<string, string>>(res.text, { header: true, skipEmptyLines: true }).data.filter((r) => r.customer === 'Harbour Light Society');
+      const rows = Papa.parse<Record<string, string>>(res.text, { header: true, skipEmptyLines: true }).data.filter(
+        (r) => r.customer === 'Harbour Light Society',
+      );
       expect(rows.map((r) => [r.type, r.document, r.invoice, r.net, r.tax, r.gross])).toEqual([
         ['invoice', first.number, first.number, '100.00', '20.00', '120.00'],
         ['invoice', second.number, second.number, '50.00', '10.00', '60.00'],
@@ -304,8 +346,8 @@ describe('invoices (e2e, MariaDB)', () => {
     it('mails an overdue invoice once, and again only after a week', async () => {
       const run = async () => (await t.http.post('/api/invoices/overdue-reminders/run').set(as('lead'))).body as { invoiceIds: number[] };
       const sent = async () =>
-        ((await t.http.get('/api/mail?kind=invoice_overdue&pageSize=500').set(as('admin'))).body.items as Array<{ subject: string; to: string[] }>).filter((m) =>
-          m.subject.includes(second.number!),
+        ((await t.http.get('/api/mail?kind=invoice_overdue&pageSize=500').set(as('admin'))).body.items as Array<{ subject: string; to: string[] }>).filter(
+          (m) => m.subject.includes(second.number!),
         );
       expect((await run()).invoiceIds).toContain(second.id);
       expect((await run()).invoiceIds).not.toContain(second.id);
@@ -323,9 +365,36 @@ describe('invoices (e2e, MariaDB)', () => {
     const [{ id }] = await t.dataSource.query("SELECT id FROM invoices WHERE status = 'draft' LIMIT 1");
     const line = { description: 'x', unit: 'per_job', quantityMilli: 1000, unitPriceMinor: 100 };
     const cases: Array<[string, () => import('supertest').Test, number, RegExp]> = [
-      ['negative quantity', () => t.http.patch(`/api/invoices/${id}`).set(as('lead')).send({ lines: [{ ...line, quantityMilli: -1 }] }), 400, /quantityMilli/],
-      ['fractional price', () => t.http.patch(`/api/invoices/${id}`).set(as('lead')).send({ lines: [{ ...line, unitPriceMinor: 1.5 }] }), 400, /unitPriceMinor/],
-      ['unknown unit', () => t.http.patch(`/api/invoices/${id}`).set(as('lead')).send({ lines: [{ ...line, unit: 'per_week' }] }), 400, /unit must be/],
+      [
+        'negative quantity',
+        () =>
+          t.http
+            .patch(`/api/invoices/${id}`)
+            .set(as('lead'))
+            .send({ lines: [{ ...line, quantityMilli: -1 }] }),
+        400,
+        /quantityMilli/,
+      ],
+      [
+        'fractional price',
+        () =>
+          t.http
+            .patch(`/api/invoices/${id}`)
+            .set(as('lead'))
+            .send({ lines: [{ ...line, unitPriceMinor: 1.5 }] }),
+        400,
+        /unitPriceMinor/,
+      ],
+      [
+        'unknown unit',
+        () =>
+          t.http
+            .patch(`/api/invoices/${id}`)
+            .set(as('lead'))
+            .send({ lines: [{ ...line, unit: 'per_week' }] }),
+        400,
+        /unit must be/,
+      ],
       ['no lines', () => t.http.patch(`/api/invoices/${id}`).set(as('lead')).send({}), 400, /lines/],
       ['zero credit', () => t.http.post(`/api/invoices/${id}/credit-notes`).set(as('lead')).send({ amountMinor: 0, reason: 'none' }), 400, /amountMinor/],
       ['credit on a draft', () => t.http.post(`/api/invoices/${id}/credit-notes`).set(as('lead')).send({ amountMinor: 10, reason: 'a draft' }), 409, /draft/],
