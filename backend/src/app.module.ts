@@ -16,11 +16,14 @@ import { ExportsModule } from './exports/exports.module.js';
 import { HealthModule } from './health/health.module.js';
 import { ImportsModule } from './imports/imports.module.js';
 import { IngestModule } from './ingest/ingest.module.js';
+import { InvoicesModule } from './invoices/invoices.module.js';
 import { InstrumentsModule } from './instruments/instruments.module.js';
 import { JobsModule } from './jobs/jobs.module.js';
 import { LiveModule } from './live/live.module.js';
 import { MailModule } from './mail/mail.module.js';
 import { OrganizationsModule } from './organizations/organizations.module.js';
+import { PricesModule } from './prices/prices.module.js';
+import { QuotesModule } from './quotes/quotes.module.js';
 import { ReadingsModule } from './readings/readings.module.js';
 import { RecallModule } from './recall/recall.module.js';
 import { ReviewsModule } from './reviews/reviews.module.js';
@@ -59,6 +62,9 @@ import { UsersModule } from './users/users.module.js';
     CertificatesModule,
     ReviewsModule,
     RecallModule,
+    PricesModule,
+    QuotesModule,
+    InvoicesModule,
   ],
 })
 export class AppModule {}

@@ -1,4 +1,4 @@
-import { Inject, Injectable } from '@nestjs/common';
+import { Inject, Injectable, Optional } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import type { DataSource } from 'typeorm';
 import { AuditService } from '../audit/audit.service.js';
@@ -12,6 +12,7 @@ import { OrganizationsReader } from '../organizations/organizations.reader.js';
 import { ReadingResultsReader } from '../readings/reading-results.reader.js';
 import { RunResultsReader } from '../runs/run-results.reader.js';
 import { RunStandardVersionWriter } from '../runs/run-standard-version.writer.js';
+import { CERTIFICATE_BILLING, type CertificateBilling } from '../shared/certificate-billing.js';
 import { JobReviewEvents } from '../shared/job-review-events.js';
 import { StandardResultsReader } from '../standards/standard-results.reader.js';
 import { CertificateRecipientsReader } from '../users/certificate-recipients.reader.js';
@@ -20,8 +21,8 @@ import { issueCertificate, type IssueDeps, type IssueInput, type IssueOutcome } 
 
 /**
  * Signing a job for the reviews module, which checks the signer first: issueCertificate over the owners'
- * injected readers and writers, in one transaction with the job's "sign" review event and the stored PDF
- * (nothing of it stays if the transaction fails).
+ * injected readers and writers, in one transaction with the job's "sign" review event, the stored PDF and the job's
+ * draft invoice when billing is on (nothing of it stays if the transaction fails).
  */
 @Injectable()
 export class CertificateIssuer {
@@ -44,6 +45,8 @@ export class CertificateIssuer {
     recipients: CertificateRecipientsReader,
     audit: AuditService,
     files: FileStore,
+    // Provided by invoices when billing is on: the job's draft invoice is made in the signing transaction.
+    @Optional() @Inject(CERTIFICATE_BILLING) private readonly billing: CertificateBilling | null = null,
   ) {
     this.deps = {
       config,
@@ -57,6 +60,7 @@ export class CertificateIssuer {
     return this.dataSource.transaction(async (manager) => {
       const outcome = await issueCertificate(manager, this.deps, input);
       await this.reviewEvents.record(outcome.reviewEvent, manager);
+      await this.billing?.certificateIssued(input.jobId, manager);
       return outcome;
     });
   }

@@ -1,4 +1,4 @@
-import { ConflictException, Inject, Injectable, NotFoundException } from '@nestjs/common';
+import { ConflictException, ForbiddenException, Inject, Injectable, NotFoundException, Optional } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import type { DataSource, SelectQueryBuilder } from 'typeorm';
 import type {
@@ -17,6 +17,7 @@ import { APP_CONFIG, type AppConfig } from '../config/config.module.js';
 import { JobScopeReader } from '../jobs/job-scope.reader.js';
 import { JobStatusWriter } from '../jobs/job-status.writer.js';
 import { instrumentLabel } from '../shared/instrument-label.js';
+import { CERTIFICATE_BILLING, type CertificateBilling } from '../shared/certificate-billing.js';
 import { JobReviewEvents } from '../shared/job-review-events.js';
 import { FileStore } from '../storage/file-store.service.js';
 import { likePattern, paginate } from '../shared/paginate.js';
@@ -45,7 +46,19 @@ export class CertificatesService {
     private readonly jobStatus: JobStatusWriter,
     private readonly reviewEvents: JobReviewEvents,
     private readonly files: FileStore,
+    // Provided by invoices when billing is on; without it nothing is held.
+    @Optional() @Inject(CERTIFICATE_BILLING) private readonly billing: CertificateBilling | null = null,
   ) {}
+
+  /** To a client, each certificate's release (held until its job's invoice is paid); the lab's staff are never held. */
+  private async withReleases(user: Pick<AuthUser, 'role' | 'organizationId'>, views: CertificateView[]): Promise<CertificateView[]> {
+    if (!this.billing || user.role !== 'client' || views.length === 0) return views;
+    const releases = await this.billing.releasesFor(
+      user,
+      views.map((v) => v.jobId),
+    );
+    return views.map((v) => ({ ...v, release: releases.get(v.jobId) }));
+  }
 
   toView(c: Certificate): CertificateView {
     return {
@@ -143,7 +156,8 @@ export class CertificatesService {
         { q: likePattern(query.q) },
       );
     }
-    return paginate(qb, query, SORTABLE, '-issuedAt', (c) => this.toView(c));
+    const page = await paginate(qb, query, SORTABLE, '-issuedAt', (c) => this.toView(c));
+    return { ...page, items: await this.withReleases(user, page.items) };
   }
 
   private async find(user: Pick<AuthUser, 'role' | 'organizationId'>, id: number, withResults = false): Promise<Certificate> {
@@ -155,8 +169,9 @@ export class CertificatesService {
   async get(user: AuthUser, id: number): Promise<CertificateDetail> {
     const c = await this.find(user, id, true);
     const revisions = await this.query(user).andWhere('c.number = :number', { number: c.number }).orderBy('c.revision', 'DESC').getMany();
+    const [view] = await this.withReleases(user, [this.toView(c)]);
     return {
-      ...this.toView(c),
+      ...view!,
       // Results stored before the two outcomes were kept get them derived from their own points.
       results: c.results ? withOutcomes(c.results) : null,
       revisions: revisions.map((r) => ({ id: r.id, revision: r.revision, status: r.status, issuedAt: r.issuedAt?.toISOString() ?? null })),
@@ -167,6 +182,11 @@ export class CertificatesService {
   async pdf(user: AuthUser, id: number): Promise<{ data: Buffer; name: string }> {
     const c = await this.find(user, id);
     if (c.status === 'draft') throw new NotFoundException(`Certificate ${id} has no PDF yet (an amendment in preparation)`);
+    // A client's download waits for the job's invoice (unless the customer is on account); staff are never asked.
+    if (this.billing && user.role === 'client') {
+      const release = await this.billing.releaseFor(user, c.jobId);
+      if (!release.released) throw new ForbiddenException(release.heldReason ?? 'This certificate is held until the invoice for its job is paid.');
+    }
     const data = c.pdfFileId !== null ? await this.files.get(c.pdfFileId, 'certificate-pdf') : null;
     if (!data) throw new NotFoundException(`The PDF of certificate ${c.number} revision ${c.revision} is missing from the store`);
     return { data, name: `${c.number}-rev${c.revision}.pdf` };

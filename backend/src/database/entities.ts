@@ -17,6 +17,11 @@ import { MailMessage } from '../mail/mail-message.entity.js';
 import { RecallNotice } from '../recall/recall-notice.entity.js';
 import { JobReview } from '../reviews/job-review.entity.js';
 import { Organization } from '../organizations/organization.entity.js';
+import { CustomerTermsRow } from '../prices/customer-terms.entity.js';
+import { PriceItem } from '../prices/price-item.entity.js';
+import { TaxRate } from '../prices/tax-rate.entity.js';
+import { QuoteLine } from '../quotes/quote-line.entity.js';
+import { Quote } from '../quotes/quote.entity.js';
 import { ReadingExclusion } from '../readings/reading-exclusion.entity.js';
 import { Reading } from '../readings/reading.entity.js';
 import { Run } from '../runs/run.entity.js';
@@ -24,6 +29,11 @@ import { Standard } from '../standards/standard.entity.js';
 import { StoredFile } from '../storage/stored-file.entity.js';
 import { StandardVersionRow } from '../standards/standard-version.entity.js';
 import { User } from '../users/user.entity.js';
+import { CreditNote } from '../invoices/credit-note.entity.js';
+import { DocumentSequence } from '../invoices/document-sequence.entity.js';
+import { InvoiceLine } from '../invoices/invoice-line.entity.js';
+import { Invoice } from '../invoices/invoice.entity.js';
+import { LedgerEntry } from '../invoices/ledger-entry.entity.js';
 
 /**
  * Every entity, for the stand-alone data source (CLI, seed, benchmarks). Nest modules register their
@@ -57,4 +67,14 @@ export const ENTITIES = [
   Attachment,
   CounterCaptureRow,
   CounterCaptureSample,
+  PriceItem,
+  TaxRate,
+  CustomerTermsRow,
+  Quote,
+  QuoteLine,
+  Invoice,
+  InvoiceLine,
+  CreditNote,
+  DocumentSequence,
+  LedgerEntry,
 ];

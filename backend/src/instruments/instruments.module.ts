@@ -5,6 +5,7 @@ import { InstrumentRange } from './instrument-range.entity.js';
 import { Instrument } from './instrument.entity.js';
 import { InstrumentsController } from './instruments.controller.js';
 import { InstrumentsService } from './instruments.service.js';
+import { BillingInstrumentsReader } from './billing-instruments.reader.js';
 import { CertificateInstrumentWriter } from './certificate-instrument.writer.js';
 import { InstrumentComparisonReader } from './instrument-comparison.reader.js';
 import { JobInstrumentReader } from './job-instrument.reader.js';
@@ -23,6 +24,7 @@ import { ReviewInstrumentsReader } from './review-instruments.reader.js';
     JobInstrumentReader,
     ReviewInstrumentsReader,
     CertificateInstrumentWriter,
+    BillingInstrumentsReader,
   ],
   exports: [
     InstrumentsService,
@@ -32,6 +34,7 @@ import { ReviewInstrumentsReader } from './review-instruments.reader.js';
     JobInstrumentReader,
     ReviewInstrumentsReader,
     CertificateInstrumentWriter,
+    BillingInstrumentsReader,
   ],
 })
 export class InstrumentsModule {}

@@ -35,4 +35,13 @@ export class JobScopeReader {
     if (!job || (scope !== null && job.organizationId !== scope)) throw new NotFoundException(`Job ${jobId} not found`);
     return job;
   }
+
+  /** The numbers of these jobs, keyed by id (lists of records that belong to jobs: invoices). */
+  async numbers(jobIds: readonly number[], manager?: EntityManager): Promise<Map<number, string>> {
+    if (jobIds.length === 0) return new Map();
+    const rows: Array<{ id: number; number: string }> = await (manager ?? this.dataSource).query('SELECT id, number FROM jobs WHERE id IN (?)', [
+      [...new Set(jobIds)],
+    ]);
+    return new Map(rows.map((r) => [Number(r.id), String(r.number)]));
+  }
 }

@@ -1,9 +1,10 @@
-import { BadRequestException, ConflictException, ForbiddenException, Injectable, NotFoundException } from '@nestjs/common';
+import { BadRequestException, ConflictException, ForbiddenException, Inject, Injectable, NotFoundException, Optional } from '@nestjs/common';
 import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import { In, type DataSource, type EntityManager, type Repository } from 'typeorm';
 import type { Job as JobView, JobStatus, ListResponse } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
 import { JobRunStatsSource } from '../shared/job-run-stats.js';
+import { JOB_START_GATE, type JobStartGate } from '../shared/job-start-gate.js';
 import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { JobInstrumentReader } from '../instruments/job-instrument.reader.js';
 import { instrumentLabel } from '../instruments/instruments.service.js';
@@ -62,6 +63,7 @@ export class JobsService {
     private readonly runStats: JobRunStatsSource,
     private readonly instruments: JobInstrumentReader,
     private readonly accounts: AccountsReader,
+    @Optional() @Inject(JOB_START_GATE) private readonly startGate: JobStartGate | null = null,
   ) {}
 
   list(actor: AuthUser, query: ListJobsQueryDto): Promise<ListResponse<JobView>> {
@@ -158,6 +160,11 @@ export class JobsService {
     if (refusal) {
       if (refusal.status === 403) throw new ForbiddenException(refusal.message);
       throw new ConflictException(`job ${job.number}: ${refusal.message}`);
+    }
+    if (job.status === 'received' && to === 'in_progress' && this.startGate) {
+      // Work waits for what the gate's provider asks first (an accepted quote, when the customer requires one).
+      const waiting = await this.startGate.startRefusal(job.id, manager);
+      if (waiting) throw new ConflictException(`job ${job.number}: ${waiting}`);
     }
     if (to === 'returned' && !comment) throw new BadRequestException('comment: say what needs rework when returning a job');
     if (to === 'in_review') {

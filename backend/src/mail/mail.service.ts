@@ -8,6 +8,7 @@ import { certificateIssuedMail, jobReturnedMail } from './mail-templates.js';
 // What other modules may use of mail besides the service: the mailer (the CLI's recall run builds one) and the templates.
 export { Mailer, type OutgoingMail } from './mailer.js';
 export { recallReminderMail } from './mail-templates.js';
+export { creditNoteMail, invoiceIssuedMail, invoiceOverdueMail } from './invoice-mail-templates.js';
 
 /** The app's mail: starts the fake with the app (unless real SMTP is configured) and never fails a caller. */
 @Injectable()

@@ -7,6 +7,7 @@ import { StandardsModule } from '../standards/standards.module.js';
 import { BridgePresenceModule } from '../shared/bridge-presence.module.js';
 import { JobRunStatsSource } from '../shared/job-run-stats.js';
 import { RangeUseSource } from '../shared/range-use.js';
+import { BillingRunsReader } from './billing-runs.reader.js';
 import { JobRunsReader } from './job-runs.reader.js';
 import { RangeUseReader } from './range-use.reader.js';
 import { RunContextReader } from './run-context.reader.js';
@@ -40,6 +41,7 @@ import { RunsService } from './runs.service.js';
     { provide: JobRunStatsSource, useExisting: JobRunsReader },
     RangeUseReader,
     { provide: RangeUseSource, useExisting: RangeUseReader },
+    BillingRunsReader,
   ],
   exports: [
     RunsService,
@@ -51,6 +53,7 @@ import { RunsService } from './runs.service.js';
     RunStandardVersionWriter,
     JobRunStatsSource,
     RangeUseSource,
+    BillingRunsReader,
   ],
 })
 export class RunsModule {}

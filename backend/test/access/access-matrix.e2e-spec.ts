@@ -46,7 +46,7 @@ type Customer = 'northgate' | 'saltmarsh';
 const OTHER: Record<Customer, Customer> = { northgate: 'saltmarsh', saltmarsh: 'northgate' };
 
 /** Records owned by a customer organisation (a client sees its own, and gets 404 for the other's). */
-type Owned = 'instrument' | 'job' | 'run' | 'reading' | 'certificate' | 'attachment' | 'organization' | 'user';
+type Owned = 'instrument' | 'job' | 'run' | 'reading' | 'certificate' | 'attachment' | 'organization' | 'user' | 'invoice' | 'creditNote';
 /** Lab records (no customer owns them) and plain values. */
 type Lab = 'bench' | 'procedure' | 'standard' | 'comparison' | 'mail' | 'zero' | 'importId' | 'certificateNumber' | 'missing';
 type Rule = {
@@ -58,6 +58,8 @@ type Rule = {
   body?: 'json' | 'multipart' | 'none';
   /** For 'none': the allowed call is really made (logout on a throwaway session, the recall run). */
   performed?: 'own-session' | 'at-end';
+  /** A client may also be answered 403 with the reason its record is held (a certificate until its invoice is paid). */
+  held?: true;
 };
 
 const ALL: readonly Role[] = ['admin', 'lead', 'technician', 'engineer', 'client'];
@@ -142,7 +144,8 @@ export const ACCESS_MATRIX: Record<string, Rule> = {
   // Certificates: clients read their own issued ones; only the signatory amends or withdraws.
   'GET /api/certificates': { roles: ALL },
   'GET /api/certificates/{id}': { roles: ALL, ids: { id: 'certificate' } },
-  'GET /api/certificates/{id}/pdf': { roles: ALL, ids: { id: 'certificate' } },
+  // The demo's Northgate certificate waits for its invoice (pay before release): its client is told why.
+  'GET /api/certificates/{id}/pdf': { roles: ALL, ids: { id: 'certificate' }, held: true },
   'POST /api/certificates/{id}/amend': { roles: ['lead'], ids: { id: 'certificate' } },
   'POST /api/certificates/{id}/withdraw': { roles: ['lead'], ids: { id: 'certificate' } },
   // Settings belong to the admin; the lead reads them (they are printed on the certificates he signs).
@@ -190,6 +193,21 @@ export const ACCESS_MATRIX: Record<string, Rule> = {
   'GET /api/audit': { roles: LAB },
   'GET /api/recall/notices': { roles: ['admin', 'lead'] },
   'POST /api/recall/run': { roles: ['admin'], body: 'none', performed: 'at-end' },
+
+  // Billing (issue 18): admin and lead make, issue and credit invoices; the rest of the lab reads them; a client
+  // reads its own organisation's issued invoices, credit notes and statement. The bookkeeper's export and the
+  // overdue reminder run are billing work (admin, lead).
+  'GET /api/invoices': { roles: ALL },
+  'GET /api/invoices/export.csv': { roles: ['admin', 'lead'] },
+  'POST /api/invoices/overdue-reminders/run': { roles: ['admin', 'lead'], body: 'none', performed: 'at-end' },
+  'GET /api/invoices/{id}': { roles: ALL, ids: { id: 'invoice' } },
+  'GET /api/invoices/{id}/pdf': { roles: ALL, ids: { id: 'invoice' } },
+  'PATCH /api/invoices/{id}': { roles: ['admin', 'lead'], ids: { id: 'invoice' } },
+  'POST /api/invoices/{id}/issue': { roles: ['admin', 'lead'], ids: { id: 'missing' }, body: 'none' },
+  'POST /api/invoices/{id}/credit-notes': { roles: ['admin', 'lead'], ids: { id: 'invoice' } },
+  'GET /api/credit-notes/{id}/pdf': { roles: ALL, ids: { id: 'creditNote' } },
+  'POST /api/jobs/{id}/invoice': { roles: ['admin', 'lead'], ids: { id: 'missing' }, body: 'none' },
+  'GET /api/organizations/{id}/statement': { roles: ALL, ids: { id: 'organization' } },
 };
 
 const PNG = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.alloc(200, 7)]);
@@ -233,6 +251,8 @@ describe('access matrix (e2e, MariaDB): every route × every role × own/other o
         [org],
       ),
       user: await one("SELECT id FROM users WHERE organization_id = ? AND role = 'client' ORDER BY id LIMIT 1", [org]),
+      invoice: await one("SELECT id FROM invoices WHERE organization_id = ? AND status <> 'draft' ORDER BY id LIMIT 1", [org]),
+      creditNote: await one('SELECT id FROM credit_notes WHERE organization_id = ? ORDER BY id LIMIT 1', [org]),
     };
   }
 
@@ -246,6 +266,8 @@ describe('access matrix (e2e, MariaDB): every route × every role × own/other o
       ...(await texts('SELECT number AS v FROM jobs WHERE organization_id = ?')),
       ...(await texts('SELECT number AS v FROM certificates WHERE organization_id = ?')),
       ...(await texts('SELECT email AS v FROM users WHERE organization_id = ?')),
+      ...(await texts('SELECT number AS v FROM invoices WHERE organization_id = ? AND number IS NOT NULL')),
+      ...(await texts('SELECT number AS v FROM credit_notes WHERE organization_id = ?')),
       ...(await texts(
         'SELECT a.original_name AS v FROM attachments a LEFT JOIN instruments i ON i.id = a.instrument_id LEFT JOIN jobs j ON j.id = a.job_id WHERE COALESCE(i.organization_id, j.organization_id) = ?',
       )),
@@ -359,7 +381,9 @@ describe('access matrix (e2e, MariaDB): every route × every role × own/other o
   }
 
   const ownsIds = (rule: Rule) =>
-    Object.values(rule.ids ?? {}).some((kind) => ['instrument', 'job', 'run', 'reading', 'certificate', 'attachment', 'organization', 'user'].includes(kind));
+    Object.values(rule.ids ?? {}).some((kind) =>
+      ['instrument', 'job', 'run', 'reading', 'certificate', 'attachment', 'organization', 'user', 'invoice', 'creditNote'].includes(kind),
+    );
 
   async function send(method: string, path: string, rule: Rule, headers: Record<string, string>): Promise<Response> {
     const req = (t.http as unknown as Record<string, (url: string) => import('supertest').Test>)[method.toLowerCase()](path).set(headers);
@@ -462,6 +486,11 @@ describe('access matrix (e2e, MariaDB): every route × every role × own/other o
             if (after.status !== 401) problems.push(`${label}: the ended session still answers ${after.status}`);
             continue;
           } else if (namesMissing(rule) || rule.body === 'none') [expected, ok] = ['404 (no such record)', (s) => s === 404];
+          else if (!isWrite && isClient && rule.held)
+            [expected, ok] = [
+              '2xx, or 403 saying why it is held',
+              (s, body) => (s >= 200 && s <= 299) || (s === 403 && /^Held until/.test(String(body.message))),
+            ];
           else if (!isWrite) [expected, ok] = ['2xx', (s) => s >= 200 && s <= 299];
           // A form is read by the handler, after the service's own checks (run closed, an engineer on a
           // calibration run): any refusal but the guard's shows the call got past it.

@@ -8,3 +8,4 @@ export { dueDate } from './due-date.js';
 export { currencyDigits } from './currency-digits.js';
 export { formatMoney } from './format-money.js';
 export { parseMoney } from './parse-money.js';
+export { billableHoursMilli } from './billable-hours.js';

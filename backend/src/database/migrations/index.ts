@@ -10,6 +10,9 @@ import { AddUserTokenVersion1764820000000 } from './1764820000000-AddUserTokenVe
 import { AddCounterCapture1764900000000 } from './1764900000000-AddCounterCapture.js';
 import { AddRunCounters1764950000000 } from './1764950000000-AddRunCounters.js';
 import { StoreFilesInDatabase1765000000000 } from './1765000000000-StoreFilesInDatabase.js';
+import { AddPriceList1765100000000 } from './1765100000000-AddPriceList.js';
+import { AddQuotes1765110000000 } from './1765110000000-AddQuotes.js';
+import { AddInvoices1765120000000 } from './1765120000000-AddInvoices.js';
 
 /** Every migration, oldest first. Listed as classes so jest (ESM) and the build load the same code. */
 export const MIGRATIONS = [
@@ -25,4 +28,7 @@ export const MIGRATIONS = [
   AddCounterCapture1764900000000,
   AddRunCounters1764950000000,
   StoreFilesInDatabase1765000000000,
+  AddPriceList1765100000000,
+  AddQuotes1765110000000,
+  AddInvoices1765120000000,
 ];

@@ -1,0 +1,5 @@
+import { Injectable } from '@nestjs/common';
+
+/** Placeholder until the routes land (next commit). */
+@Injectable()
+export class PricesService {}
