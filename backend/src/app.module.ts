@@ -17,6 +17,7 @@ import { HealthModule } from './health/health.module.js';
 import { ImportsModule } from './imports/imports.module.js';
 import { IngestModule } from './ingest/ingest.module.js';
 import { InvoicesModule } from './invoices/invoices.module.js';
+import { PaymentsModule } from './payments/payments.module.js';
 import { InstrumentsModule } from './instruments/instruments.module.js';
 import { JobsModule } from './jobs/jobs.module.js';
 import { LiveModule } from './live/live.module.js';
@@ -65,6 +66,7 @@ import { UsersModule } from './users/users.module.js';
     PricesModule,
     QuotesModule,
     InvoicesModule,
+    PaymentsModule,
   ],
 })
 export class AppModule {}

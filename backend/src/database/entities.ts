@@ -34,6 +34,8 @@ import { DocumentSequence } from '../invoices/document-sequence.entity.js';
 import { InvoiceLine } from '../invoices/invoice-line.entity.js';
 import { Invoice } from '../invoices/invoice.entity.js';
 import { LedgerEntry } from '../invoices/ledger-entry.entity.js';
+import { PaymentEvent } from '../payments/payment-event.entity.js';
+import { Payment } from '../payments/payment.entity.js';
 
 /**
  * Every entity, for the stand-alone data source (CLI, seed, benchmarks). Nest modules register their
@@ -77,4 +79,6 @@ export const ENTITIES = [
   CreditNote,
   DocumentSequence,
   LedgerEntry,
+  Payment,
+  PaymentEvent,
 ];

@@ -39,10 +39,15 @@ export function jsonDepthExceeds(buf: Buffer, limit: number): boolean {
  * body-parser's `verify` for JSON: refuses bytes that are not UTF-8 (rather than storing U+FFFD) and
  * nesting deeper than MAX_JSON_DEPTH (class-transformer recurses on it and overflows the stack).
  */
-export function verifyJsonBody(_req: IncomingMessage, _res: ServerResponse, buf: Buffer): void {
+export function verifyJsonBody(req: IncomingMessage & { rawBody?: Buffer }, _res: ServerResponse, buf: Buffer): void {
   if (!isUtf8(buf)) throw new BodyRefused('the JSON body is not valid UTF-8 text');
   if (jsonDepthExceeds(buf, MAX_JSON_DEPTH)) throw new BodyRefused(`the JSON body is nested deeper than ${MAX_JSON_DEPTH} levels`);
+  // The payment service signs the exact bytes it sent: its webhook route checks the signature on these.
+  if (req.url?.startsWith(WEBHOOK_PATH)) req.rawBody = buf;
 }
+
+/** The one route that needs a JSON body's raw bytes (Nest's RawBodyRequest.rawBody). */
+const WEBHOOK_PATH = '/api/payments/webhook';
 
 /** body-parser's `verify` for urlencoded forms: UTF-8 only (qs limits the depth itself). */
 export function verifyFormBody(_req: IncomingMessage, _res: ServerResponse, buf: Buffer): void {

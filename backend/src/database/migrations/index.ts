@@ -13,6 +13,7 @@ import { StoreFilesInDatabase1765000000000 } from './1765000000000-StoreFilesInD
 import { AddPriceList1765100000000 } from './1765100000000-AddPriceList.js';
 import { AddQuotes1765110000000 } from './1765110000000-AddQuotes.js';
 import { AddInvoices1765120000000 } from './1765120000000-AddInvoices.js';
+import { AddPayments1765130000000 } from './1765130000000-AddPayments.js';
 
 /** Every migration, oldest first. Listed as classes so jest (ESM) and the build load the same code. */
 export const MIGRATIONS = [
@@ -31,4 +32,5 @@ export const MIGRATIONS = [
   AddPriceList1765100000000,
   AddQuotes1765110000000,
   AddInvoices1765120000000,
+  AddPayments1765130000000,
 ];

@@ -14,7 +14,7 @@
  * Webhooks are signed with the SDK's own `webhooks.generateTestHeaderString`, so the app verifies them with
  * `webhooks.constructEvent` exactly as it would the service's. Where the fake simplifies: only mode=payment
  * with price_data line items; the payment intent is made on the first card try (and the session points to
- * it from then on); the payment intent and its charge carry the session's metadata; state is in memory.
+ * it from then on); the payment intent and its charge carry the session's metadata and payment_intent_data[metadata]; state is in memory.
  */
 import { createHash, randomBytes } from 'node:crypto';
 import { createServer, type IncomingMessage, type Server, type ServerResponse } from 'node:http';
@@ -48,7 +48,8 @@ export type PaymentServiceFakeOptions = {
   retryDelaysMs?: number[];
 };
 
-type SessionRecord = { session: FakeCheckoutSession; lines: PageSession['lines'] };
+/** intentMetadata: payment_intent_data[metadata], which the service puts on the payment intent and its charge. */
+type SessionRecord = { session: FakeCheckoutSession; lines: PageSession['lines']; intentMetadata: Record<string, string> };
 type EventRecord = { event: FakeEvent; payload: string };
 type ApiAnswer = { status: number; body: unknown; after?: () => void };
 
@@ -62,6 +63,7 @@ const SESSION_PARAMS = new Set([
   'success_url',
   'cancel_url',
   'metadata',
+  'payment_intent_data',
   'client_reference_id',
   'customer_email',
   'payment_method_types',
@@ -299,7 +301,7 @@ export class PaymentServiceFake {
       success_url: successUrl,
       url: `${this.base}/pay/${id}`,
     };
-    this.sessions.set(id, { session, lines });
+    this.sessions.set(id, { session, lines, intentMetadata: paymentIntentMetadata(params) });
     this.log(`payment fake: checkout session ${id} for ${total} ${currency} opened`);
     return { status: 200, body: this.expandedSession(session, expandList(params, ['payment_intent'])) };
   }
@@ -460,7 +462,7 @@ export class PaymentServiceFake {
         last_payment_error: null,
         latest_charge: null,
         livemode: false,
-        metadata: { ...(session.metadata ?? {}) },
+        metadata: { ...(session.metadata ?? {}), ...record.intentMetadata },
         payment_method: null,
         payment_method_types: ['card'],
         status: 'requires_payment_method',
@@ -651,4 +653,13 @@ function checkCardForm(values: CardForm): { message: string; field: FieldName } 
   if (!/^\d{3,4}$/.test(values.cvc)) return { message: 'Enter the 3 or 4 digit security code.', field: 'cvc' };
   if (!values.name || values.name.length > 100) return { message: 'Enter the name on the card.', field: 'name' };
   return null;
+}
+
+/** payment_intent_data may carry metadata only (the one part of it Kilocycle sends). */
+function paymentIntentMetadata(params: Params): Record<string, string> {
+  const data = params.payment_intent_data;
+  if (data === undefined) return {};
+  if (!isParams(data)) throw invalid('Invalid object: payment_intent_data.', 'parameter_invalid', 'payment_intent_data');
+  only(data, new Set(['metadata']));
+  return metadata(data);
 }
