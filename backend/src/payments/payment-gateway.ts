@@ -3,7 +3,7 @@ import { Inject, Injectable, Logger, type OnModuleDestroy, type OnModuleInit } f
 import { HttpAdapterHost } from '@nestjs/core';
 import type { AddressInfo } from 'node:net';
 import Stripe from 'stripe';
-import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { APP_CONFIG, type AppConfig } from '../config/config.module.js';
 import { PaymentServiceFake } from './fake/payment-service-fake.js';
 
 /** The key our fake expects: any test-mode key works against it; a real key never reaches it. */

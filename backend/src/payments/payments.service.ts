@@ -4,14 +4,13 @@ import { DataSource, type EntityManager, Repository } from 'typeorm';
 import Stripe from 'stripe';
 import type { ListResponse, PayInvoiceResponse, Payment as PaymentShape, PaymentStatus } from '@kilocycle/common/types';
 import { AuditService } from '../audit/audit.service.js';
-import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { APP_CONFIG, type AppConfig } from '../config/config.module.js';
 import { InvoiceLedger } from '../invoices/invoice-ledger.writer.js';
 import { PayableInvoiceReader } from '../invoices/payable-invoice.reader.js';
 import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import type { ListQueryDto } from '../shared/list-query.dto.js';
 import { paginate } from '../shared/paginate.js';
 import { PaymentGateway } from './payment-gateway.js';
-import { PaymentEvent } from './payment-event.entity.js';
 import { Payment } from './payment.entity.js';
 
 /** Why a webhook was turned away: answered 400 and logged on one line. */
