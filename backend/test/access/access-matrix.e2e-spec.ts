@@ -46,7 +46,7 @@ type Customer = 'northgate' | 'saltmarsh';
 const OTHER: Record<Customer, Customer> = { northgate: 'saltmarsh', saltmarsh: 'northgate' };
 
 /** Records owned by a customer organisation (a client sees its own, and gets 404 for the other's). */
-type Owned = 'instrument' | 'job' | 'run' | 'reading' | 'certificate' | 'attachment' | 'organization' | 'user' | 'invoice' | 'creditNote';
+type Owned = 'instrument' | 'job' | 'run' | 'reading' | 'certificate' | 'attachment' | 'organization' | 'user' | 'invoice' | 'creditNote' | 'payment';
 /** Lab records (no customer owns them) and plain values. */
 type Lab = 'bench' | 'procedure' | 'standard' | 'comparison' | 'mail' | 'zero' | 'importId' | 'certificateNumber' | 'missing';
 type Rule = {
@@ -208,6 +208,14 @@ export const ACCESS_MATRIX: Record<string, Rule> = {
   'GET /api/credit-notes/{id}/pdf': { roles: ALL, ids: { id: 'creditNote' } },
   'POST /api/jobs/{id}/invoice': { roles: ['admin', 'lead'], ids: { id: 'missing' }, body: 'none' },
   'GET /api/organizations/{id}/statement': { roles: ALL, ids: { id: 'organization' } },
+  // Card payments: a client pays its own organisation's invoices (admin and lead may start one on a customer's
+  // behalf, say on the phone); refunds are billing work. The payment service's webhook has no session: its
+  // signature is its authentication, so without one (the probe) it answers 400.
+  'POST /api/invoices/{id}/pay': { roles: ['admin', 'lead', 'client'], ids: { id: 'missing' }, body: 'none' },
+  'GET /api/payments': { roles: ALL },
+  'GET /api/payments/{id}': { roles: ALL, ids: { id: 'payment' } },
+  'POST /api/payments/{id}/refund': { roles: ['admin', 'lead'], ids: { id: 'payment' } },
+  'POST /api/payments/webhook': { roles: 'public' },
 };
 
 const PNG = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.alloc(200, 7)]);
@@ -253,6 +261,7 @@ describe('access matrix (e2e, MariaDB): every route × every role × own/other o
       user: await one("SELECT id FROM users WHERE organization_id = ? AND role = 'client' ORDER BY id LIMIT 1", [org]),
       invoice: await one("SELECT id FROM invoices WHERE organization_id = ? AND status <> 'draft' ORDER BY id LIMIT 1", [org]),
       creditNote: await one('SELECT id FROM credit_notes WHERE organization_id = ? ORDER BY id LIMIT 1', [org]),
+      payment: await one('SELECT id FROM payments WHERE organization_id = ? ORDER BY id LIMIT 1', [org]),
     };
   }
 
@@ -312,6 +321,15 @@ describe('access matrix (e2e, MariaDB): every route × every role × own/other o
       text: 'A message for the outbox routes.\n',
       attachments: [{ filename: 'note.pdf', content: Buffer.from('%PDF-1.4\n%%EOF\n'), contentType: 'application/pdf' }],
     });
+
+    // One card payment started on each side, as each client would by pressing Pay on an open invoice.
+    for (const who of ['northgate', 'saltmarsh'] as const) {
+      const open = await one("SELECT id FROM invoices WHERE organization_id = ? AND status IN ('issued', 'part_paid') ORDER BY id LIMIT 1", [
+        organizationId[who],
+      ]);
+      const res = await t.http.post(`/api/invoices/${open}/pay`).set(as(who));
+      expect(res.status).toBe(201);
+    }
 
     facts = {
       organizationId,
