@@ -253,6 +253,8 @@ cl_node_start() {
     export KC_DB_REPLICA_HOST=127.0.0.1 KC_DB_REPLICA_PORT="$KC_DB_REPLICA_PORT" KC_TRUSTED_PROXIES=127.0.0.1
     # Each node's own mail catcher on a port it picks (they would clash on one); messages land in the shared outbox.
     [ -n "${KC_SMTP_HOST:-}" ] || export KC_SMTP_PORT=0
+    # Likewise each node's payment service fake (without a real key): its page and webhooks belong to that node.
+    [ -n "${KC_STRIPE_SECRET_KEY:-}" ] || export KC_PAYMENT_FAKE_PORT=0
     cd "$ROOT" && exec setsid node backend/dist/main.js
   ) >>"$log" 2>&1 </dev/null &
   echo $! >"$CL_RUN/node-$i.pid"
