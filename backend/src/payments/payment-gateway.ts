@@ -44,6 +44,7 @@ export class PaymentGateway implements OnModuleInit, OnModuleDestroy {
       log: (line) => this.logger.log(line),
     });
     this.fakeUrl = await this.startFake(this.fake, payments.fakePort);
+    this.logger.log(`Payment service fake on ${this.fakeUrl}: card payments use its test page, no real card is charged`);
     const { port } = new URL(this.fakeUrl);
     this.client = new Stripe(FAKE_API_KEY, { host: '127.0.0.1', port: Number(port), protocol: 'http', maxNetworkRetries: 1, timeout: 10_000 });
   }
