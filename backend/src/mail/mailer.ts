@@ -7,7 +7,7 @@ import { mailSignOff, mailTextToHtml } from './mail-text.js';
 import { parseMessage } from './read-message.js';
 import { SmtpFake, type CapturedMail } from './smtp-fake.js';
 
-export type MailKind = 'certificate_issued' | 'job_returned' | 'recall_reminder' | 'other';
+export type MailKind = 'certificate_issued' | 'job_returned' | 'recall_reminder' | 'quote_sent' | 'other';
 
 export type OutgoingMail = {
   kind: MailKind;
