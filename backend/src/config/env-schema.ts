@@ -155,6 +155,12 @@ export class EnvironmentVariables {
   @IsOptional() @Matches(/^[A-Z][A-Z0-9]{0,7}$/, { message: '1 to 8 capital letters or digits, starting with a letter' }) KC_CERT_PREFIX?: string;
   @IsOptional() @IsString() @MaxLength(200, { message: 'a name of at most 200 characters' }) KC_LAB_NAME?: string;
   @IsOptional() @IsString() @MaxLength(500, { message: 'an address of at most 500 characters' }) KC_LAB_ADDRESS?: string;
+  @IsOptional()
+  @ValidateBy(
+    { name: 'isCurrency', validator: { validate: (v: unknown) => typeof v === 'string' && Intl.supportedValuesOf('currency').includes(v) } },
+    { message: 'an ISO 4217 currency code in capitals, e.g. EUR' },
+  )
+  KC_CURRENCY?: string;
 
   @IsOptional() @apply(...integer(0, 86_400_000, 'a delay in milliseconds')) KC_RECALL_DELAY_MS?: number;
   @Switch() KC_RECALL_DISABLED?: boolean;
@@ -305,6 +311,7 @@ const KNOWN_KEYS: readonly string[] = [
   'KC_CERT_PREFIX',
   'KC_LAB_NAME',
   'KC_LAB_ADDRESS',
+  'KC_CURRENCY',
   'KC_RECALL_DELAY_MS',
   'KC_RECALL_DISABLED',
   'KC_IMPORT_MAX_MB',
