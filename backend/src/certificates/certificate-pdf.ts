@@ -1,10 +1,25 @@
-import { createRequire } from 'node:module';
-import { dirname, join } from 'node:path';
-import PDFDocument from 'pdfkit';
 import QRCode from 'qrcode';
 import { formatFrequency, type FrequencyUnit } from '@kilocycle/common/units';
 import { jobOutcomes, withOutcomes } from '@kilocycle/common/math';
 import type { Decision, DecisionRule, JobOutcome, JobOutcomes, JobResults, MeasuredPoint, RangeResult, Tolerance } from '@kilocycle/common/types';
+import {
+  ACCENT,
+  ALERT,
+  CONTENT_WIDTH,
+  drawPageFrames,
+  fitText,
+  FOUND,
+  HEADER_FILL,
+  houseDocument,
+  INK,
+  Layout,
+  MARGIN,
+  MUTED,
+  PAGE,
+  ROW_FILL,
+  RULE,
+  type Doc,
+} from '../shared/pdf-house-style.js';
 import { printableCertificateData } from './certificate-text.js';
 
 /** Everything printed on a certificate; gathered once at signing. */
@@ -31,27 +46,6 @@ export type CertificatePdfData = {
   verifyUrl: string;
 };
 
-const require = createRequire(import.meta.url);
-function fontPath(pkg: string, file: string): string {
-  return join(dirname(require.resolve(`@expo-google-fonts/${pkg}/package.json`)), file);
-}
-const FONTS = {
-  sans: fontPath('roboto', '400Regular/Roboto_400Regular.ttf'),
-  bold: fontPath('roboto', '700Bold/Roboto_700Bold.ttf'),
-  medium: fontPath('roboto', '500Medium/Roboto_500Medium.ttf'),
-  mono: fontPath('roboto-mono', '400Regular/RobotoMono_400Regular.ttf'),
-  monoBold: fontPath('roboto-mono', '700Bold/RobotoMono_700Bold.ttf'),
-};
-
-const PAGE = { width: 595.28, height: 841.89 };
-const MARGIN = { left: 46, right: 46, top: 74, bottom: 64 };
-const CONTENT_WIDTH = PAGE.width - MARGIN.left - MARGIN.right;
-const INK = '#1b1f24';
-const MUTED = '#5b6470';
-const RULE = '#c9ced6';
-const ACCENT = '#0f5c6e';
-const FOUND = '#9a6b1f';
-
 const DECISION_WORDS: Record<Decision, string> = {
   pass: 'pass',
   conditional_pass: 'cond. pass',
@@ -64,8 +58,6 @@ const RULE_SHORT: Record<DecisionRule, string> = {
   guarded_binary: 'guarded acceptance, guard band w = U (ILAC-G8:09/2019 4.2.2)',
   guarded: 'guarded acceptance with conditional pass and fail, guard band w = U (ILAC-G8:09/2019 4.2.3)',
 };
-
-type Doc = PDFKit.PDFDocument;
 
 /** The unit frequencies of a range are printed in: the dial's own unit, else the one that suits the span. */
 export function displayUnit(range: Pick<RangeResult, 'dialUnit' | 'freqMaxHz'>): FrequencyUnit {
@@ -134,78 +126,7 @@ export function niceTicks(min: number, max: number, count = 5): number[] {
   return ticks;
 }
 
-class Layout {
-  constructor(readonly doc: Doc) {}
-
-  get y(): number {
-    return this.doc.y;
-  }
-
-  /** Starts a new page unless `height` points still fit on this one. */
-  ensure(height: number): void {
-    if (this.doc.y + height > PAGE.height - MARGIN.bottom) {
-      this.doc.addPage();
-      this.doc.y = MARGIN.top;
-    }
-  }
-
-  heading(text: string, space = 60): void {
-    this.ensure(space);
-    const doc = this.doc;
-    doc.moveDown(0.6);
-    doc.font('bold').fontSize(10.5).fillColor(ACCENT).text(text, MARGIN.left, doc.y, { width: CONTENT_WIDTH });
-    const y = doc.y + 1.5;
-    doc
-      .moveTo(MARGIN.left, y)
-      .lineTo(MARGIN.left + CONTENT_WIDTH, y)
-      .lineWidth(0.6)
-      .strokeColor(ACCENT)
-      .stroke();
-    doc.y = y + 5;
-    doc.fillColor(INK);
-  }
-
-  paragraph(text: string, size = 8.5, font = 'sans'): void {
-    this.ensure(size * 3);
-    this.doc.font(font).fontSize(size).fillColor(INK).text(text, MARGIN.left, this.doc.y, { width: CONTENT_WIDTH, lineGap: 1.5 });
-    this.doc.moveDown(0.35);
-  }
-
-  /** Label/value rows: label in a narrow muted column, value beside it. */
-  fields(rows: Array<[string, string]>, x = MARGIN.left, width = CONTENT_WIDTH, labelWidth = 118): void {
-    const doc = this.doc;
-    for (const [label, value] of rows) {
-      doc.font('sans').fontSize(8.5);
-      const h = Math.max(doc.heightOfString(value || '—', { width: width - labelWidth }), 10);
-      this.ensure(h + 3);
-      const y = doc.y;
-      doc
-        .font('sans')
-        .fontSize(7.5)
-        .fillColor(MUTED)
-        .text(label, x, y + 0.8, { width: labelWidth - 6 });
-      doc
-        .font('sans')
-        .fontSize(8.5)
-        .fillColor(INK)
-        .text(value || '—', x + labelWidth, y, { width: width - labelWidth });
-      doc.y = y + h + 3;
-    }
-  }
-}
-
 type Column = { title: string; width: number; align: 'left' | 'right' | 'center'; group?: 'found' | 'left' };
-
-/** Draws `text` in one line within `width`, stepping the size down (to 70 %) rather than letting it run over. */
-function fitText(doc: Doc, text: string, x: number, y: number, width: number, align: Column['align'], size: number): void {
-  let fontSize = size;
-  doc.fontSize(fontSize);
-  while (doc.widthOfString(text) > width && fontSize > size * 0.7) {
-    fontSize -= 0.2;
-    doc.fontSize(fontSize);
-  }
-  doc.text(text, x, y + (size - fontSize) * 0.6, { width, align, lineBreak: false });
-}
 
 /**
  * One range's results, per setting: nominal and tolerance, then as found (measured, error, U, k,
@@ -286,7 +207,7 @@ function resultsColumns(range: RangeResult, unit: FrequencyUnit): Column[] {
 /** The shaded header: the two side titles over their columns, then every column's title. */
 function drawResultsHeader(doc: Doc, columns: readonly Column[]): void {
   const y = doc.y;
-  doc.rect(MARGIN.left, y, CONTENT_WIDTH, RESULTS_HEADER_HEIGHT).fill('#eef1f4');
+  doc.rect(MARGIN.left, y, CONTENT_WIDTH, RESULTS_HEADER_HEIGHT).fill(HEADER_FILL);
   let x = MARGIN.left;
   for (const group of ['found', 'left'] as const) {
     const start =
@@ -342,7 +263,7 @@ function measuredCells(m: MeasuredPoint | null, unit: FrequencyUnit): string[] {
 function drawResultsRow(doc: Doc, range: RangeResult, unit: FrequencyUnit, columns: readonly Column[], p: RangeResult['points'][number], index: number): void {
   const decimals = decimalsOf(p.asLeft ?? p.asFound);
   const y = doc.y;
-  if (index % 2 === 1) doc.rect(MARGIN.left, y - 1.5, CONTENT_WIDTH, RESULTS_ROW_HEIGHT).fill('#f7f8fa');
+  if (index % 2 === 1) doc.rect(MARGIN.left, y - 1.5, CONTENT_WIDTH, RESULTS_ROW_HEIGHT).fill(ROW_FILL);
   const cells = [
     dialText(p.dial, range.dialUnit),
     frequencyText(p.nominal, unit, decimals),
@@ -368,7 +289,7 @@ function drawResultsRow(doc: Doc, range: RangeResult, unit: FrequencyUnit, colum
         .fillColor(MUTED)
         .text(note, x + 3, y, { width: width - 6, align: 'center', lineBreak: false });
     } else if (cell !== '') {
-      doc.font(isDecision ? (bad ? 'bold' : conditional ? 'medium' : 'sans') : 'mono').fillColor(bad ? '#a3261b' : conditional ? FOUND : INK);
+      doc.font(isDecision ? (bad ? 'bold' : conditional ? 'medium' : 'sans') : 'mono').fillColor(bad ? ALERT : conditional ? FOUND : INK);
       fitText(doc, cell, x + 2.5, y, c.width - 5, c.align, 7.2);
     }
     x += c.width;
@@ -499,7 +420,7 @@ function drawPlotData(doc: Doc, box: PlotBox, points: RangeResult['points'], sca
       if (i === 0) doc.moveTo(x, y);
       else doc.lineTo(x, y);
     });
-    doc.lineWidth(0.8).dash(3, { space: 2 }).strokeColor('#a3261b').stroke();
+    doc.lineWidth(0.8).dash(3, { space: 2 }).strokeColor(ALERT).stroke();
     doc.undash();
   }
   const series: Array<{ pick: (p: RangeResult['points'][number]) => MeasuredPoint | null; color: string; filled: boolean; offset: number }> = [
@@ -561,7 +482,7 @@ function drawPlotLegend(doc: Doc, box: PlotBox, range: RangeResult): void {
           .lineTo(x + 9, ly + 2.5)
           .lineWidth(0.8)
           .dash(3, { space: 2 })
-          .strokeColor('#a3261b')
+          .strokeColor(ALERT)
           .stroke();
         doc.undash();
       },
@@ -645,7 +566,7 @@ function lowTurSentence(results: JobResults): string {
   return `${what} It is below 4:1 at ${count} setting${count === 1 ? '' : 's'} — ${entries.join(' — ')}.`;
 }
 
-const OUTCOME_COLORS = { bad: '#a3261b', conditional: '#9a6b1f', good: '#1d6b3a', none: MUTED };
+const OUTCOME_COLORS = { bad: ALERT, conditional: '#9a6b1f', good: '#1d6b3a', none: MUTED };
 
 function outcomeTone(o: JobOutcome | null): keyof typeof OUTCOME_COLORS {
   if (!o || o.decision === null) return 'none';
@@ -717,25 +638,11 @@ export async function renderCertificatePdf(input: CertificatePdfData): Promise<B
   // Control characters go everywhere; names, serials and labels print on one line (see certificate-text.ts).
   const data = printableCertificateData(input);
   const qr = await QRCode.toBuffer(data.verifyUrl, { type: 'png', errorCorrectionLevel: 'M', margin: 1, width: 240 });
-  const doc = new PDFDocument({
-    size: 'A4',
-    margins: MARGIN,
-    bufferPages: true,
-    autoFirstPage: true,
-    info: {
-      Title: `Calibration certificate ${data.number} revision ${data.revision}`,
-      Author: data.lab.name,
-      Subject: `${data.instrument.make} ${data.instrument.model}, serial ${data.instrument.serial}`,
-      Creator: 'Kilocycle',
-      CreationDate: data.issuedAt,
-    },
-  });
-  for (const [name, path] of Object.entries(FONTS)) doc.registerFont(name, path);
-  const chunks: Buffer[] = [];
-  doc.on('data', (chunk: Buffer) => chunks.push(chunk));
-  const finished = new Promise<Buffer>((resolve, reject) => {
-    doc.on('end', () => resolve(Buffer.concat(chunks)));
-    doc.on('error', reject);
+  const { doc, finished } = houseDocument({
+    Title: `Calibration certificate ${data.number} revision ${data.revision}`,
+    Author: data.lab.name,
+    Subject: `${data.instrument.make} ${data.instrument.model}, serial ${data.instrument.serial}`,
+    CreationDate: data.issuedAt,
   });
   const layout = new Layout(doc);
   // Results stored before the two outcomes were kept get them from their own points.
@@ -780,7 +687,7 @@ function titleBlock(layout: Layout, data: CertificatePdfData, r: JobResults & { 
     doc
       .font('bold')
       .fontSize(8.5)
-      .fillColor('#a3261b')
+      .fillColor(ALERT)
       .text(
         `This revision replaces revision ${data.replaces.revision}${data.replaces.issuedAt ? ` (issued ${data.replaces.issuedAt.slice(0, 10)})` : ''}.`,
         MARGIN.left,
@@ -926,57 +833,13 @@ function statementSections(layout: Layout, data: CertificatePdfData, r: JobResul
     .text(`— End of certificate ${data.number}, revision ${data.revision} —`, MARGIN.left, doc.y, { width: CONTENT_WIDTH, align: 'center' });
 }
 
-/** The header and footer on every page ("Page x of y" needs the page count, so they are drawn last). */
+/** The header and footer on every page, in the house frame. */
 function pageFrames(doc: Doc, data: CertificatePdfData): void {
-  // ---- Header and footer on every page ----
-  const range = doc.bufferedPageRange();
-  for (let i = range.start; i < range.start + range.count; i++) {
-    doc.switchToPage(i);
-    const bottom = doc.page.margins.bottom;
-    doc.page.margins.bottom = 0; // writing into the footer band must not start a new page
-    const page = i - range.start + 1;
-    doc.font('bold').fontSize(8.5).fillColor(INK).text(data.lab.name, MARGIN.left, 30, { width: 300, lineBreak: false });
-    doc.font('sans').fontSize(7).fillColor(MUTED).text('Frequency calibration', MARGIN.left, 41, { width: 300, lineBreak: false });
-    doc
-      .font('mono')
-      .fontSize(8)
-      .fillColor(INK)
-      .text(`Certificate ${data.number} · rev. ${data.revision}`, PAGE.width - MARGIN.right - 260, 30, { width: 260, align: 'right', lineBreak: false });
-    doc
-      .font('mono')
-      .fontSize(8)
-      .fillColor(INK)
-      .text(`Page ${page} of ${range.count}`, PAGE.width - MARGIN.right - 260, 41, { width: 260, align: 'right', lineBreak: false });
-    doc
-      .moveTo(MARGIN.left, 54)
-      .lineTo(PAGE.width - MARGIN.right, 54)
-      .lineWidth(0.6)
-      .strokeColor(ACCENT)
-      .stroke();
-    const fy = PAGE.height - 46;
-    doc
-      .moveTo(MARGIN.left, fy)
-      .lineTo(PAGE.width - MARGIN.right, fy)
-      .lineWidth(0.4)
-      .strokeColor(RULE)
-      .stroke();
-    doc
-      .font('sans')
-      .fontSize(6.5)
-      .fillColor(MUTED)
-      .text(`Results relate only to the item calibrated. Reproduce only in full. Check this copy at ${data.verifyUrl}`, MARGIN.left, fy + 5, {
-        width: CONTENT_WIDTH - 115,
-        lineBreak: false,
-      });
-    doc
-      .font('mono')
-      .fontSize(6.5)
-      .fillColor(MUTED)
-      .text(`${data.number}/${data.revision} · ${page}/${range.count}`, PAGE.width - MARGIN.right - 110, fy + 5, {
-        width: 110,
-        align: 'right',
-        lineBreak: false,
-      });
-    doc.page.margins.bottom = bottom;
-  }
+  drawPageFrames(doc, {
+    labName: data.lab.name,
+    subtitle: 'Frequency calibration',
+    reference: `Certificate ${data.number} · rev. ${data.revision}`,
+    footer: `Results relate only to the item calibrated. Reproduce only in full. Check this copy at ${data.verifyUrl}`,
+    footerReference: (page, count) => `${data.number}/${data.revision} · ${page}/${count}`,
+  });
 }

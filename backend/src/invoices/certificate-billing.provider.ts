@@ -1,15 +1,14 @@
-import { Inject, Injectable } from '@nestjs/common';
+import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { In, type DataSource, type EntityManager } from 'typeorm';
 import type { CertificateRelease, Role } from '@kilocycle/common/types';
 import { certificateRelease } from '@kilocycle/common/rules';
-import { APP_CONFIG, type AppConfig } from '../config/config.module.js';
 import { JobScopeReader } from '../jobs/job-scope.reader.js';
 import type { CertificateBilling } from '../shared/certificate-billing.js';
 import { makeDraft } from './invoice-drafts.js';
 import { Invoice } from './invoice.entity.js';
 import { InvoicesService } from './invoices.service.js';
-import { labCurrency } from './lab-currency.js';
+import { labCurrency } from '../shared/currency.js';
 
 type Asker = { role: Role; organizationId: number };
 
@@ -22,7 +21,6 @@ type Asker = { role: Role; organizationId: number };
 export class CertificateBillingProvider implements CertificateBilling {
   constructor(
     @InjectDataSource() private readonly dataSource: DataSource,
-    @Inject(APP_CONFIG) private readonly config: AppConfig,
     private readonly jobs: JobScopeReader,
     private readonly invoices: InvoicesService,
   ) {}
@@ -32,7 +30,7 @@ export class CertificateBillingProvider implements CertificateBilling {
     if (!job) return;
     // An amendment signs the job again: the invoice made at the first signing stands (corrections are credit notes).
     if (await manager.findOne(Invoice, { where: { jobId } })) return;
-    await makeDraft(manager, this.invoices.sources, job, { actorId: null, currency: labCurrency(this.config) });
+    await makeDraft(manager, this.invoices.sources, job, { actorId: null, currency: labCurrency() });
   }
 
   async releaseFor(user: Asker, jobId: number, manager?: EntityManager): Promise<CertificateRelease> {

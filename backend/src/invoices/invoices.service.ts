@@ -26,7 +26,7 @@ import { asInput } from './invoice-lines.js';
 import { renderCreditNotePdf, renderInvoicePdf, type BillingParties } from './invoice-pdf.js';
 import { creditNoteView, InvoiceViews, OVERDUE_SQL } from './invoice-views.js';
 import { Invoice } from './invoice.entity.js';
-import { labCurrency } from './lab-currency.js';
+import { labCurrency } from '../shared/currency.js';
 
 const SORTABLE = {
   id: 'i.id',
@@ -74,7 +74,7 @@ export class InvoicesService {
   }
 
   get currency(): string {
-    return labCurrency(this.config);
+    return labCurrency();
   }
 
   async list(user: AuthUser, query: ListInvoicesQueryDto, now = new Date()): Promise<ListResponse<InvoiceView>> {

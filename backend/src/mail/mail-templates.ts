@@ -88,3 +88,32 @@ export function recallReminderMail(raw: {
     links: [input.portalUrl],
   };
 }
+
+export function quoteSentMail(raw: {
+  to: string[];
+  labName: string;
+  number: string;
+  jobNumber: string;
+  instrument: string;
+  customer: string;
+  /** The total with tax, as printed ("€1,234.50"). */
+  total: string;
+  /** YYYY-MM-DD */
+  validUntil: string;
+  portalUrl: string;
+  pdf: Buffer;
+  fileName: string;
+}): OutgoingMail {
+  const input = printableMailInput(raw);
+  return {
+    kind: 'quote_sent',
+    to: input.to,
+    subject: `Quote ${input.number} for ${input.instrument} (job ${input.jobNumber})`,
+    text:
+      `Hello,\n\n${input.labName} quotes ${input.total} for the work on ${input.instrument} of ${input.customer} ` +
+      `(job ${input.jobNumber}). The quote is attached as a PDF and is valid until ${input.validUntil}.\n\n` +
+      `You can accept or decline it in the portal, or tell the laboratory by reply:\n${input.portalUrl}`,
+    links: [input.portalUrl],
+    attachments: [{ filename: input.fileName, content: input.pdf, contentType: 'application/pdf' }],
+  };
+}

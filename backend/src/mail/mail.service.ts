@@ -3,7 +3,7 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import type { DataSource } from 'typeorm';
 import { AuditService } from '../audit/audit.service.js';
 import { Mailer, type OutgoingMail } from './mailer.js';
-import { certificateIssuedMail, jobReturnedMail } from './mail-templates.js';
+import { certificateIssuedMail, jobReturnedMail, quoteSentMail } from './mail-templates.js';
 
 // What other modules may use of mail besides the service: the mailer (the CLI's recall run builds one) and the templates.
 export { Mailer, type OutgoingMail } from './mailer.js';
@@ -39,6 +39,11 @@ export class MailService implements OnModuleInit, OnApplicationShutdown {
   /** Sends the customer an issued certificate with its PDF (never fails the caller: see sendSafely). */
   sendCertificateIssued(content: Parameters<typeof certificateIssuedMail>[0], about: { entity: string; entityId: string | number }): Promise<boolean> {
     return this.sendSafely(certificateIssuedMail(content), about);
+  }
+
+  /** Sends the customer a quote with its PDF (never fails the caller: see sendSafely). */
+  sendQuoteSent(content: Parameters<typeof quoteSentMail>[0], about: { entity: string; entityId: string | number }): Promise<boolean> {
+    return this.sendSafely(quoteSentMail(content), about);
   }
 
   /**

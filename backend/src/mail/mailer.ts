@@ -7,7 +7,8 @@ import { mailSignOff, mailTextToHtml } from './mail-text.js';
 import { parseMessage } from './read-message.js';
 import { SmtpFake, type CapturedMail } from './smtp-fake.js';
 
-export type MailKind = 'certificate_issued' | 'job_returned' | 'recall_reminder' | 'invoice_issued' | 'credit_note' | 'invoice_overdue' | 'other';
+export type MailKind =
+  'certificate_issued' | 'job_returned' | 'recall_reminder' | 'quote_sent' | 'invoice_issued' | 'credit_note' | 'invoice_overdue' | 'other';
 
 export type OutgoingMail = {
   kind: MailKind;

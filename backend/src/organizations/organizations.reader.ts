@@ -29,6 +29,12 @@ export class OrganizationsReader {
     return found ? toContact(found) : null;
   }
 
+  /** Every organisation of a kind (active or not), by name. */
+  async ofKind(kind: OrganizationKind, manager?: EntityManager): Promise<OrganizationContact[]> {
+    const found = await (manager ?? this.dataSource.manager).find(Organization, { where: { kind }, order: { name: 'ASC' } });
+    return found.map(toContact);
+  }
+
   /** These organisations, by id. */
   async byIds(ids: readonly number[], manager?: EntityManager): Promise<Map<number, OrganizationContact>> {
     const unique = [...new Set(ids)];

@@ -1,5 +1,6 @@
 import type { EntityManager } from 'typeorm';
 import type { BillingLineInput } from '@kilocycle/common/types';
+import { Instrument } from '../instruments/instrument.entity.js';
 import { seedDemoInvoice } from '../invoices/invoices.demo.js';
 import { insertDemoJob, nextDemoJobNumber } from '../jobs/jobs.demo.js';
 import { addDays } from '../shared/demo-signals.js';
@@ -37,7 +38,8 @@ const LINES = {
  *   the button that pays.
  *   Saltmarsh: one overdue, one part paid with a small credit note, one issued and not yet due, and a draft the
  *   lead has not issued.
- * The earlier jobs are closed visits of the customers' instruments (issued, without a certificate of their own here).
+ * The earlier jobs are closed visits of an instrument of each customer's that is not due again for months (issued,
+ * without a certificate of their own here), so the other demo instruments' newest jobs stay what they were.
  */
 export async function seedDemoInvoices({ manager, customerIds, userIds }: DemoContext): Promise<void> {
   const today = new Date();
@@ -45,14 +47,19 @@ export async function seedDemoInvoices({ manager, customerIds, userIds }: DemoCo
   const lead = userIds['lead@kilocycle.test']!;
   const tech = userIds['tech@kilocycle.test']!;
   const northgateVfoJob = await issuedJobOf(manager, customerIds.northgate);
-  const pastJob = (organizationId: number, offset: number) => earlierJob(manager, { organizationId, receivedOffset: offset, technicianId: tech, today });
+  const instruments = {
+    northgate: await earlierInstrument(manager, customerIds.northgate, { make: 'Pellham', model: 'Crystal marker CM-4', serial: 'N-0288', today }),
+    saltmarsh: await earlierInstrument(manager, customerIds.saltmarsh, { make: 'Ostrander', model: 'Heterodyne wavemeter HW-2', serial: 'SW-5512', today }),
+  };
+  const pastJob = (customer: keyof typeof instruments, offset: number) =>
+    earlierJob(manager, { organizationId: customerIds[customer], instrumentId: instruments[customer], receivedOffset: offset, technicianId: tech, today });
 
-  const northgatePaid = await pastJob(customerIds.northgate, -130);
-  const saltmarshOverdue = await pastJob(customerIds.saltmarsh, -95);
-  const northgateCredited = await pastJob(customerIds.northgate, -75);
-  const saltmarshPartPaid = await pastJob(customerIds.saltmarsh, -40);
-  const saltmarshIssued = await pastJob(customerIds.saltmarsh, -16);
-  const saltmarshDraft = await pastJob(customerIds.saltmarsh, -5);
+  const northgatePaid = await pastJob('northgate', -130);
+  const saltmarshOverdue = await pastJob('saltmarsh', -95);
+  const northgateCredited = await pastJob('northgate', -75);
+  const saltmarshPartPaid = await pastJob('saltmarsh', -40);
+  const saltmarshIssued = await pastJob('saltmarsh', -16);
+  const saltmarshDraft = await pastJob('saltmarsh', -5);
 
   await seedDemoInvoice(manager, {
     jobId: northgatePaid,
@@ -121,18 +128,34 @@ async function issuedJobOf(manager: EntityManager, organizationId: number): Prom
   return Number(row.id);
 }
 
-/** An earlier, closed visit of one of the customer's instruments. */
+/** An instrument the customer has had calibrated before, next due well after the recall notice period. */
+async function earlierInstrument(
+  manager: EntityManager,
+  organizationId: number,
+  input: { make: string; model: string; serial: string; today: Date },
+): Promise<number> {
+  const result = await manager.insert(Instrument, {
+    organizationId,
+    make: input.make,
+    model: input.model,
+    serial: input.serial,
+    assetTag: null,
+    description: 'Bench reference, calibrated yearly.',
+    recallIntervalMonths: 12,
+    nextDueDate: addDays(input.today, 240),
+  });
+  return result.identifiers[0].id as number;
+}
+
+/** An earlier, closed visit of that instrument. */
 async function earlierJob(
   manager: EntityManager,
-  input: { organizationId: number; receivedOffset: number; technicianId: number; today: Date },
+  input: { organizationId: number; instrumentId: number; receivedOffset: number; technicianId: number; today: Date },
 ): Promise<number> {
-  const [instrument] = (await manager.query('SELECT id FROM instruments WHERE organization_id = ? ORDER BY id LIMIT 1', [input.organizationId])) as Array<{
-    id: number;
-  }>;
   const receivedDate = addDays(input.today, input.receivedOffset);
   const { id } = await insertDemoJob(manager, {
     number: await nextDemoJobNumber(manager, receivedDate),
-    instrumentId: Number(instrument!.id),
+    instrumentId: input.instrumentId,
     organizationId: input.organizationId,
     receivedDate,
     status: 'issued',

@@ -1,7 +1,7 @@
 import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
 
 /** What a stored file is, for the reader who finds a row and for the store's own check on read. */
-export type StoredFileKind = 'certificate-pdf' | 'attachment' | 'invoice-pdf' | 'credit-note-pdf';
+export type StoredFileKind = 'certificate-pdf' | 'attachment' | 'quote-pdf' | 'invoice-pdf' | 'credit-note-pdf';
 
 /**
  * Files every app node reads: certificate PDFs and attachments, kept in MariaDB instead of a node's var/.

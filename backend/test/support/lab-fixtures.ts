@@ -39,12 +39,30 @@ export async function instrumentWithJob(
   if (instrument.status !== 201) throw new Error(`instrument: ${instrument.status} ${JSON.stringify(instrument.body)}`);
   const job = await t.http.post('/api/jobs').set(headers).send({ instrumentId: instrument.body.id, receivedDate: '2025-03-01' });
   if (job.status !== 201) throw new Error(`job: ${job.status} ${JSON.stringify(job.body)}`);
+  await acceptedQuoteIfRequired(t, job.body.id as number, opts.organizationId);
   return {
     instrumentId: instrument.body.id,
     rangeIds: instrument.body.ranges.map((r: { id: number }) => r.id),
     jobId: job.body.id,
     jobNumber: job.body.number,
   };
+}
+
+/**
+ * Work on a job of a customer whose terms require a quote (the demo's Northgate) starts only once a quote is
+ * accepted (quotes/quote-start-gate.ts). A fixture job is one the lab is ready to work on, so it gets an accepted
+ * quote (no lines, recorded as by phone), written directly: the quote routes are the quotes tests' subject, and
+ * sending one would add a mail to the outbox of every test that makes a job.
+ */
+export async function acceptedQuoteIfRequired(t: TestApp, jobId: number, organizationId: number): Promise<void> {
+  const [terms] = await t.dataSource.query('SELECT requires_quote FROM customer_terms WHERE organization_id = ?', [organizationId]);
+  if (!terms || !Number(terms.requires_quote)) return;
+  const [lead] = await t.dataSource.query("SELECT id FROM users WHERE role = 'lead' ORDER BY id LIMIT 1");
+  const result = await t.dataSource.query(
+    "INSERT INTO quotes (job_id, organization_id, status, currency, validity_days, created_by, decided_by, decided_at, acceptance_channel, decision_note) VALUES (?, ?, 'accepted', 'EUR', 30, ?, ?, UTC_TIMESTAMP(3), 'phone', 'accepted for a test job')",
+    [jobId, organizationId, lead.id, lead.id],
+  );
+  await t.dataSource.query('UPDATE quotes SET number = ? WHERE id = ?', [`Q-${String(result.insertId).padStart(6, '0')}`, result.insertId]);
 }
 
 /**
