@@ -287,6 +287,7 @@ export class QuotesService {
   /** A client accepts in the portal; the lab records an acceptance given by phone, e-mail or in person, with a note. */
   async accept(actor: AuthUser, id: number, body: AcceptQuoteDto): Promise<QuoteView> {
     const note = body.note || null;
+    await this.get(actor, id); // a quote the actor may not see is not found, whatever the body says
     let channel: AcceptanceChannel;
     if (actor.role === 'client') {
       if (body.channel !== undefined && body.channel !== 'portal') throw new BadRequestException('channel: a client accepts in the portal; leave channel out');

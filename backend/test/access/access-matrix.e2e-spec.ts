@@ -46,9 +46,9 @@ type Customer = 'northgate' | 'saltmarsh';
 const OTHER: Record<Customer, Customer> = { northgate: 'saltmarsh', saltmarsh: 'northgate' };
 
 /** Records owned by a customer organisation (a client sees its own, and gets 404 for the other's). */
-type Owned = 'instrument' | 'job' | 'run' | 'reading' | 'certificate' | 'attachment' | 'organization' | 'user' | 'invoice' | 'creditNote' | 'payment';
+type Owned = 'instrument' | 'job' | 'run' | 'reading' | 'certificate' | 'attachment' | 'organization' | 'user' | 'quote' | 'invoice' | 'creditNote' | 'payment';
 /** Lab records (no customer owns them) and plain values. */
-type Lab = 'bench' | 'procedure' | 'standard' | 'comparison' | 'mail' | 'zero' | 'importId' | 'certificateNumber' | 'missing';
+type Lab = 'bench' | 'procedure' | 'standard' | 'comparison' | 'mail' | 'zero' | 'importId' | 'certificateNumber' | 'missing' | 'priceItem' | 'taxRate';
 type Rule = {
   /** Who may call it: 'public' (no sign-in), or the roles. A client in the list is scoped to its organisation. */
   roles: 'public' | readonly Role[];
@@ -69,6 +69,8 @@ const RECEIVE: readonly Role[] = ['admin', 'lead', 'technician'];
 // Capture (typed, imported, excluded readings; opening and correcting runs) is open to all lab staff: the
 // engineer captures drift studies, and the lead's own captures are what the no-self-signing rule reads.
 const CAPTURE: readonly Role[] = LAB;
+// Prices, quotes and invoices (issue 18): the admin and the lead.
+const BILLING: readonly Role[] = ['admin', 'lead'];
 
 export const ACCESS_MATRIX: Record<string, Rule> = {
   // Public: the health check, sign-in and the verification page.
@@ -194,6 +196,30 @@ export const ACCESS_MATRIX: Record<string, Rule> = {
   'GET /api/recall/notices': { roles: ['admin', 'lead'] },
   'POST /api/recall/run': { roles: ['admin'], body: 'none', performed: 'at-end' },
 
+  // Prices, tax rates and customer terms (issue 18): admin and lead set them; technicians and engineers see
+  // prices but do not change them; a client reads its own organisation's terms (its tax and payment terms).
+  'GET /api/prices/items': { roles: LAB },
+  'POST /api/prices/items': { roles: BILLING },
+  'PATCH /api/prices/items/{id}': { roles: BILLING, ids: { id: 'priceItem' } },
+  'GET /api/prices/tax-rates': { roles: LAB },
+  'POST /api/prices/tax-rates': { roles: BILLING },
+  'PATCH /api/prices/tax-rates/{id}': { roles: BILLING, ids: { id: 'taxRate' } },
+  'GET /api/prices/customer-terms': { roles: LAB },
+  'GET /api/prices/customer-terms/{organizationId}': { roles: ALL, ids: { organizationId: 'organization' } },
+  'PUT /api/prices/customer-terms/{organizationId}': { roles: BILLING, ids: { organizationId: 'organization' } },
+
+  // Quotes: admin and lead make, change and send them; the lab reads them all, a client its own organisation's once
+  // sent. The client accepts or declines in the portal; admin and lead record a decision given by phone or mail.
+  // Deciding, sending and making a quote take no probe body: they are called on a quote or job that does not exist.
+  'GET /api/quotes': { roles: ALL },
+  'GET /api/quotes/{id}': { roles: ALL, ids: { id: 'quote' } },
+  'GET /api/quotes/{id}/pdf': { roles: ALL, ids: { id: 'quote' } },
+  'PATCH /api/quotes/{id}': { roles: BILLING, ids: { id: 'quote' } },
+  'POST /api/quotes/{id}/send': { roles: BILLING, ids: { id: 'missing' }, body: 'none' },
+  'POST /api/quotes/{id}/accept': { roles: [...BILLING, 'client'], ids: { id: 'missing' }, body: 'none' },
+  'POST /api/quotes/{id}/decline': { roles: [...BILLING, 'client'], ids: { id: 'missing' }, body: 'none' },
+  'POST /api/jobs/{id}/quote': { roles: BILLING, ids: { id: 'missing' }, body: 'none' },
+
   // Billing (issue 18): admin and lead make, issue and credit invoices; the rest of the lab reads them; a client
   // reads its own organisation's issued invoices, credit notes and statement. The bookkeeper's export and the
   // overdue reminder run are billing work (admin, lead).
@@ -259,6 +285,8 @@ describe('access matrix (e2e, MariaDB): every route × every role × own/other o
         [org],
       ),
       user: await one("SELECT id FROM users WHERE organization_id = ? AND role = 'client' ORDER BY id LIMIT 1", [org]),
+      // A quote the client may see (drafts are the lab's own).
+      quote: await one("SELECT id FROM quotes WHERE organization_id = ? AND status <> 'draft' ORDER BY id LIMIT 1", [org]),
       invoice: await one("SELECT id FROM invoices WHERE organization_id = ? AND status <> 'draft' ORDER BY id LIMIT 1", [org]),
       creditNote: await one('SELECT id FROM credit_notes WHERE organization_id = ? ORDER BY id LIMIT 1', [org]),
       payment: await one('SELECT id FROM payments WHERE organization_id = ? ORDER BY id LIMIT 1', [org]),
@@ -275,6 +303,7 @@ describe('access matrix (e2e, MariaDB): every route × every role × own/other o
       ...(await texts('SELECT number AS v FROM jobs WHERE organization_id = ?')),
       ...(await texts('SELECT number AS v FROM certificates WHERE organization_id = ?')),
       ...(await texts('SELECT email AS v FROM users WHERE organization_id = ?')),
+      ...(await texts('SELECT number AS v FROM quotes WHERE organization_id = ?')),
       ...(await texts('SELECT number AS v FROM invoices WHERE organization_id = ? AND number IS NOT NULL')),
       ...(await texts('SELECT number AS v FROM credit_notes WHERE organization_id = ?')),
       ...(await texts(
@@ -339,6 +368,8 @@ describe('access matrix (e2e, MariaDB): every route × every role × own/other o
         procedure: await one('SELECT id FROM procedures ORDER BY id LIMIT 1'),
         standard: await one('SELECT id FROM standards ORDER BY id LIMIT 1'),
         comparison: await one('SELECT id FROM comparisons ORDER BY id LIMIT 1'),
+        priceItem: await one('SELECT id FROM price_items ORDER BY id LIMIT 1'),
+        taxRate: await one('SELECT id FROM tax_rates ORDER BY id LIMIT 1'),
         mail: await one('SELECT id FROM mail_messages WHERE attachment_count > 0 ORDER BY id LIMIT 1'),
         certificateNumber: (
           (await t.dataSource.query("SELECT number FROM certificates WHERE status = 'issued' ORDER BY id LIMIT 1")) as Array<{ number: string }>
@@ -400,7 +431,7 @@ describe('access matrix (e2e, MariaDB): every route × every role × own/other o
 
   const ownsIds = (rule: Rule) =>
     Object.values(rule.ids ?? {}).some((kind) =>
-      ['instrument', 'job', 'run', 'reading', 'certificate', 'attachment', 'organization', 'user', 'invoice', 'creditNote'].includes(kind),
+      ['instrument', 'job', 'run', 'reading', 'certificate', 'attachment', 'organization', 'user', 'quote', 'invoice', 'creditNote', 'payment'].includes(kind),
     );
 
   async function send(method: string, path: string, rule: Rule, headers: Record<string, string>): Promise<Response> {
