@@ -138,7 +138,8 @@ async function insertReceivedJob(manager: EntityManager, organizationId: number,
       assetTag: 'NRC-14',
       description: 'The club’s field-day generator, the same model as its bench pair.',
       recallIntervalMonths: 12,
-      nextDueDate: addDays(today, 5),
+      // Beyond the recall notice period (30 days), so the recall demo keeps its two instruments due.
+      nextDueDate: addDays(today, 45),
     })
   ).identifiers[0].id as number;
   const ranges = await manager.find(InstrumentRange, { where: { instrumentId: twin.id }, order: { position: 'ASC' } });
