@@ -1,9 +1,22 @@
 // Benchmark of the metrology core on 1,000,000 readings (run: npm run bench -w common).
 // Prints the linear fit, the warm-up drift fit and the overlapping Allan deviation at all
-// octaves, each in ms, beside simple-statistics' linearRegression on the same data, and the
+// octaves, each in ms, then every deviation (ADEV, MDEV, HDEV, TDEV, TOTDEV) at all octaves
+// plus decades (1-2-5) with its total against the 1.5 s target (issue 19), beside simple-statistics' linearRegression on the same data, and the
 // total against the 1 s target. Not a test: figures vary with the machine and its load.
 import { linearRegression } from 'simple-statistics';
-import { fitLine, fitWarmup, fractionalFrequency, overlappingAdev } from '../dist/math/index.js';
+import {
+  decades,
+  fitLine,
+  fitWarmup,
+  fractionalFrequency,
+  hadamardDev,
+  modifiedAdev,
+  octaves,
+  overlappingAdev,
+  phaseFromFractionalFrequency,
+  timeDev,
+  totalDev,
+} from '../dist/math/index.js';
 
 const COUNT = 1_000_000;
 const TAU0 = 0.01; // s: 100 readings a second for 10 000 s
@@ -58,6 +71,34 @@ console.log(`fitLine slope ${line.result.slope.toExponential(6)} Hz/s vs simple-
 console.log(
   `fitWarmup τ = ${drift.result.tau.toFixed(2)} ± ${drift.result.seTau.toFixed(2)} s (true 900), A = ${drift.result.amplitude.toFixed(3)} Hz (true −250), residual SD ${drift.result.residualSd.toFixed(3)} Hz (true 2), LM on ${drift.result.fittedPoints} bins`,
 );
+
+// Every deviation at all octaves plus decades (issue 19), from the same readings; timed from the
+// readings in Hz (fractional frequency and phase included), edf and χ² intervals included.
+const factorsUpTo = (limit) => [...new Set([...octaves(limit), ...decades(limit)])].sort((a, b) => a - b);
+const ySmall = fractionalFrequency(f.subarray(0, 10_000), NOMINAL);
+const phaseSmall = phaseFromFractionalFrequency(ySmall, TAU0);
+for (const fn of [hadamardDev, timeDev, totalDev]) fn(phaseSmall, TAU0);
+modifiedAdev(ySmall, TAU0);
+const conversion = time('  fractional frequency, then phase (x = Σ y·τ0)', () => {
+  const y = fractionalFrequency(f, NOMINAL);
+  return { y, x: phaseFromFractionalFrequency(y, TAU0) };
+});
+const { y, x } = conversion.result;
+const N = x.length;
+const deviations = [
+  time('  ADEV (overlapping)', () => overlappingAdev(y, TAU0, { factors: factorsUpTo((N - 1) / 2) })),
+  time('  MDEV', () => modifiedAdev(y, TAU0, { factors: factorsUpTo(N / 3) })),
+  time('  HDEV (overlapping)', () => hadamardDev(x, TAU0, { factors: factorsUpTo((N - 1) / 3) })),
+  time('  TDEV', () => timeDev(x, TAU0, { factors: factorsUpTo(N / 3) })),
+  time('  TOTDEV', () => totalDev(x, TAU0, { factors: factorsUpTo((N - 1) / 2) })),
+];
+console.log('');
+console.log('All deviations at octaves plus decades (1-2-5), with edf and χ² intervals:');
+console.log(`${pad(conversion.label)}${conversion.ms.toFixed(1).padStart(9)} ms`);
+for (const row of deviations) console.log(`${pad(`${row.label}, ${row.result.length} factors`)}${row.ms.toFixed(1).padStart(9)} ms`);
+const deviationTotal = deviations.reduce((sum, row) => sum + row.ms, conversion.ms);
+console.log(`${pad('total of all deviations')}${deviationTotal.toFixed(1).padStart(9)} ms   target < 1500 ms: ${deviationTotal < 1500 ? 'met' : 'NOT met'}`);
+console.log('');
 console.log(
   `ADEV: ${adev.result.length} octaves, τ = ${adev.result[0].tau} s … ${adev.result[adev.result.length - 1].tau} s; σ_y(${adev.result[0].tau} s) = ${adev.result[0].deviation.toExponential(3)}`,
 );

@@ -39,6 +39,11 @@ export type AppConfig = {
   signingKeyFile: string | null;
   /** This node's name among several (KC_NODE_NAME); null when unset. */
   nodeName: string | null;
+  /**
+   * Money: the lab's currency (KC_CURRENCY, default EUR) and the payment service: the real one when its key and
+   * webhook secret are set, else the local fake started on 127.0.0.1:fakePort (KC_PAYMENT_FAKE_PORT, default 5191).
+   */
+  billing: { currency: string; payments: { kind: 'service'; secretKey: string; webhookSecret: string } | { kind: 'fake'; fakePort: number } };
 };
 
 const here = dirname(fileURLToPath(import.meta.url));
@@ -113,6 +118,13 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     cluster: v.KC_REDIS_URL ? { redisUrl: v.KC_REDIS_URL } : null,
     signingKeyFile: v.KC_SIGNING_KEY_FILE ? givenFile('KC_SIGNING_KEY_FILE', v.KC_SIGNING_KEY_FILE, 'a certificate signing key (PEM)') : null,
     nodeName: v.KC_NODE_NAME ?? null,
+    billing: {
+      currency: v.KC_CURRENCY ?? 'EUR',
+      payments:
+        v.KC_STRIPE_SECRET_KEY && v.KC_STRIPE_WEBHOOK_SECRET
+          ? { kind: 'service', secretKey: v.KC_STRIPE_SECRET_KEY, webhookSecret: v.KC_STRIPE_WEBHOOK_SECRET }
+          : { kind: 'fake', fakePort: v.KC_PAYMENT_FAKE_PORT ?? 5191 },
+    },
   };
 }
 

@@ -225,4 +225,33 @@ describe('the settings schema', () => {
       expect(loadConfig({ ...SECRET, KC_VAR_DIR: dir })).toMatchObject({ cluster: null, signingKeyFile: null, jwtSecret: SECRET.KC_JWT_SECRET });
     });
   });
+
+  describe('money (KC_CURRENCY) and the payment service (KC_STRIPE_SECRET_KEY, KC_STRIPE_WEBHOOK_SECRET, KC_PAYMENT_FAKE_PORT)', () => {
+    it('should take EUR and the fake on 5191 by default, and any ISO 4217 code the runtime knows', () => {
+      expect(loadConfig(SECRET).billing).toEqual({ currency: 'EUR', payments: { kind: 'fake', fakePort: 5191 } });
+      expect(loadConfig({ ...SECRET, KC_CURRENCY: 'JPY', KC_PAYMENT_FAKE_PORT: '0' }).billing).toEqual({
+        currency: 'JPY',
+        payments: { kind: 'fake', fakePort: 0 },
+      });
+      expect(checkEnvironment({ KC_CURRENCY: 'eur' }).problems.map((p) => p.key)).toEqual(['KC_CURRENCY']);
+      expect(checkEnvironment({ KC_CURRENCY: 'XYZ' }).problems.map((p) => p.key)).toEqual(['KC_CURRENCY']);
+    });
+    it('should use the real service only with both its key and webhook secret, and hide them', () => {
+      const service = { KC_STRIPE_SECRET_KEY: 'sk_live_abcdefgh1234', KC_STRIPE_WEBHOOK_SECRET: 'whsec_abcdefgh1234' };
+      expect(loadConfig({ ...SECRET, ...service }).billing.payments).toEqual({
+        kind: 'service',
+        secretKey: service.KC_STRIPE_SECRET_KEY,
+        webhookSecret: service.KC_STRIPE_WEBHOOK_SECRET,
+      });
+      expect(checkEnvironment({ KC_STRIPE_SECRET_KEY: service.KC_STRIPE_SECRET_KEY }).problems).toEqual([
+        { key: 'KC_STRIPE_WEBHOOK_SECRET', value: '', must: 'be set when KC_STRIPE_SECRET_KEY is (whsec_…)' },
+      ]);
+      const bad = checkEnvironment({ KC_STRIPE_SECRET_KEY: 'pk_live_public1234', KC_STRIPE_WEBHOOK_SECRET: service.KC_STRIPE_WEBHOOK_SECRET }).problems;
+      expect(bad).toEqual([{ key: 'KC_STRIPE_SECRET_KEY', value: '(hidden)', must: 'be a secret key such as sk_live_…' }]);
+    });
+    it('should refuse production without the real service: the fake takes no real money', () => {
+      const keys = checkEnvironment({ KC_MODE: 'production', KC_ADMIN_PASSWORD: 'a-long-enough-password' }).problems.map((p) => p.key);
+      expect(keys).toEqual(['KC_STRIPE_SECRET_KEY']);
+    });
+  });
 });

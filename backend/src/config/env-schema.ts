@@ -95,6 +95,12 @@ export function isAddressOrCidr(value: unknown): boolean {
 const PROXY_NAMES = ['loopback', 'linklocal', 'uniquelocal'];
 const isProxy = (value: unknown) => isAddressOrCidr(value) || PROXY_NAMES.includes(value as string);
 
+/** A currency code the runtime's ISO 4217 data knows (so minor units mean the same everywhere). */
+function isCurrency(value: unknown): boolean {
+  if (typeof value !== 'string' || !/^[A-Z]{3}$/.test(value)) return false;
+  return (Intl.supportedValuesOf('currency') as string[]).includes(value);
+}
+
 /** `Name <address>` or a bare address. */
 function isSender(value: unknown): boolean {
   if (typeof value !== 'string') return false;
@@ -155,12 +161,16 @@ export class EnvironmentVariables {
   @IsOptional() @Matches(/^[A-Z][A-Z0-9]{0,7}$/, { message: '1 to 8 capital letters or digits, starting with a letter' }) KC_CERT_PREFIX?: string;
   @IsOptional() @IsString() @MaxLength(200, { message: 'a name of at most 200 characters' }) KC_LAB_NAME?: string;
   @IsOptional() @IsString() @MaxLength(500, { message: 'an address of at most 500 characters' }) KC_LAB_ADDRESS?: string;
+
+  /** The lab's one currency (ISO 4217): every price, quote, invoice and payment is in its minor units. */
   @IsOptional()
-  @ValidateBy(
-    { name: 'isCurrency', validator: { validate: (v: unknown) => typeof v === 'string' && Intl.supportedValuesOf('currency').includes(v) } },
-    { message: 'an ISO 4217 currency code in capitals, e.g. EUR' },
-  )
+  @ValidateBy({ name: 'isCurrency', validator: { validate: isCurrency } }, { message: 'an ISO 4217 currency code such as EUR' })
   KC_CURRENCY?: string;
+  /** The local payment service fake's port (started only without KC_STRIPE_SECRET_KEY); 0 lets it pick a free one. */
+  @IsOptional() @apply(...integer(0, 65535, 'a port number (0 lets the payment fake pick a free one)')) KC_PAYMENT_FAKE_PORT?: number;
+  /** The real payment service: its secret API key and its webhook signing secret (both or neither). */
+  @IsOptional() @Matches(/^(sk|rk)_(test|live)_[A-Za-z0-9]{8,}$/, { message: 'a secret key such as sk_live_…' }) KC_STRIPE_SECRET_KEY?: string;
+  @IsOptional() @Matches(/^whsec_[A-Za-z0-9+/=]{8,}$/, { message: 'a webhook signing secret such as whsec_…' }) KC_STRIPE_WEBHOOK_SECRET?: string;
 
   @IsOptional() @apply(...integer(0, 86_400_000, 'a delay in milliseconds')) KC_RECALL_DELAY_MS?: number;
   @Switch() KC_RECALL_DISABLED?: boolean;
@@ -222,7 +232,7 @@ export type EnvironmentCheck = { values: EnvironmentVariables; problems: ConfigP
 
 const SHARED = 'every node of a cluster must read the same file, and a node never makes its own';
 
-const SECRET_KEYS = new Set(['KC_DB_PASSWORD', 'KC_JWT_SECRET', 'KC_ADMIN_PASSWORD', 'KC_SMTP_PASSWORD']);
+const SECRET_KEYS = new Set(['KC_DB_PASSWORD', 'KC_JWT_SECRET', 'KC_ADMIN_PASSWORD', 'KC_SMTP_PASSWORD', 'KC_STRIPE_SECRET_KEY', 'KC_STRIPE_WEBHOOK_SECRET']);
 
 /** Checks every KC_* value at once; pure (no I/O), so the CLI, seeds and tests use it as main does. */
 export function checkEnvironment(env: Record<string, unknown>): EnvironmentCheck {
@@ -263,6 +273,19 @@ export function checkEnvironment(env: Record<string, unknown>): EnvironmentCheck
     if (values.KC_SIGNING_KEY_FILE === undefined) {
       problems.push({ key: 'KC_SIGNING_KEY_FILE', value: '', must: `be set when KC_REDIS_URL is: ${SHARED}` });
     }
+  }
+  // The real payment service needs both its key and the secret its webhooks are signed with; production never
+  // takes money through the local fake.
+  const stripeKey = values.KC_STRIPE_SECRET_KEY !== undefined || has('KC_STRIPE_SECRET_KEY');
+  const stripeSecret = values.KC_STRIPE_WEBHOOK_SECRET !== undefined || has('KC_STRIPE_WEBHOOK_SECRET');
+  if (stripeKey && !stripeSecret) problems.push({ key: 'KC_STRIPE_WEBHOOK_SECRET', value: '', must: 'be set when KC_STRIPE_SECRET_KEY is (whsec_…)' });
+  if (stripeSecret && !stripeKey) problems.push({ key: 'KC_STRIPE_SECRET_KEY', value: '', must: 'be set when KC_STRIPE_WEBHOOK_SECRET is (sk_…)' });
+  if (values.KC_MODE === 'production' && !stripeKey && !stripeSecret) {
+    problems.push({
+      key: 'KC_STRIPE_SECRET_KEY',
+      value: '',
+      must: 'be set in production mode with KC_STRIPE_WEBHOOK_SECRET (the local payment fake takes no real money)',
+    });
   }
   // A replica that is the primary itself would take reads "off" the primary and add nothing.
   if (values.KC_DB_REPLICA_HOST !== undefined && !has('KC_DB_REPLICA_HOST') && !has('KC_DB_REPLICA_PORT') && !has('KC_DB_HOST') && !has('KC_DB_PORT')) {
@@ -312,6 +335,9 @@ const KNOWN_KEYS: readonly string[] = [
   'KC_LAB_NAME',
   'KC_LAB_ADDRESS',
   'KC_CURRENCY',
+  'KC_PAYMENT_FAKE_PORT',
+  'KC_STRIPE_SECRET_KEY',
+  'KC_STRIPE_WEBHOOK_SECRET',
   'KC_RECALL_DELAY_MS',
   'KC_RECALL_DISABLED',
   'KC_IMPORT_MAX_MB',

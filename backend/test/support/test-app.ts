@@ -12,6 +12,8 @@ import { setupApp } from '../../src/setup-app.js';
 
 // The daily recall timer stays off in tests unless a test turns it on (they call run() instead).
 process.env.KC_RECALL_DISABLED ??= '1';
+// Each test app starts its own payment service fake: on a free port, so test files never collide.
+process.env.KC_PAYMENT_FAKE_PORT ??= '0';
 
 export type TestApp = { app: NestExpressApplication; http: ReturnType<typeof request>; dataSource: DataSource; close: () => Promise<void> };
 

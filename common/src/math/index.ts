@@ -40,6 +40,22 @@ export { octaves, overlappingAdev, phaseFromFrequency, type StabilityOptions, ty
 export { modifiedAdev } from './modified-adev.js';
 export { adevEdf, chiSquaredInterval, type NoiseType } from './stability-confidence.js';
 export { detectGaps, type GapReport } from './detect-gaps.js';
+export { decades } from './decades.js';
+export type { DeviationOptions, DeviationPoint } from './deviation-input.js';
+export { hadamardDev, type HadamardOptions } from './hadamard-dev.js';
+export { timeDev } from './time-dev.js';
+export { totalDev } from './total-dev.js';
+export { greenhallEdf, NOISE_ALPHA, type EdfEstimator } from './greenhall-edf.js';
+export { totalDevEdf, TOTAL_DEV_EDF_COEFFICIENTS } from './total-dev-edf.js';
+export { phaseFromFractionalFrequency } from './phase-from-fractional-frequency.js';
+export { frequencyFromPhase } from './frequency-from-phase.js';
+export { linearFrequencyDrift, type DriftEstimate } from './linear-frequency-drift.js';
+export { threePointDrift } from './three-point-drift.js';
+export { bisectionDrift } from './bisection-drift.js';
+export { identifyNoise, B1_MIN_POINTS, LAG1_MIN_POINTS, type NoiseIdentification } from './identify-noise.js';
+export { longestContinuousSegment, type ContinuousSegment } from './longest-continuous-segment.js';
+export { fillPhaseGaps, type FilledPhase } from './fill-phase-gaps.js';
+export { madOutliers, MAD_TO_SIGMA, type MadScreen } from './mad-outliers.js';
 
 // Comparison (§5.5)
 export { summariseSample, welchDifference, welchFromSamples, type SampleSummary, type WelchDifference } from './welch-difference.js';

@@ -25,7 +25,9 @@ export type MetrologyErrorCode =
   | 'zero_frequency'
   | 'unknown_unit'
   | 'bad_grouping'
-  | 'mixed_separators';
+  | 'mixed_separators'
+  | 'phase_only'
+  | 'gap_at_end';
 
 /**
  * The one error type thrown by every function in `common/math` and `common/units`

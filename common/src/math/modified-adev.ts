@@ -1,7 +1,9 @@
+import { resolveFactors } from './deviation-input.js';
+import { greenhallEdf } from './greenhall-edf.js';
 import { assertFiniteArray, assertPositive } from './guards.js';
 import { MetrologyError } from './metrology-error.js';
 import { octaves, phaseFromFrequency, type StabilityOptions, type StabilityPoint } from './overlapping-adev.js';
-import { adevEdf, chiSquaredInterval } from './stability-confidence.js';
+import { chiSquaredInterval } from './stability-confidence.js';
 
 /**
  * Modified Allan deviation at octave averaging factors (NIST SP 1065, Riley 2008, Eq. 15,
@@ -10,17 +12,17 @@ import { adevEdf, chiSquaredInterval } from './stability-confidence.js';
  * τ = mτ0, N phase points. The inner sum is carried as a running (sliding) sum, so each
  * factor costs O(N) and all octaves O(N log N). Factors run while N − 3m + 1 ≥ 1.
  *
- * Confidence interval: χ² ({@link chiSquaredInterval}) with the overlapping-ADEV degrees of
- * freedom of SP 1065 Table 5 at the same N and m, used as an approximation: SP 1065 gives
- * the MVAR degrees of freedom only through Greenhall's algorithm, which is not implemented.
+ * Confidence interval: χ² ({@link chiSquaredInterval}) with the degrees of freedom of Greenhall's
+ * algorithm, through which SP 1065 §5.3 gives the MVAR edf ({@link greenhallEdf}: d = 2, modified,
+ * overlapping), for the chosen noise type.
  *
  * Checked against SP 1065 Table 30 (NBS14 data): 91.22945 and 74.78849 at m = 1, 2.
  *
  * @param y frequency data at a fixed interval
  * @param tau0 sampling interval, s
  * @param opts noise type and confidence for the interval, largest m
- * @returns one row per octave
- * @throws {MetrologyError} 'too_few_points' (under 2 frequency points), 'not_finite', 'bad_argument'
+ * @returns one row per octave (or per factor asked for)
+ * @throws {MetrologyError} 'too_few_points' (under 2 frequency points), 'not_finite', 'bad_argument', 'too_short' (a factor beyond N/3)
  * @example modifiedAdev([892, 809, 823, 798, 671, 644, 883, 903, 677], 1)[1].deviation; // => 74.78849…
  */
 export function modifiedAdev(y: ArrayLike<number>, tau0: number, opts: StabilityOptions = {}): StabilityPoint[] {
@@ -33,7 +35,8 @@ export function modifiedAdev(y: ArrayLike<number>, tau0: number, opts: Stability
   const x = phaseFromFrequency(y);
   const N = x.length;
   const limit = Math.min(Math.floor(N / 3), opts.maxM ?? Number.POSITIVE_INFINITY);
-  return octaves(limit).map((m) => {
+  const factors = opts.factors === undefined ? octaves(limit) : resolveFactors(fn, opts.factors, N / 3);
+  return factors.map((m) => {
     const terms = N - 3 * m + 1;
     const difference = (i: number) => x[i + 2 * m]! - 2 * x[i + m]! + x[i]!;
     let inner = 0;
@@ -44,7 +47,7 @@ export function modifiedAdev(y: ArrayLike<number>, tau0: number, opts: Stability
       sum += inner * inner;
     }
     const deviation = Math.sqrt(sum / (2 * m ** 4 * terms));
-    const edf = 2 * m <= N - 1 ? adevEdf(N, m, noise) : 1;
+    const edf = greenhallEdf({ d: 2, m, phasePoints: N, overlapping: true, modified: true, noise });
     const [ciLow, ciHigh] = chiSquaredInterval(deviation, edf, confidence);
     return { m, tau: m * tau0, deviation, n: terms, edf, ciLow, ciHigh };
   });

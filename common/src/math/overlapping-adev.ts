@@ -1,3 +1,4 @@
+import { resolveFactors } from './deviation-input.js';
 import { assertFiniteArray, assertPositive } from './guards.js';
 import { MetrologyError } from './metrology-error.js';
 import { overlappingAdevKernel } from './overlapping-adev-kernel.js';
@@ -26,6 +27,11 @@ export type StabilityOptions = {
   confidence?: number;
   /** Largest averaging factor to report (default: as far as the data allow). */
   maxM?: number;
+  /**
+   * Averaging factors wanted instead of the octaves (e.g. {@link decades}); a factor the data
+   * cannot give is refused ('too_short'). maxM is then ignored.
+   */
+  factors?: readonly number[];
 };
 
 /**
@@ -88,9 +94,9 @@ export function phaseFromFrequency(y: ArrayLike<number>): Float64Array {
  * @param y frequency data at a fixed interval (fractional frequency, or Hz: the deviation has y's unit)
  * @param tau0 sampling interval, s
  * @param opts noise type and confidence for the interval, largest m
- * @returns one row per octave
+ * @returns one row per octave (or per factor asked for)
  * @throws {MetrologyError} 'too_few_points' (under 2 frequency points), 'not_finite',
- *   'bad_argument' (τ0 ≤ 0, confidence outside (0, 1))
+ *   'bad_argument' (τ0 ≤ 0, confidence outside (0, 1), a factor not a whole number ≥ 1), 'too_short' (a factor beyond (N − 1)/2)
  * @example overlappingAdev([892, 809, 823, 798, 671, 644, 883, 903, 677], 1)[0].deviation; // => 91.22945…
  */
 export function overlappingAdev(y: ArrayLike<number>, tau0: number, opts: StabilityOptions = {}): StabilityPoint[] {
@@ -103,5 +109,6 @@ export function overlappingAdev(y: ArrayLike<number>, tau0: number, opts: Stabil
   const x = phaseFromFrequency(y);
   const N = x.length;
   const limit = Math.min(Math.floor((N - 1) / 2), opts.maxM ?? Number.POSITIVE_INFINITY);
-  return octaves(limit).map((m) => overlappingAdevKernel(x, m, tau0, noise, confidence));
+  const factors = opts.factors === undefined ? octaves(limit) : resolveFactors(fn, opts.factors, (N - 1) / 2);
+  return factors.map((m) => overlappingAdevKernel(x, m, tau0, noise, confidence));
 }

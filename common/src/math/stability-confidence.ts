@@ -20,7 +20,7 @@ export type NoiseType = 'white_pm' | 'flicker_pm' | 'white_fm' | 'flicker_fm' | 
  * @param noise dominant noise type
  * @returns equivalent degrees of freedom (≥ 1)
  * @throws {MetrologyError} 'bad_argument' for N < 3, m < 1 or 2m > N − 1
- * @example adevEdf(10, 1, 'white_fm'); // => 5.64…
+ * @example adevEdf(10, 1, 'white_fm'); // => 5.2888… ((13.5 − 1.6)·4/9 = 47.6/9)
  */
 export function adevEdf(phasePoints: number, m: number, noise: NoiseType): number {
   const N = phasePoints;
@@ -60,7 +60,7 @@ export function adevEdf(phasePoints: number, m: number, noise: NoiseType): numbe
  * @param confidence two-sided confidence, 0 < p < 1
  * @returns [low, high]
  * @throws {MetrologyError} 'bad_argument' for edf ≤ 0 or confidence outside (0, 1)
- * @example chiSquaredInterval(91.22945, 5.64, 0.683); // => [~70, ~130]
+ * @example chiSquaredInterval(91.22945, 5.2889, 0.683); // => [~70, ~130]
  */
 export function chiSquaredInterval(deviation: number, edf: number, confidence: number): [number, number] {
   if (!(edf > 0) || !(confidence > 0 && confidence < 1)) {

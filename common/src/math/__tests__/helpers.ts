@@ -66,3 +66,25 @@ export function errorCode(fn: () => unknown): string {
   }
   throw new Error('expected an error with a code');
 }
+
+/**
+ * The SP 1065 §12.4 1000-point test data (NIST SP 1065, Riley 2008): n(0) = 1234567890,
+ * n(i+1) = 16807·n(i) mod 2147483647, y(i) = n(i)/2147483647, fractional frequency at τ0 = 1 s.
+ */
+export function sp1065TestSuite(): number[] {
+  const out: number[] = [];
+  let n = 1234567890;
+  for (let i = 0; i < 1000; i++) {
+    out.push(n / 2147483647);
+    n = (16807 * n) % 2147483647; // exact: 16807·n < 2^53
+  }
+  return out;
+}
+
+/** Asserts that a value rounds to a printed figure at the figure's own digits ("70.80607", "2.943883e-01"). */
+export function expectPrintedDigits(actual: number, printed: string, label: string): void {
+  const exponential = /e/i.test(printed);
+  const digits = exponential ? printed.split(/e/i)[0]!.replace(/^-?\d\./, '').length : (printed.split('.')[1] ?? '').length;
+  const shown = exponential ? actual.toExponential(digits) : actual.toFixed(digits);
+  if (Number(shown) !== Number(printed)) throw new Error(`${label}: got ${actual} (${shown}), printed ${printed}`);
+}
