@@ -1,6 +1,6 @@
 import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
 import type { PriceUnit } from '@kilocycle/common/types';
-import { MINOR_UNITS } from '../shared/money-column.js';
+import { MoneyColumn } from '../shared/money-column.js';
 
 /** One service on the lab's price list: its own code, what it is, how it is counted and what one unit costs. */
 @Entity('price_items')
@@ -18,7 +18,7 @@ export class PriceItem {
   @Column({ type: 'varchar', length: 16 })
   unit: PriceUnit;
 
-  @Column({ name: 'unit_price_minor', type: 'bigint', transformer: MINOR_UNITS })
+  @MoneyColumn('unit_price_minor')
   unitPriceMinor: number;
 
   /** Proposed on every new quote (see prices/proposed-lines.reader.ts). */

@@ -1,8 +1,11 @@
 import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
 import type { PriceUnit } from '@kilocycle/common/types';
 import { PriceItem } from '../prices/price-item.entity.js';
-import { MINOR_UNITS } from '../shared/money-column.js';
+import { MoneyColumn } from '../shared/money-column.js';
 import { Quote } from './quote.entity.js';
+
+/** BIGINT read back as a number (mysql2 hands it over as text); quantities stay below MONEY_LIMITS.maxQuantityMilli. */
+const WHOLE_NUMBER = { to: (value: number) => value, from: (value: string | number) => Number(value) };
 
 /** One line of a quote with its amounts, rounded per line (common/src/money/line-amounts.ts). */
 @Entity('quote_lines')
@@ -40,21 +43,21 @@ export class QuoteLine {
   unit: PriceUnit;
 
   /** Thousandths (1.5 h = 1500). */
-  @Column({ name: 'quantity_milli', type: 'bigint', transformer: MINOR_UNITS })
+  @Column({ name: 'quantity_milli', type: 'bigint', transformer: WHOLE_NUMBER })
   quantityMilli: number;
 
-  @Column({ name: 'unit_price_minor', type: 'bigint', transformer: MINOR_UNITS })
+  @MoneyColumn('unit_price_minor')
   unitPriceMinor: number;
 
   @Column({ name: 'tax_rate_basis_points', type: 'int' })
   taxRateBasisPoints: number;
 
-  @Column({ name: 'net_minor', type: 'bigint', transformer: MINOR_UNITS })
+  @MoneyColumn('net_minor')
   netMinor: number;
 
-  @Column({ name: 'tax_minor', type: 'bigint', transformer: MINOR_UNITS })
+  @MoneyColumn('tax_minor')
   taxMinor: number;
 
-  @Column({ name: 'gross_minor', type: 'bigint', transformer: MINOR_UNITS })
+  @MoneyColumn('gross_minor')
   grossMinor: number;
 }

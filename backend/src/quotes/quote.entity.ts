@@ -2,7 +2,7 @@ import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, OneToMa
 import type { AcceptanceChannel, QuoteStatus } from '@kilocycle/common/types';
 import { Job } from '../jobs/job.entity.js';
 import { Organization } from '../organizations/organization.entity.js';
-import { MINOR_UNITS } from '../shared/money-column.js';
+import { MoneyColumn } from '../shared/money-column.js';
 import { User } from '../users/user.entity.js';
 import { QuoteLine } from './quote-line.entity.js';
 
@@ -54,13 +54,13 @@ export class Quote {
   @Column({ name: 'tax_rate_basis_points', type: 'int', default: 0 })
   taxRateBasisPoints: number;
 
-  @Column({ name: 'net_minor', type: 'bigint', default: 0, transformer: MINOR_UNITS })
+  @MoneyColumn('net_minor', { default: 0 })
   netMinor: number;
 
-  @Column({ name: 'tax_minor', type: 'bigint', default: 0, transformer: MINOR_UNITS })
+  @MoneyColumn('tax_minor', { default: 0 })
   taxMinor: number;
 
-  @Column({ name: 'gross_minor', type: 'bigint', default: 0, transformer: MINOR_UNITS })
+  @MoneyColumn('gross_minor', { default: 0 })
   grossMinor: number;
 
   @Column({ name: 'validity_days', type: 'int' })

@@ -15,7 +15,6 @@ import { CustomerTermsReader } from '../prices/customer-terms.reader.js';
 import { PricesService } from '../prices/prices.service.js';
 import { ProposedLinesReader } from '../prices/proposed-lines.reader.js';
 import { organizationScope, type AuthUser } from '../shared/auth-user.js';
-import { labCurrency } from '../shared/currency.js';
 import { dateOnly } from '../shared/dto-helpers.js';
 import { paginateFlat } from '../shared/page-query.js';
 import { likePattern } from '../shared/paginate.js';
@@ -169,7 +168,7 @@ export class QuotesService {
         jobId,
         organizationId: job.organizationId,
         status: 'draft',
-        currency: labCurrency(),
+        currency: this.config.billing.currency,
         taxExempt: tax.exempt,
         taxRegistration: tax.registration,
         taxRateBasisPoints: tax.rateBasisPoints,

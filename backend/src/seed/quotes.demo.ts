@@ -19,8 +19,8 @@ import { addDays } from '../shared/demo-signals.js';
 import { FileStore } from '../storage/file-store.service.js';
 import type { DemoContext } from './demo-seed.js';
 
-/** The Northgate generator that waits in 'received' for its quote to be accepted in the portal. */
-export const DEMO_QUOTED_INSTRUMENT = { make: 'Harwick Radio', model: 'SG-4 signal generator', serial: 'N-1302' } as const;
+/** The Northgate field generator (the bench SG-4's bands) that waits in 'received' for its quote to be accepted in the portal. */
+export const DEMO_QUOTED_INSTRUMENT = { make: 'Harwick Radio', model: 'FG-2 field signal generator', serial: 'N-1302' } as const;
 
 type DemoJob = { id: number; number: string; organizationId: number; receivedDate: string; instrument: string; instrumentId: number };
 type Decision = { daysAgo: number; by: number; channel: AcceptanceChannel | null; note: string | null };
@@ -128,7 +128,7 @@ async function demoJobs(manager: EntityManager): Promise<Array<DemoJob & { statu
   }));
 }
 
-/** A third club generator (the ranges of its twin N-1041), received today, whose work waits for the quote. */
+/** A third club generator (with the bands of the bench SG-4 N-1041), received yesterday, whose work waits for the quote. */
 async function insertReceivedJob(manager: EntityManager, organizationId: number, today: Date): Promise<DemoJob> {
   const twin = await manager.findOneByOrFail(Instrument, { serial: 'N-1041' });
   const instrumentId = (
@@ -136,9 +136,10 @@ async function insertReceivedJob(manager: EntityManager, organizationId: number,
       ...DEMO_QUOTED_INSTRUMENT,
       organizationId,
       assetTag: 'NRC-14',
-      description: 'The club’s field-day generator, the same model as its bench pair.',
+      description: 'The club’s field-day generator, on the same bands as its bench SG-4s.',
       recallIntervalMonths: 12,
-      nextDueDate: addDays(today, 5),
+      // In for its first calibration with the lab: no due date yet (the recall demo keeps its two instruments due).
+      nextDueDate: null,
     })
   ).identifiers[0].id as number;
   const ranges = await manager.find(InstrumentRange, { where: { instrumentId: twin.id }, order: { position: 'ASC' } });
