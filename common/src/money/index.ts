@@ -8,3 +8,5 @@ export { dueDate } from './due-date.js';
 export { currencyDigits } from './currency-digits.js';
 export { formatMoney } from './format-money.js';
 export { parseMoney } from './parse-money.js';
+export { parseQuantityMilli, formatQuantityMilli } from './quantity-milli.js';
+export { parseRatePercent, formatRatePercent } from './rate-basis-points.js';

@@ -21,6 +21,8 @@ export type PriceItem = {
   proposeOnQuotes: boolean;
   active: boolean;
   updatedAt: string;
+  /** The lab's currency (KC_CURRENCY) the unit price is in, so the price list can print and read it. */
+  currency: string;
 };
 export type CreatePriceItemRequest = Pick<PriceItem, 'code' | 'description' | 'unit' | 'unitPriceMinor'> & { proposeOnQuotes?: boolean };
 export type UpdatePriceItemRequest = Partial<CreatePriceItemRequest> & { active?: boolean };

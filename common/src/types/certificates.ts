@@ -2,6 +2,7 @@ import type { CalibrationFit, TrackingSummary } from '../math/analyse-calibratio
 import type { Decision, DecisionRule } from '../math/decide.js';
 import type { CaptureSettings } from './captures.js';
 import type { DialUnit, InstrumentRange, JobStatus, RunKind, Tolerance } from './lab.js';
+import type { CertificateRelease } from './billing.js';
 import type { ListQuery } from './list.js';
 
 export type { Decision, DecisionRule };
@@ -449,6 +450,8 @@ export type Certificate = {
   decision: Decision | null;
   /** The as-found outcome, before any adjustment (worst as-found decision); null when not measured or not decided. */
   asFoundDecision: Decision | null;
+  /** For a client: whether the PDF may be downloaded now, and if not why (the invoice that releases it). Absent for staff. */
+  release?: CertificateRelease;
 };
 
 /** GET /api/certificates/:id adds the results exactly as printed (stored at signing, never recomputed). */
