@@ -10,3 +10,4 @@ export { formatMoney } from './format-money.js';
 export { parseMoney } from './parse-money.js';
 export { parseQuantityMilli, formatQuantityMilli } from './quantity-milli.js';
 export { parseRatePercent, formatRatePercent } from './rate-basis-points.js';
+export { moneyEditText } from './money-edit-text.js';

@@ -1,5 +1,5 @@
 import { MetrologyError } from '../../math/metrology-error.js';
-import { formatQuantityMilli, formatRatePercent, parseQuantityMilli, parseRatePercent } from '../index.js';
+import { formatQuantityMilli, formatRatePercent, moneyEditText, parseMoney, parseQuantityMilli, parseRatePercent } from '../index.js';
 
 // Quantities are integer thousandths and tax rates integer basis points (common/src/types/billing.ts); the
 // expected counts below are the typed decimals with the point moved by hand.
@@ -45,5 +45,15 @@ describe('parseRatePercent and formatRatePercent', () => {
     expect(formatRatePercent(1750)).toBe('17.5 %');
     expect(formatRatePercent(525)).toBe('5.25 %');
     expect(formatRatePercent(0)).toBe('0 %');
+  });
+});
+
+describe('moneyEditText', () => {
+  it('should give the plain text parseMoney reads back', () => {
+    expect(moneyEditText(8500, 'EUR')).toBe('85.00');
+    expect(moneyEditText(5, 'EUR')).toBe('0.05');
+    expect(moneyEditText(123450, 'EUR')).toBe('1234.50');
+    expect(moneyEditText(1234, 'JPY')).toBe('1234');
+    expect(parseMoney(moneyEditText(4999, 'GBP'), 'GBP')).toBe(4999);
   });
 });
