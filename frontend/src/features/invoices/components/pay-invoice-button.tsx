@@ -18,20 +18,22 @@ export function PayInvoiceButton({ invoiceId, invoiceNumber, label = 'Pay by car
   const pay = usePayInvoice({
     onSuccess: ({ url }) => leaveFor(url),
   });
+  const leaving = pay.isPending || pay.isSuccess;
+  const text = leaving ? 'Opening the payment page…' : label;
   return (
     <Button
       variant="contained"
       size={size}
       startIcon={<CreditCardOutlined fontSize="small" />}
-      disabled={pay.isPending || pay.isSuccess}
-      aria-label={invoiceNumber ? `${label}: invoice ${invoiceNumber}` : label}
+      disabled={leaving}
+      aria-label={invoiceNumber ? `${text} (invoice ${invoiceNumber})` : undefined}
       onClick={() =>
         pay.mutate(invoiceId, {
           onError: (error) => notify('error', error instanceof ApiError ? error.message : 'The payment could not be started. Try again.'),
         })
       }
     >
-      {pay.isPending || pay.isSuccess ? 'Opening the payment page…' : label}
+      {text}
     </Button>
   );
 }
