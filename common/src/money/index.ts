@@ -9,3 +9,6 @@ export { currencyDigits } from './currency-digits.js';
 export { formatMoney } from './format-money.js';
 export { parseMoney } from './parse-money.js';
 export { billableHoursMilli } from './billable-hours.js';
+export { parseQuantityMilli, formatQuantityMilli } from './quantity-milli.js';
+export { parseRatePercent, formatRatePercent } from './rate-basis-points.js';
+export { moneyEditText } from './money-edit-text.js';

@@ -1,4 +1,4 @@
-import type { ListQuery } from './list.js';
+import type { ListQuery, ListResponse } from './list.js';
 
 // Money is always an integer number of minor units (cents, pence) of the lab's one currency
 // (KC_CURRENCY, an ISO 4217 code). Quantities are integer thousandths (1.5 h = 1500), tax rates
@@ -25,6 +25,8 @@ export type PriceItem = {
 export type CreatePriceItemRequest = Pick<PriceItem, 'code' | 'description' | 'unit' | 'unitPriceMinor'> & { proposeOnQuotes?: boolean };
 export type UpdatePriceItemRequest = Partial<CreatePriceItemRequest> & { active?: boolean };
 export type ListPriceItemsQuery = ListQuery & { active?: boolean };
+/** GET /prices/items: the page of items, and the lab's currency (KC_CURRENCY) their prices are in, even when there are none yet. */
+export type PriceItemsResponse = ListResponse<PriceItem> & { currency: string };
 
 export type TaxRate = {
   id: number;

@@ -13,6 +13,7 @@ import type { BandPlanRow } from '../math/plan-bands.js';
 import type { Tolerance } from '../math/tolerance.js';
 import type { WarmupSummary } from '../math/warmup-summary.js';
 import type { FrequencyUnit } from '../units/frequency-unit.js';
+import type { CertificateRelease } from './billing.js';
 import type { ListQuery } from './list.js';
 
 export type { DialLaw, Tolerance, FrequencyUnit };
@@ -133,6 +134,8 @@ export type Job = {
   runCount: number;
   /** The lead's comment when the job was last returned for rework (null unless status is returned). */
   returnComment: string | null;
+  /** For a client, once the job's certificate is issued: whether its PDF may be downloaded now, and if not why. */
+  release?: CertificateRelease;
 };
 export type CreateJobRequest = {
   instrumentId: number;

@@ -84,11 +84,15 @@ export const MAIN_PAGES: readonly MainPage[] = [
   { role: 'lead', name: 'certificates', path: () => '/certificates' },
   { role: 'lead', name: 'procedures', path: () => '/procedures' },
   { role: 'lead', name: 'standards', path: () => '/standards' },
+  { role: 'lead', name: 'prices', path: () => '/prices' },
+  { role: 'lead', name: 'customer terms', path: () => '/prices?tab=customers' },
+  { role: 'lead', name: 'invoices', path: () => '/invoices' },
   { role: 'technician', name: 'technician overview', path: () => '/' },
   { role: 'technician', name: 'technician jobs', path: () => '/jobs' },
   { role: 'technician', name: 'calibration run page', path: (r) => `/runs/${r.calibrationRunId}` },
   { role: 'technician', name: 'instruments', path: () => '/instruments' },
   { role: 'technician', name: 'an instrument', path: (r) => `/instruments/${r.instrumentId}` },
+  { role: 'technician', name: 'prices (read-only)', path: () => '/prices' },
   { role: 'engineer', name: 'study run page', path: (r) => `/runs/${r.studyRunId}` },
   { role: 'engineer', name: 'comparisons', path: () => '/comparisons' },
   { role: 'engineer', name: 'a comparison', path: (r) => `/comparisons/${r.comparisonId}` },
@@ -96,6 +100,8 @@ export const MAIN_PAGES: readonly MainPage[] = [
   { role: 'client', name: 'client jobs', path: () => '/jobs' },
   { role: 'client', name: 'client instruments', path: () => '/instruments' },
   { role: 'client', name: 'client certificates', path: () => '/certificates' },
+  { role: 'client', name: 'client quotes', path: () => '/portal/quotes' },
+  { role: 'client', name: 'client invoices', path: () => '/portal/invoices' },
 ];
 
 /**

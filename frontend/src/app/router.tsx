@@ -32,6 +32,13 @@ const VerifyLookupRoute = lazy(() => import('./routes/verify/lookup'));
 const VerifyCertificateRoute = lazy(() => import('./routes/verify/certificate'));
 const ComparisonsRoute = lazy(() => import('./routes/comparisons/list'));
 const ComparisonRoute = lazy(() => import('./routes/comparisons/comparison'));
+const PricesRoute = lazy(() => import('./routes/prices'));
+const InvoicesRoute = lazy(() => import('./routes/invoices/list'));
+const InvoiceRoute = lazy(() => import('./routes/invoices/invoice'));
+const StatementRoute = lazy(() => import('./routes/invoices/statement'));
+const PortalQuotesRoute = lazy(() => import('./routes/portal/quotes'));
+const PortalInvoicesRoute = lazy(() => import('./routes/portal/invoices'));
+const PortalInvoiceRoute = lazy(() => import('./routes/portal/invoice'));
 
 /** A page reached from the navigation, open only to the roles its navigation entry lists. */
 function guarded(path: string, Page: LazyExoticComponent<ComponentType>) {
@@ -91,6 +98,14 @@ const routes: RouteObject[] = [
           { path: paths.adminOutboxMessage, element: guarded(paths.adminOutbox, OutboxMessageRoute) },
           { path: paths.comparisons, element: guarded(paths.comparisons, ComparisonsRoute) },
           { path: paths.comparison, element: guarded(paths.comparisons, ComparisonRoute) },
+          { path: paths.prices, element: guarded(paths.prices, PricesRoute) },
+          { path: paths.invoices, element: guarded(paths.invoices, InvoicesRoute) },
+          { path: paths.invoice, element: guarded(paths.invoices, InvoiceRoute) },
+          { path: paths.statement, element: guarded(paths.invoices, StatementRoute) },
+          { path: paths.portalQuotes, element: guarded(paths.portalQuotes, PortalQuotesRoute) },
+          { path: paths.portalInvoices, element: guarded(paths.portalInvoices, PortalInvoicesRoute) },
+          // Where the payment service sends the client back (?payment=done|cancelled).
+          { path: paths.portalInvoice, element: guarded(paths.portalInvoices, PortalInvoiceRoute) },
         ],
       },
     ],

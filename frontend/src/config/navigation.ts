@@ -5,6 +5,9 @@ import SettingsInputAntennaOutlined from '@mui/icons-material/SettingsInputAnten
 import WorkOutlineOutlined from '@mui/icons-material/WorkOutlineOutlined';
 import OutboxOutlined from '@mui/icons-material/OutboxOutlined';
 import PeopleOutlined from '@mui/icons-material/PeopleOutlined';
+import ReceiptLongOutlined from '@mui/icons-material/ReceiptLongOutlined';
+import RequestQuoteOutlined from '@mui/icons-material/RequestQuoteOutlined';
+import SellOutlined from '@mui/icons-material/SellOutlined';
 import RateReviewOutlined from '@mui/icons-material/RateReviewOutlined';
 import RuleOutlined from '@mui/icons-material/RuleOutlined';
 import StackedLineChartOutlined from '@mui/icons-material/StackedLineChartOutlined';
@@ -31,6 +34,11 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { label: 'Benches', path: paths.benches, icon: BuildOutlined, roles: LAB_ROLES },
   { label: 'Review', path: paths.reviews, icon: RateReviewOutlined, roles: ['lead'] },
   { label: 'Certificates', path: paths.certificates, icon: WorkspacePremiumOutlined, roles: ROLES },
+  // The money side: the lab's staff read prices and invoices (admin and lead change them); a client its own quotes and invoices.
+  { label: 'Quotes', path: paths.portalQuotes, icon: RequestQuoteOutlined, roles: ['client'] },
+  { label: 'Invoices', path: paths.portalInvoices, icon: ReceiptLongOutlined, roles: ['client'] },
+  { label: 'Invoices', path: paths.invoices, icon: ReceiptLongOutlined, roles: LAB_ROLES },
+  { label: 'Prices', path: paths.prices, icon: SellOutlined, roles: LAB_ROLES },
   { label: 'Comparisons', path: paths.comparisons, icon: StackedLineChartOutlined, roles: STUDY_ROLES },
   { label: 'Procedures', path: paths.procedures, icon: RuleOutlined, roles: ['lead'] },
   { label: 'Outbox', path: paths.adminOutbox, icon: OutboxOutlined, roles: ['admin'] },

@@ -21,6 +21,13 @@ export const paths = {
   verifyCertificate: '/verify/:number',
   comparisons: '/comparisons',
   comparison: '/comparisons/:comparisonId',
+  prices: '/prices',
+  invoices: '/invoices',
+  invoice: '/invoices/:invoiceId',
+  statement: '/statements/:organizationId',
+  portalQuotes: '/portal/quotes',
+  portalInvoices: '/portal/invoices',
+  portalInvoice: '/portal/invoices/:invoiceId',
 } as const;
 
 export const jobPath = (id: number) => `/jobs/${id}`;
@@ -32,6 +39,11 @@ export const verifyPath = (number: string) => `/verify/${encodeURIComponent(numb
 export const outboxMessagePath = (id: number) => `/admin/outbox/${id}`;
 /** A saved comparison by id, or `new` for one being put together. */
 export const comparisonPath = (id: number | 'new') => `/comparisons/${id}`;
+
+export const invoicePath = (id: number) => `/invoices/${id}`;
+export const statementPath = (organizationId: number) => `/statements/${organizationId}`;
+/** A client's invoice; the payment service sends the client back here with `?payment=done` or `?payment=cancelled`. */
+export const portalInvoicePath = (id: number) => `/portal/invoices/${id}`;
 
 export function signInPath(next?: string) {
   return next && next !== paths.home ? `${paths.signIn}?next=${encodeURIComponent(next)}` : paths.signIn;

@@ -15,3 +15,8 @@ export function setNavigator(navigate: Navigate | null) {
 export function navigateTo(to: string, options?: { replace?: boolean }) {
   current(to, options);
 }
+
+/** Leaves the app for another site (the payment service's page): a full page load, never the router. */
+export function leaveFor(url: string) {
+  window.location.assign(url);
+}

@@ -15,6 +15,14 @@ export const sharedQueryKeys = {
   runs: ['runs'],
   /** A run's readings (the table and the latest ones). */
   readings: ['readings'],
+  /** The price list: price items (read by the prices page and by the quote and invoice line dialogs). */
+  prices: ['prices'],
+  /** Quote lists and quotes (quotes feature). */
+  quotes: ['quotes'],
+  /** Invoice lists, an invoice, its payments and statements (invoices feature). */
+  invoices: ['invoices'],
+  /** A client's overview lists (portal feature): a payment may release a job's certificate shown there. */
+  portal: ['portal'],
 } as const;
 
 /** One run (runs feature's `getRunQueryOptions`); the live feed refreshes it after a reconnection or an exclusion. */

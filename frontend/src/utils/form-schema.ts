@@ -1,4 +1,5 @@
 import { parseNumber } from '@kilocycle/common/units';
+import { formatMoney, formatQuantityMilli, formatRatePercent, parseMoney, parseQuantityMilli, parseRatePercent } from '@kilocycle/common/money';
 import { z } from 'zod';
 
 /** Pieces the feature schemas are built from. Form fields hold strings; these turn them into the request's values. */
@@ -76,3 +77,33 @@ export const typedNumber = (check: (value: number) => string | null) =>
 
 /** A date typed in a date field (yyyy-mm-dd). */
 export const isoDate = (message: string) => z.string().regex(/^\d{4}-\d{2}-\d{2}$/, message);
+
+/** A figure read exactly by one of common's money parsers (text, never floating point), then `check`. */
+const exactFigure = (parse: (text: string) => number, check: (value: number) => string | null) =>
+  z.string().transform((text, context) => {
+    let value: number;
+    try {
+      value = parse(text);
+    } catch (error) {
+      context.addIssue({ code: 'custom', message: text.trim() === '' ? 'Required' : error instanceof Error ? error.message : 'Not a figure' });
+      return z.NEVER;
+    }
+    const problem = check(value);
+    if (problem) context.addIssue({ code: 'custom', message: problem });
+    return value;
+  });
+
+/** Money as typed ("1,234.50", "85") in the currency's minor units, at most `maxMinor`. */
+export const typedMoney = (currency: string, maxMinor: number) =>
+  exactFigure(
+    (text) => parseMoney(text, currency),
+    (minor) => (minor > maxMinor ? `At most ${formatMoney(maxMinor, currency)}` : null),
+  );
+
+/** A quantity as typed ("1.5") in thousandths, above zero and at most `maxMilli`. */
+export const typedQuantity = (maxMilli: number) =>
+  exactFigure(parseQuantityMilli, (milli) => (milli <= 0 ? 'More than zero' : milli > maxMilli ? `At most ${formatQuantityMilli(maxMilli)}` : null));
+
+/** A percentage as typed ("20", "17.5") in basis points, at most `maxBasisPoints`. */
+export const typedRate = (maxBasisPoints: number) =>
+  exactFigure(parseRatePercent, (bp) => (bp > maxBasisPoints ? `At most ${formatRatePercent(maxBasisPoints)}` : null));

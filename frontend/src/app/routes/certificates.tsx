@@ -1,6 +1,7 @@
 import { PageHeader } from '@/components/ui/page-header';
 import { jobPath, verifyPath } from '@/config/paths';
 import { CertificatesTable } from '@/features/certificates/components/certificates-table';
+import { PayInvoiceButton } from '@/features/invoices/components/pay-invoice-button';
 import { useCurrentUser } from '@/lib/auth';
 
 export default function CertificatesRoute() {
@@ -15,7 +16,11 @@ export default function CertificatesRoute() {
             : 'Every certificate the lab has issued, with its revisions. An amendment opens a new revision; the old one stays, marked superseded.'
         }
       />
-      <CertificatesTable verifyPath={verifyPath} jobPath={jobPath} />
+      <CertificatesTable
+        verifyPath={verifyPath}
+        jobPath={jobPath}
+        payInvoice={user.role === 'client' ? (invoiceId) => <PayInvoiceButton invoiceId={invoiceId} label="Pay invoice" /> : undefined}
+      />
     </>
   );
 }

@@ -13,6 +13,7 @@ import { Num } from '@/components/ui/num';
 import { instrumentPath, paths, reviewPath, runPath } from '@/config/paths';
 import { useBenches } from '@/features/benches/api/get-benches';
 import { AttachmentsPanel } from '@/features/attachments/components/attachments-panel';
+import { InvoicePanel } from '@/features/invoices/components/invoice-panel';
 import { useInstrument } from '@/features/instruments/api/get-instrument';
 import { getJobQueryOptions, useJob } from '@/features/jobs/api/get-job';
 import { JobActions } from '@/features/jobs/components/job-actions';
@@ -21,6 +22,7 @@ import { JobHistory } from '@/features/jobs/components/job-history';
 import { JobStatusChip } from '@/features/jobs/components/job-status-chip';
 import { JobResultsPanel } from '@/features/reviews/components/job-results-panel';
 import { JobReviewActions } from '@/features/reviews/components/job-review-actions';
+import { QuotePanel } from '@/features/quotes/components/quote-panel';
 import { useRuns } from '@/features/runs/api/get-runs';
 import { kindsFor, OpenRunDialog } from '@/features/runs/components/open-run-dialog';
 import { RunsTable } from '@/features/runs/components/runs-table';
@@ -89,6 +91,8 @@ export default function JobRoute() {
             </Link>
           }
         />
+        {/* What the work will cost, agreed before it starts (a client answers quotes in its portal). */}
+        {isLab && <QuotePanel jobId={j.id} />}
         <Paper variant="outlined" sx={{ p: 2, overflowX: 'auto' }}>
           <Box sx={{ display: 'flex', alignItems: 'center', mb: 1 }}>
             <Typography variant="h3" component="h2" sx={{ flex: 1 }}>
@@ -120,6 +124,8 @@ export default function JobRoute() {
           <RunsTable runs={runs.data?.items ?? []} emptyText={runs.isPending ? 'Loading…' : 'No runs yet. Open one to start capturing readings.'} />
         </Paper>
         {runs.data?.items.some((r) => r.kind === 'as_found' || r.kind === 'as_left') && <JobResultsPanel jobId={j.id} />}
+        {/* What the job is invoiced, for the lab's staff (a client pays in its portal). */}
+        {isLab && <InvoicePanel jobId={j.id} jobIssued={j.status === 'issued'} />}
         <AttachmentsPanel owner="job" ownerId={j.id} canUpload={BENCH_ROLES.includes(user.role)} canDelete={MANAGER_ROLES.includes(user.role)} />
         {isLab && <JobHistory jobId={j.id} />}
       </Box>

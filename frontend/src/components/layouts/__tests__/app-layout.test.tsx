@@ -15,7 +15,19 @@ describe('<AppLayout>', () => {
     const links = within(nav)
       .getAllByRole('link')
       .map((link) => link.textContent);
-    expect(links).toEqual(['Overview', 'Jobs', 'Instruments', 'Standards', 'Benches', 'Certificates', 'Outbox', 'Users', 'Organisations']);
+    expect(links).toEqual([
+      'Overview',
+      'Jobs',
+      'Instruments',
+      'Standards',
+      'Benches',
+      'Certificates',
+      'Invoices',
+      'Prices',
+      'Outbox',
+      'Users',
+      'Organisations',
+    ]);
     expect(within(nav).getByRole('link', { name: 'Users' }).getAttribute('href')).toBe('/admin/users');
     // A list holds only list items (axe's "list" rule): one item per link.
     expect(within(nav).getAllByRole('listitem')).toHaveLength(links.length);
@@ -25,7 +37,7 @@ describe('<AppLayout>', () => {
     expect(screen.getByText('Administrator')).toBeTruthy();
   });
 
-  it('shows a client only the overview, its jobs and instruments and its certificates', () => {
+  it('shows a client only the overview, its jobs and instruments, its certificates, quotes and invoices', () => {
     signInAs({ role: 'client', name: 'Nia Northgate' });
     renderWithApp(<AppLayout>page</AppLayout>);
 
@@ -34,8 +46,10 @@ describe('<AppLayout>', () => {
       within(nav)
         .getAllByRole('link')
         .map((link) => link.textContent),
-    ).toEqual(['Overview', 'Jobs', 'Instruments', 'Certificates']);
+    ).toEqual(['Overview', 'Jobs', 'Instruments', 'Certificates', 'Quotes', 'Invoices']);
+    expect(within(nav).getByRole('link', { name: 'Invoices' }).getAttribute('href')).toBe('/portal/invoices');
     expect(within(nav).queryByRole('link', { name: 'Users' })).toBeNull();
+    expect(within(nav).queryByRole('link', { name: 'Prices' })).toBeNull();
   });
 
   it('signs out on the server and forgets the session', async () => {

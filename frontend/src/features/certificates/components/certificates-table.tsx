@@ -24,6 +24,7 @@ import { formatDate } from '@/utils/format';
 import { useCertificates } from '../api/get-certificates';
 import { CertificateActions } from './certificate-actions';
 import { DownloadCertificateButton } from './download-certificate-button';
+import { HeldCertificate, isHeld, type PayInvoiceSlot } from './held-certificate';
 
 const SORT_FIELDS = ['number', 'revision', 'status', 'issuedAt', 'organizationName'];
 const FILTER_KEYS = ['status'] as const;
@@ -42,6 +43,8 @@ type CertificatesTableProps = {
   verifyPath: (number: string) => string;
   jobPath?: (jobId: number) => string;
   height?: number | string;
+  /** For a client: the button that pays the invoice holding a certificate back (the invoices feature's, composed by the route). */
+  payInvoice?: PayInvoiceSlot;
 };
 
 function useUrlShape(): Shape & { q: string; status: string; update: ReturnType<typeof useListSearchParams>['update'] } {
@@ -70,7 +73,7 @@ function useLocalShape(): Shape {
   };
 }
 
-function Table({ shape, embedded, verifyPath, jobPath, height }: { shape: Shape } & CertificatesTableProps) {
+function Table({ shape, embedded, verifyPath, jobPath, height, payInvoice }: { shape: Shape } & CertificatesTableProps) {
   const user = useCurrentUser();
   const isClient = user.role === 'client';
   const isLead = user.role === 'lead';
@@ -198,9 +201,15 @@ function Table({ shape, embedded, verifyPath, jobPath, height }: { shape: Shape 
     [isClient, isLead],
   );
   const layout = usePhoneColumns(columns, phoneLayout);
+  const held = (certificates.data?.items ?? []).filter((c) => c.status === 'issued' && isHeld(c.release));
 
   return (
     <>
+      {held.length > 0 && (
+        <Box sx={{ display: 'grid', gap: 1, mb: 1.5 }}>
+          {held.map((c) => c.release && <HeldCertificate key={c.id} number={c.number} release={c.release} payInvoice={payInvoice} />)}
+        </Box>
+      )}
       <Paper
         variant="outlined"
         // Embedded, the grid is as tall as its rows (a customer has a handful of certificates; two lines each on a

@@ -5,13 +5,18 @@ import type { Certificate } from '@kilocycle/common/types';
 import { ApiError } from '@/lib/api-client';
 import { downloadFile } from '@/lib/file-transfer';
 import { notify } from '@/lib/notifications';
+import { HeldChip, isHeld } from './held-certificate';
 
-type DownloadCertificateButtonProps = { certificate: Pick<Certificate, 'number' | 'revision' | 'pdfUrl'>; label?: string };
+type DownloadCertificateButtonProps = { certificate: Pick<Certificate, 'number' | 'revision' | 'pdfUrl' | 'release'>; label?: string };
 
-/** The stored PDF, fetched with the session's token (the file URL is behind sign-in) and saved. */
+/**
+ * The stored PDF, fetched with the session's token (the file URL is behind sign-in) and saved; for a client whose
+ * certificate the server holds until an invoice is paid, "Held" with the reason instead.
+ */
 export function DownloadCertificateButton({ certificate, label = 'PDF' }: DownloadCertificateButtonProps) {
   const [busy, setBusy] = useState(false);
   if (!certificate.pdfUrl) return null;
+  if (isHeld(certificate.release)) return <HeldChip number={certificate.number} release={certificate.release} />;
   const pdfUrl = certificate.pdfUrl;
   const fileName = `${certificate.number}-rev${certificate.revision}.pdf`;
   const download = async () => {

@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { MAX_PAGE_SIZE, type Instrument, type ListResponse } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { sharedQueryKeys } from '@/lib/query-keys';
 
 /** The organisation's instruments, soonest due first (the server scopes a client to its own). */
 export function getPortalInstruments(): Promise<ListResponse<Instrument>> {
@@ -9,7 +10,7 @@ export function getPortalInstruments(): Promise<ListResponse<Instrument>> {
 
 export const getPortalInstrumentsQueryOptions = () =>
   queryOptions({
-    queryKey: ['portal', 'instruments'],
+    queryKey: [...sharedQueryKeys.portal, 'instruments'],
     queryFn: getPortalInstruments,
   });
 

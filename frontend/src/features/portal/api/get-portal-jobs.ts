@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Job, ListResponse } from '@kilocycle/common/types';
 import { api } from '@/lib/api-client';
+import { sharedQueryKeys } from '@/lib/query-keys';
 
 /** The organisation's jobs, newest first. */
 export function getPortalJobs(): Promise<ListResponse<Job>> {
@@ -9,7 +10,7 @@ export function getPortalJobs(): Promise<ListResponse<Job>> {
 
 export const getPortalJobsQueryOptions = () =>
   queryOptions({
-    queryKey: ['portal', 'jobs'],
+    queryKey: [...sharedQueryKeys.portal, 'jobs'],
     queryFn: getPortalJobs,
   });
 

@@ -106,7 +106,10 @@ function InstrumentsPanel() {
   );
 }
 
-function JobsPanel() {
+/** The slot the route fills with the invoices feature's pay button (features never import each other). */
+type PayInvoiceSlot = (invoiceId: number) => ReactNode;
+
+function JobsPanel({ payInvoice }: { payInvoice?: PayInvoiceSlot }) {
   const jobs = usePortalJobs();
   if (jobs.isPending) return <Typography color="text.secondary">Loading…</Typography>;
   if (jobs.isError) return <Alert severity="error">Your jobs could not be loaded.</Alert>;
@@ -137,6 +140,14 @@ function JobsPanel() {
                 <TableCell sx={{ ...numberSx, ...HIDE_ON_PHONE }}>{formatDate(j.receivedDate)}</TableCell>
                 <TableCell>
                   <Chip size="small" color={words.color} variant="outlined" label={words.label} sx={{ height: 20 }} />
+                  {j.release && !j.release.released && (
+                    <Box sx={{ mt: 0.5, display: 'flex', alignItems: 'center', gap: 1, flexWrap: 'wrap' }}>
+                      <Typography variant="caption" color="text.secondary">
+                        {j.release.heldReason ?? 'The certificate is held until the invoice is paid.'}
+                      </Typography>
+                      {j.release.invoiceId !== null && payInvoice?.(j.release.invoiceId)}
+                    </Box>
+                  )}
                 </TableCell>
               </TableRow>
             );
@@ -147,8 +158,14 @@ function JobsPanel() {
   );
 }
 
+type PortalOverviewProps = {
+  certificates: ReactNode;
+  /** The button that pays the invoice holding a job's certificate back, composed by the route. */
+  payInvoice?: PayInvoiceSlot;
+};
+
 /** A customer's overview: their instruments and when each is due, their jobs, and their certificates. */
-export function PortalOverview({ certificates }: { certificates: ReactNode }) {
+export function PortalOverview({ certificates, payInvoice }: PortalOverviewProps) {
   const user = useCurrentUser();
   const instruments = usePortalInstruments();
   const organisation = instruments.data?.items[0]?.organizationName;
@@ -167,7 +184,7 @@ export function PortalOverview({ certificates }: { certificates: ReactNode }) {
         <InstrumentsPanel />
       </Section>
       <Section title="Jobs" label="Jobs">
-        <JobsPanel />
+        <JobsPanel payInvoice={payInvoice} />
       </Section>
     </Box>
   );

@@ -49,7 +49,7 @@ describe('<WelcomePanel>', () => {
     mockFetch([{ path: '/api/organizations/2', body: organization(2, 'Northgate Radio Club') }]);
     signInAs({ role: 'client', organizationId: 2 });
     renderWithApp(<WelcomePanel />);
-    expect(screen.getAllByRole('link').map((link) => link.textContent)).toEqual(['Jobs', 'Instruments', 'Certificates']);
+    expect(screen.getAllByRole('link').map((link) => link.textContent)).toEqual(['Jobs', 'Instruments', 'Certificates', 'Quotes', 'Invoices']);
     expect(screen.getByText(/certificates issued to you/)).toBeTruthy();
     expect(screen.queryByText(/hazardous voltages/)).toBeNull();
   });
