@@ -5,6 +5,7 @@ import type { Job as JobView, JobStatus, ListResponse } from '@kilocycle/common/
 import { AuditService } from '../audit/audit.service.js';
 import { JobRunStatsSource } from '../shared/job-run-stats.js';
 import { JOB_START_GATE, type JobStartGate } from '../shared/job-start-gate.js';
+import { CERTIFICATE_BILLING, type CertificateBilling } from '../shared/certificate-billing.js';
 import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { JobInstrumentReader } from '../instruments/job-instrument.reader.js';
 import { instrumentLabel } from '../instruments/instruments.service.js';
@@ -64,9 +65,18 @@ export class JobsService {
     private readonly instruments: JobInstrumentReader,
     private readonly accounts: AccountsReader,
     @Optional() @Inject(JOB_START_GATE) private readonly startGate: JobStartGate | null = null,
+    @Optional() @Inject(CERTIFICATE_BILLING) private readonly billing: CertificateBilling | null = null,
   ) {}
 
-  list(actor: AuthUser, query: ListJobsQueryDto): Promise<ListResponse<JobView>> {
+  /** To a client, each issued job's certificate release (held until its invoice is paid), so the portal can say why. */
+  private async withReleases(actor: AuthUser, views: JobView[]): Promise<JobView[]> {
+    const issued = views.filter((v) => v.status === 'issued').map((v) => v.id);
+    if (!this.billing || actor.role !== 'client' || issued.length === 0) return views;
+    const releases = await this.billing.releasesFor(actor, issued);
+    return views.map((v) => (releases.has(v.id) ? { ...v, release: releases.get(v.id) } : v));
+  }
+
+  async list(actor: AuthUser, query: ListJobsQueryDto): Promise<ListResponse<JobView>> {
     const qb = this.baseQuery();
     const scope = organizationScope(actor);
     if (scope !== null) qb.andWhere('j.organizationId = :scope', { scope });
@@ -77,7 +87,8 @@ export class JobsService {
     if (query.q) {
       qb.andWhere('(j.number LIKE :q OR i.make LIKE :q OR i.model LIKE :q OR i.serial LIKE :q OR o.name LIKE :q)', { q: likePattern(query.q) });
     }
-    return paginateFlat(qb, query, SORTABLE, '-receivedDate', 'j.id', (found) => this.toViews(found));
+    const page = await paginateFlat(qb, query, SORTABLE, '-receivedDate', 'j.id', (found) => this.toViews(found));
+    return { ...page, items: await this.withReleases(actor, page.items) };
   }
 
   /** The job if the actor may see it; 404 otherwise. */
@@ -89,7 +100,7 @@ export class JobsService {
   }
 
   async get(actor: AuthUser, id: number): Promise<JobView> {
-    const [view] = await this.toViews([await this.findVisible(actor, id)]);
+    const [view] = await this.withReleases(actor, await this.toViews([await this.findVisible(actor, id)]));
     return view!;
   }
 

@@ -1,6 +1,6 @@
 import { Body, Controller, Get, Patch, Post, Put, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
-import type { CustomerTerms, ListResponse, PriceItem, TaxRate } from '@kilocycle/common/types';
+import type { CustomerTerms, ListResponse, PriceItem, PriceItemsResponse, TaxRate } from '@kilocycle/common/types';
 import { BILLING_ROLES, LAB_ROLES } from '@kilocycle/common/rules';
 import type { AuthUser } from '../shared/auth-user.js';
 import { CurrentUser, Roles } from '../shared/decorators.js';
@@ -10,6 +10,7 @@ import {
   CreatePriceItemDto,
   CreateTaxRateDto,
   ListPriceItemsQueryDto,
+  ListTaxRatesQueryDto,
   UpdateCustomerTermsDto,
   UpdatePriceItemDto,
   UpdateTaxRateDto,
@@ -25,7 +26,7 @@ export class PricesController {
 
   @Roles(...LAB_ROLES)
   @Get('items')
-  listItems(@Query() query: ListPriceItemsQueryDto): Promise<ListResponse<PriceItem>> {
+  listItems(@Query() query: ListPriceItemsQueryDto): Promise<PriceItemsResponse> {
     return this.prices.listItems(query);
   }
 
@@ -43,7 +44,7 @@ export class PricesController {
 
   @Roles(...LAB_ROLES)
   @Get('tax-rates')
-  listTaxRates(@Query() query: ListQueryDto): Promise<ListResponse<TaxRate>> {
+  listTaxRates(@Query() query: ListTaxRatesQueryDto): Promise<ListResponse<TaxRate>> {
     return this.prices.listTaxRates(query);
   }
 

@@ -1,6 +1,6 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
-import type { CustomerTerms, ListResponse, PriceItem as PriceItemView, TaxRate as TaxRateView } from '@kilocycle/common/types';
+import type { CustomerTerms, ListResponse, PriceItem as PriceItemView, PriceItemsResponse, TaxRate as TaxRateView } from '@kilocycle/common/types';
 import { In, Not, type DataSource, type EntityManager, type Repository } from 'typeorm';
 import { AuditService } from '../audit/audit.service.js';
 import { OrganizationsReader, type OrganizationContact } from '../organizations/organizations.reader.js';
@@ -8,12 +8,14 @@ import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { paginateFlat, sortColumn } from '../shared/page-query.js';
 import type { ListQueryDto } from '../shared/list-query.dto.js';
 import { likePattern } from '../shared/paginate.js';
+import { labCurrency } from '../shared/currency.js';
 import { CustomerTermsRow } from './customer-terms.entity.js';
 import { CustomerTermsReader, toCustomerTerms } from './customer-terms.reader.js';
 import type {
   CreatePriceItemDto,
   CreateTaxRateDto,
   ListPriceItemsQueryDto,
+  ListTaxRatesQueryDto,
   UpdateCustomerTermsDto,
   UpdatePriceItemDto,
   UpdateTaxRateDto,
@@ -38,9 +40,17 @@ export function toTaxRateView(rate: TaxRate): TaxRateView {
   return { id: rate.id, name: rate.name, rateBasisPoints: rate.rateBasisPoints, active: rate.active };
 }
 
-const ITEM_SORT = { id: 'p.id', code: 'p.code', description: 'p.description', unit: 'p.unit', unitPriceMinor: 'p.unitPriceMinor', updatedAt: 'p.updatedAt' };
-const RATE_SORT = { id: 't.id', name: 't.name', rateBasisPoints: 't.rateBasisPoints' };
-const TERMS_SORT = ['organizationName', 'organizationId', 'paymentTerms', 'netDays'] as const;
+const ITEM_SORT = {
+  id: 'p.id',
+  code: 'p.code',
+  description: 'p.description',
+  unit: 'p.unit',
+  unitPriceMinor: 'p.unitPriceMinor',
+  active: 'p.active',
+  updatedAt: 'p.updatedAt',
+};
+const RATE_SORT = { id: 't.id', name: 't.name', rateBasisPoints: 't.rateBasisPoints', active: 't.active' };
+const TERMS_SORT = ['organizationName', 'organizationId', 'paymentTerms', 'netDays', 'requiresQuote', 'updatedAt'] as const;
 const ITEM_FIELDS = ['code', 'description', 'unit', 'unitPriceMinor', 'proposeOnQuotes', 'active'] as const;
 const RATE_FIELDS = ['name', 'rateBasisPoints', 'active'] as const;
 
@@ -72,11 +82,13 @@ export class PricesService {
 
   // ---- price items ----
 
-  listItems(query: ListPriceItemsQueryDto): Promise<ListResponse<PriceItemView>> {
+  /** The price list, with the lab's currency (an empty list still says what its prices are in). */
+  async listItems(query: ListPriceItemsQueryDto): Promise<PriceItemsResponse> {
     const qb = this.items.createQueryBuilder('p');
     if (query.active !== undefined) qb.andWhere('p.active = :active', { active: query.active });
     if (query.q) qb.andWhere('(p.code LIKE :q OR p.description LIKE :q)', { q: likePattern(query.q) });
-    return paginateFlat(qb, query, ITEM_SORT, 'code', 'p.id', (found) => found.map(toPriceItemView));
+    const page = await paginateFlat(qb, query, ITEM_SORT, 'code', 'p.id', (found) => found.map(toPriceItemView));
+    return { ...page, currency: labCurrency() };
   }
 
   async createItem(actor: AuthUser, body: CreatePriceItemDto): Promise<PriceItemView> {
@@ -120,8 +132,9 @@ export class PricesService {
 
   // ---- tax rates ----
 
-  listTaxRates(query: ListQueryDto): Promise<ListResponse<TaxRateView>> {
+  listTaxRates(query: ListTaxRatesQueryDto): Promise<ListResponse<TaxRateView>> {
     const qb = this.rates.createQueryBuilder('t');
+    if (query.active !== undefined) qb.andWhere('t.active = :active', { active: query.active });
     if (query.q) qb.andWhere('t.name LIKE :q', { q: likePattern(query.q) });
     return paginateFlat(qb, query, RATE_SORT, 'id', 't.id', (found) => found.map(toTaxRateView));
   }

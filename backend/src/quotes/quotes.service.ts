@@ -274,7 +274,7 @@ export class QuotesService {
         customer: outgoing.view.organizationName,
         total: formatMoney(outgoing.view.totals.grossMinor, outgoing.view.currency),
         validUntil: outgoing.view.validUntil ?? '',
-        portalUrl: `${this.config.publicUrl}/portal/quotes/${id}`,
+        portalUrl: `${this.config.publicUrl}/portal/quotes`,
         pdf: outgoing.pdf,
         fileName: `${outgoing.view.number}.pdf`,
       },

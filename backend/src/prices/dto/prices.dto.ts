@@ -62,6 +62,13 @@ export class ListPriceItemsQueryDto extends ListQueryDto implements ListPriceIte
   active?: boolean;
 }
 
+export class ListTaxRatesQueryDto extends ListQueryDto {
+  @IsOptional()
+  @QueryBoolean()
+  @IsBoolean({ message: 'active must be true or false' })
+  active?: boolean;
+}
+
 export class CreateTaxRateDto implements CreateTaxRateRequest {
   @IsString()
   @Trim()

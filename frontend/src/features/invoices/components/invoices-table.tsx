@@ -19,7 +19,7 @@ import { formatDate } from '@/utils/format';
 import { useInvoices } from '../api/get-invoices';
 import { INVOICE_STATUS_LABELS, InvoiceStatusChip } from './invoice-status-chip';
 
-const SORT_FIELDS = ['number', 'status', 'issuedAt', 'dueDate', 'organizationName'];
+const SORT_FIELDS = ['number', 'status', 'issuedAt', 'dueDate'];
 const FILTER_KEYS = ['status', 'overdue', 'organizationId'] as const;
 const STATUS_OPTIONS: FilterOption[] = INVOICE_STATUSES.map((s) => ({ value: s, label: INVOICE_STATUS_LABELS[s] }));
 const OVERDUE_OPTIONS: FilterOption[] = [
@@ -79,7 +79,7 @@ export function InvoicesTable({ customers = [] }: InvoicesTableProps) {
           </Link>
         ),
       },
-      { field: 'organizationName', headerName: 'Customer', flex: 1, minWidth: 160 },
+      { field: 'organizationName', headerName: 'Customer', flex: 1, minWidth: 160, sortable: false },
       { field: 'status', headerName: 'Status', width: 160, renderCell: ({ row }) => <InvoiceStatusChip invoice={row} /> },
       { field: 'issuedAt', headerName: 'Issued', width: 110, renderCell: ({ row }) => <Num>{formatDate(row.issuedAt)}</Num> },
       { field: 'dueDate', headerName: 'Due', width: 110, renderCell: ({ row }) => <Num>{row.dueDate ?? '—'}</Num> },
