@@ -1,9 +1,9 @@
 import { readFileSync } from 'node:fs';
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Certificate, ListResponse } from '@kilocycle/common/types';
+import type { Certificate, CustomerTerms, ListResponse } from '@kilocycle/common/types';
 import { DEMO_PASSWORD, keepScreenshot, launchBrowser, signIn } from './support/browser';
-import { apiGet, apiLogin } from './support/lab';
+import { apiGet, apiLogin, apiRequest } from './support/lab';
 import { patientPage } from './support/patient-page';
 
 // Journey 4 (PRODUCT.md §4): the client signs in, sees the organisation's instruments and certificates, downloads
@@ -12,16 +12,25 @@ describe('client portal and public verification (browser)', () => {
   let browser: Browser;
   let certificate: Certificate;
   let pdf: Buffer;
+  let lead: string;
+  let terms: CustomerTerms;
 
   beforeAll(async () => {
     browser = await launchBrowser();
+    // Northgate pays before its certificates are released (pay-certificate.e2e.test.ts walks that): this journey
+    // is about the portal and verification, so the lab puts Northgate on account for its length.
+    lead = await apiLogin('lead@kilocycle.test', DEMO_PASSWORD);
     const client = await apiLogin('client@northgate.test', DEMO_PASSWORD);
+    const me = await apiGet<{ organizationId: number }>(client, '/auth/me');
+    terms = await apiGet<CustomerTerms>(lead, `/prices/customer-terms/${me.organizationId}`);
+    await apiRequest(lead, 'PUT', `/prices/customer-terms/${me.organizationId}`, { ...termsBody(terms), paymentTerms: 'on_account', netDays: 30 });
     const issued = await apiGet<ListResponse<Certificate>>(client, '/certificates?status=issued&sort=issuedAt');
     expect(issued.items.length, 'the demo holds an issued certificate for Northgate Radio Club').toBeGreaterThan(0);
     certificate = issued.items[0]!;
   });
 
   afterAll(async () => {
+    if (terms) await apiRequest(lead, 'PUT', `/prices/customer-terms/${terms.organizationId}`, termsBody(terms));
     await browser?.close();
   });
 
@@ -113,3 +122,8 @@ describe('client portal and public verification (browser)', () => {
     await page.context().close();
   });
 });
+
+/** The request that sets these terms again. */
+function termsBody(t: CustomerTerms) {
+  return { taxRateId: t.taxRateId, taxRegistration: t.taxRegistration, paymentTerms: t.paymentTerms, netDays: t.netDays, requiresQuote: t.requiresQuote };
+}

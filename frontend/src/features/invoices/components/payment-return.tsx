@@ -71,7 +71,7 @@ export function PaymentReturn({ invoiceId, certificate }: PaymentReturnProps) {
           <Typography component="div" sx={{ fontWeight: 600 }}>
             Payment received — thank you.
           </Typography>
-          The receipt is on its way by e-mail, and your certificate is below.
+          Your certificate is below.
         </Alert>
       )}
       {waiting && !paidNow && !gaveUp && (
