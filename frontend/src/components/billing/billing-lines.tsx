@@ -202,10 +202,12 @@ type TotalsProps = { totals: DocumentTotals; currency: string; taxExempt: boolea
 
 /** Net and tax per rate, then the document's net, tax and total, all as the server computed them. */
 export function Totals({ totals, currency, taxExempt, taxRegistration }: TotalsProps) {
+  // The total sits in the table's footer, whose cells MUI prints small and grey: keep them the body's size and colour.
+  const cell = (strong: boolean) => ({ border: 0, py: 0.25, fontSize: '0.875rem', color: 'text.primary', fontWeight: strong ? 600 : undefined });
   const row = (name: string, minor: number, strong = false) => (
     <TableRow key={name}>
-      <TableCell sx={{ border: 0, py: 0.25, fontWeight: strong ? 600 : undefined }}>{name}</TableCell>
-      <TableCell sx={{ border: 0, py: 0.25, fontWeight: strong ? 600 : undefined }}>
+      <TableCell sx={cell(strong)}>{name}</TableCell>
+      <TableCell sx={cell(strong)}>
         <Money minor={minor} currency={currency} align="right" />
       </TableCell>
     </TableRow>
