@@ -71,7 +71,7 @@ export class StatementsService {
         id: e.id,
         at: e.at,
         kind: e.kind,
-        reference: e.paymentId !== null ? `payment ${e.paymentId}` : `${e.kind} ${e.id}`,
+        reference: e.paymentId !== null ? `by card #${e.paymentId}` : `#${e.id}`,
         invoiceNumber: numberOf.get(e.invoiceId) ?? null,
         amountMinor: e.kind === 'payment' ? -e.amountMinor : e.amountMinor,
       })),

@@ -6,25 +6,25 @@ import { insertDemoJob, nextDemoJobNumber } from '../jobs/jobs.demo.js';
 import { addDays } from '../shared/demo-signals.js';
 import type { DemoContext } from './demo-seed.js';
 
-// Invented lines for the earlier jobs (the newest job's invoice starts from its quote or the price list).
+// Invented lines for the earlier jobs, at last year's prices (the newest job's invoice starts from its quote or the price list).
 const LINES = {
   dial: (ranges: number): BillingLineInput => ({
     code: 'CAL-RNG',
-    description: 'Dial calibration, per range (as found and as left)',
+    description: 'Calibration, per range',
     unit: 'per_range',
     quantityMilli: ranges * 1000,
     unitPriceMinor: 4_500,
   }),
   job: (): BillingLineInput => ({
-    code: 'JOB',
-    description: 'Job handling, report and certificate',
+    code: 'JOB-ADM',
+    description: 'Job handling and certificate',
     unit: 'per_job',
     quantityMilli: 1000,
     unitPriceMinor: 3_500,
   }),
   study: (milli: number): BillingLineInput => ({
-    code: 'STAB-H',
-    description: 'Warm-up and stability study, per hour',
+    code: 'STAB-HR',
+    description: 'Stability study, per hour',
     unit: 'per_hour',
     quantityMilli: milli,
     unitPriceMinor: 2_800,

@@ -92,7 +92,7 @@ export default function JobRoute() {
           }
         />
         {/* What the work will cost, agreed before it starts (a client answers quotes in its portal). */}
-        {isLab && <QuotePanel jobId={j.id} />}
+        {isLab && <QuotePanel jobId={j.id} closed={j.status === 'approved' || j.status === 'issued'} />}
         <Paper variant="outlined" sx={{ p: 2, overflowX: 'auto' }}>
           <Box sx={{ display: 'flex', alignItems: 'center', mb: 1 }}>
             <Typography variant="h3" component="h2" sx={{ flex: 1 }}>

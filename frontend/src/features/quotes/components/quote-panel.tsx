@@ -62,10 +62,11 @@ function Decision({ quote }: { quote: Quote }) {
   return null;
 }
 
-type QuotePanelProps = { jobId: number };
+/** closed: the job's certificate is signed, so no new quote is made for it. */
+type QuotePanelProps = { jobId: number; closed?: boolean };
 
 /** The job's quote on its page: made from the proposed lines, edited while a draft, sent, and the customer's answer. */
-export function QuotePanel({ jobId }: QuotePanelProps) {
+export function QuotePanel({ jobId, closed = false }: QuotePanelProps) {
   const user = useCurrentUser();
   const canBill = BILLING_ROLES.includes(user.role);
   const quotes = useQuotes({ query: { jobId, sort: '-createdAt', pageSize: 50 } });
@@ -85,7 +86,7 @@ export function QuotePanel({ jobId }: QuotePanelProps) {
   const all = quotes.data?.items ?? [];
   const quote = all[0];
   const earlier = all.slice(1);
-  const mayCreate = canBill && !all.some((q) => OPEN_STATUSES.includes(q.status));
+  const mayCreate = canBill && !closed && !all.some((q) => OPEN_STATUSES.includes(q.status));
 
   return (
     <Paper variant="outlined" component="section" aria-label="Quote" sx={{ p: 2 }}>
@@ -100,7 +101,9 @@ export function QuotePanel({ jobId }: QuotePanelProps) {
       <FormErrors messages={serverMessages(create.error, 'The quote could not be made.')} />
       {quotes.isSuccess && !quote && (
         <Typography variant="body2" color="text.secondary" sx={{ mb: 1 }}>
-          No quote for this job yet.{canBill ? ' A new one starts from the price list’s proposed lines for this instrument and its studies.' : ''}
+          {closed
+            ? 'No quote was made for this job; its invoice starts from the price list.'
+            : `No quote for this job yet.${canBill ? ' A new one starts from the price list’s proposed lines for this instrument and its studies.' : ''}`}
         </Typography>
       )}
       {quote && (
