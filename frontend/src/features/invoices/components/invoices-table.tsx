@@ -109,7 +109,7 @@ export function InvoicesTable({ customers = [] }: InvoicesTableProps) {
   return (
     <>
       <Box sx={{ display: 'flex', gap: 1.5, mb: 1.5, flexWrap: 'wrap', alignItems: 'center' }}>
-        <SearchField label="Search" placeholder="Number, job or customer" value={list.q} onChange={(q) => list.update({ q })} />
+        <SearchField label="Search" placeholder="Invoice number" value={list.q} onChange={(q) => list.update({ q })} />
         <SelectFilter label="Status" value={status} options={STATUS_OPTIONS} onChange={(v) => list.update({ status: v })} allLabel="Any status" />
         <SelectFilter
           label="Overdue"
