@@ -37,13 +37,8 @@ export function hadamardDev(x: ArrayLike<number>, tau0: number, opts: HadamardOp
   const z = detrendPhase(x);
   return factors.map((m) => {
     const stride = overlapping ? 1 : m;
-    let sum = 0;
-    let terms = 0;
-    for (let i = 0; i + 3 * m < N; i += stride) {
-      const third = z[i + 3 * m]! - 3 * z[i + 2 * m]! + 3 * z[i + m]! - z[i]!;
-      sum += third * third;
-      terms++;
-    }
+    const terms = Math.floor((N - 3 * m - 1) / stride) + 1; // the i = 0, stride, 2·stride, … with i + 3m < N
+    const sum = thirdDifferenceSum(z, m, stride, terms);
     const tau = m * tau0;
     const deviation = Math.sqrt(sum / (6 * tau * tau * terms));
     const noise = noiseAt(opts.noise, m);
@@ -51,4 +46,18 @@ export function hadamardDev(x: ArrayLike<number>, tau0: number, opts: HadamardOp
     const [ciLow, ciHigh] = chiSquaredInterval(deviation, edf, confidence);
     return { m, tau, deviation, terms, noise, edf, ciLow, ciHigh };
   });
+}
+
+// Σ (x_{i+3m} − 3x_{i+2m} + 3x_{i+m} − x_i)² over i = 0, stride, … (terms of them). A plain function over a
+// Float64Array rather than a loop inside the per-factor closure: V8 optimises it far better there (this
+// pass is most of hadamardDev's time on 10⁶ points); the operations and their order are unchanged.
+function thirdDifferenceSum(z: Float64Array, m: number, stride: number, terms: number): number {
+  const m2 = 2 * m;
+  const m3 = 3 * m;
+  let sum = 0;
+  for (let k = 0, i = 0; k < terms; k++, i += stride) {
+    const third = z[i + m3]! - 3 * z[i + m2]! + 3 * z[i + m]! - z[i]!;
+    sum += third * third;
+  }
+  return sum;
 }

@@ -1,5 +1,6 @@
 import { checkPhaseInput, confidenceOf, detrendPhase, noiseAt, resolveFactors, type DeviationOptions, type DeviationPoint } from './deviation-input.js';
 import { greenhallEdf } from './greenhall-edf.js';
+import { modifiedVarianceSum } from './modified-variance-sum.js';
 import { chiSquaredInterval } from './stability-confidence.js';
 
 /**
@@ -7,7 +8,7 @@ import { chiSquaredInterval } from './stability-confidence.js';
  * with the modified Allan variance in its phase form (SP 1065 Eq. 15, as in {@link modifiedAdev})
  * Mod σ²_y(τ) = Σ_{j=1}^{N−3m+1} ( Σ_{i=j}^{j+m−1} (x_{i+2m} − 2x_{i+m} + x_i) )² / (2 m² τ² (N − 3m + 1)),
  * τ = mτ0, N phase points, so σ²_x(τ) = Σ_j (…)² / (6 m² (N − 3m + 1)). The inner sum slides
- * (one term in, one out), so each factor costs O(N). TDEV has the unit of x (seconds for phase in s).
+ * (one term in, one out; the same kernel as MDEV, {@link modifiedVarianceSum}), so each factor costs O(N). TDEV has the unit of x (seconds for phase in s).
  *
  * Degrees of freedom: {@link greenhallEdf} with d = 2, modified, overlapping, for the noise type of
  * each factor (TDEV is a fixed multiple of MDEV, so it has MDEV's edf); the interval is χ².
@@ -30,15 +31,7 @@ export function timeDev(x: ArrayLike<number>, tau0: number, opts: DeviationOptio
   const z = detrendPhase(x);
   return factors.map((m) => {
     const terms = N - 3 * m + 1;
-    const difference = (i: number) => z[i + 2 * m]! - 2 * z[i + m]! + z[i]!;
-    let inner = 0;
-    for (let i = 0; i < m; i++) inner += difference(i);
-    let sum = inner * inner;
-    for (let j = 1; j < terms; j++) {
-      inner += difference(j + m - 1) - difference(j - 1);
-      sum += inner * inner;
-    }
-    const deviation = Math.sqrt(sum / (6 * m * m * terms));
+    const deviation = Math.sqrt(modifiedVarianceSum(z, m) / (6 * m * m * terms));
     const noise = noiseAt(opts.noise, m);
     const edf = greenhallEdf({ d: 2, m, phasePoints: N, overlapping: true, modified: true, noise });
     const [ciLow, ciHigh] = chiSquaredInterval(deviation, edf, confidence);

@@ -7,8 +7,9 @@ import { totalDevEdf } from './total-dev-edf.js';
  * variance taken over the phase record extended by reflection about both end points,
  * Totvar(τ) = Σ_{i=2}^{N−1} (x*_{i−m} − 2x*_i + x*_{i+m})² / (2 τ² (N − 2)), τ = mτ0,
  * x*_{1−j} = 2x_1 − x_{1+j} and x*_{N+j} = 2x_N − x_{N−j} for j = 1 … N − 2, so the virtual series runs
- * from 3 − N to 2N − 2 (3N − 4 points) with the data in its middle. The extended series is built once
- * (O(N)) and each factor is one pass of N − 2 second differences over it: O(N) per τ, no O(N²) loop.
+ * from 3 − N to 2N − 2 (3N − 4 points) with the data in its middle. The extended series is never built:
+ * a point outside the data is computed from its mirror image where it is needed, and each factor is one
+ * pass of N − 2 second differences: O(N) per τ, no O(N²) loop, no extra memory.
  * No bias correction is applied (the SP 1065 Table 31 values below are matched without one).
  * Factors run to (N − 1)/2, half the record (our limit; the reflection itself would allow N − 1).
  *
@@ -30,21 +31,9 @@ export function totalDev(x: ArrayLike<number>, tau0: number, opts: DeviationOpti
   const confidence = confidenceOf(fn, opts.confidence);
   const factors = resolveFactors(fn, opts.factors, (N - 1) / 2);
   const z = detrendPhase(x);
-  // Extended series: index k + (N − 2) holds x_k (0-based); reflections fill N − 2 points each side.
-  const offset = N - 2;
-  const extended = new Float64Array(3 * N - 4);
-  extended.set(z, offset);
-  for (let j = 1; j <= N - 2; j++) {
-    extended[offset - j] = 2 * z[0]! - z[j]!;
-    extended[offset + N - 1 + j] = 2 * z[N - 1]! - z[N - 1 - j]!;
-  }
   const terms = N - 2;
   return factors.map((m) => {
-    let sum = 0;
-    for (let i = offset + 1; i <= offset + N - 2; i++) {
-      const second = extended[i - m]! - 2 * extended[i]! + extended[i + m]!;
-      sum += second * second;
-    }
+    const sum = reflectedSecondDifferenceSum(z, m);
     const tau = m * tau0;
     const deviation = Math.sqrt(sum / (2 * tau * tau * terms));
     const noise = noiseAt(opts.noise, m);
@@ -52,4 +41,30 @@ export function totalDev(x: ArrayLike<number>, tau0: number, opts: DeviationOpti
     const [ciLow, ciHigh] = chiSquaredInterval(deviation, edf, confidence);
     return { m, tau, deviation, terms, noise, edf, ciLow, ciHigh };
   });
+}
+
+// Σ_{k=1}^{N−2} (x*_{k−m} − 2x_k + x*_{k+m})², 0-based, x* the reflected series: x*_{−j} = 2x_0 − x_j,
+// x*_{N−1+j} = 2x_{N−1} − x_{N−1−j}. With 2m ≤ N − 1 (the caller's limit) only the first m − 1 terms reach left of the data
+// and only the last m − 1 right of it, so the pass is split in three loops instead of building the
+// 3N − 4-point extended array (24 MB on 10⁶ points) and reading through it; each reflected point is
+// the same 2x_end − x_j as that array held, and the terms are added in the same order, so the sum is
+// unchanged to the last bit.
+function reflectedSecondDifferenceSum(z: Float64Array, m: number): number {
+  const N = z.length;
+  const first = z[0]!;
+  const last = z[N - 1]!;
+  let sum = 0;
+  for (let k = 1; k < m; k++) {
+    const second = 2 * first - z[m - k]! - 2 * z[k]! + z[k + m]!;
+    sum += second * second;
+  }
+  for (let k = m; k <= N - 1 - m; k++) {
+    const second = z[k - m]! - 2 * z[k]! + z[k + m]!;
+    sum += second * second;
+  }
+  for (let k = N - m; k <= N - 2; k++) {
+    const second = z[k - m]! - 2 * z[k]! + (2 * last - z[2 * (N - 1) - k - m]!);
+    sum += second * second;
+  }
+  return sum;
 }
