@@ -2,7 +2,7 @@ import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Instrument, Job, ListResponse } from '@kilocycle/common/types';
 import { keepScreenshot, launchBrowser, onNewPage, signIn } from './support/browser';
-import { apiGet, createTestInstrument, sessionToken } from './support/lab';
+import { apiGet, createTestInstrument, readyForWork, sessionToken } from './support/lab';
 
 // Journey 1 (PRODUCT.md §4): a technician opens a job, starts an as-found run on range 1, types ten dial/counter
 // pairs with the keyboard alone, watches the chart and the fit follow, excludes one reading, reloads and finds
@@ -88,6 +88,8 @@ async function journey(page: Page) {
     await page.waitForURL(/\/jobs\/\d+$/);
     await page.getByRole('heading', { name: /^Job J\d{4}-\d{4}$/ }).waitFor();
     const jobUrl = page.url();
+    // Northgate's work waits for an accepted quote: the lead records the customer's yes by phone.
+    await readyForWork(Number(/\/jobs\/(\d+)$/.exec(jobUrl)![1]));
 
     // 2. An as-found run on range 1 against the in-date counter.
     await page.getByRole('button', { name: 'Open run' }).click();

@@ -1,8 +1,8 @@
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Bench, Instrument, Job, ListResponse, MailMessageSummary, Organization, Run } from '@kilocycle/common/types';
+import type { Bench, Instrument, ListResponse, MailMessageSummary, Organization, Run } from '@kilocycle/common/types';
 import { keepScreenshot, launchBrowser, onNewPage, signIn } from './support/browser';
-import { apiGet, apiLogin, apiRequest, sessionToken } from './support/lab';
+import { apiGet, apiLogin, apiRequest, openJob, sessionToken } from './support/lab';
 import { patientPage } from './support/patient-page';
 
 // Issue #14, item 5 ("Elsewhere"): an empty run's pages say "No readings yet" with no failed request behind them;
@@ -104,7 +104,7 @@ describe('elsewhere polish (browser)', () => {
       await signIn(page, 'tech@kilocycle.test');
       const token = await sessionToken(page);
       const instrument = await newInstrument('E');
-      const job = await apiRequest<Job>(token, 'POST', '/jobs', { instrumentId: instrument.id, receivedDate: new Date().toISOString().slice(0, 10) });
+      const job = await openJob(token, instrument.id);
       const benches = await apiGet<ListResponse<Bench>>(token, '/benches?active=true&sort=name&pageSize=200');
       const standardId = benches.items.find((b) => b.defaultStandardId !== null)!.defaultStandardId;
       const calibration = await apiRequest<Run>(token, 'POST', `/jobs/${job.id}/runs`, { rangeId: instrument.ranges[0]!.id, kind: 'as_found', standardId });
@@ -172,7 +172,7 @@ describe('elsewhere polish (browser)', () => {
     const tech = await apiLogin('tech@kilocycle.test', DEMO_PASSWORD);
     const lead = await apiLogin('lead@kilocycle.test', DEMO_PASSWORD);
     const instrument = await newInstrument('M');
-    const job = await apiRequest<Job>(tech, 'POST', '/jobs', { instrumentId: instrument.id, receivedDate: new Date().toISOString().slice(0, 10) });
+    const job = await openJob(tech, instrument.id);
     const benches = await apiGet<ListResponse<Bench>>(tech, '/benches?active=true&sort=name&pageSize=200');
     const standardId = benches.items.find((b) => b.defaultStandardId !== null)!.defaultStandardId;
     const run = await apiRequest<Run>(tech, 'POST', `/jobs/${job.id}/runs`, { rangeId: instrument.ranges[0]!.id, kind: 'as_found', standardId });

@@ -1,5 +1,5 @@
 import type { Page } from 'playwright-core';
-import type { Bench, Instrument, Job, ListResponse, Organization } from '@kilocycle/common/types';
+import type { Bench, CustomerTerms, Instrument, Job, ListResponse, Organization, Quote } from '@kilocycle/common/types';
 import { BASE_URL } from './browser';
 
 /** The signed-in page's session token, to set up or check data through the same API the page uses. */
@@ -63,9 +63,26 @@ export function createTestInstrument(
   });
 }
 
-/** A job for the instrument, received today. */
-export const openJob = (token: string, instrumentId: number) =>
-  apiRequest<Job>(token, 'POST', '/jobs', { instrumentId, receivedDate: new Date().toISOString().slice(0, 10) });
+/** A job for the instrument, received today, ready for work (see readyForWork). */
+export async function openJob(token: string, instrumentId: number): Promise<Job> {
+  const job = await apiRequest<Job>(token, 'POST', '/jobs', { instrumentId, receivedDate: new Date().toISOString().slice(0, 10) });
+  await readyForWork(job.id);
+  return job;
+}
+
+/**
+ * When the job's customer requires an accepted quote before work starts (Northgate in the demo), the lead makes the
+ * quote from the price list, sends it and records the customer's acceptance by phone, as a lab would.
+ */
+export async function readyForWork(jobId: number): Promise<void> {
+  const lead = await apiLogin('lead@kilocycle.test', 'kilocycle-demo');
+  const job = await apiGet<Job>(lead, `/jobs/${jobId}`);
+  const terms = await apiGet<CustomerTerms>(lead, `/prices/customer-terms/${job.organizationId}`);
+  if (!terms.requiresQuote) return;
+  const quote = await apiRequest<Quote>(lead, 'POST', `/jobs/${job.id}/quote`);
+  await apiRequest(lead, 'POST', `/quotes/${quote.id}/send`);
+  await apiRequest(lead, 'POST', `/quotes/${quote.id}/accept`, { channel: 'phone', note: 'Accepted by phone (browser test set-up).' });
+}
 
 /**
  * A test's own instrument (for the demo's customer club, else the first organisation) with a job received
