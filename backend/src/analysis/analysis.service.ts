@@ -14,7 +14,6 @@ import {
   longestContinuousSegment,
   madOutliers,
   MetrologyError,
-  modifiedAdev,
   removeLinearFrequencyDrift,
   sampleMean,
   stabilityTable,
@@ -258,7 +257,12 @@ export class AnalysisService {
    * 95 % interval), the linear frequency drift, optionally removed first, over the longest continuous segment by
    * default (or every reading as if continuous, flagged), and the readings the MAD screen flags. All of it is common's.
    */
-  private async stability(runId: number, series: RunSeries, basis: (used: number) => ReadyAnalysisBasis, query: RunAnalysisQueryDto): Promise<StabilityRunAnalysis> {
+  private async stability(
+    runId: number,
+    series: RunSeries,
+    basis: (used: number) => ReadyAnalysisBasis,
+    query: RunAnalysisQueryDto,
+  ): Promise<StabilityRunAnalysis> {
     const { t, frequency, seq } = includedByTime(series);
     if (t.length < 3) throw new MetrologyError('too_few_points', `a stability analysis requires at least 3 data points (the run has ${t.length})`);
     // The basic interval is the median spacing; gaps are then judged against it.

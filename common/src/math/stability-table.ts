@@ -17,8 +17,7 @@ export type TableDeviation = (typeof TABLE_DEVIATIONS)[number];
 
 /** The noise named at one averaging factor, or why none could be. */
 export type NoiseAtFactor =
-  | { status: 'identified'; noise: NoiseType; method: 'lag1_acf' | 'b1_ratio'; alternatives: NoiseType[] }
-  | { status: 'too_short'; message: string };
+  { status: 'identified'; noise: NoiseType; method: 'lag1_acf' | 'b1_ratio'; alternatives: NoiseType[] } | { status: 'too_short'; message: string };
 
 /** One deviation at one averaging time. */
 export type DeviationValue = {

@@ -324,7 +324,13 @@ export const STABILITY_DEVIATION_NAMES: Readonly<Record<StabilityDeviation, stri
   totdev: 'Total deviation',
 };
 /** Short names for columns and legends. */
-export const STABILITY_DEVIATION_SHORT: Readonly<Record<StabilityDeviation, string>> = { adev: 'ADEV', mdev: 'MDEV', hdev: 'HDEV', tdev: 'TDEV', totdev: 'TOTDEV' };
+export const STABILITY_DEVIATION_SHORT: Readonly<Record<StabilityDeviation, string>> = {
+  adev: 'ADEV',
+  mdev: 'MDEV',
+  hdev: 'HDEV',
+  tdev: 'TDEV',
+  totdev: 'TOTDEV',
+};
 /** Averaging factors when no list is given: powers of two, or 1-2-5 per decade. */
 export const STABILITY_FACTOR_SPACINGS = ['octaves', 'decades'] as const;
 export type StabilityFactorSpacing = (typeof STABILITY_FACTOR_SPACINGS)[number];
@@ -341,7 +347,20 @@ export const MAX_STABILITY_FACTORS = 40;
 /** At most this many MAD-flagged readings are listed (flaggedCount has them all). */
 export const MAX_LISTED_OUTLIERS = 200;
 /** Columns of the deviation table's CSV, in order (one line per τ and deviation). */
-export const DEVIATION_CSV_COLUMNS = ['tau_s', 'm', 'deviation', 'value', 'terms', 'edf', 'ci95_low', 'ci95_high', 'noise', 'noise_method', 'edf_noise', 'data'] as const;
+export const DEVIATION_CSV_COLUMNS = [
+  'tau_s',
+  'm',
+  'deviation',
+  'value',
+  'terms',
+  'edf',
+  'ci95_low',
+  'ci95_high',
+  'noise',
+  'noise_method',
+  'edf_noise',
+  'data',
+] as const;
 
 /** Query of the analysis that applies to stability runs. */
 export type StabilityAnalysisQuery = {
