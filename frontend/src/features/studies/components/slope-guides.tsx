@@ -1,0 +1,33 @@
+import { useDrawingArea, useXScale, useYScale } from '@mui/x-charts/hooks';
+import { useId } from 'react';
+import type { GuideLine } from '../utils/slope-guides';
+
+/** Dashed slope guides inside a log-log chart, each labelled at its right end, clipped to the plot area. */
+export function SlopeGuides({ lines, color }: { lines: readonly GuideLine[]; color: string }) {
+  const x = useXScale<'log'>();
+  const y = useYScale<'log'>();
+  const area = useDrawingArea();
+  const clip = useId();
+  return (
+    <g data-testid="slope-guides" pointerEvents="none">
+      <clipPath id={clip}>
+        <rect x={area.left} y={area.top} width={area.width} height={area.height} />
+      </clipPath>
+      <g clipPath={`url(#${clip})`} stroke={color} strokeDasharray="4 4" strokeWidth={1}>
+        {lines.map((line) => {
+          const points = [x(line.x1), y(line.y1), x(line.x2), y(line.y2)];
+          if (!points.every((v) => typeof v === 'number' && Number.isFinite(v))) return null;
+          const [x1, y1, x2, y2] = points as number[];
+          return (
+            <g key={line.label}>
+              <line x1={x1} y1={y1} x2={x2} y2={y2} />
+              <text x={x2! - 4} y={y2! - 4} textAnchor="end" fill={color} stroke="none" fontSize={10}>
+                {line.label}
+              </text>
+            </g>
+          );
+        })}
+      </g>
+    </g>
+  );
+}
