@@ -118,9 +118,9 @@ export function StabilityView({
   const colors: Record<StabilityDeviation, string> = {
     adev: theme.palette.primary.main,
     mdev: theme.palette.secondary.main,
-    hdev: theme.palette.success.dark,
+    hdev: theme.palette.warning.dark,
     tdev: theme.palette.text.secondary,
-    totdev: theme.palette.warning.dark,
+    totdev: theme.palette.error.dark,
   };
   const shownDeviations = CHARTED.filter((d) => ticked.includes(d));
   const taus = rows.map((r) => r.tau);
@@ -188,7 +188,7 @@ export function StabilityView({
         <Typography variant="body2" color="text.secondary" sx={{ mb: 1 }} data-testid="chart-data">
           Computed from {which}. Dashed lines: slopes of the noise types.
         </Typography>
-        <FormGroup row aria-label="Deviations on the chart">
+        <FormGroup row role="group" aria-label="Deviations on the chart">
           {CHARTED.map((d) => (
             <FormControlLabel
               key={d}
@@ -333,7 +333,11 @@ export function StabilityView({
       <Paper variant="outlined" sx={{ p: 2, gridColumn: '1 / -1', minWidth: 0 }}>
         <Box sx={{ display: 'flex', flexWrap: 'wrap', gap: 1, alignItems: 'baseline', justifyContent: 'space-between', mb: 1 }}>
           <Typography variant="h3" component="h2">
-            {options.factors === 'decades' && toolkit.factors.spacing !== 'list' ? 'Decade by decade' : 'Octave by octave'}
+            {toolkit.factors.spacing === 'decades'
+              ? 'Decade by decade'
+              : toolkit.factors.spacing === 'list'
+                ? 'At the averaging times asked for'
+                : 'Octave by octave'}
           </Typography>
           <Button size="small" onClick={() => saveText(deviationCsv(toolkit), `${fileTitle ?? `run-${analysis.runId}`}-deviations.csv`)}>
             Download CSV
@@ -342,7 +346,8 @@ export function StabilityView({
         <Typography variant="body2" color="text.secondary" sx={{ mb: 1 }} data-testid="table-data">
           Computed from {which}; intervals at {Math.round(toolkit.confidence * 100)} % (χ², edf for the noise type named at each τ).
         </Typography>
-        <Box sx={{ overflowX: 'auto' }}>
+        {/* Wider than a phone: the table scrolls in its own box, which the keyboard can reach. */}
+        <Box sx={{ overflowX: 'auto' }} tabIndex={0} role="region" aria-label="Deviations table (scrolls sideways on narrow screens)">
           <Table size="small" aria-label="Deviations table">
             <TableHead>
               <TableRow>
