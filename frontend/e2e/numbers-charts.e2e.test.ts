@@ -121,7 +121,7 @@ describe('numbers and charts (browser)', () => {
       expect(await labelsInside(chart)).toEqual([]);
       expect(await chart.getByTestId('adev-confidence-bars').locator('line').count()).toBeGreaterThan(0);
 
-      const table = page.getByRole('table', { name: 'Allan deviation table' });
+      const table = page.getByRole('table', { name: 'Deviations table' });
       const taus = (await table.locator('tbody tr td:first-child').allInnerTexts()).map((t) => t.trim());
       // Octaves of τ0 = 0.1 s: 0.1, 0.2, 0.4, … 1.6, 3.2 … 102.4 (three significant digits: 102).
       expect(taus.slice(0, 8)).toEqual(['0.1', '0.2', '0.4', '0.8', '1.6', '3.2', '6.4', '12.8']);

@@ -1,4 +1,4 @@
-import { Injectable, UnprocessableEntityException } from '@nestjs/common';
+import { BadRequestException, Injectable, UnprocessableEntityException } from '@nestjs/common';
 import {
   alignLC,
   analyseCalibration,
@@ -10,18 +10,29 @@ import {
   fitWarmup,
   fractionalFrequency,
   keyingShift,
+  linearFrequencyDrift,
+  longestContinuousSegment,
+  madOutliers,
   MetrologyError,
-  modifiedAdev,
-  overlappingAdev,
+  removeLinearFrequencyDrift,
   sampleMean,
+  stabilityTable,
   supplySensitivity,
   warmupSettling,
   warmupSummary,
   type CalibrationPoint,
   type DriftWindow,
+  type StabilityPoint,
+  type StabilityTableRow,
 } from '@kilocycle/common/math';
 import {
+  MAX_LISTED_OUTLIERS,
   MAX_SERIES_POINTS,
+  MAX_STABILITY_FACTORS,
+  STABILITY_CONFIDENCE,
+  type StabilityOutlierScreen,
+  type StabilitySegment,
+  type StabilityToolkit,
   type ReadyAnalysisBasis,
   type CalibrationRunAnalysis,
   type KeyingRunAnalysis,
@@ -34,6 +45,7 @@ import {
 } from '@kilocycle/common/types';
 import type { AuthUser } from '../shared/auth-user.js';
 import type { InstrumentRange } from '../instruments/instrument-range.entity.js';
+import { RunReadingsReader } from '../readings/run-readings.reader.js';
 import { RunsService } from '../runs/runs.service.js';
 import { LruCache } from './analysis-cache.js';
 import type { RunAnalysisQueryDto } from './dto/analysis-query.dto.js';
@@ -54,6 +66,7 @@ export class AnalysisService {
   constructor(
     private readonly runs: RunsService,
     private readonly loader: RunSeriesLoader,
+    private readonly readings: RunReadingsReader,
   ) {}
 
   async analyse(actor: AuthUser, runId: number, query: RunAnalysisQueryDto): Promise<RunAnalysis> {
@@ -94,7 +107,9 @@ export class AnalysisService {
     });
     // No included reading yet (a run just opened, or every reading excluded) is a state, not an error: say so for every kind.
     const result: RunAnalysis =
-      series.readingCount === series.excludedCount ? { ...basis(0), state: 'empty', analysis: 'none' } : this.byKind(run.kind, run.range, series, basis, query);
+      series.readingCount === series.excludedCount
+        ? { ...basis(0), state: 'empty', analysis: 'none' }
+        : await this.byKind(runId, run.kind, run.range, series, basis, query);
     if (series.readingCount === counts.readingCount && series.excludedCount === counts.excludedCount) this.results.set(resultKey, result);
     return result;
   }
@@ -114,13 +129,14 @@ export class AnalysisService {
     return { readingCount: series.readingCount, ...includedByTime(series) };
   }
 
-  private byKind(
+  private async byKind(
+    runId: number,
     kind: RunKind,
     range: InstrumentRange,
     series: RunSeries,
     basis: (used: number) => ReadyAnalysisBasis,
     query: RunAnalysisQueryDto,
-  ): RunAnalysis {
+  ): Promise<RunAnalysis> {
     switch (kind) {
       case 'as_found':
       case 'as_left':
@@ -128,7 +144,7 @@ export class AnalysisService {
       case 'warmup':
         return this.warmup(series, basis, query);
       case 'stability':
-        return this.stability(series, basis, query);
+        return this.stability(runId, series, basis, query);
       case 'supply_sensitivity':
         return this.supply(series, basis);
       case 'keying':
@@ -236,25 +252,93 @@ export class AnalysisService {
     };
   }
 
-  private stability(series: RunSeries, basis: (used: number) => ReadyAnalysisBasis, query: RunAnalysisQueryDto): StabilityRunAnalysis {
-    const { t, frequency } = includedByTime(series);
+  /**
+   * A stability run: the deviations at each τ (ADEV, MDEV, HDEV, TDEV, TOTDEV with terms, the noise named, edf and
+   * 95 % interval), the linear frequency drift, optionally removed first, over the longest continuous segment by
+   * default (or every reading as if continuous, flagged), and the readings the MAD screen flags. All of it is common's.
+   */
+  private async stability(
+    runId: number,
+    series: RunSeries,
+    basis: (used: number) => ReadyAnalysisBasis,
+    query: RunAnalysisQueryDto,
+  ): Promise<StabilityRunAnalysis> {
+    const { t, frequency, seq } = includedByTime(series);
     if (t.length < 3) throw new MetrologyError('too_few_points', `a stability analysis requires at least 3 data points (the run has ${t.length})`);
     // The basic interval is the median spacing; gaps are then judged against it.
     const tau0 = detectGaps(t, 1).medianInterval;
     if (!(tau0 > 0)) throw new MetrologyError('not_sorted', 'the readings of this run share one time stamp, so they have no interval');
     const gaps = detectGaps(t, tau0);
     const referenceHz = query.referenceHz ?? sampleMean(frequency);
-    const y = fractionalFrequency(frequency, referenceHz);
+    const factors = factorList(query.m);
+    const gapChoice = query.gaps ?? 'longest';
+    const { start, end, leftOut } =
+      gapChoice === 'longest' && gaps.gaps.length > 0 ? longestContinuousSegment(frequency, gaps.gaps) : { start: 0, end: t.length, leftOut: 0 };
+    const count = end - start;
+    const segment = segmentOf(gapChoice, t, start, end, leftOut, gaps.gaps.length);
+    if (count < 3) throw new MetrologyError('too_few_points', `${segment.statement}: a stability analysis requires at least 3 readings`);
+    const y = fractionalFrequency(frequency.subarray(start, end), referenceHz);
+    const drift = linearFrequencyDrift(y, tau0);
+    const removed = query.drift === 'removed';
+    const analysed = removed ? removeLinearFrequencyDrift(y, tau0).residuals : y;
+    const deviations = stabilityTable(analysed, tau0, {
+      ...(factors ? { factors } : { spacing: query.factors ?? 'octaves' }),
+      confidence: STABILITY_CONFIDENCE,
+    });
+    const toolkit: StabilityToolkit = {
+      dataKind: 'frequency',
+      confidence: STABILITY_CONFIDENCE,
+      factors: { spacing: factors ? 'list' : (query.factors ?? 'octaves'), list: deviations.map((row) => row.m) },
+      segment,
+      drift: {
+        method: 'linear_frequency',
+        perSecond: drift.drift,
+        standardError: drift.standardError,
+        points: count,
+        fromSeconds: segment.fromSeconds,
+        toSeconds: segment.toSeconds,
+        spansGap: gapChoice === 'continuous' && gaps.gaps.length > 0,
+        removed,
+      },
+      deviations,
+      outliers: await this.outliers(runId, analysed, start, t, frequency, seq),
+    };
     const shown = downsampleLttb(t, frequency, MAX_SERIES_POINTS);
     return {
-      ...basis(t.length),
+      ...basis(count),
       analysis: 'stability',
       tau0,
       referenceHz,
-      adev: overlappingAdev(y, tau0),
-      mdev: modifiedAdev(y, tau0),
+      adev: asStabilityPoints(deviations, 'adev'),
+      mdev: asStabilityPoints(deviations, 'mdev'),
       gaps,
       series: { t: shown.x, frequency: shown.y },
+      toolkit,
+    };
+  }
+
+  /** The MAD screen of the analysed data; the flagged readings listed with their ids, so each can be excluded with a reason. */
+  private async outliers(
+    runId: number,
+    analysed: ArrayLike<number>,
+    offset: number,
+    t: Float64Array,
+    frequency: Float64Array,
+    seq: Float64Array,
+  ): Promise<StabilityOutlierScreen> {
+    const screen = madOutliers(analysed);
+    const listed = screen.indices.slice(0, MAX_LISTED_OUTLIERS).map((i) => i + offset);
+    const ids = await this.readings.idsAtSeqs(
+      runId,
+      listed.map((i) => seq[i]!),
+    );
+    return {
+      k: screen.k,
+      screened: analysed.length,
+      median: screen.median,
+      threshold: screen.threshold,
+      flaggedCount: screen.indices.length,
+      flagged: listed.map((i) => ({ readingId: ids.get(seq[i]!) ?? 0, seq: seq[i]!, t: t[i]!, frequency: frequency[i]! })),
     };
   }
 
@@ -285,6 +369,38 @@ export class AnalysisService {
       series: { t: shown.x, frequency: shown.y },
     };
   }
+}
+
+/** `m` as asked ("1,10,100", checked by the DTO to be positive whole numbers): ascending, each once; undefined when not given. */
+function factorList(m: string | undefined): number[] | undefined {
+  if (m === undefined) return undefined;
+  const factors = [...new Set(m.split(',').map(Number))].sort((a, b) => a - b);
+  if (factors.length > MAX_STABILITY_FACTORS) throw new BadRequestException(`m: at most ${MAX_STABILITY_FACTORS} averaging factors (got ${factors.length})`);
+  return factors;
+}
+
+/** What was analysed, in numbers and in one sentence. */
+function segmentOf(choice: StabilitySegment['choice'], t: Float64Array, start: number, end: number, leftOut: number, gapCount: number): StabilitySegment {
+  const count = end - start;
+  const fromSeconds = t[start]!;
+  const toSeconds = t[end - 1]!;
+  const span = `${fromSeconds} s to ${toSeconds} s`;
+  const gapWords = `${gapCount} gap${gapCount === 1 ? '' : 's'}`;
+  const statement =
+    gapCount === 0
+      ? `every included reading: ${count}, ${span}, no gaps`
+      : choice === 'longest'
+        ? `the longest continuous segment: ${count} of ${t.length} included readings, ${span}; ${leftOut} beyond the ${gapWords} left out`
+        : `every included reading (${count}, ${span}) as if continuous, across ${gapWords}: deviations and drift mix readings either side of a gap`;
+  return { choice, count, leftOut, fromSeconds, toSeconds, gapCount, statement };
+}
+
+/** The toolkit's rows as the earlier ADEV and MDEV lists (the same numbers, 95 % intervals). */
+function asStabilityPoints(rows: StabilityTableRow[], deviation: 'adev' | 'mdev'): StabilityPoint[] {
+  return rows.flatMap((row) => {
+    const value = row[deviation];
+    return value ? [{ m: row.m, tau: row.tau, deviation: value.deviation, n: value.terms, edf: value.edf, ciLow: value.ciLow, ciHigh: value.ciHigh }] : [];
+  });
 }
 
 /** The optional columns an analysis of this kind reads: the dial for a calibration, aux for supply and keying runs. */

@@ -117,11 +117,13 @@ function grow(old: Columns, capacity: number): Columns {
   return next;
 }
 
-/** Included readings in time order: t and frequency (and aux), for the time-series analyses. */
-export function includedByTime(series: RunSeries): { t: Float64Array; frequency: Float64Array; aux: Float64Array } {
+/** Included readings in time order: t and frequency (and aux, and seq to name a reading), for the time-series analyses. */
+export type IncludedSeries = { t: Float64Array; frequency: Float64Array; aux: Float64Array; seq: Float64Array };
+
+export function includedByTime(series: RunSeries): IncludedSeries {
   const n = series.count - series.excludedAt.length;
   // Nothing excluded and already in time order (the usual case): the series' own columns, read only, no copy.
-  if (n === series.count && series.inTimeOrder) return { t: series.t, frequency: series.frequency, aux: series.aux };
+  if (n === series.count && series.inTimeOrder) return { t: series.t, frequency: series.frequency, aux: series.aux, seq: series.seq };
   // In time order with a few readings excluded: copy the stretches between them (block copies, no index).
   if (series.inTimeOrder) return withoutExcluded(series, n);
   const order = new Uint32Array(n);
@@ -137,17 +139,19 @@ export function includedByTime(series: RunSeries): { t: Float64Array; frequency:
   const t = new Float64Array(n);
   const frequency = new Float64Array(n);
   const aux = new Float64Array(n);
+  const seq = new Float64Array(n);
   for (let j = 0; j < n; j++) {
     const i = order[j]!;
     t[j] = series.t[i]!;
     frequency[j] = series.frequency[i]!;
     aux[j] = series.aux[i]!;
+    seq[j] = series.seq[i]!;
   }
-  return { t, frequency, aux };
+  return { t, frequency, aux, seq };
 }
 
-function withoutExcluded(series: RunSeries, n: number): { t: Float64Array; frequency: Float64Array; aux: Float64Array } {
-  const out = { t: new Float64Array(n), frequency: new Float64Array(n), aux: new Float64Array(n) };
+function withoutExcluded(series: RunSeries, n: number): IncludedSeries {
+  const out = { t: new Float64Array(n), frequency: new Float64Array(n), aux: new Float64Array(n), seq: new Float64Array(n) };
   let to = 0;
   let from = 0;
   // The stretches between excluded readings, found from their indexes (a loop over each of a million flags
@@ -157,6 +161,7 @@ function withoutExcluded(series: RunSeries, n: number): { t: Float64Array; frequ
       out.t.set(series.t.subarray(from, end), to);
       out.frequency.set(series.frequency.subarray(from, end), to);
       out.aux.set(series.aux.subarray(from, end), to);
+      out.seq.set(series.seq.subarray(from, end), to);
       to += end - from;
     }
     from = end + 1;

@@ -10,6 +10,8 @@ import {
   fitWarmup,
   fractionalFrequency,
   keyingShift,
+  linearFrequencyDrift,
+  longestContinuousSegment,
   meanEstimate,
   MetrologyError,
   overlappingAdev,
@@ -286,7 +288,7 @@ export class ComparisonEngine {
     const estimates: RunOutcome['estimates'] = {};
     const problems: RunOutcome['problems'] = {};
     fitEstimates(p, estimates, problems);
-    const settled = settledEstimates(p, windowSeconds, estimates, problems);
+    const settled = settledEstimates(p, kind, windowSeconds, estimates, problems);
     const { reference, points, fitted } = runCurves(p);
     const meta = p.meta;
     return {
@@ -340,7 +342,7 @@ export class ComparisonEngine {
         }
       });
       if (!first) for (let i = 1; i < values.length; i++) if (values[i] !== null) problems[i] ??= `no difference: ${outcomes[0]!.run.label} has no ${name}`;
-      return { quantity: definition.quantity, name, unit: definition.unit, method: definition.method(windowSeconds), values, differences, problems };
+      return { quantity: definition.quantity, name, unit: definition.unit, method: definition.method(windowSeconds, kind), values, differences, problems };
     });
   }
 }
@@ -371,6 +373,7 @@ function fitEstimates(p: Prepared, estimates: Estimates, problems: Problems): vo
 /** The settled part's drift windows and rate, and its Allan deviation; a run that does not settle has neither. */
 function settledEstimates(
   p: Prepared,
+  kind: ComparableRunKind,
   windowSeconds: number,
   estimates: Estimates,
   problems: Problems,
@@ -385,6 +388,8 @@ function settledEstimates(
   const ts = p.t.subarray(p.settledIndex);
   const fs = p.f.subarray(p.settledIndex);
   const driftWindows = driftEstimate(ts, fs, windowSeconds, estimates, problems);
+  // A stability run's drift rate, value and interval alike, is the least-squares line on frequency (as its analysis gives it).
+  if (kind === 'stability') stabilityDriftEstimate(ts, fs, estimates, problems);
   try {
     return { driftWindows, stability: adevEstimates(ts, fs, estimates, problems), stabilityProblem: null };
   } catch (error) {
@@ -407,6 +412,29 @@ function driftEstimate(ts: Float64Array, fs: Float64Array, windowSeconds: number
   } catch (error) {
     problems.settledDriftRate = problemText(error);
     return [];
+  }
+}
+
+/**
+ * A stability run's drift rate: common's linearFrequencyDrift over the longest continuous segment (the segment its
+ * analysis studies by default), in Hz/min; se from the line's residual scatter, ν = n − 2. Replaces the windows' mean.
+ */
+function stabilityDriftEstimate(ts: Float64Array, fs: Float64Array, estimates: Estimates, problems: Problems): void {
+  delete estimates.settledDriftRate;
+  delete problems.settledDriftRate;
+  try {
+    const tau0 = detectGaps(ts, 1).medianInterval;
+    if (!(tau0 > 0)) throw new MetrologyError('not_sorted', 'the readings share one time stamp, so they have no interval');
+    const gaps = detectGaps(ts, tau0).gaps;
+    const segment = gaps.length > 0 ? longestContinuousSegment(fs, gaps).values : fs;
+    const drift = linearFrequencyDrift(segment, tau0);
+    if (drift.standardError === null || !(drift.standardError > 0)) {
+      problems.settledDriftRate = 'the readings lie on a straight line: the drift rate has no standard error';
+      return;
+    }
+    estimates.settledDriftRate = interval({ value: drift.drift * 60, se: drift.standardError * 60, df: segment.length - 2 });
+  } catch (error) {
+    problems.settledDriftRate = problemText(error);
   }
 }
 

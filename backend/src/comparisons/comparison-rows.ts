@@ -4,7 +4,7 @@ export type RowDefinition = {
   quantity: ComparisonQuantity;
   name: (withinHz: number) => string;
   unit: string;
-  method: (windowSeconds: number) => string;
+  method: (windowSeconds: number, kind: ComparableRunKind) => string;
   kinds: readonly ComparableRunKind[];
 };
 
@@ -22,8 +22,10 @@ export const COMPARISON_ROWS: readonly RowDefinition[] = [
     quantity: 'settledDriftRate',
     name: () => 'settled drift rate',
     unit: 'Hz/min',
-    method: (w) =>
-      `mean of the least-squares drift rates of back-to-back ${w} s windows after the settling time (the whole record for a stability run); standard error s/√k, ν = k − 1 over the k windows`,
+    method: (w, kind) =>
+      kind === 'stability'
+        ? 'least-squares line on frequency over the longest continuous segment (NIST SP 1065 linear frequency drift), in Hz/min; standard error s/√Stt from the residual scatter, ν = n − 2 (assumes white FM: optimistic with flicker or random-walk FM)'
+        : `mean of the least-squares drift rates of back-to-back ${w} s windows after the settling time; standard error s/√k, ν = k − 1 over the k windows`,
     kinds: ['warmup', 'stability'],
   },
   {

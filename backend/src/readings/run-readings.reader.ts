@@ -86,6 +86,16 @@ export class RunReadingsReader extends NewestReadingSource {
     return this.dataSource.query('SELECT seq, t_s, dial, frequency_hz FROM readings WHERE run_id = ? AND seq IN (?)', [runId, seqs]);
   }
 
+  /** The ids of the run's readings at these seqs (seq → id), so a flagged reading can be excluded through its route. */
+  async idsAtSeqs(runId: number, seqs: readonly number[]): Promise<Map<number, number>> {
+    if (seqs.length === 0) return new Map();
+    const rows = await replicaQuery<Array<{ id: number; seq: number }>>(this.dataSource, 'SELECT id, seq FROM readings WHERE run_id = ? AND seq IN (?)', [
+      runId,
+      seqs,
+    ]);
+    return new Map(rows.map((row) => [Number(row.seq), Number(row.id)]));
+  }
+
   /**
    * Streams the run's readings in seq order as row arrays [seq, t_s, dial, frequency_hz, aux] (columns not
    * asked for are null) straight from the driver: no entities, no per-row objects. A prepared statement, so

@@ -179,11 +179,8 @@ describe('comparisons (e2e, MariaDB)', () => {
     const second = await sibling(t.dataSource, before, 'stability');
     const quiet = gaussian(5);
     const noisy = gaussian(6);
-    await insertReadings(
-      t.dataSource,
-      first,
-      Array.from({ length: 1200 }, (_, i) => ({ t: i, f: 5e6 + 0.01 * quiet() })),
-    );
+    const firstReadings = Array.from({ length: 1200 }, (_, i) => ({ t: i, f: 5e6 + 0.01 * quiet() }));
+    await insertReadings(t.dataSource, first, firstReadings);
     await insertReadings(
       t.dataSource,
       second,
@@ -197,6 +194,22 @@ describe('comparisons (e2e, MariaDB)', () => {
     const result = res.body as ComparisonResult;
     expect(result.rows.map((r) => r.quantity)).toEqual(['settledDriftRate', 'adev1s', 'adev10s', 'adev100s']);
     expect(result.rows[0]!.name).toBe('drift rate');
+    // The drift rate and its interval are one estimator, the least-squares line on frequency: slope Stf/Stt (×60 for Hz/min),
+    // se = s/√Stt with s² = SSR/(n − 2), ν = n − 2, Student t from jstat (the closed form of simple linear regression).
+    const n = firstReadings.length;
+    const tMean = firstReadings.reduce((a, r) => a + r.t, 0) / n;
+    const fMean = firstReadings.reduce((a, r) => a + r.f, 0) / n;
+    const stt = firstReadings.reduce((a, r) => a + (r.t - tMean) ** 2, 0);
+    const slope = firstReadings.reduce((a, r) => a + (r.t - tMean) * (r.f - fMean), 0) / stt;
+    const ssr = firstReadings.reduce((a, r) => a + (r.f - fMean - slope * (r.t - tMean)) ** 2, 0);
+    const se = Math.sqrt(ssr / (n - 2) / stt);
+    const drift = result.rows[0]!.values[0]!;
+    expect(drift.df).toBe(n - 2);
+    expect(Math.abs(drift.value - 60 * slope)).toBeLessThan(1e-6 * 60 * se);
+    expect(Math.abs(drift.se - 60 * se)).toBeLessThan(1e-6 * 60 * se);
+    const t975 = jstat.studentt.inv(0.975, n - 2);
+    expect(Math.abs(drift.high - (drift.value + t975 * drift.se))).toBeLessThan(1e-6 * 60 * se);
+    expect(result.rows[0]!.method).toContain('least-squares line on frequency');
     for (const row of result.rows) expectWelch(row, 1);
     const adev1 = result.rows[1]!;
     // White frequency noise of 0.01 Hz at 5 MHz: σ_y(1 s) = 2e-9; three times that in the second run.

@@ -56,6 +56,17 @@ export { identifyNoise, B1_MIN_POINTS, LAG1_MIN_POINTS, type NoiseIdentification
 export { longestContinuousSegment, type ContinuousSegment } from './longest-continuous-segment.js';
 export { fillPhaseGaps, type FilledPhase } from './fill-phase-gaps.js';
 export { madOutliers, MAD_TO_SIGMA, type MadScreen } from './mad-outliers.js';
+export { removeLinearFrequencyDrift, type DriftRemoved } from './remove-linear-frequency-drift.js';
+export {
+  stabilityFactorLimit,
+  stabilityTable,
+  TABLE_DEVIATIONS,
+  type DeviationValue,
+  type NoiseAtFactor,
+  type StabilityTableOptions,
+  type StabilityTableRow,
+  type TableDeviation,
+} from './stability-table.js';
 
 // Comparison (§5.5)
 export { summariseSample, welchDifference, welchFromSamples, type SampleSummary, type WelchDifference } from './welch-difference.js';

@@ -15,6 +15,7 @@ import type { WarmupSummary } from '../math/warmup-summary.js';
 import type { FrequencyUnit } from '../units/frequency-unit.js';
 import type { CertificateRelease } from './billing.js';
 import type { ListQuery } from './list.js';
+import type { StabilityAnalysisQuery, StabilityToolkit } from './studies.js';
 
 export type { DialLaw, Tolerance, FrequencyUnit };
 
@@ -330,7 +331,7 @@ export type RunAnalysisQuery = {
   linear?: boolean;
   /** stability: reference frequency for y = (f − f_ref)/f_ref (default the mean of the readings). */
   referenceHz?: number;
-};
+} & StabilityAnalysisQuery;
 
 /** Counts every analysis carries: what it was computed from. */
 export type AnalysisBasis = {
@@ -392,6 +393,8 @@ export type StabilityRunAnalysis = ReadyAnalysisBasis & {
   mdev: StabilityPoint[];
   gaps: GapReport;
   series: AnalysisSeries;
+  /** The deviations at each τ with noise, edf and intervals, the drift, the segment analysed and the MAD screen. */
+  toolkit: StabilityToolkit;
 };
 
 export type SupplySensitivityRunAnalysis = ReadyAnalysisBasis & {

@@ -1,3 +1,4 @@
+import type { StabilityTableRow } from '../math/stability-table.js';
 import type { DriftWindow } from '../math/drift-rate-windows.js';
 import type { WarmupFit } from '../math/fit-warmup.js';
 import type { KeyingShift } from '../math/keying-shift.js';
@@ -308,3 +309,130 @@ export type Attachment = {
 
 /** Kinds of run a comparison's sensitivity block reads. */
 export const SENSITIVITY_RUN_KINDS: readonly RunKind[] = ['supply_sensitivity', 'keying'];
+
+// ---- The stability toolkit of a stability run (part of GET /api/runs/:id/analysis; issue 19) ----
+
+/** The deviations the analysis of a stability run gives at each τ, in the order shown. */
+export const STABILITY_DEVIATIONS = ['adev', 'mdev', 'hdev', 'tdev', 'totdev'] as const;
+export type StabilityDeviation = (typeof STABILITY_DEVIATIONS)[number];
+/** Plain names, as the page and the CSV say them. */
+export const STABILITY_DEVIATION_NAMES: Readonly<Record<StabilityDeviation, string>> = {
+  adev: 'Overlapping Allan deviation',
+  mdev: 'Modified Allan deviation',
+  hdev: 'Overlapping Hadamard deviation',
+  tdev: 'Time deviation',
+  totdev: 'Total deviation',
+};
+/** Short names for columns and legends. */
+export const STABILITY_DEVIATION_SHORT: Readonly<Record<StabilityDeviation, string>> = {
+  adev: 'ADEV',
+  mdev: 'MDEV',
+  hdev: 'HDEV',
+  tdev: 'TDEV',
+  totdev: 'TOTDEV',
+};
+/** Averaging factors when no list is given: powers of two, or 1-2-5 per decade. */
+export const STABILITY_FACTOR_SPACINGS = ['octaves', 'decades'] as const;
+export type StabilityFactorSpacing = (typeof STABILITY_FACTOR_SPACINGS)[number];
+/** kept: the readings as they are; removed: the least-squares frequency drift taken off first. */
+export const STABILITY_DRIFT_CHOICES = ['kept', 'removed'] as const;
+export type StabilityDriftChoice = (typeof STABILITY_DRIFT_CHOICES)[number];
+/** longest: the longest stretch without a gap (default); continuous: every reading, as if there were no gap (flagged). */
+export const STABILITY_GAP_CHOICES = ['longest', 'continuous'] as const;
+export type StabilityGapChoice = (typeof STABILITY_GAP_CHOICES)[number];
+/** Confidence of every interval of the stability toolkit. */
+export const STABILITY_CONFIDENCE = 0.95;
+/** At most this many averaging factors in one `m` list. */
+export const MAX_STABILITY_FACTORS = 40;
+/** At most this many MAD-flagged readings are listed (flaggedCount has them all). */
+export const MAX_LISTED_OUTLIERS = 200;
+/** Columns of the deviation table's CSV, in order (one line per τ and deviation). */
+export const DEVIATION_CSV_COLUMNS = [
+  'tau_s',
+  'm',
+  'deviation',
+  'value',
+  'terms',
+  'edf',
+  'ci95_low',
+  'ci95_high',
+  'noise',
+  'noise_method',
+  'edf_noise',
+  'data',
+] as const;
+
+/** Query of the analysis that applies to stability runs. */
+export type StabilityAnalysisQuery = {
+  /** Averaging factors, comma-separated positive whole numbers ("1,10,100"); overrides `factors`. */
+  m?: string;
+  /** Octaves (default) or decades, when no `m` is given. */
+  factors?: StabilityFactorSpacing;
+  /** Analyse with the linear frequency drift removed (default kept). */
+  drift?: StabilityDriftChoice;
+  /** What to do with reported gaps (default longest). */
+  gaps?: StabilityGapChoice;
+};
+
+/** The readings the deviations were computed from. */
+export type StabilitySegment = {
+  choice: StabilityGapChoice;
+  /** Readings analysed. */
+  count: number;
+  /** Included readings left out because they lie beyond a gap (0 with choice 'continuous'). */
+  leftOut: number;
+  /** Time of the first and last analysed reading, s. */
+  fromSeconds: number;
+  toSeconds: number;
+  /** Gaps reported in the whole record; with 'continuous' the deviations run across them. */
+  gapCount: number;
+  /** One sentence saying what was analysed, e.g. "the longest continuous segment: 690 of 1,000 readings, 310 s to 999 s". */
+  statement: string;
+};
+
+/** Linear frequency drift of the analysed readings: least squares on frequency (NIST SP 1065). */
+export type StabilityDrift = {
+  method: 'linear_frequency';
+  /** Fractional frequency drift per second, and its standard error (null with no residual scatter to judge by). */
+  perSecond: number;
+  standardError: number | null;
+  /** Readings the line was fitted to, and their span, s. */
+  points: number;
+  fromSeconds: number;
+  toSeconds: number;
+  /** The fit's window spans a reported gap (the times are taken as i·τ0, so the rate is then doubtful). */
+  spansGap: boolean;
+  /** Whether the deviations were computed from the residuals of this line. */
+  removed: boolean;
+};
+
+/** One reading the median-absolute-deviation screen flags (never excluded by it: the engineer decides). */
+export type FlaggedReading = { readingId: number; seq: number; t: number; frequency: number };
+
+export type StabilityOutlierScreen = {
+  /** Multiple of the scaled MAD (1.4826·MAD) beyond which a reading is flagged. */
+  k: number;
+  /** Readings screened: the analysed ones (after drift removal when asked). */
+  screened: number;
+  /** Median of the screened fractional frequencies, and the distance from it beyond which a reading is flagged (k·1.4826·MAD). */
+  median: number;
+  threshold: number;
+  flaggedCount: number;
+  /** At most MAX_LISTED_OUTLIERS, in time order. */
+  flagged: FlaggedReading[];
+};
+
+/** Everything the stability toolkit adds to a stability run's analysis. */
+export type StabilityToolkit = {
+  /** What kind of data the deviations were computed from (phase/time-interval runs are not yet accepted). */
+  dataKind: 'frequency';
+  confidence: number;
+  /** The averaging factors: a spacing, or the list asked for with `m`. */
+  factors: { spacing: StabilityFactorSpacing | 'list'; list: number[] };
+  segment: StabilitySegment;
+  /** Null when fewer than 3 readings are analysed. */
+  drift: StabilityDrift | null;
+  /** Deviations at each τ: ADEV, MDEV, HDEV, TDEV (s), TOTDEV, with terms, edf, 95 % interval and the noise named. */
+  deviations: StabilityTableRow[];
+  outliers: StabilityOutlierScreen | null;
+};

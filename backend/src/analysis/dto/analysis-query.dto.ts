@@ -1,6 +1,14 @@
 import { Type } from 'class-transformer';
-import { IsBoolean, IsNumber, IsOptional, Max, Min } from 'class-validator';
-import type { RunAnalysisQuery } from '@kilocycle/common/types';
+import { IsBoolean, IsIn, IsNumber, IsOptional, Matches, Max, MaxLength, Min } from 'class-validator';
+import {
+  STABILITY_DRIFT_CHOICES,
+  STABILITY_FACTOR_SPACINGS,
+  STABILITY_GAP_CHOICES,
+  type RunAnalysisQuery,
+  type StabilityDriftChoice,
+  type StabilityFactorSpacing,
+  type StabilityGapChoice,
+} from '@kilocycle/common/types';
 import { QueryBoolean } from '../../shared/dto-helpers.js';
 
 const finite = { allowNaN: false, allowInfinity: false } as const;
@@ -42,4 +50,21 @@ export class RunAnalysisQueryDto implements RunAnalysisQuery {
   @IsNumber(finite, { message: 'referenceHz must be a number (Hz)' })
   @Min(1e-3, { message: 'referenceHz must be greater than zero' })
   referenceHz?: number;
+
+  @IsOptional()
+  @MaxLength(400)
+  @Matches(/^[1-9]\d{0,8}(,[1-9]\d{0,8})*$/, { message: 'm: averaging factors are positive whole numbers separated by commas, e.g. 1,10,100' })
+  m?: string;
+
+  @IsOptional()
+  @IsIn(STABILITY_FACTOR_SPACINGS, { message: `factors must be one of ${STABILITY_FACTOR_SPACINGS.join(', ')}` })
+  factors?: StabilityFactorSpacing;
+
+  @IsOptional()
+  @IsIn(STABILITY_DRIFT_CHOICES, { message: `drift must be one of ${STABILITY_DRIFT_CHOICES.join(', ')}` })
+  drift?: StabilityDriftChoice;
+
+  @IsOptional()
+  @IsIn(STABILITY_GAP_CHOICES, { message: `gaps must be one of ${STABILITY_GAP_CHOICES.join(', ')}` })
+  gaps?: StabilityGapChoice;
 }

@@ -1,9 +1,9 @@
 import Box from '@mui/material/Box';
-import { useMemo } from 'react';
-import type { Role, Run, RunAnalysis } from '@kilocycle/common/types';
+import { useMemo, useState } from 'react';
+import type { FlaggedReading, Role, Run, RunAnalysis } from '@kilocycle/common/types';
 import { useLatestReadings } from '@/features/readings/api/get-latest-readings';
 import { useReadings, useRefreshReadings } from '@/features/readings/api/get-readings';
-import { ReadingsTable } from '@/features/readings/components/readings-table';
+import { ExcludeDialog, ReadingsTable } from '@/features/readings/components/readings-table';
 import { useLiveReadings } from '@/features/readings/hooks/use-live-readings';
 import { useRunAnalysis } from '@/features/runs/api/get-run-analysis';
 import { useRefreshRun, useThrottledRefreshRun } from '@/features/runs/api/use-refresh-run';
@@ -12,7 +12,7 @@ import { RunHeader } from '@/features/runs/components/run-header';
 import { SafetyCaution } from '@/components/ui/safety-caution';
 import { AuxView } from '@/features/studies/components/aux-view';
 import { LiveStatus } from '@/features/studies/components/live-status';
-import { StabilityView } from '@/features/studies/components/stability-view';
+import { DEFAULT_STABILITY_OPTIONS, StabilityView } from '@/features/studies/components/stability-view';
 import { WarmupView } from '@/features/studies/components/warmup-view';
 import { analysisProblem, mayWriteRun, noReadingsNotice, skipChartAnimation } from './run-access';
 
@@ -23,7 +23,9 @@ function pick<K extends RunAnalysis['analysis']>(data: RunAnalysis | undefined, 
 /** Warm-up and stability runs: followed live while open, re-analysed at most twice a second as readings arrive. */
 export function TimeSeriesRun({ run, role }: { run: Run; role: Role }) {
   const canWrite = mayWriteRun(role, run.kind);
-  const analysis = useRunAnalysis({ id: run.id });
+  const [stabilityOptions, setStabilityOptions] = useState(DEFAULT_STABILITY_OPTIONS);
+  const [excluding, setExcluding] = useState<FlaggedReading | null>(null);
+  const analysis = useRunAnalysis({ id: run.id, query: run.kind === 'stability' ? stabilityOptions : undefined });
   const latest = useLatestReadings({ runId: run.id });
   // The readings list below follows the stream too, at the same pace as the analysis.
   const refreshReadings = useRefreshReadings(run.id);
@@ -58,8 +60,23 @@ export function TimeSeriesRun({ run, role }: { run: Run; role: Role }) {
       {run.kind === 'warmup' ? (
         <WarmupView analysis={pick(analysis.data, 'warmup')} problem={problem} empty={empty} latest={tail} skipAnimation={skipChartAnimation} />
       ) : (
-        <StabilityView analysis={pick(analysis.data, 'stability')} problem={problem} empty={empty} skipAnimation={skipChartAnimation} />
+        <StabilityView
+          analysis={pick(analysis.data, 'stability')}
+          problem={problem}
+          empty={empty}
+          skipAnimation={skipChartAnimation}
+          options={stabilityOptions}
+          onOptionsChange={setStabilityOptions}
+          onExclude={canWrite && !run.refusal ? setExcluding : undefined}
+          fileTitle={`run-${run.id}`}
+        />
       )}
+      <ExcludeDialog
+        runId={run.id}
+        reading={excluding && { id: excluding.readingId, seq: excluding.seq, dial: null, frequency: excluding.frequency }}
+        onClose={() => setExcluding(null)}
+        onExcluded={() => void refresh()}
+      />
       <Box sx={{ mt: 2 }}>
         <ReadingsTable
           runId={run.id}

@@ -17,9 +17,16 @@ import { useReadings } from '../api/get-readings';
 
 const SOURCE_LABELS: Record<Reading['source'], string> = { manual: 'Typed', bridge: 'Bridge', import: 'Import' };
 
-type ExcludeDialogProps = { runId: number; reading: Reading | null; unit?: FrequencyUnit; onClose: () => void; onExcluded?: (reading: Reading) => void };
+type ExcludeDialogProps = {
+  runId: number;
+  reading: Pick<Reading, 'id' | 'seq' | 'dial' | 'frequency'> | null;
+  unit?: FrequencyUnit;
+  onClose: () => void;
+  onExcluded?: (reading: Reading) => void;
+};
 
-function ExcludeDialog({ runId, reading, unit, onClose, onExcluded }: ExcludeDialogProps) {
+/** Excludes one reading with a reason (the readings list's action; pages that flag readings open it too). */
+export function ExcludeDialog({ runId, reading, unit, onClose, onExcluded }: ExcludeDialogProps) {
   const form = useZodForm(excludeReadingSchema, { reason: '' });
   const exclude = useExcludeReading({
     onSuccess: (excluded) => {

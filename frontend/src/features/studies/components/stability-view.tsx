@@ -1,11 +1,18 @@
 import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
+import Button from '@mui/material/Button';
+import Checkbox from '@mui/material/Checkbox';
+import FormControlLabel from '@mui/material/FormControlLabel';
+import FormGroup from '@mui/material/FormGroup';
 import Paper from '@mui/material/Paper';
+import Switch from '@mui/material/Switch';
 import Table from '@mui/material/Table';
 import TableBody from '@mui/material/TableBody';
 import TableCell from '@mui/material/TableCell';
 import TableHead from '@mui/material/TableHead';
 import TableRow from '@mui/material/TableRow';
+import ToggleButton from '@mui/material/ToggleButton';
+import ToggleButtonGroup from '@mui/material/ToggleButtonGroup';
 import Typography from '@mui/material/Typography';
 import { useTheme } from '@mui/material/styles';
 import { ChartsAxis } from '@mui/x-charts/ChartsAxis';
@@ -16,14 +23,30 @@ import { ChartsSurface } from '@mui/x-charts/ChartsSurface';
 import { ChartsTooltip } from '@mui/x-charts/ChartsTooltip';
 import { ChartsWrapper } from '@mui/x-charts/ChartsWrapper';
 import { LinePlot, MarkPlot } from '@mui/x-charts/LineChart';
-import type { StabilityRunAnalysis } from '@kilocycle/common/types';
+import { useState } from 'react';
+import {
+  STABILITY_DEVIATION_NAMES,
+  STABILITY_DEVIATION_SHORT,
+  STABILITY_DEVIATIONS,
+  type FlaggedReading,
+  type StabilityDeviation,
+  type StabilityDriftChoice,
+  type StabilityFactorSpacing,
+  type StabilityGapChoice,
+  type StabilityRunAnalysis,
+} from '@kilocycle/common/types';
 import { ConfidenceBars } from '@/components/charts/confidence-bars';
+import { HIDE_ON_PHONE, PhoneSecondLine } from '@/components/ui/phone-columns';
 import { Num } from '@/components/ui/num';
+import { saveText } from '@/lib/file-transfer';
 import { MONO_FONT } from '@/lib/theme';
 import { formatDuration, formatHzTo, formatNumber } from '@/utils/frequency';
 import { formatAxisNumber, logTicks } from '@/utils/log-axis';
 import { formatCount } from '@/utils/measurement';
+import { dataWords, deviationCsv } from '../utils/deviation-csv';
+import { slopeGuideLines } from '../utils/slope-guides';
 import { Figure, Figures } from './figures';
+import { SlopeGuides } from './slope-guides';
 
 const tickStyle = { fontFamily: MONO_FONT, fontSize: 11 };
 
@@ -37,66 +60,163 @@ export function formatDeviation(value: number | null | undefined, digits = 3): s
   return `${mantissa}×10${superscript}`;
 }
 
-/** empty: said instead of the analysis when the run has no included reading yet. */
-type StabilityViewProps = { analysis: StabilityRunAnalysis | null; problem: string | null; empty?: string | null; skipAnimation?: boolean };
+/** The engineer's choices for a stability run, sent with the analysis query. */
+export type StabilityOptions = { factors: StabilityFactorSpacing; drift: StabilityDriftChoice; gaps: StabilityGapChoice };
+export const DEFAULT_STABILITY_OPTIONS: StabilityOptions = { factors: 'octaves', drift: 'kept', gaps: 'longest' };
 
-/** Overlapping Allan deviation against averaging time, log-log, with its confidence intervals and any gaps. */
-export function StabilityView({ analysis, problem, empty = null, skipAnimation }: StabilityViewProps) {
+const NOISE_NAMES: Record<string, string> = {
+  white_pm: 'White PM',
+  flicker_pm: 'Flicker PM',
+  white_fm: 'White FM',
+  flicker_fm: 'Flicker FM',
+  random_walk_fm: 'Random-walk FM',
+};
+const METHOD_NAMES: Record<string, string> = { lag1_acf: 'lag-1 autocorrelation', b1_ratio: 'B1 ratio' };
+/** TDEV is in seconds, the others are ratios: the chart plots the ratios, the table and CSV carry all five. */
+const CHARTED: readonly StabilityDeviation[] = ['adev', 'mdev', 'hdev', 'totdev'];
+
+type StabilityRow = StabilityRunAnalysis['toolkit']['deviations'][number];
+
+function noiseText(row: StabilityRow): { named: string; detail: string } {
+  if (row.noise.status === 'identified') return { named: NOISE_NAMES[row.noise.noise] ?? row.noise.noise, detail: `by ${METHOD_NAMES[row.noise.method]}` };
+  const edf = row.edfNoiseFrom === 'shorter_tau' ? `edf for ${NOISE_NAMES[row.edfNoise]}, named at a shorter τ` : 'edf for white FM';
+  return { named: 'Too short to identify', detail: edf };
+}
+
+/** empty: said instead of the analysis when the run has no included reading yet. */
+type StabilityViewProps = {
+  analysis: StabilityRunAnalysis | null;
+  problem: string | null;
+  empty?: string | null;
+  skipAnimation?: boolean;
+  options?: StabilityOptions;
+  onOptionsChange?: (options: StabilityOptions) => void;
+  /** Opens the exclusion dialog for a flagged reading; without it the list has no action. */
+  onExclude?: (reading: FlaggedReading) => void;
+  /** Start of the CSV's file name. */
+  fileTitle?: string;
+};
+
+/** Deviations against averaging time, log-log, with their intervals and slope guides; the table, the drift, the gaps and the MAD screen. */
+export function StabilityView({
+  analysis,
+  problem,
+  empty = null,
+  skipAnimation,
+  options = DEFAULT_STABILITY_OPTIONS,
+  onOptionsChange,
+  onExclude,
+  fileTitle,
+}: StabilityViewProps) {
   const theme = useTheme();
+  const [ticked, setTicked] = useState<readonly StabilityDeviation[]>(['adev', 'hdev']);
   if (!analysis) {
     return <Alert severity="info">{empty ?? (problem ? `No stability analysis yet: ${problem}` : 'Loading the analysis…')}</Alert>;
   }
-  const adev = analysis.adev.filter((p) => p.deviation > 0);
-  const mdev = analysis.mdev.filter((p) => p.deviation > 0);
-  const taus = adev.map((p) => p.tau);
-  const mdevByTau = new Map(mdev.map((p) => [p.tau, p.deviation]));
-  const lows = adev.map((p) => p.ciLow).filter((v) => v > 0);
-  const highs = adev.map((p) => p.ciHigh).filter((v) => Number.isFinite(v));
-  const all = [...adev.map((p) => p.deviation), ...mdev.map((p) => p.deviation), ...lows, ...highs];
-  const yMin = all.length ? Math.min(...all) / 1.5 : undefined;
-  const yMax = all.length ? Math.max(...all) * 1.5 : undefined;
+  const { toolkit } = analysis;
+  const rows = toolkit.deviations;
+  const colors: Record<StabilityDeviation, string> = {
+    adev: theme.palette.primary.main,
+    mdev: theme.palette.secondary.main,
+    hdev: theme.palette.warning.dark,
+    tdev: theme.palette.text.secondary,
+    totdev: theme.palette.error.dark,
+  };
+  const shownDeviations = CHARTED.filter((d) => ticked.includes(d));
+  const taus = rows.map((r) => r.tau);
+  const values = shownDeviations.flatMap((d) => rows.flatMap((r) => (r[d] && r[d].deviation > 0 ? [r[d].deviation, r[d].ciLow, r[d].ciHigh] : [])));
+  const positive = values.filter((v) => v > 0 && Number.isFinite(v));
+  const yMin = positive.length ? Math.min(...positive) / 1.5 : undefined;
+  const yMax = positive.length ? Math.max(...positive) * 1.5 : undefined;
   // Decades, with 2 and 5 between them where there is room: never every octave, whose labels collide.
   const yTicks = yMin !== undefined && yMax !== undefined ? logTicks(yMin, yMax, 8) : [];
   const xTicks = taus.length ? logTicks(taus[0]!, taus[taus.length - 1]!, 7) : [];
+  const anchorDeviation = shownDeviations.find((d) => rows[0]?.[d]);
+  const anchor = anchorDeviation && rows[0] ? { tau: rows[0].tau, sigma: rows[0][anchorDeviation]!.deviation } : null;
+  const guides = anchor && taus.length > 1 && anchor.sigma > 0 ? slopeGuideLines(anchor, taus[0]!, taus[taus.length - 1]!) : [];
+  const which = dataWords(toolkit);
+  const drifted = toolkit.drift?.removed ? 'with the drift removed' : 'as recorded';
 
-  const series = [
-    {
-      type: 'line' as const,
-      id: 'adev',
-      label: 'Overlapping ADEV (95 % interval)',
-      data: adev.map((p) => p.deviation),
-      color: theme.palette.primary.main,
-      showMark: true,
-      curve: 'linear' as const,
-      valueFormatter: (v: number | null) => formatDeviation(v),
-    },
-    ...(mdev.length
-      ? [
-          {
-            type: 'line' as const,
-            id: 'mdev',
-            label: 'Modified ADEV',
-            data: taus.map((tau) => mdevByTau.get(tau) ?? null),
-            color: theme.palette.secondary.main,
-            showMark: true,
-            curve: 'linear' as const,
-            valueFormatter: (v: number | null) => formatDeviation(v),
-          },
-        ]
-      : []),
-  ];
-
+  const series = shownDeviations.map((d) => ({
+    type: 'line' as const,
+    id: d,
+    label: `${STABILITY_DEVIATION_SHORT[d]} (95 % interval)`,
+    data: rows.map((r) => (r[d] && r[d].deviation > 0 ? r[d].deviation : null)),
+    color: colors[d],
+    showMark: true,
+    curve: 'linear' as const,
+    valueFormatter: (v: number | null) => formatDeviation(v),
+  }));
+  const change = (next: Partial<StabilityOptions>) => onOptionsChange?.({ ...options, ...next });
   const gaps = analysis.gaps;
+  const segment = toolkit.segment;
+  const drift = toolkit.drift;
+
   return (
     <Box sx={{ display: 'grid', gridTemplateColumns: { xs: 'minmax(0, 1fr)', lg: 'minmax(0, 2fr) minmax(0, 1fr)' }, gap: 2, alignItems: 'start' }}>
-      <Paper variant="outlined" sx={{ p: 2 }}>
-        <Typography variant="h3" component="h2" sx={{ mb: 1 }}>
-          Allan deviation
+      <Paper variant="outlined" sx={{ p: 2, gridColumn: '1 / -1', display: 'flex', flexWrap: 'wrap', gap: 2, alignItems: 'center' }}>
+        <ToggleButtonGroup
+          size="small"
+          exclusive
+          value={options.factors}
+          onChange={(_e, value: StabilityFactorSpacing | null) => value && change({ factors: value })}
+          aria-label="Averaging times: Octaves / Decades"
+        >
+          <ToggleButton value="octaves">Octaves</ToggleButton>
+          <ToggleButton value="decades">Decades</ToggleButton>
+        </ToggleButtonGroup>
+        <FormControlLabel
+          control={<Switch checked={options.drift === 'removed'} onChange={(e) => change({ drift: e.target.checked ? 'removed' : 'kept' })} />}
+          label="Analyse with drift removed"
+        />
+        <ToggleButtonGroup
+          size="small"
+          exclusive
+          value={options.gaps}
+          onChange={(_e, value: StabilityGapChoice | null) => value && change({ gaps: value })}
+          aria-label="Gaps: Longest segment / As if continuous"
+        >
+          <ToggleButton value="longest">Longest segment</ToggleButton>
+          <ToggleButton value="continuous">As if continuous</ToggleButton>
+        </ToggleButtonGroup>
+      </Paper>
+
+      <Paper variant="outlined" sx={{ p: 2, minWidth: 0 }}>
+        <Typography variant="h3" component="h2" sx={{ mb: 0.5 }}>
+          Deviations {drifted}
         </Typography>
-        {adev.length === 0 ? (
-          <Box sx={{ height: 360, display: 'grid', placeItems: 'center', color: 'text.secondary' }}>Not enough readings for one averaging time.</Box>
+        <Typography variant="body2" color="text.secondary" sx={{ mb: 1 }} data-testid="chart-data">
+          Computed from {which}. Dashed lines: slopes of the noise types.
+        </Typography>
+        <FormGroup row role="group" aria-label="Deviations on the chart">
+          {CHARTED.map((d) => (
+            <FormControlLabel
+              key={d}
+              control={
+                <Checkbox
+                  size="small"
+                  checked={ticked.includes(d)}
+                  onChange={(e) => setTicked(e.target.checked ? [...ticked, d] : ticked.filter((x) => x !== d))}
+                />
+              }
+              label={STABILITY_DEVIATION_SHORT[d]}
+              title={STABILITY_DEVIATION_NAMES[d]}
+            />
+          ))}
+        </FormGroup>
+        <Typography variant="caption" color="text.secondary" component="p">
+          TDEV is in seconds, so it is in the table and the CSV rather than on this chart.
+        </Typography>
+        {series.length === 0 || rows.length === 0 ? (
+          <Box sx={{ height: 360, display: 'grid', placeItems: 'center', color: 'text.secondary' }}>
+            {rows.length === 0 ? 'Not enough readings for one averaging time.' : 'Tick a deviation to plot it.'}
+          </Box>
         ) : (
-          <Box role="img" aria-label={`Allan deviation at ${adev.length} averaging times`} data-testid="adev-chart">
+          <Box
+            role="img"
+            aria-label={`Deviations ${drifted} at ${rows.length} averaging times: ${shownDeviations.map((d) => STABILITY_DEVIATION_SHORT[d]).join(', ')}`}
+            data-testid="adev-chart"
+          >
             <ChartsDataProvider
               height={400}
               series={series}
@@ -118,7 +238,7 @@ export function StabilityView({ analysis, problem, empty = null, skipAnimation }
                 {
                   id: 'sigma',
                   scaleType: 'log',
-                  label: 'σy(τ)',
+                  label: 'σ(τ)',
                   width: 88,
                   min: yMin,
                   max: yMax,
@@ -132,12 +252,16 @@ export function StabilityView({ analysis, problem, empty = null, skipAnimation }
                 <ChartsLegend />
                 <ChartsSurface>
                   <ChartsGrid horizontal vertical />
+                  <SlopeGuides lines={guides} color={theme.palette.text.secondary} />
                   <LinePlot />
-                  <ConfidenceBars
-                    testId="adev-confidence-bars"
-                    bars={adev.map((p) => ({ x: p.tau, low: p.ciLow, high: p.ciHigh }))}
-                    color={theme.palette.primary.dark}
-                  />
+                  {shownDeviations.map((d) => (
+                    <ConfidenceBars
+                      key={d}
+                      testId={`${d}-confidence-bars`}
+                      bars={rows.flatMap((r) => (r[d] && r[d].deviation > 0 ? [{ x: r.tau, low: r[d].ciLow, high: r[d].ciHigh }] : []))}
+                      color={colors[d]}
+                    />
+                  ))}
                   <MarkPlot />
                   <ChartsAxis />
                 </ChartsSurface>
@@ -148,7 +272,7 @@ export function StabilityView({ analysis, problem, empty = null, skipAnimation }
         )}
       </Paper>
 
-      <Paper variant="outlined" sx={{ p: 2 }}>
+      <Paper variant="outlined" sx={{ p: 2, minWidth: 0 }}>
         <Typography variant="h3" component="h2" sx={{ mb: 1 }}>
           Record
         </Typography>
@@ -156,8 +280,23 @@ export function StabilityView({ analysis, problem, empty = null, skipAnimation }
           <Figure label="Readings used" value={formatCount(analysis.usedCount)} detail={`${formatCount(analysis.excludedCount)} excluded`} />
           <Figure label="Basic interval τ0" value={`${formatNumber(analysis.tau0, analysis.tau0 < 1 ? 3 : 1)} s`} />
           <Figure label="Reference f_ref" value={formatHzTo(analysis.referenceHz, 0.0001)} />
-          <Figure label="σy at τ0" value={formatDeviation(adev[0]?.deviation)} />
+          <Figure label="σy at τ0" value={formatDeviation(rows[0]?.adev?.deviation)} />
+          <Figure
+            label="Frequency drift"
+            testId="drift"
+            value={drift ? `${formatDeviation(drift.perSecond)} /s` : '—'}
+            detail={
+              drift
+                ? `standard error ${formatDeviation(drift.standardError)} /s · least squares on frequency over ${formatCount(drift.points)} readings · ${drift.removed ? 'removed before the analysis' : 'kept in the analysis'}`
+                : undefined
+            }
+          />
         </Figures>
+        {drift?.spansGap && (
+          <Alert severity="warning" sx={{ mt: 1.5 }} data-testid="drift-spans-gap">
+            The drift window spans a gap: the line takes the readings as evenly spaced, so the rate is doubtful.
+          </Alert>
+        )}
         <Box sx={{ mt: 1.5 }} data-testid="gap-report">
           {gaps.gaps.length === 0 && !gaps.irregular ? (
             <Typography variant="body2" color="success.main">
@@ -176,59 +315,150 @@ export function StabilityView({ analysis, problem, empty = null, skipAnimation }
                       </Num>
                     </span>
                   ))}
-                  {gaps.gaps.length > 5 && ' …'}. The deviations assume an even record: read them with that in mind.
+                  {gaps.gaps.length > 5 && ' …'}.{' '}
+                  {segment.choice === 'longest'
+                    ? 'By default only the longest continuous segment is analysed, so no deviation runs across a gap.'
+                    : 'Every reading is analysed as if the record were continuous: deviations at long τ mix readings either side of a gap.'}
                 </>
               )}
               {gaps.irregular && ' The sampling is irregular.'}
             </Alert>
           )}
+          <Typography variant="body2" sx={{ mt: 1 }} data-testid="segment">
+            Analysed: {segment.statement}.
+          </Typography>
         </Box>
       </Paper>
 
-      <Paper variant="outlined" sx={{ p: 2, gridColumn: '1 / -1', overflowX: 'auto' }}>
-        <Typography variant="h3" component="h2" sx={{ mb: 1 }}>
-          Octave by octave
+      <Paper variant="outlined" sx={{ p: 2, gridColumn: '1 / -1', minWidth: 0 }}>
+        <Box sx={{ display: 'flex', flexWrap: 'wrap', gap: 1, alignItems: 'baseline', justifyContent: 'space-between', mb: 1 }}>
+          <Typography variant="h3" component="h2">
+            {toolkit.factors.spacing === 'decades'
+              ? 'Decade by decade'
+              : toolkit.factors.spacing === 'list'
+                ? 'At the averaging times asked for'
+                : 'Octave by octave'}
+          </Typography>
+          <Button size="small" onClick={() => saveText(deviationCsv(toolkit), `${fileTitle ?? `run-${analysis.runId}`}-deviations.csv`)}>
+            Download CSV
+          </Button>
+        </Box>
+        <Typography variant="body2" color="text.secondary" sx={{ mb: 1 }} data-testid="table-data">
+          Computed from {which}; intervals at {Math.round(toolkit.confidence * 100)} % (χ², edf for the noise type named at each τ).
         </Typography>
-        <Table size="small" aria-label="Allan deviation table">
-          <TableHead>
-            <TableRow>
-              <TableCell align="right">τ (s)</TableCell>
-              <TableCell align="right">ADEV</TableCell>
-              <TableCell align="right">95 % low</TableCell>
-              <TableCell align="right">95 % high</TableCell>
-              <TableCell align="right">MDEV</TableCell>
-              <TableCell align="right">Terms</TableCell>
-              <TableCell align="right">EDF</TableCell>
-            </TableRow>
-          </TableHead>
-          <TableBody>
-            {analysis.adev.map((p) => (
-              <TableRow key={p.tau}>
-                <TableCell align="right">
-                  <Num>{formatAxisNumber(p.tau)}</Num>
-                </TableCell>
-                <TableCell align="right">
-                  <Num>{formatDeviation(p.deviation)}</Num>
-                </TableCell>
-                <TableCell align="right">
-                  <Num>{formatDeviation(p.ciLow)}</Num>
-                </TableCell>
-                <TableCell align="right">
-                  <Num>{formatDeviation(p.ciHigh)}</Num>
-                </TableCell>
-                <TableCell align="right">
-                  <Num>{formatDeviation(mdevByTau.get(p.tau))}</Num>
-                </TableCell>
-                <TableCell align="right">
-                  <Num>{formatCount(p.n)}</Num>
-                </TableCell>
-                <TableCell align="right">
-                  <Num>{formatNumber(p.edf, 1)}</Num>
-                </TableCell>
+        {/* Wider than a phone: the table scrolls in its own box, which the keyboard can reach. */}
+        <Box sx={{ overflowX: 'auto' }} tabIndex={0} role="region" aria-label="Deviations table (scrolls sideways on narrow screens)">
+          <Table size="small" aria-label="Deviations table">
+            <TableHead>
+              <TableRow>
+                <TableCell align="right">τ (s)</TableCell>
+                <TableCell sx={HIDE_ON_PHONE}>Noise type</TableCell>
+                {STABILITY_DEVIATIONS.map((d) => (
+                  <TableCell key={d} align="right" title={STABILITY_DEVIATION_NAMES[d]}>
+                    {STABILITY_DEVIATION_SHORT[d]}
+                    {d === 'tdev' ? ' (s)' : ''}
+                  </TableCell>
+                ))}
               </TableRow>
-            ))}
-          </TableBody>
-        </Table>
+            </TableHead>
+            <TableBody>
+              {rows.map((row) => {
+                const noise = noiseText(row);
+                return (
+                  <TableRow key={row.m}>
+                    <TableCell align="right">
+                      <Num>{formatAxisNumber(row.tau)}</Num>
+                      <PhoneSecondLine parts={[noise.named]} />
+                    </TableCell>
+                    <TableCell sx={HIDE_ON_PHONE}>
+                      {noise.named}
+                      <Typography variant="caption" color="text.secondary" component="div">
+                        {noise.detail}
+                      </Typography>
+                    </TableCell>
+                    {STABILITY_DEVIATIONS.map((d) => {
+                      const value = row[d];
+                      return (
+                        <TableCell key={d} align="right" data-testid={`${d}-${row.m}`}>
+                          {value ? (
+                            <>
+                              <Num>{formatDeviation(value.deviation)}</Num>
+                              <Typography variant="caption" color="text.secondary" component="div">
+                                <Num>
+                                  {formatDeviation(value.ciLow)} to {formatDeviation(value.ciHigh)}
+                                </Num>
+                              </Typography>
+                              <Typography variant="caption" color="text.secondary" component="div">
+                                <Num>
+                                  {formatCount(value.terms)} terms · edf {formatNumber(value.edf, 1)}
+                                </Num>
+                              </Typography>
+                            </>
+                          ) : (
+                            <Num>—</Num>
+                          )}
+                        </TableCell>
+                      );
+                    })}
+                  </TableRow>
+                );
+              })}
+            </TableBody>
+          </Table>
+        </Box>
+      </Paper>
+
+      <Paper variant="outlined" sx={{ p: 2, gridColumn: '1 / -1', minWidth: 0 }} data-testid="mad-screen">
+        <Typography variant="h3" component="h2" sx={{ mb: 1 }}>
+          Outlier screen
+        </Typography>
+        {!toolkit.outliers ? (
+          <Typography variant="body2">Too few readings to screen.</Typography>
+        ) : toolkit.outliers.flaggedCount === 0 ? (
+          <Typography variant="body2">
+            The median-absolute-deviation screen flags none of the {formatCount(toolkit.outliers.screened)} analysed readings (limit {toolkit.outliers.k} ×
+            1.4826 MAD).
+          </Typography>
+        ) : (
+          <>
+            <Typography variant="body2" sx={{ mb: 1 }}>
+              The median-absolute-deviation screen flags {formatCount(toolkit.outliers.flaggedCount)} of the {formatCount(toolkit.outliers.screened)} analysed
+              readings (further than {toolkit.outliers.k} × 1.4826 MAD from the median). They stay in the analysis until you exclude them with a reason.
+            </Typography>
+            <Table size="small" aria-label="Readings the MAD screen flags">
+              <TableHead>
+                <TableRow>
+                  <TableCell align="right">Reading</TableCell>
+                  <TableCell align="right">Time</TableCell>
+                  <TableCell align="right">Frequency</TableCell>
+                  {onExclude && <TableCell align="right">Action</TableCell>}
+                </TableRow>
+              </TableHead>
+              <TableBody>
+                {toolkit.outliers.flagged.map((reading) => (
+                  <TableRow key={reading.seq}>
+                    <TableCell align="right">
+                      <Num>#{reading.seq}</Num>
+                    </TableCell>
+                    <TableCell align="right">
+                      <Num>{formatDuration(reading.t)}</Num>
+                    </TableCell>
+                    <TableCell align="right">
+                      <Num>{formatHzTo(reading.frequency, 0.0001)}</Num>
+                    </TableCell>
+                    {onExclude && (
+                      <TableCell align="right">
+                        <Button size="small" color="inherit" onClick={() => onExclude(reading)} aria-label={`Exclude… reading ${reading.seq}`}>
+                          Exclude…
+                        </Button>
+                      </TableCell>
+                    )}
+                  </TableRow>
+                ))}
+              </TableBody>
+            </Table>
+          </>
+        )}
       </Paper>
     </Box>
   );
