@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Job, ListResponse, ReferenceStandard, Run } from '@kilocycle/common/types';
 import { expectNoSeriousViolations } from './support/axe';
 import { keepScreenshot, launchBrowser, onNewPage, signIn } from './support/browser';
-import { apiGet, apiRequest, createTestInstrument, openJob, sessionToken } from './support/lab';
+import { apiGet, apiRequest, createTestInstrument, onAccountWhile, openJob, sessionToken } from './support/lab';
 import { DEMO_ACCOUNTS, findDemoRecords, waitForPageSettled, type DemoRecords } from './support/main-pages';
 
 // Issue #14, item 4: at 390 × 844 (a phone) the capture page, the client's portal and certificate list and the
@@ -113,40 +113,43 @@ describe('phone layout at 390 × 844 (browser)', () => {
   });
 
   it('should show the client the portal and the certificate list with status, decisions and PDF in view', async () => {
-    await onNewPage(browser, 'phone-client', async (page) => {
-      await signInOnPhone(page, DEMO_ACCOUNTS.client);
-      await page.goto('/');
-      await waitForPageSettled(page);
-      const portalCertificates = page.getByRole('region', { name: 'Certificates' }).getByRole('grid', { name: 'Certificates' });
-      await portalCertificates.getByRole('row').nth(1).waitFor();
-      await expectNoSidewaysScroll(page, 'client portal');
-      await expectCertificateRowInView(page, portalCertificates, records.certificateNumber);
-      // Embedded, the grid is as tall as its two-line rows: nothing of them is cut off at the bottom.
-      const clipped = await portalCertificates.locator('.MuiDataGrid-virtualScroller').evaluate((box) => box.scrollHeight - box.clientHeight);
-      expect(clipped, 'pixels of the portal’s certificate rows hidden below the grid').toBeLessThanOrEqual(1);
-      // The instruments and jobs tables keep what matters and fold the rest under the first cell.
-      const instruments = page.getByRole('table', { name: 'Instruments' });
-      await expectInView(page, instruments.getByRole('columnheader', { name: 'Next calibration due' }), 'the instruments’ due column');
-      await expectInView(page, page.getByRole('table', { name: 'Jobs' }).getByRole('columnheader', { name: 'Where it stands' }), 'the jobs’ status column');
-      await keepScreenshot(page, 'phone-client-portal-390');
-      await page.setViewportSize(DESKTOP);
-      await keepScreenshot(page, 'phone-client-portal-1440');
-      await page.setViewportSize(PHONE);
+    // The certificate's download button is the point here, so Northgate is on account for this journey.
+    await onAccountWhile('Northgate Radio Club', () =>
+      onNewPage(browser, 'phone-client', async (page) => {
+        await signInOnPhone(page, DEMO_ACCOUNTS.client);
+        await page.goto('/');
+        await waitForPageSettled(page);
+        const portalCertificates = page.getByRole('region', { name: 'Certificates' }).getByRole('grid', { name: 'Certificates' });
+        await portalCertificates.getByRole('row').nth(1).waitFor();
+        await expectNoSidewaysScroll(page, 'client portal');
+        await expectCertificateRowInView(page, portalCertificates, records.certificateNumber);
+        // Embedded, the grid is as tall as its two-line rows: nothing of them is cut off at the bottom.
+        const clipped = await portalCertificates.locator('.MuiDataGrid-virtualScroller').evaluate((box) => box.scrollHeight - box.clientHeight);
+        expect(clipped, 'pixels of the portal’s certificate rows hidden below the grid').toBeLessThanOrEqual(1);
+        // The instruments and jobs tables keep what matters and fold the rest under the first cell.
+        const instruments = page.getByRole('table', { name: 'Instruments' });
+        await expectInView(page, instruments.getByRole('columnheader', { name: 'Next calibration due' }), 'the instruments’ due column');
+        await expectInView(page, page.getByRole('table', { name: 'Jobs' }).getByRole('columnheader', { name: 'Where it stands' }), 'the jobs’ status column');
+        await keepScreenshot(page, 'phone-client-portal-390');
+        await page.setViewportSize(DESKTOP);
+        await keepScreenshot(page, 'phone-client-portal-1440');
+        await page.setViewportSize(PHONE);
 
-      await page.goto('/certificates');
-      await waitForPageSettled(page);
-      const list = page.getByRole('grid', { name: 'Certificates' });
-      await list.getByRole('row').nth(1).waitFor();
-      await expectNoSidewaysScroll(page, 'client certificate list');
-      await expectCertificateRowInView(page, list, records.certificateNumber);
-      await keepScreenshot(page, 'phone-client-certificates-390');
+        await page.goto('/certificates');
+        await waitForPageSettled(page);
+        const list = page.getByRole('grid', { name: 'Certificates' });
+        await list.getByRole('row').nth(1).waitFor();
+        await expectNoSidewaysScroll(page, 'client certificate list');
+        await expectCertificateRowInView(page, list, records.certificateNumber);
+        await keepScreenshot(page, 'phone-client-certificates-390');
 
-      await page.goto('/jobs');
-      await waitForPageSettled(page);
-      await page.getByRole('grid', { name: 'Jobs' }).getByRole('row').nth(1).waitFor();
-      await expectNoSidewaysScroll(page, 'client jobs list');
-      await keepScreenshot(page, 'phone-client-jobs-390');
-    });
+        await page.goto('/jobs');
+        await waitForPageSettled(page);
+        await page.getByRole('grid', { name: 'Jobs' }).getByRole('row').nth(1).waitFor();
+        await expectNoSidewaysScroll(page, 'client jobs list');
+        await keepScreenshot(page, 'phone-client-jobs-390');
+      }),
+    );
   });
 
   it('should show the lead the jobs list with each job’s status in view', async () => {

@@ -77,6 +77,8 @@ export async function openJob(token: string, instrumentId: number): Promise<Job>
 export async function readyForWork(jobId: number): Promise<void> {
   const lead = await apiLogin('lead@kilocycle.test', 'kilocycle-demo');
   const job = await apiGet<Job>(lead, `/jobs/${jobId}`);
+  const org = await apiGet<Organization>(lead, `/organizations/${job.organizationId}`).catch(() => null);
+  if (org?.kind !== 'customer') return; // the lab's own instruments are never quoted
   const terms = await apiGet<CustomerTerms>(lead, `/prices/customer-terms/${job.organizationId}`);
   if (!terms.requiresQuote) return;
   const quote = await apiRequest<Quote>(lead, 'POST', `/jobs/${job.id}/quote`);
@@ -96,4 +98,28 @@ export async function ownJobAtBench(token: string, model: string, serial: string
   const benches = await apiGet<ListResponse<Bench>>(token, '/benches?active=true&sort=name&pageSize=200');
   const bench = benches.items.find((b) => b.defaultStandardId !== null)!;
   return { instrument, job, bench, standardId: bench.defaultStandardId! };
+}
+
+/**
+ * Runs `journey` with the customer on account, then puts its terms back: Northgate pays before its certificates
+ * are released (pay-certificate.e2e.test.ts walks that), and journeys about other things download them at once.
+ */
+export async function onAccountWhile<T>(organizationName: string, journey: () => Promise<T>): Promise<T> {
+  const lead = await apiLogin('lead@kilocycle.test', 'kilocycle-demo');
+  const orgs = await apiGet<ListResponse<Organization>>(lead, '/organizations?pageSize=100');
+  const org = orgs.items.find((o) => o.name === organizationName)!;
+  const terms = await apiGet<CustomerTerms>(lead, `/prices/customer-terms/${org.id}`);
+  const body = (t: CustomerTerms) => ({
+    taxRateId: t.taxRateId,
+    taxRegistration: t.taxRegistration,
+    paymentTerms: t.paymentTerms,
+    netDays: t.netDays,
+    requiresQuote: t.requiresQuote,
+  });
+  await apiRequest(lead, 'PUT', `/prices/customer-terms/${org.id}`, { ...body(terms), paymentTerms: 'on_account', netDays: 30 });
+  try {
+    return await journey();
+  } finally {
+    await apiRequest(lead, 'PUT', `/prices/customer-terms/${org.id}`, body(terms));
+  }
 }
