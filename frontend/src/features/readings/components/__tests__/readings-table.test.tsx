@@ -15,7 +15,9 @@ describe('<ReadingsTable>', () => {
 
     await waitFor(() => expect(screen.getByTestId('readings-count').textContent).toBe('400 001 in this run'));
     const grid = screen.getByRole('grid', { name: 'Readings' });
-    const rows = await within(grid).findAllByRole('row');
+    // The grid draws its header row before the data rows: wait for the rows themselves (a loaded machine is slow to).
+    await within(grid).findByText('400001');
+    const rows = within(grid).getAllByRole('row');
     const untimedRow = rows.find((row) => row.textContent?.includes('400001'));
     const typedRow = rows.find((row) => row.textContent?.includes('400000'));
     expect(untimedRow, 'the six-digit sequence number is printed whole').toBeDefined();
