@@ -87,7 +87,10 @@ describe('elsewhere polish (browser)', () => {
       await page.getByRole('heading', { level: 1 }).waitFor();
       const box = (await notice.boundingBox())!;
       const bar = (await page.locator('header').first().boundingBox())!;
-      const heading = (await page.getByRole('heading', { level: 1 }).boundingBox())!;
+      // The page may draw its heading again as its panels load (the box is null for that instant): ask until it stands.
+      let heading = await page.getByRole('heading', { level: 1 }).boundingBox();
+      for (let i = 0; i < 20 && !heading; i += 1) heading = await page.getByRole('heading', { level: 1 }).boundingBox();
+      if (!heading) throw new Error('the job page never kept its heading on screen');
       expect(box.y).toBeLessThan(bar.y + bar.height);
       expect(box.y + box.height).toBeLessThanOrEqual(heading.y);
       await keepScreenshot(page, 'polish-job-notice-1440');
