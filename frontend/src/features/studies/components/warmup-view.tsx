@@ -245,7 +245,7 @@ export function WarmupView({ analysis, problem, empty = null, latest, skipAnimat
           <Typography variant="h3" component="h2" sx={{ mb: 1 }}>
             Drift rate by window
           </Typography>
-          <Box sx={{ maxHeight: 260, overflow: 'auto' }}>
+          <Box tabIndex={0} role="region" aria-label="Drift rate by window, scrollable" sx={{ maxHeight: 260, overflow: 'auto' }}>
             <Table size="small" stickyHeader aria-label="Drift rate by window" sx={{ '& td, & th': { px: { xs: 1, sm: 2 } } }}>
               <TableHead>
                 <TableRow>
