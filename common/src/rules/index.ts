@@ -17,3 +17,4 @@ export { runRefusalReason } from './run-refusal-reason.js';
 export { BILLING_ROLES } from './billing-roles.js';
 export { certificateRelease, type ReleaseFacts } from './certificate-release.js';
 export { quoteTransitionRefusal } from './quote-transitions.js';
+export { PHASE_RUN_KINDS, runDataKindRefusal, mixedRunRefusal } from './run-data-kind.js';

@@ -152,6 +152,20 @@ export type UpdateJobRequest = Partial<Omit<CreateJobRequest, 'instrumentId'>> &
 export const RUN_KINDS = ['as_found', 'as_left', 'warmup', 'stability', 'supply_sensitivity', 'keying'] as const;
 export type RunKind = (typeof RUN_KINDS)[number];
 export const CALIBRATION_RUN_KINDS: readonly RunKind[] = ['as_found', 'as_left'];
+/**
+ * What a run's readings hold: frequency in Hz (every kind), or phase — the time interval in seconds measured
+ * by a time-interval counter against a reference (stability runs only). A run holds one kind, named when it
+ * is opened; a reading of the other kind is refused (a mixed run).
+ */
+export const RUN_DATA_KINDS = ['frequency', 'phase'] as const;
+export type RunDataKind = (typeof RUN_DATA_KINDS)[number];
+/** How the page and the CSV name each kind's value. */
+export const RUN_DATA_KIND_NAMES: Readonly<Record<RunDataKind, { value: string; unit: string; field: 'frequency' | 'timeInterval' }>> = {
+  frequency: { value: 'Frequency', unit: 'Hz', field: 'frequency' },
+  phase: { value: 'Time interval', unit: 's', field: 'timeInterval' },
+};
+/** A phase reading's time interval may be at most this many seconds either side of zero. */
+export const MAX_TIME_INTERVAL_S = 1e4;
 export const RUN_STATUSES = ['open', 'closed'] as const;
 export type RunStatus = (typeof RUN_STATUSES)[number];
 
@@ -166,6 +180,8 @@ export type Run = {
   rangeId: number;
   rangeLabel: string;
   kind: RunKind;
+  /** What its readings hold: frequency (Hz) or phase (time interval, s; stability runs only). */
+  dataKind: RunDataKind;
   status: RunStatus;
   benchId: number | null;
   benchName: string | null;
@@ -190,6 +206,8 @@ export type Run = {
 export type CreateRunRequest = {
   rangeId: number;
   kind: RunKind;
+  /** Default 'frequency'; 'phase' for a stability run fed by a time-interval counter. */
+  dataKind?: RunDataKind;
   benchId?: number | null;
   standardId?: number | null;
   /** Required when the standard is past its due date (lead only); kept in the audit log. */
@@ -232,6 +250,7 @@ export type Reading = {
   /** Seconds since the run started (power-on for warm-up studies). */
   t: number;
   dial: number | null;
+  /** The reading's value: frequency in Hz, or in a phase run (Run.dataKind 'phase') the time interval in seconds. */
   frequency: number;
   /** Supply voltage or key state for sensitivity and keying runs, else null. */
   aux: number | null;
@@ -247,7 +266,10 @@ export type Reading = {
 export type ReadingInput = {
   seq?: number;
   dial?: number | string | null;
-  frequency: number | string;
+  /** A frequency run's reading (required there; refused in a phase run). */
+  frequency?: number | string;
+  /** A phase run's reading: the time interval in seconds, as a number or text ("12.5e-9", "12.5 ns"); refused in a frequency run. */
+  timeInterval?: number | string;
   t?: number;
   aux?: number | null;
   /**
@@ -388,7 +410,8 @@ export type StabilityRunAnalysis = ReadyAnalysisBasis & {
   analysis: 'stability';
   /** Basic interval τ0 (s): the median spacing of the readings. */
   tau0: number;
-  referenceHz: number;
+  /** The frequency the fractional frequency is taken against; null for a phase run (its readings are already time error). */
+  referenceHz: number | null;
   adev: StabilityPoint[];
   mdev: StabilityPoint[];
   gaps: GapReport;

@@ -3,7 +3,7 @@ import type { DriftWindow } from '../math/drift-rate-windows.js';
 import type { WarmupFit } from '../math/fit-warmup.js';
 import type { KeyingShift } from '../math/keying-shift.js';
 import type { StabilityPoint } from '../math/overlapping-adev.js';
-import type { RunKind } from './lab.js';
+import type { RunDataKind, RunKind } from './lab.js';
 import type { ListQuery } from './list.js';
 
 // ---- Comparison of studies (PRODUCT §5.5; POST /api/comparisons/compute) ----
@@ -337,8 +337,12 @@ export type StabilityFactorSpacing = (typeof STABILITY_FACTOR_SPACINGS)[number];
 /** kept: the readings as they are; removed: the least-squares frequency drift taken off first. */
 export const STABILITY_DRIFT_CHOICES = ['kept', 'removed'] as const;
 export type StabilityDriftChoice = (typeof STABILITY_DRIFT_CHOICES)[number];
-/** longest: the longest stretch without a gap (default); continuous: every reading, as if there were no gap (flagged). */
-export const STABILITY_GAP_CHOICES = ['longest', 'continuous'] as const;
+/**
+ * longest: the longest stretch without a gap (default); continuous: every reading, as if there were no gap (flagged;
+ * refused for phase data, whose phase jumps across a gap); fill: phase data only, each gap bridged by a straight line
+ * in phase, the number of points filled stated.
+ */
+export const STABILITY_GAP_CHOICES = ['longest', 'continuous', 'fill'] as const;
 export type StabilityGapChoice = (typeof STABILITY_GAP_CHOICES)[number];
 /** Confidence of every interval of the stability toolkit. */
 export const STABILITY_CONFIDENCE = 0.95;
@@ -386,6 +390,8 @@ export type StabilitySegment = {
   toSeconds: number;
   /** Gaps reported in the whole record; with 'continuous' the deviations run across them. */
   gapCount: number;
+  /** Phase points filled by straight-line interpolation (choice 'fill'); 0 otherwise. */
+  filled: number;
   /** One sentence saying what was analysed, e.g. "the longest continuous segment: 690 of 1,000 readings, 310 s to 999 s". */
   statement: string;
 };
@@ -404,9 +410,15 @@ export type StabilityDrift = {
   spansGap: boolean;
   /** Whether the deviations were computed from the residuals of this line. */
   removed: boolean;
+  /**
+   * The two phase-data estimates of SP 1065 beside the line, from the same readings (for frequency data from the
+   * phase x = Σ y·τ0): the three-point fit (no standard error) and the bisection estimate. Null under 3 phase points.
+   */
+  phaseEstimates: { threePoint: { perSecond: number }; bisection: { perSecond: number } } | null;
 };
 
 /** One reading the median-absolute-deviation screen flags (never excluded by it: the engineer decides). */
+/** `frequency` is the reading's value as stored (Hz; in a phase run the time interval, s, of the reading that ends the flagged interval). */
 export type FlaggedReading = { readingId: number; seq: number; t: number; frequency: number };
 
 export type StabilityOutlierScreen = {
@@ -424,8 +436,10 @@ export type StabilityOutlierScreen = {
 
 /** Everything the stability toolkit adds to a stability run's analysis. */
 export type StabilityToolkit = {
-  /** What kind of data the deviations were computed from (phase/time-interval runs are not yet accepted). */
-  dataKind: 'frequency';
+  /** What kind of data the run holds, and so what the deviations were computed from. */
+  dataKind: RunDataKind;
+  /** One sentence saying how the data were turned into what each deviation needs (SP 1065's conversions). */
+  conversion: string;
   confidence: number;
   /** The averaging factors: a spacing, or the list asked for with `m`. */
   factors: { spacing: StabilityFactorSpacing | 'list'; list: number[] };
