@@ -2,22 +2,27 @@ import { BadRequestException, Injectable, UnprocessableEntityException } from '@
 import {
   alignLC,
   analyseCalibration,
+  bisectionDrift,
   detectGaps,
   dialToNominal,
   downsampleLttb,
   driftRateWindows,
   evaluateWarmup,
+  fillPhaseGaps,
   fitWarmup,
   fractionalFrequency,
+  frequencyFromPhase,
   keyingShift,
   linearFrequencyDrift,
   longestContinuousSegment,
   madOutliers,
   MetrologyError,
+  phaseFromFractionalFrequency,
   removeLinearFrequencyDrift,
   sampleMean,
   stabilityTable,
   supplySensitivity,
+  threePointDrift,
   warmupSettling,
   warmupSummary,
   type CalibrationPoint,
@@ -38,7 +43,9 @@ import {
   type KeyingRunAnalysis,
   type RunAlignment,
   type RunAnalysis,
+  type RunDataKind,
   type RunKind,
+  type StabilityDrift,
   type StabilityRunAnalysis,
   type SupplySensitivityRunAnalysis,
   type WarmupRunAnalysis,
@@ -109,7 +116,7 @@ export class AnalysisService {
     const result: RunAnalysis =
       series.readingCount === series.excludedCount
         ? { ...basis(0), state: 'empty', analysis: 'none' }
-        : await this.byKind(runId, run.kind, run.range, series, basis, query);
+        : await this.byKind(runId, run.kind, run.dataKind, run.range, series, basis, query);
     if (series.readingCount === counts.readingCount && series.excludedCount === counts.excludedCount) this.results.set(resultKey, result);
     return result;
   }
@@ -132,6 +139,7 @@ export class AnalysisService {
   private async byKind(
     runId: number,
     kind: RunKind,
+    dataKind: RunDataKind,
     range: InstrumentRange,
     series: RunSeries,
     basis: (used: number) => ReadyAnalysisBasis,
@@ -144,7 +152,7 @@ export class AnalysisService {
       case 'warmup':
         return this.warmup(series, basis, query);
       case 'stability':
-        return this.stability(runId, series, basis, query);
+        return this.stability(runId, dataKind, series, basis, query);
       case 'supply_sensitivity':
         return this.supply(series, basis);
       case 'keying':
@@ -254,30 +262,64 @@ export class AnalysisService {
 
   /**
    * A stability run: the deviations at each τ (ADEV, MDEV, HDEV, TDEV, TOTDEV with terms, the noise named, edf and
-   * 95 % interval), the linear frequency drift, optionally removed first, over the longest continuous segment by
-   * default (or every reading as if continuous, flagged), and the readings the MAD screen flags. All of it is common's.
+   * 95 % interval), the linear frequency drift (with SP 1065's three-point and bisection estimates from phase beside
+   * it), optionally removed first, over the longest continuous segment by default (or every reading as if continuous,
+   * flagged; or, for phase data, every reading with the gaps filled by straight lines in phase), and the readings the
+   * MAD screen flags. Frequency readings become fractional frequency against the reference; phase (time-interval)
+   * readings become fractional frequency by their first differences. All the math is common's.
    */
   private async stability(
     runId: number,
+    dataKind: RunDataKind,
     series: RunSeries,
     basis: (used: number) => ReadyAnalysisBasis,
     query: RunAnalysisQueryDto,
   ): Promise<StabilityRunAnalysis> {
-    const { t, frequency, seq } = includedByTime(series);
-    if (t.length < 3) throw new MetrologyError('too_few_points', `a stability analysis requires at least 3 data points (the run has ${t.length})`);
+    const { t, frequency: values, seq } = includedByTime(series);
+    const phase = dataKind === 'phase';
+    const least = phase ? 4 : 3;
+    if (t.length < least) {
+      throw new MetrologyError(
+        'too_few_points',
+        `a stability analysis requires at least ${least} ${phase ? 'phase' : 'frequency'} readings (the run has ${t.length})`,
+      );
+    }
     // The basic interval is the median spacing; gaps are then judged against it.
     const tau0 = detectGaps(t, 1).medianInterval;
     if (!(tau0 > 0)) throw new MetrologyError('not_sorted', 'the readings of this run share one time stamp, so they have no interval');
     const gaps = detectGaps(t, tau0);
-    const referenceHz = query.referenceHz ?? sampleMean(frequency);
-    const factors = factorList(query.m);
     const gapChoice = query.gaps ?? 'longest';
+    if (gapChoice === 'fill' && !phase) {
+      throw new MetrologyError(
+        'phase_only',
+        'gaps=fill: gaps are filled in phase data only, and this run holds frequency readings (filling them would invent phase); analyse the longest continuous segment',
+      );
+    }
+    if (gapChoice === 'continuous' && phase && gaps.gaps.length > 0) {
+      throw new MetrologyError(
+        'bad_argument',
+        `gaps=continuous: this is a phase run with ${gaps.gaps.length} gap${gaps.gaps.length === 1 ? '' : 's'}, and its phase jumps across each one, so it cannot be analysed as if continuous; choose the longest continuous segment or fill the gaps`,
+      );
+    }
+    const factors = factorList(query.m);
     const { start, end, leftOut } =
-      gapChoice === 'longest' && gaps.gaps.length > 0 ? longestContinuousSegment(frequency, gaps.gaps) : { start: 0, end: t.length, leftOut: 0 };
+      gapChoice === 'longest' && gaps.gaps.length > 0 ? longestContinuousSegment(values, gaps.gaps) : { start: 0, end: t.length, leftOut: 0 };
     const count = end - start;
-    const segment = segmentOf(gapChoice, t, start, end, leftOut, gaps.gaps.length);
-    if (count < 3) throw new MetrologyError('too_few_points', `${segment.statement}: a stability analysis requires at least 3 readings`);
-    const y = fractionalFrequency(frequency.subarray(start, end), referenceHz);
+    // Phase with its gaps filled (fill), or the segment's readings as they are; `place` maps each analysed phase point to its reading (−1 where filled).
+    const filled = gapChoice === 'fill' && gaps.gaps.length > 0 ? fillPhaseGaps({ kind: 'phase', values, gaps: gaps.gaps }) : null;
+    const segment = segmentOf(gapChoice, t, start, end, leftOut, gaps.gaps.length, filled?.filled ?? 0);
+    if (count < least) throw new MetrologyError('too_few_points', `${segment.statement}: a stability analysis requires at least ${least} readings`);
+    const referenceHz = phase ? null : (query.referenceHz ?? sampleMean(values));
+    let y: ArrayLike<number>;
+    let x: ArrayLike<number>;
+    if (phase) {
+      x = filled ? filled.values : values.slice(start, end);
+      y = frequencyFromPhase(x, tau0);
+    } else {
+      y = fractionalFrequency(values.subarray(start, end), referenceHz!);
+      x = phaseFromFractionalFrequency(y, tau0);
+    }
+    const place = readingPlaces(phase, start, y.length, filled ? gaps.gaps : []);
     const drift = linearFrequencyDrift(y, tau0);
     const removed = query.drift === 'removed';
     const analysed = removed ? removeLinearFrequencyDrift(y, tau0).residuals : y;
@@ -286,7 +328,8 @@ export class AnalysisService {
       confidence: STABILITY_CONFIDENCE,
     });
     const toolkit: StabilityToolkit = {
-      dataKind: 'frequency',
+      dataKind,
+      conversion: conversionOf(dataKind, referenceHz, filled?.filled ?? 0),
       confidence: STABILITY_CONFIDENCE,
       factors: { spacing: factors ? 'list' : (query.factors ?? 'octaves'), list: deviations.map((row) => row.m) },
       segment,
@@ -294,16 +337,17 @@ export class AnalysisService {
         method: 'linear_frequency',
         perSecond: drift.drift,
         standardError: drift.standardError,
-        points: count,
+        points: y.length,
         fromSeconds: segment.fromSeconds,
         toSeconds: segment.toSeconds,
-        spansGap: gapChoice === 'continuous' && gaps.gaps.length > 0,
+        spansGap: (gapChoice === 'continuous' || gapChoice === 'fill') && gaps.gaps.length > 0,
         removed,
+        phaseEstimates: phaseDriftEstimates(x, tau0),
       },
       deviations,
-      outliers: await this.outliers(runId, analysed, start, t, frequency, seq),
+      outliers: await this.outliers(runId, analysed, place, t, values, seq),
     };
-    const shown = downsampleLttb(t, frequency, MAX_SERIES_POINTS);
+    const shown = downsampleLttb(t, values, MAX_SERIES_POINTS);
     return {
       ...basis(count),
       analysis: 'stability',
@@ -317,17 +361,24 @@ export class AnalysisService {
     };
   }
 
-  /** The MAD screen of the analysed data; the flagged readings listed with their ids, so each can be excluded with a reason. */
+  /**
+   * The MAD screen of the analysed fractional frequencies; the flagged readings listed with their ids, so each can be
+   * excluded with a reason. `place` names the reading behind each analysed value.
+   */
   private async outliers(
     runId: number,
     analysed: ArrayLike<number>,
-    offset: number,
+    place: Int32Array,
     t: Float64Array,
     frequency: Float64Array,
     seq: Float64Array,
   ): Promise<StabilityOutlierScreen> {
     const screen = madOutliers(analysed);
-    const listed = screen.indices.slice(0, MAX_LISTED_OUTLIERS).map((i) => i + offset);
+    // A flagged value that stands for a filled point names no reading: it is counted, not listed.
+    const listed = screen.indices
+      .map((i) => place[i]!)
+      .filter((i) => i >= 0)
+      .slice(0, MAX_LISTED_OUTLIERS);
     const ids = await this.readings.idsAtSeqs(
       runId,
       listed.map((i) => seq[i]!),
@@ -380,7 +431,15 @@ function factorList(m: string | undefined): number[] | undefined {
 }
 
 /** What was analysed, in numbers and in one sentence. */
-function segmentOf(choice: StabilitySegment['choice'], t: Float64Array, start: number, end: number, leftOut: number, gapCount: number): StabilitySegment {
+function segmentOf(
+  choice: StabilitySegment['choice'],
+  t: Float64Array,
+  start: number,
+  end: number,
+  leftOut: number,
+  gapCount: number,
+  filled: number,
+): StabilitySegment {
   const count = end - start;
   const fromSeconds = t[start]!;
   const toSeconds = t[end - 1]!;
@@ -391,8 +450,53 @@ function segmentOf(choice: StabilitySegment['choice'], t: Float64Array, start: n
       ? `every included reading: ${count}, ${span}, no gaps`
       : choice === 'longest'
         ? `the longest continuous segment: ${count} of ${t.length} included readings, ${span}; ${leftOut} beyond the ${gapWords} left out`
-        : `every included reading (${count}, ${span}) as if continuous, across ${gapWords}: deviations and drift mix readings either side of a gap`;
-  return { choice, count, leftOut, fromSeconds, toSeconds, gapCount, statement };
+        : choice === 'fill'
+          ? `every included reading (${count}, ${span}) with the ${gapWords} filled by straight lines in phase: ${filled} point${filled === 1 ? '' : 's'} filled`
+          : `every included reading (${count}, ${span}) as if continuous, across ${gapWords}: deviations and drift mix readings either side of a gap`;
+  return { choice, count, leftOut, fromSeconds, toSeconds, gapCount, filled, statement };
+}
+
+/** How the readings became what the deviations need, in one sentence (NIST SP 1065's conversions). */
+function conversionOf(dataKind: RunDataKind, referenceHz: number | null, filled: number): string {
+  if (dataKind === 'frequency') {
+    return `computed from frequency data: each reading f (Hz) as fractional frequency y = (f − ${referenceHz} Hz)/${referenceHz} Hz; the Hadamard, time and total deviations from the phase x = Σ y·τ0 (s)`;
+  }
+  const fill = filled > 0 ? `, with ${filled} phase point${filled === 1 ? '' : 's'} filled by straight lines across the gaps` : '';
+  return `computed from phase data: each reading a time interval x (s)${fill}; fractional frequency y_i = (x_{i+1} − x_i)/τ0 for the Allan and modified Allan deviations, the drift line and the outlier screen`;
+}
+
+/** SP 1065's phase-data drift estimates beside the line: the three-point fit and the bisection estimate (null when too short for either). */
+function phaseDriftEstimates(x: ArrayLike<number>, tau0: number): StabilityDrift['phaseEstimates'] {
+  try {
+    return { threePoint: { perSecond: threePointDrift(x, tau0).drift }, bisection: { perSecond: bisectionDrift(x, tau0).drift } };
+  } catch (error) {
+    if (error instanceof MetrologyError && error.code === 'too_few_points') return null;
+    throw error;
+  }
+}
+
+/**
+ * The included reading (index into the time-ordered series) behind each analysed fractional frequency: for frequency
+ * data the reading itself; for phase data y_i spans readings i and i + 1, and names the later one (the earlier one
+ * where the later was filled; −1 when both were filled). `gaps` are the filled gaps (none unless filled).
+ */
+function readingPlaces(phase: boolean, start: number, count: number, gaps: ReadonlyArray<{ index: number; missing: number }>): Int32Array {
+  const place = new Int32Array(count);
+  if (!phase) {
+    for (let i = 0; i < count; i++) place[i] = start + i;
+    return place;
+  }
+  // Phase point j (after filling) → reading index, −1 where filled.
+  const points = new Int32Array(count + 1);
+  let reading = start;
+  let j = 0;
+  for (const gap of gaps) {
+    while (reading < gap.index && j <= count) points[j++] = reading++;
+    for (let k = 0; k < gap.missing && j <= count; k++) points[j++] = -1;
+  }
+  while (j <= count) points[j++] = reading++;
+  for (let i = 0; i < count; i++) place[i] = points[i + 1]! >= 0 ? points[i + 1]! : points[i]!;
+  return place;
 }
 
 /** The toolkit's rows as the earlier ADEV and MDEV lists (the same numbers, 95 % intervals). */

@@ -222,7 +222,10 @@ export class Bridge {
       if (this.sourceStopped || this.nextSeq === null) return;
       if (this.options.count !== undefined && this.stats.captured >= this.options.count) return this.stopSource();
       const t = captured.t ?? Math.max(0, Math.round(Date.now() - startedAt) / 1000);
-      const reading: BridgeReading = { seq: this.nextSeq++, t, frequency: captured.frequency };
+      const reading: BridgeReading =
+        captured.timeInterval !== undefined
+          ? { seq: this.nextSeq++, t, timeInterval: captured.timeInterval }
+          : { seq: this.nextSeq++, t, frequency: captured.frequency! };
       if (captured.dial !== undefined && captured.dial !== null) reading.dial = captured.dial;
       const held: Held = { reading, spooled: false, sentOnce: false };
       this.highestHeld = Math.max(this.highestHeld, reading.seq);

@@ -3,7 +3,8 @@ import { dirname } from 'node:path';
 import { mkdirSync } from 'node:fs';
 
 /** A numbered reading as the bridge holds, spools and sends it. */
-export type BridgeReading = { seq: number; t: number; dial?: number | null; frequency: number | string };
+/** A numbered reading: a frequency (Hz), or in a phase run a time interval (s). */
+export type BridgeReading = { seq: number; t: number; dial?: number | null; frequency?: number | string; timeInterval?: number };
 
 type SpoolLine = { run: number; readings: readonly BridgeReading[] };
 

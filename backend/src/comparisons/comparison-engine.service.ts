@@ -46,6 +46,7 @@ import {
   type ComparisonRow,
   type InstrumentSensitivity,
   type KeyingEntry,
+  type RunDataKind,
   type RunKind,
   type SupplySensitivityEntry,
 } from '@kilocycle/common/types';
@@ -65,6 +66,7 @@ const WINDOWS_WANTED = 3;
 type RunMeta = {
   id: number;
   kind: RunKind;
+  dataKind: RunDataKind;
   jobId: number;
   jobNumber: string;
   instrumentId: number;
@@ -158,6 +160,10 @@ export class ComparisonEngine {
     for (const meta of ordered) {
       if (!(COMPARABLE_RUN_KINDS as readonly RunKind[]).includes(meta.kind)) {
         throw new BadRequestException(`run ${meta.id} is a ${meta.kind} run; only warmup and stability runs can be compared`);
+      }
+      // A comparison works on frequency: a phase run is studied on its own page (its deviations are converted there).
+      if (meta.dataKind !== 'frequency') {
+        throw new BadRequestException(`run ${meta.id} holds phase readings (time interval, s); a comparison takes runs of frequency readings`);
       }
       if (meta.kind !== first.kind)
         throw new BadRequestException(

@@ -1,6 +1,6 @@
 import { columnForHeader, convertRow, detectDelimiter, detectNewline, ImportFileError, lastRecordEnd, parseMapping, resolveColumns } from './csv-columns.js';
 
-const run = { kind: 'warmup' as const, startedAtMs: Date.parse('2025-03-01T08:00:00Z') };
+const run = { kind: 'warmup' as const, dataKind: 'frequency' as const, startedAtMs: Date.parse('2025-03-01T08:00:00Z') };
 
 describe('columnForHeader()', () => {
   test.each([
@@ -15,6 +15,9 @@ describe('columnForHeader()', () => {
     ['freq', 'frequency'],
     ['Unit', 'unit'],
     ['Supply (V)', 'aux'],
+    ['Time interval (ns)', 'frequency'],
+    ['time_interval_s', 'frequency'],
+    ['Phase', 'frequency'],
     ['received_at', null],
     ['notes', null],
     ['', null],
@@ -101,5 +104,25 @@ describe('detectNewline() and lastRecordEnd()', () => {
     expect(lastRecordEnd('a,b\r\n1,2\r', '\r\n')).toBe(5);
     expect(lastRecordEnd('a,"b\nc"\nd,"e\nf', '\n')).toBe(8);
     expect(lastRecordEnd('"open\n', '\n')).toBe(-1);
+  });
+});
+
+describe('convertRow() in a phase run', () => {
+  // SI submultiples of the second (SI Brochure): 1 ns = 1e-9 s, 1 µs = 1e-6 s.
+  test('a phase run reads the value column as a time interval: unit from the cell, the unit column, the header, else seconds', () => {
+    const phaseRun = { ...run, kind: 'stability' as const, dataKind: 'phase' as const };
+    const nsHeader = resolveColumns(['t', 'Time interval (ns)'], null);
+    expect(nsHeader.index).toMatchObject({ time: 0, frequency: 1 });
+    expect(nsHeader.intervalUnit).toBe('ns');
+    const at = (row: string[], cols = nsHeader) => convertRow(row, cols, phaseRun);
+    expect((at(['1', '12.5']) as { input: { timeInterval: number } }).input.timeInterval).toBeCloseTo(12.5e-9, 20);
+    expect((at(['2', '-3 µs']) as { input: { timeInterval: number } }).input.timeInterval).toBeCloseTo(-3e-6, 18);
+    expect(convertRow(['3', '0.25'], resolveColumns(['t', 'phase'], null), phaseRun)).toEqual({ input: { t: 3, timeInterval: 0.25 } });
+    expect(convertRow(['4', '7', 'ps'], resolveColumns(['t', 'phase', 'unit'], null), phaseRun)).toEqual({ input: { t: 4, timeInterval: 7e-12 } });
+    expect(convertRow(['5', '7', 'kHz'], resolveColumns(['t', 'phase', 'unit'], null), phaseRun)).toEqual({
+      column: 'unit',
+      reason: "unknown unit 'kHz' for a time interval (use s, ms, µs, ns or ps)",
+    });
+    expect(at(['6', ''])).toEqual({ column: 'frequency', reason: 'no time interval given' });
   });
 });

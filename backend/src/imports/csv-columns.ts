@@ -5,9 +5,10 @@ import {
   type ImportColumn,
   type ImportMapping,
   type ReadingInput,
+  type RunDataKind,
   type RunKind,
 } from '@kilocycle/common/types';
-import { parseFrequency, parseNumber } from '@kilocycle/common/units';
+import { parseFrequency, parseNumber, parseTimeInterval } from '@kilocycle/common/units';
 
 export type Delimiter = ',' | '\t' | ';';
 export type Newline = '\r\n' | '\n' | '\r';
@@ -21,6 +22,8 @@ export type ResolvedColumns = {
   names: Record<ImportColumn, string | null>;
   /** Unit of bare numbers in the frequency column, from its header ("Frequency (kHz)", "freq_mhz"). */
   frequencyUnit: FrequencyUnit | null;
+  /** Unit of bare numbers in the value column of a phase run, from its header ("Time interval (ns)"); seconds when none. */
+  intervalUnit: string | null;
   /** Seconds per unit of a numeric time column ("time (min)" → 60). */
   timeScale: number;
 };
@@ -29,11 +32,14 @@ export type ResolvedColumns = {
 const ALIASES: Record<ImportColumn, readonly string[]> = {
   time: ['time', 't', 'ts', 's', 'sec', 'secs', 'second', 'seconds', 'elapsed', 'timestamp', 'min', 'mins', 'minutes'],
   dial: ['dial', 'setting', 'settings', 'mark', 'div', 'division', 'divisions', 'scale'],
-  frequency: ['frequency', 'freq', 'f', 'counter', 'measured', 'reading', 'output', 'hz', 'khz', 'mhz'],
+  // The value column: a frequency, or in a phase run the time interval ("Time interval (ns)", "Phase", "TIC").
+  frequency: ['frequency', 'freq', 'f', 'counter', 'measured', 'reading', 'output', 'hz', 'khz', 'mhz', 'timeinterval', 'interval', 'phase', 'tic', 'x'],
   unit: ['unit', 'units'],
   aux: ['aux', 'supply', 'voltage', 'volts', 'v', 'key', 'keying', 'keystate'],
 };
 const FREQUENCY_UNITS: Record<string, FrequencyUnit> = { hz: 'Hz', khz: 'kHz', mhz: 'MHz' };
+/** Units a time-interval column may state (parseTimeInterval reads them). */
+const INTERVAL_UNITS = new Set(['s', 'ms', 'us', 'µs', 'ns', 'ps']);
 const TIME_UNITS: Record<string, number> = {
   ms: 0.001,
   s: 1,
@@ -65,7 +71,10 @@ export function columnForHeader(header: string): ImportColumn | null {
   const { words } = headerWords(header);
   const first = words[0];
   if (first === undefined) return null;
-  for (const column of IMPORT_COLUMNS) if (ALIASES[column].includes(first) || ALIASES[column].includes(words.join(''))) return column;
+  // The whole header, then its first two words, then its first word: "Time interval (ns)" and "time_interval_s" are the value column, not time.
+  for (const key of [words.join(''), words.slice(0, 2).join(''), first]) {
+    for (const column of IMPORT_COLUMNS) if (ALIASES[column].includes(key)) return column;
+  }
   return null;
 }
 
@@ -172,7 +181,9 @@ export function resolveColumns(header: readonly string[], mapping: ImportMapping
   const used = Object.values(index).filter((i): i is number => i !== null);
   if (new Set(used).size !== used.length) throw new ImportFileError('the mapping uses one column for two fields');
   if (index.frequency === null) {
-    throw new ImportFileError(`no frequency column: name one frequency, freq or counter, or give a mapping (the file's columns are ${listed()})`);
+    throw new ImportFileError(
+      `no frequency column: name one frequency, freq or counter (time interval or phase in a phase run), or give a mapping (the file's columns are ${listed()})`,
+    );
   }
   const frequencyHeader = headerWords(names[index.frequency]!);
   const frequencyHint = frequencyHeader.hint ?? [...frequencyHeader.words].reverse().find((w) => w in FREQUENCY_UNITS) ?? null;
@@ -183,7 +194,14 @@ export function resolveColumns(header: readonly string[], mapping: ImportMapping
     timeScale = TIME_UNITS[unitWord] ?? 1;
   }
   const columnNames = Object.fromEntries(IMPORT_COLUMNS.map((c) => [c, index[c] === null ? null : names[index[c]!]!])) as Record<ImportColumn, string | null>;
-  return { index, names: columnNames, frequencyUnit: frequencyHint ? (FREQUENCY_UNITS[frequencyHint] ?? null) : null, timeScale };
+  const intervalHint = frequencyHeader.hint ?? [...frequencyHeader.words].reverse().find((w) => INTERVAL_UNITS.has(w)) ?? null;
+  return {
+    index,
+    names: columnNames,
+    frequencyUnit: frequencyHint ? (FREQUENCY_UNITS[frequencyHint] ?? null) : null,
+    intervalUnit: intervalHint !== null && INTERVAL_UNITS.has(intervalHint) ? intervalHint : null,
+    timeScale,
+  };
 }
 
 /** Run kinds whose readings are a time series: each row needs its time. */
@@ -204,11 +222,16 @@ function message(error: unknown): string {
  * One data row → a reading for the write path, or the column and reason that refuse it.
  * Time: seconds (scaled by the header's unit), h:mm:ss since the start, or an ISO 8601 date and time
  * (UTC unless it names a zone) turned into seconds since the run started. Frequency: a number in the
- * row's unit column, the header's unit or Hz, or text with its own unit ("1735 kHz").
+ * row's unit column, the header's unit or Hz, or text with its own unit ("1735 kHz"). In a phase run the same
+ * column is the time interval: seconds, or the row's, the header's or the text's own unit (s, ms, µs, ns, ps).
  */
-export function convertRow(cells: readonly string[], columns: ResolvedColumns, run: { kind: RunKind; startedAtMs: number }): ConvertedRow {
+export function convertRow(
+  cells: readonly string[],
+  columns: ResolvedColumns,
+  run: { kind: RunKind; dataKind: RunDataKind; startedAtMs: number },
+): ConvertedRow {
   const cell = (column: ImportColumn) => (columns.index[column] === null ? '' : (cells[columns.index[column]!] ?? '').trim());
-  const input: ReadingInput = { frequency: 0 };
+  const input: ReadingInput = {};
 
   const timeText = cell('time');
   if (timeText === '') {
@@ -242,17 +265,31 @@ export function convertRow(cells: readonly string[], columns: ResolvedColumns, r
   }
 
   const unitText = cell('unit');
-  let unit: FrequencyUnit | null = columns.frequencyUnit;
-  if (unitText !== '') {
-    unit = FREQUENCY_UNITS[unitText.toLowerCase()] ?? null;
-    if (unit === null) return { column: 'unit', reason: `unknown unit '${unitText}' (use Hz, kHz or MHz)` };
-  }
   const frequencyText = cell('frequency');
-  if (frequencyText === '') return { column: 'frequency', reason: 'no frequency given' };
-  try {
-    input.frequency = parseFrequency(frequencyText, unit ?? 'Hz');
-  } catch (error) {
-    return { column: 'frequency', reason: message(error) };
+  if (run.dataKind === 'phase') {
+    // A phase run's value column is a time interval: its own unit, the row's unit column, the header's, or seconds.
+    const unitWord = unitText !== '' ? unitText : columns.intervalUnit;
+    if (unitWord !== null && !INTERVAL_UNITS.has(unitWord.toLowerCase()) && unitWord !== 'µs') {
+      return { column: 'unit', reason: `unknown unit '${unitWord}' for a time interval (use s, ms, µs, ns or ps)` };
+    }
+    if (frequencyText === '') return { column: 'frequency', reason: 'no time interval given' };
+    try {
+      input.timeInterval = parseTimeInterval(/[a-zA-Zµμ]$/.test(frequencyText) || unitWord === null ? frequencyText : `${frequencyText} ${unitWord}`);
+    } catch (error) {
+      return { column: 'frequency', reason: message(error) };
+    }
+  } else {
+    let unit: FrequencyUnit | null = columns.frequencyUnit;
+    if (unitText !== '') {
+      unit = FREQUENCY_UNITS[unitText.toLowerCase()] ?? null;
+      if (unit === null) return { column: 'unit', reason: `unknown unit '${unitText}' (use Hz, kHz or MHz)` };
+    }
+    if (frequencyText === '') return { column: 'frequency', reason: 'no frequency given' };
+    try {
+      input.frequency = parseFrequency(frequencyText, unit ?? 'Hz');
+    } catch (error) {
+      return { column: 'frequency', reason: message(error) };
+    }
   }
 
   const auxText = cell('aux');

@@ -358,11 +358,11 @@ export class ImportsService implements OnModuleInit {
     handle: (batch: ReadingBatch) => Promise<void>,
   ): Promise<PassResult> {
     tracker.update({ phase, bytesTotal: file.size, bytesDone: 0, rowsDone: 0 });
-    const run = { kind: ctx.kind, startedAtMs: ctx.startedAt.getTime() };
+    const run = { kind: ctx.kind, dataKind: ctx.dataKind, startedAtMs: ctx.startedAt.getTime() };
     let rows = 0;
     let handled = 0;
     let header = true;
-    let batch = new ReadingBatch();
+    let batch = new ReadingBatch(ctx.dataKind);
     const ready: ReadingBatch[] = [];
     const send = async (next: ReadingBatch) => {
       await handle(next);
@@ -381,7 +381,7 @@ export class ImportsService implements OnModuleInit {
       else batch.rejected.push({ line, column: columns.names[converted.column] ?? converted.column, reason: converted.reason });
       if (batch.full) {
         ready.push(batch);
-        batch = new ReadingBatch();
+        batch = new ReadingBatch(ctx.dataKind);
       }
     };
     for await (const block of this.blocks(file, (bytesDone) => tracker.update({ bytesDone }))) {

@@ -1,4 +1,4 @@
-import type { ImportRejection, ReadingInput } from '@kilocycle/common/types';
+import type { ImportRejection, ReadingInput, RunDataKind } from '@kilocycle/common/types';
 import { MAX_BATCH } from '../readings/readings-writer.service.js';
 
 /**
@@ -9,11 +9,14 @@ import { MAX_BATCH } from '../readings/readings-writer.service.js';
 export class ReadingBatch {
   readonly t = new Float64Array(MAX_BATCH);
   readonly dial = new Float64Array(MAX_BATCH);
+  /** Each reading's value: frequency (Hz), or the time interval (s) in a phase run. */
   readonly frequency = new Float64Array(MAX_BATCH);
   readonly aux = new Float64Array(MAX_BATCH);
   readonly lines = new Int32Array(MAX_BATCH);
   size = 0;
   readonly rejected: ImportRejection[] = [];
+
+  constructor(private readonly dataKind: RunDataKind = 'frequency') {}
 
   get full(): boolean {
     return this.size + this.rejected.length >= MAX_BATCH;
@@ -28,7 +31,7 @@ export class ReadingBatch {
     this.lines[i] = line;
     this.t[i] = input.t ?? Number.NaN;
     this.dial[i] = typeof input.dial === 'number' ? input.dial : Number.NaN;
-    this.frequency[i] = Number(input.frequency);
+    this.frequency[i] = Number(this.dataKind === 'phase' ? input.timeInterval : input.frequency);
     this.aux[i] = input.aux ?? Number.NaN;
   }
 
@@ -36,7 +39,7 @@ export class ReadingBatch {
   inputs(): ReadingInput[] {
     const out: ReadingInput[] = new Array(this.size);
     for (let i = 0; i < this.size; i++) {
-      const input: ReadingInput = { frequency: this.frequency[i]! };
+      const input: ReadingInput = this.dataKind === 'phase' ? { timeInterval: this.frequency[i]! } : { frequency: this.frequency[i]! };
       if (!Number.isNaN(this.t[i]!)) input.t = this.t[i]!;
       if (!Number.isNaN(this.dial[i]!)) input.dial = this.dial[i]!;
       if (!Number.isNaN(this.aux[i]!)) input.aux = this.aux[i]!;

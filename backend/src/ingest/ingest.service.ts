@@ -1,7 +1,7 @@
 import { Injectable } from '@nestjs/common';
 import { MAX_INGEST_BATCH, type AttachAck, type IngestBatchAck } from '@kilocycle/common/events';
 import type { IngestAck, ReadingInput } from '@kilocycle/common/types';
-import { parseFrequency, parseNumber } from '@kilocycle/common/units';
+import { parseFrequency, parseNumber, parseTimeInterval } from '@kilocycle/common/units';
 import type { BenchIdentity } from '../benches/benches.service.js';
 import { runRefusalReason } from '@kilocycle/common/rules';
 import { ReadingsWriter, type RunWriteContext } from '../readings/readings-writer.service.js';
@@ -42,6 +42,7 @@ export class IngestService {
       runId,
       lastSeq,
       kind: ctx.kind,
+      dataKind: ctx.dataKind,
       startedAt: ctx.startedAt.toISOString(),
       benchId: bench.id,
       benchName: bench.name,
@@ -169,9 +170,15 @@ function notStored(
   return out;
 }
 
-/** Whether a stored row is this (already validated) reading: same t, dial and frequency. */
+/** Whether a stored row is this (already validated) reading: same t, dial and value. */
 function sameReading(row: { t_s: number; dial: number | null; frequency_hz: number }, input: ReadingInput): boolean {
-  const frequency = typeof input.frequency === 'number' ? input.frequency : parseFrequency(input.frequency, 'Hz');
+  // The value as stored: a phase reading's time interval (s), else its frequency (Hz); the writer has checked which it gives.
+  const frequency =
+    input.timeInterval !== undefined && input.timeInterval !== null
+      ? parseTimeInterval(input.timeInterval)
+      : typeof input.frequency === 'number'
+        ? input.frequency
+        : parseFrequency(input.frequency!, 'Hz');
   const dial =
     input.dial === undefined || input.dial === null || input.dial === '' ? null : typeof input.dial === 'number' ? input.dial : parseNumber(input.dial);
   const close = (a: number, b: number) => a === b || Math.abs(a - b) <= 1e-12 * Math.max(Math.abs(a), Math.abs(b));

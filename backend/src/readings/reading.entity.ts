@@ -31,6 +31,11 @@ export class Reading {
   @Column({ type: 'double', nullable: true })
   dial: number | null;
 
+  /**
+   * The reading's value in its run's data kind (runs.data_kind): frequency in Hz, or in a phase run the time
+   * interval in seconds. One value column, not one per kind: a run holds one kind (a mixed run is refused),
+   * and the ingest path's one INSERT shape stays the same for both.
+   */
   @Column({ name: 'frequency_hz', type: 'double' })
   frequency: number;
 

@@ -10,7 +10,8 @@ import {
   type ReadingInput,
   type ReadingSource,
 } from '@kilocycle/common/types';
-import { outsideSpan, parseFrequency, parseNumber, SPAN_MARGIN, spanLimits } from '@kilocycle/common/units';
+import { outsideSpan, parseFrequency, parseNumber, parseTimeInterval, SPAN_MARGIN, spanLimits } from '@kilocycle/common/units';
+import { mixedRunRefusal } from '@kilocycle/common/rules';
 import { AuditService } from '../audit/audit.service.js';
 import { RunContextReader, type RunWriteContext } from '../runs/run-context.reader.js';
 import { RunCountersWriter } from '../runs/run-counters.writer.js';
@@ -101,6 +102,7 @@ export class ReadingsWriter {
     const rows: Row[] = [];
     const rejected: IngestAck['rejected'] = [];
     const needsDial = CALIBRATION_RUN_KINDS.includes(ctx.kind) && !counterReadings;
+    const phase = ctx.dataKind === 'phase';
     const span = ctx.dialMax - ctx.dialMin;
     const dialLow = ctx.dialMin - DIAL_MARGIN * span;
     const dialHigh = ctx.dialMax + DIAL_MARGIN * span;
@@ -116,15 +118,30 @@ export class ReadingsWriter {
       if (rawSeq !== undefined && (seq === null || seq < 1 || seq > 2_147_483_647)) {
         return refuse('seq', 'seq must be a whole number from 1 to 2147483647');
       }
+      // A run holds one kind of reading: a reading of the other kind (or of both) would make it a mixed run.
+      const given = input.timeInterval !== undefined && input.timeInterval !== null ? 'phase' : 'frequency';
+      const mixed =
+        given === 'phase' && input.frequency !== undefined && input.frequency !== null
+          ? 'a reading gives either frequency or timeInterval, not both (a run holds one kind)'
+          : mixedRunRefusal(ctx.runId, ctx.dataKind, given);
+      if (mixed) return refuse(given === 'phase' ? 'timeInterval' : 'frequency', mixed);
       let frequency: number;
-      try {
-        if (typeof input.frequency !== 'number' && typeof input.frequency !== 'string')
-          throw new Error('frequency is required (a number in Hz or text such as "1.735 MHz")');
-        frequency = parseFrequency(input.frequency, 'Hz');
-      } catch (error) {
-        return refuse('frequency', error instanceof Error ? error.message : String(error));
+      if (phase) {
+        try {
+          frequency = parseTimeInterval(input.timeInterval!);
+        } catch (error) {
+          return refuse('timeInterval', error instanceof Error ? error.message : String(error));
+        }
+      } else {
+        try {
+          if (typeof input.frequency !== 'number' && typeof input.frequency !== 'string')
+            throw new Error('frequency is required (a number in Hz or text such as "1.735 MHz")');
+          frequency = parseFrequency(input.frequency, 'Hz');
+        } catch (error) {
+          return refuse('frequency', error instanceof Error ? error.message : String(error));
+        }
+        if (frequency > MAX_FREQUENCY_HZ) return refuse('frequency', `frequency ${frequency} Hz is above the ${MAX_FREQUENCY_HZ} Hz limit`);
       }
-      if (frequency > MAX_FREQUENCY_HZ) return refuse('frequency', `frequency ${frequency} Hz is above the ${MAX_FREQUENCY_HZ} Hz limit`);
       let dial: number | null = null;
       if (input.dial !== undefined && input.dial !== null && input.dial !== '') {
         try {
@@ -154,8 +171,9 @@ export class ReadingsWriter {
       // Last, so that a reading with a plain error is refused for that (it cannot be confirmed away).
       if (confirm === 'each' && input.confirmed !== undefined && typeof input.confirmed !== 'boolean')
         return refuse('confirmed', 'confirmed must be true or false');
-      if ((frequency < freqLow || frequency > freqHigh) && confirm !== 'all' && !(confirm === 'each' && input.confirmed === true)) {
-        const { message } = outsideSpan(input.frequency, frequency, ctx.freqMinHz, ctx.freqMaxHz, SPAN_MARGIN, limits);
+      // A phase reading is a time interval, not a frequency: the range's span does not bound it.
+      if (!phase && (frequency < freqLow || frequency > freqHigh) && confirm !== 'all' && !(confirm === 'each' && input.confirmed === true)) {
+        const { message } = outsideSpan(input.frequency!, frequency, ctx.freqMinHz, ctx.freqMaxHz, SPAN_MARGIN, limits);
         if (confirm === 'each') return rejected.push({ seq, index, field: 'frequency', reason: message, confirmable: true });
         return refuse('frequency', confirm === 'none' && input.confirmed === true ? `${message} (a bench cannot confirm a reading outside the span)` : message);
       }

@@ -14,7 +14,7 @@ import { AUTHOR_COLUMNS, AUTHOR_JOINS, ReadingsWriter, toReadingView, type RunWr
 import { replicaQuery } from '../shared/replica-read.js';
 
 const SORTABLE = { seq: 'r.seq', t: 'r.t_s', dial: 'r.dial', frequency: 'r.frequency_hz', id: 'r.id' };
-const READING_KEYS = ['seq', 'dial', 'frequency', 't', 'aux', 'confirmed'];
+const READING_KEYS = ['seq', 'dial', 'frequency', 'timeInterval', 't', 'aux', 'confirmed'];
 
 @Injectable()
 export class ReadingsService {

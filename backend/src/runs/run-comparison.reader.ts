@@ -1,12 +1,13 @@
 import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
-import type { RunKind } from '@kilocycle/common/types';
+import type { RunDataKind, RunKind } from '@kilocycle/common/types';
 import type { DataSource } from 'typeorm';
 
 /** A run as a comparison of runs describes it. */
 export type ComparedRunRow = {
   id: number;
   kind: RunKind;
+  dataKind: RunDataKind;
   jobId: number;
   rangeId: number;
   startedAt: Date;
@@ -35,12 +36,13 @@ export class RunComparisonReader {
 
   private async select(where: string, parameters: unknown[]): Promise<ComparedRunRow[]> {
     const rows: Array<Record<string, unknown>> = await this.dataSource.query(
-      `SELECT id, kind, job_id, range_id, started_at, ended_at, configuration, notes, supply_voltage FROM runs ${where}`,
+      `SELECT id, kind, data_kind, job_id, range_id, started_at, ended_at, configuration, notes, supply_voltage FROM runs ${where}`,
       parameters,
     );
     return rows.map((row) => ({
       id: Number(row.id),
       kind: row.kind as RunKind,
+      dataKind: row.data_kind as RunDataKind,
       jobId: Number(row.job_id),
       rangeId: Number(row.range_id),
       startedAt: new Date(row.started_at as string),

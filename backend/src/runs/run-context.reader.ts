@@ -3,13 +3,15 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import type { DataSource, EntityManager } from 'typeorm';
 import { JobScopeReader } from '../jobs/job-scope.reader.js';
 import { RangeResultsReader } from '../instruments/range-results.reader.js';
-import type { JobStatus, RangeSpan, RunKind, RunStatus } from '@kilocycle/common/types';
+import type { JobStatus, RangeSpan, RunDataKind, RunKind, RunStatus } from '@kilocycle/common/types';
 
 /** What the readings write path needs to know about a run; loaded in one query. */
 export type RunWriteContext = {
   runId: number;
   jobId: number;
   kind: RunKind;
+  /** What the readings hold: frequency (Hz) or phase (time interval, s). */
+  dataKind: RunDataKind;
   status: RunStatus;
   jobStatus: JobStatus;
   benchId: number | null;
@@ -45,7 +47,10 @@ export class RunContextReader {
 
   /** The run with its job's status and owner and its range's spans, or null when there is no such run. */
   async writeContext(runId: number, manager?: EntityManager): Promise<RunWriteContext | null> {
-    const [run] = await (manager ?? this.dataSource).query('SELECT id, job_id, range_id, kind, status, bench_id, started_at FROM runs WHERE id = ?', [runId]);
+    const [run] = await (manager ?? this.dataSource).query(
+      'SELECT id, job_id, range_id, kind, data_kind, status, bench_id, started_at FROM runs WHERE id = ?',
+      [runId],
+    );
     if (!run) return null;
     const [job, range] = await Promise.all([this.jobs.scope(Number(run.job_id), manager), this.ranges.range(Number(run.range_id), manager)]);
     if (!job || !range) return null;
@@ -53,6 +58,7 @@ export class RunContextReader {
       runId: Number(run.id),
       jobId: job.id,
       kind: run.kind as RunKind,
+      dataKind: run.data_kind as RunDataKind,
       status: run.status as RunStatus,
       jobStatus: job.status,
       benchId: run.bench_id === null ? null : Number(run.bench_id),

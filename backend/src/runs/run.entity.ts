@@ -1,5 +1,5 @@
 import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
-import type { RunKind, RunStatus } from '@kilocycle/common/types';
+import type { RunDataKind, RunKind, RunStatus } from '@kilocycle/common/types';
 import { Bench } from '../benches/bench.entity.js';
 import { InstrumentRange } from '../instruments/instrument-range.entity.js';
 import { Job } from '../jobs/job.entity.js';
@@ -30,6 +30,10 @@ export class Run {
 
   @Column({ type: 'varchar', length: 24 })
   kind: RunKind;
+
+  /** What the readings' value column holds: frequency (Hz) or phase (time interval, s; stability runs only). Set when opened. */
+  @Column({ name: 'data_kind', type: 'varchar', length: 12, default: 'frequency' })
+  dataKind: RunDataKind;
 
   @Column({ type: 'varchar', length: 8, default: 'open' })
   status: RunStatus;

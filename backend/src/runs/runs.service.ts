@@ -8,7 +8,7 @@ import { RunBenchReader } from '../benches/run-bench.reader.js';
 import { BridgePresence } from '../shared/bridge-presence.js';
 import { RangeResultsReader } from '../instruments/range-results.reader.js';
 import { instrumentLabel } from '../instruments/instruments.service.js';
-import { OPEN_JOB_STATUSES, LOCKED_JOB_STATUSES, runKindWords, runRefusalReason } from '@kilocycle/common/rules';
+import { OPEN_JOB_STATUSES, LOCKED_JOB_STATUSES, runDataKindRefusal, runKindWords, runRefusalReason } from '@kilocycle/common/rules';
 import { JobScopeReader } from '../jobs/job-scope.reader.js';
 import { JobsService } from '../jobs/jobs.service.js';
 import { todayIso } from '../shared/dto-helpers.js';
@@ -34,6 +34,7 @@ export function toRunView(r: Run, counts: RunCounts): RunView {
     rangeId: r.rangeId,
     rangeLabel: r.range?.label ?? '',
     kind: r.kind,
+    dataKind: r.dataKind,
     status: r.status,
     benchId: r.benchId,
     benchName: r.bench?.name ?? null,
@@ -122,6 +123,9 @@ export class RunsService {
   /** Opens a run on one of the job's instrument's ranges (POST /api/jobs/:id/runs). */
   async open(actor: AuthUser, jobId: number, body: CreateRunDto): Promise<RunView> {
     assertMayWriteRun(actor.role, body.kind);
+    const dataKind = body.dataKind ?? 'frequency';
+    const dataKindRefusal = runDataKindRefusal(body.kind, dataKind);
+    if (dataKindRefusal) throw new BadRequestException(`dataKind: ${dataKindRefusal}`);
     const id = await this.dataSource.transaction(async (manager) => {
       const job = await this.jobScopes.scope(jobId, manager, true);
       if (!job) throw new NotFoundException(`Job ${jobId} not found`);
@@ -150,6 +154,7 @@ export class RunsService {
         jobId: job.id,
         rangeId: range.id,
         kind: body.kind,
+        dataKind,
         status: 'open',
         benchId: body.benchId ?? null,
         standardId,
@@ -167,7 +172,7 @@ export class RunsService {
           entity: 'run',
           entityId: newId,
           action: 'create',
-          changes: { jobId: job.id, rangeId: range.id, rangeLabel: range.label, kind: body.kind, benchId: body.benchId ?? null, standardId },
+          changes: { jobId: job.id, rangeId: range.id, rangeLabel: range.label, kind: body.kind, dataKind, benchId: body.benchId ?? null, standardId },
         },
         manager,
       );

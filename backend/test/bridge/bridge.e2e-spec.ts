@@ -110,6 +110,19 @@ describe('the bridge and the counter simulator (e2e, real processes, MariaDB)', 
       expect(await seqs(run.runId)).toEqual([1]);
     });
 
+    it('should read time intervals into a phase run (seconds, or with a unit) and skip a frequency line there', async () => {
+      const { token, benchId } = await createBench(t.dataSource);
+      const run = await createRun(t.dataSource, { organizationId: org, benchId, kind: 'stability', dataKind: 'phase' });
+      const child = bridge(token, run.runId, 'stdin');
+      child.process.stdin!.end('0\n12.5 ns\n7.05 MHz\n-3e-9\n');
+      await exitsWith(child, 3);
+      expect(child.stderr()).toMatch(/line 3 skipped: "7.05 MHz" is not a time interval/);
+      const rows = await t.dataSource.query('SELECT seq, frequency_hz AS value FROM readings WHERE run_id = ? ORDER BY seq', [run.runId]);
+      expect(rows.map((r: { seq: number }) => Number(r.seq))).toEqual([1, 2, 3]);
+      // 12.5 ns = 1.25e-8 s (SI prefix nano, 10⁻⁹).
+      expect(rows.map((r: { value: number }) => Number(r.value))).toEqual([0, 1.25e-8, -3e-9]);
+    });
+
     it('should exit 2 with the reason when the token is wrong or the run is not on its bench', async () => {
       const { token, benchId } = await createBench(t.dataSource);
       const run = await createRun(t.dataSource, { organizationId: org, benchId });

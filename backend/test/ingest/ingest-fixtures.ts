@@ -24,7 +24,15 @@ export async function createBench(ds: DataSource, name = `Bench ${randomUUID().s
 /** An instrument with one 3.5–7.5 MHz range (dial in kHz), a job for it and a run on the range. */
 export async function createRun(
   ds: DataSource,
-  options: { organizationId: number; benchId: number | null; kind?: RunKind; status?: 'open' | 'closed'; jobStatus?: string; startedAt?: Date },
+  options: {
+    organizationId: number;
+    benchId: number | null;
+    kind?: RunKind;
+    dataKind?: 'frequency' | 'phase';
+    status?: 'open' | 'closed';
+    jobStatus?: string;
+    startedAt?: Date;
+  },
 ): Promise<RunFixture> {
   const tag = randomUUID().slice(0, 8);
   const instrument = await ds.query('INSERT INTO instruments (organization_id, make, model, serial) VALUES (?, ?, ?, ?)', [
@@ -45,10 +53,11 @@ export async function createRun(
     options.jobStatus ?? 'in_progress',
   ]);
   const [creator] = await ds.query("SELECT id FROM users WHERE role = 'technician' LIMIT 1");
-  const run = await ds.query('INSERT INTO runs (job_id, range_id, kind, status, bench_id, started_at, created_by) VALUES (?, ?, ?, ?, ?, ?, ?)', [
+  const run = await ds.query('INSERT INTO runs (job_id, range_id, kind, data_kind, status, bench_id, started_at, created_by) VALUES (?, ?, ?, ?, ?, ?, ?, ?)', [
     job.insertId,
     range.insertId,
     options.kind ?? 'warmup',
+    options.dataKind ?? 'frequency',
     options.status ?? 'open',
     options.benchId,
     options.startedAt ?? new Date(),

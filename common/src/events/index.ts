@@ -1,5 +1,5 @@
 import type { CounterCapture } from '../types/captures.js';
-import type { IngestAck, RangeSpan, Reading, ReadingInput, RunKind } from '../types/lab.js';
+import type { IngestAck, RangeSpan, Reading, ReadingInput, RunDataKind, RunKind } from '../types/lab.js';
 import type { ImportProgress } from '../types/studies.js';
 
 /** Socket.io namespaces and event names shared by the server, the bridge and the browser. */
@@ -74,6 +74,8 @@ export type AttachAck = {
   /** The run's highest stored sequence number (0 when empty): a new bridge numbers after it. */
   lastSeq: number;
   kind: RunKind;
+  /** What the run's readings hold: a phase run takes `timeInterval` (s), every other run `frequency` (Hz). */
+  dataKind: RunDataKind;
   /** When the run started (ISO 8601); a reading's `t` is seconds since then. */
   startedAt: string;
   benchId: number;

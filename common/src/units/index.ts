@@ -14,3 +14,4 @@ export {
   type OutsideSpan,
   type SpanLimits,
 } from './frequency-span.js';
+export { parseTimeInterval } from './parse-time-interval.js';

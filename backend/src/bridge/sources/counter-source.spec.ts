@@ -1,4 +1,4 @@
-import { parseReadingLine } from './counter-source.js';
+import { numberReading, parseReadingLine } from './counter-source.js';
 import { parseScpiAddress } from './scpi-source.js';
 import { parseSerialAddress } from './serial-source.js';
 
@@ -27,6 +27,26 @@ describe('parseReadingLine()', () => {
     ['NaN', /not a frequency/],
   ])('should refuse %p with a reason', (line, reason) => {
     expect(() => parseReadingLine(line)).toThrow(reason);
+  });
+});
+
+// A phase run's lines are time intervals: SI submultiples of the second (1 ns = 1e-9 s), either sign.
+describe('parseReadingLine() in a phase run', () => {
+  it('should read a time interval, with or without a unit and a dial', () => {
+    expect(parseReadingLine('-2.5e-9', 'phase')).toEqual({ timeInterval: -2.5e-9 });
+    expect(parseReadingLine('12.5 ns', 'phase')!.timeInterval).toBeCloseTo(12.5e-9, 20);
+    expect(parseReadingLine('4000,0.001', 'phase')).toEqual({ dial: 4000, timeInterval: 0.001 });
+  });
+
+  it('should refuse a frequency in a phase run, naming a time interval', () => {
+    expect(() => parseReadingLine('7.05 MHz', 'phase')).toThrow(/"7.05 MHz" is not a time interval \(unknown unit 'MHz'/);
+  });
+
+  it('should take a bare number from the counter as a reading of the run kind', () => {
+    expect(numberReading('phase', -3e-9)).toEqual({ timeInterval: -3e-9 });
+    expect(numberReading('frequency', 7e6)).toEqual({ frequency: 7e6 });
+    expect(numberReading('frequency', -1)).toBeNull();
+    expect(numberReading('phase', null)).toBeNull();
   });
 });
 

@@ -1,6 +1,6 @@
 import { connect, type Socket } from 'node:net';
 import { parseScpiNumber } from '../oscillator-model.js';
-import { sleep, type Captured, type CounterSource, type SourceContext } from './counter-source.js';
+import { numberReading, sleep, type Captured, type CounterSource, type SourceContext } from './counter-source.js';
 import { LineChannel } from './line-channel.js';
 
 export type ScpiOptions = { host: string; port: number; query: string; intervalMs: number; timeoutMs: number; dial?: number; setup?: string };
@@ -55,12 +55,13 @@ export class ScpiSource implements CounterSource {
             channel.drain();
           }
         } else {
-          const frequency = parseScpiNumber(answer);
-          if (frequency === null || frequency <= 0) {
+          const reading = numberReading(context.attach.dataKind, parseScpiNumber(answer));
+          if (reading === null) {
             this.skipped++;
-            context.warn(`the counter answered "${answer.trim()}", which is not a frequency; reading skipped`);
+            const what = context.attach.dataKind === 'phase' ? 'time interval' : 'frequency';
+            context.warn(`the counter answered "${answer.trim()}", which is not a ${what}; reading skipped`);
           } else {
-            emit(this.options.dial === undefined ? { frequency } : { dial: this.options.dial, frequency });
+            emit(this.options.dial === undefined ? reading : { dial: this.options.dial, ...reading });
           }
         }
         await sleep(Math.max(0, this.options.intervalMs - (performance.now() - asked)), this.abort.signal);

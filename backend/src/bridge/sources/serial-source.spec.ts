@@ -8,6 +8,7 @@ const attach = {
   runId: 1,
   lastSeq: 0,
   kind: 'warmup',
+  dataKind: 'frequency',
   startedAt: new Date().toISOString(),
   benchId: 1,
   benchName: 'Bench 1',

@@ -1,6 +1,6 @@
 import type { Duplex } from 'node:stream';
 import { parseScpiNumber } from '../oscillator-model.js';
-import { parseReadingLine, sleep, type Captured, type CounterSource, type SourceContext } from './counter-source.js';
+import { numberReading, parseReadingLine, sleep, type Captured, type CounterSource, type SourceContext } from './counter-source.js';
 import { LineChannel } from './line-channel.js';
 
 /** What the source needs of a serial port: a duplex byte stream that opens on request. */
@@ -99,10 +99,10 @@ export class SerialSource implements CounterSource {
 
   private readLine(line: string, context: SourceContext): Captured | null {
     if (line.trim() === '') return null;
-    const frequency = parseScpiNumber(line);
-    if (frequency !== null && frequency > 0) return this.options.dial === undefined ? { frequency } : { dial: this.options.dial, frequency };
+    const plain = numberReading(context.attach.dataKind, parseScpiNumber(line));
+    if (plain) return this.options.dial === undefined ? plain : { dial: this.options.dial, ...plain };
     try {
-      const reading = parseReadingLine(line);
+      const reading = parseReadingLine(line, context.attach.dataKind);
       if (reading && this.options.dial !== undefined && reading.dial === undefined) reading.dial = this.options.dial;
       return reading;
     } catch (error) {

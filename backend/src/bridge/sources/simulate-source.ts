@@ -8,7 +8,9 @@ const MAX_PER_TICK = 2000;
 
 /**
  * A simulated oscillator on the run's range. Readings come every `intervalMs` of real time and carry
- * t = simulated seconds since power-on, which runs `speed` times faster than the clock.
+ * t = simulated seconds since power-on, which runs `speed` times faster than the clock. For a phase run it
+ * acts as a time-interval counter against a reference at the oscillator's first frequency: each reading is
+ * the phase x (s), the running sum of the fractional frequency times the interval, to the picosecond.
  */
 export class SimulateSource implements CounterSource {
   readonly label: string;
@@ -34,12 +36,22 @@ export class SimulateSource implements CounterSource {
     const tick = Math.max(2, Math.min(this.options.intervalMs, 50));
     const started = performance.now();
     let emitted = 0;
+    const phase = context.attach.dataKind === 'phase';
+    let reference = 0;
+    let x = 0;
     while (!this.abort.signal.aborted) {
       const due = Math.floor((performance.now() - started) / this.options.intervalMs) + 1;
       for (let n = 0; emitted < due && n < MAX_PER_TICK && !this.abort.signal.aborted; n++) {
         const t = emitted * stepS;
         const { dial, frequency } = oscillator.read(t);
-        emit({ t: Math.round(t * 1e6) / 1e6, dial, frequency: Math.round(frequency * 1000) / 1000 });
+        const at = Math.round(t * 1e6) / 1e6;
+        if (phase) {
+          if (emitted === 0) reference = frequency;
+          else x += ((frequency - reference) / reference) * stepS;
+          emit({ t: at, timeInterval: Math.round(x * 1e12) / 1e12 });
+        } else {
+          emit({ t: at, dial, frequency: Math.round(frequency * 1000) / 1000 });
+        }
         emitted++;
       }
       await sleep(tick, this.abort.signal);

@@ -18,7 +18,7 @@ export class StdinSource implements CounterSource {
       lines.on('line', (line) => {
         lineNo++;
         try {
-          const reading = parseReadingLine(line);
+          const reading = parseReadingLine(line, context.attach.dataKind);
           if (reading) emit(reading);
         } catch (error) {
           this.skipped++;

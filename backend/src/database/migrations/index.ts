@@ -14,6 +14,7 @@ import { AddPriceList1765100000000 } from './1765100000000-AddPriceList.js';
 import { AddQuotes1765110000000 } from './1765110000000-AddQuotes.js';
 import { AddInvoices1765120000000 } from './1765120000000-AddInvoices.js';
 import { AddPayments1765130000000 } from './1765130000000-AddPayments.js';
+import { AddRunDataKind1765140000000 } from './1765140000000-AddRunDataKind.js';
 
 /** Every migration, oldest first. Listed as classes so jest (ESM) and the build load the same code. */
 export const MIGRATIONS = [
@@ -33,4 +34,5 @@ export const MIGRATIONS = [
   AddQuotes1765110000000,
   AddInvoices1765120000000,
   AddPayments1765130000000,
+  AddRunDataKind1765140000000,
 ];

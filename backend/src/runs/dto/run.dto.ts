@@ -3,10 +3,12 @@ import { OmitType } from '@nestjs/mapped-types';
 import { Type } from 'class-transformer';
 import { IsIn, IsInt, IsNumber, IsOptional, IsString, Max, MaxLength, Min, MinLength, ValidateIf } from 'class-validator';
 import {
+  RUN_DATA_KINDS,
   RUN_KINDS,
   RUN_STATUSES,
   type CreateRunRequest,
   type ListRunsQuery,
+  type RunDataKind,
   type RunKind,
   type RunStatus,
   type UpdateRunRequest,
@@ -26,6 +28,10 @@ export class CreateRunDto implements CreateRunRequest {
 
   @IsIn(RUN_KINDS, { message: kindMessage })
   kind: RunKind;
+
+  @OptionalNotNull()
+  @IsIn(RUN_DATA_KINDS, { message: `dataKind must be one of: ${RUN_DATA_KINDS.join(', ')}` })
+  dataKind?: RunDataKind;
 
   @IsOptional()
   @ValidateIf((_o, v) => v !== null)
@@ -66,7 +72,7 @@ export class CreateRunDto implements CreateRunRequest {
   notes?: string | null;
 }
 
-export class UpdateRunDto extends PartialUpdateType(OmitType(CreateRunDto, ['rangeId', 'kind', 'benchId'] as const)) implements UpdateRunRequest {
+export class UpdateRunDto extends PartialUpdateType(OmitType(CreateRunDto, ['rangeId', 'kind', 'dataKind', 'benchId'] as const)) implements UpdateRunRequest {
   @OptionalNotNull()
   @IsIn(['closed'], { message: 'status can only be set to closed (a closed run stays closed)' })
   status?: 'closed';

@@ -1,0 +1,203 @@
+import { readFileSync } from 'node:fs';
+import { dirname, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { instrumentWithJob, khzRange, openRun, organizationIds, postReadings } from '../support/lab-fixtures.js';
+import { createTestApp, signInDemo, type AsDemo, type TestApp } from '../support/test-app.js';
+
+// Phase (time-interval) stability runs through the API. Expected values: NIST SP 1065 (Riley 2008) Table 31 as
+// recorded in fixtures/stability, reached from phase data made by SP 1065's own definition x(i+1) = x(i) + y(i)·τ0
+// (written out below, not taken from the code under test), and closed forms for a quadratic phase.
+
+const here = dirname(fileURLToPath(import.meta.url));
+const table31 = JSON.parse(readFileSync(resolve(here, '../../../fixtures/stability/sp1065_1000point_results.json'), 'utf8')) as {
+  averaging_factors: number[];
+  results: Record<string, string[]>;
+};
+
+/** SP 1065 §12.4: n(0) = 1234567890, n(i+1) = 16807·n(i) mod 2147483647, y(i) = n(i)/2147483647. */
+function sp1065Suite(): number[] {
+  const out: number[] = [];
+  let n = 1234567890;
+  for (let i = 0; i < 1000; i++) {
+    out.push(n / 2147483647);
+    n = (16807 * n) % 2147483647;
+  }
+  return out;
+}
+
+/** The printed digits allow half a unit in the last printed place. */
+function expectPrinted(actual: number, printed: string, label: string): void {
+  const [mantissa = '', exponent = '0'] = printed.split('e');
+  const places = (mantissa.split('.')[1] ?? '').length;
+  const halfUnit = 0.5 * 10 ** (Number(exponent) - places);
+  if (!(Math.abs(actual - Number(printed)) <= halfUnit)) throw new Error(`${label}: got ${actual}, printed ${printed} (±${halfUnit})`);
+}
+
+type Value = { deviation: number; terms: number; edf: number } | null;
+type Row = { m: number; tau: number } & Record<'adev' | 'mdev' | 'hdev' | 'tdev' | 'totdev', Value>;
+
+describe('phase (time-interval) stability runs (e2e, MariaDB)', () => {
+  let t: TestApp;
+  let orgs: Record<string, number>;
+  let as: AsDemo;
+  beforeAll(async () => {
+    t = await createTestApp();
+    as = await signInDemo(t.http);
+    orgs = await organizationIds(t, as('admin'));
+  });
+  afterAll(async () => {
+    await t.close();
+  });
+  const job = () => instrumentWithJob(t, as('tech'), { organizationId: orgs['Northgate Radio Club']!, ranges: [khzRange('Wide 1–25 MHz', 1000, 25000)] });
+  const phaseRun = async () => {
+    const { jobId, rangeIds } = await job();
+    return openRun(t, as('tech'), jobId, { rangeId: rangeIds[0], kind: 'stability', dataKind: 'phase' });
+  };
+  const analysis = (runId: number, query = '') => t.http.get(`/api/runs/${runId}/analysis${query}`).set(as('engineer'));
+
+  it('opens a stability run for phase data, names its kind, and refuses phase data in any other kind of run', async () => {
+    const runId = await phaseRun();
+    const run = await t.http.get(`/api/runs/${runId}`).set(as('tech'));
+    expect(run.body.dataKind).toBe('phase');
+    const { jobId, rangeIds } = await job();
+    const warmup = await t.http.post(`/api/jobs/${jobId}/runs`).set(as('tech')).send({ rangeId: rangeIds[0], kind: 'warmup', dataKind: 'phase' });
+    expect(warmup.status).toBe(400);
+    expect(warmup.body.message).toBe('dataKind: phase (time-interval) readings are kept in stability runs only, not in a warmup run');
+    const odd = await t.http.post(`/api/jobs/${jobId}/runs`).set(as('tech')).send({ rangeId: rangeIds[0], kind: 'stability', dataKind: 'voltage' });
+    expect(odd.status).toBe(400);
+    expect(JSON.stringify(odd.body.message)).toContain('dataKind must be one of: frequency, phase');
+  });
+
+  it('refuses a mixed run: a frequency reading in a phase run, a time interval in a frequency run, both in one reading; nothing stored', async () => {
+    const runId = await phaseRun();
+    const frequency = await t.http
+      .post(`/api/runs/${runId}/readings`)
+      .set(as('tech'))
+      .send({ readings: [{ t: 0, frequency: 7e6 }] });
+    expect(frequency.status).toBe(400);
+    expect(frequency.body.message).toEqual([
+      `readings[0].frequency: run ${runId} holds phase readings (time interval, s): a frequency reading would make it a mixed run; send timeInterval`,
+    ]);
+    const both = await t.http
+      .post(`/api/runs/${runId}/readings`)
+      .set(as('tech'))
+      .send({ readings: [{ t: 0, timeInterval: 0, frequency: 7e6 }] });
+    expect(both.status).toBe(400);
+    expect(both.body.message[0]).toContain('either frequency or timeInterval, not both');
+    const { jobId, rangeIds } = await job();
+    const freqRun = await openRun(t, as('tech'), jobId, { rangeId: rangeIds[0], kind: 'stability' });
+    const interval = await t.http
+      .post(`/api/runs/${freqRun}/readings`)
+      .set(as('tech'))
+      .send({ readings: [{ t: 0, timeInterval: '12 ns' }] });
+    expect(interval.status).toBe(400);
+    expect(interval.body.message[0]).toContain(`run ${freqRun} holds frequency readings (Hz): a time-interval reading would make it a mixed run`);
+    const stored = await t.dataSource.query('SELECT COUNT(*) AS n FROM readings WHERE run_id IN (?, ?)', [runId, freqRun]);
+    expect(Number(stored[0].n)).toBe(0);
+    // Typed with a unit, a time interval is stored in seconds.
+    const typed = await t.http
+      .post(`/api/runs/${runId}/readings`)
+      .set(as('tech'))
+      .send({ readings: [{ t: 0, timeInterval: '12.5 ns' }] });
+    expect(typed.status).toBe(201);
+    const [row] = await t.dataSource.query('SELECT frequency_hz AS value FROM readings WHERE run_id = ?', [runId]);
+    expect(Number(row.value)).toBeCloseTo(12.5e-9, 20);
+  });
+
+  it('imports the SP 1065 suite as phase (time interval, ns) and gives its published ADEV, HDEV, TDEV and TOTDEV, saying it was computed from phase', async () => {
+    const runId = await phaseRun();
+    // x(0) = 0, x(i+1) = x(i) + y(i)·τ0 with τ0 = 1 s: 1001 phase points; written in ns, as a counter shows them.
+    const y = sp1065Suite();
+    const x = [0];
+    for (const value of y) x.push(x[x.length - 1]! + value);
+    const csv = ['Time (s),Time interval (ns)', ...x.map((value, i) => `${i},${(value * 1e9).toPrecision(17)}`)].join('\n');
+    const imported = await t.http
+      .post(`/api/runs/${runId}/imports`)
+      .set(as('tech'))
+      .attach('file', Buffer.from(csv), { filename: 'sp1065-phase.csv', contentType: 'text/csv' });
+    expect(imported.status).toBe(201);
+    expect(imported.body.imported).toBe(1001);
+    const res = await analysis(runId, `?m=${table31.averaging_factors.join(',')}`);
+    expect(res.status).toBe(200);
+    expect(res.body.referenceHz).toBeNull();
+    expect(res.body.toolkit.dataKind).toBe('phase');
+    expect(res.body.toolkit.conversion).toMatch(
+      /^computed from phase data: each reading a time interval x \(s\); fractional frequency y_i = \(x_\{i\+1\} − x_i\)\/τ0/,
+    );
+    const rows = res.body.toolkit.deviations as Row[];
+    expect(rows.map((r) => r.tau)).toEqual([1, 10, 100]);
+    const published = { adev: 'adev_overlapping', mdev: 'mdev', hdev: 'hdev_overlapping', tdev: 'tdev', totdev: 'totdev' } as const;
+    for (const [deviation, key] of Object.entries(published) as Array<[keyof typeof published, string]>) {
+      const printed = table31.results[key];
+      if (!printed) continue;
+      rows.forEach((row, i) => expectPrinted(row[deviation]!.deviation, printed[i]!, `${deviation} at τ = ${row.tau} s from phase`));
+    }
+  });
+
+  it('gives the drift of a quadratic phase x = D·t²/2 exactly by all three estimators (closed form: the drift is D)', async () => {
+    const runId = await phaseRun();
+    const D = 2e-9; // per second
+    await postReadings(
+      t,
+      as('tech'),
+      runId,
+      Array.from({ length: 201 }, (_, i) => ({ seq: i + 1, t: i, timeInterval: 0.5 * D * i * i })),
+    );
+    const res = await analysis(runId);
+    expect(res.status).toBe(200);
+    const drift = res.body.toolkit.drift;
+    expect(Math.abs(drift.perSecond - D)).toBeLessThan(1e-6 * D);
+    expect(Math.abs(drift.phaseEstimates.threePoint.perSecond - D)).toBeLessThan(1e-6 * D);
+    expect(Math.abs(drift.phaseEstimates.bisection.perSecond - D)).toBeLessThan(1e-6 * D);
+  });
+
+  it('with a gap: the longest segment by default, fill on request with the points filled counted, and refuses to run across it or to fill frequency data', async () => {
+    const runId = await phaseRun();
+    // White phase at 1 s, readings 50–59 missing: 100 written, one gap of 10.
+    const readings = [];
+    let seed = 7;
+    for (let i = 0; i < 110; i++) {
+      seed = (16807 * seed) % 2147483647;
+      if (i >= 50 && i < 60) continue;
+      readings.push({ seq: readings.length + 1, t: i, timeInterval: (seed / 2147483647 - 0.5) * 1e-9 });
+    }
+    await postReadings(t, as('tech'), runId, readings);
+    const longest = await analysis(runId);
+    expect(longest.status).toBe(200);
+    expect(longest.body.toolkit.segment).toMatchObject({ choice: 'longest', count: 50, leftOut: 50, gapCount: 1, filled: 0 });
+    const filled = await analysis(runId, '?gaps=fill');
+    expect(filled.status).toBe(200);
+    expect(filled.body.toolkit.segment).toMatchObject({ choice: 'fill', count: 100, filled: 10, gapCount: 1 });
+    expect(filled.body.toolkit.segment.statement).toContain('10 points filled');
+    expect(filled.body.toolkit.conversion).toContain('with 10 phase points filled by straight lines across the gaps');
+    // 110 phase points (100 read + 10 filled): the overlapping ADEV at m = 1 sums N − 2m = 108 terms (SP 1065, eq. for σ_y from phase).
+    expect(filled.body.toolkit.deviations[0].adev.terms).toBe(108);
+    expect(filled.body.toolkit.drift.spansGap).toBe(true);
+    const across = await analysis(runId, '?gaps=continuous');
+    expect(across.status).toBe(422);
+    expect(across.body.message).toContain('this is a phase run with 1 gap, and its phase jumps across each one');
+    const { jobId, rangeIds } = await job();
+    const freqRun = await openRun(t, as('tech'), jobId, { rangeId: rangeIds[0], kind: 'stability' });
+    await postReadings(
+      t,
+      as('tech'),
+      freqRun,
+      [0, 1, 2, 3, 4, 5].map((i) => ({ seq: i + 1, t: i, frequency: 7e6 + i })),
+    );
+    const fillFrequency = await analysis(freqRun, '?gaps=fill');
+    expect(fillFrequency.status).toBe(422);
+    expect(fillFrequency.body.message).toContain('gaps are filled in phase data only');
+  });
+
+  it('refuses a phase run in a comparison, naming it', async () => {
+    const runId = await phaseRun();
+    const { jobId, rangeIds } = await job();
+    const other = await openRun(t, as('tech'), jobId, { rangeId: rangeIds[0], kind: 'stability' });
+    const res = await t.http
+      .post('/api/comparisons/compute')
+      .set(as('engineer'))
+      .send({ runIds: [runId, other] });
+    expect(res.status).toBe(400);
+    expect(res.body.message).toBe(`run ${runId} holds phase readings (time interval, s); a comparison takes runs of frequency readings`);
+  });
+});
