@@ -3,6 +3,7 @@ import { useMemo, useState } from 'react';
 import type { FlaggedReading, Role, Run, RunAnalysis } from '@kilocycle/common/types';
 import { useLatestReadings } from '@/features/readings/api/get-latest-readings';
 import { useReadings, useRefreshReadings } from '@/features/readings/api/get-readings';
+import { ReadingEntry } from '@/features/readings/components/reading-entry';
 import { ExcludeDialog, ReadingsTable } from '@/features/readings/components/readings-table';
 import { useLiveReadings } from '@/features/readings/hooks/use-live-readings';
 import { useRunAnalysis } from '@/features/runs/api/get-run-analysis';
@@ -20,7 +21,10 @@ function pick<K extends RunAnalysis['analysis']>(data: RunAnalysis | undefined, 
   return data && data.analysis === kind ? (data as Extract<RunAnalysis, { analysis: K }>) : null;
 }
 
-/** Warm-up and stability runs: followed live while open, re-analysed at most twice a second as readings arrive. */
+/**
+ * Warm-up and stability runs: followed live while open, re-analysed at most twice a second as readings arrive. A
+ * phase stability run (time intervals from a time-interval counter) also takes typed time intervals.
+ */
 export function TimeSeriesRun({ run, role }: { run: Run; role: Role }) {
   const canWrite = mayWriteRun(role, run.kind);
   const [stabilityOptions, setStabilityOptions] = useState(DEFAULT_STABILITY_OPTIONS);
@@ -37,6 +41,7 @@ export function TimeSeriesRun({ run, role }: { run: Run; role: Role }) {
   const arrivedSince = tail.filter((r) => r.seq > run.lastSeq).length;
   const problem = analysisProblem(analysis.error);
   const empty = noReadingsNotice(analysis.data, analysis.error);
+  const dataKind = run.dataKind ?? 'frequency';
 
   return (
     <>
@@ -55,8 +60,14 @@ export function TimeSeriesRun({ run, role }: { run: Run; role: Role }) {
           lastArrivalAt={live.lastArrivalAt}
           bridge={run.bridge}
           bridgeChange={live.bridge}
+          dataKind={dataKind}
         />
       </Box>
+      {dataKind === 'phase' && canWrite && run.status === 'open' && (
+        <Box sx={{ mb: 2 }}>
+          <ReadingEntry dataKind="phase" runId={run.id} refusal={run.refusal} onSaved={() => void refresh()} />
+        </Box>
+      )}
       {run.kind === 'warmup' ? (
         <WarmupView analysis={pick(analysis.data, 'warmup')} problem={problem} empty={empty} latest={tail} skipAnimation={skipChartAnimation} />
       ) : (
@@ -74,6 +85,7 @@ export function TimeSeriesRun({ run, role }: { run: Run; role: Role }) {
       <ExcludeDialog
         runId={run.id}
         reading={excluding && { id: excluding.readingId, seq: excluding.seq, dial: null, frequency: excluding.frequency }}
+        dataKind={dataKind}
         onClose={() => setExcluding(null)}
         onExcluded={() => void refresh()}
       />
@@ -82,6 +94,7 @@ export function TimeSeriesRun({ run, role }: { run: Run; role: Role }) {
           runId={run.id}
           showDial={false}
           resolutionHz={run.kind === 'stability' ? 0.0001 : 0.01}
+          dataKind={dataKind}
           canExclude={canWrite && !run.refusal}
           onExcluded={() => void refresh()}
           height={360}

@@ -7,10 +7,11 @@ import Switch from '@mui/material/Switch';
 import TextField from '@mui/material/TextField';
 import Typography from '@mui/material/Typography';
 import { useEffect, useRef, useState, type FormEvent, type KeyboardEvent } from 'react';
-import type { AppendReadingsResponse, CounterCapture, DialUnit } from '@kilocycle/common/types';
+import { RUN_DATA_KIND_NAMES, type AppendReadingsResponse, type CounterCapture, type DialUnit } from '@kilocycle/common/types';
 import { checkFrequencySpan, parseFrequency, parseNumber } from '@kilocycle/common/units';
 import { Num, numberSx } from '@/components/ui/num';
 import { ApiError } from '@/lib/api-client';
+import { formatSeconds } from '@/utils/data-kind';
 import { formatHz, formatNumber } from '@/utils/frequency';
 import { useAppendReadings } from '../api/append-readings';
 import { useAbandonCapture, useStartCapture } from '../api/counter-capture';
@@ -19,7 +20,7 @@ import { useCaptureFeed, type CaptureFeed } from '../hooks/capture-feed';
 type Field = 'dial' | 'frequency';
 type Problem = { field: Field | null; message: string };
 
-type ReadingEntryProps = {
+type FrequencyEntryProps = {
   runId: number;
   dialUnit: DialUnit;
   /** The range's nominal span, to warn when a value is far outside it (a unit slip, usually). */
@@ -31,6 +32,16 @@ type ReadingEntryProps = {
   /** Counter-assisted capture, on a run with a bench: offered whenever the run has one, on by default while its bridge is live. */
   counter?: CounterAssist;
 };
+
+/** A phase (time-interval) run: no dial and no range span; the reading is the time interval in seconds. */
+type TimeIntervalEntryProps = {
+  runId: number;
+  refusal?: string | null;
+  onSaved?: (answer: AppendReadingsResponse) => void;
+};
+
+/** The run's data kind chooses the form: dial and counter (frequency, the default), or the time interval alone (phase). */
+type ReadingEntryProps = (FrequencyEntryProps & { dataKind?: 'frequency' }) | (TimeIntervalEntryProps & { dataKind: 'phase' });
 
 export type CounterAssist = {
   bridgeLive: boolean;
@@ -95,11 +106,21 @@ function toProblem(error: unknown): Problem {
   return { field: null, message: 'Not saved — the server could not be reached. The values are still here; press Enter to try again.' };
 }
 
+/** Typed readings at the bench: a frequency run's dial and counter, or a phase run's time interval (sent as `timeInterval`). */
+export function ReadingEntry(props: ReadingEntryProps) {
+  if (props.dataKind === 'phase') {
+    const { dataKind: _kind, ...rest } = props;
+    return <TimeIntervalEntry {...rest} />;
+  }
+  const { dataKind: _kind, ...rest } = props;
+  return <FrequencyEntry {...rest} />;
+}
+
 /**
  * Keyboard-only capture at the bench: dial, Tab, counter as typed (`1735 kHz`, `1.735 MHz`, `1735000`), Enter.
  * A saved pair clears and the cursor goes back to the dial; a refused pair stays, with the reason.
  */
-export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, onSaved, counter: assist }: ReadingEntryProps) {
+function FrequencyEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, onSaved, counter: assist }: FrequencyEntryProps) {
   const dialRef = useRef<HTMLInputElement>(null);
   const counterRef = useRef<HTMLInputElement>(null);
   const [dial, setDial] = useState('');
@@ -461,6 +482,140 @@ export function ReadingEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, o
               data-sent-at={capture?.status === 'settled' ? liveCapture?.sentAt : undefined}
               sx={{ overflowWrap: 'anywhere' }}
             >
+              <Num sx={{ whiteSpace: 'normal' }}>{last}</Num>
+            </Typography>
+          )
+        )}
+      </Box>
+    </Paper>
+  );
+}
+
+const TIME_INTERVAL = RUN_DATA_KIND_NAMES.phase;
+const TIME_INTERVAL_LABEL = `${TIME_INTERVAL.value} (${TIME_INTERVAL.unit})`;
+
+/**
+ * What a bare number will be stored as (seconds). Text with a unit (`12.5 ns`) is read by the server, which
+ * answers with the value it stored; the page does not guess at units.
+ */
+function understandTimeInterval(text: string): string {
+  if (!text.trim()) return 'Understood as: —';
+  try {
+    return `= ${formatSeconds(parseNumber(text))} s`;
+  } catch {
+    return 'Sent as typed: the server reads the unit (s, ms, µs, ns, ps)';
+  }
+}
+
+/**
+ * A phase run's typed readings: the time-interval counter's reading in seconds, Enter. Sent as `timeInterval`
+ * (a frequency reading would make the run a mixed run, which the server refuses). A refused reading stays, with the reason.
+ */
+function TimeIntervalEntry({ runId, refusal, onSaved }: TimeIntervalEntryProps) {
+  const inputRef = useRef<HTMLInputElement>(null);
+  const [value, setValue] = useState('');
+  const [problem, setProblem] = useState<string | null>(null);
+  const [last, setLast] = useState<string | null>(null);
+  const sent = useRef<string | null>(null);
+  const append = useAppendReadings({
+    onSuccess: (answer) => {
+      const stored = answer.stored[answer.stored.length - 1];
+      setLast(
+        stored
+          ? `Saved #${stored.seq}: ${formatSeconds(stored.frequency)} s at ${formatNumber(stored.t, 1)} s`
+          : `Saved (${answer.accepted} stored, ${answer.duplicates} already there)`,
+      );
+      // Only what was sent is cleared: anything typed meanwhile stays.
+      if (sent.current !== null && (inputRef.current?.value ?? '') === sent.current) setValue('');
+      sent.current = null;
+      setProblem(null);
+      inputRef.current?.focus();
+      onSaved?.(answer);
+    },
+  });
+  const readOnly = Boolean(refusal);
+
+  const submit = (event: FormEvent<HTMLFormElement>) => {
+    event.preventDefault();
+    if (readOnly) return;
+    if (append.isPending) {
+      setProblem('Still saving the previous reading; press Enter again in a moment.');
+      return;
+    }
+    if (!value.trim()) {
+      setProblem('Enter the time interval.');
+      inputRef.current?.focus();
+      return;
+    }
+    setProblem(null);
+    sent.current = value;
+    append.mutate(
+      { runId, body: { readings: [{ timeInterval: value.trim() }] } },
+      {
+        onError: (error) => {
+          sent.current = null;
+          const message =
+            error instanceof ApiError
+              ? `Not saved — ${error.messages.map((m) => m.replace(/^readings\[\d+\]\.\w+:\s*/, '')).join('; ')}`
+              : 'Not saved — the server could not be reached. The value is still here; press Enter to try again.';
+          setProblem(message);
+          requestAnimationFrame(() => inputRef.current?.focus());
+        },
+      },
+    );
+  };
+
+  return (
+    <Paper variant="outlined" sx={{ p: 2 }}>
+      <Typography variant="h3" component="h2" sx={{ mb: 1 }}>
+        Enter a reading
+      </Typography>
+      {refusal ? (
+        <Alert severity="info" sx={{ mb: 1 }}>
+          This run takes no readings now: {refusal}.
+        </Alert>
+      ) : (
+        <Typography variant="body2" color="text.secondary" sx={{ mb: 1.5 }}>
+          The time-interval counter’s reading in seconds (<Num>12.5e-9</Num>, or with a unit: <Num>12.5 ns</Num>), <kbd>Enter</kbd>.
+        </Typography>
+      )}
+      <Box
+        component="form"
+        noValidate
+        onSubmit={submit}
+        aria-label="Reading entry"
+        sx={{ display: 'grid', gridTemplateColumns: { xs: 'minmax(0, 1fr)', sm: 'minmax(0, 1fr) auto' }, gap: 1.5, alignItems: 'start' }}
+      >
+        <TextField
+          label={TIME_INTERVAL_LABEL}
+          value={value}
+          onChange={(e) => {
+            setValue(e.target.value);
+            setProblem(null);
+          }}
+          inputRef={inputRef}
+          autoFocus={!readOnly}
+          autoComplete="off"
+          error={problem !== null}
+          helperText={
+            <Box component="span" data-testid="time-interval-understood" sx={{ overflowWrap: 'anywhere' }}>
+              {understandTimeInterval(value)}
+            </Box>
+          }
+          slotProps={{ htmlInput: { readOnly, style: { fontFamily: numberSx.fontFamily, fontSize: '1.125rem' } } }}
+        />
+        <Button type="submit" variant="contained" disabled={readOnly} sx={{ mt: 0.5, minWidth: 96 }} tabIndex={-1}>
+          {append.isPending ? 'Saving…' : 'Save'}
+        </Button>
+      </Box>
+      <Box aria-live="polite" sx={{ minHeight: 24, mt: 0.5 }}>
+        {problem ? (
+          <Alert severity="error" role="alert" sx={{ py: 0 }}>
+            {problem}
+          </Alert>
+        ) : (
+          last && (
+            <Typography variant="body2" color="success.main" data-testid="last-saved" sx={{ overflowWrap: 'anywhere' }}>
               <Num sx={{ whiteSpace: 'normal' }}>{last}</Num>
             </Typography>
           )

@@ -4,11 +4,12 @@ import Paper from '@mui/material/Paper';
 import Typography from '@mui/material/Typography';
 import { DataGrid, type GridColDef, type GridPaginationModel, type GridSortModel } from '@mui/x-data-grid';
 import { useMemo, useState } from 'react';
-import type { FrequencyUnit, Reading } from '@kilocycle/common/types';
+import type { FrequencyUnit, Reading, RunDataKind } from '@kilocycle/common/types';
 import { FormDialog, FormTextField, useZodForm } from '@/components/ui/form-dialog';
 import { Num } from '@/components/ui/num';
 import { usePhoneColumns, type PhoneLayout } from '@/components/ui/phone-columns';
 import { toSortParam } from '@/lib/data-grid';
+import { formatSeconds, valueHeading } from '@/utils/data-kind';
 import { formatDateTime } from '@/utils/format';
 import { formatDuration, formatHz, formatHzTo, formatNumber } from '@/utils/frequency';
 import { formatCount } from '@/utils/measurement';
@@ -21,12 +22,14 @@ type ExcludeDialogProps = {
   runId: number;
   reading: Pick<Reading, 'id' | 'seq' | 'dial' | 'frequency'> | null;
   unit?: FrequencyUnit;
+  /** A phase run's reading is a time interval in seconds, not a frequency. */
+  dataKind?: RunDataKind;
   onClose: () => void;
   onExcluded?: (reading: Reading) => void;
 };
 
 /** Excludes one reading with a reason (the readings list's action; pages that flag readings open it too). */
-export function ExcludeDialog({ runId, reading, unit, onClose, onExcluded }: ExcludeDialogProps) {
+export function ExcludeDialog({ runId, reading, unit, dataKind = 'frequency', onClose, onExcluded }: ExcludeDialogProps) {
   const form = useZodForm(excludeReadingSchema, { reason: '' });
   const exclude = useExcludeReading({
     onSuccess: (excluded) => {
@@ -41,8 +44,16 @@ export function ExcludeDialog({ runId, reading, unit, onClose, onExcluded }: Exc
       intro={
         reading && (
           <>
-            Dial <Num>{reading.dial ?? '—'}</Num>, <Num>{formatHz(reading.frequency, unit)}</Num>. The reading stays on record, struck through with your reason,
-            and leaves the fits. This cannot be undone.
+            {dataKind === 'phase' ? (
+              <>
+                Time interval <Num>{formatSeconds(reading.frequency)} s</Num>.
+              </>
+            ) : (
+              <>
+                Dial <Num>{reading.dial ?? '—'}</Num>, <Num>{formatHz(reading.frequency, unit)}</Num>.
+              </>
+            )}{' '}
+            The reading stays on record, struck through with your reason, and leaves the fits. This cannot be undone.
           </>
         )
       }
@@ -76,13 +87,25 @@ type ReadingsTableProps = {
   resolutionHz?: number;
   showDial?: boolean;
   showAux?: string | null;
+  /** What the readings hold: the value column is Frequency, or Time interval (s) for a phase run. */
+  dataKind?: RunDataKind;
   canExclude: boolean;
   onExcluded?: (reading: Reading) => void;
   height?: number;
 };
 
 /** Every reading of the run, newest first; an excluded one is struck through with its reason, never removed (in the secondary text colour, which keeps 4.5:1 contrast on a hovered row). */
-export function ReadingsTable({ runId, unit, resolutionHz = 0.1, showDial = true, showAux = null, canExclude, onExcluded, height = 420 }: ReadingsTableProps) {
+export function ReadingsTable({
+  runId,
+  unit,
+  resolutionHz = 0.1,
+  showDial = true,
+  showAux = null,
+  dataKind = 'frequency',
+  canExclude,
+  onExcluded,
+  height = 420,
+}: ReadingsTableProps) {
   const [pagination, setPagination] = useState<GridPaginationModel>({ page: 0, pageSize: 50 });
   const [sortModel, setSortModel] = useState<GridSortModel>([{ field: 'seq', sort: 'desc' }]);
   const [excluding, setExcluding] = useState<Reading | null>(null);
@@ -125,11 +148,11 @@ export function ReadingsTable({ runId, unit, resolutionHz = 0.1, showDial = true
         : []),
       {
         field: 'frequency',
-        headerName: 'Frequency',
+        headerName: valueHeading(dataKind),
         width: 200,
         align: 'right',
         headerAlign: 'right',
-        renderCell: ({ row }) => <Num sx={struck(row)}>{formatHzTo(row.frequency, resolutionHz)}</Num>,
+        renderCell: ({ row }) => <Num sx={struck(row)}>{dataKind === 'phase' ? formatSeconds(row.frequency) : formatHzTo(row.frequency, resolutionHz)}</Num>,
       },
       ...(showAux
         ? [
@@ -187,7 +210,7 @@ export function ReadingsTable({ runId, unit, resolutionHz = 0.1, showDial = true
           ),
       },
     ];
-  }, [showDial, showAux, resolutionHz, canExclude]);
+  }, [showDial, showAux, resolutionHz, dataKind, canExclude]);
   // On a phone the dial, the frequency and the exclusion stay; the sequence number, time and who entered it read
   // on a second line under the frequency.
   const phoneLayout = useMemo<PhoneLayout<Reading>>(
@@ -240,7 +263,7 @@ export function ReadingsTable({ runId, unit, resolutionHz = 0.1, showDial = true
           sx={[{ border: 0, '& .kc-excluded': { bgcolor: 'action.hover' } }, layout.sx]}
         />
       </Box>
-      <ExcludeDialog runId={runId} reading={excluding} unit={unit} onClose={() => setExcluding(null)} onExcluded={onExcluded} />
+      <ExcludeDialog runId={runId} reading={excluding} unit={unit} dataKind={dataKind} onClose={() => setExcluding(null)} onExcluded={onExcluded} />
     </Paper>
   );
 }

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { FIELD_LIMITS } from '@kilocycle/common/rules';
-import { CALIBRATION_RUN_KINDS, RUN_KINDS, type CreateRunRequest, type Run } from '@kilocycle/common/types';
+import { FIELD_LIMITS, PHASE_RUN_KINDS } from '@kilocycle/common/rules';
+import { CALIBRATION_RUN_KINDS, RUN_DATA_KINDS, RUN_KINDS, type CreateRunRequest, type Run } from '@kilocycle/common/types';
 import { z } from 'zod';
 import { api } from '@/lib/api-client';
 import { optionalId, optionalNumber, optionalText, requiredId } from '@/utils/form-schema';
@@ -11,12 +11,15 @@ const { overrideReason: REASON, supplyVoltage: VOLTS } = FIELD_LIMITS.run;
 /**
  * The open-run form. As-found and as-left runs need a standard; when `asksReason` says so for the chosen
  * standard (a lead using a lapsed one), the written reason the server wants with it is required and sent.
+ * The data kind (frequency or phase) is sent for the kinds that may hold phase (stability), and left to the
+ * server's default (frequency) for the others.
  */
 export function openRunSchema(asksReason: (standardId: number | null) => boolean) {
   return z
     .object({
       rangeId: requiredId('Choose the range'),
       kind: z.enum(RUN_KINDS),
+      dataKind: z.enum(RUN_DATA_KINDS),
       benchId: optionalId,
       standardId: optionalId,
       supplyVoltage: optionalNumber({ ...VOLTS, message: 'The supply voltage is a number of volts', decimalComma: true }),
@@ -34,8 +37,9 @@ export function openRunSchema(asksReason: (standardId: number | null) => boolean
       if (asksReason(run.standardId) && run.overrideReason.length < REASON.min)
         context.addIssue({ code: 'custom', path: ['overrideReason'], message: `Write why the lapsed standard is used (at least ${REASON.min} characters)` });
     })
-    .transform(({ overrideReason, ...body }): CreateRunRequest => ({
+    .transform(({ overrideReason, dataKind, ...body }): CreateRunRequest => ({
       ...body,
+      ...(PHASE_RUN_KINDS.includes(body.kind) ? { dataKind } : {}),
       ...(asksReason(body.standardId) ? { standardOverrideReason: overrideReason } : {}),
     }));
 }

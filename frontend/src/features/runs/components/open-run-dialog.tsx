@@ -5,9 +5,11 @@ import Button from '@mui/material/Button';
 import InputAdornment from '@mui/material/InputAdornment';
 import MenuItem from '@mui/material/MenuItem';
 import { useState } from 'react';
-import { CALIBRATION_RUN_KINDS, RUN_KINDS, type Role, type Run, type RunKind } from '@kilocycle/common/types';
+import { PHASE_RUN_KINDS } from '@kilocycle/common/rules';
+import { CALIBRATION_RUN_KINDS, RUN_DATA_KINDS, RUN_KINDS, type Role, type Run, type RunDataKind, type RunKind } from '@kilocycle/common/types';
 import { FormDialog, FormSelectField, FormTextField, useZodForm } from '@/components/ui/form-dialog';
 import { ApiError } from '@/lib/api-client';
+import { DATA_KIND_CHOICES } from '@/utils/data-kind';
 import { openRunSchema, useOpenRun } from '../api/open-run';
 import { RUN_KIND_LABELS } from './run-labels';
 
@@ -50,7 +52,7 @@ export function preselectedStandard(
 }
 
 /**
- * "Open run": range, kind, bench and standard. The bench's default standard is pre-selected; an
+ * "Open run": range, kind (with, for a stability run, what its readings hold: frequency or phase), bench and standard. The bench's default standard is pre-selected; an
  * as-found or as-left run must have one (no "None" for those kinds). A lapsed standard is refused
  * unless a lead gives a written reason.
  */
@@ -59,6 +61,7 @@ export function OpenRunDialog({ jobId, role, ranges, benches, standards, onOpene
   const blank = () => ({
     rangeId: ranges[0]?.value ?? '',
     kind: kinds[0] ?? 'as_found',
+    dataKind: 'frequency' as RunDataKind,
     benchId: '',
     standardId: preselectedStandard(benches, '', standards)?.id ?? '',
     supplyVoltage: '',
@@ -177,6 +180,16 @@ export function OpenRunDialog({ jobId, role, ranges, benches, standards, onOpene
             slotProps={{ input: { endAdornment: <InputAdornment position="end">V</InputAdornment> }, htmlInput: { inputMode: 'decimal' } }}
           />
         </Box>
+        {PHASE_RUN_KINDS.includes(kind) && (
+          <FormSelectField
+            control={form.control}
+            name="dataKind"
+            label="Data"
+            required
+            helperText="What the readings hold; a run keeps one kind"
+            options={RUN_DATA_KINDS.map((k) => ({ value: k, label: DATA_KIND_CHOICES[k] }))}
+          />
+        )}
         <FormSelectField
           control={form.control}
           name="standardId"

@@ -4,7 +4,7 @@ import Link from '@mui/material/Link';
 import Typography from '@mui/material/Typography';
 import { useState, type ReactNode } from 'react';
 import { Link as RouterLink } from 'react-router-dom';
-import { OPEN_JOB_STATUSES } from '@kilocycle/common/rules';
+import { OPEN_JOB_STATUSES, PHASE_RUN_KINDS } from '@kilocycle/common/rules';
 import type { Run } from '@kilocycle/common/types';
 import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 import { Num } from '@/components/ui/num';
@@ -14,7 +14,7 @@ import { formatDateTime } from '@/utils/format';
 import { useUpdateRun } from '../api/update-run';
 import { CorrectRunDialog } from './correct-run-dialog';
 import { RunNotes } from './run-notes';
-import { RUN_KIND_LABELS, RunKindChip, RunStatusChip } from './run-labels';
+import { RUN_KIND_LABELS, RunDataKindChip, RunKindChip, RunStatusChip } from './run-labels';
 
 type RunHeaderProps = { run: Run; canWrite: boolean; extra?: ReactNode };
 
@@ -34,6 +34,7 @@ export function RunHeader({ run, canWrite, extra }: RunHeaderProps) {
           {RUN_KIND_LABELS[run.kind]} run <Num>#{run.id}</Num>
         </Typography>
         <RunKindChip kind={run.kind} />
+        {PHASE_RUN_KINDS.includes(run.kind) && <RunDataKindChip dataKind={run.dataKind ?? 'frequency'} />}
         <RunStatusChip status={run.status} />
         <Box sx={{ flex: 1 }} />
         {extra}

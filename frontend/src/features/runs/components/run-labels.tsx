@@ -1,5 +1,6 @@
 import Chip from '@mui/material/Chip';
-import type { RunKind, RunStatus } from '@kilocycle/common/types';
+import type { RunDataKind, RunKind, RunStatus } from '@kilocycle/common/types';
+import { DATA_KIND_LABELS } from '@/utils/data-kind';
 
 export const RUN_KIND_LABELS: Record<RunKind, string> = {
   as_found: 'As found',
@@ -30,6 +31,20 @@ export function RunStatusChip({ status }: { status: RunStatus }) {
       color={status === 'open' ? 'success' : 'default'}
       variant={status === 'open' ? 'filled' : 'outlined'}
       label={status === 'open' ? 'Open' : 'Closed'}
+      sx={{ height: 22, fontSize: '0.75rem' }}
+    />
+  );
+}
+
+/** What a stability run's readings hold: "Phase data (time interval, s)" or "Frequency data (Hz)". */
+export function RunDataKindChip({ dataKind }: { dataKind: RunDataKind }) {
+  return (
+    <Chip
+      size="small"
+      variant="outlined"
+      color={dataKind === 'phase' ? 'info' : 'default'}
+      label={DATA_KIND_LABELS[dataKind]}
+      data-testid="run-data-kind"
       sx={{ height: 22, fontSize: '0.75rem' }}
     />
   );

@@ -18,35 +18,37 @@ import { useTheme } from '@mui/material/styles';
 import { ChartsAxis } from '@mui/x-charts/ChartsAxis';
 import { ChartsDataProvider } from '@mui/x-charts/ChartsDataProvider';
 import { ChartsGrid } from '@mui/x-charts/ChartsGrid';
-import { ChartsLegend } from '@mui/x-charts/ChartsLegend';
 import { ChartsSurface } from '@mui/x-charts/ChartsSurface';
 import { ChartsTooltip } from '@mui/x-charts/ChartsTooltip';
 import { ChartsWrapper } from '@mui/x-charts/ChartsWrapper';
-import { LinePlot, MarkPlot } from '@mui/x-charts/LineChart';
+import { LinePlot } from '@mui/x-charts/LineChart';
 import { useState } from 'react';
 import {
   STABILITY_DEVIATION_NAMES,
   STABILITY_DEVIATION_SHORT,
   STABILITY_DEVIATIONS,
+  type AnalysisSeries,
   type FlaggedReading,
+  type RunDataKind,
   type StabilityDeviation,
   type StabilityDriftChoice,
   type StabilityFactorSpacing,
   type StabilityGapChoice,
   type StabilityRunAnalysis,
 } from '@kilocycle/common/types';
-import { ConfidenceBars } from '@/components/charts/confidence-bars';
 import { HIDE_ON_PHONE, PhoneSecondLine } from '@/components/ui/phone-columns';
 import { Num } from '@/components/ui/num';
 import { saveText } from '@/lib/file-transfer';
 import { MONO_FONT } from '@/lib/theme';
+import { yAxisWidth } from '@/utils/chart-layout';
+import { DATA_KIND_LABELS, formatSeconds, valueHeading } from '@/utils/data-kind';
 import { formatDuration, formatHzTo, formatNumber } from '@/utils/frequency';
-import { formatAxisNumber, logTicks } from '@/utils/log-axis';
+import { formatAxisNumber } from '@/utils/log-axis';
 import { formatCount } from '@/utils/measurement';
 import { dataWords, deviationCsv } from '../utils/deviation-csv';
 import { slopeGuideLines } from '../utils/slope-guides';
+import { DeviationChart } from './deviation-chart';
 import { Figure, Figures } from './figures';
-import { SlopeGuides } from './slope-guides';
 
 const tickStyle = { fontFamily: MONO_FONT, fontSize: 11 };
 
@@ -72,8 +74,68 @@ const NOISE_NAMES: Record<string, string> = {
   random_walk_fm: 'Random-walk FM',
 };
 const METHOD_NAMES: Record<string, string> = { lag1_acf: 'lag-1 autocorrelation', b1_ratio: 'B1 ratio' };
-/** TDEV is in seconds, the others are ratios: the chart plots the ratios, the table and CSV carry all five. */
+/** TDEV is in seconds, the others are ratios: one chart plots the ratios, TDEV has its own; the table and CSV carry all five. */
 const CHARTED: readonly StabilityDeviation[] = ['adev', 'mdev', 'hdev', 'totdev'];
+const TDEV: readonly StabilityDeviation[] = ['tdev'];
+
+/** A reading's value as stored, in the run's terms: a frequency, or a time interval in seconds. */
+function formatValue(value: number, dataKind: RunDataKind): string {
+  return dataKind === 'phase' ? `${formatSeconds(value)} s` : formatHzTo(value, 0.0001);
+}
+
+/** The analysed readings against time (downsampled by the server): frequency in Hz, or time interval in s for phase data. */
+function SeriesChart({ series, dataKind, skipAnimation }: { series: AnalysisSeries; dataKind: RunDataKind; skipAnimation?: boolean }) {
+  const theme = useTheme();
+  const heading = dataKind === 'phase' ? 'Time interval (s)' : 'Frequency (Hz)';
+  if (series.t.length === 0) return <Box sx={{ height: 240, display: 'grid', placeItems: 'center', color: 'text.secondary' }}>No readings to draw.</Box>;
+  // Minutes once the record runs past five.
+  const perUnit = (series.t[series.t.length - 1] ?? 0) > 300 ? 60 : 1;
+  const finite = series.frequency.filter((v) => Number.isFinite(v));
+  const span = finite.length ? Math.max(...finite) - Math.min(...finite) : 0;
+  // Enough decimals to tell the ticks apart: a stable oscillator's frequency moves in the fourth decimal of a hertz.
+  const decimals = span > 0 ? Math.min(6, Math.max(0, Math.ceil(-Math.log10(span / 5)))) : 0;
+  const tick = (v: number) => (dataKind === 'phase' ? formatSeconds(v, 3) : formatNumber(v, decimals));
+  return (
+    <Box role="img" aria-label={`${heading} against time, ${formatCount(series.t.length)} points`} data-testid="series-chart">
+      <ChartsDataProvider
+        height={260}
+        skipAnimation={skipAnimation}
+        margin={{ top: 8, right: 16, bottom: 8, left: 8 }}
+        series={[
+          {
+            type: 'line',
+            id: 'readings',
+            label: heading,
+            data: series.frequency,
+            color: theme.palette.primary.main,
+            showMark: false,
+            valueFormatter: (v: number | null) => (v === null ? '' : formatValue(v, dataKind)),
+          },
+        ]}
+        xAxis={[
+          {
+            id: 't',
+            scaleType: 'linear',
+            data: series.t.map((t) => t / perUnit),
+            label: `Time (${perUnit === 60 ? 'min' : 's'})`,
+            height: 50,
+            tickLabelStyle: tickStyle,
+          },
+        ]}
+        yAxis={[{ id: 'value', label: heading, width: yAxisWidth(finite, tick), tickLabelStyle: tickStyle, valueFormatter: (v: number) => tick(v) }]}
+      >
+        <ChartsWrapper>
+          <ChartsSurface>
+            <ChartsGrid horizontal />
+            <LinePlot />
+            <ChartsAxis />
+          </ChartsSurface>
+          <ChartsTooltip trigger="axis" />
+        </ChartsWrapper>
+      </ChartsDataProvider>
+    </Box>
+  );
+}
 
 type StabilityRow = StabilityRunAnalysis['toolkit']['deviations'][number];
 
@@ -124,29 +186,16 @@ export function StabilityView({
   };
   const shownDeviations = CHARTED.filter((d) => ticked.includes(d));
   const taus = rows.map((r) => r.tau);
-  const values = shownDeviations.flatMap((d) => rows.flatMap((r) => (r[d] && r[d].deviation > 0 ? [r[d].deviation, r[d].ciLow, r[d].ciHigh] : [])));
-  const positive = values.filter((v) => v > 0 && Number.isFinite(v));
-  const yMin = positive.length ? Math.min(...positive) / 1.5 : undefined;
-  const yMax = positive.length ? Math.max(...positive) * 1.5 : undefined;
-  // Decades, with 2 and 5 between them where there is room: never every octave, whose labels collide.
-  const yTicks = yMin !== undefined && yMax !== undefined ? logTicks(yMin, yMax, 8) : [];
-  const xTicks = taus.length ? logTicks(taus[0]!, taus[taus.length - 1]!, 7) : [];
   const anchorDeviation = shownDeviations.find((d) => rows[0]?.[d]);
   const anchor = anchorDeviation && rows[0] ? { tau: rows[0].tau, sigma: rows[0][anchorDeviation]!.deviation } : null;
   const guides = anchor && taus.length > 1 && anchor.sigma > 0 ? slopeGuideLines(anchor, taus[0]!, taus[taus.length - 1]!) : [];
   const which = dataWords(toolkit);
   const drifted = toolkit.drift?.removed ? 'with the drift removed' : 'as recorded';
-
-  const series = shownDeviations.map((d) => ({
-    type: 'line' as const,
-    id: d,
-    label: `${STABILITY_DEVIATION_SHORT[d]} (95 % interval)`,
-    data: rows.map((r) => (r[d] && r[d].deviation > 0 ? r[d].deviation : null)),
-    color: colors[d],
-    showMark: true,
-    curve: 'linear' as const,
-    valueFormatter: (v: number | null) => formatDeviation(v),
-  }));
+  const dataKind = toolkit.dataKind;
+  const phase = dataKind === 'phase';
+  const hasTdev = rows.some((r) => r.tdev && r.tdev.deviation > 0);
+  const description = `Computed from ${which}. ${toolkit.conversion}`;
+  const file = fileTitle ?? `run-${analysis.runId}`;
   const change = (next: Partial<StabilityOptions>) => onOptionsChange?.({ ...options, ...next });
   const gaps = analysis.gaps;
   const segment = toolkit.segment;
@@ -174,10 +223,14 @@ export function StabilityView({
           exclusive
           value={options.gaps}
           onChange={(_e, value: StabilityGapChoice | null) => value && change({ gaps: value })}
-          aria-label="Gaps: Longest segment / As if continuous"
+          aria-label={phase ? 'Gaps: Longest segment / As if continuous / Fill gaps (phase data only)' : 'Gaps: Longest segment / As if continuous'}
         >
           <ToggleButton value="longest">Longest segment</ToggleButton>
-          <ToggleButton value="continuous">As if continuous</ToggleButton>
+          {/* Phase jumps across a gap: the server refuses to run phase data across one as if it were not there. */}
+          <ToggleButton value="continuous" disabled={phase && gaps.gaps.length > 0}>
+            As if continuous
+          </ToggleButton>
+          {phase && <ToggleButton value="fill">Fill gaps (phase data only)</ToggleButton>}
         </ToggleButtonGroup>
       </Paper>
 
@@ -185,8 +238,11 @@ export function StabilityView({
         <Typography variant="h3" component="h2" sx={{ mb: 0.5 }}>
           Deviations {drifted}
         </Typography>
-        <Typography variant="body2" color="text.secondary" sx={{ mb: 1 }} data-testid="chart-data">
+        <Typography variant="body2" color="text.secondary" data-testid="chart-data">
           Computed from {which}. Dashed lines: slopes of the noise types.
+        </Typography>
+        <Typography variant="caption" color="text.secondary" component="p" sx={{ mb: 1 }} data-testid="conversion">
+          {toolkit.conversion}
         </Typography>
         <FormGroup row role="group" aria-label="Deviations on the chart">
           {CHARTED.map((d) => (
@@ -205,70 +261,28 @@ export function StabilityView({
           ))}
         </FormGroup>
         <Typography variant="caption" color="text.secondary" component="p">
-          TDEV is in seconds, so it is in the table and the CSV rather than on this chart.
+          TDEV is in seconds, so it has its own chart below.
         </Typography>
-        {series.length === 0 || rows.length === 0 ? (
+        {shownDeviations.length === 0 || rows.length === 0 ? (
           <Box sx={{ height: 360, display: 'grid', placeItems: 'center', color: 'text.secondary' }}>
             {rows.length === 0 ? 'Not enough readings for one averaging time.' : 'Tick a deviation to plot it.'}
           </Box>
         ) : (
-          <Box
-            role="img"
-            aria-label={`Deviations ${drifted} at ${rows.length} averaging times: ${shownDeviations.map((d) => STABILITY_DEVIATION_SHORT[d]).join(', ')}`}
-            data-testid="adev-chart"
-          >
-            <ChartsDataProvider
-              height={400}
-              series={series}
-              skipAnimation={skipAnimation}
-              margin={{ top: 8, right: 20, bottom: 8, left: 8 }}
-              xAxis={[
-                {
-                  id: 'tau',
-                  scaleType: 'log',
-                  data: taus,
-                  label: 'Averaging time τ (s)',
-                  height: 50,
-                  tickInterval: xTicks.length >= 2 ? xTicks : 'auto',
-                  tickLabelStyle: tickStyle,
-                  valueFormatter: (v: number) => formatAxisNumber(v),
-                },
-              ]}
-              yAxis={[
-                {
-                  id: 'sigma',
-                  scaleType: 'log',
-                  label: 'σ(τ)',
-                  width: 88,
-                  min: yMin,
-                  max: yMax,
-                  tickInterval: yTicks.length >= 2 ? yTicks : 'auto',
-                  tickLabelStyle: tickStyle,
-                  valueFormatter: (v: number, context) => (context.location === 'tick' ? formatAxisNumber(v) : formatDeviation(v)),
-                },
-              ]}
-            >
-              <ChartsWrapper legendPosition={{ vertical: 'top', horizontal: 'end' }}>
-                <ChartsLegend />
-                <ChartsSurface>
-                  <ChartsGrid horizontal vertical />
-                  <SlopeGuides lines={guides} color={theme.palette.text.secondary} />
-                  <LinePlot />
-                  {shownDeviations.map((d) => (
-                    <ConfidenceBars
-                      key={d}
-                      testId={`${d}-confidence-bars`}
-                      bars={rows.flatMap((r) => (r[d] && r[d].deviation > 0 ? [{ x: r.tau, low: r[d].ciLow, high: r[d].ciHigh }] : []))}
-                      color={colors[d]}
-                    />
-                  ))}
-                  <MarkPlot />
-                  <ChartsAxis />
-                </ChartsSurface>
-                <ChartsTooltip trigger="axis" />
-              </ChartsWrapper>
-            </ChartsDataProvider>
-          </Box>
+          <DeviationChart
+            rows={rows}
+            deviations={shownDeviations}
+            colors={colors}
+            yLabel="σ(τ)"
+            format={(v) => formatDeviation(v)}
+            guides={guides}
+            title={`Deviations ${drifted}`}
+            ariaLabel={`Deviations ${drifted} at ${rows.length} averaging times: ${shownDeviations.map((d) => STABILITY_DEVIATION_SHORT[d]).join(', ')}`}
+            description={description}
+            quantity="σ(τ), dimensionless"
+            fileName={`${file}-deviations`}
+            testId="adev-chart"
+            skipAnimation={skipAnimation}
+          />
         )}
       </Paper>
 
@@ -279,10 +293,20 @@ export function StabilityView({
         <Figures>
           <Figure label="Readings used" value={formatCount(analysis.usedCount)} detail={`${formatCount(analysis.excludedCount)} excluded`} />
           <Figure label="Basic interval τ0" value={`${formatNumber(analysis.tau0, analysis.tau0 < 1 ? 3 : 1)} s`} />
-          <Figure label="Reference f_ref" value={formatHzTo(analysis.referenceHz, 0.0001)} />
+          <Figure label="Data" value={phase ? 'Phase' : 'Frequency'} detail={DATA_KIND_LABELS[dataKind]} testId="figure-data" />
+          {analysis.referenceHz === null ? (
+            <Figure
+              label="Reference f_ref"
+              value="—"
+              detail="not needed: phase readings are already time error against the counter’s reference"
+              testId="reference"
+            />
+          ) : (
+            <Figure label="Reference f_ref" value={formatHzTo(analysis.referenceHz, 0.0001)} testId="reference" />
+          )}
           <Figure label="σy at τ0" value={formatDeviation(rows[0]?.adev?.deviation)} />
           <Figure
-            label="Frequency drift"
+            label="Drift, least squares"
             testId="drift"
             value={drift ? `${formatDeviation(drift.perSecond)} /s` : '—'}
             detail={
@@ -291,7 +315,28 @@ export function StabilityView({
                 : undefined
             }
           />
+          {drift?.phaseEstimates && (
+            <>
+              <Figure
+                label="Drift, three-point"
+                testId="drift-three-point"
+                value={`${formatDeviation(drift.phaseEstimates.threePoint.perSecond)} /s`}
+                detail="three-point fit on the phase · no standard error"
+              />
+              <Figure
+                label="Drift, bisection"
+                testId="drift-bisection"
+                value={`${formatDeviation(drift.phaseEstimates.bisection.perSecond)} /s`}
+                detail="the first and second halves compared"
+              />
+            </>
+          )}
         </Figures>
+        {drift?.phaseEstimates && (
+          <Typography variant="caption" color="text.secondary" component="p" sx={{ mt: 0.5 }}>
+            Three estimates of the same fractional frequency drift from the same readings; the least-squares line is the one removed when asked.
+          </Typography>
+        )}
         {drift?.spansGap && (
           <Alert severity="warning" sx={{ mt: 1.5 }} data-testid="drift-spans-gap">
             The drift window spans a gap: the line takes the readings as evenly spaced, so the rate is doubtful.
@@ -318,7 +363,10 @@ export function StabilityView({
                   {gaps.gaps.length > 5 && ' …'}.{' '}
                   {segment.choice === 'longest'
                     ? 'By default only the longest continuous segment is analysed, so no deviation runs across a gap.'
-                    : 'Every reading is analysed as if the record were continuous: deviations at long τ mix readings either side of a gap.'}
+                    : segment.choice === 'fill'
+                      ? 'Each gap is bridged by a straight line in phase, and every reading is analysed.'
+                      : 'Every reading is analysed as if the record were continuous: deviations at long τ mix readings either side of a gap.'}
+                  {phase && segment.choice === 'longest' && ' Fill gaps (phase data only) bridges them instead.'}
                 </>
               )}
               {gaps.irregular && ' The sampling is irregular.'}
@@ -327,7 +375,49 @@ export function StabilityView({
           <Typography variant="body2" sx={{ mt: 1 }} data-testid="segment">
             Analysed: {segment.statement}.
           </Typography>
+          {segment.filled > 0 && (
+            <Typography variant="body2" sx={{ mt: 0.5 }} data-testid="filled">
+              <Num>{formatCount(segment.filled)}</Num> point{segment.filled === 1 ? '' : 's'} filled by straight lines in phase.
+            </Typography>
+          )}
         </Box>
+      </Paper>
+
+      <Paper variant="outlined" sx={{ p: 2, minWidth: 0 }}>
+        <Typography variant="h3" component="h2" sx={{ mb: 0.5 }}>
+          Time deviation {drifted}
+        </Typography>
+        <Typography variant="body2" color="text.secondary" sx={{ mb: 1 }} data-testid="tdev-data">
+          TDEV σx(τ) in seconds, with its 95 % intervals. Computed from {which}.
+        </Typography>
+        {hasTdev ? (
+          <DeviationChart
+            rows={rows}
+            deviations={TDEV}
+            colors={colors}
+            yLabel="σx(τ) (s)"
+            format={(v) => (v === null ? '—' : `${formatDeviation(v)} s`)}
+            title={`Time deviation ${drifted}`}
+            ariaLabel={`Time deviation ${drifted} at ${rows.length} averaging times, in seconds`}
+            description={description}
+            quantity="TDEV σx(τ), s"
+            fileName={`${file}-tdev`}
+            testId="tdev-chart"
+            skipAnimation={skipAnimation}
+          />
+        ) : (
+          <Box sx={{ height: 200, display: 'grid', placeItems: 'center', color: 'text.secondary' }}>Not enough readings for a time deviation.</Box>
+        )}
+      </Paper>
+
+      <Paper variant="outlined" sx={{ p: 2, minWidth: 0 }}>
+        <Typography variant="h3" component="h2" sx={{ mb: 0.5 }}>
+          {phase ? 'Time interval readings' : 'Frequency readings'}
+        </Typography>
+        <Typography variant="body2" color="text.secondary" sx={{ mb: 1 }}>
+          The readings as stored ({phase ? 'time interval, s' : 'Hz'}), at most 2,000 points drawn.
+        </Typography>
+        <SeriesChart series={analysis.series} dataKind={dataKind} skipAnimation={skipAnimation} />
       </Paper>
 
       <Paper variant="outlined" sx={{ p: 2, gridColumn: '1 / -1', minWidth: 0 }}>
@@ -339,12 +429,12 @@ export function StabilityView({
                 ? 'At the averaging times asked for'
                 : 'Octave by octave'}
           </Typography>
-          <Button size="small" onClick={() => saveText(deviationCsv(toolkit), `${fileTitle ?? `run-${analysis.runId}`}-deviations.csv`)}>
+          <Button size="small" onClick={() => saveText(deviationCsv(toolkit), `${file}-deviations.csv`)}>
             Download CSV
           </Button>
         </Box>
         <Typography variant="body2" color="text.secondary" sx={{ mb: 1 }} data-testid="table-data">
-          Computed from {which}; intervals at {Math.round(toolkit.confidence * 100)} % (χ², edf for the noise type named at each τ).
+          Computed from {which}; intervals at {Math.round(toolkit.confidence * 100)} % (χ², edf for the noise type named at each τ). {toolkit.conversion}
         </Typography>
         {/* Wider than a phone: the table scrolls in its own box, which the keyboard can reach. */}
         <Box sx={{ overflowX: 'auto' }} tabIndex={0} role="region" aria-label="Deviations table (scrolls sideways on narrow screens)">
@@ -429,8 +519,10 @@ export function StabilityView({
               <TableHead>
                 <TableRow>
                   <TableCell align="right">Reading</TableCell>
-                  <TableCell align="right">Time</TableCell>
-                  <TableCell align="right">Frequency</TableCell>
+                  <TableCell align="right" sx={HIDE_ON_PHONE}>
+                    Time
+                  </TableCell>
+                  <TableCell align="right">{valueHeading(dataKind)}</TableCell>
                   {onExclude && <TableCell align="right">Action</TableCell>}
                 </TableRow>
               </TableHead>
@@ -439,12 +531,13 @@ export function StabilityView({
                   <TableRow key={reading.seq}>
                     <TableCell align="right">
                       <Num>#{reading.seq}</Num>
+                      <PhoneSecondLine parts={[formatDuration(reading.t)]} />
                     </TableCell>
-                    <TableCell align="right">
+                    <TableCell align="right" sx={HIDE_ON_PHONE}>
                       <Num>{formatDuration(reading.t)}</Num>
                     </TableCell>
                     <TableCell align="right">
-                      <Num>{formatHzTo(reading.frequency, 0.0001)}</Num>
+                      <Num>{formatValue(reading.frequency, dataKind)}</Num>
                     </TableCell>
                     {onExclude && (
                       <TableCell align="right">

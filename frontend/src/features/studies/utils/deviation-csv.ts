@@ -2,9 +2,16 @@ import { DEVIATION_CSV_COLUMNS, STABILITY_DEVIATIONS, STABILITY_DEVIATION_SHORT,
 
 /** What the deviations were computed from, in words (the chart, the table and the CSV say the same). */
 export function dataWords(toolkit: StabilityToolkit): string {
+  const data = toolkit.dataKind === 'phase' ? 'phase data (time interval, s)' : 'frequency data (Hz)';
   const drift = toolkit.drift?.removed ? 'linear frequency drift removed' : 'as recorded (drift kept)';
-  const segment = toolkit.segment.choice === 'longest' ? 'longest continuous segment' : 'every reading as if continuous';
-  return `frequency readings, ${drift}, ${segment}`;
+  const { choice, filled } = toolkit.segment;
+  const segment =
+    choice === 'longest'
+      ? 'longest continuous segment'
+      : choice === 'fill'
+        ? `gaps filled in phase (${filled} point${filled === 1 ? '' : 's'} filled)`
+        : 'every reading as if continuous';
+  return `${data}, ${drift}, ${segment}`;
 }
 
 const NOISE_METHOD: Record<string, string> = { lag1_acf: 'lag-1 autocorrelation', b1_ratio: 'B1 ratio' };

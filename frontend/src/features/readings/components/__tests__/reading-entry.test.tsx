@@ -238,3 +238,40 @@ describe('<ReadingEntry> with the counter filling the reading', () => {
     expect((screen.getByLabelText('Dial (kHz)') as HTMLInputElement).value).toBe('1900');
   });
 });
+
+describe('<ReadingEntry> in a phase (time-interval) run', () => {
+  it('should take the time interval in seconds, with no dial, and send it as timeInterval', async () => {
+    signInAs({ role: 'engineer' });
+    const stored = createReading({ seq: 3, t: 2, dial: null, frequency: 1.25e-8 });
+    const { requests } = mockFetch([{ method: 'POST', path: '/api/runs/9/readings', status: 201, body: createAppendAnswer([stored]) }]);
+    const onSaved = vi.fn();
+    renderWithApp(<ReadingEntry dataKind="phase" runId={9} onSaved={onSaved} />, { path: '/runs/9' });
+
+    expect(screen.queryByLabelText(/^Dial/)).toBeNull();
+    expect(screen.queryByLabelText('Counter')).toBeNull();
+    const value = screen.getByLabelText('Time interval (s)') as HTMLInputElement;
+    fireEvent.change(value, { target: { value: '1.25e-8' } });
+    expect(screen.getByTestId('time-interval-understood').textContent).toBe('= 1.250 00×10⁻⁸ s');
+    fireEvent.submit(screen.getByRole('form', { name: 'Reading entry' }));
+
+    await waitFor(() => expect(value.value).toBe(''));
+    expect(requests[0]!.body).toEqual({ readings: [{ timeInterval: '1.25e-8' }] });
+    expect(screen.getByTestId('last-saved').textContent).toBe('Saved #3: 1.250 00×10⁻⁸ s at 2.0 s');
+    expect(onSaved).toHaveBeenCalledOnce();
+  });
+
+  it("should keep a refused time interval with the server's reason", async () => {
+    signInAs({ role: 'engineer' });
+    const refusal = 'run 9 holds phase readings (time interval, s): a frequency reading would make it a mixed run; send timeInterval';
+    mockFetch([{ method: 'POST', path: '/api/runs/9/readings', status: 400, body: { statusCode: 400, error: 'Bad Request', message: [refusal] } }]);
+    renderWithApp(<ReadingEntry dataKind="phase" runId={9} />, { path: '/runs/9' });
+
+    const value = screen.getByLabelText('Time interval (s)') as HTMLInputElement;
+    fireEvent.change(value, { target: { value: '12.5 ns' } });
+    expect(screen.getByTestId('time-interval-understood').textContent).toMatch(/^Sent as typed/);
+    fireEvent.submit(screen.getByRole('form', { name: 'Reading entry' }));
+
+    expect((await screen.findByRole('alert')).textContent).toBe(`Not saved — ${refusal}`);
+    expect(value.value).toBe('12.5 ns');
+  });
+});

@@ -26,3 +26,21 @@ describe('<ReadingsTable>', () => {
     expect(typedRow!.textContent).toContain('1 min 35 s');
   });
 });
+
+describe('<ReadingsTable> of a phase run', () => {
+  it('should head the value column Time interval (s) and show each value in seconds', async () => {
+    signInAs({ role: 'engineer' });
+    const reading = createReading({ seq: 12, t: 11, source: 'bridge', dial: null, frequency: -3.5e-9 });
+    mockFetch([{ method: 'GET', path: '/api/runs/9/readings', body: { items: [reading], total: 1, page: 1, pageSize: 50 } }]);
+    renderWithApp(<ReadingsTable runId={9} showDial={false} dataKind="phase" canExclude={false} />, { path: '/runs/9' });
+
+    const grid = screen.getByRole('grid', { name: 'Readings' });
+    await within(grid).findByText('12');
+    const headers = within(grid)
+      .getAllByRole('columnheader')
+      .map((h) => h.textContent);
+    expect(headers).toContain('Time interval (s)');
+    expect(headers).not.toContain('Frequency');
+    expect(within(grid).getByText('-3.500 00×10⁻⁹')).toBeTruthy();
+  });
+});

@@ -1,12 +1,16 @@
 import { fireEvent, screen, within } from '@testing-library/react';
-import { describe, expect, it, vi } from 'vitest';
+import { afterEach, describe, expect, it, vi } from 'vitest';
 import type { StabilityRunAnalysis } from '@kilocycle/common/types';
+import { saveBlob, saveText } from '@/lib/file-transfer';
 import { renderWithApp, signInAs } from '@/testing/test-utils';
 import { deviationCsv } from '../../utils/deviation-csv';
 import { DEFAULT_STABILITY_OPTIONS, StabilityView } from '../stability-view';
 
 // A hand-written answer: SP 1065 Table 31's printed digits at τ = 1 and 10 s (fixtures/stability), with made-up
 // terms, edf and intervals (the page only shows what the server sends), and one τ too short to name a noise type.
+vi.mock('@/lib/file-transfer', () => ({ saveText: vi.fn(), saveBlob: vi.fn(), downloadFile: vi.fn() }));
+afterEach(() => vi.clearAllMocks());
+
 const point = (deviation: number, terms: number, edf: number, ciLow: number, ciHigh: number) => ({ deviation, terms, edf, ciLow, ciHigh });
 function analysis(removed = false): StabilityRunAnalysis {
   return {
@@ -25,6 +29,7 @@ function analysis(removed = false): StabilityRunAnalysis {
     series: { t: [0, 1], frequency: [10e6, 10e6] },
     toolkit: {
       dataKind: 'frequency',
+      conversion: 'Fractional frequency y = (f − f_ref)/f_ref against the mean of the readings; phase x summed from y·τ0 for MDEV and TDEV.',
       confidence: 0.95,
       factors: { spacing: 'octaves', list: [1, 10] },
       segment: {
@@ -34,9 +39,20 @@ function analysis(removed = false): StabilityRunAnalysis {
         fromSeconds: 0,
         toSeconds: 999,
         gapCount: 0,
+        filled: 0,
         statement: 'every included reading: 1000, 0 s to 999 s, no gaps',
       },
-      drift: { method: 'linear_frequency', perSecond: 2.5e-12, standardError: 4e-13, points: 1000, fromSeconds: 0, toSeconds: 999, spansGap: false, removed },
+      drift: {
+        method: 'linear_frequency',
+        perSecond: 2.5e-12,
+        standardError: 4e-13,
+        points: 1000,
+        fromSeconds: 0,
+        toSeconds: 999,
+        spansGap: false,
+        removed,
+        phaseEstimates: null,
+      },
       deviations: [
         {
           m: 1,
@@ -130,7 +146,116 @@ describe('<StabilityView> deviations table', () => {
     // 5 deviations at τ = 1 s and 4 at 10 s (no total deviation there).
     expect(lines).toHaveLength(1 + 9);
     expect(lines[9]).toBe(
-      '10,10,TDEV,0.3563623,971,120,0.3,0.4,too short to identify,,white_fm,"frequency readings, as recorded (drift kept), longest continuous segment"',
+      '10,10,TDEV,0.3563623,971,120,0.3,0.4,too short to identify,,white_fm,"frequency data (Hz), as recorded (drift kept), longest continuous segment"',
     );
+  });
+});
+
+/** A phase run: time intervals in seconds, one gap filled in phase, the drift's phase estimates beside the line. */
+function phaseAnalysis(): StabilityRunAnalysis {
+  const base = analysis();
+  return {
+    ...base,
+    referenceHz: null,
+    gaps: { gaps: [{ index: 400, tStart: 400, tEnd: 413, missing: 12 }], irregular: false, medianInterval: 1 },
+    series: { t: [0, 1, 2], frequency: [1.2e-9, 1.3e-9, 1.1e-9] },
+    toolkit: {
+      ...base.toolkit,
+      dataKind: 'phase',
+      conversion: 'Phase data x as measured; fractional frequency y = Δx/τ0 for ADEV, HDEV and TOTDEV (SP 1065 §4).',
+      segment: {
+        ...base.toolkit.segment,
+        choice: 'fill',
+        count: 1012,
+        filled: 12,
+        gapCount: 1,
+        statement: 'every reading, 1 gap filled in phase: 1,012 points',
+      },
+      drift: { ...base.toolkit.drift!, phaseEstimates: { threePoint: { perSecond: 1.2e-12 }, bisection: { perSecond: 1.4e-12 } } },
+    },
+  };
+}
+
+describe('<StabilityView> of phase data', () => {
+  it('says the data were phase and how they were converted, and shows the points filled', () => {
+    signInAs({ role: 'engineer' });
+    renderWithApp(<StabilityView analysis={phaseAnalysis()} problem={null} skipAnimation options={{ ...DEFAULT_STABILITY_OPTIONS, gaps: 'fill' }} />);
+    expect(screen.getByTestId('conversion').textContent).toBe(
+      'Phase data x as measured; fractional frequency y = Δx/τ0 for ADEV, HDEV and TOTDEV (SP 1065 §4).',
+    );
+    expect(screen.getByTestId('chart-data').textContent).toContain('Computed from phase data (time interval, s)');
+    expect(screen.getByTestId('table-data').textContent).toContain('phase data (time interval, s)');
+    expect(screen.getByTestId('table-data').textContent).toContain('Phase data x as measured');
+    expect(screen.getByTestId('filled').textContent).toBe('12 points filled by straight lines in phase.');
+    // No reference frequency for phase data.
+    expect(screen.getByTestId('reference').textContent).toContain('not needed');
+    expect(screen.getByRole('img', { name: 'Time interval (s) against time, 3 points' })).toBeTruthy();
+  });
+
+  it('offers "Fill gaps (phase data only)" for a phase run only, and not "As if continuous" across its gaps', () => {
+    signInAs({ role: 'engineer' });
+    const onOptionsChange = vi.fn();
+    const { unmount } = renderWithApp(
+      <StabilityView analysis={analysis()} problem={null} skipAnimation options={DEFAULT_STABILITY_OPTIONS} onOptionsChange={onOptionsChange} />,
+    );
+    expect(screen.queryByRole('button', { name: 'Fill gaps (phase data only)' })).toBeNull();
+    expect(screen.getByTestId('chart-data').textContent).toContain('Computed from frequency data (Hz)');
+    unmount();
+
+    renderWithApp(
+      <StabilityView analysis={phaseAnalysis()} problem={null} skipAnimation options={DEFAULT_STABILITY_OPTIONS} onOptionsChange={onOptionsChange} />,
+    );
+    const gaps = screen.getByRole('group', { name: 'Gaps: Longest segment / As if continuous / Fill gaps (phase data only)' });
+    expect((within(gaps).getByRole('button', { name: 'As if continuous' }) as HTMLButtonElement).disabled).toBe(true);
+    fireEvent.click(within(gaps).getByRole('button', { name: 'Fill gaps (phase data only)' }));
+    expect(onOptionsChange).toHaveBeenLastCalledWith({ factors: 'octaves', drift: 'kept', gaps: 'fill' });
+  });
+
+  it("shows the drift's three-point and bisection estimates beside the least-squares line and its standard error", () => {
+    signInAs({ role: 'engineer' });
+    renderWithApp(<StabilityView analysis={phaseAnalysis()} problem={null} skipAnimation />);
+    expect(screen.getByTestId('drift').textContent).toContain('2.50×10⁻¹² /s');
+    expect(screen.getByTestId('drift').textContent).toContain('standard error 4.00×10⁻¹³ /s');
+    expect(screen.getByTestId('drift-three-point').textContent).toContain('1.20×10⁻¹² /s');
+    expect(screen.getByTestId('drift-bisection').textContent).toContain('1.40×10⁻¹² /s');
+    expect(screen.getByText('Drift, three-point')).toBeTruthy();
+    expect(screen.getByText('Drift, bisection')).toBeTruthy();
+  });
+});
+
+describe('<StabilityView> charts', () => {
+  it('draws TDEV, in seconds, on a chart of its own with its intervals', () => {
+    signInAs({ role: 'engineer' });
+    renderWithApp(<StabilityView analysis={analysis()} problem={null} skipAnimation />);
+    const tdev = screen.getByTestId('tdev-chart');
+    expect(tdev.getAttribute('aria-label')).toBe('Time deviation as recorded at 2 averaging times, in seconds');
+    expect(within(tdev).getByTestId('tdev-confidence-bars')).toBeTruthy();
+    // The dimensionless chart does not carry it.
+    expect(within(screen.getByTestId('adev-chart')).queryByTestId('tdev-confidence-bars')).toBeNull();
+  });
+
+  it('saves a chart as SVG with every point, its terms, edf and 95 % interval written into the file', () => {
+    signInAs({ role: 'engineer' });
+    renderWithApp(<StabilityView analysis={analysis()} problem={null} skipAnimation fileTitle="run-12" />);
+    fireEvent.click(screen.getByRole('button', { name: 'Save SVG: Deviations as recorded' }));
+    expect(saveText).toHaveBeenCalledOnce();
+    const [text, name, type] = vi.mocked(saveText).mock.calls[0]!;
+    expect(name).toBe('run-12-deviations.svg');
+    expect(type).toBe('image/svg+xml;charset=utf-8');
+    const file = new DOMParser().parseFromString(text, 'image/svg+xml');
+    expect(file.querySelector('parsererror')).toBeNull();
+    expect(file.querySelector('title')!.textContent).toBe('Deviations as recorded');
+    const desc = file.querySelector('desc')!.textContent!;
+    expect(desc).toContain('Computed from frequency data (Hz), as recorded (drift kept), longest continuous segment.');
+    expect(desc).toContain('ADEV at τ = 1 s (m = 1): 0.2922319; 95 % interval 0.28 to 0.31; 999 terms; edf 664.5; noise white_fm');
+    expect(desc).toContain('HDEV at τ = 10 s (m = 10): 0.09581083; 95 % interval 0.08 to 0.11; 971 terms; edf 110; noise too short to identify');
+    // ADEV and HDEV are ticked: two points each, in the metadata for a program to read.
+    const points = Array.from(file.querySelectorAll('*'))
+      .filter((e) => e.namespaceURI === 'urn:kilocycle:stability-chart' && e.localName === 'point')
+      .map((p) => ['deviation', 'tau_s', 'terms', 'edf', 'ci95_low', 'ci95_high'].map((a) => p.getAttribute(a)).join(' '));
+    expect(points).toEqual(['ADEV 1 999 664.5 0.28 0.31', 'ADEV 10 981 140.2 0.08 0.1', 'HDEV 1 998 600 0.28 0.31', 'HDEV 10 971 110 0.08 0.11']);
+    // The plot itself, as drawn, with its interval bars.
+    expect(file.querySelector('[data-testid="adev-confidence-bars"]')).not.toBeNull();
+    expect(saveBlob).not.toHaveBeenCalled();
   });
 });
