@@ -1,6 +1,6 @@
 import { Injectable, NotFoundException } from '@nestjs/common';
 import type { Response } from 'express';
-import { READINGS_CSV_COLUMNS } from '@kilocycle/common/types';
+import { readingsCsvColumns } from '@kilocycle/common/types';
 import { organizationScope, type AuthUser } from '../shared/auth-user.js';
 import { SignedRecordReader } from '../certificates/signed-record.reader.js';
 import { RangeResultsReader } from '../instruments/range-results.reader.js';
@@ -46,7 +46,7 @@ export class ExportsService {
     res.setHeader('Content-Type', 'text/csv; charset=utf-8');
     res.setHeader('Content-Disposition', attachmentDisposition(`${run.jobNumber}-run-${runId}-readings.csv`));
     res.setHeader('Cache-Control', 'private, no-store');
-    let buffer = csvLine(READINGS_CSV_COLUMNS);
+    let buffer = csvLine(readingsCsvColumns(run.dataKind));
     let gone = false;
     let connection: StreamFlow | null = null;
     // A client that leaves: keep draining the result so the connection goes back to the pool clean.

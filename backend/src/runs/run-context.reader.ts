@@ -28,7 +28,7 @@ export type RunWriteContext = {
 export type RunCounters = { readingCount: number; excludedCount: number; lastSeq: number };
 
 /** A run's place: whose it is and which job it belongs to (for scope checks and file names). */
-export type RunScope = { runId: number; organizationId: number; jobNumber: string };
+export type RunScope = { runId: number; organizationId: number; jobNumber: string; dataKind: RunDataKind };
 
 /**
  * A run as the modules that record into it (readings, ingest, imports, live, exports) need it, read by the
@@ -101,9 +101,9 @@ export class RunContextReader {
   }
 
   async scope(runId: number): Promise<RunScope | null> {
-    const [run] = await this.dataSource.query('SELECT id, job_id FROM runs WHERE id = ?', [runId]);
+    const [run] = await this.dataSource.query('SELECT id, job_id, data_kind FROM runs WHERE id = ?', [runId]);
     const job = run ? await this.jobs.scope(Number(run.job_id)) : null;
-    return job ? { runId: Number(run.id), organizationId: job.organizationId, jobNumber: job.number } : null;
+    return job ? { runId: Number(run.id), organizationId: job.organizationId, jobNumber: job.number, dataKind: run.data_kind as RunDataKind } : null;
   }
 
   /** The newest calibration runs (as-found, as-left) on a range, newest first: at most `limit` ids. */

@@ -101,7 +101,12 @@ describe('phase (time-interval) stability runs (e2e, MariaDB)', () => {
       .send({ readings: [{ t: 0, timeInterval: '12.5 ns' }] });
     expect(typed.status).toBe(201);
     const [row] = await t.dataSource.query('SELECT frequency_hz AS value FROM readings WHERE run_id = ?', [runId]);
-    expect(Number(row.value)).toBeCloseTo(12.5e-9, 20);
+    expect(Number(row.value)).toBe(1.25e-8);
+    // The readings export names the value column for what it holds.
+    const csv = await t.http.get(`/api/runs/${runId}/readings.csv`).set(as('tech'));
+    expect(csv.status).toBe(200);
+    expect(csv.text.split(/\r?\n/)[0]).toBe('seq,t_s,dial,time_interval_s,aux,source,received_at,excluded,excluded_reason');
+    expect(csv.text.split(/\r?\n/)[1]).toMatch(/^1,0,,1\.25e-8,/);
   });
 
   it('imports the SP 1065 suite as phase (time interval, ns) and gives its published ADEV, HDEV, TDEV and TOTDEV, saying it was computed from phase', async () => {

@@ -259,8 +259,12 @@ export type ImportProgress = {
 
 // ---- Exports ----
 
-/** Columns of GET /api/runs/:id/readings.csv, in order. */
+/** Columns of GET /api/runs/:id/readings.csv, in order; a phase run's value column is `time_interval_s` instead of `frequency_hz`. */
 export const READINGS_CSV_COLUMNS = ['seq', 't_s', 'dial', 'frequency_hz', 'aux', 'source', 'received_at', 'excluded', 'excluded_reason'] as const;
+/** The readings CSV's columns for a run holding this kind of data. */
+export function readingsCsvColumns(dataKind: RunDataKind): readonly string[] {
+  return dataKind === 'phase' ? READINGS_CSV_COLUMNS.map((c) => (c === 'frequency_hz' ? 'time_interval_s' : c)) : READINGS_CSV_COLUMNS;
+}
 /** Columns of GET /api/jobs/:id/results.csv, in order: one line per calibration run and dial setting. */
 export const RESULTS_CSV_COLUMNS = [
   'job',
