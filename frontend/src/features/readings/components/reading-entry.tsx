@@ -8,7 +8,7 @@ import TextField from '@mui/material/TextField';
 import Typography from '@mui/material/Typography';
 import { useEffect, useRef, useState, type FormEvent, type KeyboardEvent } from 'react';
 import { RUN_DATA_KIND_NAMES, type AppendReadingsResponse, type CounterCapture, type DialUnit } from '@kilocycle/common/types';
-import { checkFrequencySpan, parseFrequency, parseNumber } from '@kilocycle/common/units';
+import { checkFrequencySpan, parseFrequency, parseNumber, parseTimeInterval } from '@kilocycle/common/units';
 import { Num, numberSx } from '@/components/ui/num';
 import { ApiError } from '@/lib/api-client';
 import { formatSeconds } from '@/utils/data-kind';
@@ -494,16 +494,13 @@ function FrequencyEntry({ runId, dialUnit, freqMinHz, freqMaxHz, refusal, onSave
 const TIME_INTERVAL = RUN_DATA_KIND_NAMES.phase;
 const TIME_INTERVAL_LABEL = `${TIME_INTERVAL.value} (${TIME_INTERVAL.unit})`;
 
-/**
- * What a bare number will be stored as (seconds). Text with a unit (`12.5 ns`) is read by the server, which
- * answers with the value it stored; the page does not guess at units.
- */
+/** What the typed time interval will be stored as (seconds), read by common's parseTimeInterval as the server reads it. */
 function understandTimeInterval(text: string): string {
   if (!text.trim()) return 'Understood as: —';
   try {
-    return `= ${formatSeconds(parseNumber(text))} s`;
-  } catch {
-    return 'Sent as typed: the server reads the unit (s, ms, µs, ns, ps)';
+    return `= ${formatSeconds(parseTimeInterval(text))} s`;
+  } catch (error) {
+    return error instanceof Error ? error.message : 'not a time interval';
   }
 }
 

@@ -268,7 +268,11 @@ describe('<ReadingEntry> in a phase (time-interval) run', () => {
 
     const value = screen.getByLabelText('Time interval (s)') as HTMLInputElement;
     fireEvent.change(value, { target: { value: '12.5 ns' } });
-    expect(screen.getByTestId('time-interval-understood').textContent).toMatch(/^Sent as typed/);
+    // 12.5 ns = 1.25 × 10⁻⁸ s (SI prefix nano).
+    expect(screen.getByTestId('time-interval-understood').textContent).toBe('= 1.250 00×10⁻⁸ s');
+    fireEvent.change(value, { target: { value: '12.5 MHz' } });
+    expect(screen.getByTestId('time-interval-understood').textContent).toBe("unknown unit 'MHz' in '12.5 MHz' (use s, ms, µs, ns or ps)");
+    fireEvent.change(value, { target: { value: '12.5 ns' } });
     fireEvent.submit(screen.getByRole('form', { name: 'Reading entry' }));
 
     expect((await screen.findByRole('alert')).textContent).toBe(`Not saved — ${refusal}`);
