@@ -339,7 +339,9 @@ export function StabilityView({
         )}
         {drift?.spansGap && (
           <Alert severity="warning" sx={{ mt: 1.5 }} data-testid="drift-spans-gap">
-            The drift window spans a gap: the line takes the readings as evenly spaced, so the rate is doubtful.
+            {segment.choice === 'fill'
+              ? 'The drift window spans a gap: the line runs through the points filled there, which carry no measurement, so the rate leans on them.'
+              : 'The drift window spans a gap: the line takes the readings as evenly spaced, so the rate is doubtful.'}
           </Alert>
         )}
         <Box sx={{ mt: 1.5 }} data-testid="gap-report">
