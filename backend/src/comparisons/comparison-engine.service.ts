@@ -444,21 +444,38 @@ function stabilityDriftEstimate(ts: Float64Array, fs: Float64Array, estimates: E
   }
 }
 
-/** Allan deviation over the settled part at its octaves and at 1, 10 and 100 s (throws a MetrologyError when it has no interval). */
+/**
+ * Allan deviation over the settled part at its octaves and at 1, 10 and 100 s (throws a MetrologyError when it has no
+ * interval), over the longest continuous segment when the settled part has gaps: an Allan deviation across a gap
+ * would difference readings either side of it as if they were neighbours (NIST SP 1065 on gaps).
+ */
 function adevEstimates(ts: Float64Array, fs: Float64Array, estimates: Estimates, problems: Problems): NonNullable<ComparedRun['stability']> {
   const tau0 = detectGaps(ts, 1).medianInterval;
   if (!(tau0 > 0)) throw new MetrologyError('not_sorted', 'the settled readings share one time stamp, so they have no interval');
   const gaps = detectGaps(ts, tau0);
-  const referenceHz = sampleMean(fs);
-  const y = fractionalFrequency(fs, referenceHz);
+  const { start, end, leftOut } = gaps.gaps.length > 0 ? longestContinuousSegment(fs, gaps.gaps) : { start: 0, end: fs.length, leftOut: 0 };
+  const used = fs.subarray(start, end);
+  const referenceHz = sampleMean(used);
+  const y = fractionalFrequency(used, referenceHz);
   const options = { confidence: COMPARISON_CONFIDENCE };
-  const stability = { tau0, fromSeconds: ts[0]!, referenceHz, gapCount: gaps.gaps.length, irregular: gaps.irregular, adev: overlappingAdev(y, tau0, options) };
+  const stability = {
+    tau0,
+    fromSeconds: ts[start]!,
+    toSeconds: ts[end - 1]!,
+    count: end - start,
+    leftOut,
+    referenceHz,
+    gapCount: gaps.gaps.length,
+    irregular: gaps.irregular,
+    adev: overlappingAdev(y, tau0, options),
+  };
   const at = overlappingAdevAt(y, tau0, COMPARISON_ADEV_TAUS, options);
   for (const quantity of ADEV_QUANTITIES) {
     const tau = ADEV_QUANTITY_TAU[quantity]!;
     const point = at[COMPARISON_ADEV_TAUS.indexOf(tau as (typeof COMPARISON_ADEV_TAUS)[number])];
     if (!point) {
-      problems[quantity] = `the readings (every ${round(tau0)} s, ${round(ts[ts.length - 1]! - ts[0]!)} s settled) do not give τ = ${tau} s`;
+      problems[quantity] =
+        `the readings (every ${round(tau0)} s, ${round(ts[end - 1]! - ts[start]!)} s ${leftOut > 0 ? 'without a gap' : 'settled'}) do not give τ = ${tau} s`;
       continue;
     }
     estimates[quantity] = { ...adevEstimate(point), low: point.ciLow, high: point.ciHigh };

@@ -110,8 +110,22 @@ export type ComparedRun = {
   settledFromSeconds: number | null;
   /** The windows of the settled part that the settled drift rate is the mean of. */
   driftWindows: DriftWindow[];
-  /** Overlapping Allan deviation of the settled part at octaves (95 % χ² intervals), for the log-log plot. */
-  stability: { tau0: number; fromSeconds: number; referenceHz: number; gapCount: number; irregular: boolean; adev: StabilityPoint[] } | null;
+  /**
+   * Overlapping Allan deviation of the settled part at octaves (95 % χ² intervals), for the log-log plot: over its
+   * longest continuous segment when it has gaps (as the run's own analysis by default), `count` readings analysed,
+   * `leftOut` beyond the gaps, from `fromSeconds` to `toSeconds`.
+   */
+  stability: {
+    tau0: number;
+    fromSeconds: number;
+    toSeconds: number;
+    count: number;
+    leftOut: number;
+    referenceHz: number;
+    gapCount: number;
+    irregular: boolean;
+    adev: StabilityPoint[];
+  } | null;
   stabilityProblem: string | null;
 };
 

@@ -89,6 +89,15 @@ export function AdevChart({ result, fileTitle }: { result: ComparisonResult; fil
           ))}
         </LineChart>
       )}
+      {result.runs
+        .filter((run) => run.stability && run.stability.leftOut > 0)
+        .map((run) => (
+          <Typography key={`segment-${run.runId}`} variant="caption" color="text.secondary" component="p" data-testid={`adev-segment-${run.runId}`}>
+            {run.label}: the longest continuous segment, {run.stability!.count} readings from {formatAxisNumber(run.stability!.fromSeconds)} s to{' '}
+            {formatAxisNumber(run.stability!.toSeconds)} s; {run.stability!.leftOut} beyond its {run.stability!.gapCount} gap
+            {run.stability!.gapCount === 1 ? '' : 's'} left out
+          </Typography>
+        ))}
       {missing.map((run) => (
         <Typography key={run.runId} variant="caption" color="text.secondary" component="p">
           {run.label}: {run.stabilityProblem ?? 'no Allan deviation'}
