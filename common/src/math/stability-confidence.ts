@@ -11,7 +11,7 @@ export type NoiseType = 'white_pm' | 'flicker_pm' | 'white_fm' | 'flicker_fm' | 
  * - white PM: (N + 1)(N − 2m) / (2(N − m))
  * - flicker PM: exp(√(ln((N − 1)/(2m)) · ln((2m + 1)(N − 1)/4)))
  * - white FM: (3(N − 1)/(2m) − 2(N − 2)/N) · 4m²/(4m² + 5)
- * - flicker FM: 2(N − 2)/(2.3N − 4.9) for m = 1, 5N²/(4m(N + 3m)) for m ≥ 2
+ * - flicker FM: 2(N − 2)²/(2.3N − 4.9) for m = 1, 5N²/(4m(N + 3m)) for m ≥ 2
  * - random-walk FM: (N − 2)/m · ((N − 1)² − 3m(N − 1) + 4m²)/(N − 3)²
  * The result is kept at 1 or more (the formulas can fall below that at the last octave).
  *
@@ -39,7 +39,7 @@ export function adevEdf(phasePoints: number, m: number, noise: NoiseType): numbe
       edf = ((3 * (N - 1)) / (2 * m) - (2 * (N - 2)) / N) * ((4 * m * m) / (4 * m * m + 5));
       break;
     case 'flicker_fm':
-      edf = m === 1 ? (2 * (N - 2)) / (2.3 * N - 4.9) : (5 * N * N) / (4 * m * (N + 3 * m));
+      edf = m === 1 ? (2 * (N - 2) ** 2) / (2.3 * N - 4.9) : (5 * N * N) / (4 * m * (N + 3 * m));
       break;
     case 'random_walk_fm':
       edf = N <= 3 ? 1 : ((N - 2) / m) * (((N - 1) ** 2 - 3 * m * (N - 1) + 4 * m * m) / (N - 3) ** 2);

@@ -5,6 +5,7 @@ import { detectGaps } from '../detect-gaps.js';
 import { fractionalFrequency } from '../fractional-frequency.js';
 import { modifiedAdev } from '../modified-adev.js';
 import { overlappingAdev } from '../overlapping-adev.js';
+import { greenhallEdf } from '../greenhall-edf.js';
 import { adevEdf, chiSquaredInterval } from '../stability-confidence.js';
 import { errorCode, expectRelative, readCsv, readFixture, seededGaussian } from './helpers.js';
 
@@ -178,6 +179,15 @@ describe('modifiedAdev()', () => {
 describe('adevEdf() and chiSquaredInterval()', () => {
   test('white FM edf at N = 10, m = 1 by SP 1065 Table 5: (13.5 − 1.6)·4/9', () => {
     expectRelative(adevEdf(10, 1, 'white_fm'), (13.5 - 1.6) * (4 / 9), 1e-14, 'edf');
+  });
+  test('flicker FM edf at m = 1 by SP 1065 Table 5, 2(N − 2)²/(2.3N − 4.9), within 5 % of the Greenhall–Riley algorithm', () => {
+    // Closed form at N = 10: 2·64/(23 − 4.9) = 128/18.1. The Greenhall–Riley (2004) edf is an independent algorithm
+    // (greenhall-edf.ts, checked against exact Gaussian edf elsewhere); Table 5's approximation lies within a few per cent of it.
+    expectRelative(adevEdf(10, 1, 'flicker_fm'), 128 / 18.1, 1e-14, 'edf');
+    for (const N of [10, 100, 1001]) {
+      const exact = greenhallEdf({ d: 2, m: 1, phasePoints: N, overlapping: true, modified: false, noise: 'flicker_fm' });
+      expectRelative(adevEdf(N, 1, 'flicker_fm'), exact, 0.05, `edf at N = ${N}`);
+    }
   });
   test('χ² quantiles from jstat match scipy 1.17.1 chi2.ppf(0.975/0.025, 5.288888…)', () => {
     // scipy 1.17.1: chi2.ppf(0.975, 5.288888888888889) = 13.306015639461146, chi2.ppf(0.025, …) = 0.9431069094707405
