@@ -30,7 +30,12 @@ export function CsvPreviewTable({ preview, mapping }: { preview: CsvPreview; map
         Columns separated by {DELIMITER_NAMES[preview.delimiter]}; the first {preview.rows.length} rows
         {preview.more ? ' (the file goes on)' : ''}.
       </Typography>
-      <Box tabIndex={0} role="region" aria-label="Preview of the file, scrollable" sx={{ maxHeight: 300, overflow: 'auto', border: 1, borderColor: 'divider', borderRadius: 1, mt: 0.5 }}>
+      <Box
+        tabIndex={0}
+        role="region"
+        aria-label="Preview of the file, scrollable"
+        sx={{ maxHeight: 300, overflow: 'auto', border: 1, borderColor: 'divider', borderRadius: 1, mt: 0.5 }}
+      >
         <Table size="small" stickyHeader aria-label="Preview of the file" sx={{ '& td, & th': { py: 0.25, px: 1, whiteSpace: 'nowrap' } }}>
           <TableHead>
             <TableRow>

@@ -33,7 +33,12 @@ export function RejectionsTable({ report, fileName }: { report: ImportReport; fi
           Download report
         </Button>
       </Box>
-      <Box tabIndex={0} role="region" aria-label="Refused rows, scrollable" sx={{ maxHeight: 320, overflow: 'auto', border: 1, borderColor: 'divider', borderRadius: 1 }}>
+      <Box
+        tabIndex={0}
+        role="region"
+        aria-label="Refused rows, scrollable"
+        sx={{ maxHeight: 320, overflow: 'auto', border: 1, borderColor: 'divider', borderRadius: 1 }}
+      >
         <Table size="small" stickyHeader aria-label="Refused rows" sx={{ '& td, & th': { py: 0.25, px: 1 } }}>
           <TableHead>
             <TableRow>
