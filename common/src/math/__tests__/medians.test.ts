@@ -1,6 +1,7 @@
-// The MAD screen's medians (found by selection) against the sorted-array closed form: median = x₍₍ₙ₊₁₎/₂₎ for odd n,
-// (x₍ₙ/₂₎ + x₍ₙ/₂₊₁₎)/2 for even n, on hand-worked arrays and on random ones with repeats.
+// The medians found by selection (the MAD screen's two, detectGaps' median interval) against the sorted-array closed form:
+// median = x₍₍ₙ₊₁₎/₂₎ for odd n, (x₍ₙ/₂₎ + x₍ₙ/₂₊₁₎)/2 for even n, on hand-worked arrays and on random ones with repeats.
 import fc from 'fast-check';
+import { detectGaps } from '../detect-gaps.js';
 import { madOutliers } from '../mad-outliers.js';
 import { medianInPlace } from '../median-in-place.js';
 
@@ -63,5 +64,14 @@ describe('medianInPlace() against the sorted closed form', () => {
       }),
       { numRuns: 200 },
     );
+  });
+});
+
+describe('detectGaps(): the median interval, by hand', () => {
+  test('odd count of intervals: t = [0, 1, 3, 4, 9, 10] gives intervals [1, 2, 1, 5, 1], sorted [1, 1, 1, 2, 5], median 1', () => {
+    expect(detectGaps([0, 1, 3, 4, 9, 10], 1).medianInterval).toBe(1);
+  });
+  test('even count: t = [0, 2, 3, 7, 8] gives intervals [2, 1, 4, 1], sorted [1, 1, 2, 4], median (1 + 2)/2 = 1.5', () => {
+    expect(detectGaps([0, 2, 3, 7, 8], 1).medianInterval).toBe(1.5);
   });
 });
