@@ -4,8 +4,9 @@ import { assertFiniteArray, assertPositive } from './guards.js';
 import { hadamardDev } from './hadamard-dev.js';
 import { identifyNoise } from './identify-noise.js';
 import { MetrologyError } from './metrology-error.js';
-import { modifiedAdev } from './modified-adev.js';
-import { octaves, overlappingAdev, phaseFromFrequency, type StabilityPoint } from './overlapping-adev.js';
+import { modifiedAdevKernel } from './modified-adev-kernel.js';
+import { octaves, phaseFromFrequency, type StabilityPoint } from './overlapping-adev.js';
+import { overlappingAdevKernel } from './overlapping-adev-kernel.js';
 import { phaseFromFractionalFrequency } from './phase-from-fractional-frequency.js';
 import type { NoiseType } from './stability-confidence.js';
 import { timeDev } from './time-dev.js';
@@ -142,14 +143,12 @@ export function stabilityTable(y: ArrayLike<number>, tau0: number, opts: Stabili
   const noiseOf = (m: number) => edfNoise.get(m)!.noise;
   const within = (deviation: TableDeviation) => [...new Set(factors)].filter((m) => m <= LIMITS[deviation](M));
 
-  // ADEV and MDEV take one noise type per call: one call per type named.
+  // ADEV and MDEV by their one-factor kernels on the phase built above for the noise identification: the phase
+  // overlappingAdev and modifiedAdev build from y themselves (the same numbers), built once rather than once per
+  // call, and each factor with its own noise type.
   const byNoise = (deviation: 'adev' | 'mdev'): Map<number, StabilityPoint> => {
-    const out = new Map<number, StabilityPoint>();
-    const groups = new Map<NoiseType, number[]>();
-    for (const m of within(deviation)) groups.set(noiseOf(m), [...(groups.get(noiseOf(m)) ?? []), m]);
-    const compute = deviation === 'adev' ? overlappingAdev : modifiedAdev;
-    for (const [noise, group] of groups) for (const point of compute(y, tau0, { factors: group, noise, confidence })) out.set(point.m, point);
-    return out;
+    const kernel = deviation === 'adev' ? overlappingAdevKernel : modifiedAdevKernel;
+    return new Map(within(deviation).map((m) => [m, kernel(idPhase, m, tau0, noiseOf(m), confidence)]));
   };
   const x = phaseFromFractionalFrequency(y, tau0);
   const phaseDomain = (compute: typeof timeDev, deviation: TableDeviation): Map<number, DeviationPoint> => {
