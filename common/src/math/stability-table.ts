@@ -1,5 +1,5 @@
 import { decades } from './decades.js';
-import { detrendPhase, type DeviationPoint } from './deviation-input.js';
+import { detrendPhaseInPlace, type DeviationPoint } from './deviation-input.js';
 import { assertFiniteArray, assertPositive } from './guards.js';
 import { hadamardDevOfDetrended } from './hadamard-dev.js';
 import { checkNoiseInput, identifyCheckedNoise } from './identify-noise.js';
@@ -151,11 +151,11 @@ export function stabilityTable(y: ArrayLike<number>, tau0: number, opts: Stabili
     const kernel = deviation === 'adev' ? overlappingAdevKernel : modifiedAdevKernel;
     return new Map(within(deviation).map((m) => [m, kernel(idPhase, m, tau0, noiseOf(m), confidence)]));
   };
-  // The phase in seconds for the Hadamard, time and total deviations, checked and detrended once for the three (each
-  // function does both itself when called alone: the same checks and the same detrended numbers).
-  const x = phaseFromFractionalFrequency(y, tau0);
-  assertFiniteArray(fn, 'the phase', x);
-  const z = detrendPhase(x);
+  // The phase in seconds for the Hadamard, time and total deviations, checked and detrended once for the three, in
+  // place (each function does both itself, into a copy, when called alone: the same checks and the same numbers).
+  const z = phaseFromFractionalFrequency(y, tau0);
+  assertFiniteArray(fn, 'the phase', z);
+  detrendPhaseInPlace(z);
   const byFactor = (points: DeviationPoint[]) => new Map(points.map((p) => [p.m, p]));
   const adev = byNoise('adev');
   const mdev = byNoise('mdev');
