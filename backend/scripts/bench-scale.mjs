@@ -12,10 +12,17 @@
 //   (c) streams the first 1,000,000-reading warm-up run out of MariaDB (prepared statement, binary rows,
 //       into Float64Arrays, as bench:ingest does);
 //   (d) GET /api/runs/:id/analysis on that run, cold (the server's first analysis of it) and warm; and (d2)
-//       the cold analysis of a second such run, once the server's analysis code is compiled.
+//       the cold analysis of a second such run, once the server's analysis code is compiled;
+//   (e) when there is a 1,000,000-reading stability run (KC_SCALE_READINGS of 2M or more): its rows streamed out
+//       as in (c), first pass (the first read since the fill) and second, then its analysis cold in a server
+//       started for it alone (its first request after signing in: code and data cold), with the default query
+//       and with ?factors=decades&drift=removed, each against the stream (issue 19: at most 1.5 × its stream).
+//       KC_SCALE_STABILITY_ONLY=1 runs (a) and (e) only; KC_BENCH_ROUNDS=n repeats (e)'s stream and cold analyses n
+//       times and reports the median ratios.
 // KC_BENCH_KEEP=1 keeps the filled database; KC_SCALE_REUSE=1 then skips (a)'s fill on the next run.
 // KC_BENCH_SERVER_FLAGS passes node flags to the server (e.g. --cpu-prof --cpu-prof-dir=DIR).
-// The last line reads `scale N readings: slowest list page X ms, cold analysis R × stream`.
+// The last line reads `scale N readings: slowest list page X ms, cold analysis R × stream` (and the stability
+// ratios of (e) when there is one).
 import { spawn } from 'node:child_process';
 import { existsSync, readdirSync, statSync } from 'node:fs';
 import { createServer } from 'node:net';
@@ -44,6 +51,9 @@ function parseCount(text) {
   return n;
 }
 const REUSE = Boolean(process.env.KC_SCALE_REUSE);
+const STABILITY_ONLY = Boolean(process.env.KC_SCALE_STABILITY_ONLY);
+const STABILITY_QUERIES = ['', '?factors=decades&drift=removed'];
+const STABILITY_ROUNDS = Math.max(1, Math.floor(Number(process.env.KC_BENCH_ROUNDS ?? 1)) || 1);
 let N = parseCount(process.env.KC_SCALE_READINGS ?? '10M');
 
 if (!existsSync(join(backend, 'dist', 'main.js'))) {
@@ -235,37 +245,119 @@ await diskUse();
 
 // ---- the server ---------------------------------------------------------------------------------
 
-const port = await freePort();
-// KC_BENCH_SERVER_FLAGS passes node flags to the server, e.g. --cpu-prof to see where its time goes.
-const serverFlags = (process.env.KC_BENCH_SERVER_FLAGS ?? '').split(' ').filter(Boolean);
-const server = spawn(process.execPath, [...serverFlags, join(backend, 'dist', 'main.js')], {
-  cwd: root,
-  env: { ...process.env, KC_PORT: String(port), KC_HOST: '127.0.0.1', KC_DB_NAME: DB, KC_RECALL_DISABLED: '1', NODE_OPTIONS: '' },
-  stdio: ['ignore', 'ignore', 'inherit'],
-});
-const base = `http://127.0.0.1:${port}`;
+/** Starts the server from dist on a free port; resolves once /api/health answers. */
+async function startServer() {
+  const port = await freePort();
+  // KC_BENCH_SERVER_FLAGS passes node flags to the server, e.g. --cpu-prof to see where its time goes.
+  const serverFlags = (process.env.KC_BENCH_SERVER_FLAGS ?? '').split(' ').filter(Boolean);
+  // The server is not told this script's own switch (it would warn of a KC_ name it does not know).
+  const { KC_SCALE_STABILITY_ONLY: _stabilityOnly, ...inherited } = process.env;
+  const server = spawn(process.execPath, [...serverFlags, join(backend, 'dist', 'main.js')], {
+    cwd: root,
+    env: { ...inherited, KC_PORT: String(port), KC_HOST: '127.0.0.1', KC_DB_NAME: DB, KC_RECALL_DISABLED: '1', NODE_OPTIONS: '' },
+    stdio: ['ignore', 'ignore', 'inherit'],
+  });
+  const exited = () => server.exitCode !== null || server.signalCode !== null;
+  const stop = async () => {
+    if (exited()) return;
+    server.kill('SIGTERM');
+    await new Promise((r) => (exited() ? r() : server.once('exit', r)));
+  };
+  const base = `http://127.0.0.1:${port}`;
+  try {
+    for (let i = 0; ; i++) {
+      try {
+        if ((await fetch(`${base}/api/health`)).ok) break;
+      } catch {
+        /* not up yet */
+      }
+      if (i > 300 || exited()) throw new Error('the server did not start');
+      await sleep(100);
+    }
+  } catch (error) {
+    await stop();
+    throw error;
+  }
+  return { base, stop };
+}
+
+async function signIn(base, email) {
+  const res = await fetch(`${base}/api/auth/login`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email, password: DEMO_PASSWORD }),
+  });
+  if (!res.ok) throw new Error(`sign-in as ${email}: ${res.status}`);
+  return (await res.json()).accessToken;
+}
+
+// ---- (e) a stability run, before any server has read it -----------------------------------------
+
+/** (e): the ratios of the stability run's cold analyses to its stream, or null when there is no 1M stability run. */
+async function stabilityStep() {
+  const [[run]] = await pool.query(
+    `SELECT r.id, (SELECT COUNT(*) FROM readings x WHERE x.run_id = r.id) AS count
+     FROM runs r JOIN jobs j ON j.id = r.job_id WHERE j.number LIKE 'S-%' AND r.kind = 'stability' ORDER BY r.id LIMIT 1`,
+  );
+  if (!run || Number(run.count) < RUN_SIZE) {
+    say(`(e) no stability run of ${fmt(RUN_SIZE)} readings (KC_SCALE_READINGS=2M or more fills one): skipped`);
+    return null;
+  }
+  const count = Number(run.count);
+  const first = await streamRun(run.id, count);
+  const byQuery = STABILITY_QUERIES.map(() => []);
+  for (let round = 1; round <= STABILITY_ROUNDS; round++) {
+    const stream = await streamRun(run.id, count);
+    say(
+      `(e) stability run ${run.id}, ${fmt(stream.rows)} readings${STABILITY_ROUNDS > 1 ? `, round ${round} of ${STABILITY_ROUNDS}` : ''}: streamed out in ${stream.seconds.toFixed(2)} s${round === 1 ? ` (first pass${REUSE ? '' : ', the first read since the fill'}: ${first.seconds.toFixed(2)} s)` : ''}`,
+    );
+    for (const [q, query] of STABILITY_QUERIES.entries()) {
+      // A server of its own for each query: the series and the answer are cached per run, so a second query in
+      // the same process would not read the rows again.
+      const { base, stop } = await startServer();
+      try {
+        const token = await signIn(base, 'lead@kilocycle.test');
+        const get = async () => {
+          const started = performance.now();
+          const res = await fetch(`${base}/api/runs/${run.id}/analysis${query}`, { headers: { authorization: `Bearer ${token}` } });
+          const body = await res.text();
+          if (res.status !== 200) throw new Error(`stability analysis${query} answered ${res.status}: ${body.slice(0, 300)}`);
+          return { ms: performance.now() - started, body };
+        };
+        const cold = await get();
+        const warm = [];
+        for (let k = 0; k < 3; k++) warm.push((await get()).ms);
+        const answer = JSON.parse(cold.body);
+        const ratio = cold.ms / (stream.seconds * 1000);
+        byQuery[q].push(ratio);
+        say(
+          `    GET /api/runs/${run.id}/analysis${query || ' (default query)'}: cold ${ms(cold.ms)} = ${ratio.toFixed(2)} × stream (target ≤ 1.5: ${ratio <= 1.5 ? 'met' : 'NOT met'}), warm median of 3 ${ms(median(warm))}; ${answer.toolkit?.deviations?.length ?? '?'} τ, ${answer.toolkit?.outliers?.flaggedCount ?? '?'} flagged by the MAD screen`,
+        );
+      } finally {
+        await stop();
+      }
+    }
+  }
+  // The median over the rounds (KC_BENCH_ROUNDS): one round on a busy machine can be far off either way.
+  return byQuery.map((ratios) => median(ratios));
+}
+
+const stabilityRatios = await stabilityStep();
+const stabilitySummary = stabilityRatios
+  ? `stability cold analysis ${stabilityRatios.map((r) => r.toFixed(2)).join(' / ')} × stream${STABILITY_ROUNDS > 1 ? ` (median of ${STABILITY_ROUNDS} rounds)` : ''}`
+  : 'no stability run';
+if (STABILITY_ONLY) {
+  say(`scale ${fmt(N)} readings (KC_SCALE_STABILITY_ONLY): ${stabilitySummary} (${STABILITY_QUERIES.map((q) => q || 'default').join(' / ')})`);
+  if (!process.env.KC_BENCH_KEEP) await pool.query(`DROP DATABASE \`${DB}\``).catch(() => undefined);
+  await pool.end();
+  process.exit(0);
+}
+
+const { base, stop } = await startServer();
 let slowest = 0;
 try {
-  for (let i = 0; ; i++) {
-    try {
-      if ((await fetch(`${base}/api/health`)).ok) break;
-    } catch {
-      /* not up yet */
-    }
-    if (i > 300 || server.exitCode !== null) throw new Error('the server did not start');
-    await sleep(100);
-  }
-  const signIn = async (email) => {
-    const res = await fetch(`${base}/api/auth/login`, {
-      method: 'POST',
-      headers: { 'content-type': 'application/json' },
-      body: JSON.stringify({ email, password: DEMO_PASSWORD }),
-    });
-    if (!res.ok) throw new Error(`sign-in as ${email}: ${res.status}`);
-    return (await res.json()).accessToken;
-  };
-  const lead = await signIn('lead@kilocycle.test');
-  const adminToken = await signIn('admin@kilocycle.test');
+  const lead = await signIn(base, 'lead@kilocycle.test');
+  const adminToken = await signIn(base, 'admin@kilocycle.test');
 
   // The scale warm-up runs with their reading counts: the first is (c) and (d)'s, the next full one (d2)'s.
   const [warmups] = await pool.query(
@@ -356,10 +448,9 @@ try {
     slowest = Math.max(slowest, m);
     say(`    ${label.padEnd(52)} ${ms(m).padStart(10)}  ${m < TARGET_MS ? 'met' : 'NOT met'}   ${path}${total === '' ? '' : ` (total ${fmt(Number(total))})`}`);
   }
-  say(`scale ${fmt(N)} readings: slowest list page ${Math.round(slowest)} ms, cold analysis ${coldRatio.toFixed(2)} × stream`);
+  say(`scale ${fmt(N)} readings: slowest list page ${Math.round(slowest)} ms, cold analysis ${coldRatio.toFixed(2)} × stream, ${stabilitySummary}`);
 } finally {
-  server.kill('SIGTERM');
-  await new Promise((r) => (server.exitCode !== null ? r() : server.once('exit', r)));
+  await stop();
   if (!process.env.KC_BENCH_KEEP) await pool.query(`DROP DATABASE \`${DB}\``).catch(() => undefined);
   await pool.end();
 }

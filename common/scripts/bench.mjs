@@ -2,7 +2,9 @@
 // Prints the linear fit, the warm-up drift fit and the overlapping Allan deviation at all
 // octaves, each in ms, then every deviation (ADEV, MDEV, HDEV, TDEV, TOTDEV) at all octaves
 // plus decades (1-2-5) with its total against the 1.5 s target (issue 19), beside simple-statistics' linearRegression on the same data, and the
-// total against the 1 s target. Not a test: figures vary with the machine and its load.
+// total against the 1 s target, then the MAD outlier screen a stability analysis runs on the same 1,000,000 points and
+// the stability table as the analysis asks for it (every deviation with its noise named, edf and 95 % interval).
+// Not a test: figures vary with the machine and its load.
 import { linearRegression } from 'simple-statistics';
 import {
   decades,
@@ -10,10 +12,12 @@ import {
   fitWarmup,
   fractionalFrequency,
   hadamardDev,
+  madOutliers,
   modifiedAdev,
   octaves,
   overlappingAdev,
   phaseFromFractionalFrequency,
+  stabilityTable,
   timeDev,
   totalDev,
 } from '../dist/math/index.js';
@@ -98,6 +102,20 @@ console.log(`${pad(conversion.label)}${conversion.ms.toFixed(1).padStart(9)} ms`
 for (const row of deviations) console.log(`${pad(`${row.label}, ${row.result.length} factors`)}${row.ms.toFixed(1).padStart(9)} ms`);
 const deviationTotal = deviations.reduce((sum, row) => sum + row.ms, conversion.ms);
 console.log(`${pad('total of all deviations')}${deviationTotal.toFixed(1).padStart(9)} ms   target < 1500 ms: ${deviationTotal < 1500 ? 'met' : 'NOT met'}`);
+// The MAD screen a stability analysis runs beside the deviations (two medians of 1,000,000 values).
+madOutliers(ySmall);
+const mad = time('MAD outlier screen (madOutliers, k = 5)', () => madOutliers(y));
+console.log(`${pad(mad.label)}${mad.ms.toFixed(1).padStart(9)} ms   ${mad.result.indices.length} flagged, MAD ${mad.result.mad.toExponential(3)}`);
+const withMad = deviationTotal + mad.ms;
+console.log(
+  `${pad('total of all deviations and the MAD screen')}${withMad.toFixed(1).padStart(9)} ms   target < 1500 ms: ${withMad < 1500 ? 'met' : 'NOT met'}`,
+);
+// The table a stability run's analysis builds (GET /api/runs/:id/analysis): octaves, and decades as ?factors=decades asks.
+stabilityTable(ySmall, TAU0, { confidence: 0.95 });
+for (const spacing of ['octaves', 'decades']) {
+  const table = time(`stability table (stabilityTable), ${spacing}, 95 %`, () => stabilityTable(y, TAU0, { spacing, confidence: 0.95 }));
+  console.log(`${pad(`${table.label}, ${table.result.length} τ`)}${table.ms.toFixed(1).padStart(9)} ms`);
+}
 console.log('');
 console.log(
   `ADEV: ${adev.result.length} octaves, τ = ${adev.result[0].tau} s … ${adev.result[adev.result.length - 1].tau} s; σ_y(${adev.result[0].tau} s) = ${adev.result[0].deviation.toExponential(3)}`,

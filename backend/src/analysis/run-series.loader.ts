@@ -50,31 +50,43 @@ export class RunSeriesLoader {
    */
   async load(runId: number, expected: number, columns: SeriesColumns = ALL_COLUMNS, keepExcluded = true): Promise<RunSeries> {
     const excludedSeqs = await this.readings.excludedSeqs(runId);
+    const anyExcluded = excludedSeqs.size > 0;
+    const withDial = columns.dial;
+    const withAux = columns.aux;
     let capacity = Math.max(expected, 16);
-    let series = allocate(capacity);
+    let series = allocate(capacity, columns);
+    // The columns as locals, and the last t kept: this runs once per reading (a million times for a large run),
+    // mostly before V8 has optimised it, so each property load and lookup left out of it counts.
+    let { seq: seqs, t: ts, dial: dials, frequency: frequencies, aux: auxes, excluded: flags } = series;
     let count = 0;
     let readingCount = 0;
     const excludedAt: number[] = [];
     let inTimeOrder = true;
+    let previousT = Number.NEGATIVE_INFINITY;
     await this.readings.streamSeries(runId, columns, (row) => {
       // Readings may arrive while we read: grow rather than overrun.
       if (count === capacity) {
         capacity *= 2;
-        series = grow(series, capacity);
+        series = grow(series, capacity, columns);
+        ({ seq: seqs, t: ts, dial: dials, frequency: frequencies, aux: auxes, excluded: flags } = series);
       }
       const seq = Number(row[0]);
-      const excluded = excludedSeqs.has(seq);
+      const excluded = anyExcluded && excludedSeqs.has(seq);
       readingCount += 1;
       if (excluded && !keepExcluded) return;
       const t = Number(row[1]);
-      if (count > 0 && t < series.t[count - 1]!) inTimeOrder = false;
-      series.seq[count] = seq;
-      series.t[count] = t;
-      series.dial[count] = row[2] === null ? Number.NaN : Number(row[2]);
-      series.frequency[count] = Number(row[3]);
-      series.aux[count] = row[4] === null ? Number.NaN : Number(row[4]);
-      series.excluded[count] = excluded ? 1 : 0;
-      if (excluded) excludedAt.push(count);
+      if (t < previousT) inTimeOrder = false;
+      previousT = t;
+      seqs[count] = seq;
+      ts[count] = t;
+      // Columns not asked for were filled with NaN when allocated (the reader sends null for them).
+      if (withDial) dials[count] = row[2] === null ? Number.NaN : Number(row[2]);
+      frequencies[count] = Number(row[3]);
+      if (withAux) auxes[count] = row[4] === null ? Number.NaN : Number(row[4]);
+      if (excluded) {
+        flags[count] = 1;
+        excludedAt.push(count);
+      }
       count += 1;
     });
     return {
@@ -95,19 +107,19 @@ export class RunSeriesLoader {
 
 type Columns = Pick<RunSeries, 'seq' | 't' | 'dial' | 'frequency' | 'aux' | 'excluded'>;
 
-function allocate(capacity: number): Columns {
+function allocate(capacity: number, columns: SeriesColumns): Columns {
   return {
     seq: new Float64Array(capacity),
     t: new Float64Array(capacity),
-    dial: new Float64Array(capacity),
+    dial: columns.dial ? new Float64Array(capacity) : new Float64Array(capacity).fill(Number.NaN),
     frequency: new Float64Array(capacity),
-    aux: new Float64Array(capacity),
+    aux: columns.aux ? new Float64Array(capacity) : new Float64Array(capacity).fill(Number.NaN),
     excluded: new Uint8Array(capacity),
   };
 }
 
-function grow(old: Columns, capacity: number): Columns {
-  const next = allocate(capacity);
+function grow(old: Columns, capacity: number, columns: SeriesColumns): Columns {
+  const next = allocate(capacity, columns);
   next.seq.set(old.seq);
   next.t.set(old.t);
   next.dial.set(old.dial);

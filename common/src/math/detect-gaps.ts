@@ -1,4 +1,5 @@
 import { assertFiniteArray, assertPositive } from './guards.js';
+import { medianInPlace } from './median-in-place.js';
 import { MetrologyError } from './metrology-error.js';
 
 export type GapReport = {
@@ -47,9 +48,8 @@ export function detectGaps(t: ArrayLike<number>, tau0: number): GapReport {
       gaps.push({ index: i, tStart: t[i - 1]!, tEnd: t[i]!, missing: Math.max(Math.round(multiple) - 1, 1) });
     }
   }
-  intervals.sort();
-  const middle = intervals.length >> 1;
-  const medianInterval = intervals.length % 2 === 1 ? intervals[middle]! : (intervals[middle - 1]! + intervals[middle]!) / 2;
+  // By selection, not a sort (a sort of a million intervals costs a tenth of a second): the same median.
+  const medianInterval = medianInPlace(intervals);
   if (Math.abs(medianInterval - tau0) > 0.1 * tau0) irregular = true;
   return { gaps, irregular, medianInterval };
 }

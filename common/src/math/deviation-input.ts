@@ -87,10 +87,14 @@ export function confidenceOf(fn: string, confidence: number | undefined): number
  * numbers small, so rounding stays at the level of the differences on 10⁶ points.
  */
 export function detrendPhase(x: ArrayLike<number>): Float64Array {
+  return detrendPhaseInPlace(Float64Array.from(x));
+}
+
+/** {@link detrendPhase} over the caller's own array (its end points read first): the same numbers, no copy. */
+export function detrendPhaseInPlace(x: Float64Array): Float64Array {
   const N = x.length;
-  const out = new Float64Array(N);
   const first = x[0]!;
   const slope = N > 1 ? (x[N - 1]! - first) / (N - 1) : 0;
-  for (let i = 0; i < N; i++) out[i] = x[i]! - first - slope * i;
-  return out;
+  for (let i = 0; i < N; i++) x[i] = x[i]! - first - slope * i;
+  return x;
 }

@@ -34,14 +34,29 @@ export function hadamardDev(x: ArrayLike<number>, tau0: number, opts: HadamardOp
   const confidence = confidenceOf(fn, opts.confidence);
   const overlapping = opts.overlapping ?? true;
   const factors = resolveFactors(fn, opts.factors, (N - 1) / 3);
-  const z = detrendPhase(x);
+  return hadamardDevOfDetrended(detrendPhase(x), tau0, factors, opts.noise, confidence, overlapping);
+}
+
+/**
+ * {@link hadamardDev} from phase already checked and through detrendPhase, at factors already checked: the stability
+ * table detrends its phase once for the Hadamard, time and total deviations rather than once for each.
+ */
+export function hadamardDevOfDetrended(
+  z: Float64Array,
+  tau0: number,
+  factors: readonly number[],
+  noiseOption: HadamardOptions['noise'],
+  confidence: number,
+  overlapping: boolean,
+): DeviationPoint[] {
+  const N = z.length;
   return factors.map((m) => {
     const stride = overlapping ? 1 : m;
     const terms = Math.floor((N - 3 * m - 1) / stride) + 1; // the i = 0, stride, 2·stride, … with i + 3m < N
     const sum = thirdDifferenceSum(z, m, stride, terms);
     const tau = m * tau0;
     const deviation = Math.sqrt(sum / (6 * tau * tau * terms));
-    const noise = noiseAt(opts.noise, m);
+    const noise = noiseAt(noiseOption, m);
     const edf = greenhallEdf({ d: 3, m, phasePoints: N, overlapping, modified: false, noise });
     const [ciLow, ciHigh] = chiSquaredInterval(deviation, edf, confidence);
     return { m, tau, deviation, terms, noise, edf, ciLow, ciHigh };

@@ -52,6 +52,24 @@ function lag1(z: Float64Array): number {
   return denominator > 0 ? numerator / denominator : 0;
 }
 
+// z_k = x_{km}, k = 0 … points − 1. Plain functions over typed arrays, not loops inside identifyCheckedNoise: V8
+// optimises them sooner, and they run over 10⁶ points at m = 1.
+function decimate(x: ArrayLike<number>, m: number, points: number): Float64Array {
+  // At m = 1 every point is kept: a block copy of typed input instead of a loop over 10⁶ points.
+  if (m === 1 && x instanceof Float64Array) return x.slice(0, points);
+  const z = new Float64Array(points);
+  for (let k = 0; k < points; k++) z[k] = x[k * m]!;
+  return z;
+}
+
+// First differences z_{k+1} − z_k written over z from the front (each z_k is read before it is replaced), as a view
+// one shorter: no new array of 10⁶ points per difference taken; the same subtractions.
+function differenceInPlace(z: Float64Array): Float64Array {
+  const n = z.length - 1;
+  for (let k = 0; k < n; k++) z[k] = z[k + 1]! - z[k]!;
+  return z.subarray(0, n);
+}
+
 // Expected B1(N, μ) for σ²_y ∝ τ^μ (Barnes): N(1 − N^μ)/(2(N − 1)(1 − 2^μ)), and N ln N/(2(N − 1) ln 2) at μ = 0.
 function expectedB1(n: number, mu: number): number {
   if (mu === 0) return (n * Math.log(n)) / (2 * (n - 1) * Math.log(2));
@@ -83,13 +101,25 @@ function expectedB1(n: number, mu: number): number {
  * @example identifyNoise(whiteFmPhase, 1); // => { status: 'identified', noise: 'white_fm', method: 'lag1_acf', … }
  */
 export function identifyNoise(x: ArrayLike<number>, m: number): NoiseIdentification {
+  checkNoiseInput(x);
+  return identifyCheckedNoise(x, m);
+}
+
+/** identifyNoise's checks of the phase (at least 2 points, all finite), for a caller that names the noise at many factors. */
+export function checkNoiseInput(x: ArrayLike<number>): void {
+  if (x.length < 2) throw new MetrologyError('too_few_points', 'identifyNoise requires at least 2 phase points');
+  assertFiniteArray('identifyNoise', 'x', x);
+}
+
+/**
+ * {@link identifyNoise} on phase already through {@link checkNoiseInput}: the stability table names the noise at
+ * every factor of one phase series, and checking its 10⁶ points again for each factor was a fifth of the table's time.
+ */
+export function identifyCheckedNoise(x: ArrayLike<number>, m: number): NoiseIdentification {
   const fn = 'identifyNoise';
-  if (x.length < 2) throw new MetrologyError('too_few_points', `${fn} requires at least 2 phase points`);
-  assertFiniteArray(fn, 'x', x);
   if (!(Number.isInteger(m) && m >= 1)) throw new MetrologyError('bad_argument', `${fn} requires a whole averaging factor of 1 or more (got ${m})`);
   const points = Math.floor((x.length - 1) / m) + 1;
-  let z = new Float64Array(points);
-  for (let k = 0; k < points; k++) z[k] = x[k * m]!;
+  let z = decimate(x, m, points);
 
   if (points >= LAG1_MIN_POINTS) {
     const dmax = 2;
@@ -97,9 +127,7 @@ export function identifyNoise(x: ArrayLike<number>, m: number): NoiseIdentificat
     let r1 = lag1(z);
     let delta = r1 / (1 + r1);
     while (delta >= 0.25 && d < dmax) {
-      const next = new Float64Array(z.length - 1);
-      for (let k = 0; k + 1 < z.length; k++) next[k] = z[k + 1]! - z[k]!;
-      z = next;
+      z = differenceInPlace(z);
       d++;
       r1 = lag1(z);
       delta = r1 / (1 + r1);

@@ -1,17 +1,16 @@
 import { resolveFactors } from './deviation-input.js';
-import { greenhallEdf } from './greenhall-edf.js';
 import { assertFiniteArray, assertPositive } from './guards.js';
 import { MetrologyError } from './metrology-error.js';
-import { modifiedVarianceSum } from './modified-variance-sum.js';
+import { modifiedAdevKernel } from './modified-adev-kernel.js';
 import { octaves, phaseFromFrequency, type StabilityOptions, type StabilityPoint } from './overlapping-adev.js';
-import { chiSquaredInterval } from './stability-confidence.js';
 
 /**
  * Modified Allan deviation at octave averaging factors (NIST SP 1065, Riley 2008, Eq. 15,
  * phase form):
  * Mod σ²_y(mτ0) = Σ_{j=1}^{N−3m+1} ( Σ_{i=j}^{j+m−1} (x_{i+2m} − 2x_{i+m} + x_i) )² / (2 m² τ² (N − 3m + 1)),
  * τ = mτ0, N phase points. The inner sum is carried as a running (sliding) sum ({@link modifiedVarianceSum},
- * shared with {@link timeDev}), so each factor costs O(N) and all octaves O(N log N). Factors run while N − 3m + 1 ≥ 1.
+ * shared with {@link timeDev}; one factor is {@link modifiedAdevKernel}), so each factor costs O(N) and all octaves O(N log N).
+ * Factors run while N − 3m + 1 ≥ 1.
  *
  * Confidence interval: χ² ({@link chiSquaredInterval}) with the degrees of freedom of Greenhall's
  * algorithm, through which SP 1065 §5.3 gives the MVAR edf ({@link greenhallEdf}: d = 2, modified,
@@ -37,11 +36,5 @@ export function modifiedAdev(y: ArrayLike<number>, tau0: number, opts: Stability
   const N = x.length;
   const limit = Math.min(Math.floor(N / 3), opts.maxM ?? Number.POSITIVE_INFINITY);
   const factors = opts.factors === undefined ? octaves(limit) : resolveFactors(fn, opts.factors, N / 3);
-  return factors.map((m) => {
-    const terms = N - 3 * m + 1;
-    const deviation = Math.sqrt(modifiedVarianceSum(x, m) / (2 * m ** 4 * terms));
-    const edf = greenhallEdf({ d: 2, m, phasePoints: N, overlapping: true, modified: true, noise });
-    const [ciLow, ciHigh] = chiSquaredInterval(deviation, edf, confidence);
-    return { m, tau: m * tau0, deviation, n: terms, edf, ciLow, ciHigh };
-  });
+  return factors.map((m) => modifiedAdevKernel(x, m, tau0, noise, confidence));
 }

@@ -1,15 +1,16 @@
 import { decades } from './decades.js';
-import type { DeviationPoint } from './deviation-input.js';
+import { detrendPhaseInPlace, type DeviationPoint } from './deviation-input.js';
 import { assertFiniteArray, assertPositive } from './guards.js';
-import { hadamardDev } from './hadamard-dev.js';
-import { identifyNoise } from './identify-noise.js';
+import { hadamardDevOfDetrended } from './hadamard-dev.js';
+import { checkNoiseInput, identifyCheckedNoise } from './identify-noise.js';
 import { MetrologyError } from './metrology-error.js';
-import { modifiedAdev } from './modified-adev.js';
-import { octaves, overlappingAdev, phaseFromFrequency, type StabilityPoint } from './overlapping-adev.js';
+import { modifiedAdevKernel } from './modified-adev-kernel.js';
+import { octaves, phaseFromFrequency, type StabilityPoint } from './overlapping-adev.js';
+import { overlappingAdevKernel } from './overlapping-adev-kernel.js';
 import { phaseFromFractionalFrequency } from './phase-from-fractional-frequency.js';
 import type { NoiseType } from './stability-confidence.js';
-import { timeDev } from './time-dev.js';
-import { totalDev } from './total-dev.js';
+import { timeDevOfDetrended } from './time-dev.js';
+import { totalDevOfDetrended } from './total-dev.js';
 
 /** The deviations of a stability table, in the order they are shown. */
 export const TABLE_DEVIATIONS = ['adev', 'mdev', 'hdev', 'tdev', 'totdev'] as const;
@@ -125,11 +126,12 @@ export function stabilityTable(y: ArrayLike<number>, tau0: number, opts: Stabili
 
   // Noise at each factor, then the type the degrees of freedom use (carried up from the nearest shorter τ where too short).
   const idPhase = phaseFromFrequency(y);
+  checkNoiseInput(idPhase);
   const named = new Map<number, NoiseAtFactor>();
   const edfNoise = new Map<number, { noise: NoiseType; from: StabilityTableRow['edfNoiseFrom'] }>();
   let previous: NoiseType | null = null;
   for (const m of [...new Set(factors)].sort((a, b) => a - b)) {
-    const id = identifyNoise(idPhase, m);
+    const id = identifyCheckedNoise(idPhase, m);
     if (id.status === 'identified') {
       named.set(m, { status: 'identified', noise: id.noise, method: id.method, alternatives: id.method === 'b1_ratio' ? id.alternatives : [] });
       edfNoise.set(m, { noise: id.noise, from: 'identified' });
@@ -142,26 +144,24 @@ export function stabilityTable(y: ArrayLike<number>, tau0: number, opts: Stabili
   const noiseOf = (m: number) => edfNoise.get(m)!.noise;
   const within = (deviation: TableDeviation) => [...new Set(factors)].filter((m) => m <= LIMITS[deviation](M));
 
-  // ADEV and MDEV take one noise type per call: one call per type named.
+  // ADEV and MDEV by their one-factor kernels on the phase built above for the noise identification: the phase
+  // overlappingAdev and modifiedAdev build from y themselves (the same numbers), built once rather than once per
+  // call, and each factor with its own noise type.
   const byNoise = (deviation: 'adev' | 'mdev'): Map<number, StabilityPoint> => {
-    const out = new Map<number, StabilityPoint>();
-    const groups = new Map<NoiseType, number[]>();
-    for (const m of within(deviation)) groups.set(noiseOf(m), [...(groups.get(noiseOf(m)) ?? []), m]);
-    const compute = deviation === 'adev' ? overlappingAdev : modifiedAdev;
-    for (const [noise, group] of groups) for (const point of compute(y, tau0, { factors: group, noise, confidence })) out.set(point.m, point);
-    return out;
+    const kernel = deviation === 'adev' ? overlappingAdevKernel : modifiedAdevKernel;
+    return new Map(within(deviation).map((m) => [m, kernel(idPhase, m, tau0, noiseOf(m), confidence)]));
   };
-  const x = phaseFromFractionalFrequency(y, tau0);
-  const phaseDomain = (compute: typeof timeDev, deviation: TableDeviation): Map<number, DeviationPoint> => {
-    const wanted = within(deviation);
-    if (wanted.length === 0) return new Map();
-    return new Map(compute(x, tau0, { factors: wanted, noise: noiseOf, confidence }).map((p) => [p.m, p]));
-  };
+  // The phase in seconds for the Hadamard, time and total deviations, checked and detrended once for the three, in
+  // place (each function does both itself, into a copy, when called alone: the same checks and the same numbers).
+  const z = phaseFromFractionalFrequency(y, tau0);
+  assertFiniteArray(fn, 'the phase', z);
+  detrendPhaseInPlace(z);
+  const byFactor = (points: DeviationPoint[]) => new Map(points.map((p) => [p.m, p]));
   const adev = byNoise('adev');
   const mdev = byNoise('mdev');
-  const hdev = phaseDomain(hadamardDev, 'hdev');
-  const tdev = phaseDomain(timeDev, 'tdev');
-  const totdev = phaseDomain(totalDev, 'totdev');
+  const hdev = byFactor(hadamardDevOfDetrended(z, tau0, within('hdev'), noiseOf, confidence, true));
+  const tdev = byFactor(timeDevOfDetrended(z, tau0, within('tdev'), noiseOf, confidence));
+  const totdev = byFactor(totalDevOfDetrended(z, tau0, within('totdev'), noiseOf, confidence));
   const fromStability = (p: StabilityPoint | undefined): DeviationValue | null =>
     p ? { deviation: p.deviation, terms: p.n, edf: p.edf, ciLow: p.ciLow, ciHigh: p.ciHigh } : null;
   const fromPhase = (p: DeviationPoint | undefined): DeviationValue | null =>

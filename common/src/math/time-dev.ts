@@ -28,11 +28,22 @@ export function timeDev(x: ArrayLike<number>, tau0: number, opts: DeviationOptio
   const N = checkPhaseInput(fn, x, tau0, 3);
   const confidence = confidenceOf(fn, opts.confidence);
   const factors = resolveFactors(fn, opts.factors, N / 3);
-  const z = detrendPhase(x);
+  return timeDevOfDetrended(detrendPhase(x), tau0, factors, opts.noise, confidence);
+}
+
+/** {@link timeDev} from phase already checked and through detrendPhase, at factors already checked (see hadamardDevOfDetrended). */
+export function timeDevOfDetrended(
+  z: Float64Array,
+  tau0: number,
+  factors: readonly number[],
+  noiseOption: DeviationOptions['noise'],
+  confidence: number,
+): DeviationPoint[] {
+  const N = z.length;
   return factors.map((m) => {
     const terms = N - 3 * m + 1;
     const deviation = Math.sqrt(modifiedVarianceSum(z, m) / (6 * m * m * terms));
-    const noise = noiseAt(opts.noise, m);
+    const noise = noiseAt(noiseOption, m);
     const edf = greenhallEdf({ d: 2, m, phasePoints: N, overlapping: true, modified: true, noise });
     const [ciLow, ciHigh] = chiSquaredInterval(deviation, edf, confidence);
     return { m, tau: m * tau0, deviation, terms, noise, edf, ciLow, ciHigh };

@@ -30,13 +30,24 @@ export function totalDev(x: ArrayLike<number>, tau0: number, opts: DeviationOpti
   const N = checkPhaseInput(fn, x, tau0, 3);
   const confidence = confidenceOf(fn, opts.confidence);
   const factors = resolveFactors(fn, opts.factors, (N - 1) / 2);
-  const z = detrendPhase(x);
+  return totalDevOfDetrended(detrendPhase(x), tau0, factors, opts.noise, confidence);
+}
+
+/** {@link totalDev} from phase already checked and through detrendPhase, at factors already checked (see hadamardDevOfDetrended). */
+export function totalDevOfDetrended(
+  z: Float64Array,
+  tau0: number,
+  factors: readonly number[],
+  noiseOption: DeviationOptions['noise'],
+  confidence: number,
+): DeviationPoint[] {
+  const N = z.length;
   const terms = N - 2;
   return factors.map((m) => {
     const sum = reflectedSecondDifferenceSum(z, m);
     const tau = m * tau0;
     const deviation = Math.sqrt(sum / (2 * tau * tau * terms));
-    const noise = noiseAt(opts.noise, m);
+    const noise = noiseAt(noiseOption, m);
     const edf = totalDevEdf(N, m, noise);
     const [ciLow, ciHigh] = chiSquaredInterval(deviation, edf, confidence);
     return { m, tau, deviation, terms, noise, edf, ciLow, ciHigh };
