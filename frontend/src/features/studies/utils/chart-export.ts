@@ -113,6 +113,10 @@ const TABLE_COLUMNS = [
 ] as const;
 const TABLE_WIDTH = 640;
 
+// Written here rather than taken from a package: MUI X Charts keeps its image export to its paid tier, and the
+// file must carry what the chart does not draw (every point's terms, edf and interval, as a table, text and
+// metadata). The work itself is the browser's: cloneNode, getComputedStyle, XMLSerializer, a canvas for the PNG.
+
 /**
  * A chart's svg as a file that stands on its own: the plot as drawn (styles inlined), a title and legend above it
  * (the page draws those in HTML), and below it a table of every point with its terms, edf and 95 % interval. The
