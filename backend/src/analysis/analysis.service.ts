@@ -289,6 +289,12 @@ export class AnalysisService {
     if (!(tau0 > 0)) throw new MetrologyError('not_sorted', 'the readings of this run share one time stamp, so they have no interval');
     const gaps = detectGaps(t, tau0);
     const gapChoice = query.gaps ?? 'longest';
+    if (phase && query.referenceHz !== undefined) {
+      throw new MetrologyError(
+        'bad_argument',
+        'referenceHz: this run holds phase readings, which are already time error against the counter’s reference; no reference frequency applies',
+      );
+    }
     if (gapChoice === 'fill' && !phase) {
       throw new MetrologyError(
         'phase_only',

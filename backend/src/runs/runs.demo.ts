@@ -1,11 +1,13 @@
 import type { EntityManager } from 'typeorm';
-import type { RunKind } from '@kilocycle/common/types';
+import type { RunDataKind, RunKind } from '@kilocycle/common/types';
 import { Run } from './run.entity.js';
 
 export type DemoRunSpec = {
   jobId: number;
   rangeId: number;
   kind: RunKind;
+  /** Default frequency; phase (time interval, s) for a stability run fed by a time-interval counter. */
+  dataKind?: RunDataKind;
   standardId: number | null;
   benchId?: number | null;
   createdBy: number;
@@ -24,6 +26,7 @@ export async function insertDemoRun(manager: EntityManager, spec: DemoRunSpec): 
     jobId: spec.jobId,
     rangeId: spec.rangeId,
     kind: spec.kind,
+    dataKind: spec.dataKind ?? 'frequency',
     status: spec.minutes === null ? 'open' : 'closed',
     benchId: spec.benchId ?? null,
     standardId: spec.standardId,

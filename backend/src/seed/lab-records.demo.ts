@@ -311,6 +311,20 @@ async function seedReferenceStability(scene: LabScene, reference: DemoInstrument
     configuration: 'Oven at temperature for 48 h; 1 s gate, one reading a second',
   });
   await insertDemoReadings(manager, stability.id, stability.startedAt, stabilityReadings(5_000_000.0123, 3600, 23));
+  // The same oscillator against the house reference through the time-interval counter, the next morning: phase data,
+  // with the 20 s the counter was re-armed missing half-way (the page offers the longest segment or filling the gap).
+  const phase = await insertRun(scene, {
+    jobId: job.id,
+    rangeId: reference.ranges[0]!.id,
+    kind: 'stability',
+    dataKind: 'phase',
+    createdBy: engineer,
+    startedAt: day(-1, 7, 0),
+    minutes: 60,
+    configuration: 'Time-interval counter: start from the oscillator, stop from the house reference; one reading a second',
+    notes: 'Counter re-armed at about 30 min (20 s missing).',
+  });
+  await insertDemoReadings(manager, phase.id, phase.startedAt, phaseReadings(3600, 1800, 20, 29));
   await history(scene, [[lead, 'job', job.id, 'create', { number: job.number }, day(-3, 10)]]);
 }
 
@@ -374,6 +388,23 @@ function calibrationReadings(settingsKhz: number[], oscillator: (markedHz: numbe
 function warmupReadings(curve: (t: number) => number, noiseHz: number, seed: number): ReadingRow[] {
   const noise = seededGaussian(seed);
   return Array.from({ length: 720 }, (_, i): ReadingRow => [i + 1, 10 * i, null, Math.round((curve(10 * i) + noiseHz * noise()) * 100) / 100, null]);
+}
+
+/**
+ * Time-interval readings (s) one a second: a fractional frequency offset of 2.4e-9 with white frequency noise of
+ * 2e-11 summed into phase, plus 40 ps of white phase noise from the counter; `gapLength` seconds missing from `gapAt`.
+ */
+function phaseReadings(count: number, gapAt: number, gapLength: number, seed: number): ReadingRow[] {
+  const noise = seededGaussian(seed);
+  const rows: ReadingRow[] = [];
+  let x = 0;
+  for (let i = 0; i < count; i++) {
+    if (i > 0) x += 2.4e-9 + 2e-11 * noise();
+    const reading = Math.round((x + 4e-11 * noise()) * 1e13) / 1e13;
+    if (i >= gapAt && i < gapAt + gapLength) continue;
+    rows.push([rows.length + 1, i, null, reading, null]);
+  }
+  return rows;
 }
 
 /** One reading a second: white frequency noise plus a slow random walk, as a good crystal oscillator shows. */

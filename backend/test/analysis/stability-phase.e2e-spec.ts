@@ -178,6 +178,9 @@ describe('phase (time-interval) stability runs (e2e, MariaDB)', () => {
     // 110 phase points (100 read + 10 filled): the overlapping ADEV at m = 1 sums N − 2m = 108 terms (SP 1065, eq. for σ_y from phase).
     expect(filled.body.toolkit.deviations[0].adev.terms).toBe(108);
     expect(filled.body.toolkit.drift.spansGap).toBe(true);
+    const reference = await analysis(runId, '?referenceHz=10000000');
+    expect(reference.status).toBe(422);
+    expect(reference.body.message).toContain('referenceHz: this run holds phase readings');
     const across = await analysis(runId, '?gaps=continuous');
     expect(across.status).toBe(422);
     expect(across.body.message).toContain('this is a phase run with 1 gap, and its phase jumps across each one');
@@ -192,6 +195,24 @@ describe('phase (time-interval) stability runs (e2e, MariaDB)', () => {
     const fillFrequency = await analysis(freqRun, '?gaps=fill');
     expect(fillFrequency.status).toBe(422);
     expect(fillFrequency.body.message).toContain('gaps are filled in phase data only');
+  });
+
+  it("the demo's lab reference has a phase run with the counter's 20 s re-arm gap: longest segment by default, 20 points filled on request", async () => {
+    const [run] = await t.dataSource.query("SELECT id FROM runs WHERE kind = 'stability' AND data_kind = 'phase' ORDER BY id LIMIT 1");
+    const runId = Number(run.id);
+    const longest = await analysis(runId);
+    expect(longest.status).toBe(200);
+    expect(longest.body.toolkit.dataKind).toBe('phase');
+    // Readings 0–1799 before the gap, 1820–3599 after it: 1800 analysed, 1780 left out.
+    expect(longest.body.toolkit.segment).toMatchObject({ choice: 'longest', gapCount: 1, count: 1800, leftOut: 1780 });
+    // Offset 2.4e-9 summed into phase at 1 s: the least-squares drift is near zero and σ_y(1 s) lies near the white FM of 2e-11
+    // plus the counter's 40 ps white PM (√(2e-11² + 3·4e-11²) ≈ 7.2e-11 by the closed forms for the two noises at τ0).
+    const adev1 = longest.body.toolkit.deviations[0].adev.deviation;
+    expect(adev1).toBeGreaterThan(5e-11);
+    expect(adev1).toBeLessThan(1e-10);
+    const filled = await analysis(runId, '?gaps=fill');
+    expect(filled.status).toBe(200);
+    expect(filled.body.toolkit.segment).toMatchObject({ choice: 'fill', count: 3580, filled: 20 });
   });
 
   it('refuses a phase run in a comparison, naming it', async () => {
