@@ -1,37 +1,10 @@
-import { readFileSync } from 'node:fs';
-import { dirname, resolve } from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { instrumentWithJob, khzRange, openRun, organizationIds, postReadings } from '../support/lab-fixtures.js';
+import { expectPrinted, sp1065Suite, table31 } from '../support/sp1065.js';
 import { createTestApp, signInDemo, type AsDemo, type TestApp } from '../support/test-app.js';
 
 // Phase (time-interval) stability runs through the API. Expected values: NIST SP 1065 (Riley 2008) Table 31 as
 // recorded in fixtures/stability, reached from phase data made by SP 1065's own definition x(i+1) = x(i) + y(i)·τ0
 // (written out below, not taken from the code under test), and closed forms for a quadratic phase.
-
-const here = dirname(fileURLToPath(import.meta.url));
-const table31 = JSON.parse(readFileSync(resolve(here, '../../../fixtures/stability/sp1065_1000point_results.json'), 'utf8')) as {
-  averaging_factors: number[];
-  results: Record<string, string[]>;
-};
-
-/** SP 1065 §12.4: n(0) = 1234567890, n(i+1) = 16807·n(i) mod 2147483647, y(i) = n(i)/2147483647. */
-function sp1065Suite(): number[] {
-  const out: number[] = [];
-  let n = 1234567890;
-  for (let i = 0; i < 1000; i++) {
-    out.push(n / 2147483647);
-    n = (16807 * n) % 2147483647;
-  }
-  return out;
-}
-
-/** The printed digits allow half a unit in the last printed place. */
-function expectPrinted(actual: number, printed: string, label: string): void {
-  const [mantissa = '', exponent = '0'] = printed.split('e');
-  const places = (mantissa.split('.')[1] ?? '').length;
-  const halfUnit = 0.5 * 10 ** (Number(exponent) - places);
-  if (!(Math.abs(actual - Number(printed)) <= halfUnit)) throw new Error(`${label}: got ${actual}, printed ${printed} (±${halfUnit})`);
-}
 
 type Value = { deviation: number; terms: number; edf: number } | null;
 type Row = { m: number; tau: number } & Record<'adev' | 'mdev' | 'hdev' | 'tdev' | 'totdev', Value>;
