@@ -80,7 +80,7 @@ describe('a phase stability run (browser)', () => {
     });
   });
 
-  it('should save the deviation chart as an SVG carrying every point with its terms, edf and interval', async () => {
+  it('should save the deviation chart as an SVG carrying every point with its terms, edf and interval, and as a PNG at twice its size', async () => {
     await onNewPage(browser, 'phase-svg', async (page) => {
       await signIn(page, 'engineer@kilocycle.test');
       await page.goto(`/runs/${gappedRunId}`);
@@ -98,6 +98,13 @@ describe('a phase stability run (browser)', () => {
       expect(svg).toMatch(/95 %|95%/);
       // One line of the point table per τ of the page's table, at least (each deviation shown has its own).
       expect((svg.match(/τ = /g) ?? []).length).toBeGreaterThanOrEqual(rows);
+      // The PNG: a PNG file (its eight-byte signature, PNG specification §5.2) drawn at twice the chart's size.
+      const [png] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: /^Save PNG: Deviations/ }).click()]);
+      expect(png.suggestedFilename()).toMatch(/\.png$/);
+      const bytes = readFileSync((await png.path())!);
+      expect([...bytes.subarray(0, 8)]).toEqual([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
+      const svgWidth = Number(/<svg[^>]* width="(\d+)"/.exec(svg)![1]);
+      expect(bytes.readUInt32BE(16)).toBe(2 * svgWidth);
     });
   });
 });

@@ -6,7 +6,8 @@ import Typography from '@mui/material/Typography';
 import { useRef, type ReactNode } from 'react';
 import { saveBlob, saveText } from '@/lib/file-transfer';
 import { notify } from '@/lib/notifications';
-import { chartToSvg, findChartSvg, slug, svgToPng, type LegendEntry } from '../utils/chart-export';
+import { svgToPng } from '@/utils/chart-image';
+import { chartToSvg, findChartSvg, slug, type LegendEntry } from '../utils/chart-export';
 
 type ChartPanelProps = { title: string; fileTitle: string; legend: readonly LegendEntry[]; note?: ReactNode; actions?: ReactNode; children: ReactNode };
 

@@ -1,26 +1,8 @@
 // A chart leaves the page as a file of its own: its <svg> with the styles that the page's CSS gave it
 // written inline, a title and the legend added above (the chart's legend is HTML, outside the svg).
+import { escapeXml, inlineStyles } from '@/utils/chart-image';
 
 const SVG_NS = 'http://www.w3.org/2000/svg';
-
-const STYLE_PROPERTIES = [
-  'fill',
-  'fill-opacity',
-  'stroke',
-  'stroke-width',
-  'stroke-dasharray',
-  'stroke-opacity',
-  'stroke-linecap',
-  'stroke-linejoin',
-  'opacity',
-  'font-family',
-  'font-size',
-  'font-weight',
-  'text-anchor',
-  'dominant-baseline',
-  'visibility',
-  'display',
-] as const;
 
 export type LegendEntry = { label: string; color: string; dashed?: boolean };
 
@@ -37,25 +19,6 @@ export function findChartSvg(container: HTMLElement): SVGSVGElement | null {
     }
   }
   return best;
-}
-
-function inlineStyles(source: Element, target: Element) {
-  const computed = window.getComputedStyle(source);
-  const declarations: string[] = [];
-  for (const property of STYLE_PROPERTIES) {
-    const value = computed.getPropertyValue(property);
-    if (value) declarations.push(`${property}:${value}`);
-  }
-  if (declarations.length > 0) target.setAttribute('style', declarations.join(';'));
-  const sourceChildren = source.children;
-  const targetChildren = target.children;
-  for (let i = 0; i < sourceChildren.length && i < targetChildren.length; i++) {
-    inlineStyles(sourceChildren[i]!, targetChildren[i]!);
-  }
-}
-
-function escapeXml(text: string): string {
-  return text.replace(/[<>&"']/g, (c) => ({ '<': '&lt;', '>': '&gt;', '&': '&amp;', '"': '&quot;', "'": '&apos;' })[c] ?? c);
 }
 
 /** A standalone SVG document of the chart, with a title and the legend drawn above it. */
@@ -101,36 +64,6 @@ export function chartToSvg(svg: SVGSVGElement, { title, legend }: { title: strin
     serializer.serializeToString(clone),
     `</svg>`,
   ].join('\n');
-}
-
-/** Draws the SVG document on a canvas (twice the size, for sharp print) and returns it as PNG. */
-export function svgToPng(svgText: string, scale = 2): Promise<Blob> {
-  return new Promise<Blob>((resolve, reject) => {
-    const url = URL.createObjectURL(new Blob([svgText], { type: 'image/svg+xml;charset=utf-8' }));
-    const image = new Image();
-    image.onload = () => {
-      const canvas = document.createElement('canvas');
-      canvas.width = Math.ceil(image.naturalWidth * scale);
-      canvas.height = Math.ceil(image.naturalHeight * scale);
-      const context = canvas.getContext('2d');
-      if (!context) {
-        URL.revokeObjectURL(url);
-        reject(new Error('This browser cannot draw the image'));
-        return;
-      }
-      context.fillStyle = '#ffffff';
-      context.fillRect(0, 0, canvas.width, canvas.height);
-      context.scale(scale, scale);
-      context.drawImage(image, 0, 0);
-      URL.revokeObjectURL(url);
-      canvas.toBlob((blob) => (blob ? resolve(blob) : reject(new Error('The image could not be made'))), 'image/png');
-    };
-    image.onerror = () => {
-      URL.revokeObjectURL(url);
-      reject(new Error('The chart could not be drawn as an image'));
-    };
-    image.src = url;
-  });
 }
 
 /** A file name from a title: lower case, words joined by hyphens. */

@@ -16,7 +16,8 @@ import { saveBlob, saveText } from '@/lib/file-transfer';
 import { notify } from '@/lib/notifications';
 import { MONO_FONT } from '@/lib/theme';
 import { formatAxisNumber, logTicks } from '@/utils/log-axis';
-import { chartPoints, standaloneSvg, svgToPng } from '../utils/chart-export';
+import { svgToPng } from '@/utils/chart-image';
+import { chartPoints, standaloneSvg } from '../utils/chart-export';
 import type { GuideLine } from '../utils/slope-guides';
 import { SlopeGuides } from './slope-guides';
 
@@ -118,7 +119,7 @@ export function DeviationChart({
   const savePng = () => {
     const file = exported();
     if (!file) return;
-    svgToPng(file, 2).then(
+    svgToPng(file.text, 2).then(
       (blob) => saveBlob(blob, `${fileName}.png`),
       (error: unknown) =>
         notify('error', `The PNG could not be made: ${error instanceof Error ? error.message : String(error)}. Save SVG keeps the chart too.`),

@@ -1,3 +1,4 @@
+import { escapeXml, inlineStyles } from '@/utils/chart-image';
 import { STABILITY_DEVIATION_SHORT, type StabilityDeviation, type StabilityToolkit } from '@kilocycle/common/types';
 
 type StabilityTableRow = StabilityToolkit['deviations'][number];
@@ -52,43 +53,9 @@ export function chartPoints(rows: readonly StabilityTableRow[], deviations: read
   );
 }
 
-const XML_ESCAPES: Record<string, string> = { '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&apos;' };
-const xml = (text: string | number) => String(text).replace(/[&<>"']/g, (c) => XML_ESCAPES[c] ?? c);
+const xml = escapeXml;
 /** Full precision in the metadata and desc (a reader may compute with them); four figures in the drawn table. */
 const short = (v: number) => (Number.isFinite(v) ? v.toPrecision(4) : '—');
-
-// What the drawn chart looks like comes partly from the theme's stylesheet: copied onto each element, so the file
-// looks the same opened on its own.
-const STYLE_PROPERTIES = [
-  'fill',
-  'fill-opacity',
-  'stroke',
-  'stroke-width',
-  'stroke-opacity',
-  'stroke-dasharray',
-  'stroke-linecap',
-  'stroke-linejoin',
-  'opacity',
-  'visibility',
-  'display',
-  'font-family',
-  'font-size',
-  'font-weight',
-  'font-style',
-  'text-anchor',
-  'dominant-baseline',
-  'alignment-baseline',
-  'shape-rendering',
-] as const;
-
-function inlineStyles(source: Element, target: Element): void {
-  const computed = window.getComputedStyle(source);
-  const declarations = STYLE_PROPERTIES.flatMap((property) => {
-    const value = computed.getPropertyValue(property);
-    return value ? [`${property}:${value}`] : [];
-  });
-  if (declarations.length) target.setAttribute('style', `${declarations.join(';')};${target.getAttribute('style') ?? ''}`);
-}
 
 /** The drawn size of a chart's svg: its box on the page, else its viewBox or attributes. */
 export function svgSize(svg: SVGSVGElement): { width: number; height: number } {
@@ -113,10 +80,6 @@ const TABLE_COLUMNS = [
 ] as const;
 const TABLE_WIDTH = 640;
 
-// Written here rather than taken from a package: MUI X Charts keeps its image export to its paid tier, and the
-// file must carry what the chart does not draw (every point's terms, edf and interval, as a table, text and
-// metadata). The work itself is the browser's: cloneNode, getComputedStyle, XMLSerializer, a canvas for the PNG.
-
 /**
  * A chart's svg as a file that stands on its own: the plot as drawn (styles inlined), a title and legend above it
  * (the page draws those in HTML), and below it a table of every point with its terms, edf and 95 % interval. The
@@ -125,12 +88,6 @@ const TABLE_WIDTH = 640;
 export function standaloneSvg(svg: SVGSVGElement, chart: ChartExport): { text: string; width: number; height: number } {
   const plot = svg.cloneNode(true) as SVGSVGElement;
   inlineStyles(svg, plot);
-  const sources = svg.querySelectorAll('*');
-  const targets = plot.querySelectorAll('*');
-  sources.forEach((source, i) => {
-    const target = targets[i];
-    if (target) inlineStyles(source, target);
-  });
   const size = svgSize(svg);
   const width = Math.max(size.width, TABLE_WIDTH + 24);
   plot.setAttribute('x', '0');
@@ -190,27 +147,4 @@ export function standaloneSvg(svg: SVGSVGElement, chart: ChartExport): { text: s
 </svg>
 `;
   return { text, width, height };
-}
-
-/** Draws an svg file onto a canvas at `scale` (2: sharp on a high-density screen and in print) and gives it back as PNG. */
-export function svgToPng(svg: { text: string; width: number; height: number }, scale = 2): Promise<Blob> {
-  return new Promise((resolve, reject) => {
-    const image = new Image();
-    image.onload = () => {
-      const canvas = document.createElement('canvas');
-      canvas.width = Math.round(svg.width * scale);
-      canvas.height = Math.round(svg.height * scale);
-      const context = canvas.getContext('2d');
-      if (!context) {
-        reject(new Error('this browser cannot draw on a canvas'));
-        return;
-      }
-      context.scale(scale, scale);
-      context.drawImage(image, 0, 0, svg.width, svg.height);
-      canvas.toBlob((blob) => (blob ? resolve(blob) : reject(new Error('the browser gave no PNG'))), 'image/png');
-    };
-    image.onerror = () => reject(new Error('the browser could not draw the chart'));
-    // A data: address (not a blob: one) keeps the canvas untainted, so toBlob is allowed.
-    image.src = `data:image/svg+xml;charset=utf-8,${encodeURIComponent(svg.text)}`;
-  });
 }
