@@ -13,4 +13,8 @@ export default {
   resolver: '<rootDir>/test/support/jest-resolver.cjs',
   testTimeout: 60000,
   maxWorkers: 1,
+  // One worker process, not the runner's own: Jest's ESM module registry keeps growing from file to file, and in one
+  // process the backend suite reached the 4 GB heap limit on a long run. The worker is replaced after any file that
+  // leaves it above this (Jest's documented remedy; a memory limit is what makes Jest use a worker at maxWorkers 1).
+  workerIdleMemoryLimit: '1.5GB',
 };
